@@ -1,0 +1,21 @@
+// The command line's subcommands. Each `add_*_command` adds its subcommand (with its
+// options) to the app and returns the function that runs it once parsed; main() maps
+// errors to exit codes (exit_codes.h). To add a command: write cli/<name>_command.cpp
+// with its add function, declare it here and list it in commands.cpp.
+#pragma once
+#include <functional>
+#include <vector>
+
+#include <CLI/CLI.hpp>
+
+namespace manicule::cli {
+
+using CommandRunner = std::function<int()>;
+using CommandAdder = CommandRunner (*)(CLI::App&);
+
+CommandRunner add_segments_command(CLI::App& app);
+
+// Every command, in the order `manicule --help` lists them.
+std::vector<CommandAdder> all_commands();
+
+}  // namespace manicule::cli

@@ -1,0 +1,40 @@
+// The `manicule` command: parses arguments, runs one subcommand, maps errors to exit codes.
+// Only src/cli prints to the terminal.
+#include <iostream>
+
+#include <CLI/CLI.hpp>
+
+#include "cli/commands.h"
+#include "cli/exit_codes.h"
+#include "core/error.h"
+#include "manicule_version.h"
+
+int main(int argc, char** argv) {
+  using namespace manicule;
+  CLI::App app{"manicule: measure style inside TEI editions"};
+  app.set_version_flag("--version", std::string("manicule ") + MANICULE_VERSION_STRING);
+  app.require_subcommand(1);
+  std::vector<std::pair<CLI::App*, cli::CommandRunner>> commands;
+  for (auto add : cli::all_commands()) {
+    cli::CommandRunner runner = add(app);
+    commands.emplace_back(app.get_subcommands(nullptr).back(), std::move(runner));
+  }
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::ParseError& e) {
+    int code = app.exit(e);
+    return code == 0 ? 0 : cli::kExitUsage;
+  }
+  try {
+    for (auto& [command, runner] : commands)
+      if (command->parsed()) return runner();
+    std::cerr << "manicule: no command given\n";
+    return cli::kExitUsage;
+  } catch (const Error& e) {
+    std::cerr << "manicule: " << e.what() << '\n';
+    return static_cast<int>(e.kind());
+  } catch (const std::exception& e) {
+    std::cerr << "manicule: internal error: " << e.what() << '\n';
+    return static_cast<int>(ErrorKind::internal);
+  }
+}

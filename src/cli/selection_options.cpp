@@ -1,0 +1,51 @@
+#include "cli/selection_options.h"
+
+#include "core/error.h"
+
+namespace manicule::cli {
+
+void SelectionOptions::add_to(CLI::App& command, const std::string& default_unit) {
+  unit = default_unit;
+  command.add_option("files", inputs, "TEI files, or folders searched for *.xml")->required();
+  command.add_option("--unit,-u", unit,
+                     "what makes a segment: speaker, letter, chapter, whole, or xpath:EXPR "
+                     "(prefix TEI elements with tei:)")
+      ->capture_default_str();
+  command.add_option("--keep", keep, "keep an element left out by default (repeatable), e.g. --keep note");
+  command.add_option("--drop", drop, "also leave out an element (repeatable), e.g. --drop quote");
+  command.add_option("--preset", preset, "reading (the editor's corrected text) or diplomatic (what the source shows)")
+      ->check(CLI::IsMember({"reading", "diplomatic"}))
+      ->capture_default_str();
+  command.add_option("--joint-speech", joint,
+                     "a speech with several speakers in @who: 'each' credits it to every one, 'drop' leaves it out")
+      ->check(CLI::IsMember({"each", "drop"}))
+      ->capture_default_str();
+  command.add_flag("--no-fold", no_fold, "keep letter case (default: full Unicode case folding)");
+  command.add_flag("--keep-numbers", keep_numbers, "count numbers as words");
+  command.add_flag("--keep-punctuation", keep_punctuation, "count punctuation marks as tokens");
+  command.add_flag("--long-s", long_s, "read long s (ſ) as s");
+  command.add_flag("--ligatures", ligatures, "read ligatures (ﬁ, ﬂ, ...) as their letters");
+  command.add_flag("--no-apostrophe-fold", no_apostrophes, "keep apostrophe variants (’ ʼ) apart from '");
+  command.add_option("--threads", threads, "files read at once (default: one per core)");
+}
+
+Request SelectionOptions::to_request() const {
+  Request r;
+  r.inputs = inputs;
+  r.unit = unit;
+  r.preset = preset == "diplomatic" ? Preset::diplomatic : Preset::reading;
+  r.keep = keep;
+  r.drop = drop;
+  r.joint = joint == "drop" ? JointSpeech::drop : JointSpeech::each;
+  r.tokenizer.case_fold = !no_fold;
+  r.tokenizer.keep_numbers = keep_numbers;
+  r.tokenizer.keep_punctuation = keep_punctuation;
+  r.tokenizer.long_s = long_s;
+  r.tokenizer.ligatures = ligatures;
+  r.tokenizer.apostrophes = !no_apostrophes;
+  r.threads = threads;
+  r.selection_rules();  // validates unit and element names early
+  return r;
+}
+
+}  // namespace manicule::cli

@@ -1,0 +1,134 @@
+#include "core/corpus.h"
+
+#include <algorithm>
+#include <atomic>
+#include <filesystem>
+#include <mutex>
+#include <thread>
+#include <unordered_set>
+
+#include "core/error.h"
+#include "profile/profile_builder.h"
+#include "tei/reader.h"
+#include "text/tokenizer.h"
+
+namespace manicule {
+
+namespace fs = std::filesystem;
+
+std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs) {
+  std::vector<std::string> files;
+  for (const auto& input : inputs) {
+    std::error_code ec;
+    auto status = fs::status(input, ec);
+    if (ec || !fs::exists(status)) throw Error(ErrorKind::bad_input, "no such file or folder", input);
+    if (fs::is_directory(status)) {
+      std::vector<std::string> found;
+      for (auto it = fs::recursive_directory_iterator(input, fs::directory_options::skip_permission_denied, ec);
+           it != fs::recursive_directory_iterator(); it.increment(ec)) {
+        if (ec) break;
+        if (it->is_regular_file() && it->path().extension() == ".xml") found.push_back(it->path().string());
+      }
+      std::sort(found.begin(), found.end());
+      files.insert(files.end(), found.begin(), found.end());
+    } else {
+      files.push_back(input);
+    }
+  }
+  return files;
+}
+
+namespace {
+
+struct FileResult {
+  std::vector<SegmentRecord> segments;
+  CountProfile counts;
+  bool failed = false;
+  FileFailure failure;
+  std::size_t bytes = 0;
+};
+
+FileResult read_one(const std::string& file, const Request& request, const SelectionRules& rules,
+                    Tokenizer& tokenizer) {
+  FileResult result;
+  std::error_code ec;
+  result.bytes = static_cast<std::size_t>(fs::file_size(file, ec));
+  try {
+    std::vector<Segment> segments = read_segments(XmlSource::file(file), rules);
+    ProfileBuilder builder(request.features);
+    std::unordered_set<std::string> types;
+    for (Segment& segment : segments) {
+      SegmentRecord record;
+      types.clear();
+      builder.begin_segment(segment.id);
+      for (const TextRun& run : segment.runs) {
+        tokenizer.tokenize(run.text, run.language, [&](std::string_view token) {
+          ++record.tokens;
+          types.emplace(token);
+          builder.add_token(token);
+        });
+      }
+      builder.end_segment();
+      record.types = types.size();
+      if (!request.keep_text) segment.runs.clear();
+      record.segment = std::move(segment);
+      result.segments.push_back(std::move(record));
+    }
+    result.counts = builder.finish();
+  } catch (const Error& e) {
+    result.failed = true;
+    result.failure = FileFailure{file, e.what(), static_cast<int>(e.kind())};
+  } catch (const std::exception& e) {
+    result.failed = true;
+    result.failure = FileFailure{file, file + ": " + e.what(), static_cast<int>(ErrorKind::internal)};
+  }
+  return result;
+}
+
+}  // namespace
+
+Corpus read_corpus(const Request& request, const std::vector<std::string>& files, const ProgressFn& progress) {
+  const SelectionRules rules = request.selection_rules();
+  validate(request.features);
+  unsigned threads = request.threads ? request.threads : std::max(1u, std::thread::hardware_concurrency());
+  threads = std::min<unsigned>(threads, std::max<std::size_t>(1, files.size()));
+
+  std::vector<FileResult> results(files.size());
+  std::atomic<std::size_t> next{0};
+  std::atomic<std::size_t> done{0};
+  std::atomic<std::size_t> bytes_done{0};
+  std::mutex progress_mutex;
+  auto worker = [&] {
+    Tokenizer tokenizer(request.tokenizer);
+    for (std::size_t i = next++; i < files.size(); i = next++) {
+      results[i] = read_one(files[i], request, rules, tokenizer);
+      bytes_done += results[i].bytes;
+      std::size_t d = ++done;
+      if (progress) {
+        std::lock_guard<std::mutex> lock(progress_mutex);
+        progress(d, files.size(), bytes_done.load());
+      }
+    }
+  };
+  std::vector<std::thread> pool;
+  for (unsigned t = 1; t < threads; ++t) pool.emplace_back(worker);
+  worker();
+  for (auto& t : pool) t.join();
+
+  Corpus corpus;
+  corpus.files = files;
+  ProfileBuilder merged(request.features);
+  for (auto& r : results) {
+    corpus.bytes += r.bytes;
+    if (r.failed) {
+      corpus.failures.push_back(std::move(r.failure));
+      continue;
+    }
+    merged.merge(r.counts);
+    for (auto& s : r.segments) corpus.segments.push_back(std::move(s));
+  }
+  corpus.counts = merged.finish();
+  return corpus;
+}
+
+}  // namespace manicule

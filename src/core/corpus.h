@@ -1,0 +1,48 @@
+// Corpus reading: the first half of every run. Expands the inputs to files, reads them in
+// parallel (files are independent), selects segments, tokenises them and counts features.
+// Results come back in input order whatever the thread schedule, so runs are repeatable.
+#pragma once
+#include <cstddef>
+#include <functional>
+#include <string>
+#include <vector>
+
+#include "core/request.h"
+#include "core/segment.h"
+#include "profile/count_profile.h"
+
+namespace manicule {
+
+struct SegmentRecord {
+  Segment segment;          // runs are emptied unless Request::keep_text
+  std::size_t tokens = 0;   // word tokens after tokenisation
+  std::size_t types = 0;    // distinct word tokens
+};
+
+struct FileFailure {
+  std::string file;
+  std::string message;      // "file:line:column: what is wrong"
+  int kind = 0;             // ErrorKind as int
+};
+
+struct Corpus {
+  std::vector<std::string> files;       // in the order read
+  std::vector<SegmentRecord> segments;  // in file order, then document order
+  CountProfile counts;                  // one SegmentCounts per segment, same order
+  std::vector<FileFailure> failures;
+  std::size_t bytes = 0;                // input bytes read
+};
+
+// Called after each file: (files done, files in all, bytes done).
+using ProgressFn = std::function<void(std::size_t, std::size_t, std::size_t)>;
+
+// Lists the TEI files named by `inputs` (files as given; folders searched recursively for
+// *.xml, sorted). Throws Error(bad_input) for a path that does not exist.
+std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs);
+
+// Reads `files` (already expanded). A file that fails is recorded in `failures`; the
+// others are still read. Throws only for a bad request.
+Corpus read_corpus(const Request& request, const std::vector<std::string>& files,
+                   const ProgressFn& progress = {});
+
+}  // namespace manicule

@@ -1,0 +1,34 @@
+// Segment: one unit of running text selected from an edition (a speaker, a letter, a
+// chapter, a whole text or an element named by XPath), with everything later layers need
+// and nothing that ties them to XML.
+#pragma once
+#include <string>
+#include <vector>
+
+namespace manicule {
+
+// A stretch of selected text in one language. Runs are separated by token boundaries.
+struct TextRun {
+  std::string text;      // UTF-8, as selected (not yet normalised)
+  std::string language;  // BCP 47 tag inherited from xml:lang; empty if unknown
+};
+
+// Who is known to have written or spoken a segment, as far as the edition says.
+enum class Authorship { known, conjectured, unknown };
+
+struct Segment {
+  std::string id;          // "<file stem>#<local id>": unique across a run
+  std::string file;        // path of the edition it came from
+  std::string local_id;    // xml:id of the unit element, or a key such as "speaker:Anna"
+  std::string unit;        // speaker | letter | chapter | whole | xpath
+  std::string label;       // human-readable name (speaker's name, letter's sender, title)
+  std::string language;    // main language of the segment (the most text)
+  // Where write-back points: "#id" pointers or TEI xpath() pointers, relative to the file.
+  std::vector<std::string> pointers;
+  std::string author;      // author or speaker key from the edition ("" if none)
+  Authorship authorship = Authorship::unknown;
+  std::vector<TextRun> runs;
+  std::vector<std::string> warnings;  // what the reader noticed (unpaired letter, ...)
+};
+
+}  // namespace manicule

@@ -1,0 +1,39 @@
+// HeaderInfo: what a TEI header (and a castList) says that selection needs: names of
+// persons and roles for speaker labels, correspondence metadata for letter senders, the
+// title and author for whole texts, and the declared language. One per TEI element.
+#pragma once
+#include <map>
+#include <string>
+#include <vector>
+
+#include "core/segment.h"
+
+namespace manicule {
+
+// One correspDesc (2.4.6): who sent the letter(s) it describes.
+struct CorrespRecord {
+  std::string id;            // xml:id, "" if none
+  bool is_default = false;   // @default="true"
+  std::string sender_key;    // @ref of the sender's name, else its normalised text
+  std::string sender_label;  // the name as written
+  Authorship sender_status = Authorship::unknown;
+};
+
+struct HeaderInfo {
+  std::string tei_id;                              // xml:id of the TEI element
+  std::string title;                               // first main title in titleStmt
+  std::vector<std::string> authors;                // titleStmt/author names
+  std::string date;                                // first date in the header, as written
+  std::map<std::string, std::string> person_names;  // person/personGrp/role xml:id -> name
+  std::vector<CorrespRecord> corresp;
+  std::string language;                            // sole or most used langUsage/language
+};
+
+// True for names that stand for nobody: "Unknown", "N.N.", "anonym", "[?]" and the like
+// (tei-conventions.md section 3, "Anonymous letters"; the list is common practice).
+bool is_placeholder_name(const std::string& name);
+
+// Collapses runs of XML whitespace to one space and trims both ends.
+std::string normalise_space(const std::string& text);
+
+}  // namespace manicule

@@ -1,0 +1,93 @@
+#include "tei/reader.h"
+
+#include <libxml/parser.h>
+#include <libxml/xpath.h>
+#include <libxml/xpathInternals.h>
+
+#include <memory>
+#include <set>
+
+#include "core/error.h"
+#include "tei/tei_walker.h"
+
+namespace manicule {
+
+std::string file_stem(const std::string& path) {
+  std::size_t slash = path.find_last_of('/');
+  std::string base = slash == std::string::npos ? path : path.substr(slash + 1);
+  std::size_t dot = base.rfind('.');
+  if (dot != std::string::npos && dot > 0) base.resize(dot);
+  return base;
+}
+
+namespace {
+
+struct XPathErrors {
+  std::string message;
+};
+
+void on_xpath_error(void* user, xmlErrorPtr error) {
+  auto errors = static_cast<XPathErrors*>(user);
+  if (errors->message.empty() && error && error->message) {
+    errors->message = error->message;
+    while (!errors->message.empty() && errors->message.back() == '\n') errors->message.pop_back();
+  }
+}
+
+// Element ordinal path (1-based position among element siblings, from the root).
+std::vector<int> ordinal_path(xmlNodePtr node) {
+  std::vector<int> path;
+  for (xmlNodePtr n = node; n && n->type == XML_ELEMENT_NODE; n = n->parent) {
+    int position = 1;
+    for (xmlNodePtr p = n->prev; p; p = p->prev)
+      if (p->type == XML_ELEMENT_NODE) ++position;
+    path.push_back(position);
+  }
+  return {path.rbegin(), path.rend()};
+}
+
+// Evaluates the editor's XPath on a tree parsed without entity substitution or any
+// loading (safe), with the prefix "tei" bound to the TEI namespace.
+std::set<std::vector<int>> evaluate_xpath(const XmlSource& source, const std::string& expression) {
+  const int options = XML_PARSE_NONET | XML_PARSE_NOWARNING | XML_PARSE_NOERROR | XML_PARSE_NOCDATA;
+  std::unique_ptr<xmlDoc, void (*)(xmlDocPtr)> doc(
+      source.data ? xmlReadMemory(source.data, static_cast<int>(source.size), source.name.c_str(), nullptr, options)
+                  : xmlReadFile(source.name.c_str(), nullptr, options),
+      xmlFreeDoc);
+  if (!doc) throw Error(ErrorKind::bad_input, "could not parse the file for the XPath selection", source.name);
+  std::unique_ptr<xmlXPathContext, void (*)(xmlXPathContextPtr)> ctx(xmlXPathNewContext(doc.get()),
+                                                                      xmlXPathFreeContext);
+  XPathErrors errors;
+  ctx->error = on_xpath_error;
+  ctx->userData = &errors;
+  xmlXPathRegisterNs(ctx.get(), BAD_CAST "tei", BAD_CAST "http://www.tei-c.org/ns/1.0");
+  std::unique_ptr<xmlXPathObject, void (*)(xmlXPathObjectPtr)> result(
+      xmlXPathEvalExpression(BAD_CAST expression.c_str(), ctx.get()), xmlXPathFreeObject);
+  if (!result) {
+    throw Error(ErrorKind::usage, "the XPath '" + expression + "' does not compile" +
+                                      (errors.message.empty() ? "" : ": " + errors.message) +
+                                      " (TEI elements need the prefix tei:, e.g. //tei:div[@type='poem'])");
+  }
+  std::set<std::vector<int>> targets;
+  if (result->type == XPATH_NODESET && result->nodesetval) {
+    for (int i = 0; i < result->nodesetval->nodeNr; ++i) {
+      xmlNodePtr node = result->nodesetval->nodeTab[i];
+      if (node->type == XML_ELEMENT_NODE) targets.insert(ordinal_path(node));
+    }
+  } else {
+    throw Error(ErrorKind::usage, "the XPath '" + expression + "' does not select elements");
+  }
+  return targets;
+}
+
+}  // namespace
+
+std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules& rules) {
+  std::set<std::vector<int>> targets;
+  if (rules.unit == UnitKind::xpath) targets = evaluate_xpath(source, rules.xpath);
+  TeiWalker walker(rules, source.name, file_stem(source.name), &targets);
+  parse_xml(source, walker);
+  return walker.finish();
+}
+
+}  // namespace manicule

@@ -1,0 +1,681 @@
+#include "tei/tei_walker.h"
+
+#include <unicode/unistr.h>
+
+#include <algorithm>
+#include <map>
+#include <unordered_map>
+#include <unordered_set>
+
+#include "core/error.h"
+#include "tei/header_info.h"
+#include "tei/text_buffer.h"
+
+namespace manicule {
+
+namespace {
+
+// Elements whose start and end separate words (tei-conventions.md section 1, "Token
+// boundaries": block ends and milestones; tags in general are not whitespace, 3.2.2).
+const std::unordered_set<std::string_view>& block_elements() {
+  static const std::unordered_set<std::string_view> names{
+      "p", "ab", "l", "lg", "item", "list", "sp", "spGrp", "div", "div1", "div2", "div3",
+      "div4", "div5", "div6", "div7", "head", "table", "row", "cell", "text", "body",
+      "front", "back", "group", "floatingText", "castItem", "stage", "speaker", "note",
+      "opener", "closer", "salute", "signed", "dateline", "address", "postscript",
+      "trailer", "byline", "epigraph", "argument", "quote", "lem", "rdg", "u", "figure"};
+  return names;
+}
+
+const std::unordered_set<std::string_view>& milestone_elements() {
+  static const std::unordered_set<std::string_view> names{"lb", "pb", "cb", "gb", "milestone"};
+  return names;
+}
+
+bool is_div(std::string_view name) {
+  return name == "div" || (name.size() == 4 && name.substr(0, 3) == "div" && name[3] >= '1' && name[3] <= '7');
+}
+
+std::string case_fold(const std::string& text) {
+  std::string out;
+  icu::UnicodeString::fromUTF8(text).foldCase().toUTF8String(out);
+  return out;
+}
+
+// Speaker text as a key: trimmed, final punctuation removed, case-folded (section 2).
+std::string speaker_key_text(const std::string& raw) {
+  std::string t = normalise_space(raw);
+  while (!t.empty() && std::string_view(".,:;!?").find(t.back()) != std::string_view::npos) {
+    t.pop_back();
+    while (!t.empty() && t.back() == ' ') t.pop_back();
+  }
+  return case_fold(t);
+}
+
+std::vector<std::string> split_pointers(std::string_view value) {
+  std::vector<std::string> out;
+  std::size_t i = 0;
+  while (i < value.size()) {
+    while (i < value.size() && (value[i] == ' ' || value[i] == '\t' || value[i] == '\n' || value[i] == '\r')) ++i;
+    std::size_t j = i;
+    while (j < value.size() && !(value[j] == ' ' || value[j] == '\t' || value[j] == '\n' || value[j] == '\r')) ++j;
+    if (j > i) {
+      std::string token(value.substr(i, j - i));
+      if (!token.empty() && token[0] == '#') token.erase(0, 1);
+      out.push_back(token);
+    }
+    i = j;
+  }
+  return out;
+}
+
+double cert_rank(const std::string& cert) {
+  if (cert == "high") return 3;
+  if (cert == "medium") return 2;
+  if (cert == "low") return 1;
+  if (cert == "unknown" || cert.empty()) return 0;
+  try {
+    return 3 * std::stod(cert);
+  } catch (...) {
+    return 0;
+  }
+}
+
+// What a capture of an element's text is for.
+enum class Capture { none, title, author, person_name, role_name, speaker, head, sender, date };
+
+}  // namespace
+
+struct TeiWalker::State {
+  const SelectionRules& rules;
+  std::string file;
+  std::string stem;
+  const std::set<std::vector<int>>* xpath_targets;
+  std::unordered_set<std::string_view> skip;  // views into rules.skipped
+
+  struct Frame {
+    std::string name;
+    bool tei = false;
+    bool skipped_here = false;   // this element began a skipped subtree
+    bool pushed_language = false;
+    bool block = false;
+    int unit = -1;               // index into open_units opened here
+    bool alternation = false;    // this element is a choice/app being resolved
+    bool member = false;         // a buffered member of the enclosing alternation
+    std::string cert, wit;
+    Capture capture = Capture::none;
+    bool header = false, title_stmt = false, corresp_desc = false, corresp_sent = false;
+    bool person = false, cast_list = false, sp_grp = false, tei_element = false;
+    std::string xml_id;
+    int ordinal = 0;                                   // position among element siblings
+    int same_name_index = 0;                           // position among same-name siblings
+    int child_elements = 0;
+    std::vector<std::pair<std::string, int>> child_name_counts;
+  };
+  std::vector<Frame> frames;
+
+  struct Member {
+    std::string name, cert, wit;
+    bool skipped_by_name;
+    TextBuffer buffer;
+  };
+  struct Alternation {
+    bool is_app;
+    std::vector<Member> members;
+  };
+  std::vector<Alternation> alternations;
+
+  struct OpenUnit {
+    std::vector<TextBuffer> buffers{TextBuffer{}};
+    std::string local_id;                 // xml:id or generated
+    std::string pointer;                  // "#id" or xpath(...)
+    std::vector<std::string> who;         // speaker keys from @who
+    std::string speaker_text, head_text;
+    std::string decls;                    // letter @decls
+    bool body_letter = false;             // provisional one-letter-per-file unit
+    int tei_index;
+  };
+  std::vector<OpenUnit> open_units;
+
+  std::vector<std::string> languages{""};  // interned language tags; 0 = unknown
+  std::vector<int> language_stack;
+
+  std::vector<HeaderInfo> headers;       // one per TEI element, in document order
+  std::vector<int> tei_stack;            // indices into headers of open TEI elements
+  std::vector<std::string> capture_text;  // one per open capture
+  std::vector<std::string> sp_grp_who;
+  std::vector<std::string> person_stack;
+  int header_depth = 0, text_depth = 0, skip_depth = 0, cast_depth = 0;
+  int corresp_index = -1;                // corresp record being read
+  bool in_title_stmt = false;
+  bool in_sent_action = false;
+  bool root_seen = false;
+
+  // Results
+  struct Built {
+    Segment segment;
+    int tei_index = 0;
+    std::string decls;
+    bool body_letter = false;
+  };
+  std::vector<Built> built;
+  std::map<std::string, std::size_t> speaker_index;  // speaker key -> built index
+  std::map<std::string, int> unit_counter;          // for generated ids
+  std::vector<int> letters_per_tei;
+
+  State(const SelectionRules& r, std::string f, std::string st, const std::set<std::vector<int>>* x)
+      : rules(r), file(std::move(f)), stem(std::move(st)), xpath_targets(x) {
+    for (const auto& name : rules.skipped) skip.insert(name);
+  }
+
+  int intern_language(std::string_view tag) {
+    for (std::size_t i = 0; i < languages.size(); ++i)
+      if (languages[i] == tag) return static_cast<int>(i);
+    languages.emplace_back(tag);
+    return static_cast<int>(languages.size() - 1);
+  }
+
+  HeaderInfo& header() { return headers[static_cast<std::size_t>(tei_stack.back())]; }
+
+  bool collecting() const { return !open_units.empty() && skip_depth == 0; }
+  TextBuffer& sink() { return open_units.back().buffers.back(); }
+
+  std::string xpath_pointer() const {
+    std::string path;
+    for (const Frame& f : frames) path += "/" + f.name + "[" + std::to_string(f.same_name_index) + "]";
+    return "xpath(" + path + ")";
+  }
+
+  std::vector<int> ordinal_path() const {
+    std::vector<int> path;
+    path.reserve(frames.size());
+    for (const Frame& f : frames) path.push_back(f.ordinal);
+    return path;
+  }
+
+  void open_unit(Frame& frame, const StartTag& tag) {
+    OpenUnit u;
+    u.tei_index = tei_stack.empty() ? 0 : tei_stack.back();
+    if (!frame.xml_id.empty()) {
+      u.local_id = frame.xml_id;
+      u.pointer = "#" + frame.xml_id;
+    } else {
+      u.pointer = xpath_pointer();
+    }
+    if (rules.unit == UnitKind::speaker) {
+      u.who = split_pointers(tag.attribute("who"));
+      if (u.who.empty() && !sp_grp_who.empty()) u.who = split_pointers(sp_grp_who.back());
+    }
+    u.decls = std::string(tag.attribute("decls"));
+    frame.unit = static_cast<int>(open_units.size());
+    open_units.push_back(std::move(u));
+    sink().add_boundary();
+  }
+
+  bool is_unit_element(const Frame& frame, const StartTag& tag) const {
+    if (!frame.tei) return false;
+    switch (rules.unit) {
+      case UnitKind::speaker: return frame.name == "sp";
+      case UnitKind::letter:
+        return is_div(frame.name) && rules.letter_types.count(std::string(tag.attribute("type")));
+      case UnitKind::chapter:
+        return is_div(frame.name) && rules.chapter_types.count(std::string(tag.attribute("type")));
+      case UnitKind::whole:
+        return frame.name == "text" && frames.size() >= 2 && frames[frames.size() - 2].tei_element;
+      case UnitKind::xpath: return xpath_targets && xpath_targets->count(ordinal_path());
+    }
+    return false;
+  }
+
+  void start_header_context(Frame& f, const StartTag& tag) {
+    if (f.name == "teiHeader") {
+      f.header = true;
+      ++header_depth;
+      return;
+    }
+    if (f.name == "castList") {
+      f.cast_list = true;
+      ++cast_depth;
+    }
+    if (f.name == "role" && cast_depth > 0 && !f.xml_id.empty()) {
+      person_stack.push_back(f.xml_id);
+      f.person = true;
+      f.capture = Capture::role_name;
+      return;
+    }
+    if (header_depth == 0 || tei_stack.empty()) return;
+    HeaderInfo& h = header();
+    if (f.name == "titleStmt") {
+      f.title_stmt = true;
+      in_title_stmt = true;
+    } else if (f.name == "title" && in_title_stmt && h.title.empty() && tag.attribute("type") != "sub") {
+      f.capture = Capture::title;
+    } else if (f.name == "author" && in_title_stmt) {
+      f.capture = Capture::author;
+    } else if ((f.name == "person" || f.name == "personGrp") && !f.xml_id.empty()) {
+      person_stack.push_back(f.xml_id);
+      f.person = true;
+    } else if ((f.name == "persName" || f.name == "name" || f.name == "orgName") && in_sent_action &&
+               corresp_index >= 0) {
+      CorrespRecord& c = h.corresp[static_cast<std::size_t>(corresp_index)];
+      if (c.sender_label.empty() && c.sender_key.empty()) {
+        f.capture = Capture::sender;
+        c.sender_key = std::string(tag.attribute("ref"));
+        std::string_view cert = tag.attribute("cert");
+        bool conjectured = tag.attribute("evidence") == "conjecture" ||
+                           (!cert.empty() && cert != "high" && cert != "1" && cert != "1.0");
+        c.sender_status = conjectured ? Authorship::conjectured : Authorship::known;
+      }
+    } else if ((f.name == "persName" || f.name == "name") && !person_stack.empty() &&
+               !h.person_names.count(person_stack.back())) {
+      f.capture = Capture::person_name;
+    } else if (f.name == "correspDesc") {
+      CorrespRecord c;
+      c.id = f.xml_id;
+      c.is_default = tag.attribute("default") == "true";
+      h.corresp.push_back(c);
+      corresp_index = static_cast<int>(h.corresp.size() - 1);
+      f.corresp_desc = true;
+    } else if (f.name == "correspAction" && tag.attribute("type") == "sent") {
+      in_sent_action = true;
+      f.corresp_sent = true;
+    } else if (f.name == "language" && !tag.attribute("ident").empty()) {
+      // The sole or most used language of langUsage (2.4.2).
+      std::string_view usage = tag.attribute("usage");
+      int u = usage.empty() ? 0 : std::atoi(std::string(usage).c_str());
+      if (h.language.empty() || u > best_language_usage) {
+        h.language = std::string(tag.attribute("ident"));
+        best_language_usage = u;
+      }
+    } else if (f.name == "date" && h.date.empty()) {
+      std::string_view when = tag.attribute("when");
+      if (!when.empty()) h.date = std::string(when);
+      else f.capture = Capture::date;
+    }
+  }
+  int best_language_usage = -1;
+
+  void finish_capture(Frame& f, std::string text) {
+    std::string value = normalise_space(text);
+    HeaderInfo* h = tei_stack.empty() ? nullptr : &header();
+    switch (f.capture) {
+      case Capture::title: if (h && h->title.empty()) h->title = value; break;
+      case Capture::author: if (h && !value.empty()) h->authors.push_back(value); break;
+      case Capture::person_name:
+      case Capture::role_name:
+        if (h && !person_stack.empty() && !value.empty()) h->person_names.emplace(person_stack.back(), value);
+        break;
+      case Capture::sender:
+        if (h && corresp_index >= 0) {
+          CorrespRecord& c = h->corresp[static_cast<std::size_t>(corresp_index)];
+          c.sender_label = value;
+          if (is_placeholder_name(value) && c.sender_key.empty()) c.sender_status = Authorship::unknown;
+          if (c.sender_key.empty() && c.sender_status != Authorship::unknown) c.sender_key = case_fold(value);
+        }
+        break;
+      case Capture::date: if (h && h->date.empty()) h->date = value; break;
+      case Capture::speaker:
+        if (!open_units.empty()) open_units.back().speaker_text += text;
+        break;
+      case Capture::head:
+        if (!open_units.empty() && open_units.back().head_text.empty()) open_units.back().head_text = value;
+        break;
+      case Capture::none: break;
+    }
+  }
+
+  std::string next_local_id(const std::string& kind) {
+    int n = ++unit_counter[kind];
+    return kind + std::to_string(n);
+  }
+
+  Built& new_built(const std::string& local_id, int tei_index) {
+    Built b;
+    b.segment.file = file;
+    b.segment.local_id = local_id;
+    b.segment.id = stem + "#" + local_id;
+    b.segment.unit = unit_name(rules.unit);
+    b.tei_index = tei_index;
+    built.push_back(std::move(b));
+    return built.back();
+  }
+
+  void render_into(Segment& segment, const TextBuffer& buffer) {
+    if (!segment.runs.empty() && !segment.runs.back().text.empty()) segment.runs.back().text.push_back(' ');
+    buffer.render(segment.runs, languages,
+                  rules.preset == Preset::reading ? rules.join_hyphens : std::vector<std::string>{});
+  }
+
+  void close_unit(OpenUnit& u) {
+    const TextBuffer& text = u.buffers.front();
+    if (rules.unit == UnitKind::speaker) {
+      close_speech(u, text);
+      return;
+    }
+    std::string local_id = u.local_id;
+    if (local_id.empty()) {
+      if (u.body_letter) local_id = headers[static_cast<std::size_t>(u.tei_index)].tei_id;
+      if (local_id.empty()) local_id = next_local_id(unit_name(rules.unit));
+    }
+    Built& b = new_built(local_id, u.tei_index);
+    b.segment.pointers.push_back(u.pointer);
+    b.decls = u.decls;
+    b.body_letter = u.body_letter;
+    if (!u.head_text.empty()) b.segment.label = u.head_text;
+    render_into(b.segment, text);
+  }
+
+  void close_speech(OpenUnit& u, const TextBuffer& text) {
+    std::vector<std::string> keys = u.who;
+    const HeaderInfo& h = headers[static_cast<std::size_t>(u.tei_index)];
+    if (keys.empty()) {
+      // No @who: match the speaker label against person and role names (section 2).
+      std::string spoken = speaker_key_text(u.speaker_text);
+      std::string key = spoken.empty() ? "unknown" : "speaker:" + spoken;
+      for (const auto& [id, name] : h.person_names) {
+        if (!spoken.empty() && speaker_key_text(name) == spoken) {
+          key = id;
+          break;
+        }
+      }
+      keys.push_back(key);
+    }
+    if (keys.size() > 1 && rules.joint == JointSpeech::drop) return;
+    for (const std::string& key : keys) {
+      auto it = speaker_index.find(key);
+      if (it == speaker_index.end()) {
+        new_built(key, u.tei_index);
+        it = speaker_index.emplace(key, built.size() - 1).first;
+      }
+      Segment& seg = built[it->second].segment;
+      if (h.person_names.count(key)) {
+        if (seg.pointers.empty()) seg.pointers.push_back("#" + key);
+      } else {
+        seg.pointers.push_back(u.pointer);
+      }
+      if (seg.label.empty() && key.rfind("speaker:", 0) == 0) seg.label = normalise_space(u.speaker_text);
+      render_into(seg, text);
+    }
+  }
+};
+
+TeiWalker::TeiWalker(const SelectionRules& rules, std::string file, std::string stem,
+                     const std::set<std::vector<int>>* xpath_targets)
+    : s_(std::make_unique<State>(rules, std::move(file), std::move(stem), xpath_targets)) {}
+
+TeiWalker::~TeiWalker() = default;
+
+void TeiWalker::start(const StartTag& tag) {
+  State& s = *s_;
+  if (!s.root_seen) {
+    s.root_seen = true;
+    if (!(tag.ns == kTeiNamespace && (tag.local == "TEI" || tag.local == "teiCorpus"))) {
+      std::string got = tag.ns.empty() ? "<" + std::string(tag.local) + "> in no namespace"
+                                       : "<" + std::string(tag.local) + "> in namespace " + std::string(tag.ns);
+      throw Error(ErrorKind::bad_input,
+                  "not a TEI document: the root element is " + got +
+                      "; expected <TEI> or <teiCorpus> in http://www.tei-c.org/ns/1.0",
+                  s.file, tag.line);
+    }
+  }
+  State::Frame f;
+  f.name = std::string(tag.local);
+  f.tei = tag.ns == kTeiNamespace;
+  f.xml_id = std::string(tag.attribute("id", kXmlNamespace));
+  if (!s.frames.empty()) {
+    State::Frame& parent = s.frames.back();
+    f.ordinal = ++parent.child_elements;
+    auto it = std::find_if(parent.child_name_counts.begin(), parent.child_name_counts.end(),
+                           [&](const auto& p) { return p.first == f.name; });
+    if (it == parent.child_name_counts.end()) {
+      parent.child_name_counts.emplace_back(f.name, 1);
+      f.same_name_index = 1;
+    } else {
+      f.same_name_index = ++it->second;
+    }
+  } else {
+    f.ordinal = 1;
+    f.same_name_index = 1;
+  }
+
+  // Language: nearest xml:lang; an empty value means unknown (1.3.1.1.2).
+  if (tag.has_attribute("lang", kXmlNamespace)) {
+    s.language_stack.push_back(s.intern_language(tag.attribute("lang", kXmlNamespace)));
+    f.pushed_language = true;
+  }
+
+  if (f.tei && (f.name == "TEI")) {
+    f.tei_element = true;
+    HeaderInfo h;
+    h.tei_id = f.xml_id;
+    s.headers.push_back(h);
+    s.tei_stack.push_back(static_cast<int>(s.headers.size() - 1));
+    s.letters_per_tei.push_back(0);
+  }
+  if (f.tei) s.start_header_context(f, tag);
+  if (f.tei && f.name == "text") ++s.text_depth;
+
+  // A member of an enclosing alternation is buffered even when its name is skipped: the
+  // choice is made when the alternation ends.
+  bool parent_alternation = !s.frames.empty() && s.frames.back().alternation && s.skip_depth == 0;
+  if (parent_alternation && f.tei) {
+    bool is_app = s.alternations.back().is_app;
+    if (!is_app || f.name == "lem" || f.name == "rdg" || f.name == "rdgGrp") {
+      f.member = true;
+      f.cert = std::string(tag.attribute("cert"));
+      f.wit = std::string(tag.attribute("wit"));
+      s.open_units.back().buffers.emplace_back();
+    }
+  }
+
+  bool unit_here = s.skip_depth == 0 && s.text_depth > 0 && s.is_unit_element(f, tag);
+  // One letter per file: the body is the letter unless letter divs turn up (section 3).
+  bool body_letter = s.rules.unit == UnitKind::letter && f.tei && f.name == "body" && s.skip_depth == 0 &&
+                     s.open_units.empty() && !s.tei_stack.empty() && !s.header().corresp.empty();
+  if (!f.member && f.tei && s.skip_depth == 0 && !unit_here && s.skip.count(f.name)) {
+    f.skipped_here = true;
+    ++s.skip_depth;
+  }
+  if (s.skip_depth == 0 && !f.tei && s.text_depth == 0) {
+    // foreign-namespace elements outside <text> hold no running text
+  }
+  if (unit_here || body_letter) {
+    s.open_unit(f, tag);
+    if (body_letter) s.open_units.back().body_letter = true;
+    if (unit_here && s.rules.unit == UnitKind::letter && !s.tei_stack.empty())
+      ++s.letters_per_tei[static_cast<std::size_t>(s.tei_stack.back())];
+  }
+  if (f.tei && !s.open_units.empty()) {
+    if (f.name == "speaker" && s.rules.unit == UnitKind::speaker) f.capture = Capture::speaker;
+    else if (f.name == "head" && f.capture == Capture::none) f.capture = Capture::head;
+  }
+  if (f.tei && f.name == "spGrp") {
+    s.sp_grp_who.emplace_back(tag.attribute("who"));
+    f.sp_grp = true;
+  }
+  if (f.capture != Capture::none) s.capture_text.emplace_back();
+
+  if (s.collecting()) {
+    if (f.tei && milestone_elements().count(f.name)) {
+      if (tag.attribute("break") == "no") s.sink().add_join();
+      else s.sink().add_boundary();
+    } else if (f.tei && block_elements().count(f.name)) {
+      f.block = true;
+      s.sink().add_boundary();
+    }
+    if (f.tei && (f.name == "choice" || f.name == "app")) {
+      f.alternation = true;
+      s.alternations.push_back(State::Alternation{f.name == "app", {}});
+    }
+  }
+  s.frames.push_back(std::move(f));
+}
+
+void TeiWalker::end() {
+  State& s = *s_;
+  State::Frame f = std::move(s.frames.back());
+  s.frames.pop_back();
+
+  if (f.capture != Capture::none) {
+    std::string text = std::move(s.capture_text.back());
+    s.capture_text.pop_back();
+    s.finish_capture(f, std::move(text));
+  }
+  if (f.block && s.collecting()) s.sink().add_boundary();
+
+  if (f.alternation) {
+    // Choose one member (tei-conventions.md section 1): a member kept by the user first,
+    // then the first member whose name is not skipped (highest @cert among same names);
+    // for app without lem, the rdg of the base witness, else the first rdg.
+    State::Alternation alt = std::move(s.alternations.back());
+    s.alternations.pop_back();
+    const State::Member* chosen = nullptr;
+    for (const auto& m : alt.members)
+      if (s.rules.kept_by_user.count(m.name)) { chosen = &m; break; }
+    if (!chosen) {
+      for (const auto& m : alt.members) {
+        if (m.skipped_by_name) continue;
+        if (!chosen) chosen = &m;
+        else if (m.name == chosen->name && cert_rank(m.cert) > cert_rank(chosen->cert)) chosen = &m;
+      }
+    }
+    if (!chosen && alt.is_app) {
+      for (const auto& m : alt.members) {
+        if (m.name != "rdg") continue;
+        if (!s.rules.base_witness.empty()) {
+          for (const auto& w : split_pointers(m.wit))
+            if (w == s.rules.base_witness) chosen = &m;
+          if (chosen) break;
+        } else {
+          chosen = &m;
+          break;
+        }
+      }
+    }
+    if (chosen && !s.open_units.empty()) s.sink().append(chosen->buffer);
+  }
+  if (f.member) {
+    TextBuffer buffer = std::move(s.open_units.back().buffers.back());
+    s.open_units.back().buffers.pop_back();
+    if (!s.alternations.empty())
+      s.alternations.back().members.push_back(State::Member{f.name, f.cert, f.wit, s.skip.count(f.name) > 0, std::move(buffer)});
+  }
+  if (f.unit >= 0) {
+    State::OpenUnit u = std::move(s.open_units.back());
+    s.open_units.pop_back();
+    s.close_unit(u);
+    if (!s.open_units.empty()) s.sink().add_boundary();
+  }
+  if (f.skipped_here) --s.skip_depth;
+  if (f.pushed_language) s.language_stack.pop_back();
+  if (f.header) --s.header_depth;
+  if (f.title_stmt) s.in_title_stmt = false;
+  if (f.corresp_sent) s.in_sent_action = false;
+  if (f.corresp_desc) s.corresp_index = -1;
+  if (f.person) s.person_stack.pop_back();
+  if (f.cast_list) --s.cast_depth;
+  if (f.sp_grp) s.sp_grp_who.pop_back();
+  if (f.tei && f.name == "text") --s.text_depth;
+  if (f.tei_element) s.tei_stack.pop_back();
+}
+
+void TeiWalker::text(std::string_view chars) {
+  State& s = *s_;
+  for (std::string& c : s.capture_text) c.append(chars);
+  if (!s.collecting() || s.frames.empty()) return;
+  if (s.frames.back().alternation) return;  // whitespace between members
+  int language = s.language_stack.empty() ? 0 : s.language_stack.back();
+  s.sink().add_text(chars, language);
+}
+
+}  // namespace manicule
+
+namespace manicule {
+
+namespace {
+
+// The language with the most text decides the segment's main language.
+std::string main_language(const Segment& segment) {
+  std::map<std::string, std::size_t> sizes;
+  for (const auto& run : segment.runs) sizes[run.language] += run.text.size();
+  std::string best;
+  std::size_t best_size = 0;
+  for (const auto& [tag, size] : sizes) {
+    if (size > best_size) {
+      best = tag;
+      best_size = size;
+    }
+  }
+  return best;
+}
+
+bool has_text(const Segment& segment) {
+  for (const auto& run : segment.runs)
+    for (char c : run.text)
+      if (c != ' ' && c != '\n' && c != '\t' && c != '\r') return true;
+  return false;
+}
+
+}  // namespace
+
+std::vector<Segment> TeiWalker::finish() {
+  State& s = *s_;
+  std::vector<Segment> out;
+  // Letters: pair each letter with its correspDesc (2.4.6, 16.3.2): @decls, else the
+  // default one, else the only one, else by document order with a warning.
+  std::map<int, int> letter_ordinal;
+  for (auto& b : s.built) {
+    Segment& seg = b.segment;
+    const HeaderInfo& h = s.headers.empty() ? HeaderInfo{} : s.headers[static_cast<std::size_t>(b.tei_index)];
+    if (s.rules.unit == UnitKind::letter) {
+      if (b.body_letter && s.letters_per_tei[static_cast<std::size_t>(b.tei_index)] > 0) continue;
+      int ordinal = letter_ordinal[b.tei_index]++;
+      const CorrespRecord* c = nullptr;
+      std::string decls = b.decls.empty() ? "" : split_pointers(b.decls).front();
+      for (const auto& r : h.corresp)
+        if (!decls.empty() && r.id == decls) c = &r;
+      if (!c)
+        for (const auto& r : h.corresp)
+          if (r.is_default) c = &r;
+      if (!c && h.corresp.size() == 1) c = &h.corresp.front();
+      if (!c && static_cast<std::size_t>(ordinal) < h.corresp.size()) {
+        c = &h.corresp[static_cast<std::size_t>(ordinal)];
+        seg.warnings.push_back("letter paired with correspDesc number " + std::to_string(ordinal + 1) +
+                               " by document order: no @decls or default correspDesc links them");
+      }
+      if (c) {
+        seg.label = c->sender_label.empty() ? seg.label : c->sender_label;
+        seg.author = c->sender_status == Authorship::unknown ? "" : c->sender_key;
+        seg.authorship = c->sender_status;
+      }
+    } else if (s.rules.unit == UnitKind::speaker) {
+      auto it = h.person_names.find(seg.local_id);
+      if (it != h.person_names.end()) seg.label = it->second;
+      if (seg.label.empty()) seg.label = seg.local_id;
+      seg.author = seg.local_id == "unknown" ? "" : seg.local_id;
+      seg.authorship = seg.author.empty() ? Authorship::unknown : Authorship::known;
+    } else {
+      if (s.rules.unit == UnitKind::whole || seg.label.empty()) {
+        seg.label = s.rules.unit == UnitKind::whole ? h.title : seg.label;
+        if (seg.label.empty()) seg.label = seg.local_id;
+      }
+      std::string authors;
+      bool anonymous = h.authors.empty();
+      for (const auto& a : h.authors) {
+        authors += (authors.empty() ? "" : "; ") + a;
+        if (is_placeholder_name(a)) anonymous = true;
+      }
+      seg.author = anonymous ? "" : authors;
+      seg.authorship = anonymous ? Authorship::unknown : Authorship::known;
+    }
+    std::string fallback = h.language.empty() ? s.rules.default_language : h.language;
+    for (auto& run : seg.runs)
+      if (run.language.empty()) run.language = fallback;
+    seg.language = main_language(seg);
+    if (!has_text(seg)) seg.warnings.push_back("no running text selected");
+    out.push_back(std::move(seg));
+  }
+  return out;
+}
+
+}  // namespace manicule

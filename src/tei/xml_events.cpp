@@ -1,0 +1,278 @@
+#include "tei/xml_events.h"
+
+#include <libxml/parser.h>
+#include <libxml/parserInternals.h>
+#include <libxml/SAX2.h>
+#include <libxml/entities.h>
+#include <libxml/xmlerror.h>
+
+#include <cerrno>
+#include <cstdio>
+#include <cstring>
+#include <exception>
+#include <memory>
+#include <vector>
+
+#include "core/error.h"
+
+namespace manicule {
+
+std::string_view StartTag::attribute(std::string_view local_name, std::string_view ns_uri) const {
+  for (int i = 0; i < attribute_count; ++i) {
+    const xmlChar** a = attributes + 5 * i;
+    std::string_view name(reinterpret_cast<const char*>(a[0]));
+    if (name != local_name) continue;
+    std::string_view uri = a[2] ? std::string_view(reinterpret_cast<const char*>(a[2])) : "";
+    if (uri != ns_uri) continue;
+    return std::string_view(reinterpret_cast<const char*>(a[3]), static_cast<std::size_t>(a[4] - a[3]));
+  }
+  return {};
+}
+
+bool StartTag::has_attribute(std::string_view local_name, std::string_view ns_uri) const {
+  for (int i = 0; i < attribute_count; ++i) {
+    const xmlChar** a = attributes + 5 * i;
+    std::string_view uri = a[2] ? std::string_view(reinterpret_cast<const char*>(a[2])) : "";
+    if (local_name == reinterpret_cast<const char*>(a[0]) && uri == ns_uri) return true;
+  }
+  return false;
+}
+
+namespace {
+
+// Per-parse state reachable from libxml2 callbacks through ctxt->_private.
+struct ParseState {
+  XmlEventHandler* handler;
+  xmlParserCtxtPtr ctxt = nullptr;
+  std::string first_error;
+  long error_line = 0;
+  long error_column = 0;
+  std::exception_ptr handler_error;
+  bool stopped = false;
+};
+
+ParseState* state_of(void* ctx) {
+  auto ctxt = static_cast<xmlParserCtxtPtr>(ctx);
+  return static_cast<ParseState*>(ctxt->_private);
+}
+
+void stop_with(ParseState* st, std::exception_ptr e) {
+  if (!st->handler_error) st->handler_error = e;
+  st->stopped = true;
+  xmlStopParser(st->ctxt);
+}
+
+void on_start(void* ctx, const xmlChar* local, const xmlChar*, const xmlChar* uri, int,
+              const xmlChar**, int nb_attributes, int, const xmlChar** attributes) {
+  ParseState* st = state_of(ctx);
+  if (st->stopped) return;
+  StartTag tag;
+  tag.local = reinterpret_cast<const char*>(local);
+  tag.ns = uri ? std::string_view(reinterpret_cast<const char*>(uri)) : std::string_view();
+  tag.line = xmlSAX2GetLineNumber(ctx);
+  tag.attributes = attributes;
+  tag.attribute_count = nb_attributes;
+  try {
+    st->handler->start(tag);
+  } catch (...) {
+    stop_with(st, std::current_exception());
+  }
+}
+
+void on_end(void* ctx, const xmlChar*, const xmlChar*, const xmlChar*) {
+  ParseState* st = state_of(ctx);
+  if (st->stopped) return;
+  try {
+    st->handler->end();
+  } catch (...) {
+    stop_with(st, std::current_exception());
+  }
+}
+
+void on_characters(void* ctx, const xmlChar* ch, int len) {
+  ParseState* st = state_of(ctx);
+  if (st->stopped) return;
+  try {
+    st->handler->text(std::string_view(reinterpret_cast<const char*>(ch), static_cast<std::size_t>(len)));
+  } catch (...) {
+    stop_with(st, std::current_exception());
+  }
+}
+
+void refuse_external(void* ctx, const xmlChar* name) {
+  ParseState* st = state_of(ctx);
+  if (st->first_error.empty()) {
+    st->first_error = "external entity '" + std::string(reinterpret_cast<const char*>(name)) +
+                      "' refused: manicule never loads files or URLs named by a document";
+    st->error_line = xmlSAX2GetLineNumber(ctx);
+    st->error_column = xmlSAX2GetColumnNumber(ctx);
+  }
+  st->stopped = true;
+  xmlStopParser(st->ctxt);
+}
+
+bool is_external(xmlEntityPtr entity) {
+  return entity && (entity->etype == XML_EXTERNAL_GENERAL_PARSED_ENTITY ||
+                    entity->etype == XML_EXTERNAL_GENERAL_UNPARSED_ENTITY ||
+                    entity->etype == XML_EXTERNAL_PARAMETER_ENTITY);
+}
+
+// External entities are never loaded: their content could be any local file. The lookup
+// is done here rather than by xmlSAX2GetEntity, which would fetch external entities.
+xmlEntityPtr on_get_entity(void* ctx, const xmlChar* name) {
+  auto ctxt = static_cast<xmlParserCtxtPtr>(ctx);
+  if (ctxt->inSubset == 0) {
+    if (xmlEntityPtr predefined = xmlGetPredefinedEntity(name)) return predefined;
+  }
+  if (!ctxt->myDoc) return nullptr;
+  xmlEntityPtr entity = xmlGetDocEntity(ctxt->myDoc, name);
+  if (is_external(entity)) {
+    refuse_external(ctx, name);
+    return nullptr;
+  }
+  return entity;
+}
+
+xmlEntityPtr on_get_parameter_entity(void* ctx, const xmlChar* name) {
+  auto ctxt = static_cast<xmlParserCtxtPtr>(ctx);
+  if (!ctxt->myDoc) return nullptr;
+  xmlEntityPtr entity = xmlGetParameterEntity(ctxt->myDoc, name);
+  if (is_external(entity)) {
+    refuse_external(ctx, name);
+    return nullptr;
+  }
+  return entity;
+}
+
+xmlParserInputPtr on_resolve_entity(void* ctx, const xmlChar*, const xmlChar* system_id) {
+  ParseState* st = state_of(ctx);
+  if (st->first_error.empty()) {
+    st->first_error = "external resource '" +
+                      std::string(system_id ? reinterpret_cast<const char*>(system_id) : "") +
+                      "' refused: manicule never loads files or URLs named by a document";
+    st->error_line = xmlSAX2GetLineNumber(ctx);
+  }
+  return nullptr;
+}
+
+void on_external_subset(void*, const xmlChar*, const xmlChar*, const xmlChar*) {}
+
+void on_structured_error(void* user, xmlErrorPtr error) {
+  auto st = static_cast<ParseState*>(static_cast<xmlParserCtxtPtr>(user)->_private);
+  if (!error || error->level < XML_ERR_ERROR || !st->first_error.empty()) return;
+  std::string msg = error->message ? error->message : "malformed XML";
+  while (!msg.empty() && (msg.back() == '\n' || msg.back() == ' ')) msg.pop_back();
+  if (error->code == XML_ERR_DOCUMENT_EMPTY) msg = "the file is empty: no XML document in it";
+  st->first_error = msg;
+  st->error_line = error->line;
+  st->error_column = error->int2;
+}
+
+// Fills `first` with the first chunk (at least 4 bytes when available, so libxml2 can
+// detect UTF-16 from the byte-order mark).
+class ChunkReader {
+ public:
+  explicit ChunkReader(const XmlSource& source) : source_(source) {
+    if (!source.data) {
+      file_ = std::fopen(source.name.c_str(), "rb");
+      if (!file_) {
+        throw Error(ErrorKind::bad_input, std::string("cannot read the file: ") + std::strerror(errno),
+                    source.name);
+      }
+    }
+  }
+  ~ChunkReader() {
+    if (file_) std::fclose(file_);
+  }
+  // Returns the number of bytes placed in `out` (0 at the end).
+  std::size_t next(std::vector<char>& out) {
+    if (source_.data) {
+      std::size_t n = std::min(out.size(), source_.size - offset_);
+      std::memcpy(out.data(), source_.data + offset_, n);
+      offset_ += n;
+      return n;
+    }
+    std::size_t n = std::fread(out.data(), 1, out.size(), file_);
+    if (n == 0 && std::ferror(file_)) {
+      throw Error(ErrorKind::bad_input, std::string("error while reading: ") + std::strerror(errno),
+                  source_.name);
+    }
+    return n;
+  }
+
+ private:
+  const XmlSource& source_;
+  std::FILE* file_ = nullptr;
+  std::size_t offset_ = 0;
+};
+
+}  // namespace
+
+void parse_xml(const XmlSource& source, XmlEventHandler& handler) {
+  ChunkReader reader(source);
+  std::vector<char> chunk(256 * 1024);
+  std::size_t n = reader.next(chunk);
+  if (n == 0) throw Error(ErrorKind::bad_input, "the file is empty: no XML document in it", source.name);
+
+  xmlSAXHandler sax;
+  std::memset(&sax, 0, sizeof sax);
+  xmlSAXVersion(&sax, 2);  // default SAX2 callbacks keep the internal DTD subset (entities)
+  sax.startElementNs = on_start;
+  sax.endElementNs = on_end;
+  sax.characters = on_characters;
+  sax.cdataBlock = on_characters;
+  sax.ignorableWhitespace = on_characters;
+  sax.getEntity = on_get_entity;
+  sax.getParameterEntity = on_get_parameter_entity;
+  sax.resolveEntity = on_resolve_entity;
+  sax.externalSubset = on_external_subset;
+  sax.serror = on_structured_error;
+  sax.comment = nullptr;
+  sax.processingInstruction = nullptr;
+  sax.warning = nullptr;
+  sax.error = nullptr;
+  sax.fatalError = nullptr;
+
+  ParseState st{&handler};
+  std::unique_ptr<xmlParserCtxt, void (*)(xmlParserCtxtPtr)> ctxt(
+      xmlCreatePushParserCtxt(&sax, nullptr, chunk.data(), static_cast<int>(std::min<std::size_t>(n, 4)),
+                              source.name.c_str()),
+      [](xmlParserCtxtPtr c) {
+        if (c->myDoc) xmlFreeDoc(c->myDoc);
+        c->myDoc = nullptr;
+        xmlFreeParserCtxt(c);
+      });
+  if (!ctxt) throw Error(ErrorKind::internal, "could not create an XML parser", source.name);
+  ctxt->_private = &st;
+  ctxt->sax->serror = on_structured_error;
+  st.ctxt = ctxt.get();
+  // libxml2 hands the structured-error callback the context as its user data.
+  xmlCtxtUseOptions(ctxt.get(), XML_PARSE_NONET | XML_PARSE_NOENT | XML_PARSE_NOCDATA |
+                                    XML_PARSE_NOWARNING | XML_PARSE_NOERROR);
+  ctxt->replaceEntities = 1;  // expand internal entities (external ones are refused above)
+  ctxt->loadsubset = 0;
+  ctxt->validate = 0;
+
+  std::size_t offset = std::min<std::size_t>(n, 4);
+  bool more = true;
+  while (more && !st.stopped) {
+    if (offset < n) {
+      xmlParseChunk(ctxt.get(), chunk.data() + offset, static_cast<int>(n - offset), 0);
+      if (!st.first_error.empty() || st.stopped) break;
+    }
+    offset = 0;
+    n = reader.next(chunk);
+    if (n == 0) {
+      xmlParseChunk(ctxt.get(), nullptr, 0, 1);
+      more = false;
+    }
+  }
+  if (st.handler_error) std::rethrow_exception(st.handler_error);
+  if (!st.first_error.empty() || !ctxt->wellFormed) {
+    std::string msg = st.first_error.empty() ? "malformed XML" : st.first_error;
+    long line = st.error_line ? st.error_line : (ctxt->input ? ctxt->input->line : 0);
+    throw Error(ErrorKind::bad_input, msg, source.name, line, st.error_column);
+  }
+}
+
+}  // namespace manicule
