@@ -5,6 +5,9 @@
 #include <string>
 #include <vector>
 
+#include "measure/distance_measure.h"
+#include "measure/pca.h"
+#include "profile/feature_space.h"
 #include "profile/feature_spec.h"
 #include "tei/selection_rules.h"
 #include "text/tokenizer_options.h"
@@ -24,6 +27,14 @@ struct Request {
   FeatureSpec features;             // what to count per segment (words by default)
   bool keep_text = false;           // keep each segment's selected text in the result
   unsigned threads = 0;             // 0 = one per core
+
+  // Analysis: which features, which measure, what to compute beyond the profiles.
+  FeatureSpaceOptions feature_space;  // rank range, culling, stop words, minimum size
+  DistanceMeasure measure = DistanceMeasure::cosine_delta;
+  bool compute_distances = true;
+  std::size_t neighbours = 5;         // nearest segments kept per segment
+  bool compute_pca = false;
+  PcaOptions pca;
 
   // The selection rules this request describes (throws Error(usage) on bad names).
   SelectionRules selection_rules() const;

@@ -1,0 +1,49 @@
+#include "cli/analysis_options.h"
+
+#include "core/error.h"
+#include "profile/stop_list.h"
+
+namespace manicule::cli {
+
+void AnalysisOptions::add_to(CLI::App& command, bool with_measure) {
+  command.add_option("--features", features, "what to count: word, word-ngram or char-ngram")
+      ->check(CLI::IsMember({"word", "word-ngram", "char-ngram"}))
+      ->capture_default_str();
+  command.add_option("--n", n, "n for word-ngram and char-ngram features")->capture_default_str();
+  command.add_option("--ranks", ranks, "frequency ranks of the features used, FIRST-LAST (e.g. 1-1000, 100-800)")
+      ->capture_default_str();
+  command.add_option("--culling", culling, "keep only features found in at least this % of segments (0-100)")
+      ->capture_default_str();
+  command.add_option("--stop-words", stop_words_file, "file of words to leave out, one per line ('#' comments)");
+  command.add_option("--min-tokens", min_tokens,
+                     "leave out segments with fewer words (default 1500: Burrows 2002 found Delta fairly "
+                     "reliable above about 1,500 words)")
+      ->capture_default_str();
+  if (with_measure) {
+    std::vector<std::string> names;
+    for (const auto& info : all_distance_measures()) names.emplace_back(info.name);
+    command.add_option("--measure", measure, "distance measure")->check(CLI::IsMember(names))->capture_default_str();
+    command.add_option("--neighbours", neighbours, "nearest segments listed per segment")->capture_default_str();
+  }
+}
+
+void AnalysisOptions::apply_to(Request& request) const {
+  request.features.kind = parse_feature_kind(features);
+  request.features.n = request.features.kind == FeatureKind::word ? 1 : n;
+  validate(request.features);
+  auto dash = ranks.find('-');
+  try {
+    if (dash == std::string::npos) throw std::invalid_argument("no dash");
+    request.feature_space.rank_first = std::stoul(ranks.substr(0, dash));
+    request.feature_space.rank_last = std::stoul(ranks.substr(dash + 1));
+  } catch (const std::exception&) {
+    throw Error(ErrorKind::usage, "--ranks takes FIRST-LAST, e.g. 1-1000; got '" + ranks + "'");
+  }
+  request.feature_space.culling_percent = culling;
+  request.feature_space.min_segment_tokens = min_tokens;
+  if (!stop_words_file.empty()) request.feature_space.stop_words = load_stop_list(stop_words_file);
+  request.measure = parse_distance_measure(measure);
+  request.neighbours = neighbours;
+}
+
+}  // namespace manicule::cli

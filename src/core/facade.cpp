@@ -1,0 +1,136 @@
+#include "core/facade.h"
+
+#include <algorithm>
+#include <numeric>
+
+#include "core/error.h"
+#include "measure/pairwise_distances.h"
+
+namespace manicule {
+
+std::size_t Analysis::find_segment(const std::string& id) const {
+  for (std::size_t i = 0; i < segments.size(); ++i)
+    if (segments[i].id == id) return i;
+  return std::string::npos;
+}
+
+std::vector<SegmentSummary> summarise_segments(const Corpus& corpus) {
+  std::vector<SegmentSummary> out;
+  out.reserve(corpus.segments.size());
+  for (const auto& r : corpus.segments) {
+    const Segment& s = r.segment;
+    SegmentSummary sum;
+    sum.id = s.id;
+    sum.file = s.file;
+    sum.local_id = s.local_id;
+    sum.unit = s.unit;
+    sum.label = s.label;
+    sum.language = s.language;
+    sum.pointers = s.pointers;
+    sum.author = s.author;
+    sum.authorship = s.authorship;
+    sum.tokens = r.tokens;
+    sum.types = r.types;
+    sum.warnings = s.warnings;
+    out.push_back(std::move(sum));
+  }
+  return out;
+}
+
+void throw_first_failure(const Corpus& corpus) {
+  if (corpus.failures.empty()) return;
+  const FileFailure& f = corpus.failures.front();
+  throw Error(static_cast<ErrorKind>(f.kind), f.message);
+}
+
+namespace {
+
+std::vector<std::vector<Neighbour>> nearest_neighbours(const Eigen::MatrixXd& d, const std::vector<std::size_t>& rows,
+                                                       std::size_t k) {
+  std::vector<std::vector<Neighbour>> out(rows.size());
+  const std::size_t n = rows.size();
+  std::vector<std::size_t> order(n);
+  for (std::size_t i = 0; i < n; ++i) {
+    std::iota(order.begin(), order.end(), 0);
+    order.erase(order.begin() + static_cast<std::ptrdiff_t>(i));
+    std::size_t take = std::min(k, order.size());
+    // ties are broken by segment order, so results are repeatable
+    std::partial_sort(order.begin(), order.begin() + static_cast<std::ptrdiff_t>(take), order.end(),
+                      [&](std::size_t a, std::size_t b) {
+                        double da = d(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(a));
+                        double db = d(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(b));
+                        return da < db || (da == db && a < b);
+                      });
+    for (std::size_t j = 0; j < take; ++j)
+      out[i].push_back(Neighbour{rows[order[j]], d(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(order[j]))});
+  }
+  return out;
+}
+
+}  // namespace
+
+Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
+  Analysis analysis;
+  analysis.provenance = make_provenance(request, corpus);
+  analysis.segments = summarise_segments(corpus);
+  if (analysis.segments.empty())
+    throw Error(ErrorKind::nothing_selected, "no " + request.unit + " segment found in the input files");
+
+  FeatureTable table = build_feature_table(corpus.counts, request.feature_space);
+  for (const auto& excluded : table.report.excluded_segments) {
+    std::size_t i = analysis.find_segment(excluded.id);
+    if (i != std::string::npos) analysis.segments[i].excluded_reason = excluded.reason;
+  }
+  std::vector<std::size_t> rows;
+  for (const auto& id : table.segment_ids) {
+    std::size_t i = analysis.find_segment(id);
+    analysis.segments[i].measured = true;
+    rows.push_back(i);
+  }
+  analysis.table_rows = rows;
+  if (!table.report.excluded_segments.empty()) {
+    analysis.notes.push_back(std::to_string(table.report.excluded_segments.size()) +
+                             " segment(s) left out, shorter than the minimum of " +
+                             std::to_string(request.feature_space.min_segment_tokens) + " words");
+  }
+  auto& params = analysis.provenance.parameters;
+  params.emplace_back("feature ranks", std::to_string(request.feature_space.rank_first) + "-" +
+                                           std::to_string(request.feature_space.rank_last));
+  params.emplace_back("features used", std::to_string(table.feature_count()));
+  params.emplace_back("culling", std::to_string(request.feature_space.culling_percent) + "%");
+  params.emplace_back("minimum segment size", std::to_string(request.feature_space.min_segment_tokens) + " words");
+  params.emplace_back("segments measured", std::to_string(table.segment_count()));
+
+  if (request.compute_distances) {
+    if (table.segment_count() < 2)
+      throw Error(ErrorKind::nothing_selected,
+                  "distances need at least two segments of at least " +
+                      std::to_string(request.feature_space.min_segment_tokens) + " words; " +
+                      std::to_string(table.segment_count()) + " found (lower it with --min-tokens)");
+    DistanceOptions options;
+    options.threads = request.threads;
+    DistanceResult result;
+    result.measure = request.measure;
+    result.rows = rows;
+    result.values = distance_matrix(table, request.measure, options).values;
+    result.nearest = nearest_neighbours(result.values, rows, request.neighbours);
+    analysis.distances = std::move(result);
+    const MeasureInfo& info = measure_info(request.measure);
+    params.emplace_back("measure", std::string(info.name) + " (" + std::string(info.citation) + ")");
+  }
+  if (request.compute_pca) {
+    analysis.pca = principal_components(table, request.pca);
+    params.emplace_back("pca input", request.pca.input == PcaInput::z_scores ? "z-scores" : "relative frequencies");
+  }
+  analysis.table = std::move(table);
+  return analysis;
+}
+
+Analysis analyse(const Request& request, const ProgressFn& progress) {
+  std::vector<std::string> files = expand_inputs(request.inputs);
+  Corpus corpus = read_corpus(request, files, progress);
+  throw_first_failure(corpus);
+  return analyse_corpus(request, corpus);
+}
+
+}  // namespace manicule

@@ -1,0 +1,25 @@
+// The facade: the one entry point both faces (cli/, plugin_api/) call. It takes a Request
+// and returns an Analysis; neither face computes anything itself.
+#pragma once
+#include "core/analysis.h"
+#include "core/corpus.h"
+#include "core/request.h"
+
+namespace manicule {
+
+// Reads the request's files, selects, counts, builds the feature table and computes what
+// the request asks for. Throws Error(bad_input) for the first file that fails (naming it),
+// Error(nothing_selected) if no segment has text, Error(usage) for bad options.
+Analysis analyse(const Request& request, const ProgressFn& progress = {});
+
+// The same from counts already read (e.g. from the archive store): `corpus` supplies the
+// segments and their counts in one order.
+Analysis analyse_corpus(const Request& request, const Corpus& corpus);
+
+// Segment summaries of a corpus, without measures (what `segments` lists).
+std::vector<SegmentSummary> summarise_segments(const Corpus& corpus);
+
+// Throws the error of the first failed file, if any.
+void throw_first_failure(const Corpus& corpus);
+
+}  // namespace manicule
