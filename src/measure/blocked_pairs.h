@@ -1,0 +1,22 @@
+// blocked_pair_sums: element-wise sums over every pair of rows of a matrix, the core of the
+// L1 / L2 / MinMax distances. Rows are processed in tiles so that the rows being compared
+// stay in cache, two-by-two so that each value loaded serves two pairs, with Eigen packets
+// for SIMD and parallel_items() over row tiles for the cores.
+// Fills only the strict lower triangle of `out` (out(i, j), i > j), which must be n x n.
+#pragma once
+#include <Eigen/Dense>
+
+#include "profile/feature_table.h"
+
+namespace manicule {
+
+enum class PairSum {
+  absolute,  // sum |a - b|
+  squared,   // sum (a - b)^2
+  min_max,   // 1 - sum min(a, b) / sum max(a, b); 0 when sum max is 0 (two zero rows)
+};
+
+void blocked_pair_sums(const RowMatrix& rows, PairSum kind, unsigned threads,
+                       Eigen::MatrixXd& out);
+
+}  // namespace manicule

@@ -1,0 +1,38 @@
+// Distance matrices: every segment against every other under one DistanceMeasure.
+// The result is n x n, symmetric, with an exact zero diagonal and no negative values
+// (rounding below zero is clamped to 0). Errors: usage if fewer than two rows, or if the
+// input holds NaN or infinity.
+// Speed: cosine measures are one matrix product of length-normalised rows; the others are
+// blocked, vectorised loops (blocked_pairs.h). Both run on `threads` threads (0 = all).
+#pragma once
+#include <string>
+#include <vector>
+
+#include <Eigen/Dense>
+
+#include "measure/distance_measure.h"
+#include "profile/feature_table.h"
+
+namespace manicule {
+
+struct DistanceOptions {
+  unsigned threads = 0;  // 0 = every hardware thread
+};
+
+struct DistanceMatrix {
+  DistanceMeasure measure = DistanceMeasure::burrows_delta;
+  std::vector<std::string> labels;  // segment ids, one per row and column
+  Eigen::MatrixXd values;
+};
+
+// The measure's formula applied to the rows as given: z-scores for the Delta measures,
+// relative frequencies for the others (see distance_measure.h). For eder-delta the columns
+// must be in rank order.
+Eigen::MatrixXd pairwise_distances(const RowMatrix& rows, DistanceMeasure measure,
+                                   const DistanceOptions& options = {});
+
+// Picks table.z or table.relative as the measure requires.
+DistanceMatrix distance_matrix(const FeatureTable& table, DistanceMeasure measure,
+                               const DistanceOptions& options = {});
+
+}  // namespace manicule

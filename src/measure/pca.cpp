@@ -1,0 +1,110 @@
+#include "measure/pca.h"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <numeric>
+
+#include "core/error.h"
+
+namespace manicule {
+
+namespace {
+
+ComponentPoles poles_of(const Eigen::VectorXd& loading, std::size_t top) {
+  std::vector<std::size_t> order(static_cast<std::size_t>(loading.size()));
+  std::iota(order.begin(), order.end(), 0);
+  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+    return loading[static_cast<Eigen::Index>(a)] > loading[static_cast<Eigen::Index>(b)];
+  });
+  ComponentPoles poles;
+  for (std::size_t f : order) {
+    const double value = loading[static_cast<Eigen::Index>(f)];
+    if (poles.positive.size() == top || value <= 0) break;
+    poles.positive.push_back({f, value});
+  }
+  for (auto it = order.rbegin(); it != order.rend(); ++it) {
+    const double value = loading[static_cast<Eigen::Index>(*it)];
+    if (poles.negative.size() == top || value >= 0) break;
+    poles.negative.push_back({*it, value});
+  }
+  return poles;
+}
+
+}  // namespace
+
+PcaResult principal_components(const RowMatrix& rows, const PcaOptions& options) {
+  const Eigen::Index n = rows.rows();
+  const Eigen::Index p = rows.cols();
+  if (n < 2) throw Error(ErrorKind::usage, "PCA needs at least two segments");
+  if (p < 1) throw Error(ErrorKind::usage, "PCA needs at least one feature");
+  if (options.components < 1) throw Error(ErrorKind::usage, "PCA needs at least one component");
+  if (!rows.allFinite()) throw Error(ErrorKind::usage, "the feature values hold NaN or infinity");
+
+  Eigen::MatrixXd x = rows;
+  x.rowwise() -= x.colwise().mean();
+  const double divisor = static_cast<double>(n - 1);
+  const Eigen::Index k =
+      std::min<Eigen::Index>({static_cast<Eigen::Index>(options.components), n - 1, p});
+
+  // Eigen-decompose the smaller of X X^T (n x n) and X^T X (p x p); eigenvalues ascend.
+  const bool by_segments = n <= p;
+  Eigen::MatrixXd gram = Eigen::MatrixXd::Zero(by_segments ? n : p, by_segments ? n : p);
+  if (by_segments) {
+    gram.selfadjointView<Eigen::Lower>().rankUpdate(x);
+  } else {
+    gram.selfadjointView<Eigen::Lower>().rankUpdate(x.transpose());
+  }
+  const Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> solver(gram);
+  if (solver.info() != Eigen::Success) {
+    throw Error(ErrorKind::internal, "the eigen-decomposition for PCA did not converge");
+  }
+  const Eigen::Index last = gram.rows() - 1;
+  const double largest = std::max(0.0, solver.eigenvalues()[last]);
+  // Components whose variance is rounding noise have no direction to speak of.
+  const double negligible = static_cast<double>(gram.rows()) *
+                            std::numeric_limits<double>::epsilon() * largest;
+
+  PcaResult result;
+  result.coordinates = Eigen::MatrixXd::Zero(n, k);
+  result.loadings = Eigen::MatrixXd::Zero(p, k);
+  result.explained_variance = Eigen::VectorXd::Zero(k);
+  result.explained_variance_ratio = Eigen::VectorXd::Zero(k);
+  result.total_variance = x.squaredNorm() / divisor;
+  for (Eigen::Index c = 0; c < k; ++c) {
+    const double eigenvalue = std::max(0.0, solver.eigenvalues()[last - c]);
+    if (eigenvalue > negligible) {
+      const auto vector = solver.eigenvectors().col(last - c);
+      if (by_segments) {  // vector = u; coordinates = u s, loadings = X^T u / s
+        const double singular = std::sqrt(eigenvalue);
+        result.coordinates.col(c) = vector * singular;
+        result.loadings.col(c) = x.transpose() * vector / singular;
+      } else {  // vector = v; coordinates = X v
+        result.loadings.col(c) = vector;
+        result.coordinates.col(c) = x * vector;
+      }
+      Eigen::Index strongest = 0;
+      result.loadings.col(c).cwiseAbs().maxCoeff(&strongest);
+      if (result.loadings(strongest, c) < 0) {
+        result.loadings.col(c) *= -1.0;
+        result.coordinates.col(c) *= -1.0;
+      }
+    }
+    result.explained_variance[c] = eigenvalue / divisor;
+    if (result.total_variance > 0) {
+      result.explained_variance_ratio[c] = result.explained_variance[c] / result.total_variance;
+    }
+    result.poles.push_back(poles_of(result.loadings.col(c), options.top_features));
+  }
+  return result;
+}
+
+PcaResult principal_components(const FeatureTable& table, const PcaOptions& options) {
+  const bool on_z = options.input == PcaInput::z_scores;
+  PcaResult result = principal_components(on_z ? table.z : table.relative, options);
+  result.segment_ids = table.segment_ids;
+  result.features = table.features;
+  return result;
+}
+
+}  // namespace manicule

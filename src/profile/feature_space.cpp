@@ -1,0 +1,146 @@
+#include "profile/feature_space.h"
+
+#include <algorithm>
+#include <cstdint>
+#include <string_view>
+#include <unordered_set>
+
+#include "core/error.h"
+
+namespace manicule {
+
+namespace {
+
+void validate_options(const FeatureSpec& spec, const FeatureSpaceOptions& options) {
+  if (options.rank_first < 1 || options.rank_last < options.rank_first) {
+    throw Error(ErrorKind::usage, "feature ranks must satisfy 1 <= first <= last, not " +
+                                      std::to_string(options.rank_first) + ".." +
+                                      std::to_string(options.rank_last));
+  }
+  if (!(options.culling_percent >= 0.0 && options.culling_percent <= 100.0)) {
+    throw Error(ErrorKind::usage, "culling must be a share between 0 and 100 %");
+  }
+  if (spec.kind == FeatureKind::char_ngram && !options.stop_words.empty()) {
+    throw Error(ErrorKind::usage, "a stop list applies to words, not to character n-grams");
+  }
+}
+
+// Indices of the segments to keep; the others go to the report.
+std::vector<std::size_t> keep_large_segments(const CountProfile& profile,
+                                             const FeatureSpaceOptions& options,
+                                             FeatureSelectionReport& report) {
+  std::vector<std::size_t> kept;
+  for (std::size_t s = 0; s < profile.segments.size(); ++s) {
+    const SegmentCounts& segment = profile.segments[s];
+    if (segment.tokens < options.min_segment_tokens || segment.tokens == 0) {
+      report.excluded_segments.push_back(
+          {segment.id, segment.tokens,
+           std::to_string(segment.tokens) + " tokens, fewer than the minimum of " +
+               std::to_string(std::max<std::size_t>(options.min_segment_tokens, 1))});
+    } else if (segment.feature_total == 0) {
+      report.excluded_segments.push_back(
+          {segment.id, segment.tokens, "too short to hold one " + describe(profile.spec)});
+    } else {
+      kept.push_back(s);
+    }
+  }
+  if (kept.empty()) {
+    throw Error(ErrorKind::nothing_selected,
+                "no segment is large enough: all " + std::to_string(profile.segments.size()) +
+                    " have fewer than " + std::to_string(options.min_segment_tokens) + " tokens");
+  }
+  return kept;
+}
+
+bool contains_stop_word(std::string_view form, FeatureKind kind,
+                        const std::unordered_set<std::string_view>& stop) {
+  if (kind == FeatureKind::word) return stop.count(form) > 0;
+  while (true) {  // word n-gram: words joined by single spaces
+    const std::size_t space = form.find(' ');
+    if (stop.count(form.substr(0, space))) return true;
+    if (space == std::string_view::npos) return false;
+    form.remove_prefix(space + 1);
+  }
+}
+
+}  // namespace
+
+FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpaceOptions& options) {
+  validate_options(profile.spec, options);
+  FeatureTable table;
+  table.spec = profile.spec;
+  FeatureSelectionReport& report = table.report;
+  report.rank_first = options.rank_first;
+  report.rank_last = options.rank_last;
+  const std::vector<std::size_t> kept = keep_large_segments(profile, options, report);
+
+  const Vocabulary& vocabulary = profile.vocabulary;
+  std::vector<std::uint64_t> totals(vocabulary.size(), 0);
+  std::vector<std::uint32_t> segments_with(vocabulary.size(), 0);
+  for (std::size_t s : kept) {
+    for (const auto& [id, count] : profile.segments[s].counts) {
+      totals[id] += count;
+      ++segments_with[id];
+    }
+  }
+
+  const std::unordered_set<std::string_view> stop(options.stop_words.begin(),
+                                                  options.stop_words.end());
+  const double needed_share = options.culling_percent / 100.0 * static_cast<double>(kept.size());
+  std::vector<FeatureId> candidates;
+  for (FeatureId id = 0; id < vocabulary.size(); ++id) {
+    if (totals[id] == 0) continue;  // occurs only in left-out segments
+    if (!stop.empty() && contains_stop_word(vocabulary.form(id), profile.spec.kind, stop)) {
+      ++report.stopped;
+    } else if (static_cast<double>(segments_with[id]) < needed_share) {
+      ++report.culled;
+    } else {
+      candidates.push_back(id);
+    }
+  }
+  report.candidates = candidates.size();
+  if (candidates.size() < options.rank_first) {
+    throw Error(ErrorKind::nothing_selected,
+                "features from rank " + std::to_string(options.rank_first) + " were asked for, " +
+                    "but only " + std::to_string(candidates.size()) + " features are available");
+  }
+  const std::size_t last = std::min(options.rank_last, candidates.size());
+  report.fewer_than_asked = last < options.rank_last;
+  auto more_frequent = [&](FeatureId a, FeatureId b) {
+    if (totals[a] != totals[b]) return totals[a] > totals[b];
+    return vocabulary.form(a) < vocabulary.form(b);  // char_traits compares bytes unsigned
+  };
+  std::partial_sort(candidates.begin(), candidates.begin() + static_cast<std::ptrdiff_t>(last),
+                    candidates.end(), more_frequent);
+
+  std::vector<std::int64_t> column_of(vocabulary.size(), -1);
+  for (std::size_t rank = options.rank_first; rank <= last; ++rank) {
+    const FeatureId id = candidates[rank - 1];
+    column_of[id] = static_cast<std::int64_t>(table.features.size());
+    table.features.emplace_back(vocabulary.form(id));
+    table.feature_ranks.push_back(rank);
+    table.feature_totals.push_back(totals[id]);
+  }
+
+  const auto rows = static_cast<Eigen::Index>(kept.size());
+  const auto cols = static_cast<Eigen::Index>(table.features.size());
+  table.counts = RowMatrix::Zero(rows, cols);
+  table.relative = RowMatrix::Zero(rows, cols);
+  for (Eigen::Index r = 0; r < rows; ++r) {
+    const SegmentCounts& segment = profile.segments[kept[static_cast<std::size_t>(r)]];
+    table.segment_ids.push_back(segment.id);
+    table.segment_tokens.push_back(segment.tokens);
+    table.segment_totals.push_back(segment.feature_total);
+    const double denominator = static_cast<double>(segment.feature_total);
+    for (const auto& [id, count] : segment.counts) {
+      const std::int64_t c = column_of[id];
+      if (c < 0) continue;
+      table.counts(r, c) = count;
+      table.relative(r, c) = count / denominator;
+    }
+  }
+  standardise(table);
+  return table;
+}
+
+}  // namespace manicule

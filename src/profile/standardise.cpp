@@ -1,0 +1,29 @@
+#include "profile/feature_table.h"
+
+#include <cmath>
+
+namespace manicule {
+
+void standardise(FeatureTable& table) {
+  const Eigen::Index rows = table.relative.rows();
+  const Eigen::Index cols = table.relative.cols();
+  table.mean = Eigen::VectorXd::Zero(cols);
+  table.sd = Eigen::VectorXd::Zero(cols);
+  table.z = RowMatrix::Zero(rows, cols);
+  table.report.zero_variance = 0;
+  if (rows == 0) return;
+  table.mean = table.relative.colwise().mean().transpose();
+  for (Eigen::Index c = 0; c < cols; ++c) {
+    const auto column = table.relative.col(c);
+    // Equal values have no spread; testing that exactly avoids a rounding-noise sd.
+    if (rows < 2 || column.minCoeff() == column.maxCoeff()) {
+      ++table.report.zero_variance;
+      continue;  // sd and z stay 0
+    }
+    const double squares = (column.array() - table.mean[c]).square().sum();
+    table.sd[c] = std::sqrt(squares / static_cast<double>(rows - 1));
+    table.z.col(c) = (column.array() - table.mean[c]) / table.sd[c];
+  }
+}
+
+}  // namespace manicule
