@@ -46,6 +46,7 @@ struct FileResult {
   bool failed = false;
   FileFailure failure;
   std::size_t bytes = 0;
+  std::string sha256;
 };
 
 FileResult read_one(const std::string& file, const Request& request, const SelectionRules& rules,
@@ -54,7 +55,9 @@ FileResult read_one(const std::string& file, const Request& request, const Selec
   std::error_code ec;
   result.bytes = static_cast<std::size_t>(fs::file_size(file, ec));
   try {
-    std::vector<Segment> segments = read_segments(XmlSource::file(file), rules);
+    SourceDigest digest;
+    std::vector<Segment> segments = read_segments(XmlSource::file(file), rules, &digest);
+    result.sha256 = digest.sha256;
     ProfileBuilder builder(request.features);
     std::unordered_set<std::string> types;
     for (Segment& segment : segments) {
@@ -120,6 +123,7 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
   ProfileBuilder merged(request.features);
   for (auto& r : results) {
     corpus.bytes += r.bytes;
+    corpus.file_sha256.push_back(r.sha256);
     if (r.failed) {
       corpus.failures.push_back(std::move(r.failure));
       continue;

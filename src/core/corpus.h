@@ -27,6 +27,7 @@ struct FileFailure {
 
 struct Corpus {
   std::vector<std::string> files;       // in the order read
+  std::vector<std::string> file_sha256;  // SHA-256 of each file's bytes ("" if unreadable)
   std::vector<SegmentRecord> segments;  // in file order, then document order
   CountProfile counts;                  // one SegmentCounts per segment, same order
   std::vector<FileFailure> failures;

@@ -4,7 +4,6 @@
 #include <ctime>
 
 #include "manicule_version.h"
-#include "core/sha256.h"
 
 namespace manicule {
 
@@ -40,14 +39,8 @@ Provenance make_provenance(const Request& request, const Corpus& corpus) {
   p.selection = request.selection_rules().describe();
   p.tokenizer = describe_tokenizer(request.tokenizer);
   p.features = describe(request.features);
-  for (const auto& f : corpus.files) {
-    InputFile in{f, {}};
-    try {
-      in.sha256 = sha256_file(f);
-    } catch (...) {
-    }
-    p.inputs.push_back(in);
-  }
+  for (std::size_t i = 0; i < corpus.files.size(); ++i)
+    p.inputs.push_back(InputFile{corpus.files[i], i < corpus.file_sha256.size() ? corpus.file_sha256[i] : ""});
   return p;
 }
 

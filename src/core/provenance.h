@@ -32,7 +32,7 @@ struct Provenance {
 // Now, or SOURCE_DATE_EPOCH when set, as ISO 8601 UTC.
 std::string current_time_iso8601();
 
-// Hashes each input file (files read again: cheap next to parsing).
+// Input hashes come from the corpus (computed while parsing).
 Provenance make_provenance(const Request& request, const Corpus& corpus);
 nlohmann::json provenance_json(const Provenance& p);
 std::vector<std::pair<std::string, std::string>> provenance_pairs(const Provenance& p);

@@ -14,7 +14,9 @@ namespace manicule {
 // Throws Error(bad_input) with file, line and column for unreadable, malformed, hostile
 // or non-TEI input, and Error(usage) for an XPath that does not compile. Segments without
 // any text are returned (with a warning) so that callers can report them.
-std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules& rules);
+// `digest`, when given, receives the size and SHA-256 of the source bytes.
+std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules& rules,
+                                   SourceDigest* digest = nullptr);
 
 // "letters/anna-17.xml" -> "anna-17": the file part of segment ids.
 std::string file_stem(const std::string& path);

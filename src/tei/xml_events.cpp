@@ -14,6 +14,7 @@
 #include <vector>
 
 #include "core/error.h"
+#include "core/sha256.h"
 
 namespace manicule {
 
@@ -186,29 +187,41 @@ class ChunkReader {
   }
   // Returns the number of bytes placed in `out` (0 at the end).
   std::size_t next(std::vector<char>& out) {
+    std::size_t n;
     if (source_.data) {
-      std::size_t n = std::min(out.size(), source_.size - offset_);
+      n = std::min(out.size(), source_.size - offset_);
       std::memcpy(out.data(), source_.data + offset_, n);
       offset_ += n;
-      return n;
+    } else {
+      n = std::fread(out.data(), 1, out.size(), file_);
+      if (n == 0 && std::ferror(file_)) {
+        throw Error(ErrorKind::bad_input, std::string("error while reading: ") + std::strerror(errno),
+                    source_.name);
+      }
     }
-    std::size_t n = std::fread(out.data(), 1, out.size(), file_);
-    if (n == 0 && std::ferror(file_)) {
-      throw Error(ErrorKind::bad_input, std::string("error while reading: ") + std::strerror(errno),
-                  source_.name);
-    }
+    hash_.update(out.data(), n);
+    bytes_ += n;
     return n;
+  }
+  // Reads what the parser did not need (it may stop early on an error) so the digest
+  // always covers the whole source.
+  SourceDigest finish(std::vector<char>& scratch) {
+    while (next(scratch) > 0) {
+    }
+    return SourceDigest{bytes_, hash_.hex_digest()};
   }
 
  private:
   const XmlSource& source_;
   std::FILE* file_ = nullptr;
   std::size_t offset_ = 0;
+  Sha256 hash_;
+  std::size_t bytes_ = 0;
 };
 
 }  // namespace
 
-void parse_xml(const XmlSource& source, XmlEventHandler& handler) {
+SourceDigest parse_xml(const XmlSource& source, XmlEventHandler& handler) {
   ChunkReader reader(source);
   std::vector<char> chunk(256 * 1024);
   std::size_t n = reader.next(chunk);
@@ -273,6 +286,7 @@ void parse_xml(const XmlSource& source, XmlEventHandler& handler) {
     long line = st.error_line ? st.error_line : (ctxt->input ? ctxt->input->line : 0);
     throw Error(ErrorKind::bad_input, msg, source.name, line, st.error_column);
   }
+  return reader.finish(chunk);
 }
 
 }  // namespace manicule

@@ -47,9 +47,16 @@ struct XmlSource {
   }
 };
 
+// What parsing saw of the raw bytes: their size and SHA-256 (computed on the way, so
+// provenance and the archive store need not read the file again).
+struct SourceDigest {
+  std::size_t bytes = 0;
+  std::string sha256;
+};
+
 // Parses the whole source, calling the handler. Throws Error(bad_input) naming file, line
 // and column for unreadable, empty, malformed or hostile input. The handler may throw to
 // stop early (its exception is passed on).
-void parse_xml(const XmlSource& source, XmlEventHandler& handler);
+SourceDigest parse_xml(const XmlSource& source, XmlEventHandler& handler);
 
 }  // namespace manicule
