@@ -164,9 +164,21 @@ void on_structured_error(void* user, xmlErrorPtr error) {
   std::string msg = error->message ? error->message : "malformed XML";
   while (!msg.empty() && (msg.back() == '\n' || msg.back() == ' ')) msg.pop_back();
   if (error->code == XML_ERR_DOCUMENT_EMPTY) msg = "the file is empty: no XML document in it";
+  if (error->code == XML_ERR_ENTITY_LOOP)
+    msg = "entities expand too far (an entity-expansion bomb?): refused (" + msg + ")";
   st->first_error = msg;
   st->error_line = error->line;
   st->error_column = error->int2;
+  // Inside an entity's replacement text libxml2 counts lines of the entity; report the
+  // position in the document instead.
+  xmlParserCtxtPtr ctxt = st->ctxt;
+  if (ctxt && ctxt->inputNr > 1 && ctxt->inputTab[0]) {
+    st->error_line = ctxt->inputTab[0]->line;
+    st->error_column = ctxt->inputTab[0]->col;
+  } else if (ctxt && ctxt->input && error->code == XML_ERR_ENTITY_LOOP) {
+    st->error_line = ctxt->input->line;
+    st->error_column = ctxt->input->col;
+  }
 }
 
 // Fills `first` with the first chunk (at least 4 bytes when available, so libxml2 can
@@ -246,7 +258,7 @@ SourceDigest parse_xml(const XmlSource& source, XmlEventHandler& handler) {
   sax.error = nullptr;
   sax.fatalError = nullptr;
 
-  ParseState st{&handler};
+  ParseState st{&handler, nullptr, {}, 0, 0, nullptr, false};
   std::unique_ptr<xmlParserCtxt, void (*)(xmlParserCtxtPtr)> ctxt(
       xmlCreatePushParserCtxt(&sax, nullptr, chunk.data(), static_cast<int>(std::min<std::size_t>(n, 4)),
                               source.name.c_str()),
