@@ -82,12 +82,14 @@ std::set<std::vector<int>> evaluate_xpath(const XmlSource& source, const std::st
 
 }  // namespace
 
-std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules& rules, SourceDigest* digest) {
+std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules& rules, SourceDigest* digest,
+                                   HeaderInfo* header) {
   std::set<std::vector<int>> targets;
   if (rules.unit == UnitKind::xpath) targets = evaluate_xpath(source, rules.xpath);
   TeiWalker walker(rules, source.name, file_stem(source.name), &targets);
   SourceDigest d = parse_xml(source, walker);
   if (digest) *digest = d;
+  if (header) *header = walker.first_header();
   return walker.finish();
 }
 

@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "core/segment.h"
+#include "tei/header_info.h"
 #include "tei/selection_rules.h"
 #include "tei/xml_events.h"
 
@@ -14,9 +15,10 @@ namespace manicule {
 // Throws Error(bad_input) with file, line and column for unreadable, malformed, hostile
 // or non-TEI input, and Error(usage) for an XPath that does not compile. Segments without
 // any text are returned (with a warning) so that callers can report them.
-// `digest`, when given, receives the size and SHA-256 of the source bytes.
+// `digest`, when given, receives the size and SHA-256 of the source bytes; `header`, when
+// given, the header of the first TEI element (title, authors, date, declared language).
 std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules& rules,
-                                   SourceDigest* digest = nullptr);
+                                   SourceDigest* digest = nullptr, HeaderInfo* header = nullptr);
 
 // "letters/anna-17.xml" -> "anna-17": the file part of segment ids.
 std::string file_stem(const std::string& path);

@@ -221,7 +221,7 @@ struct TeiWalker::State {
       case UnitKind::chapter:
         return is_div(frame.name) && rules.chapter_types.count(std::string(tag.attribute("type")));
       case UnitKind::whole:
-        return frame.name == "text" && frames.size() >= 2 && frames[frames.size() - 2].tei_element;
+        return frame.name == "text" && !frames.empty() && frames.back().tei_element;
       case UnitKind::xpath: return xpath_targets && xpath_targets->count(ordinal_path());
     }
     return false;
@@ -617,6 +617,8 @@ bool has_text(const Segment& segment) {
 }
 
 }  // namespace
+
+HeaderInfo TeiWalker::first_header() const { return s_->headers.empty() ? HeaderInfo{} : s_->headers.front(); }
 
 std::vector<Segment> TeiWalker::finish() {
   State& s = *s_;

@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "core/segment.h"
+#include "tei/header_info.h"
 #include "tei/selection_rules.h"
 #include "tei/xml_events.h"
 
@@ -29,6 +30,9 @@ class TeiWalker : public XmlEventHandler {
 
   // The finished segments, in document order of their first text.
   std::vector<Segment> finish();
+
+  // The header of the first TEI element seen (empty if none): the edition's own metadata.
+  HeaderInfo first_header() const;
 
  private:
   struct State;
