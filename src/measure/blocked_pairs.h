@@ -1,7 +1,8 @@
 // blocked_pair_sums: element-wise sums over every pair of rows of a matrix, the core of the
 // L1 / L2 / MinMax distances. Rows are processed in tiles so that the rows being compared
-// stay in cache, two-by-two so that each value loaded serves two pairs, with Eigen packets
-// for SIMD and parallel_items() over row tiles for the cores.
+// stay in cache, two-by-two so that each value loaded serves two pairs, in 4-wide SIMD
+// vectors (SSE2 everywhere on x86-64, AVX2 where the processor has it, chosen at run time)
+// and with parallel_items() over row tiles for the cores.
 // Fills only the strict lower triangle of `out` (out(i, j), i > j), which must be n x n.
 #pragma once
 #include <Eigen/Dense>
@@ -16,7 +17,11 @@ enum class PairSum {
   min_max,   // 1 - sum min(a, b) / sum max(a, b); 0 when sum max is 0 (two zero rows)
 };
 
+// Which instruction set the loops may use: `best` picks AVX2 at run time where the processor
+// has it; `baseline` keeps to what every x86-64 (or other) processor has (for tests).
+enum class SimdLevel { best, baseline };
+
 void blocked_pair_sums(const RowMatrix& rows, PairSum kind, unsigned threads,
-                       Eigen::MatrixXd& out);
+                       Eigen::MatrixXd& out, SimdLevel simd = SimdLevel::best);
 
 }  // namespace manicule
