@@ -1,0 +1,232 @@
+#include "text/latin_fast_path.h"
+
+#include <unicode/utf8.h>
+
+#include <array>
+
+namespace manicule {
+
+namespace {
+
+using C = LatinBreakClass;
+
+// Values from WordBreakProperty.txt (Unicode 15.0); code points it does not list are Other.
+constexpr C basic_latin_class(char32_t c) {
+  if (c >= 'a' && c <= 'z') return C::aletter;
+  if (c >= 'A' && c <= 'Z') return C::aletter;
+  if (c >= '0' && c <= '9') return C::numeric;
+  switch (c) {
+    case '\r': return C::cr;
+    case '\n': return C::lf;
+    case 0x0B: case 0x0C: return C::newline;
+    case ' ': return C::wseg_space;
+    case '"': return C::double_quote;
+    case '\'': return C::single_quote;
+    case ',': case ';': return C::mid_num;
+    case '.': return C::mid_num_let;
+    case '_': return C::extend_num_let;
+    // Colon and commercial at depend on the ICU version: ICU 72 (CLDR 42) took ':' out of
+    // MidLetter and made '@' ALetter in root, ICU 73.2 and 74 undid both. ICU decides them.
+    case ':': case '@': return C::ineligible;
+    default: return C::other;
+  }
+}
+
+C latin1_supplement_class(char32_t c) {
+  switch (c) {
+    case 0x85: return C::newline;
+    case 0xAA: case 0xB5: case 0xBA: return C::aletter;  // ª µ º
+    case 0xAD: return C::ineligible;                     // soft hyphen is Format (WB4)
+    case 0xB7: return C::mid_letter;                     // middle dot
+    case 0xD7: case 0xF7: return C::other;               // × ÷
+    default: return c >= 0xC0 ? C::aletter : C::other;
+  }
+}
+
+C general_punctuation_class(char32_t c) {
+  if (c <= 0x2001) return C::ineligible;  // canonical singletons (-> U+2002, U+2003)
+  if (c <= 0x2006 || (c >= 0x2008 && c <= 0x200A)) return C::wseg_space;
+  if (c >= 0x200C && c <= 0x200F) return C::ineligible;  // ZWNJ Extend, ZWJ, LRM/RLM Format
+  if (c >= 0x202A && c <= 0x202E) return C::ineligible;  // bidi embedding controls, Format
+  switch (c) {
+    case 0x2018: case 0x2019: case 0x2024: return C::mid_num_let;  // ‘ ’ one dot leader
+    case 0x2027: return C::mid_letter;                             // hyphenation point
+    case 0x2028: case 0x2029: return C::newline;
+    case 0x202F: case 0x203F: return C::extend_num_let;  // narrow no-break space, undertie
+    default: return C::other;  // figure space, ZWSP, dashes, quotes, daggers, ellipsis...
+  }
+}
+
+bool is_mid_letter_q(C c) {  // (MidLetter | MidNumLetQ)
+  return c == C::mid_letter || c == C::mid_num_let || c == C::single_quote;
+}
+bool is_mid_num_q(C c) {  // (MidNum | MidNumLetQ)
+  return c == C::mid_num || c == C::mid_num_let || c == C::single_quote;
+}
+bool is_hard_break(C c) { return c == C::cr || c == C::lf || c == C::newline; }
+bool is_word_part(C c) {
+  return c == C::aletter || c == C::numeric || c == C::extend_num_let;
+}
+
+// Whether UAX #29 forbids a break between `left` and `right`, with `before` the class
+// ahead of `left` and after() that of the code point following `right` (asked only by
+// WB6 and WB12). With no Extend/Format/ZWJ present, no rule looks further.
+template <typename After>
+bool joins(C before, C left, C right, After after) {
+  if (left == C::cr && right == C::lf) return true;                        // WB3
+  if (is_hard_break(left) || is_hard_break(right)) return false;           // WB3a, WB3b
+  if (left == C::wseg_space && right == C::wseg_space) return true;        // WB3d
+  if (left == C::aletter && right == C::aletter) return true;              // WB5
+  if (left == C::aletter && is_mid_letter_q(right) && after() == C::aletter) return true;  // WB6
+  if (before == C::aletter && is_mid_letter_q(left) && right == C::aletter) return true; // WB7
+  if (left == C::numeric && right == C::numeric) return true;              // WB8
+  if (left == C::aletter && right == C::numeric) return true;              // WB9
+  if (left == C::numeric && right == C::aletter) return true;              // WB10
+  if (before == C::numeric && is_mid_num_q(left) && right == C::numeric) return true;  // WB11
+  if (left == C::numeric && is_mid_num_q(right) && after() == C::numeric) return true;  // WB12
+  if (is_word_part(left) && right == C::extend_num_let) return true;       // WB13a
+  if (left == C::extend_num_let && (right == C::aletter || right == C::numeric)) {
+    return true;                                                           // WB13b
+  }
+  return false;  // WB999
+}
+
+// ICU's rule status for a segment ending in a code point of class `last`, preceded in the
+// segment by one of class `before` unless `alone`. ICU tags a segment by the rule that
+// matched its last character (word.txt: "$Numeric $ExFm* {100}; $ALetterPlus $ExFm*
+// {200}"; rule 13a tags "X ExtendNumLet" by X; a lone ExtendNumLet has no tag).
+std::int32_t rule_status(C last, C before, bool alone) {
+  switch (last) {
+    case C::aletter: return UBRK_WORD_LETTER;
+    case C::numeric: return UBRK_WORD_NUMBER;
+    case C::extend_num_let:
+      if (alone) return UBRK_WORD_NONE;
+      return before == C::numeric ? UBRK_WORD_NUMBER : UBRK_WORD_LETTER;
+    default: return UBRK_WORD_NONE;
+  }
+}
+
+bool is_ascii_letter(unsigned char byte) {
+  return static_cast<unsigned char>((byte | 0x20) - 'a') < 26;
+}
+
+void append_code_point(char32_t c, std::string& out) {
+  char bytes[U8_MAX_LENGTH];
+  int32_t length = 0;
+  U8_APPEND_UNSAFE(bytes, length, c);
+  out.append(bytes, static_cast<std::size_t>(length));
+}
+
+}  // namespace
+
+const std::array<LatinBreakClass, 128> kAsciiBreakClasses = [] {
+  std::array<LatinBreakClass, 128> table{};
+  for (char32_t c = 0; c < 128; ++c) table[c] = basic_latin_class(c);
+  return table;
+}();
+
+LatinBreakClass latin_break_class(char32_t code_point) {
+  if (code_point < 0x80) return basic_latin_class(code_point);
+  if (code_point < 0x100) return latin1_supplement_class(code_point);
+  if (code_point >= 0x2000 && code_point <= 0x203F) return general_punctuation_class(code_point);
+  return C::ineligible;
+}
+
+LatinCodePoint decode_latin_multibyte(std::string_view text, std::size_t at) {
+  const auto byte = [&](std::size_t i) { return static_cast<unsigned char>(text[i]); };
+  const auto continuation = [&](std::size_t i) {
+    return i < text.size() && (byte(i) & 0xC0) == 0x80;
+  };
+  const unsigned char lead = byte(at);
+  if ((lead == 0xC2 || lead == 0xC3) && continuation(at + 1)) {
+    return {2, latin1_supplement_class(((lead & 0x1F) << 6) | (byte(at + 1) & 0x3F))};
+  }
+  // U+2000–U+203F is E2 80 80–BF.
+  if (lead == 0xE2 && continuation(at + 1) && byte(at + 1) == 0x80 && continuation(at + 2)) {
+    return {3, general_punctuation_class(0x2000 | (byte(at + 2) & 0x3F))};
+  }
+  return {1, C::ineligible};
+}
+
+void latin_segment(std::string_view text, std::size_t begin, std::size_t end,
+                   std::vector<WordSegment>& out) {
+  if (begin >= end) return;
+  const auto* bytes = reinterpret_cast<const unsigned char*>(text.data());
+  const LatinCodePoint first = decode_latin(text, begin);
+  C before = C::other;            // class of the code point ahead of `left`
+  C left = first.break_class;     // class of the code point ending at `at`
+  bool left_is_alone = true;      // `left` starts the current segment
+  std::size_t segment_begin = begin;
+  std::size_t at = begin + first.length;
+  while (at < end) {
+    if (left == C::aletter) {  // WB5 through a run of ASCII letters: the common case
+      std::size_t run_end = at;
+      while (run_end < end && is_ascii_letter(bytes[run_end])) ++run_end;
+      if (run_end > at) {
+        before = C::aletter;
+        left_is_alone = false;
+        at = run_end;
+        if (at == end) break;
+      }
+    }
+    const LatinCodePoint right = decode_latin(text, at);
+    const std::size_t next = at + right.length;
+    const auto after = [&] { return next < end ? decode_latin(text, next).break_class : C::other; };
+    if (joins(before, left, right.break_class, after)) {
+      left_is_alone = false;
+    } else {
+      out.push_back({segment_begin, at, rule_status(left, before, left_is_alone)});
+      segment_begin = at;
+      left_is_alone = true;
+    }
+    before = left;
+    left = right.break_class;
+    at = next;
+  }
+  out.push_back({segment_begin, end, rule_status(left, before, left_is_alone)});
+}
+
+std::string_view latin_normalise(std::string_view token, bool case_fold, bool apostrophes,
+                                 std::string& buffer) {
+  bool unchanged = true;
+  for (const char ch : token) {
+    const auto byte = static_cast<unsigned char>(ch);
+    if (byte >= 0x80 || (case_fold && byte >= 'A' && byte <= 'Z')) {
+      unchanged = false;
+      break;
+    }
+  }
+  if (unchanged) return token;
+
+  buffer.clear();
+  for (std::size_t at = 0; at < token.size();) {
+    const auto byte = [&](std::size_t i) { return static_cast<unsigned char>(token[i]); };
+    const unsigned char lead = byte(at);
+    if (lead < 0x80) {
+      const bool upper = lead >= 'A' && lead <= 'Z';
+      buffer += static_cast<char>(case_fold && upper ? lead + ('a' - 'A') : lead);
+      ++at;
+      continue;
+    }
+    const std::size_t length = lead < 0xE0 ? 2 : 3;
+    char32_t c = length == 2 ? ((lead & 0x1F) << 6) | (byte(at + 1) & 0x3F)
+                             : ((lead & 0x0F) << 12) | ((byte(at + 1) & 0x3F) << 6) |
+                                   (byte(at + 2) & 0x3F);
+    at += length;
+    if (apostrophes && (c == 0x2018 || c == 0x2019)) c = '\'';
+    if (case_fold) {
+      // CaseFolding.txt: "00C0; C; 00E0" ... "00DE; C; 00FE" (not 00D7 ×), "00B5; C; 03BC"
+      // (micro sign -> Greek mu) and "00DF; F; 0073 0073" (ß -> ss). Nothing else here folds.
+      if (c >= 0xC0 && c <= 0xDE && c != 0xD7) c += 0x20;
+      else if (c == 0xB5) c = 0x3BC;
+      else if (c == 0xDF) {
+        buffer += "ss";
+        continue;
+      }
+    }
+    append_code_point(c, buffer);
+  }
+  return buffer;
+}
+
+}  // namespace manicule

@@ -1,0 +1,104 @@
+#include "text/tokenizer.h"
+
+#include <unicode/uchar.h>
+#include <unicode/utf8.h>
+
+#include "text/icu_word_breaker.h"
+#include "text/latin_fast_path.h"
+#include "text/normalise.h"
+#include "text/stretch_planner.h"
+#include "text/word_segment.h"
+
+namespace manicule {
+
+namespace {
+
+bool starts_with_white_space(std::string_view piece) {
+  UChar32 c = 0;
+  int32_t i = 0;
+  U8_NEXT(piece.data(), i, static_cast<int32_t>(piece.size()), c);
+  return c >= 0 && u_isUWhiteSpace(c);
+}
+
+bool keeps(const TokenizerOptions& options, const WordSegment& segment,
+           std::string_view piece) {
+  if (is_word_status(segment.rule_status)) return true;
+  if (is_number_status(segment.rule_status)) return options.keep_numbers;
+  return options.keep_punctuation && !starts_with_white_space(piece);
+}
+
+}  // namespace
+
+struct Tokenizer::Impl {
+  explicit Impl(const TokenizerOptions& options) : normaliser(options) {}
+
+  IcuWordBreaker breaker;
+  TokenNormaliser normaliser;
+  std::vector<TextStretch> stretches;
+  std::vector<WordSegment> segments;
+  std::string latin_buffer;
+
+  // Segments `text`, calling on_stretch(fast) after the segments of each stretch have
+  // been appended to `segments` (fast: they came from the Latin fast path).
+  template <typename OnStretch>
+  void segment(std::string_view text, std::string_view language, bool fast_path,
+               OnStretch on_stretch) {
+    segments.clear();
+    if (!fast_path || !breaker.uses_root_rules(language)) {
+      breaker.segment(text, 0, text.size(), language, segments);
+      on_stretch(false);
+      return;
+    }
+    plan_stretches(text, stretches);
+    for (const TextStretch& stretch : stretches) {
+      if (stretch.fast) {
+        latin_segment(text, stretch.begin, stretch.end, segments);
+      } else {
+        breaker.segment(text, stretch.begin, stretch.end, language, segments);
+      }
+      on_stretch(stretch.fast);
+    }
+  }
+};
+
+Tokenizer::Tokenizer(TokenizerOptions options)
+    : options_(options), impl_(std::make_unique<Impl>(options_)) {}
+
+Tokenizer::~Tokenizer() = default;
+
+const TokenizerOptions& Tokenizer::options() const { return options_; }
+
+void Tokenizer::tokenize(std::string_view text, std::string_view language,
+                         const std::function<void(std::string_view token)>& sink) {
+  Impl& impl = *impl_;
+  std::size_t emitted = 0;  // segments of earlier stretches already handled
+  impl.segment(text, language, options_.fast_path, [&](bool fast) {
+    for (; emitted < impl.segments.size(); ++emitted) {
+      const WordSegment& segment = impl.segments[emitted];
+      const std::string_view piece = text.substr(segment.begin, segment.end - segment.begin);
+      if (!keeps(options_, segment, piece)) continue;
+      sink(fast ? latin_normalise(piece, options_.case_fold, options_.apostrophes,
+                                  impl.latin_buffer)
+                : impl.normaliser.normalise(piece));
+    }
+  });
+}
+
+std::vector<std::string> Tokenizer::tokens(std::string_view text, std::string_view language) {
+  std::vector<std::string> result;
+  tokenize(text, language, [&](std::string_view token) { result.emplace_back(token); });
+  return result;
+}
+
+std::vector<std::size_t> Tokenizer::word_boundaries(std::string_view text,
+                                                    std::string_view language) {
+  std::vector<std::size_t> boundaries;
+  if (text.empty()) return boundaries;
+  impl_->segment(text, language, options_.fast_path, [](bool) {});
+  boundaries.reserve(impl_->segments.size() + 1);
+  boundaries.push_back(0);
+  for (const WordSegment& segment : impl_->segments) boundaries.push_back(segment.end);
+  return boundaries;
+}
+
+}  // namespace manicule
