@@ -1,0 +1,81 @@
+// Helpers shared by the tokenizer tests: where Debian's Unicode data lives, UTF-8
+// building, and crude text extraction from TEI files for comparing the two tokenizer paths.
+#pragma once
+#include <unicode/utf8.h>
+
+#include <cstdlib>
+#include <fstream>
+#include <sstream>
+#include <string>
+#include <string_view>
+
+namespace manicule::test {
+
+// Debian's unicode-data package installs the Unicode Character Database here;
+// MANICULE_UNICODE_DATA points elsewhere when set.
+inline std::string unicode_data_file(const std::string& relative) {
+  const char* dir = std::getenv("MANICULE_UNICODE_DATA");
+  return std::string(dir ? dir : "/usr/share/unicode") + "/" + relative;
+}
+
+// The whole file, or "" with ok = false when it cannot be read.
+inline std::string read_whole_file(const std::string& path, bool& ok) {
+  std::ifstream in(path, std::ios::binary);
+  ok = static_cast<bool>(in);
+  std::ostringstream content;
+  content << in.rdbuf();
+  return content.str();
+}
+
+inline void append_utf8(char32_t c, std::string& out) {
+  char bytes[U8_MAX_LENGTH];
+  int32_t length = 0;
+  U8_APPEND_UNSAFE(bytes, length, c);
+  out.append(bytes, static_cast<std::size_t>(length));
+}
+
+inline std::string utf8(char32_t c) {
+  std::string out;
+  append_utf8(c, out);
+  return out;
+}
+
+// The character data after "<text" with every tag replaced by a space and the five
+// predefined entities resolved: good enough to get real running text, not a TEI reader.
+inline std::string crude_text_of(std::string_view xml) {
+  const std::size_t body = xml.find("<text");
+  if (body != std::string_view::npos) xml.remove_prefix(body);
+  std::string out;
+  out.reserve(xml.size());
+  bool in_tag = false;
+  for (std::size_t i = 0; i < xml.size(); ++i) {
+    const char c = xml[i];
+    if (in_tag) {
+      if (c == '>') in_tag = false;
+      continue;
+    }
+    if (c == '<') {
+      in_tag = true;
+      out += ' ';
+      continue;
+    }
+    if (c == '&') {
+      static const std::pair<std::string_view, char> entities[] = {
+          {"&amp;", '&'}, {"&lt;", '<'}, {"&gt;", '>'}, {"&quot;", '"'}, {"&apos;", '\''}};
+      bool resolved = false;
+      for (const auto& [name, value] : entities) {
+        if (xml.substr(i, name.size()) == name) {
+          out += value;
+          i += name.size() - 1;
+          resolved = true;
+          break;
+        }
+      }
+      if (resolved) continue;
+    }
+    out += c;
+  }
+  return out;
+}
+
+}  // namespace manicule::test
