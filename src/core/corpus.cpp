@@ -5,11 +5,10 @@
 #include <filesystem>
 #include <mutex>
 #include <thread>
-#include <unordered_set>
 
 #include "core/error.h"
+#include "core/file_reading.h"
 #include "profile/profile_builder.h"
-#include "tei/reader.h"
 #include "text/tokenizer.h"
 
 namespace manicule {
@@ -38,65 +37,13 @@ std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs) {
   return files;
 }
 
-namespace {
-
-struct FileResult {
-  std::vector<SegmentRecord> segments;
-  CountProfile counts;
-  bool failed = false;
-  FileFailure failure;
-  std::size_t bytes = 0;
-  std::string sha256;
-};
-
-FileResult read_one(const std::string& file, const Request& request, const SelectionRules& rules,
-                    Tokenizer& tokenizer) {
-  FileResult result;
-  std::error_code ec;
-  result.bytes = static_cast<std::size_t>(fs::file_size(file, ec));
-  try {
-    SourceDigest digest;
-    std::vector<Segment> segments = read_segments(XmlSource::file(file), rules, &digest);
-    result.sha256 = digest.sha256;
-    ProfileBuilder builder(request.features);
-    std::unordered_set<std::string> types;
-    for (Segment& segment : segments) {
-      SegmentRecord record;
-      types.clear();
-      builder.begin_segment(segment.id);
-      for (const TextRun& run : segment.runs) {
-        tokenizer.tokenize(run.text, run.language, [&](std::string_view token) {
-          ++record.tokens;
-          types.emplace(token);
-          builder.add_token(token);
-        });
-      }
-      builder.end_segment();
-      record.types = types.size();
-      if (!request.keep_text) segment.runs.clear();
-      record.segment = std::move(segment);
-      result.segments.push_back(std::move(record));
-    }
-    result.counts = builder.finish();
-  } catch (const Error& e) {
-    result.failed = true;
-    result.failure = FileFailure{file, e.what(), static_cast<int>(e.kind())};
-  } catch (const std::exception& e) {
-    result.failed = true;
-    result.failure = FileFailure{file, file + ": " + e.what(), static_cast<int>(ErrorKind::internal)};
-  }
-  return result;
-}
-
-}  // namespace
-
 Corpus read_corpus(const Request& request, const std::vector<std::string>& files, const ProgressFn& progress) {
   const SelectionRules rules = request.selection_rules();
   validate(request.features);
   unsigned threads = request.threads ? request.threads : std::max(1u, std::thread::hardware_concurrency());
   threads = std::min<unsigned>(threads, std::max<std::size_t>(1, files.size()));
 
-  std::vector<FileResult> results(files.size());
+  std::vector<FileReading> results(files.size());
   std::atomic<std::size_t> next{0};
   std::atomic<std::size_t> done{0};
   std::atomic<std::size_t> bytes_done{0};
@@ -104,7 +51,7 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
   auto worker = [&] {
     Tokenizer tokenizer(request.tokenizer);
     for (std::size_t i = next++; i < files.size(); i = next++) {
-      results[i] = read_one(files[i], request, rules, tokenizer);
+      results[i] = read_file(files[i], request, rules, tokenizer);
       bytes_done += results[i].bytes;
       std::size_t d = ++done;
       if (progress) {

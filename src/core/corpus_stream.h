@@ -1,0 +1,37 @@
+// Streaming corpus reading for archive-scale runs. Worker threads (one per core, or
+// Request::threads) take the files in order and read each on its own (read_file); every
+// finished file is handed to `sink` on the calling thread, in the order the files finish,
+// while the workers go on. At most `max_waiting` finished files wait for the sink (workers
+// pause beyond that), so memory is bounded by a few files whatever the archive's size, and
+// the sink (e.g. a database writer) needs no locking of its own.
+//
+// Files with `hash_first[i]` set are hashed before parsing, and `known(i, sha256)` is asked
+// (on a worker thread: it must be safe to call concurrently); when it says true the file is
+// not parsed and the sink gets a FileReading with parsed == false, bytes and sha256 set.
+// If the sink throws, the workers stop after their current file and the exception is
+// rethrown once they have. A bad file never throws: it arrives with `failed` set.
+#pragma once
+#include <cstddef>
+#include <functional>
+#include <string>
+#include <vector>
+
+#include "core/file_reading.h"
+#include "core/request.h"
+
+namespace manicule {
+
+using KnownContent = std::function<bool(std::size_t index, const std::string& sha256)>;
+using FileSink = std::function<void(std::size_t index, FileReading&& reading)>;
+
+struct StreamOptions {
+  std::vector<char> hash_first;  // per file; empty = parse every file straight away
+  KnownContent known;
+  std::size_t max_waiting = 0;   // 0 = four per worker
+};
+
+// Throws Error(usage) for a bad request (before any reading), or what the sink throws.
+void read_files_streaming(const Request& request, const std::vector<std::string>& files,
+                          const StreamOptions& options, const FileSink& sink);
+
+}  // namespace manicule

@@ -1,0 +1,107 @@
+#include "core/file_reading.h"
+
+#include <cctype>
+#include <filesystem>
+#include <map>
+
+#include "core/error.h"
+#include "profile/profile_builder.h"
+#include "profile/vocabulary.h"
+#include "tei/reader.h"
+#include "text/tokenizer.h"
+
+namespace manicule {
+
+namespace {
+
+std::string joined_authors(const std::vector<std::string>& authors) {
+  std::string out;
+  for (const auto& a : authors) out += (out.empty() ? "" : "; ") + a;
+  return out;
+}
+
+// The language holding the most tokens, for editions without langUsage.
+std::string main_language(const std::vector<SegmentRecord>& segments) {
+  std::map<std::string, std::size_t> tokens;
+  for (const auto& r : segments)
+    if (!r.segment.language.empty()) tokens[r.segment.language] += r.tokens;
+  std::string best;
+  std::size_t most = 0;
+  for (const auto& [language, n] : tokens)
+    if (n > most || best.empty()) best = language, most = n;
+  return best;
+}
+
+}  // namespace
+
+int first_year(const std::string& date) {
+  for (std::size_t i = 0; i < date.size();) {
+    if (!std::isdigit(static_cast<unsigned char>(date[i]))) {
+      ++i;
+      continue;
+    }
+    std::size_t j = i;
+    while (j < date.size() && std::isdigit(static_cast<unsigned char>(date[j]))) ++j;
+    if (j - i == 4) return std::stoi(date.substr(i, 4));
+    i = j;
+  }
+  return 0;
+}
+
+FileReading read_file(const std::string& file, const Request& request, const SelectionRules& rules,
+                      Tokenizer& tokenizer) {
+  FileReading result;
+  result.file = file;
+  std::error_code ec;
+  result.bytes = static_cast<std::size_t>(std::filesystem::file_size(file, ec));
+  if (ec) result.bytes = 0;
+  try {
+    SourceDigest digest;
+    HeaderInfo header;
+    std::vector<Segment> segments = read_segments(XmlSource::file(file), rules, &digest, &header);
+    result.sha256 = digest.sha256;
+    result.bytes = digest.bytes;
+    ProfileBuilder builder(request.features);
+    // Distinct words: for word features they are the segment's features; otherwise they
+    // are interned here, a word counting once per segment (no allocation per token).
+    const bool words_are_features = request.features.kind == FeatureKind::word;
+    Vocabulary words;
+    std::vector<std::size_t> last_segment;  // by word id: 1 + the last segment it was seen in
+    for (std::size_t index = 0; index < segments.size(); ++index) {
+      Segment& segment = segments[index];
+      SegmentRecord record;
+      builder.begin_segment(segment.id);
+      for (const TextRun& run : segment.runs) {
+        tokenizer.tokenize(run.text, run.language, [&](std::string_view token) {
+          ++record.tokens;
+          builder.add_token(token);
+          if (words_are_features) return;
+          FeatureId id = words.intern(token);
+          if (id >= last_segment.size()) last_segment.resize(id + 1, 0);
+          if (last_segment[id] != index + 1) last_segment[id] = index + 1, ++record.types;
+        });
+      }
+      builder.end_segment();
+      if (!request.keep_text) segment.runs.clear();
+      record.segment = std::move(segment);
+      result.segments.push_back(std::move(record));
+    }
+    result.counts = builder.finish();
+    if (words_are_features)
+      for (std::size_t i = 0; i < result.segments.size(); ++i) result.segments[i].types = result.counts.segments[i].counts.size();
+    result.metadata.title = header.title;
+    result.metadata.author = joined_authors(header.authors);
+    result.metadata.date = header.date;
+    result.metadata.year = first_year(header.date);
+    result.metadata.language = header.language.empty() ? main_language(result.segments) : header.language;
+  } catch (const Error& e) {
+    result.failed = true;
+    result.failure = FileFailure{file, e.what(), static_cast<int>(e.kind())};
+  } catch (const std::exception& e) {
+    result.failed = true;
+    result.failure = FileFailure{file, file + ": " + e.what(), static_cast<int>(ErrorKind::internal)};
+  }
+  return result;
+}
+
+}  // namespace manicule

@@ -1,0 +1,46 @@
+// Reading one edition on its own: its segments selected, tokenised and counted, its header
+// metadata, and the size and SHA-256 of its bytes (taken while parsing). The unit of work
+// of both corpus readers: read_corpus (all files, then merged) and read_files_streaming
+// (one finished file at a time, for archive-scale runs).
+#pragma once
+#include <string>
+#include <vector>
+
+#include "core/corpus.h"
+#include "core/request.h"
+#include "profile/count_profile.h"
+
+namespace manicule {
+
+class Tokenizer;
+struct SelectionRules;
+
+// What the edition's own header says (the first TEI element's teiHeader).
+struct FileMetadata {
+  std::string title;
+  std::string author;    // titleStmt authors as written, joined by "; "
+  std::string date;      // the first date of the header, as written
+  int year = 0;          // the first four-digit year in `date`; 0 when there is none
+  std::string language;  // langUsage, else the language most of the selected text is in
+};
+
+struct FileReading {
+  std::string file;
+  std::size_t bytes = 0;
+  std::string sha256;                   // of the bytes parsed ("" if unreadable)
+  bool parsed = true;                   // false: only hashed (see read_files_streaming)
+  FileMetadata metadata;
+  std::vector<SegmentRecord> segments;  // in document order
+  CountProfile counts;                  // one SegmentCounts per segment, own vocabulary
+  bool failed = false;
+  FileFailure failure;
+};
+
+// Never throws for a bad file: the error is recorded in `failed` and `failure`.
+FileReading read_file(const std::string& file, const Request& request, const SelectionRules& rules,
+                      Tokenizer& tokenizer);
+
+// "1842", "c. 1799/1800" -> 1842, 1799; 0 when no run of exactly four digits occurs.
+int first_year(const std::string& date);
+
+}  // namespace manicule
