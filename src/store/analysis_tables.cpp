@@ -1,0 +1,103 @@
+#include "store/analysis_tables.h"
+
+#include "core/sha256.h"
+#include "store/run_log.h"
+
+namespace manicule::store {
+
+std::string analysis_key(const nlohmann::json& parameters, const StoredSelection& selection) {
+  Sha256 h;
+  std::string p = parameters.dump();
+  h.update(p.data(), p.size());
+  for (std::size_t i = 0; i < selection.paths.size(); ++i) {
+    std::string line = "\n" + selection.paths[i] + "\t" + selection.sha256[i];
+    h.update(line.data(), line.size());
+  }
+  return h.hex_digest();
+}
+
+std::optional<std::int64_t> find_analysis(Database& db, const std::string& key) {
+  Statement find = db.prepare(
+      "SELECT run_id FROM runs WHERE kind = 'analysis' AND status = 'done' AND analysis_key = ?1 "
+      "ORDER BY run_id DESC LIMIT 1");
+  find.bind(1, key);
+  if (find.step()) return find.int64_at(0);
+  return std::nullopt;
+}
+
+namespace {
+
+void write_segments(Database& db, std::int64_t run, const Analysis& a, const StoredCorpus& stored) {
+  Statement insert = db.prepare(
+      "INSERT INTO analysis_segments (run_id, segment, path, sha256, ordinal, label, author, tokens, measured, "
+      "excluded_reason) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10)");
+  for (std::size_t i = 0; i < a.segments.size(); ++i) {
+    const SegmentSummary& s = a.segments[i];
+    const SegmentSource& src = stored.sources[i];
+    insert.bind(1, run).bind(2, s.id).bind(3, src.path).bind(4, src.sha256).bind(5, src.ordinal);
+    insert.bind(6, s.label).bind(7, s.author).bind(8, s.tokens).bind(9, s.measured ? 1 : 0);
+    if (s.excluded_reason.empty()) insert.bind_null(10); else insert.bind(10, s.excluded_reason);
+    insert.step_to_end();
+  }
+}
+
+void write_features(Database& db, std::int64_t run, const FeatureTable& t) {
+  Statement insert = db.prepare("INSERT INTO features (run_id, rank, form, total, mean, sd) VALUES (?1, ?2, ?3, ?4, ?5, ?6)");
+  for (std::size_t j = 0; j < t.feature_count(); ++j) {
+    auto col = static_cast<Eigen::Index>(j);
+    insert.run(run, t.feature_ranks[j], t.features[j], t.feature_totals[j], t.mean(col), t.sd(col));
+  }
+}
+
+void write_neighbours(Database& db, std::int64_t run, const Analysis& a) {
+  if (!a.distances) return;
+  Statement insert = db.prepare(
+      "INSERT INTO neighbours (run_id, segment, rank, neighbour, distance) VALUES (?1, ?2, ?3, ?4, ?5)");
+  const DistanceResult& d = *a.distances;
+  for (std::size_t r = 0; r < d.rows.size(); ++r)
+    for (std::size_t k = 0; k < d.nearest[r].size(); ++k)
+      insert.run(run, a.segments[d.rows[r]].id, k + 1, a.segments[d.nearest[r][k].segment].id, d.nearest[r][k].distance);
+}
+
+void write_pca(Database& db, std::int64_t run, const PcaResult& pca) {
+  Statement component = db.prepare(
+      "INSERT INTO pca_components (run_id, component, explained_variance, explained_variance_ratio) "
+      "VALUES (?1, ?2, ?3, ?4)");
+  Statement coordinate = db.prepare(
+      "INSERT INTO pca_coordinates (run_id, segment, component, value) VALUES (?1, ?2, ?3, ?4)");
+  for (Eigen::Index c = 0; c < pca.coordinates.cols(); ++c) {
+    component.run(run, static_cast<std::int64_t>(c + 1), pca.explained_variance(c), pca.explained_variance_ratio(c));
+    for (Eigen::Index r = 0; r < pca.coordinates.rows(); ++r)
+      coordinate.run(run, pca.segment_ids[static_cast<std::size_t>(r)], static_cast<std::int64_t>(c + 1),
+                     pca.coordinates(r, c));
+  }
+}
+
+}  // namespace
+
+std::int64_t write_analysis(Database& db, std::int64_t settings_id, const nlohmann::json& parameters,
+                            const std::string& key, const Analysis& analysis, const StoredCorpus& stored,
+                            const std::vector<AttributionRow>& attributions) {
+  nlohmann::json recorded = parameters;
+  for (const auto& [k, v] : analysis.provenance.parameters) recorded["results"][k] = v;
+  recorded["notes"] = analysis.notes;
+  Transaction t(db);
+  std::int64_t run = begin_run(db, "analysis", settings_id, recorded);
+  db.prepare("UPDATE runs SET analysis_key = ?2 WHERE run_id = ?1").run(run, key);
+  write_segments(db, run, analysis, stored);
+  write_features(db, run, analysis.table);
+  write_neighbours(db, run, analysis);
+  if (analysis.pca) write_pca(db, run, *analysis.pca);
+  Statement attribution = db.prepare(
+      "INSERT INTO attributions (run_id, segment, rank, candidate, score, method, detail) "
+      "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)");
+  for (const auto& a : attributions) attribution.run(run, a.segment, a.rank, a.candidate, a.score, a.method, a.detail);
+  RunCounters counters;
+  counters.files_found = stored.corpus.files.size();
+  update_run(db, run, counters);
+  finish_run(db, run, "done");
+  t.commit();
+  return run;
+}
+
+}  // namespace manicule::store

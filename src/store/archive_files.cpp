@@ -1,0 +1,46 @@
+#include "store/archive_files.h"
+
+#include <sys/stat.h>
+
+#include <filesystem>
+
+#include "core/corpus.h"
+#include "core/sha256.h"
+
+namespace manicule::store {
+
+namespace fs = std::filesystem;
+
+bool in_shard(const std::string& relative_path, const Shard& shard) {
+  if (shard.count <= 1) return true;
+  std::uint64_t h = std::stoull(sha256_hex(relative_path).substr(0, 16), nullptr, 16);
+  return h % shard.count + 1 == shard.index;
+}
+
+bool stat_file(const std::string& path, std::uint64_t& size, std::int64_t& mtime_ns) {
+  struct stat st {};
+  if (::stat(path.c_str(), &st) != 0) return false;
+  size = static_cast<std::uint64_t>(st.st_size);
+  mtime_ns = static_cast<std::int64_t>(st.st_mtim.tv_sec) * 1000000000 + st.st_mtim.tv_nsec;
+  return true;
+}
+
+std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inputs, const ArchiveFilter& filter,
+                                            const Shard& shard) {
+  std::vector<ArchiveFile> out;
+  for (const auto& input : inputs) {
+    const bool folder = fs::is_directory(input);
+    for (const auto& path : expand_inputs({input})) {
+      ArchiveFile f;
+      f.path = path;
+      f.relative_path = folder ? fs::path(path).lexically_relative(input).generic_string()
+                               : fs::path(path).filename().string();
+      if (!in_folder(filter, f.path, f.relative_path) || !in_shard(f.relative_path, shard)) continue;
+      stat_file(f.path, f.size, f.mtime_ns);
+      out.push_back(std::move(f));
+    }
+  }
+  return out;
+}
+
+}  // namespace manicule::store

@@ -1,0 +1,31 @@
+// Sub-corpora of an archive, chosen by where a file lies and what its header says:
+// folder, author, year range, language, title pattern. A filter that is left empty
+// keeps everything. Header fields come from the store (readings), so filtering an
+// analysis reads no XML. Text comparisons ignore ASCII letter case.
+#pragma once
+#include <string>
+
+#include "core/file_reading.h"
+
+namespace manicule::store {
+
+struct ArchiveFilter {
+  std::string folder;    // only files inside this folder (relative to an input folder, or as a path)
+  std::string author;    // the header's author contains this text
+  int year_from = 0;     // the header's year is at least this (0 = no lower bound)
+  int year_to = 0;       // ... at most this (0 = no upper bound); files without a year are left out
+  std::string language;  // the file's or the segment's language is this tag (e.g. de, en, eng)
+  std::string title;     // the header's title matches this shell pattern (* and ?), e.g. "*Brief*"
+
+  bool selects_by_header() const;
+  bool empty() const { return folder.empty() && !selects_by_header(); }
+  // "author~goethe year=1800-1830", "" when empty; recorded with each analysis run.
+  std::string describe() const;
+};
+
+bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::string& relative_path);
+// The file-level header tests (author, year, title; language too when `check_language`).
+bool header_matches(const ArchiveFilter& filter, const FileMetadata& metadata, bool check_language);
+bool language_matches(const ArchiveFilter& filter, const std::string& language);
+
+}  // namespace manicule::store

@@ -1,0 +1,197 @@
+#include "store/batch_run.h"
+
+#include <chrono>
+#include <filesystem>
+#include <map>
+#include <memory>
+#include <optional>
+#include <unordered_map>
+#include <unordered_set>
+
+#include "core/corpus_stream.h"
+#include "store/reading_writer.h"
+#include "store/store_settings.h"
+#include "store/store_vocabulary.h"
+
+namespace manicule::store {
+
+namespace {
+
+struct StoredFile {
+  std::uint64_t size = 0;
+  std::int64_t mtime_ns = 0;
+  std::string sha256;
+};
+
+struct StoredReading {
+  bool failed = false;
+  std::string error;
+};
+
+std::unordered_map<std::string, StoredFile> stored_files(Database& db) {
+  std::unordered_map<std::string, StoredFile> out;
+  Statement all = db.prepare("SELECT path, size, mtime_ns, sha256 FROM files");
+  while (all.step())
+    out[all.text_at(0)] = StoredFile{static_cast<std::uint64_t>(all.int64_at(1)), all.int64_at(2), all.text_at(3)};
+  return out;
+}
+
+std::unordered_map<std::string, StoredReading> stored_readings(Database& db, std::int64_t settings_id,
+                                                               std::unordered_set<std::uint64_t>& sizes) {
+  std::unordered_map<std::string, StoredReading> out;
+  Statement all = db.prepare("SELECT sha256, bytes, status, error FROM readings WHERE settings_id = ?1");
+  all.bind(1, settings_id);
+  while (all.step()) {
+    out[all.text_at(0)] = StoredReading{all.text_at(2) == "failed", all.text_at(3)};
+    sizes.insert(static_cast<std::uint64_t>(all.int64_at(1)));
+  }
+  return out;
+}
+
+// Is `path` one that a batch over `inputs` would have found?
+bool under_inputs(const std::string& path, const std::vector<std::string>& inputs) {
+  namespace fs = std::filesystem;
+  for (const auto& input : inputs) {
+    if (path == input) return true;
+    std::string prefix = input.empty() || input.back() == '/' ? input : input + "/";
+    std::error_code ec;
+    if (fs::is_directory(input, ec) && path.rfind(prefix, 0) == 0) return true;
+  }
+  return false;
+}
+
+std::size_t remove_vanished(Database& db, const Request& request, const BatchOptions& options,
+                            const std::vector<ArchiveFile>& files) {
+  std::unordered_set<std::string> found;
+  for (const auto& f : files) found.insert(f.path);
+  std::vector<std::string> gone;
+  Statement all = db.prepare("SELECT path, relative_path FROM files");
+  while (all.step()) {
+    std::string path = all.text_at(0), relative = all.text_at(1);
+    if (!found.count(path) && under_inputs(path, request.inputs) && in_folder(options.filter, path, relative) &&
+        in_shard(relative, options.shard))
+      gone.push_back(path);
+  }
+  Statement remove = db.prepare("DELETE FROM files WHERE path = ?1");
+  for (const auto& path : gone) remove.run(path);
+  return gone.size();
+}
+
+nlohmann::json run_parameters(const Request& request, const BatchOptions& options, const ReadingSettings& settings) {
+  return {{"inputs", request.inputs},      {"settings_key", settings.key},  {"unit", settings.unit},
+          {"selection", settings.selection}, {"tokenizer", settings.tokenizer}, {"features", settings.features},
+          {"folder", options.filter.folder}, {"shard", options.shard.describe()},
+          {"verify_hashes", options.verify_hashes}};
+}
+
+}  // namespace
+
+BatchSummary run_batch(Database& db, const Request& request, const BatchOptions& options,
+                       const BatchListener& listener) {
+  const ReadingSettings settings = reading_settings(request);
+  std::vector<ArchiveFile> listed = list_archive_files(request.inputs, options.filter, options.shard);
+  std::vector<ArchiveFile> files;
+  {
+    std::unordered_set<std::string> seen;
+    for (auto& f : listed)
+      if (seen.insert(f.path).second) files.push_back(std::move(f));
+  }
+
+  BatchSummary summary;
+  {
+    Transaction t(db);
+    mark_interrupted_runs(db);
+    summary.settings_id = ensure_settings(db, settings);
+    summary.run_id = begin_run(db, "batch", summary.settings_id, run_parameters(request, options, settings));
+    t.commit();
+  }
+  RunCounters& counters = summary.counters;
+  counters.files_found = files.size();
+
+  // Plan: which files need opening, and which of those are worth hashing before parsing
+  // (only a file whose size some stored content has can turn out to be known).
+  std::unordered_set<std::uint64_t> known_sizes;
+  const auto readings = stored_readings(db, summary.settings_id, known_sizes);
+  const auto previous = stored_files(db);
+  std::vector<std::size_t> to_open;
+  std::vector<char> hash_first;
+  std::map<std::string, std::string> failing;  // path -> message, reported in path order
+  BatchProgress progress;
+  progress.files_total = files.size();
+  for (std::size_t i = 0; i < files.size(); ++i) {
+    const ArchiveFile& f = files[i];
+    auto p = previous.find(f.path);
+    if (!options.verify_hashes && p != previous.end() && p->second.size == f.size &&
+        p->second.mtime_ns == f.mtime_ns && !p->second.sha256.empty()) {
+      auto r = readings.find(p->second.sha256);
+      if (r != readings.end()) {
+        ++counters.files_unchanged;
+        if (r->second.failed) failing[f.path] = r->second.error;
+        continue;
+      }
+    }
+    to_open.push_back(i);
+    hash_first.push_back(known_sizes.count(f.size) ? 1 : 0);
+    progress.bytes_total += f.size;
+  }
+  progress.files_done = counters.files_unchanged;
+  if (listener && counters.files_unchanged) listener(progress, "", FileOutcome::unchanged);
+
+  std::vector<std::string> paths;
+  for (std::size_t i : to_open) paths.push_back(files[i].path);
+  StreamOptions stream;
+  stream.hash_first = hash_first;
+  stream.known = [&readings](std::size_t, const std::string& sha) { return readings.count(sha) != 0; };
+
+  StoreVocabulary vocabulary(db, summary.settings_id);
+  ReadingWriter writer(db, summary.settings_id, vocabulary);
+  auto transaction = std::make_unique<Transaction>(db);
+  std::size_t in_transaction = 0;
+  auto last_commit = std::chrono::steady_clock::now();
+  auto commit = [&] {
+    update_run(db, summary.run_id, counters);
+    transaction->commit();
+    transaction = std::make_unique<Transaction>(db);
+    in_transaction = 0;
+    last_commit = std::chrono::steady_clock::now();
+  };
+
+  read_files_streaming(request, paths, stream, [&](std::size_t k, FileReading&& reading) {
+    const ArchiveFile& f = files[to_open[k]];
+    FileOutcome outcome;
+    if (!reading.parsed) {
+      writer.write_file(f, reading.sha256, "");
+      ++counters.files_hashed;
+      auto r = readings.find(reading.sha256);
+      if (r != readings.end() && r->second.failed) failing[f.path] = r->second.error;
+      outcome = FileOutcome::hashed;
+    } else {
+      ++counters.files_read;
+      if (reading.sha256.empty()) {
+        writer.write_file(f, "", reading.failure.message);  // not even readable
+      } else {
+        writer.write_file(f, reading.sha256, "");
+        writer.write_reading(reading, summary.run_id);
+      }
+      outcome = reading.failed ? FileOutcome::failed : FileOutcome::read;
+      if (reading.failed) failing[f.path] = reading.failure.message;
+    }
+    counters.bytes_read += reading.bytes;
+    progress.bytes_done += f.size;
+    ++progress.files_done;
+    if (++in_transaction >= options.commit_files ||
+        std::chrono::steady_clock::now() - last_commit > std::chrono::duration<double>(options.commit_seconds))
+      commit();
+    if (listener) listener(progress, f.path, outcome);
+  });
+
+  summary.files_removed = remove_vanished(db, request, options, files);
+  counters.files_failed = failing.size();
+  update_run(db, summary.run_id, counters);
+  finish_run(db, summary.run_id, "done");
+  transaction->commit();
+  for (auto& [path, message] : failing) summary.failures.push_back(BatchFailure{path, message});
+  return summary;
+}
+
+}  // namespace manicule::store

@@ -1,0 +1,67 @@
+// A batch run: brings the store up to date with the archive under the request's inputs.
+//  - Each file's size and modification time are compared with the store: when both are as
+//    stored and its content was read under these settings, the file is not opened at all.
+//    Otherwise it is hashed (SHA-256); a content already stored is not parsed again (a file
+//    touched, moved or copied); only new contents are parsed. verify_hashes hashes every
+//    file (for file systems whose times cannot be trusted).
+//  - Files are read on all cores (read_files_streaming); what is read is committed in one
+//    transaction per batch of files (commit_files, or commit_seconds, whichever first), so
+//    memory stays bounded and a killed run loses at most one batch: run again, it goes on
+//    where the last commit left it, with no duplicate row.
+//  - A file that fails is recorded with its error; the run goes on.
+//  - Files that no longer exist under the inputs (inside the folder filter and the shard)
+//    leave the files table; what was read from them stays cached by content.
+#pragma once
+#include <cstdint>
+#include <functional>
+#include <string>
+#include <vector>
+
+#include "core/request.h"
+#include "store/archive_files.h"
+#include "store/archive_filter.h"
+#include "store/run_log.h"
+#include "store/sqlite_db.h"
+
+namespace manicule::store {
+
+struct BatchOptions {
+  ArchiveFilter filter;  // only its folder applies to reading; the rest selects what is analysed
+  Shard shard;
+  bool verify_hashes = false;
+  std::size_t commit_files = 64;
+  double commit_seconds = 2.0;
+};
+
+enum class FileOutcome { unchanged, hashed, read, failed };
+
+struct BatchProgress {
+  std::size_t files_done = 0;
+  std::size_t files_total = 0;
+  std::size_t bytes_done = 0;   // of the files that had to be opened
+  std::size_t bytes_total = 0;  // ditto
+};
+
+// After each file that had to be opened (unchanged files are reported once, in bulk, with
+// an empty path). Called on the thread that called run_batch.
+using BatchListener = std::function<void(const BatchProgress&, const std::string& path, FileOutcome outcome)>;
+
+struct BatchFailure {
+  std::string path;
+  std::string message;
+};
+
+struct BatchSummary {
+  std::int64_t run_id = 0;
+  std::int64_t settings_id = 0;
+  RunCounters counters;
+  std::vector<BatchFailure> failures;  // every file failing now, in path order
+  std::size_t files_removed = 0;       // rows of files no longer found
+};
+
+// Throws Error(usage) for a bad request, Error(write_failed) when the store cannot be
+// written (what was committed stays), Error(bad_input) for a missing input.
+BatchSummary run_batch(Database& db, const Request& request, const BatchOptions& options,
+                       const BatchListener& listener = {});
+
+}  // namespace manicule::store

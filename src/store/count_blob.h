@@ -1,0 +1,25 @@
+// A segment's counts as the store keeps them: one BLOB of unsigned LEB128 varints holding,
+// for each feature in ascending id order, the gap to the previous id (for the first, the id
+// itself) and then the count. About three bytes a feature, where a row per (segment,
+// feature) would cost SQLite twenty or more; that keeps first runs fast and stores small.
+// docs/store.md describes the format for readers in other languages.
+#pragma once
+#include <cstdint>
+#include <string>
+#include <string_view>
+#include <utility>
+#include <vector>
+
+#include "profile/vocabulary.h"
+
+namespace manicule::store {
+
+using FeatureCounts = std::vector<std::pair<FeatureId, std::uint32_t>>;
+
+// `counts` must be sorted by id with no id twice.
+std::string encode_counts(const FeatureCounts& counts);
+
+// Throws Error(bad_input) for a truncated or malformed blob.
+FeatureCounts decode_counts(std::string_view blob);
+
+}  // namespace manicule::store

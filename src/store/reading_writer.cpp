@@ -1,0 +1,80 @@
+#include "store/reading_writer.h"
+
+#include <algorithm>
+
+#include <nlohmann/json.hpp>
+
+#include "store/count_blob.h"
+#include "tei/reader.h"
+
+namespace manicule::store {
+
+namespace {
+
+std::string authorship_name(Authorship a) {
+  return a == Authorship::known ? "known" : a == Authorship::conjectured ? "conjectured" : "unknown";
+}
+
+}  // namespace
+
+ReadingWriter::ReadingWriter(Database& db, std::int64_t settings_id, StoreVocabulary& vocabulary)
+    : db_(db),
+      settings_id_(settings_id),
+      vocabulary_(vocabulary),
+      upsert_file_(db.prepare(
+          "INSERT INTO files (path, relative_path, stem, size, mtime_ns, sha256, read_error) "
+          "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7) ON CONFLICT (path) DO UPDATE SET relative_path = excluded.relative_path, "
+          "stem = excluded.stem, size = excluded.size, mtime_ns = excluded.mtime_ns, sha256 = excluded.sha256, "
+          "read_error = excluded.read_error")),
+      insert_reading_(db.prepare(
+          "INSERT OR IGNORE INTO readings (settings_id, sha256, bytes, status, error, error_kind, title, author, date, "
+          "year, language, segments, tokens, run_id) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14)")),
+      insert_segment_(db.prepare(
+          "INSERT INTO segments (settings_id, sha256, ordinal, local_id, unit, label, language, author, authorship, "
+          "pointers, warnings, tokens, types, feature_total, counts) "
+          "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15)")) {}
+
+void ReadingWriter::write_file(const ArchiveFile& file, const std::string& sha256, const std::string& read_error) {
+  upsert_file_.bind(1, file.path).bind(2, file.relative_path).bind(3, file_stem(file.path));
+  upsert_file_.bind(4, static_cast<std::int64_t>(file.size)).bind(5, file.mtime_ns);
+  if (sha256.empty()) upsert_file_.bind_null(6); else upsert_file_.bind(6, sha256);
+  if (read_error.empty()) upsert_file_.bind_null(7); else upsert_file_.bind(7, read_error);
+  upsert_file_.step_to_end();
+}
+
+void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
+  std::size_t tokens = 0;
+  for (const auto& s : r.segments) tokens += s.tokens;
+  auto& q = insert_reading_;
+  q.bind(1, settings_id_).bind(2, r.sha256).bind(3, r.bytes).bind(4, r.failed ? "failed" : "ok");
+  if (r.failed) q.bind(5, r.failure.message).bind(6, r.failure.kind); else q.bind_null(5).bind_null(6);
+  q.bind(7, r.metadata.title).bind(8, r.metadata.author).bind(9, r.metadata.date);
+  if (r.metadata.year) q.bind(10, r.metadata.year); else q.bind_null(10);
+  q.bind(11, r.metadata.language).bind(12, r.failed ? 0 : r.segments.size()).bind(13, r.failed ? 0 : tokens);
+  q.bind(14, run_id);
+  q.step_to_end();
+  // Nothing inserted: this content is stored already (the same file twice in the archive).
+  if (db_.changes() == 0 || r.failed) return;
+  // The file's own feature ids -> the store's, each form looked up once per file.
+  to_store_.resize(r.counts.vocabulary.size());
+  for (std::size_t id = 0; id < to_store_.size(); ++id)
+    to_store_[id] = vocabulary_.id_of(r.counts.vocabulary.form(static_cast<FeatureId>(id)));
+  for (std::size_t i = 0; i < r.segments.size(); ++i) {
+    const SegmentRecord& record = r.segments[i];
+    const Segment& seg = record.segment;
+    const SegmentCounts& counts = r.counts.segments[i];
+    mapped_.clear();
+    for (const auto& [local, n] : counts.counts) mapped_.emplace_back(to_store_[local], n);
+    std::sort(mapped_.begin(), mapped_.end());
+    auto& w = insert_segment_;
+    w.bind(1, settings_id_).bind(2, r.sha256).bind(3, i).bind(4, seg.local_id).bind(5, seg.unit).bind(6, seg.label);
+    w.bind(7, seg.language).bind(8, seg.author).bind(9, authorship_name(seg.authorship));
+    w.bind(10, nlohmann::json(seg.pointers).dump()).bind(11, nlohmann::json(seg.warnings).dump());
+    w.bind(12, record.tokens).bind(13, record.types).bind(14, counts.feature_total);
+    w.bind_blob(15, encode_counts(mapped_));
+    w.step_to_end();
+  }
+  vocabulary_.write_new();
+}
+
+}  // namespace manicule::store

@@ -1,0 +1,37 @@
+// Writing what a batch found, inside the caller's transaction: a file's row (where a
+// content lives now), and what was read from a content under one settings (its readings
+// row with header metadata or error, and its segments with their counts in store ids).
+// A content already stored under these settings is left as it is, so writing twice is
+// harmless: a batch restarted after being killed adds no duplicate.
+#pragma once
+#include <cstdint>
+#include <string>
+
+#include "core/file_reading.h"
+#include "store/archive_files.h"
+#include "store/count_blob.h"
+#include "store/sqlite_db.h"
+#include "store/store_vocabulary.h"
+
+namespace manicule::store {
+
+class ReadingWriter {
+ public:
+  ReadingWriter(Database& db, std::int64_t settings_id, StoreVocabulary& vocabulary);
+
+  // `sha256` empty: the file could not be read at all (`read_error` says why).
+  void write_file(const ArchiveFile& file, const std::string& sha256, const std::string& read_error);
+  void write_reading(const FileReading& reading, std::int64_t run_id);
+
+ private:
+  Database& db_;
+  std::int64_t settings_id_;
+  StoreVocabulary& vocabulary_;
+  Statement upsert_file_;
+  Statement insert_reading_;
+  Statement insert_segment_;
+  std::vector<FeatureId> to_store_;
+  FeatureCounts mapped_;
+};
+
+}  // namespace manicule::store

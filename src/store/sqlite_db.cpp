@@ -1,0 +1,146 @@
+#include "store/sqlite_db.h"
+
+#include <sqlite3.h>
+
+#include <filesystem>
+
+#include "core/error.h"
+
+namespace manicule::store {
+
+namespace {
+
+std::string message_for(int code, const std::string& path, std::string_view doing, sqlite3* db) {
+  int primary = code & 0xff;
+  if (primary == SQLITE_BUSY || primary == SQLITE_LOCKED)
+    return "the store " + path + " is in use by another manicule run (batch, analyse-store or merge); " +
+           "wait for it to finish, or use another --store";
+  std::string detail = db ? sqlite3_errmsg(db) : sqlite3_errstr(code);
+  if (primary == SQLITE_NOTADB || primary == SQLITE_CORRUPT)
+    return path + " is not a manicule store (or is damaged): " + detail;
+  return "store " + path + ": " + std::string(doing) + ": " + detail;
+}
+
+}  // namespace
+
+Database::Database(const std::string& path, bool create) : path_(path) {
+  if (!create && !std::filesystem::exists(path))
+    throw Error(ErrorKind::bad_input, "no such store: " + path + " (make one with manicule batch --store)");
+  int flags = SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOMUTEX | (create ? SQLITE_OPEN_CREATE : 0);
+  int rc = sqlite3_open_v2(path.c_str(), &db_, flags, nullptr);
+  if (rc != SQLITE_OK) {
+    std::string message = message_for(rc, path, "opening", db_);
+    sqlite3_close(db_);
+    db_ = nullptr;
+    throw Error(ErrorKind::write_failed, message);
+  }
+  sqlite3_extended_result_codes(db_, 1);
+}
+
+Database::~Database() {
+  if (db_) sqlite3_close_v2(db_);
+}
+
+void Database::fail(int code, std::string_view doing) const {
+  int primary = code & 0xff;
+  ErrorKind kind = primary == SQLITE_NOTADB || primary == SQLITE_CORRUPT ? ErrorKind::bad_input : ErrorKind::write_failed;
+  throw Error(kind, message_for(code, path_, doing, db_));
+}
+
+void Database::exec(std::string_view sql) {
+  std::string text(sql);
+  int rc = sqlite3_exec(db_, text.c_str(), nullptr, nullptr, nullptr);
+  if (rc != SQLITE_OK) fail(rc, text.substr(0, 60));
+}
+
+std::int64_t Database::last_insert_id() const { return sqlite3_last_insert_rowid(db_); }
+int Database::changes() const { return sqlite3_changes(db_); }
+
+Statement::Statement(Database& db, std::string_view sql) : db_(&db) {
+  int rc = sqlite3_prepare_v3(db.handle(), sql.data(), static_cast<int>(sql.size()), SQLITE_PREPARE_PERSISTENT,
+                              &stmt_, nullptr);
+  if (rc != SQLITE_OK) db.fail(rc, "preparing " + std::string(sql.substr(0, 60)));
+}
+
+Statement::~Statement() {
+  if (stmt_) sqlite3_finalize(stmt_);
+}
+
+Statement::Statement(Statement&& other) noexcept : db_(other.db_), stmt_(other.stmt_) { other.stmt_ = nullptr; }
+
+Statement& Statement::bind(int index, std::int64_t value) {
+  int rc = sqlite3_bind_int64(stmt_, index, value);
+  if (rc != SQLITE_OK) db_->fail(rc, "binding");
+  return *this;
+}
+
+Statement& Statement::bind(int index, double value) {
+  int rc = sqlite3_bind_double(stmt_, index, value);
+  if (rc != SQLITE_OK) db_->fail(rc, "binding");
+  return *this;
+}
+
+Statement& Statement::bind(int index, std::string_view text) {
+  int rc = sqlite3_bind_text64(stmt_, index, text.data(), text.size(), SQLITE_TRANSIENT, SQLITE_UTF8);
+  if (rc != SQLITE_OK) db_->fail(rc, "binding");
+  return *this;
+}
+
+Statement& Statement::bind_blob(int index, std::string_view bytes) {
+  int rc = sqlite3_bind_blob64(stmt_, index, bytes.data(), bytes.size(), SQLITE_TRANSIENT);
+  if (rc != SQLITE_OK) db_->fail(rc, "binding");
+  return *this;
+}
+
+Statement& Statement::bind_null(int index) {
+  int rc = sqlite3_bind_null(stmt_, index);
+  if (rc != SQLITE_OK) db_->fail(rc, "binding");
+  return *this;
+}
+
+bool Statement::step() {
+  int rc = sqlite3_step(stmt_);
+  if (rc == SQLITE_ROW) return true;
+  if (rc == SQLITE_DONE) return false;
+  std::string sql = sqlite3_sql(stmt_) ? sqlite3_sql(stmt_) : "";
+  sqlite3_reset(stmt_);
+  db_->fail(rc, sql.substr(0, 60));
+}
+
+void Statement::step_to_end() {
+  while (step()) {
+  }
+  reset();
+}
+
+void Statement::reset() { sqlite3_reset(stmt_); }
+
+std::int64_t Statement::int64_at(int column) const { return sqlite3_column_int64(stmt_, column); }
+double Statement::double_at(int column) const { return sqlite3_column_double(stmt_, column); }
+
+std::string Statement::text_at(int column) const {
+  const unsigned char* text = sqlite3_column_text(stmt_, column);
+  if (!text) return {};
+  return std::string(reinterpret_cast<const char*>(text), static_cast<std::size_t>(sqlite3_column_bytes(stmt_, column)));
+}
+
+std::string_view Statement::blob_at(int column) const {
+  const void* data = sqlite3_column_blob(stmt_, column);
+  if (!data) return {};
+  return {static_cast<const char*>(data), static_cast<std::size_t>(sqlite3_column_bytes(stmt_, column))};
+}
+
+bool Statement::is_null(int column) const { return sqlite3_column_type(stmt_, column) == SQLITE_NULL; }
+
+Transaction::Transaction(Database& db) : db_(db) { db_.exec("BEGIN IMMEDIATE"); }
+
+Transaction::~Transaction() {
+  if (open_) sqlite3_exec(db_.handle(), "ROLLBACK", nullptr, nullptr, nullptr);
+}
+
+void Transaction::commit() {
+  db_.exec("COMMIT");
+  open_ = false;
+}
+
+}  // namespace manicule::store

@@ -1,0 +1,37 @@
+// Analyses over the stored archive, reading no XML: builds a Corpus from the store
+// (load_stored_corpus) for one settings and a filter, runs the facade's analyse_corpus
+// (distances with the k nearest segments, PCA when asked) and records the result as an
+// analysis run. An identical earlier analysis (same parameters, same files and contents)
+// is reused unless `recompute`.
+#pragma once
+#include <cstdint>
+#include <string>
+#include <vector>
+
+#include "core/request.h"
+#include "store/archive_filter.h"
+#include "store/sqlite_db.h"
+
+namespace manicule::store {
+
+struct StoreAnalysisResult {
+  std::int64_t run_id = 0;
+  bool reused = false;            // an identical analysis was in the store already
+  std::size_t files = 0;          // files whose segments were analysed
+  std::size_t segments = 0;       // segments loaded (long enough)
+  std::size_t measured = 0;       // rows of the feature table
+  std::size_t features = 0;
+  std::size_t too_short = 0;      // segments below the minimum size
+  std::size_t files_failed = 0;   // stored as failed, left out
+  std::size_t files_not_read = 0; // in the store but not read under these settings
+  std::size_t attributions = 0;
+  std::vector<std::string> notes;
+};
+
+// `request` gives the analysis options (feature space, measure, neighbours, PCA) and must
+// carry the reading settings of `settings_id`. Throws Error(nothing_selected) when the
+// filter leaves fewer than two segments.
+StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const Request& request,
+                                  const ArchiveFilter& filter, bool recompute = false);
+
+}  // namespace manicule::store

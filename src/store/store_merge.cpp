@@ -1,0 +1,133 @@
+#include "store/store_merge.h"
+
+#include <algorithm>
+#include <unordered_map>
+
+#include "core/error.h"
+#include "store/count_blob.h"
+#include "store/run_log.h"
+#include "store/store_settings.h"
+#include "store/store_vocabulary.h"
+
+namespace manicule::store {
+
+namespace {
+
+// Input feature id -> output feature id, for one settings.
+std::vector<FeatureId> map_vocabulary(Database& input, std::int64_t input_settings, StoreVocabulary& out_vocabulary) {
+  std::vector<FeatureId> map;
+  Statement forms = input.prepare("SELECT feature_id, form FROM vocabulary WHERE settings_id = ?1 ORDER BY feature_id");
+  forms.bind(1, input_settings);
+  while (forms.step()) {
+    auto id = static_cast<std::size_t>(forms.int64_at(0));
+    if (id >= map.size()) map.resize(id + 1, UINT32_MAX);
+    map[id] = out_vocabulary.id_of(forms.blob_at(1));
+  }
+  out_vocabulary.write_new();
+  return map;
+}
+
+std::string remap_counts(std::string_view blob, const std::vector<FeatureId>& map, const std::string& store) {
+  FeatureCounts counts = decode_counts(blob);
+  for (auto& entry : counts) {
+    if (entry.first >= map.size() || map[entry.first] == UINT32_MAX)
+      throw Error(ErrorKind::bad_input, "the store " + store + " has a damaged vocabulary (a counted feature has no form)");
+    entry.first = map[entry.first];
+  }
+  std::sort(counts.begin(), counts.end());
+  return encode_counts(counts);
+}
+
+void merge_settings(Database& out, Database& input, const StoredSettings& in, std::int64_t run, MergeSummary& summary) {
+  std::size_t before = list_settings(out).size();
+  std::int64_t out_id = ensure_settings(out, in.settings);
+  if (list_settings(out).size() > before) ++summary.settings_added;
+  StoreVocabulary out_vocabulary(out, out_id);
+  const std::vector<FeatureId> map = map_vocabulary(input, in.id, out_vocabulary);
+
+  Statement readings = input.prepare(
+      "SELECT sha256, bytes, status, error, error_kind, title, author, date, year, language, segments, tokens "
+      "FROM readings WHERE settings_id = ?1 ORDER BY sha256");
+  readings.bind(1, in.id);
+  Statement insert_reading = out.prepare(
+      "INSERT OR IGNORE INTO readings (settings_id, sha256, bytes, status, error, error_kind, title, author, date, "
+      "year, language, segments, tokens, run_id) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14)");
+  Statement segments = input.prepare(
+      "SELECT ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens, types, "
+      "feature_total, counts FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal");
+  Statement insert_segment = out.prepare(
+      "INSERT INTO segments (settings_id, sha256, ordinal, local_id, unit, label, language, author, authorship, "
+      "pointers, warnings, tokens, types, feature_total, counts) "
+      "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15)");
+  auto copy_value = [](Statement& from, int column, Statement& to, int index) {
+    if (from.is_null(column)) to.bind_null(index);
+    else to.bind(index, from.text_at(column));
+  };
+  while (readings.step()) {
+    const std::string sha = readings.text_at(0);
+    insert_reading.bind(1, out_id).bind(2, sha).bind(3, readings.int64_at(1)).bind(4, readings.text_at(2));
+    copy_value(readings, 3, insert_reading, 5);
+    if (readings.is_null(4)) insert_reading.bind_null(6); else insert_reading.bind(6, readings.int64_at(4));
+    copy_value(readings, 5, insert_reading, 7);
+    copy_value(readings, 6, insert_reading, 8);
+    copy_value(readings, 7, insert_reading, 9);
+    if (readings.is_null(8)) insert_reading.bind_null(10); else insert_reading.bind(10, readings.int64_at(8));
+    copy_value(readings, 9, insert_reading, 11);
+    insert_reading.bind(12, readings.int64_at(10)).bind(13, readings.int64_at(11)).bind(14, run);
+    insert_reading.step_to_end();
+    if (out.changes() == 0) continue;  // the output holds this content already
+    ++summary.readings_added;
+    segments.bind(1, in.id).bind(2, sha);
+    while (segments.step()) {
+      insert_segment.bind(1, out_id).bind(2, sha).bind(3, segments.int64_at(0));
+      for (int c = 1; c <= 8; ++c) insert_segment.bind(c + 3, segments.text_at(c));
+      insert_segment.bind(12, segments.int64_at(9)).bind(13, segments.int64_at(10)).bind(14, segments.int64_at(11));
+      insert_segment.bind_blob(15, remap_counts(segments.blob_at(12), map, input.path()));
+      insert_segment.step_to_end();
+      ++summary.segments_added;
+    }
+    segments.reset();
+  }
+}
+
+void merge_files(Database& out, Database& input, MergeSummary& summary) {
+  Statement files = input.prepare(
+      "SELECT path, relative_path, stem, size, mtime_ns, sha256, read_error FROM files ORDER BY path");
+  Statement existing = out.prepare("SELECT mtime_ns FROM files WHERE path = ?1");
+  Statement upsert = out.prepare(
+      "INSERT OR REPLACE INTO files (path, relative_path, stem, size, mtime_ns, sha256, read_error) "
+      "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)");
+  while (files.step()) {
+    existing.bind(1, files.text_at(0));
+    bool present = existing.step();
+    bool newer = !present || files.int64_at(4) > existing.int64_at(0);
+    existing.reset();
+    if (!newer) continue;
+    upsert.bind(1, files.text_at(0)).bind(2, files.text_at(1)).bind(3, files.text_at(2));
+    upsert.bind(4, files.int64_at(3)).bind(5, files.int64_at(4));
+    if (files.is_null(5)) upsert.bind_null(6); else upsert.bind(6, files.text_at(5));
+    if (files.is_null(6)) upsert.bind_null(7); else upsert.bind(7, files.text_at(6));
+    upsert.step_to_end();
+    ++(present ? summary.files_updated : summary.files_added);
+  }
+}
+
+}  // namespace
+
+MergeSummary merge_store(Database& out, Database& input) {
+  MergeSummary summary;
+  Transaction t(out);
+  mark_interrupted_runs(out);
+  std::int64_t run = begin_run(out, "merge", 0, {{"input", input.path()}});
+  for (const auto& settings : list_settings(input)) merge_settings(out, input, settings, run, summary);
+  merge_files(out, input, summary);
+  RunCounters counters;
+  counters.files_found = summary.files_added + summary.files_updated;
+  counters.files_read = 0;
+  update_run(out, run, counters);
+  finish_run(out, run, "done");
+  t.commit();
+  return summary;
+}
+
+}  // namespace manicule::store

@@ -1,0 +1,197 @@
+#include "store/store_schema.h"
+
+#include "core/error.h"
+
+namespace manicule::store {
+
+namespace {
+
+// Keys: a file's content is known by its SHA-256; what was read from it depends on the
+// reading settings as well, so readings and segments are keyed by (settings_id, sha256).
+// Paths live in `files` alone, so a moved or copied file is not read again.
+constexpr const char* kSchema = R"sql(
+CREATE TABLE IF NOT EXISTS store_info (
+  key TEXT PRIMARY KEY,
+  value TEXT NOT NULL
+);
+CREATE TABLE IF NOT EXISTS settings (
+  settings_id INTEGER PRIMARY KEY,
+  key TEXT NOT NULL UNIQUE,
+  unit TEXT NOT NULL,
+  selection TEXT NOT NULL,
+  tokenizer TEXT NOT NULL,
+  features TEXT NOT NULL,
+  request TEXT NOT NULL
+);
+CREATE TABLE IF NOT EXISTS files (
+  path TEXT PRIMARY KEY,
+  relative_path TEXT NOT NULL,
+  stem TEXT NOT NULL,
+  size INTEGER NOT NULL,
+  mtime_ns INTEGER NOT NULL,
+  sha256 TEXT,
+  read_error TEXT
+);
+CREATE INDEX IF NOT EXISTS files_by_sha256 ON files (sha256);
+CREATE TABLE IF NOT EXISTS readings (
+  settings_id INTEGER NOT NULL REFERENCES settings (settings_id),
+  sha256 TEXT NOT NULL,
+  bytes INTEGER NOT NULL,
+  status TEXT NOT NULL CHECK (status IN ('ok', 'failed')),
+  error TEXT,
+  error_kind INTEGER,
+  title TEXT,
+  author TEXT,
+  date TEXT,
+  year INTEGER,
+  language TEXT,
+  segments INTEGER NOT NULL,
+  tokens INTEGER NOT NULL,
+  run_id INTEGER,
+  PRIMARY KEY (settings_id, sha256)
+);
+CREATE TABLE IF NOT EXISTS segments (
+  settings_id INTEGER NOT NULL,
+  sha256 TEXT NOT NULL,
+  ordinal INTEGER NOT NULL,
+  local_id TEXT NOT NULL,
+  unit TEXT NOT NULL,
+  label TEXT NOT NULL,
+  language TEXT NOT NULL,
+  author TEXT NOT NULL,
+  authorship TEXT NOT NULL,
+  pointers TEXT NOT NULL,
+  warnings TEXT NOT NULL,
+  tokens INTEGER NOT NULL,
+  types INTEGER NOT NULL,
+  feature_total INTEGER NOT NULL,
+  counts BLOB NOT NULL,
+  PRIMARY KEY (settings_id, sha256, ordinal)
+);
+CREATE TABLE IF NOT EXISTS vocabulary (
+  settings_id INTEGER NOT NULL,
+  feature_id INTEGER NOT NULL,
+  form TEXT NOT NULL,
+  PRIMARY KEY (settings_id, feature_id)
+) WITHOUT ROWID;
+CREATE TABLE IF NOT EXISTS runs (
+  run_id INTEGER PRIMARY KEY,
+  kind TEXT NOT NULL CHECK (kind IN ('batch', 'analysis', 'merge')),
+  settings_id INTEGER,
+  started TEXT NOT NULL,
+  finished TEXT,
+  status TEXT NOT NULL CHECK (status IN ('running', 'done', 'interrupted', 'failed')),
+  tool TEXT NOT NULL,
+  parameters TEXT NOT NULL,
+  files_found INTEGER NOT NULL DEFAULT 0,
+  files_unchanged INTEGER NOT NULL DEFAULT 0,
+  files_hashed INTEGER NOT NULL DEFAULT 0,
+  files_read INTEGER NOT NULL DEFAULT 0,
+  files_failed INTEGER NOT NULL DEFAULT 0,
+  bytes_read INTEGER NOT NULL DEFAULT 0,
+  analysis_key TEXT
+);
+CREATE TABLE IF NOT EXISTS analysis_segments (
+  run_id INTEGER NOT NULL,
+  segment TEXT NOT NULL,
+  path TEXT NOT NULL,
+  sha256 TEXT NOT NULL,
+  ordinal INTEGER NOT NULL,
+  label TEXT NOT NULL,
+  author TEXT NOT NULL,
+  tokens INTEGER NOT NULL,
+  measured INTEGER NOT NULL,
+  excluded_reason TEXT,
+  PRIMARY KEY (run_id, segment)
+);
+CREATE TABLE IF NOT EXISTS features (
+  run_id INTEGER NOT NULL,
+  rank INTEGER NOT NULL,
+  form TEXT NOT NULL,
+  total INTEGER NOT NULL,
+  mean REAL NOT NULL,
+  sd REAL NOT NULL,
+  PRIMARY KEY (run_id, rank)
+);
+CREATE TABLE IF NOT EXISTS neighbours (
+  run_id INTEGER NOT NULL,
+  segment TEXT NOT NULL,
+  rank INTEGER NOT NULL,
+  neighbour TEXT NOT NULL,
+  distance REAL NOT NULL,
+  PRIMARY KEY (run_id, segment, rank)
+);
+CREATE TABLE IF NOT EXISTS pca_components (
+  run_id INTEGER NOT NULL,
+  component INTEGER NOT NULL,
+  explained_variance REAL NOT NULL,
+  explained_variance_ratio REAL NOT NULL,
+  PRIMARY KEY (run_id, component)
+);
+CREATE TABLE IF NOT EXISTS pca_coordinates (
+  run_id INTEGER NOT NULL,
+  segment TEXT NOT NULL,
+  component INTEGER NOT NULL,
+  value REAL NOT NULL,
+  PRIMARY KEY (run_id, segment, component)
+);
+CREATE TABLE IF NOT EXISTS attributions (
+  run_id INTEGER NOT NULL,
+  segment TEXT NOT NULL,
+  rank INTEGER NOT NULL,
+  candidate TEXT NOT NULL,
+  score REAL NOT NULL,
+  method TEXT NOT NULL,
+  detail TEXT,
+  PRIMARY KEY (run_id, segment, rank)
+);
+CREATE VIEW IF NOT EXISTS file_list AS
+  SELECT f.path, r.settings_id, r.status, COALESCE(f.read_error, r.error) AS error, r.title, r.author,
+         r.date, r.year, r.language, r.segments, r.tokens, f.size, f.sha256
+  FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256;
+CREATE VIEW IF NOT EXISTS segment_list AS
+  SELECT s.settings_id, f.path, f.stem || '#' || s.local_id AS segment, s.label, s.author, s.authorship,
+         s.language, s.tokens, s.types, r.title, r.author AS file_author, r.year
+  FROM files f JOIN segments s ON s.sha256 = f.sha256
+  JOIN readings r ON r.settings_id = s.settings_id AND r.sha256 = s.sha256;
+)sql";
+
+}  // namespace
+
+std::unique_ptr<Database> open_store(const std::string& path, bool create) {
+  auto db = std::make_unique<Database>(path, create);
+  // Exclusive locking before the first access: the lock is taken by the first statement
+  // below and kept, and WAL then needs no shared-memory file.
+  db->exec("PRAGMA locking_mode = EXCLUSIVE");
+  db->exec("PRAGMA busy_timeout = 1500");
+  {
+    Statement mode = db->prepare("PRAGMA journal_mode = WAL");
+    if (mode.step() && mode.text_at(0) != "wal")
+      throw Error(ErrorKind::write_failed, "store " + path + ": cannot switch to WAL mode (is the store read-only?)");
+  }
+  db->exec("PRAGMA synchronous = NORMAL");
+  db->exec("PRAGMA foreign_keys = OFF");
+  Transaction t(*db);
+  bool has_tables = false;
+  {
+    Statement tables = db->prepare("SELECT count(*) FROM sqlite_master WHERE type = 'table'");
+    tables.step();
+    has_tables = tables.int64_at(0) > 0;
+  }
+  if (has_tables) {
+    Statement info = db->prepare("SELECT count(*) FROM sqlite_master WHERE type = 'table' AND name = 'store_info'");
+    info.step();
+    if (info.int64_at(0) == 0) throw Error(ErrorKind::bad_input, path + " is an SQLite file but not a manicule store");
+    Statement version = db->prepare("SELECT value FROM store_info WHERE key = 'format'");
+    std::string found = version.step() ? version.text_at(0) : "";
+    if (found != std::to_string(kStoreFormat))
+      throw Error(ErrorKind::bad_input, "the store " + path + " has format " + (found.empty() ? "?" : found) +
+                                            "; this manicule reads format " + std::to_string(kStoreFormat));
+  }
+  db->exec(kSchema);
+  db->prepare("INSERT OR IGNORE INTO store_info (key, value) VALUES ('format', ?1)").run(std::to_string(kStoreFormat));
+  t.commit();
+  return db;
+}
+
+}  // namespace manicule::store

@@ -1,0 +1,21 @@
+// The archive store's tables (described for users in docs/store.md) and how a store is
+// opened. A store is one SQLite file in WAL mode with synchronous=NORMAL: a committed
+// transaction survives the process being killed at any moment. The connection holds an
+// exclusive lock for as long as the store is open (locking_mode=EXCLUSIVE, taken at once),
+// so a second run on the same store refuses straight away with a clear message instead of
+// interleaving its writes; the sqlite3 shell can query the store when no run holds it.
+#pragma once
+#include <memory>
+#include <string>
+
+#include "store/sqlite_db.h"
+
+namespace manicule::store {
+
+// Raised whenever a table changes shape; a store of another format is refused.
+inline constexpr int kStoreFormat = 1;
+
+// Opens the store (creating file and tables when `create`), locks it and checks its format.
+std::unique_ptr<Database> open_store(const std::string& path, bool create);
+
+}  // namespace manicule::store

@@ -1,0 +1,95 @@
+#include "store/store_settings.h"
+
+#include <algorithm>
+
+#include "core/provenance.h"
+#include "core/sha256.h"
+#include "manicule_version.h"
+#include "store/store_schema.h"
+
+namespace manicule::store {
+
+namespace {
+
+std::vector<std::string> sorted(std::vector<std::string> names) {
+  std::sort(names.begin(), names.end());
+  names.erase(std::unique(names.begin(), names.end()), names.end());
+  return names;
+}
+
+}  // namespace
+
+ReadingSettings reading_settings(const Request& request) {
+  const TokenizerOptions& t = request.tokenizer;
+  nlohmann::json options = {
+      {"unit", request.unit},
+      {"preset", request.preset == Preset::diplomatic ? "diplomatic" : "reading"},
+      {"keep", sorted(request.keep)},
+      {"drop", sorted(request.drop)},
+      {"joint", request.joint == JointSpeech::drop ? "drop" : "each"},
+      {"base_witness", request.base_witness},
+      {"default_language", request.default_language},
+      {"tokenizer", {{"case_fold", t.case_fold}, {"keep_numbers", t.keep_numbers},
+                     {"keep_punctuation", t.keep_punctuation}, {"long_s", t.long_s},
+                     {"ligatures", t.ligatures}, {"apostrophes", t.apostrophes}}},
+      {"features", {{"kind", std::string(feature_kind_name(request.features.kind))}, {"n", request.features.n}}},
+  };
+  ReadingSettings s;
+  s.request = options;
+  s.unit = request.unit;
+  s.selection = request.selection_rules().describe();
+  s.tokenizer = describe_tokenizer(request.tokenizer);
+  s.features = describe(request.features);
+  nlohmann::json keyed = {{"options", options}, {"reader", std::string("manicule ") + MANICULE_VERSION_STRING},
+                          {"store_format", kStoreFormat}};
+  s.key = sha256_hex(keyed.dump());
+  return s;
+}
+
+std::int64_t ensure_settings(Database& db, const ReadingSettings& s) {
+  Statement find = db.prepare("SELECT settings_id FROM settings WHERE key = ?1");
+  find.bind(1, s.key);
+  if (find.step()) return find.int64_at(0);
+  db.prepare("INSERT INTO settings (key, unit, selection, tokenizer, features, request) VALUES (?1, ?2, ?3, ?4, ?5, ?6)")
+      .run(s.key, s.unit, s.selection, s.tokenizer, s.features, s.request.dump());
+  return db.last_insert_id();
+}
+
+std::vector<StoredSettings> list_settings(Database& db) {
+  std::vector<StoredSettings> out;
+  Statement all = db.prepare(
+      "SELECT settings_id, key, unit, selection, tokenizer, features, request FROM settings ORDER BY settings_id");
+  while (all.step()) {
+    StoredSettings row;
+    row.id = all.int64_at(0);
+    row.settings.key = all.text_at(1);
+    row.settings.unit = all.text_at(2);
+    row.settings.selection = all.text_at(3);
+    row.settings.tokenizer = all.text_at(4);
+    row.settings.features = all.text_at(5);
+    row.settings.request = nlohmann::json::parse(all.text_at(6));
+    out.push_back(std::move(row));
+  }
+  return out;
+}
+
+void apply_settings(const nlohmann::json& o, Request& r) {
+  r.unit = o.at("unit").get<std::string>();
+  r.preset = o.at("preset") == "diplomatic" ? Preset::diplomatic : Preset::reading;
+  r.keep = o.at("keep").get<std::vector<std::string>>();
+  r.drop = o.at("drop").get<std::vector<std::string>>();
+  r.joint = o.at("joint") == "drop" ? JointSpeech::drop : JointSpeech::each;
+  r.base_witness = o.at("base_witness").get<std::string>();
+  r.default_language = o.at("default_language").get<std::string>();
+  const auto& t = o.at("tokenizer");
+  r.tokenizer.case_fold = t.at("case_fold");
+  r.tokenizer.keep_numbers = t.at("keep_numbers");
+  r.tokenizer.keep_punctuation = t.at("keep_punctuation");
+  r.tokenizer.long_s = t.at("long_s");
+  r.tokenizer.ligatures = t.at("ligatures");
+  r.tokenizer.apostrophes = t.at("apostrophes");
+  r.features.kind = parse_feature_kind(o.at("features").at("kind").get<std::string>());
+  r.features.n = o.at("features").at("n");
+}
+
+}  // namespace manicule::store

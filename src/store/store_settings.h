@@ -1,0 +1,42 @@
+// Reading settings: the part of a Request that decides what is read from a file (unit and
+// selection, tokenizer, features counted). Their key, the SHA-256 of a canonical JSON of
+// those options and the tool version, is the same in every store: a store's counts serve
+// any later run with equal settings, and merge matches settings across stores by key.
+// A newer manicule gets a new key, so counts from an older reader are never reused.
+#pragma once
+#include <cstdint>
+#include <string>
+#include <vector>
+
+#include <nlohmann/json.hpp>
+
+#include "core/request.h"
+#include "store/sqlite_db.h"
+
+namespace manicule::store {
+
+struct ReadingSettings {
+  std::string key;
+  std::string unit;
+  std::string selection;  // SelectionRules::describe()
+  std::string tokenizer;  // describe_tokenizer()
+  std::string features;   // describe(FeatureSpec)
+  nlohmann::json request;  // the options, to rebuild a Request later
+};
+
+struct StoredSettings {
+  std::int64_t id = 0;
+  ReadingSettings settings;
+};
+
+ReadingSettings reading_settings(const Request& request);
+
+// The settings' row id, inserting the row when the store does not have it yet.
+std::int64_t ensure_settings(Database& db, const ReadingSettings& settings);
+
+std::vector<StoredSettings> list_settings(Database& db);
+
+// Sets the reading options of `request` from a stored settings JSON.
+void apply_settings(const nlohmann::json& stored, Request& request);
+
+}  // namespace manicule::store

@@ -1,0 +1,27 @@
+#include "store/store_vocabulary.h"
+
+#include "core/error.h"
+
+namespace manicule::store {
+
+StoreVocabulary::StoreVocabulary(Database& db, std::int64_t settings_id) : db_(db), settings_id_(settings_id) {
+  Statement all = db.prepare("SELECT feature_id, form FROM vocabulary WHERE settings_id = ?1 ORDER BY feature_id");
+  all.bind(1, settings_id);
+  while (all.step()) {
+    FeatureId id = forms_.intern(all.blob_at(1));
+    if (static_cast<std::int64_t>(id) != all.int64_at(0))
+      throw Error(ErrorKind::bad_input, "the store " + db.path() + " has a damaged vocabulary (feature " +
+                                            std::to_string(all.int64_at(0)) + ")");
+  }
+  stored_ = forms_.size();
+}
+
+void StoreVocabulary::write_new() {
+  if (stored_ == forms_.size()) return;
+  Statement insert = db_.prepare("INSERT INTO vocabulary (settings_id, feature_id, form) VALUES (?1, ?2, ?3)");
+  for (std::size_t id = stored_; id < forms_.size(); ++id)
+    insert.run(settings_id_, static_cast<std::int64_t>(id), forms_.form(static_cast<FeatureId>(id)));
+  stored_ = forms_.size();
+}
+
+}  // namespace manicule::store

@@ -1,0 +1,137 @@
+#include "store/stored_corpus.h"
+
+#include <unordered_map>
+#include <unordered_set>
+
+#include <nlohmann/json.hpp>
+
+#include "core/error.h"
+#include "store/count_blob.h"
+
+namespace manicule::store {
+
+namespace {
+
+Authorship parse_authorship(const std::string& s) {
+  return s == "known" ? Authorship::known : s == "conjectured" ? Authorship::conjectured : Authorship::unknown;
+}
+
+}  // namespace
+
+StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& filter) {
+  StoredSelection out;
+  Statement files = db.prepare(
+      "SELECT f.path, f.relative_path, f.sha256, r.status, r.title, r.author, r.date, r.year, r.language "
+      "FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 ORDER BY f.path");
+  files.bind(1, settings_id);
+  while (files.step()) {
+    ++out.files_in_store;
+    std::string path = files.text_at(0);
+    if (files.is_null(3)) {
+      ++out.files_not_read;
+      continue;
+    }
+    if (files.text_at(3) == "failed") {
+      ++out.files_failed;
+      continue;
+    }
+    FileMetadata m{files.text_at(4), files.text_at(5), files.text_at(6), static_cast<int>(files.int64_at(7)),
+                   files.text_at(8)};
+    // Language is tested per segment (a segment may be in another language than its file).
+    if (!in_folder(filter, path, files.text_at(1)) || !header_matches(filter, m, false)) {
+      ++out.files_filtered_out;
+      continue;
+    }
+    out.paths.push_back(path);
+    out.sha256.push_back(files.text_at(2));
+  }
+  return out;
+}
+
+StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const FeatureSpec& spec,
+                                const ArchiveFilter& filter, const StoredSelection& selection,
+                                std::size_t min_tokens) {
+  StoredCorpus out;
+  std::unordered_set<std::string> included(selection.paths.begin(), selection.paths.end());
+  Statement segments = db.prepare(
+      "SELECT f.path, f.stem, f.sha256, s.ordinal, s.local_id, s.unit, s.label, s.language, s.author, s.authorship, "
+      "s.pointers, s.warnings, s.tokens, s.types, s.feature_total, s.counts, r.language "
+      "FROM files f JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 AND r.status = 'ok' "
+      "JOIN segments s ON s.settings_id = ?1 AND s.sha256 = f.sha256 ORDER BY f.path, s.ordinal");
+  segments.bind(1, settings_id);
+  CountProfile& profile = out.corpus.counts;
+  profile.spec = spec;
+  std::unordered_map<std::string, std::string> id_owner;  // segment id -> path
+  std::vector<char> used;                                 // by store feature id
+  std::string last_path;
+  while (segments.step()) {
+    std::string path = segments.text_at(0);
+    if (!included.count(path)) continue;
+    const std::string segment_language = segments.text_at(7);
+    if (!filter.language.empty() && !language_matches(filter, segment_language) &&
+        !language_matches(filter, segments.text_at(16)))
+      continue;
+    if (static_cast<std::size_t>(segments.int64_at(12)) < min_tokens) {
+      ++out.segments_too_short;
+      continue;
+    }
+    if (path != last_path) {
+      out.corpus.files.push_back(path);
+      out.corpus.file_sha256.push_back(segments.text_at(2));
+      last_path = path;
+    }
+    SegmentRecord record;
+    Segment& seg = record.segment;
+    seg.local_id = segments.text_at(4);
+    seg.id = segments.text_at(1) + "#" + seg.local_id;
+    seg.file = path;
+    seg.unit = segments.text_at(5);
+    seg.label = segments.text_at(6);
+    seg.language = segment_language;
+    seg.author = segments.text_at(8);
+    seg.authorship = parse_authorship(segments.text_at(9));
+    seg.pointers = nlohmann::json::parse(segments.text_at(10)).get<std::vector<std::string>>();
+    seg.warnings = nlohmann::json::parse(segments.text_at(11)).get<std::vector<std::string>>();
+    record.tokens = static_cast<std::size_t>(segments.int64_at(12));
+    record.types = static_cast<std::size_t>(segments.int64_at(13));
+    auto [owner, fresh] = id_owner.emplace(seg.id, path);
+    if (!fresh)
+      throw Error(ErrorKind::usage, "segment id " + seg.id + " occurs in two files (" + owner->second + ", " + path +
+                                        "): files of the same name in different folders; narrow the analysis with --folder");
+    SegmentCounts counts;
+    counts.id = seg.id;
+    counts.tokens = record.tokens;
+    counts.feature_total = static_cast<std::size_t>(segments.int64_at(14));
+    auto decoded = decode_counts(segments.blob_at(15));
+    counts.counts.assign(decoded.begin(), decoded.end());
+    for (const auto& [id, n] : counts.counts) {
+      if (id >= used.size()) used.resize(id + 1, 0);
+      used[id] = 1;
+    }
+    profile.segments.push_back(std::move(counts));
+    out.sources.push_back(SegmentSource{path, segments.text_at(2), static_cast<std::size_t>(segments.int64_at(3))});
+    out.corpus.segments.push_back(std::move(record));
+  }
+
+  // A compact vocabulary of the features these segments use, in store-id order, so the
+  // remapping keeps every segment's counts sorted.
+  constexpr FeatureId kMissing = UINT32_MAX;
+  std::vector<FeatureId> compact(used.size(), kMissing);
+  {
+    Statement forms = db.prepare("SELECT feature_id, form FROM vocabulary WHERE settings_id = ?1 ORDER BY feature_id");
+    forms.bind(1, settings_id);
+    while (forms.step()) {
+      auto id = static_cast<std::size_t>(forms.int64_at(0));
+      if (id < used.size() && used[id]) compact[id] = profile.vocabulary.intern(forms.blob_at(1));
+    }
+  }
+  for (auto& s : profile.segments)
+    for (auto& entry : s.counts) {
+      entry.first = compact[entry.first];
+      if (entry.first == kMissing)
+        throw Error(ErrorKind::bad_input, "the store " + db.path() + " has a damaged vocabulary (a counted feature has no form)");
+    }
+  return out;
+}
+
+}  // namespace manicule::store

@@ -1,0 +1,48 @@
+// A Corpus built from the store, for analyses that read no XML: the segments of the files
+// the store knows (its files table, the archive as batch runs last saw it) that were read
+// under one settings, inside a filter, in path order and then document order, with their
+// counts. Segments shorter than `min_tokens` words are left out here already (the feature
+// space would leave them out first anyway; they are counted), which keeps memory and time
+// in proportion to what is measured. Files stored as failed are left out and counted.
+#pragma once
+#include <cstdint>
+#include <string>
+#include <vector>
+
+#include "core/corpus.h"
+#include "store/archive_filter.h"
+#include "store/sqlite_db.h"
+
+namespace manicule::store {
+
+struct SegmentSource {
+  std::string path;
+  std::string sha256;
+  std::size_t ordinal = 0;
+};
+
+// The files an analysis takes in: stored, read without error under the settings, inside
+// the filter's folder and header tests (language is tested per segment, when loading).
+struct StoredSelection {
+  std::vector<std::string> paths;   // in path order
+  std::vector<std::string> sha256;  // of each path
+  std::size_t files_in_store = 0;       // rows of the files table
+  std::size_t files_not_read = 0;       // no reading under these settings (run batch)
+  std::size_t files_failed = 0;         // stored as failed under these settings
+  std::size_t files_filtered_out = 0;   // outside the filter
+};
+
+struct StoredCorpus {
+  Corpus corpus;                        // files and file_sha256: the files with segments used
+  std::vector<SegmentSource> sources;   // one per corpus segment
+  std::size_t segments_too_short = 0;   // fewer than min_tokens words
+};
+
+StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& filter);
+
+// Throws Error(usage) when two files' segment ids clash (same file name in two folders).
+StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const FeatureSpec& spec,
+                                const ArchiveFilter& filter, const StoredSelection& selection,
+                                std::size_t min_tokens);
+
+}  // namespace manicule::store
