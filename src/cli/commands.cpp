@@ -3,7 +3,8 @@
 namespace manicule::cli {
 
 std::vector<CommandAdder> all_commands() {
-  return {add_segments_command};
+  return {add_segments_command,
+          add_batch_command, add_analyse_store_command, add_merge_command};
 }
 
 }  // namespace manicule::cli

@@ -1,0 +1,82 @@
+// `manicule analyse-store`: analyses the counts an archive store holds (reads no XML):
+// distances with each segment's nearest segments, PCA on request, over the whole archive
+// or a sub-corpus chosen by header metadata; the result goes into the store's tables.
+#include <iostream>
+#include <memory>
+
+#include "cli/analysis_options.h"
+#include "cli/archive_options.h"
+#include "cli/commands.h"
+#include "cli/store_report.h"
+#include "core/error.h"
+#include "store/store_analysis.h"
+#include "store/store_schema.h"
+#include "store/store_settings.h"
+
+namespace manicule::cli {
+
+namespace {
+
+// The settings of the latest batch run, when the user names none.
+std::int64_t latest_batch_settings(store::Database& db) {
+  store::Statement latest = db.prepare(
+      "SELECT settings_id FROM runs WHERE kind = 'batch' AND settings_id IS NOT NULL ORDER BY run_id DESC LIMIT 1");
+  if (latest.step()) return latest.int64_at(0);
+  auto all = store::list_settings(db);
+  if (all.empty()) throw Error(ErrorKind::nothing_selected, "the store " + db.path() + " holds no counts yet (run batch)");
+  return all.back().id;
+}
+
+}  // namespace
+
+CommandRunner add_analyse_store_command(CLI::App& app) {
+  auto* command = app.add_subcommand(
+      "analyse-store", "Analyse the counts an archive store holds (no XML read): nearest segments, PCA, sub-corpora");
+  auto analysis = std::make_shared<AnalysisOptions>();
+  auto filters = std::make_shared<ArchiveFilterOptions>();
+  struct Flags {
+    std::string store;
+    std::int64_t settings = 0;
+    bool pca = false, recompute = false, list = false;
+  };
+  auto flags = std::make_shared<Flags>();
+  command->add_option("--store", flags->store, "the SQLite store made by batch")->required();
+  command->add_option("--settings", flags->settings,
+                      "which reading settings' counts (see --list-settings; default: those of the latest batch run)");
+  command->add_flag("--list-settings", flags->list, "list the reading settings the store holds, and stop");
+  analysis->add_to(*command);
+  filters->add_to(*command);
+  command->add_flag("--pca", flags->pca, "also principal components");
+  command->add_flag("--recompute", flags->recompute, "recompute even if an identical analysis is stored");
+
+  return [=]() -> int {
+    auto db = store::open_store(flags->store, false);
+    if (flags->list) {
+      for (const auto& s : store::list_settings(*db))
+        std::cout << s.id << '\t' << s.settings.selection << '\t' << s.settings.tokenizer << '\t' << s.settings.features
+                  << '\n';
+      return 0;
+    }
+    std::int64_t settings_id = flags->settings ? flags->settings : latest_batch_settings(*db);
+    const store::StoredSettings* chosen = nullptr;
+    auto all = store::list_settings(*db);
+    for (const auto& s : all)
+      if (s.id == settings_id) chosen = &s;
+    if (!chosen) throw Error(ErrorKind::usage, "the store has no settings " + std::to_string(settings_id) + " (see --list-settings)");
+
+    Request request;
+    analysis->apply_to(request);
+    const FeatureSpec asked = request.features;
+    store::apply_settings(chosen->settings.request, request);
+    bool features_given = command->get_option("--features")->count() + command->get_option("--n")->count() > 0;
+    if (features_given && (asked.kind != request.features.kind || asked.n != request.features.n))
+      throw Error(ErrorKind::usage, "the store's counts under settings " + std::to_string(settings_id) + " are " +
+                                        chosen->settings.features + "; count others with batch --features");
+    request.compute_pca = flags->pca;
+    auto result = store::analyse_store(*db, settings_id, request, filters->to_filter(), flags->recompute);
+    report_analysis(std::cout, std::cerr, result);
+    return 0;
+  };
+}
+
+}  // namespace manicule::cli

@@ -1,0 +1,71 @@
+#include "cli/archive_options.h"
+
+#include "core/error.h"
+
+namespace manicule::cli {
+
+namespace {
+
+int parse_year(const std::string& text, const std::string& whole) {
+  if (text.empty()) return 0;
+  if (text.size() > 4 || text.find_first_not_of("0123456789") != std::string::npos)
+    throw Error(ErrorKind::usage, "--years takes FROM-TO, FROM- or -TO in four-digit years, e.g. 1800-1850; got '" +
+                                      whole + "'");
+  return std::stoi(text);
+}
+
+}  // namespace
+
+void ArchiveFilterOptions::add_to(CLI::App& command) {
+  command.add_option("--folder", folder, "only files inside this folder (below an input folder, or a path)")
+      ->group("Sub-corpus");
+  command.add_option("--author", author, "only files whose header author contains this text (ASCII case ignored)")
+      ->group("Sub-corpus");
+  command.add_option("--years", years, "only files whose header date lies in FROM-TO (1800-1850, 1800-, -1850)")
+      ->group("Sub-corpus");
+  command.add_option("--language", language, "only segments in this language, or of files declaring it (de, en, eng)")
+      ->group("Sub-corpus");
+  command.add_option("--title", title, "only files whose header title matches this pattern (* and ?, case ignored)")
+      ->group("Sub-corpus");
+}
+
+store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
+  store::ArchiveFilter f;
+  f.folder = folder;
+  f.author = author;
+  f.language = language;
+  f.title = title;
+  if (!years.empty()) {
+    auto dash = years.find('-');
+    if (dash == std::string::npos) {
+      f.year_from = f.year_to = parse_year(years, years);
+    } else {
+      f.year_from = parse_year(years.substr(0, dash), years);
+      f.year_to = parse_year(years.substr(dash + 1), years);
+    }
+    if (f.year_from && f.year_to && f.year_from > f.year_to)
+      throw Error(ErrorKind::usage, "--years " + years + ": the first year is after the second");
+  }
+  return f;
+}
+
+store::Shard parse_shard(const std::string& text) {
+  store::Shard s;
+  auto slash = text.find('/');
+  try {
+    if (slash == std::string::npos) throw std::invalid_argument("no slash");
+    std::size_t used = 0;
+    s.index = static_cast<unsigned>(std::stoul(text.substr(0, slash), &used));
+    if (used != slash) throw std::invalid_argument("junk");
+    std::string rest = text.substr(slash + 1);
+    s.count = static_cast<unsigned>(std::stoul(rest, &used));
+    if (used != rest.size()) throw std::invalid_argument("junk");
+  } catch (const std::exception&) {
+    throw Error(ErrorKind::usage, "--shard takes K/N, e.g. 2/8 (share K of N, counted from 1); got '" + text + "'");
+  }
+  if (s.count < 1 || s.index < 1 || s.index > s.count)
+    throw Error(ErrorKind::usage, "--shard " + text + ": K must lie between 1 and N");
+  return s;
+}
+
+}  // namespace manicule::cli

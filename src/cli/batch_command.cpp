@@ -1,0 +1,92 @@
+// `manicule batch`: brings an archive store up to date with the TEI files under the given
+// folders (reading only what changed, on all cores), and with --analyse runs an analysis
+// over the stored counts. Exit code 1 when some files failed (each is named on stderr).
+#include <iostream>
+#include <memory>
+
+#include "cli/analysis_options.h"
+#include "cli/archive_options.h"
+#include "cli/commands.h"
+#include "cli/exit_codes.h"
+#include "cli/progress_display.h"
+#include "cli/selection_options.h"
+#include "cli/store_report.h"
+#include "store/batch_run.h"
+#include "store/store_analysis.h"
+#include "store/store_schema.h"
+
+namespace manicule::cli {
+
+namespace {
+
+const char* outcome_word(store::FileOutcome outcome) {
+  switch (outcome) {
+    case store::FileOutcome::unchanged: return "unchanged";
+    case store::FileOutcome::hashed: return "hashed (content known)";
+    case store::FileOutcome::read: return "read";
+    case store::FileOutcome::failed: return "failed";
+  }
+  return "";
+}
+
+}  // namespace
+
+CommandRunner add_batch_command(CLI::App& app) {
+  auto* command = app.add_subcommand(
+      "batch", "Read an archive of TEI files into a store (only what changed), optionally analyse it there");
+  auto selection = std::make_shared<SelectionOptions>();
+  auto analysis = std::make_shared<AnalysisOptions>();
+  auto filters = std::make_shared<ArchiveFilterOptions>();
+  struct Flags {
+    std::string store, shard;
+    bool verify = false, analyse = false, pca = false, recompute = false, quiet = false, verbose = false;
+    std::size_t commit_every = 64;
+  };
+  auto flags = std::make_shared<Flags>();
+  selection->add_to(*command);
+  analysis->add_to(*command);
+  filters->add_to(*command);
+  command->add_option("--store", flags->store, "the SQLite store to bring up to date (created if missing)")->required();
+  command->add_option("--shard", flags->shard, "read only share K of N of the files (K/N, e.g. 2/8), for array jobs");
+  command->add_flag("--verify-hashes", flags->verify,
+                    "hash every file, even when its size and modification time are as stored");
+  command->add_option("--commit-every", flags->commit_every, "files per transaction")->capture_default_str();
+  command->add_flag("--analyse", flags->analyse, "then analyse the stored counts (distances, nearest neighbours)");
+  command->add_flag("--pca", flags->pca, "with --analyse: also principal components");
+  command->add_flag("--recompute", flags->recompute, "with --analyse: recompute even if an identical analysis is stored");
+  command->add_flag("--quiet,-q", flags->quiet, "no progress display");
+  command->add_flag("--verbose,-v", flags->verbose, "name each file that had to be opened, and what became of it");
+
+  return [=]() -> int {
+    Request request = selection->to_request();
+    analysis->apply_to(request);
+    request.compute_pca = flags->pca;
+    store::BatchOptions options;
+    options.filter = filters->to_filter();
+    options.verify_hashes = flags->verify;
+    options.commit_files = std::max<std::size_t>(1, flags->commit_every);
+    if (!flags->shard.empty()) options.shard = parse_shard(flags->shard);
+
+    auto db = store::open_store(flags->store, true);
+    ProgressDisplay display(flags->quiet);
+    store::BatchSummary summary = store::run_batch(
+        *db, request, options, [&](const store::BatchProgress& p, const std::string& path, store::FileOutcome outcome) {
+          if (flags->verbose && !path.empty()) {
+            display.clear();
+            std::cerr << outcome_word(outcome) << ": " << path << '\n';
+          }
+          display.update(p);
+        });
+    display.clear();
+    report_batch(std::cout, flags->store, summary);
+    report_failures(std::cerr, summary);
+    if (flags->analyse) {
+      store::StoreAnalysisResult result =
+          store::analyse_store(*db, summary.settings_id, request, options.filter, flags->recompute);
+      report_analysis(std::cout, std::cerr, result);
+    }
+    return summary.failures.empty() ? kExitOk : kExitSomeFilesFailed;
+  };
+}
+
+}  // namespace manicule::cli

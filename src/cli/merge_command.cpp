@@ -1,0 +1,32 @@
+// `manicule merge OUT IN...`: folds stores (e.g. the shard stores of an array job) into
+// one; OUT is created when missing. Contents held by several stores are kept once.
+#include <iostream>
+#include <memory>
+
+#include "cli/commands.h"
+#include "cli/store_report.h"
+#include "core/error.h"
+#include "store/store_merge.h"
+#include "store/store_schema.h"
+
+namespace manicule::cli {
+
+CommandRunner add_merge_command(CLI::App& app) {
+  auto* command = app.add_subcommand("merge", "Merge archive stores (e.g. the shards of an array job) into one");
+  auto out = std::make_shared<std::string>();
+  auto inputs = std::make_shared<std::vector<std::string>>();
+  command->add_option("output", *out, "the store to merge into (created if missing)")->required();
+  command->add_option("inputs", *inputs, "stores to merge in")->required();
+  return [=]() -> int {
+    for (const auto& in : *inputs)
+      if (in == *out) throw Error(ErrorKind::usage, "cannot merge " + in + " into itself");
+    auto target = store::open_store(*out, true);
+    for (const auto& in : *inputs) {
+      auto source = store::open_store(in, false);
+      report_merge(std::cout, in, store::merge_store(*target, *source));
+    }
+    return 0;
+  };
+}
+
+}  // namespace manicule::cli

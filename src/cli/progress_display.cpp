@@ -1,0 +1,50 @@
+#include "cli/progress_display.h"
+
+#include <unistd.h>
+
+#include <cstdio>
+#include <string>
+
+namespace manicule::cli {
+
+namespace {
+
+std::string clock_text(double seconds) {
+  long s = static_cast<long>(seconds + 0.5);
+  char buf[32];
+  if (s >= 3600) std::snprintf(buf, sizeof buf, "%ld:%02ld:%02ld", s / 3600, s / 60 % 60, s % 60);
+  else std::snprintf(buf, sizeof buf, "%ld:%02ld", s / 60, s % 60);
+  return buf;
+}
+
+}  // namespace
+
+ProgressDisplay::ProgressDisplay(bool quiet)
+    : enabled_(!quiet && isatty(STDERR_FILENO)), start_(std::chrono::steady_clock::now()) {}
+
+ProgressDisplay::~ProgressDisplay() { clear(); }
+
+void ProgressDisplay::update(const store::BatchProgress& p) {
+  if (!enabled_) return;
+  auto now = std::chrono::steady_clock::now();
+  bool last = p.files_done == p.files_total;
+  if (shown_ && !last && now - last_draw_ < std::chrono::milliseconds(200)) return;
+  last_draw_ = now;
+  double elapsed = std::chrono::duration<double>(now - start_).count();
+  double rate = elapsed > 0 ? static_cast<double>(p.bytes_done) / elapsed : 0;
+  std::string left = "--:--";
+  if (rate > 0 && p.bytes_done > 0) left = clock_text(static_cast<double>(p.bytes_total - p.bytes_done) / rate);
+  std::fprintf(stderr, "\r\033[K%zu/%zu files  %.1f MB/s  %s left", p.files_done, p.files_total, rate / 1e6,
+               left.c_str());
+  std::fflush(stderr);
+  shown_ = true;
+}
+
+void ProgressDisplay::clear() {
+  if (!shown_) return;
+  std::fprintf(stderr, "\r\033[K");
+  std::fflush(stderr);
+  shown_ = false;
+}
+
+}  // namespace manicule::cli

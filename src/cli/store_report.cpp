@@ -1,0 +1,35 @@
+#include "cli/store_report.h"
+
+namespace manicule::cli {
+
+void report_batch(std::ostream& out, const std::string& store, const store::BatchSummary& s) {
+  const store::RunCounters& c = s.counters;
+  out << "store " << store << ": batch run " << s.run_id << ": " << c.files_found << " file(s): " << c.files_read
+      << " read, " << c.files_hashed << " hashed and known, " << c.files_unchanged << " unchanged, " << c.files_failed
+      << " failing";
+  if (s.files_removed) out << "; " << s.files_removed << " no longer found";
+  out << '\n';
+}
+
+void report_failures(std::ostream& err, const store::BatchSummary& s) {
+  for (const auto& f : s.failures) err << "manicule: failed: " << f.message << '\n';
+}
+
+void report_analysis(std::ostream& out, std::ostream& err, const store::StoreAnalysisResult& r) {
+  out << "analysis run " << r.run_id << (r.reused ? " (unchanged, reused)" : "") << ": " << r.files << " file(s), "
+      << r.measured << " segment(s) measured, " << r.features << " feature(s)";
+  if (r.attributions) out << ", " << r.attributions << " attribution row(s)";
+  out << '\n';
+  for (const auto& note : r.notes) err << "manicule: note: " << note << '\n';
+  if (r.files_failed) err << "manicule: note: " << r.files_failed << " file(s) stored as failed were left out\n";
+  if (r.files_not_read)
+    err << "manicule: note: " << r.files_not_read
+        << " file(s) in the store were not read with these settings (run batch with them)\n";
+}
+
+void report_merge(std::ostream& out, const std::string& input, const store::MergeSummary& s) {
+  out << "merged " << input << ": " << s.readings_added << " content(s), " << s.segments_added << " segment(s), "
+      << s.files_added << " file(s) added, " << s.files_updated << " updated\n";
+}
+
+}  // namespace manicule::cli

@@ -1,0 +1,19 @@
+// What the archive-store commands print when they finish: one line per run done, with
+// the counters a user checks (files read, unchanged, failed; segments measured), and each
+// failing file with its error. Plain text on stdout; failures and notes on stderr.
+#pragma once
+#include <ostream>
+#include <string>
+
+#include "store/batch_run.h"
+#include "store/store_analysis.h"
+#include "store/store_merge.h"
+
+namespace manicule::cli {
+
+void report_batch(std::ostream& out, const std::string& store, const store::BatchSummary& summary);
+void report_failures(std::ostream& err, const store::BatchSummary& summary);
+void report_analysis(std::ostream& out, std::ostream& err, const store::StoreAnalysisResult& result);
+void report_merge(std::ostream& out, const std::string& input, const store::MergeSummary& summary);
+
+}  // namespace manicule::cli
