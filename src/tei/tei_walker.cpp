@@ -650,6 +650,7 @@ std::vector<Segment> TeiWalker::finish() {
         seg.author = c->sender_status == Authorship::unknown ? "" : c->sender_key;
         seg.authorship = c->sender_status;
       }
+      if (seg.label.empty()) seg.label = seg.local_id;
     } else if (s.rules.unit == UnitKind::speaker) {
       auto it = h.person_names.find(seg.local_id);
       if (it != h.person_names.end()) seg.label = it->second;
