@@ -1,0 +1,136 @@
+"""Archive store: analyses over stored counts against numpy, SciPy and scikit-learn, and
+sub-corpora by header metadata against lxml.
+
+20 plays (every fourth in a subfolder) are read into a store once; then analyse-store
+works from the store alone. The features it chose, the k nearest segments with their
+Cosine Delta (Smith & Aldridge 2011: cosine distance of z-scores) and the PCA explained
+variance are recomputed in Python from the stored counts (blobs decoded by the format in
+docs/store.md): ranking by total then UTF-8 bytes, numpy for z-scores (sample sd),
+scipy.spatial.distance.cdist(..., 'cosine'), sklearn.decomposition.PCA. The filters
+(--author, --years, --title, --folder, --language) are checked against the files lxml
+finds matching in the TEI headers.
+"""
+import os
+import re
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+import numpy as np  # noqa: E402
+from lxml import etree  # noqa: E402
+from scipy.spatial.distance import cdist  # noqa: E402
+from sklearn.decomposition import PCA  # noqa: E402
+
+TEI = "{http://www.tei-c.org/ns/1.0}"
+MIN_TOKENS, K = 500, 3
+
+
+def header_facts(path):
+    """Title, author text and first header date, read with lxml."""
+    header = etree.parse(path).find(TEI + "teiHeader")
+    stmt = header.find("%sfileDesc/%stitleStmt" % (TEI, TEI))
+    title = [e for e in stmt.findall(TEI + "title") if e.get("type") != "sub"][0]
+    author = " ".join(" ".join("".join(a.itertext()).split()) for a in stmt.findall(TEI + "author"))
+    date = next(header.iter(TEI + "date"), None)
+    when = None if date is None else (date.get("when") or "".join(date.itertext()))
+    year = re.search(r"(?<!\d)\d{4}(?!\d)", when or "")
+    return " ".join("".join(title.itertext()).split()), author, int(year.group()) if year else None
+
+
+def analysed_paths(store, args):
+    proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "200"] + args, check=False)
+    if proc.returncode == 4:
+        return set()
+    mtest.check(proc.returncode == 0, "analyse-store %r exited %d: %s" % (args, proc.returncode, proc.stderr))
+    _, tables = storecheck.latest_analysis(store)
+    return {row[1] for row in tables["segments"]}
+
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    paths = storecheck.copy_plays(storecheck.pick_plays(20), archive, subfolder_every=4)
+    store = os.path.join(tmp, "s.sqlite")
+    mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--quiet"])
+    mtest.run(["analyse-store", "--store", store, "--min-tokens", str(MIN_TOKENS), "--neighbours", str(K), "--pca"])
+    run, tables = storecheck.latest_analysis(store)
+
+    # The measured segments' counts, from the store, by feature form.
+    db = storecheck.connect(store)
+    forms = dict(db.execute("SELECT feature_id, form FROM vocabulary"))
+    stem_of = dict(db.execute("SELECT path, stem FROM files"))
+    rows = db.execute(
+        "SELECT a.segment, s.feature_total, s.counts FROM analysis_segments a JOIN segments s "
+        "ON s.sha256 = a.sha256 AND s.ordinal = a.ordinal WHERE a.run_id = ? AND a.measured = 1 "
+        "ORDER BY a.path, a.ordinal", (run,)).fetchall()
+    pca_ratio = [r[0] for r in db.execute(
+        "SELECT explained_variance_ratio FROM pca_components WHERE run_id = ? ORDER BY component", (run,))]
+    db.close()
+    names = [r[0] for r in rows]
+    counts = [{forms[f]: n for f, n in storecheck.decode_counts(r[2])} for r in rows]
+    totals = np.array([r[1] for r in rows], dtype=float)
+    mtest.check(len(names) >= 10, "only %d segments measured" % len(names))
+
+    summed = {}
+    for c in counts:
+        for form, n in c.items():
+            summed[form] = summed.get(form, 0) + n
+    ranked = sorted(summed, key=lambda f: (-summed[f], f.encode("utf-8")))[:1000]
+    stored_features = [r[1] for r in sorted(tables["features"])]
+    mtest.check(stored_features == ranked, "the features chosen differ from the Python ranking")
+
+    rel = np.array([[c.get(f, 0) for f in ranked] for c in counts], dtype=float) / totals[:, None]
+    sd = rel.std(axis=0, ddof=1)
+    z = np.where(sd > 0, (rel - rel.mean(axis=0)) / np.where(sd > 0, sd, 1), 0.0)
+    d = cdist(z, z, "cosine")
+    expected = []
+    for i, name in enumerate(names):
+        order = sorted((j for j in range(len(names)) if j != i), key=lambda j: (d[i, j], j))[:K]
+        expected += [(name, k + 1, names[j], d[i, j]) for k, j in enumerate(order)]
+    got = sorted(tables["neighbours"])
+    expected.sort()
+    mtest.check([g[:3] for g in got] == [e[:3] for e in expected], "nearest segments differ from SciPy's")
+    mtest.check(all(mtest.close(g[3], e[3], rel=1e-9, abs_=1e-12) for g, e in zip(got, expected)),
+                "Cosine Delta values differ from SciPy's")
+    ratio = PCA(n_components=2, svd_solver="full").fit(z).explained_variance_ratio_
+    mtest.check(len(pca_ratio) == 2 and all(mtest.close(a, b, rel=1e-6) for a, b in zip(pca_ratio, ratio)),
+                "PCA explained variance ratio %r, scikit-learn %r" % (pca_ratio, list(ratio)))
+
+    # Sub-corpora: the files an analysis takes in are those lxml finds matching.
+    facts = {p: header_facts(p) for p in paths}
+    db = storecheck.connect(store)
+    with_long = {r[0] for r in db.execute(
+        "SELECT DISTINCT f.path FROM files f JOIN segments s ON s.sha256 = f.sha256 WHERE s.tokens >= 200")}
+    db.close()
+
+    def expect(keep):
+        chosen = {p for p in paths if keep(p)} & with_long
+        return chosen if len(chosen) >= 1 else set()
+
+    author = "von"
+    cases = [
+        (["--author", "VON"], lambda p: author in facts[p][1].lower()),
+        (["--years", "1780-1850"], lambda p: facts[p][2] is not None and 1780 <= facts[p][2] <= 1850),
+        (["--title", "*der*"], lambda p: "der" in facts[p][0].lower()),
+        (["--folder", "more"], lambda p: os.path.basename(os.path.dirname(p)) == "more"),
+        (["--language", "de"], lambda p: True),
+        (["--language", "en"], lambda p: False),
+        (["--author", "von", "--years", "1800-"], lambda p: author in facts[p][1].lower()
+         and facts[p][2] is not None and facts[p][2] >= 1800),
+    ]
+    for args, keep in cases:
+        want = expect(keep)
+        got_paths = analysed_paths(store, args)
+        if len(want) == 1 and not got_paths:
+            continue  # one file may hold fewer than two long segments: nothing to compare
+        mtest.check(got_paths == want, "filter %r: analysed %d files, lxml gives %d (%r)" % (
+            args, len(got_paths), len(want), sorted(os.path.basename(p) for p in got_paths ^ want)))
+    mtest.check(len(expect(cases[0][1])) >= 2, "the author case picks too few files to mean anything")
+
+    # Asking the same again reuses the stored analysis; ids of segments carry the file stem.
+    proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", str(MIN_TOKENS), "--neighbours", str(K), "--pca"])
+    mtest.check("reused" in proc.stdout, "an identical analysis was computed again: " + proc.stdout)
+    mtest.check(all(n.split("#")[0] in stem_of.values() for n in names), "segment ids without their file stem")
+
+mtest.done()

@@ -1,0 +1,122 @@
+"""Archive store: what a re-run reads, failing files, vanished files, two runs at once.
+
+12 plays. A re-run over the unchanged archive opens no file; after one play's text is
+changed, exactly that play is read again (the runs table counts, --verbose names it);
+a play only touched (new time, same bytes) is hashed and not parsed; a malformed file is
+recorded with its error, the run goes on and exits 1, also on the next run (which does
+not read it again); a deleted file leaves the files table. A store held by another
+connection is refused with exit code 5 and a clear message; two batch runs started at
+once either both finish or the second refuses, and the store ends as a clean run's.
+Outside references: Python's hashlib for SHA-256, lxml for the malformed file being
+malformed, SQLite's own exclusive lock held through Python's sqlite3 module.
+"""
+import os
+import subprocess
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+from lxml import etree  # noqa: E402
+
+
+def batch(store, archive, expect=0):
+    proc = mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--verbose", "--quiet"], check=False)
+    mtest.check(proc.returncode == expect, "batch exited %d, expected %d: %s" % (proc.returncode, expect, proc.stderr[-800:]))
+    named = [line.split(": ", 1)[1] for line in proc.stderr.splitlines() if line.startswith(("read: ", "failed: "))]
+    return storecheck.last_run(store), named, proc
+
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    paths = storecheck.copy_plays(storecheck.pick_plays(12), archive)
+    store = os.path.join(tmp, "s.sqlite")
+
+    run, named, _ = batch(store, archive)
+    mtest.check(run["files_read"] == 12 and len(named) == 12, "first run read %d files" % run["files_read"])
+
+    run, named, _ = batch(store, archive)
+    mtest.check(run["files_read"] == 0 and run["files_unchanged"] == 12 and named == [],
+                "unchanged re-run: read %d, unchanged %d, named %r" % (run["files_read"], run["files_unchanged"], named))
+
+    # Change one play's text: a word more in its first paragraph; keep its time as it was.
+    changed = paths[3]
+    stat = os.stat(changed)
+    with open(changed, encoding="utf-8") as f:
+        text = f.read()
+    body = text.index("<body")
+    cut = text.index("<p>", body) + 3
+    with open(changed, "w", encoding="utf-8") as f:
+        f.write(text[:cut] + "Zusatzwort " + text[cut:])
+    os.utime(changed, ns=(stat.st_atime_ns, stat.st_mtime_ns + 1000))
+    run, named, _ = batch(store, archive)
+    mtest.check(run["files_read"] == 1 and named == [changed],
+                "after changing one play: read %d, named %r" % (run["files_read"], named))
+    files = {r[0]: r for r in storecheck.logical_tables(store)["files"]}
+    mtest.check(files[changed][5] == storecheck.sha256_of(changed), "stored SHA-256 of the changed play (hashlib)")
+
+    # Touch another: same bytes, new time -> hashed, not parsed.
+    os.utime(paths[7], None)
+    run, named, _ = batch(store, archive)
+    mtest.check(run["files_read"] == 0 and run["files_hashed"] == 1 and named == [],
+                "after touching one play: read %d, hashed %d" % (run["files_read"], run["files_hashed"]))
+
+    # A malformed file: recorded, the run goes on, exit code 1; the next run still says so
+    # without reading it again.
+    broken = os.path.join(archive, "zz-broken.xml")
+    with open(paths[0], encoding="utf-8") as f:
+        text = f.read()
+    with open(broken, "w", encoding="utf-8") as f:
+        f.write(text[: len(text) // 2])
+    try:
+        etree.parse(broken)
+        mtest.fail("lxml parsed the truncated file")
+    except etree.XMLSyntaxError:
+        pass
+    run, named, proc = batch(store, archive, expect=1)
+    mtest.check(run["files_read"] == 1 and run["files_failed"] == 1 and named == [broken],
+                "with a broken file: read %d, failed %d, named %r" % (run["files_read"], run["files_failed"], named))
+    mtest.check("zz-broken.xml" in proc.stderr, "the failure is not named on stderr")
+    db = storecheck.connect(store)
+    status, error = db.execute("SELECT status, error FROM file_list WHERE path = ?", (broken,)).fetchone()
+    db.close()
+    mtest.check(status == "failed" and "zz-broken.xml" in error, "file_list says %r %r" % (status, error))
+    run, named, _ = batch(store, archive, expect=1)
+    mtest.check(run["files_read"] == 0 and run["files_failed"] == 1, "re-run with the broken file read %d" % run["files_read"])
+
+    # A deleted file leaves the files table.
+    os.remove(broken)
+    run, named, _ = batch(store, archive)
+    paths_stored = {r[0] for r in storecheck.logical_tables(store)["files"]}
+    mtest.check(broken not in paths_stored and len(paths_stored) == 12, "files after deleting: %d" % len(paths_stored))
+
+    # Another connection holds the store: refused at once, exit code 5, a clear message.
+    holder = storecheck.connect(store)
+    holder.execute("PRAGMA locking_mode = EXCLUSIVE")
+    holder.execute("BEGIN EXCLUSIVE")
+    proc = mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--quiet"], check=False)
+    holder.rollback()
+    holder.close()
+    mtest.check(proc.returncode == 5 and "in use by another manicule run" in proc.stderr,
+                "a held store: exit %d, %s" % (proc.returncode, proc.stderr))
+
+    # Two runs at once on a fresh store: each finishes or refuses cleanly.
+    fresh = os.path.join(tmp, "fresh.sqlite")
+    clean = os.path.join(tmp, "clean.sqlite")
+    args = ["batch", archive, "--unit", "speaker", "--quiet", "--store", fresh]
+    first = subprocess.Popen([mtest.BIN] + args, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
+    second = subprocess.Popen([mtest.BIN] + args, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
+    outcomes = []
+    for proc in (first, second):
+        err = proc.communicate()[1]
+        outcomes.append(proc.returncode)
+        mtest.check(proc.returncode == 0 or (proc.returncode == 5 and "in use" in err),
+                    "a run beside another exited %d: %s" % (proc.returncode, err))
+    mtest.check(0 in outcomes, "neither of two runs at once finished: %r" % outcomes)
+    mtest.run(["batch", archive, "--unit", "speaker", "--quiet", "--store", fresh])
+    mtest.run(["batch", archive, "--unit", "speaker", "--quiet", "--store", clean])
+    a, b = storecheck.logical_tables(fresh), storecheck.logical_tables(clean)
+    mtest.check(a == b, "two runs at once left another store than a clean run: " + storecheck.diff_summary(a, b))
+
+mtest.done()

@@ -1,0 +1,83 @@
+"""Archive store: one batch run and three shard runs merged give the same tables.
+
+24 plays are read once into one store and, as share 1/3, 2/3 and 3/3, into three stores
+merged with `manicule merge`. The stored archive (files, readings, segments with their
+counts by feature form, vocabulary) and an analysis of it must be identical, apart from
+run ids and times. Outside references: Python's hashlib for every stored SHA-256 and for
+the documented shard rule (1 + first 8 bytes of SHA-256(relative path) mod N), SQLite's
+own PRAGMA integrity_check, and lxml for each play's title.
+"""
+import hashlib
+import os
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+from lxml import etree  # noqa: E402
+
+TEI = "{http://www.tei-c.org/ns/1.0}"
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    paths = storecheck.copy_plays(storecheck.pick_plays(24), archive, subfolder_every=4)
+    common = ["--unit", "speaker", "--quiet"]
+
+    one = os.path.join(tmp, "one.sqlite")
+    mtest.run(["batch", archive, "--store", one] + common)
+
+    shards = []
+    for k in (1, 2, 3):
+        shard = os.path.join(tmp, "shard%d.sqlite" % k)
+        mtest.run(["batch", archive, "--store", shard, "--shard", "%d/3" % k] + common)
+        shards.append(shard)
+
+    # Each file lies in exactly the share the documented rule gives (hashlib, not our code).
+    for k, shard in enumerate(shards, start=1):
+        stored = {row[0] for row in storecheck.logical_tables(shard)["files"]}
+        expected = set()
+        for p in paths:
+            rel = os.path.relpath(p, archive)
+            if 1 + int(hashlib.sha256(rel.encode()).hexdigest()[:16], 16) % 3 == k:
+                expected.add(p)
+        mtest.check(stored == expected, "shard %d/3 holds %d files, the rule gives %d" % (k, len(stored), len(expected)))
+        mtest.check(len(stored) > 0, "shard %d/3 is empty" % k)
+
+    merged = os.path.join(tmp, "merged.sqlite")
+    mtest.run(["merge", merged] + shards)
+
+    a, b = storecheck.logical_tables(one), storecheck.logical_tables(merged)
+    mtest.check(a == b, "one run and merged shards differ: " + storecheck.diff_summary(a, b))
+    mtest.check(len(a["files"]) == 24 and len(a["segments"]) > 100,
+                "expected 24 files and many speakers, got %d files, %d segments" % (len(a["files"]), len(a["segments"])))
+
+    for store in (one, merged):
+        mtest.check(storecheck.integrity(store) == "ok", "PRAGMA integrity_check fails on " + store)
+    for path, _, _, size, _, sha, error in a["files"]:
+        mtest.check(sha == storecheck.sha256_of(path), "stored SHA-256 of %s differs from hashlib" % path)
+        mtest.check(size == os.path.getsize(path) and error is None, "size or error of %s" % path)
+
+    # Titles: the first titleStmt/title that is not a subtitle, whitespace collapsed (lxml).
+    titles = {}
+    for p in paths:
+        t = etree.parse(p).find(".//%steiHeader/%sfileDesc/%stitleStmt" % (TEI, TEI, TEI))
+        first = [e for e in t.findall(TEI + "title") if e.get("type") != "sub"][0]
+        titles[storecheck.sha256_of(p)] = " ".join("".join(first.itertext()).split())
+    for row in a["readings"]:
+        mtest.check(row[6] == titles[row[1]], "title %r, lxml says %r" % (row[6], titles[row[1]]))
+
+    # The same analysis over both stores.
+    for store in (one, merged):
+        mtest.run(["analyse-store", "--store", store, "--min-tokens", "300", "--neighbours", "3"])
+    _, x = storecheck.latest_analysis(one)
+    _, y = storecheck.latest_analysis(merged)
+    mtest.check(x == y, "analyses of one run and of merged shards differ")
+    mtest.check(len(x["neighbours"]) > 0, "the analysis found no neighbours")
+
+    # Merging a shard again adds nothing.
+    before = storecheck.logical_tables(merged)
+    mtest.run(["merge", merged, shards[0]])
+    mtest.check(storecheck.logical_tables(merged) == before, "merging a shard twice changed the store")
+
+mtest.done()
