@@ -30,7 +30,11 @@ MANICULE_INLINE Vec load(const double* p) {
 MANICULE_INLINE double lanes_sum(const Vec& v) { return (v[0] + v[1]) + (v[2] + v[3]); }
 
 // Each operation accumulates vectors, then scalar tail elements, then yields the result.
+// kRows x kColumns is how many pairs one pass computes: as many as the 16 vector registers
+// of x86-64 hold without spilling (2 x 4 measured fastest for the L1 loop; MinMax needs two
+// sums per pair, so 2 x 2).
 struct AbsoluteSum {
+  static constexpr int kRows = 2, kColumns = 4;
   struct Acc {
     Vec v = {0, 0, 0, 0};
     double tail = 0;
@@ -44,6 +48,7 @@ struct AbsoluteSum {
 };
 
 struct SquaredSum {
+  static constexpr int kRows = 2, kColumns = 4;
   struct Acc {
     Vec v = {0, 0, 0, 0};
     double tail = 0;
@@ -57,6 +62,7 @@ struct SquaredSum {
 };
 
 struct MinMaxRatio {
+  static constexpr int kRows = 2, kColumns = 2;
   struct Acc {
     Vec low = {0, 0, 0, 0};
     Vec high = {0, 0, 0, 0};
@@ -112,31 +118,38 @@ MANICULE_INLINE void pair_block(const double* const* a, const double* const* b, 
   }
 }
 
-// All pairs (i, j), j < i, with i in [i0, i1) and j in [j0, j1): two rows against two.
+// All pairs (i, j), j < i, with i in [i0, i1) and j in [j0, j1): Op::kRows rows against
+// Op::kColumns rows at a time, single pairs at the edges.
 template <class Op>
 MANICULE_INLINE void tile_pairs(const Frame& f, Eigen::Index i0, Eigen::Index i1, Eigen::Index j0,
                                 Eigen::Index j1) {
-  for (Eigen::Index i = i0; i < i1; i += 2) {
-    const Eigen::Index j_end = std::min(j1, i + 1);  // j < i, and j <= i for row i + 1
-    for (Eigen::Index j = j0; j < j_end; j += 2) {
-      if (i + 1 < i1 && j + 1 < j_end) {
-        const double* a[2] = {f.row(i), f.row(i + 1)};
-        const double* b[2] = {f.row(j), f.row(j + 1)};
-        double r[2][2];
-        pair_block<Op, 2, 2>(a, b, f.length, r);
-        if (j < i) f.put(i, j, r[0][0]);  // some of the four may lie on or above the diagonal
-        if (j + 1 < i) f.put(i, j + 1, r[0][1]);
-        f.put(i + 1, j, r[1][0]);
-        f.put(i + 1, j + 1, r[1][1]);
+  constexpr int RA = Op::kRows;
+  constexpr int RB = Op::kColumns;
+  for (Eigen::Index i = i0; i < i1; i += RA) {
+    const Eigen::Index rows = std::min<Eigen::Index>(RA, i1 - i);
+    const Eigen::Index j_end = std::min(j1, i + rows - 1);  // the last row's pairs end there
+    for (Eigen::Index j = j0; j < j_end; j += RB) {
+      if (rows == RA && j + RB <= j_end) {
+        const double* a[RA];
+        const double* b[RB];
+        for (int r = 0; r < RA; ++r) a[r] = f.row(i + r);
+        for (int s = 0; s < RB; ++s) b[s] = f.row(j + s);
+        double result[RA][RB];
+        pair_block<Op, RA, RB>(a, b, f.length, result);
+        for (int r = 0; r < RA; ++r) {  // some may lie on or above the diagonal
+          for (int s = 0; s < RB; ++s) {
+            if (j + s < i + r) f.put(i + r, j + s, result[r][s]);
+          }
+        }
         continue;
       }
-      for (Eigen::Index ii = i; ii < std::min(i + 2, i1); ++ii) {
-        for (Eigen::Index jj = j; jj < std::min(j + 2, j_end) && jj < ii; ++jj) {
+      for (Eigen::Index ii = i; ii < i + rows; ++ii) {
+        for (Eigen::Index jj = j; jj < std::min(j + RB, j_end) && jj < ii; ++jj) {
           const double* a[1] = {f.row(ii)};
           const double* b[1] = {f.row(jj)};
-          double r[1][1];
-          pair_block<Op, 1, 1>(a, b, f.length, r);
-          f.put(ii, jj, r[0][0]);
+          double result[1][1];
+          pair_block<Op, 1, 1>(a, b, f.length, result);
+          f.put(ii, jj, result[0][0]);
         }
       }
     }

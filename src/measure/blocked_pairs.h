@@ -1,6 +1,6 @@
 // blocked_pair_sums: element-wise sums over every pair of rows of a matrix, the core of the
 // L1 / L2 / MinMax distances. Rows are processed in tiles so that the rows being compared
-// stay in cache, two-by-two so that each value loaded serves two pairs, in 4-wide SIMD
+// stay in cache, several rows against several so that each value loaded serves several pairs, in 4-wide SIMD
 // vectors (SSE2 everywhere on x86-64, AVX2 where the processor has it, chosen at run time)
 // and with parallel_items() over row tiles for the cores.
 // Fills only the strict lower triangle of `out` (out(i, j), i > j), which must be n x n.
