@@ -1,0 +1,27 @@
+#!/bin/bash
+#SBATCH --job-name=manicule-batch
+#SBATCH --array=1-8
+#SBATCH --cpus-per-task=4
+#SBATCH --mem=1G
+#SBATCH --time=02:00:00
+#SBATCH --output=manicule-batch-%A_%a.log
+# Usage:
+#   job=$(sbatch --parsable examples/slurm-batch.sh ARCHIVE RESULTS)
+#   sbatch --dependency=afterok:$job --wrap "manicule merge RESULTS/archive.sqlite RESULTS/shard-*.sqlite"
+set -euo pipefail
+archive=${1:?usage: slurm-batch.sh ARCHIVE RESULTS [batch options]}
+results=${2:?usage: slurm-batch.sh ARCHIVE RESULTS [batch options]}
+shift 2
+k=$((SLURM_ARRAY_TASK_ID - SLURM_ARRAY_TASK_MIN + 1))   # works for --array=0-7 too
+n=$SLURM_ARRAY_TASK_COUNT
+mkdir -p "$results"
+local_store=${TMPDIR:-/tmp}/manicule-shard-$k-$SLURM_JOB_ID.sqlite
+# Start from this share's previous store, if any: a re-run reads only what changed.
+if [ -f "$results/shard-$k.sqlite" ]; then cp "$results/shard-$k.sqlite" "$local_store"; fi
+status=0
+manicule batch "$archive" --store "$local_store" --shard "$k/$n" \
+  --threads "${SLURM_CPUS_PER_TASK:-1}" --quiet --unit speaker "$@" || status=$?
+# Exit code 1 means some files failed: they are recorded in the store, the share is usable.
+if [ "$status" -gt 1 ]; then exit "$status"; fi
+cp "$local_store" "$results/shard-$k.sqlite.part" && mv "$results/shard-$k.sqlite.part" "$results/shard-$k.sqlite"
+rm -f "$local_store"
