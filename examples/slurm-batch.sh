@@ -15,7 +15,7 @@ shift 2
 k=$((SLURM_ARRAY_TASK_ID - SLURM_ARRAY_TASK_MIN + 1))   # works for --array=0-7 too
 n=$SLURM_ARRAY_TASK_COUNT
 mkdir -p "$results"
-local_store=${TMPDIR:-/tmp}/manicule-shard-$k-$SLURM_JOB_ID.sqlite
+local_store=$(mktemp -d)/manicule-shard-$k.sqlite    # node-local scratch
 # Start from this share's previous store, if any: a re-run reads only what changed.
 if [ -f "$results/shard-$k.sqlite" ]; then cp "$results/shard-$k.sqlite" "$local_store"; fi
 status=0
@@ -24,4 +24,4 @@ manicule batch "$archive" --store "$local_store" --shard "$k/$n" \
 # Exit code 1 means some files failed: they are recorded in the store, the share is usable.
 if [ "$status" -gt 1 ]; then exit "$status"; fi
 cp "$local_store" "$results/shard-$k.sqlite.part" && mv "$results/shard-$k.sqlite.part" "$results/shard-$k.sqlite"
-rm -f "$local_store"
+rm -rf "$(dirname "$local_store")"
