@@ -14,6 +14,9 @@ using CommandRunner = std::function<int()>;
 using CommandAdder = CommandRunner (*)(CLI::App&);
 
 CommandRunner add_segments_command(CLI::App& app);
+CommandRunner add_annotate_command(CLI::App& app);
+CommandRunner add_show_command(CLI::App& app);
+CommandRunner add_export_command(CLI::App& app);
 CommandRunner add_batch_command(CLI::App& app);
 CommandRunner add_analyse_store_command(CLI::App& app);
 CommandRunner add_merge_command(CLI::App& app);

@@ -1,0 +1,97 @@
+// `manicule annotate`: writes a run's results into the editions as TEI standoff (or into
+// a separate results file), changing nothing else. The work is in src/standoff
+// (edition_annotator.h); this file reads the options and reports.
+// Test hook (used only by tests/cli/test_annotate_safety.py): the environment variable
+// MANICULE_TEST_PAUSE_BEFORE_WRITE=<seconds> waits that long after the results are
+// computed and before anything is written, so that a test can change the edition on disk
+// in between and see the run refuse (exit 6).
+#include <chrono>
+#include <cstdlib>
+#include <iostream>
+#include <thread>
+
+#include "cli/analysis_options.h"
+#include "cli/commands.h"
+#include "cli/selection_options.h"
+#include "core/corpus.h"
+#include "core/error.h"
+#include "standoff/edition_annotator.h"
+
+namespace manicule::cli {
+
+namespace {
+
+void pause_for_tests() {
+  const char* seconds = std::getenv("MANICULE_TEST_PAUSE_BEFORE_WRITE");
+  if (!seconds) return;
+  double s = std::strtod(seconds, nullptr);
+  if (s > 0) std::this_thread::sleep_for(std::chrono::duration<double>(s));
+}
+
+}  // namespace
+
+CommandRunner add_annotate_command(CLI::App& app) {
+  auto* command = app.add_subcommand(
+      "annotate", "Write profiles, distances and PCA into the editions as TEI standoff, changing nothing else");
+  auto selection = std::make_shared<SelectionOptions>();
+  auto analysis_options = std::make_shared<AnalysisOptions>();
+  auto settings = std::make_shared<AnnotateSettings>();
+  auto in_place = std::make_shared<bool>(false);
+  auto output = std::make_shared<std::string>();
+  auto standoff_file = std::make_shared<std::string>();
+  auto components = std::make_shared<std::size_t>(2);
+  selection->add_to(*command);
+  analysis_options->add_to(*command);
+  auto* in_place_flag = command->add_flag("--in-place", *in_place, "write the results into each edition itself");
+  auto* output_option = command->add_option("--output,-o", *output, "write the annotated edition to this file instead");
+  auto* standoff_option = command->add_option(
+      "--standoff-file", *standoff_file,
+      "write the results to a separate TEI file pointing into the editions (edition.xml#id); the editions stay untouched");
+  in_place_flag->excludes(output_option)->excludes(standoff_option);
+  output_option->excludes(standoff_option);
+  command->add_flag("--add-ids", settings->add_ids,
+                    "give xml:ids to segment elements that have none, so results point at #id (the only change "
+                    "inside <text>)");
+  command->add_flag("--backup", settings->backup, "keep the edition as it was in FILE.bak (with --in-place)");
+  command->add_flag("--all-pairs", settings->standoff.all_pairs,
+                    "write a distance link for every pair of segments (default: each segment's nearest, see "
+                    "--neighbours)");
+  command->add_option("--who", settings->standoff.who,
+                      "pointer to the person responsible, for the revisionDesc change entry (e.g. #ed)");
+  command->add_option("--components", *components, "principal components written per segment (0: no PCA)")
+      ->capture_default_str();
+  return [=]() -> int {
+    if (!*in_place && output->empty() && standoff_file->empty())
+      throw Error(ErrorKind::usage, "say where the results go: --in-place, --output FILE or --standoff-file FILE");
+    settings->mode = *in_place ? AnnotateMode::in_place
+                     : !output->empty() ? AnnotateMode::output
+                                        : AnnotateMode::standoff_file;
+    settings->output = *in_place ? std::string() : !output->empty() ? *output : *standoff_file;
+    Request request = selection->to_request();
+    analysis_options->apply_to(request);
+    request.compute_pca = *components > 0;
+    request.pca.components = *components;
+
+    std::vector<std::string> files = expand_inputs(request.inputs);
+    std::vector<FileSnapshot> editions;
+    editions.reserve(files.size());
+    for (const auto& f : files) editions.push_back(take_snapshot(f));
+    Analysis analysis = analyse_for_standoff(request, files);
+    for (const auto& note : analysis.notes) std::cerr << "manicule: " << note << '\n';
+    std::vector<PreparedOutput> outputs = prepare_annotation(analysis, editions, *settings);
+
+    pause_for_tests();
+    for (const PreparedOutput& out : outputs)
+      if (out.replacing) require_unchanged(*out.replacing);
+    for (const PreparedOutput& out : outputs) {
+      write_prepared(out, *settings);
+      for (const auto& note : out.notes) std::cerr << "manicule: " << out.path << ": " << note << '\n';
+      std::cerr << "manicule: wrote " << out.path;
+      if (out.ids_added) std::cerr << " (xml:id given to " << out.ids_added << " elements)";
+      std::cerr << '\n';
+    }
+    return 0;
+  };
+}
+
+}  // namespace manicule::cli

@@ -1,0 +1,224 @@
+#include "standoff/edition_annotator.h"
+
+#include <filesystem>
+#include <map>
+
+#include "core/corpus.h"
+#include "core/error.h"
+#include "core/facade.h"
+#include "core/provenance.h"
+#include "core/sha256.h"
+#include "standoff/edition_encoding.h"
+#include "standoff/edition_splice.h"
+#include "standoff/results_document.h"
+#include "standoff/segment_ids_added.h"
+#include "standoff/splice_check.h"
+#include "standoff/uri_reference.h"
+#include "standoff/xml_scan.h"
+
+namespace manicule {
+
+namespace fs = std::filesystem;
+
+namespace {
+
+// One edition on its way to being written (or, for a results file, only described).
+struct Edition {
+  const FileSnapshot* snapshot = nullptr;
+  EditionText text;
+  std::string clean;  // the decoded text without our earlier results
+  ScannedDocument scan;
+  bool ascii_only = false;
+  std::vector<Insertion> id_insertions;
+  std::vector<std::string> added_ids;
+  IdRegistry ids;
+  std::string document_path;  // where the document holding its results will be
+  std::string source_sha256;  // of the edition as the results point into it
+};
+
+Edition open_edition(const FileSnapshot& snapshot, bool for_writing) {
+  Edition e;
+  e.snapshot = &snapshot;
+  e.text = decode_edition(snapshot.bytes, snapshot.path);
+  ScannedDocument first = scan_xml(e.text.text, snapshot.path);
+  e.clean = without_ranges(e.text.text, previous_results(first, e.text.text));
+  e.scan = scan_xml(e.clean, snapshot.path);
+  if (for_writing) e.ascii_only = needs_ascii_insertions(e.scan.declared_encoding, e.text.form, snapshot.path);
+  e.ids = IdRegistry(e.scan.xml_ids);
+  return e;
+}
+
+std::string strip_hash(const std::string& pointer) {
+  return !pointer.empty() && pointer[0] == '#' ? pointer.substr(1) : pointer;
+}
+
+void check_analysed_bytes(const Analysis& analysis, const FileSnapshot& snapshot) {
+  for (const auto& in : analysis.provenance.inputs) {
+    if (in.path == snapshot.path && !in.sha256.empty() && in.sha256 != snapshot.sha256)
+      throw Error(ErrorKind::changed_on_disk, "the file changed while it was being analysed; nothing was written. "
+                                              "Run again.", snapshot.path);
+  }
+}
+
+}  // namespace
+
+Analysis analyse_for_standoff(const Request& request, const std::vector<std::string>& files) {
+  Corpus corpus = read_corpus(request, files);
+  throw_first_failure(corpus);
+  try {
+    return analyse_corpus(request, corpus);
+  } catch (const Error& e) {
+    if (e.kind() != ErrorKind::nothing_selected || !request.compute_distances || corpus.segments.empty()) throw;
+    Request profiles_only = request;
+    profiles_only.compute_distances = false;
+    profiles_only.compute_pca = false;
+    Analysis analysis = analyse_corpus(profiles_only, corpus);
+    analysis.notes.push_back(std::string("no distances written: ") + e.what());
+    return analysis;
+  }
+}
+
+std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::vector<FileSnapshot>& editions,
+                                               const AnnotateSettings& settings) {
+  const bool separate = settings.mode == AnnotateMode::standoff_file;
+  if (settings.mode == AnnotateMode::output && editions.size() != 1)
+    throw Error(ErrorKind::usage, "--output writes one annotated edition; give one input file, or use --in-place");
+  if (separate && settings.add_ids)
+    throw Error(ErrorKind::usage, "--add-ids changes the edition, which --standoff-file promises not to touch");
+  if (settings.mode != AnnotateMode::in_place && settings.output.empty())
+    throw Error(ErrorKind::usage, "no output file given");
+  if (separate) refuse_foreign_results_file(settings.output);
+  if (settings.mode == AnnotateMode::output) {
+    std::error_code ec;
+    if (fs::exists(settings.output, ec) && fs::equivalent(settings.output, editions.front().path, ec))
+      throw Error(ErrorKind::usage, "--output names the input itself; use --in-place to change it");
+  }
+
+  std::vector<Edition> open;
+  std::map<std::string, std::size_t> edition_of_file;
+  for (const FileSnapshot& snapshot : editions) {
+    check_analysed_bytes(analysis, snapshot);
+    open.push_back(open_edition(snapshot, !separate));
+    Edition& e = open.back();
+    e.document_path = separate ? settings.output
+                      : settings.mode == AnnotateMode::output ? settings.output
+                                                             : snapshot.path;
+    edition_of_file[snapshot.path] = open.size() - 1;
+  }
+  std::vector<std::size_t> edition_of(analysis.segments.size());
+  for (std::size_t s = 0; s < analysis.segments.size(); ++s) {
+    auto it = edition_of_file.find(analysis.segments[s].file);
+    if (it == edition_of_file.end())
+      throw Error(ErrorKind::internal, "a segment comes from a file that was not read: " + analysis.segments[s].file);
+    edition_of[s] = it->second;
+  }
+
+  std::vector<std::size_t> added(open.size(), 0);
+  if (settings.add_ids) {
+    for (std::size_t k = 0; k < open.size(); ++k) {
+      std::vector<std::size_t> members;
+      for (std::size_t s = 0; s < edition_of.size(); ++s)
+        if (edition_of[s] == k) members.push_back(s);
+      AddedIds given = give_segments_ids(analysis, members, open[k].scan, open[k].ids, open[k].snapshot->path);
+      open[k].id_insertions = std::move(given.insertions);
+      open[k].added_ids = std::move(given.ids);
+      added[k] = open[k].id_insertions.size();
+    }
+  }
+  for (Edition& e : open)
+    e.source_sha256 = sha256_hex(encode_edition(e.text, with_insertions(e.clean, e.id_insertions)));
+
+  // Segment ids: claimed in the registry of the document that will hold the segment.
+  IdRegistry results_ids;
+  std::vector<SegmentIds> segment_ids(analysis.segments.size());
+  for (std::size_t s = 0; s < analysis.segments.size(); ++s)
+    segment_ids[s] = claim_segment_ids(separate ? results_ids : open[edition_of[s]].ids, analysis.segments[s].local_id);
+
+  auto pointers_from = [&](const std::string& document) {
+    return [&, document](std::size_t s) {
+      const Edition& e = open[edition_of[s]];
+      std::vector<std::string> out;
+      bool same = !separate && e.document_path == document;
+      for (const auto& p : analysis.segments[s].pointers)
+        out.push_back(same ? p : relative_uri(document, e.snapshot->path) + "#" + strip_hash(p));
+      return out;
+    };
+  };
+  auto reference_from = [&](const std::string& document) {
+    return [&, document](std::size_t s) {
+      std::vector<std::string> p = pointers_from(document)(s);
+      if (p.size() == 1) return p.front();
+      const Edition& e = open[edition_of[s]];
+      if (separate || e.document_path == document) return "#" + segment_ids[s].join;
+      return relative_uri(document, e.document_path) + "#" + segment_ids[s].join;
+    };
+  };
+  auto inputs_from = [&](const std::string& document) {
+    std::vector<std::string> out;
+    for (const Edition& e : open)
+      out.push_back(relative_uri(document, e.snapshot->path) + " (SHA-256 " + e.source_sha256 +
+                    (separate ? "" : ", without manicule's additions") + ")");
+    return out;
+  };
+
+  std::vector<PreparedOutput> outputs;
+  if (separate) {
+    StandoffTarget target;
+    for (std::size_t s = 0; s < analysis.segments.size(); ++s) target.members.push_back(s);
+    target.pointers = pointers_from(settings.output);
+    target.reference = reference_from(settings.output);
+    target.segment_ids = segment_ids;
+    target.inputs = inputs_from(settings.output);
+    StandoffBuilder builder(analysis, target, results_ids, settings.standoff);
+    PreparedOutput out;
+    out.path = settings.output;
+    out.bytes = results_document(builder, analysis, target.inputs);
+    outputs.push_back(std::move(out));
+    return outputs;
+  }
+
+  for (std::size_t k = 0; k < open.size(); ++k) {
+    Edition& e = open[k];
+    StandoffTarget target;
+    for (std::size_t s = 0; s < edition_of.size(); ++s)
+      if (edition_of[s] == k) target.members.push_back(s);
+    target.pointers = pointers_from(e.document_path);
+    target.reference = reference_from(e.document_path);
+    target.segment_ids = segment_ids;
+    target.inputs = inputs_from(e.document_path);
+    StandoffBuilder builder(analysis, target, e.ids, settings.standoff);
+    SpliceFragments fragments{builder.standoff(), builder.application(), builder.change(),
+                              e.ids.claim(std::string(kOurIdPrefix) + "encodingDesc"),
+                              e.ids.claim(std::string(kOurIdPrefix) + "appInfo"),
+                              e.ids.claim(std::string(kOurIdPrefix) + "revisionDesc")};
+    SplicePlan plan = plan_splice(e.scan, e.clean, fragments, e.ascii_only);
+    std::vector<Insertion> all = e.id_insertions;
+    all.insert(all.end(), plan.insertions.begin(), plan.insertions.end());
+    PreparedOutput out;
+    out.path = e.document_path;
+    out.bytes = encode_edition(e.text, with_insertions(e.clean, all));
+    out.replacing = settings.mode == AnnotateMode::in_place ? e.snapshot : nullptr;
+    out.notes = plan.notes;
+    out.ids_added = added[k];
+    SpliceExpectations expected;
+    expected.standoff_id = builder.standoff_id();
+    for (const auto& i : plan.insertions) {
+      if (i.kind == "application") expected.application_id = builder.application_id();
+      if (i.kind == "change") expected.change = true;
+    }
+    expected.added_ids = e.added_ids;
+    check_spliced(out.bytes, e.snapshot->path, expected);
+    outputs.push_back(std::move(out));
+  }
+  return outputs;
+}
+
+void write_prepared(const PreparedOutput& output, const AnnotateSettings& settings) {
+  if (settings.mode == AnnotateMode::standoff_file) refuse_foreign_results_file(output.path);
+  WriteOptions options;
+  options.replacing = output.replacing;
+  options.backup = settings.backup && output.replacing;
+  write_file_safely(output.path, output.bytes, options);
+}
+
+}  // namespace manicule

@@ -1,0 +1,176 @@
+#include "standoff/standoff_builder.h"
+
+#include <charconv>
+#include <cmath>
+#include <cstdio>
+
+#include "standoff/edition_splice.h"
+#include "standoff/standoff_wording.h"
+
+namespace manicule {
+
+std::string format_number(double value) {
+  if (!std::isfinite(value)) return "NaN";
+  char buf[64];
+  auto result = std::to_chars(buf, buf + sizeof buf, value);
+  return std::string(buf, result.ptr);
+}
+
+StandoffBuilder::StandoffBuilder(const Analysis& analysis, const StandoffTarget& target, IdRegistry& ids,
+                                 StandoffOptions options)
+    : analysis_(analysis), target_(target), ids_(ids), options_(std::move(options)) {
+  const std::string p(kOurIdPrefix);
+  standoff_id_ = ids_.claim(p + "standoff");
+  application_id_ = ids_.claim(p + "app");
+  annotations_id_ = ids_.claim(p + "annotations");
+  joins_id_ = ids_.claim(p + "parts");
+  links_id_ = ids_.claim(p + "distances");
+  values_id_ = ids_.claim(p + "values");
+  distances_annotation_id_ = ids_.claim(p + "ann-distances");
+  pca_annotation_id_ = ids_.claim(p + "ann-pca");
+  pca_summary_id_ = ids_.claim(p + "pca");
+  row_of_.assign(analysis.segments.size(), -1);
+  if (analysis.distances)
+    for (std::size_t r = 0; r < analysis.distances->rows.size(); ++r)
+      row_of_[analysis.distances->rows[r]] = static_cast<long>(r);
+  pca_row_of_.assign(analysis.segments.size(), -1);
+  if (analysis.pca)
+    for (std::size_t r = 0; r < analysis.pca->segment_ids.size(); ++r) {
+      std::size_t s = analysis.find_segment(analysis.pca->segment_ids[r]);
+      if (s != std::string::npos) pca_row_of_[s] = static_cast<long>(r);
+    }
+}
+
+std::string StandoffBuilder::software() const {
+  return analysis_.provenance.tool + " " + analysis_.provenance.version;
+}
+
+XmlNode StandoffBuilder::annotation(const std::string& id, const std::string& target, const std::string& motivation,
+                                    const std::string& note) const {
+  XmlNode a = XmlNode::element("annotation", {{"xml:id", id}, {"target", target}, {"motivation", motivation}});
+  XmlNode& resp = a.add(XmlNode::element("respStmt"));
+  resp.add_text_element("resp", "created by");
+  resp.add_text_element("name", software(), {{"type", "software"}, {"ref", "#" + application_id_}});
+  a.add(XmlNode::element("revisionDesc"))
+      .add(XmlNode::element("change", {{"status", "created"}, {"when", analysis_.provenance.created}}));
+  a.add_text_element("note", note, {{"xml:lang", "en"}});
+  return a;
+}
+
+// The segment's label; with its local id where several segments share the label (the
+// letters of one sender), and with its file where it lies in another edition.
+std::string StandoffBuilder::label_from_here(std::size_t segment) const {
+  const SegmentSummary& s = analysis_.segments[segment];
+  std::string label = s.label.empty() ? s.local_id : s.label;
+  bool shared = false;
+  for (const SegmentSummary& other : analysis_.segments)
+    if (&other != &s && (other.label.empty() ? other.local_id : other.label) == label) shared = true;
+  if (shared && label != s.local_id) label = s.local_id + " (" + label + ")";
+  bool here = false;
+  for (std::size_t m : target_.members)
+    if (analysis_.segments[m].file == s.file) here = true;
+  return here ? label : label + " in " + s.id.substr(0, s.id.find('#'));
+}
+
+XmlNode StandoffBuilder::standoff() const {
+  Parts parts{XmlNode::element("listAnnotation", {{"xml:id", annotations_id_}}),
+              XmlNode::element("joinGrp", {{"xml:id", joins_id_}}),
+              XmlNode::element("linkGrp", {{"xml:id", links_id_}, {"type", "styleDistance"}}),
+              XmlNode::element("fvLib", {{"xml:id", values_id_}, {"n", "stylometry"}})};
+  parts.annotations.add_text_element("head", "Stylometric results written by " + software());
+  parts.joins.add_text_element("desc", "Segments made of several elements, as one pointer each", {{"xml:lang", "en"}});
+  add_profiles(parts);
+  add_distances(parts);
+  add_pca(parts);
+  XmlNode standoff = XmlNode::element("standOff", {{"xml:id", standoff_id_}, {"type", std::string(kOurStandoffType)}});
+  standoff.add(std::move(parts.annotations));
+  if (parts.joins.children.size() > 1) standoff.add(std::move(parts.joins));
+  if (!parts.links.children.empty()) standoff.add(std::move(parts.links));
+  if (!parts.values.children.empty()) standoff.add(std::move(parts.values));
+  return standoff;
+}
+
+XmlNode StandoffBuilder::profile_values(std::size_t segment) const {
+  const SegmentSummary& s = analysis_.segments[segment];
+  const SegmentIds& sid = target_.segment_ids[segment];
+  XmlNode fs = XmlNode::element("fs", {{"xml:id", sid.profile}, {"type", "styleProfile"}});
+  auto feature = [&fs](const std::string& name) -> XmlNode& {
+    return fs.add(XmlNode::element("f", {{"name", name}}));
+  };
+  feature("segment").add_text_element("string", s.id);
+  feature("label").add_text_element("string", s.label.empty() ? s.local_id : s.label);
+  feature("unitType").add(XmlNode::element("symbol", {{"value", s.unit}}));
+  feature("tokens").add(XmlNode::element("numeric", {{"value", std::to_string(s.tokens)}}));
+  feature("types").add(XmlNode::element("numeric", {{"value", std::to_string(s.types)}}));
+  if (!s.language.empty()) feature("language").add(XmlNode::element("symbol", {{"value", s.language}}));
+  if (!s.author.empty()) feature("author").add_text_element("string", s.author);
+  feature("authorship").add(XmlNode::element("symbol", {{"value", authorship_word(s.authorship)}}));
+  feature("measured").add(XmlNode::element("binary", {{"value", s.measured ? "true" : "false"}}));
+  if (!s.excluded_reason.empty()) feature("excludedBecause").add_text_element("string", s.excluded_reason);
+  long row = row_of_[segment];
+  if (row >= 0 && !analysis_.distances->nearest[static_cast<std::size_t>(row)].empty()) {
+    XmlNode& list = feature("nearest").add(XmlNode::element("vColl", {{"org", "list"}}));
+    int rank = 0;
+    for (const Neighbour& n : analysis_.distances->nearest[static_cast<std::size_t>(row)]) {
+      XmlNode& entry = list.add(XmlNode::element("fs", {{"type", "neighbour"}, {"corresp", target_.reference(n.segment)}}));
+      entry.add(XmlNode::element("f", {{"name", "rank"}})).add(XmlNode::element("numeric", {{"value", std::to_string(++rank)}}));
+      entry.add(XmlNode::element("f", {{"name", "segment"}})).add_text_element("string", analysis_.segments[n.segment].id);
+      entry.add(XmlNode::element("f", {{"name", "distance"}}))
+          .add(XmlNode::element("numeric", {{"value", format_number(n.distance)}}));
+    }
+  }
+  return fs;
+}
+
+void StandoffBuilder::add_profiles(Parts& parts) const {
+  for (std::size_t segment : target_.members) {
+    const SegmentSummary& s = analysis_.segments[segment];
+    const SegmentIds& sid = target_.segment_ids[segment];
+    std::vector<std::string> pointers = target_.pointers(segment);
+    if (pointers.size() > 1) {
+      std::string joined;
+      for (const auto& p : pointers) joined += (joined.empty() ? "" : " ") + p;
+      XmlNode& join = parts.joins.add(XmlNode::element("join", {{"xml:id", sid.join}, {"target", joined}}));
+      join.add_text_element("desc", "All " + s.unit + " elements of " + label_from_here(segment), {{"xml:lang", "en"}});
+    }
+    std::vector<std::pair<std::string, double>> nearest;
+    long row = row_of_[segment];
+    if (row >= 0)
+      for (const Neighbour& n : analysis_.distances->nearest[static_cast<std::size_t>(row)])
+        nearest.emplace_back(label_from_here(n.segment), n.distance);
+    XmlNode a = annotation(sid.annotation, target_.reference(segment), "describing",
+                           profile_note(analysis_, s, label_from_here(segment), nearest));
+    a.add(XmlNode::element("ptr", {{"type", "profile"}, {"target", "#" + sid.profile}}));
+    if (pca_row_of_[segment] >= 0) a.add(XmlNode::element("ptr", {{"type", "pca"}, {"target", "#" + sid.pca}}));
+    parts.annotations.add(std::move(a));
+    parts.values.add(profile_values(segment));
+  }
+}
+
+XmlNode StandoffBuilder::application() const {
+  const Provenance& p = analysis_.provenance;
+  XmlNode app = XmlNode::element("application", {{"xml:id", application_id_},
+                                                 {"ident", std::string(kOurApplicationIdent)},
+                                                 {"version", p.version},
+                                                 {"when", p.created}});
+  app.add_text_element("label", software());
+  app.add_text_element("desc", settings_description(analysis_, options_.all_pairs, target_.inputs),
+                       {{"xml:lang", "en"}});
+  app.add(XmlNode::element("ptr", {{"target", "#" + standoff_id_}}));
+  return app;
+}
+
+XmlNode StandoffBuilder::change() const {
+  std::string who = options_.who.empty() ? "#" + application_id_ : options_.who;
+  XmlNode change = XmlNode::element(
+      "change", {{"when", analysis_.provenance.created}, {"who", who}, {"target", "#" + standoff_id_}});
+  change.add(XmlNode::text_node("Added stylometric stand-off results from "));
+  change.add_text_element("ref", software(), {{"target", "#" + application_id_}});
+  change.add(XmlNode::text_node(options_.ids_added
+                                    ? "; text unchanged except for xml:id attributes given to segment elements "
+                                      "that had none."
+                                    : "; text unchanged."));
+  return change;
+}
+
+}  // namespace manicule

@@ -1,0 +1,106 @@
+#include "standoff/standoff_wording.h"
+
+#include <cstdio>
+
+#include "profile/feature_spec.h"
+
+namespace manicule {
+
+namespace {
+
+std::string rounded(double v, const char* format = "%.3f") {
+  char buf[64];
+  std::snprintf(buf, sizeof buf, format, v);
+  return buf;
+}
+
+std::string parameter(const Analysis& analysis, const std::string& key) {
+  for (const auto& [k, v] : analysis.provenance.parameters)
+    if (k == key) return v;
+  return "";
+}
+
+std::string k_nearest(const Analysis& analysis) {
+  std::size_t k = 0;
+  if (analysis.distances)
+    for (const auto& n : analysis.distances->nearest) k = std::max(k, n.size());
+  return std::to_string(k);
+}
+
+}  // namespace
+
+std::string authorship_word(Authorship a) {
+  return a == Authorship::known ? "known" : a == Authorship::conjectured ? "conjectured" : "unknown";
+}
+
+std::string measure_word(const Analysis& analysis) {
+  return analysis.distances ? std::string(measure_info(analysis.distances->measure).name) : "";
+}
+
+std::string scaling_word(const Analysis& analysis) {
+  if (!analysis.distances) return "";
+  return measure_info(analysis.distances->measure).input == MeasureInput::z_scores ? "z-scores"
+                                                                                    : "relative-frequencies";
+}
+
+std::string profile_note(const Analysis& analysis, const SegmentSummary& segment, const std::string& label,
+                         const std::vector<std::pair<std::string, double>>& nearest) {
+  const std::string noun = segment.unit == "whole" ? "text" : segment.unit == "xpath" ? "segment" : segment.unit;
+  std::string note = "Style profile of the " + noun + " " + label + ": " + std::to_string(segment.tokens) +
+                     " words, " + std::to_string(segment.types) + " different.";
+  if (!segment.measured) {
+    note += " Not compared with other segments";
+    note += segment.excluded_reason.empty() ? "." : ": " + segment.excluded_reason + ".";
+    return note;
+  }
+  if (!nearest.empty()) {
+    note += " Nearest in style by " + measure_word(analysis) + " over " +
+            std::to_string(analysis.table.feature_count()) + " " + describe(analysis.table.spec) + ":";
+    for (std::size_t i = 0; i < nearest.size(); ++i)
+      note += (i ? ", " : " ") + nearest[i].first + " " + rounded(nearest[i].second);
+    note += ".";
+  }
+  return note;
+}
+
+std::string distances_note(const Analysis& analysis, bool all_pairs, std::size_t pairs) {
+  const MeasureInfo& info = measure_info(analysis.distances->measure);
+  return "Stylistic distances between segments (" + std::to_string(pairs) + " pairs, " +
+         (all_pairs ? "every pair" : "each segment with its " + k_nearest(analysis) + " nearest") + "): " +
+         std::string(info.name) + " (" + std::string(info.citation) + ") over the " +
+         std::to_string(analysis.table.feature_count()) + " most frequent " + describe(analysis.table.spec) +
+         ". Smaller means more alike. A distance assesses style with this method and these settings; it is "
+         "not an attribution.";
+}
+
+std::string pca_note(const Analysis& analysis) {
+  const PcaResult& pca = *analysis.pca;
+  std::string note = "Principal components of the " + std::to_string(pca.segment_ids.size()) + " measured segments (" +
+                     parameter(analysis, "pca input") + " of " + std::to_string(pca.features.size()) + " features):";
+  for (Eigen::Index c = 0; c < pca.explained_variance_ratio.size(); ++c)
+    note += (c ? ", " : " ") + std::string("PC") + std::to_string(c + 1) + " explains " +
+            rounded(100 * pca.explained_variance_ratio(c), "%.1f") + "%";
+  return note + " of the variance.";
+}
+
+std::string settings_description(const Analysis& analysis, bool all_pairs, const std::vector<std::string>& inputs) {
+  const Provenance& p = analysis.provenance;
+  std::string d = "Selection: " + p.selection + ". Tokenizer: " + p.tokenizer + ". Features: " + p.features +
+                  ", ranks " + parameter(analysis, "feature ranks") + " (" + parameter(analysis, "features used") +
+                  " used), culling " + parameter(analysis, "culling") + ", minimum segment size " +
+                  parameter(analysis, "minimum segment size") + "; " + parameter(analysis, "segments measured") +
+                  " segments measured.";
+  if (analysis.distances) {
+    d += " Measure: " + parameter(analysis, "measure") + "; pairs written: " +
+         (all_pairs ? std::string("all") : "each segment's " + k_nearest(analysis) + " nearest") + ".";
+  }
+  if (analysis.pca) d += " PCA on " + parameter(analysis, "pca input") + ".";
+  if (!inputs.empty()) {
+    d += " Results point into:";
+    for (std::size_t i = 0; i < inputs.size(); ++i) d += (i ? "; " : " ") + inputs[i];
+    d += ".";
+  }
+  return d;
+}
+
+}  // namespace manicule

@@ -1,0 +1,35 @@
+// The sentences our standoff says to people: the notes of annotations and the settings
+// in the application's desc. Plain English; numbers rounded for reading (the fs hold
+// the exact values).
+#pragma once
+#include <cstddef>
+#include <string>
+#include <utility>
+#include <vector>
+
+#include "core/analysis.h"
+
+namespace manicule {
+
+std::string authorship_word(Authorship a);  // known | conjectured | unknown
+
+// "Style profile of Dietrich (speaker): 4812 words, 1203 different. Nearest in style by
+// cosine-delta: Erich 0.831, ..." or why the segment was not measured.
+std::string profile_note(const Analysis& analysis, const SegmentSummary& segment, const std::string& label,
+                         const std::vector<std::pair<std::string, double>>& nearest);
+
+// What the distance links hold and how to read them.
+std::string distances_note(const Analysis& analysis, bool all_pairs, std::size_t pairs);
+
+// The components and how much of the variance each explains.
+std::string pca_note(const Analysis& analysis);
+
+// Everything a reader needs to repeat the run: unit, selection, tokenizer, features,
+// measure, pairs written, and the editions (with SHA-256) the results point into.
+std::string settings_description(const Analysis& analysis, bool all_pairs, const std::vector<std::string>& inputs);
+
+// The measure's user name, e.g. "cosine-delta", and the name of its input scaling.
+std::string measure_word(const Analysis& analysis);
+std::string scaling_word(const Analysis& analysis);
+
+}  // namespace manicule
