@@ -180,9 +180,11 @@ struct TeiWalker::State {
   bool collecting() const { return !open_units.empty() && skip_depth == 0; }
   TextBuffer& sink() { return open_units.back().buffers.back(); }
 
-  std::string xpath_pointer() const {
+  // The element being opened is not on `frames` yet: its own step comes last.
+  std::string xpath_pointer(const Frame& current) const {
     std::string path;
     for (const Frame& f : frames) path += "/" + f.name + "[" + std::to_string(f.same_name_index) + "]";
+    path += "/" + current.name + "[" + std::to_string(current.same_name_index) + "]";
     return "xpath(" + path + ")";
   }
 
@@ -200,7 +202,7 @@ struct TeiWalker::State {
       u.local_id = frame.xml_id;
       u.pointer = "#" + frame.xml_id;
     } else {
-      u.pointer = xpath_pointer();
+      u.pointer = xpath_pointer(frame);
     }
     if (rules.unit == UnitKind::speaker) {
       u.who = split_pointers(tag.attribute("who"));
