@@ -156,40 +156,51 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     last_commit = std::chrono::steady_clock::now();
   };
 
-  read_files_streaming(request, paths, stream, [&](std::size_t k, FileReading&& reading) {
-    const ArchiveFile& f = files[to_open[k]];
-    FileOutcome outcome;
-    if (!reading.parsed) {
-      writer.write_file(f, reading.sha256, "");
-      ++counters.files_hashed;
-      auto r = readings.find(reading.sha256);
-      if (r != readings.end() && r->second.failed) failing[f.path] = r->second.error;
-      outcome = FileOutcome::hashed;
-    } else {
-      ++counters.files_read;
-      if (reading.sha256.empty()) {
-        writer.write_file(f, "", reading.failure.message);  // not even readable
-      } else {
+  try {
+    read_files_streaming(request, paths, stream, [&](std::size_t k, FileReading&& reading) {
+      const ArchiveFile& f = files[to_open[k]];
+      FileOutcome outcome;
+      if (!reading.parsed) {
         writer.write_file(f, reading.sha256, "");
-        writer.write_reading(reading, summary.run_id);
+        ++counters.files_hashed;
+        auto r = readings.find(reading.sha256);
+        if (r != readings.end() && r->second.failed) failing[f.path] = r->second.error;
+        outcome = FileOutcome::hashed;
+      } else {
+        ++counters.files_read;
+        if (reading.sha256.empty()) {
+          writer.write_file(f, "", reading.failure.message);  // not even readable
+        } else {
+          writer.write_file(f, reading.sha256, "");
+          writer.write_reading(reading, summary.run_id);
+        }
+        outcome = reading.failed ? FileOutcome::failed : FileOutcome::read;
+        if (reading.failed) failing[f.path] = reading.failure.message;
       }
-      outcome = reading.failed ? FileOutcome::failed : FileOutcome::read;
-      if (reading.failed) failing[f.path] = reading.failure.message;
-    }
-    counters.bytes_read += reading.bytes;
-    progress.bytes_done += f.size;
-    ++progress.files_done;
-    if (++in_transaction >= options.commit_files ||
-        std::chrono::steady_clock::now() - last_commit > std::chrono::duration<double>(options.commit_seconds))
-      commit();
-    if (listener) listener(progress, f.path, outcome);
-  });
+      counters.bytes_read += reading.bytes;
+      progress.bytes_done += f.size;
+      ++progress.files_done;
+      if (++in_transaction >= options.commit_files ||
+          std::chrono::steady_clock::now() - last_commit > std::chrono::duration<double>(options.commit_seconds))
+        commit();
+      if (listener) listener(progress, f.path, outcome);
+    });
 
-  summary.files_removed = remove_vanished(db, request, options, files);
-  counters.files_failed = failing.size();
-  update_run(db, summary.run_id, counters);
-  finish_run(db, summary.run_id, "done");
-  transaction->commit();
+    summary.files_removed = remove_vanished(db, request, options, files);
+    counters.files_failed = failing.size();
+    update_run(db, summary.run_id, counters);
+    finish_run(db, summary.run_id, "done");
+    transaction->commit();
+  } catch (...) {
+    transaction.reset();  // rolls back the open batch; what was committed stays
+    try {
+      Transaction t(db);
+      finish_run(db, summary.run_id, "failed");
+      t.commit();
+    } catch (...) {
+    }
+    throw;
+  }
   for (auto& [path, message] : failing) summary.failures.push_back(BatchFailure{path, message});
   return summary;
 }

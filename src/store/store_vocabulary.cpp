@@ -4,7 +4,9 @@
 
 namespace manicule::store {
 
-StoreVocabulary::StoreVocabulary(Database& db, std::int64_t settings_id) : db_(db), settings_id_(settings_id) {
+StoreVocabulary::StoreVocabulary(Database& db, std::int64_t settings_id)
+    : settings_id_(settings_id),
+      insert_(db.prepare("INSERT INTO vocabulary (settings_id, feature_id, form) VALUES (?1, ?2, ?3)")) {
   Statement all = db.prepare("SELECT feature_id, form FROM vocabulary WHERE settings_id = ?1 ORDER BY feature_id");
   all.bind(1, settings_id);
   while (all.step()) {
@@ -18,9 +20,8 @@ StoreVocabulary::StoreVocabulary(Database& db, std::int64_t settings_id) : db_(d
 
 void StoreVocabulary::write_new() {
   if (stored_ == forms_.size()) return;
-  Statement insert = db_.prepare("INSERT INTO vocabulary (settings_id, feature_id, form) VALUES (?1, ?2, ?3)");
   for (std::size_t id = stored_; id < forms_.size(); ++id)
-    insert.run(settings_id_, static_cast<std::int64_t>(id), forms_.form(static_cast<FeatureId>(id)));
+    insert_.run(settings_id_, static_cast<std::int64_t>(id), forms_.form(static_cast<FeatureId>(id)));
   stored_ = forms_.size();
 }
 

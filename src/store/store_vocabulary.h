@@ -22,8 +22,8 @@ class StoreVocabulary {
   void write_new();
 
  private:
-  Database& db_;
   std::int64_t settings_id_;
+  Statement insert_;
   Vocabulary forms_;
   std::size_t stored_ = 0;
 };
