@@ -6,6 +6,7 @@
 #include <string>
 #include <vector>
 
+#include "core/clustering.h"
 #include "core/provenance.h"
 #include "core/segment.h"
 #include "measure/distance_measure.h"
@@ -54,6 +55,7 @@ struct Analysis {
   std::vector<std::size_t> table_rows;  // index into segments for each table row
   std::optional<DistanceResult> distances;
   std::optional<PcaResult> pca;  // segment_ids are the measured segments, in row order
+  std::optional<ClusteringResult> clustering;
   std::vector<std::string> notes;  // run-level remarks for the user (e.g. excluded segments)
 
   // Index of a segment by id, or npos.

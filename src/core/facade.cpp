@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <numeric>
+#include <sstream>
 
 #include "core/error.h"
 #include "measure/pairwise_distances.h"
@@ -51,6 +52,7 @@ std::vector<std::vector<Neighbour>> nearest_neighbours(const Eigen::MatrixXd& d,
   const std::size_t n = rows.size();
   std::vector<std::size_t> order(n);
   for (std::size_t i = 0; i < n; ++i) {
+    order.resize(n);  // the erase below shortened it
     std::iota(order.begin(), order.end(), 0);
     order.erase(order.begin() + static_cast<std::ptrdiff_t>(i));
     std::size_t take = std::min(k, order.size());
@@ -97,16 +99,30 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
   params.emplace_back("feature ranks", std::to_string(request.feature_space.rank_first) + "-" +
                                            std::to_string(request.feature_space.rank_last));
   params.emplace_back("features used", std::to_string(table.feature_count()));
-  params.emplace_back("culling", std::to_string(request.feature_space.culling_percent) + "%");
+  std::ostringstream culling;  // "0%", "12.5%" rather than to_string's "0.000000%"
+  culling << request.feature_space.culling_percent << "%";
+  params.emplace_back("culling", culling.str());
   params.emplace_back("minimum segment size", std::to_string(request.feature_space.min_segment_tokens) + " words");
   params.emplace_back("segments measured", std::to_string(table.segment_count()));
 
+  if (table.report.fewer_than_asked) {
+    analysis.notes.push_back("ranks " + std::to_string(request.feature_space.rank_first) + "-" +
+                             std::to_string(request.feature_space.rank_last) + " were asked for, but only " +
+                             std::to_string(table.report.candidates) + " features exist: " +
+                             std::to_string(table.feature_count()) + " used");
+  }
+  if (table.report.zero_variance > 0) {
+    analysis.notes.push_back(std::to_string(table.report.zero_variance) +
+                             " feature(s) have the same relative frequency in every segment: their z-scores are 0");
+  }
+  const bool compares = request.compute_distances || request.compute_pca || request.clustering.compute;
+  if (compares && table.segment_count() < 2) {
+    throw Error(ErrorKind::nothing_selected,
+                "comparing needs at least two segments of at least " +
+                    std::to_string(request.feature_space.min_segment_tokens) + " words; " +
+                    std::to_string(table.segment_count()) + " found (lower it with --min-tokens)");
+  }
   if (request.compute_distances) {
-    if (table.segment_count() < 2)
-      throw Error(ErrorKind::nothing_selected,
-                  "distances need at least two segments of at least " +
-                      std::to_string(request.feature_space.min_segment_tokens) + " words; " +
-                      std::to_string(table.segment_count()) + " found (lower it with --min-tokens)");
     DistanceOptions options;
     options.threads = request.threads;
     DistanceResult result;
@@ -117,6 +133,10 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
     analysis.distances = std::move(result);
     const MeasureInfo& info = measure_info(request.measure);
     params.emplace_back("measure", std::string(info.name) + " (" + std::string(info.citation) + ")");
+  }
+  if (request.clustering.compute) {
+    analysis.clustering = cluster_segments(request, corpus.counts, analysis);
+    params.emplace_back("clustering", describe_clustering(*analysis.clustering));
   }
   if (request.compute_pca) {
     analysis.pca = principal_components(table, request.pca);

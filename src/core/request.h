@@ -5,6 +5,7 @@
 #include <string>
 #include <vector>
 
+#include "core/clustering.h"
 #include "measure/distance_measure.h"
 #include "measure/pca.h"
 #include "profile/feature_space.h"
@@ -35,6 +36,7 @@ struct Request {
   std::size_t neighbours = 5;         // nearest segments kept per segment
   bool compute_pca = false;
   PcaOptions pca;
+  ClusteringOptions clustering;       // dendrogram or consensus tree (core/clustering.h)
 
   // The selection rules this request describes (throws Error(usage) on bad names).
   SelectionRules selection_rules() const;
