@@ -14,6 +14,10 @@ using CommandRunner = std::function<int()>;
 using CommandAdder = CommandRunner (*)(CLI::App&);
 
 CommandRunner add_segments_command(CLI::App& app);
+CommandRunner add_profile_command(CLI::App& app);
+CommandRunner add_distances_command(CLI::App& app);
+CommandRunner add_map_command(CLI::App& app);
+CommandRunner add_tree_command(CLI::App& app);
 CommandRunner add_annotate_command(CLI::App& app);
 CommandRunner add_show_command(CLI::App& app);
 CommandRunner add_export_command(CLI::App& app);
