@@ -1,0 +1,113 @@
+"""Edge cases of the measuring commands (profile, distances, map, tree), through the
+command line, on invented letters whose tokens are plain ASCII words:
+  - more features asked than the vocabulary has: works, and says so; the feature count is
+    the number of distinct words (Python's set() over the same words)
+  - a single segment: distances, map and tree fail clearly (exit 4, a message naming the
+    problem, nothing on standard output); profile still writes its one row (z = 0)
+  - two identical letters: distance 0 under every measure
+  - an empty letter: left out and reported (stderr note, TSV "# left out", JSON reason)
+  - a word with the same relative frequency everywhere: z = 0, reported
+  - never NaN or infinity in any output
+"""
+import json
+import random
+import math
+import os
+import re
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import invented_letters  # noqa: E402
+from measure_tables import read_distances, read_parameters, read_profile  # noqa: E402
+
+MEASURES = ["burrows-delta", "quadratic-delta", "eder-delta", "cosine-delta", "manhattan", "euclidean", "cosine",
+            "minmax"]
+NOT_A_NUMBER = re.compile(r"(?<![A-Za-z])(nan|NaN|inf|Infinity)(?![A-Za-z])")
+
+
+def no_nan(text, what):
+    mtest.check(not NOT_A_NUMBER.search(text), "no NaN or infinity in %s" % what)
+
+
+def every_output(args):
+    """Runs every measuring command and format on `args`; returns {name: stdout}."""
+    out = {}
+    for command, formats in (("profile", ["tsv"]), ("distances", ["tsv", "json"]), ("map", ["tsv", "json", "svg"]),
+                             ("tree", ["newick", "json", "svg"])):
+        for fmt in formats:
+            out["%s %s" % (command, fmt)] = mtest.run([command, "--format", fmt] + args).stdout
+    for values in ("counts", "z"):
+        out["profile " + values] = mtest.run(["profile", "--values", values] + args).stdout
+    return out
+
+
+with tempfile.TemporaryDirectory() as tmp:
+    letters = invented_letters.three_hands(per_author=2, size=(150, 250))
+    same = letters[0][3]
+    letters.append(("L90", "p-ash", "Ada Ash", list(same)))  # identical to L01
+    letters.append(("L91", "p-birch", "Bo Birch", []))       # empty
+    path = invented_letters.write_letters(tmp, "letters.xml", letters)
+    args = [path, "--unit", "letter", "--min-tokens", "50"]
+
+    # More features than the vocabulary: all distinct words are used, and the run says so.
+    vocabulary = {w for _, _, _, words in letters for w in words}  # Python set() of the invented words
+    proc = mtest.run(["profile", "--ranks", "1-100000"] + args)
+    params, features, rows = read_profile(proc.stdout)
+    mtest.check(sorted(features) == sorted(vocabulary), "every distinct word is a feature (%d)" % len(vocabulary))
+    mtest.check(any("only %d features exist" % len(vocabulary) in n for n in params.get("note", [])),
+                "the header notes that fewer features exist: %s" % params.get("note"))
+    mtest.check("only %d features exist" % len(vocabulary) in proc.stderr, "stderr notes it too")
+
+    # The empty letter: left out and reported everywhere.
+    mtest.check("letters#L91" not in rows, "the empty letter has no row")
+    mtest.check(any(v.startswith("letters#L91: ") for v in params.get("left out", [])), "TSV header lists it as left out")
+    mtest.check("segment(s) left out" in proc.stderr, "stderr says segments were left out")
+    doc = json.loads(mtest.run(["distances", "--format", "json"] + args).stdout)
+    empty = [s for s in doc["segments"] if s["segment"] == "letters#L91"]
+    mtest.check(len(empty) == 1 and not empty[0]["measured"] and "0 tokens" in empty[0]["left_out_because"],
+                "JSON lists the empty letter with the reason: %s" % empty)
+
+    # Two identical letters: distance 0 under every measure.
+    for measure in MEASURES:
+        _, pairs = read_distances(mtest.run(["distances", "--measure", measure] + args).stdout)
+        value = [v for a, b, v in pairs if (a, b) == ("letters#L01", "letters#L90")]
+        mtest.check(value == [0.0], "%s of two identical letters is 0, got %s" % (measure, value))
+        mtest.check(all(v > 0 for a, b, v in pairs if (a, b) != ("letters#L01", "letters#L90")),
+                    "%s of different letters is positive" % measure)
+
+    # Never NaN, in any command or format.
+    for name, text in every_output(args).items():
+        no_nan(text, name)
+
+    # A word with the same relative frequency in every letter: its z-scores are 0.
+    flat = [("F%d" % k, "p-f%d" % k, "F %d" % k, ["zed"] * 5 + invented_letters.zipf_words(
+        random.Random(k), 95, {})) for k in range(3)]
+    flat_path = invented_letters.write_letters(tmp, "flat.xml", flat)
+    flat_args = [flat_path, "--unit", "letter", "--min-tokens", "50"]
+    proc = mtest.run(["profile", "--values", "z"] + flat_args)
+    params, features, rows = read_profile(proc.stdout)
+    column = features.index("zed")
+    mtest.check(all(r[column] == 0.0 for r in rows.values()), "z of a word with zero variance is 0")
+    mtest.check(any("same relative frequency in every segment" in n for n in params.get("note", [])),
+                "zero variance noted")
+    for name, text in every_output(flat_args).items():
+        no_nan(text, "zero-variance run, " + name)
+
+    # A single segment: a clear error, no output.
+    one = invented_letters.write_letters(tmp, "one.xml", letters[:1])
+    for command in ("distances", "map", "tree"):
+        proc = mtest.run([command, one, "--unit", "letter", "--min-tokens", "50"], check=False)
+        mtest.check(proc.returncode == 4, "%s on one segment exits 4 (nothing to compare), got %d" % (command, proc.returncode))
+        mtest.check("at least two segments" in proc.stderr, "%s explains: %s" % (command, proc.stderr.strip()))
+        mtest.check(proc.stdout == "", "%s writes nothing on standard output" % command)
+    params, features, rows = read_profile(mtest.run(["profile", "--values", "z", one, "--unit", "letter",
+                                                     "--min-tokens", "50"]).stdout)
+    mtest.check(len(rows) == 1 and all(v == 0.0 for v in rows["one#L01"]), "profile of one segment: z = 0")
+
+    # No segment large enough: a clear error.
+    proc = mtest.run(["distances", path, "--unit", "letter"], check=False)  # default minimum 1500 words
+    mtest.check(proc.returncode == 4 and "1500" in proc.stderr, "too small for the default minimum: %s" % proc.stderr)
+
+mtest.done()

@@ -1,0 +1,112 @@
+"""The SVG plots of `map` and `tree`, read back with lxml (Debian's python3-lxml):
+  - well-formed SVG 1.1 in the SVG namespace, no script
+  - one <text class="point-label"> per measured segment, naming it (sender names holding
+    & < " ' come back intact, so text is escaped)
+  - axis titles carry the explained variance that sklearn.decomposition.PCA computes on
+    the same z-scores ("PC1 (23.4 %)"), and beside each axis the features with the
+    strongest loadings at either end (sklearn's components_)
+  - a legend with one entry per sender when letters share senders
+  - the dendrogram: one leaf label per segment; the consensus: one support figure per
+    group, equal to the Newick support labels
+  - --output writes the same document to a file
+"""
+import json
+import os
+import re
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import invented_letters  # noqa: E402
+from measure_tables import read_profile  # noqa: E402
+
+import numpy as np  # noqa: E402
+from lxml import etree  # noqa: E402
+from sklearn.decomposition import PCA  # noqa: E402
+
+SVG = "{http://www.w3.org/2000/svg}"
+TIME = re.compile(r"\d{4}-\d\d-\d\dT[\d:]+Z")
+
+
+def parse_svg(text, what):
+    try:
+        root = etree.fromstring(text.encode("utf-8"))
+    except etree.XMLSyntaxError as e:
+        mtest.fail("%s is not well-formed XML: %s" % (what, e))
+    mtest.check(root.tag == SVG + "svg" and root.get("version") == "1.1", "%s: an SVG 1.1 root" % what)
+    mtest.check(not list(root.iter(SVG + "script")), "%s: no script" % what)
+    return root
+
+
+def texts(root, css_class):
+    return [t for t in root.iter(SVG + "text") if css_class in (t.get("class") or "").split()]
+
+
+def texts_in_group(root, css_class):
+    return [t.text for t in root.iter(SVG + "text") if t.getparent().get("class") == css_class]
+
+
+with tempfile.TemporaryDirectory() as tmp:
+    renamed = {"p-ash": "Ada & <Ash>", "p-birch": "Bo \"Birch\"", "p-cedar": "Cy 'Cedar'"}
+    letters = [(lid, key, renamed[key], words) for lid, key, _, words in invented_letters.three_hands()]
+    path = invented_letters.write_letters(tmp, "letters.xml", letters)
+    args = [path, "--unit", "letter", "--min-tokens", "100", "--ranks", "1-60"]
+
+    # --- the scatter plot ---------------------------------------------------------------
+    svg_text = mtest.run(["map", "--format", "svg"] + args).stdout
+    root = parse_svg(svg_text, "map SVG")
+    labels = [t.text for t in texts(root, "point-label")]
+    mtest.check(len(labels) == len(letters), "one point label per letter: %d" % len(labels))
+    for lid, _, name, _ in letters:
+        mtest.check("%s (%s)" % (name, lid) in labels, "label for %s: %s (%s)" % (lid, name, lid))
+
+    _, features, z_rows = read_profile(mtest.run(["profile", "--values", "z"] + args).stdout)
+    z = np.array(list(z_rows.values()))
+    pca = PCA(n_components=2, svd_solver="full").fit(z)  # sklearn.decomposition.PCA
+    titles = [t.text for t in texts(root, "axis-title")]
+    for k in range(2):
+        expected = "PC%d (%.1f %%)" % (k + 1, pca.explained_variance_ratio_[k] * 100)
+        mtest.check(expected in titles, "axis title %r among %s" % (expected, titles))
+
+    # Poles: the words at either end of each axis, strongest first, as sklearn weighs them.
+    doc = json.loads(mtest.run(["map", "--format", "json"] + args).stdout)
+    coords = np.array([c["coordinates"] for c in doc["coordinates"]])
+    poles = [t.text for t in texts(root, "axis-poles")]
+    mtest.check(len(poles) == 4, "four pole lists (two per axis): %s" % poles)
+    for k in range(2):
+        sign = 1.0 if np.dot(coords[:, k], pca.transform(z)[:, k]) >= 0 else -1.0
+        weights = sign * pca.components_[k]
+        low, high = features[int(np.argmin(weights))], features[int(np.argmax(weights))]
+        mtest.check(any(p.startswith("\u2190 " + low + ",") or p == "\u2190 " + low for p in poles),
+                    "PC%d low end starts with %r: %s" % (k + 1, low, poles))
+        mtest.check(any((p.startswith(high + ", ") or p.startswith(high + " \u2192")) and p.endswith("\u2192")
+                        for p in poles), "PC%d high end starts with %r: %s" % (k + 1, high, poles))
+
+    legend = texts_in_group(root, "legend")
+    mtest.check(legend[0] == "author" and sorted(legend[1:]) == sorted(renamed.values()),
+                "legend: author, then each sender once: %s" % legend)
+    caption = " ".join(texts_in_group(root, "caption"))
+    mtest.check("PCA on z-scores" in caption and "letters" in caption and "manicule" in caption,
+                "caption names method, input and tool: %s" % caption)
+
+    out_file = os.path.join(tmp, "map.svg")
+    mtest.run(["map", "--format", "svg", "--output", out_file] + args)
+    with open(out_file, encoding="utf-8") as f:
+        written = f.read()
+    mtest.check(TIME.sub("", written) == TIME.sub("", svg_text), "--output writes the same SVG")
+
+    # --- the dendrogram -----------------------------------------------------------------
+    root = parse_svg(mtest.run(["tree", "--format", "svg"] + args).stdout, "tree SVG")
+    leaf_labels = [t.text for t in texts(root, "leaf-label")]
+    mtest.check(sorted(leaf_labels) == sorted(labels), "one leaf label per letter")
+    mtest.check(any(t.text.startswith("ward linkage height") for t in texts(root, "axis-title")), "height scale titled")
+
+    ranges = "1-20,1-30,1-40,1-50,1-60"
+    root = parse_svg(mtest.run(["tree", "--format", "svg", "--bootstrap", ranges] + args).stdout, "consensus SVG")
+    supports = sorted(int(t.text) for t in texts(root, "support"))
+    newick = mtest.run(["tree", "--bootstrap", ranges] + args).stdout
+    newick_supports = sorted(int(s) for s in re.findall(r"\)(\d+)", re.sub(r"\[[^\]]*\]", "", newick)))
+    mtest.check(supports and supports == newick_supports, "support figures equal Newick's: %s" % supports)
+
+mtest.done()
