@@ -88,7 +88,7 @@ Placement best_place(std::size_t i, const std::vector<LabelRequest>& labels, con
         if (p == i) continue;
         // A label nearer to another point than to its own would be read as that one's.
         const double other = distance_to_box(labels[p].x, labels[p].y, box);
-        if (other < own + kClearance) cost += 25 * (own + kClearance - other);
+        if (other < own + kClearance) cost += 60 * (own + kClearance - other);
         if (leader && segment_crosses(line[0], line[1], line[2], line[3], points[p])) cost += 300;
       }
       for (std::size_t j = 0; j < n; ++j) {
