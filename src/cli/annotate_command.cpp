@@ -25,7 +25,9 @@ void pause_for_tests() {
   const char* seconds = std::getenv("MANICULE_TEST_PAUSE_BEFORE_WRITE");
   if (!seconds) return;
   double s = std::strtod(seconds, nullptr);
-  if (s > 0) std::this_thread::sleep_for(std::chrono::duration<double>(s));
+  if (s <= 0) return;
+  std::cerr << "manicule: pausing before writing (MANICULE_TEST_PAUSE_BEFORE_WRITE)" << std::endl;
+  std::this_thread::sleep_for(std::chrono::duration<double>(s));
 }
 
 }  // namespace

@@ -30,6 +30,7 @@ CommandRunner add_export_command(CLI::App& app) {
                       "(default: its file: URI)");
   command->add_option("--output,-o", *output, "write to this file (default: standard output)");
   return [=]() -> int {
+    if (*format != "webanno") throw Error(ErrorKind::usage, "unknown export format " + *format);
     StoredResults results = read_stored_results(*file);
     std::string uri = base->empty() ? file_uri(*file) : *base;
     auto doc = web_annotations(results, uri, current_time_iso8601());

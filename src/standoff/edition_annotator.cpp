@@ -48,6 +48,8 @@ Edition open_edition(const FileSnapshot& snapshot, bool for_writing) {
   return e;
 }
 
+// "#id" -> "id"; "xpath(...)" stays: a TEI pointer is an XPointer, so it is written as a
+// fragment ("#xpath(...)", "edition.xml#xpath(...)"), as SATS (17.2.4) does.
 std::string strip_hash(const std::string& pointer) {
   return !pointer.empty() && pointer[0] == '#' ? pointer.substr(1) : pointer;
 }
@@ -140,7 +142,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
       std::vector<std::string> out;
       bool same = !separate && e.document_path == document;
       for (const auto& p : analysis.segments[s].pointers)
-        out.push_back(same ? p : relative_uri(document, e.snapshot->path) + "#" + strip_hash(p));
+        out.push_back((same ? "" : relative_uri(document, e.snapshot->path)) + "#" + strip_hash(p));
       return out;
     };
   };
@@ -191,7 +193,13 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
                               e.ids.claim(std::string(kOurIdPrefix) + "encodingDesc"),
                               e.ids.claim(std::string(kOurIdPrefix) + "appInfo"),
                               e.ids.claim(std::string(kOurIdPrefix) + "revisionDesc")};
-    SplicePlan plan = plan_splice(e.scan, e.clean, fragments, e.ascii_only);
+    SplicePlan plan;
+    try {
+      plan = plan_splice(e.scan, e.clean, fragments, e.ascii_only);
+    } catch (const Error& error) {
+      if (!error.file().empty()) throw;
+      throw Error(error.kind(), std::string(error.what()) + "; nothing was written", e.snapshot->path);
+    }
     std::vector<Insertion> all = e.id_insertions;
     all.insert(all.end(), plan.insertions.begin(), plan.insertions.end());
     PreparedOutput out;

@@ -78,7 +78,9 @@ XmlNode StandoffBuilder::standoff() const {
               XmlNode::element("linkGrp", {{"xml:id", links_id_}, {"type", "styleDistance"}}),
               XmlNode::element("fvLib", {{"xml:id", values_id_}, {"n", "stylometry"}})};
   parts.annotations.add_text_element("head", "Stylometric results written by " + software());
-  parts.joins.add_text_element("desc", "Segments made of several elements, as one pointer each", {{"xml:lang", "en"}});
+  parts.joins.add_text_element("desc", "Segments made of several elements (a speaker's speeches), one join each, "
+                                       "so that a link or an annotation can point at the whole",
+                                {{"xml:lang", "en"}});
   add_profiles(parts);
   add_distances(parts);
   add_pca(parts);

@@ -65,8 +65,10 @@ std::string profile_note(const Analysis& analysis, const SegmentSummary& segment
 
 std::string distances_note(const Analysis& analysis, bool all_pairs, std::size_t pairs) {
   const MeasureInfo& info = measure_info(analysis.distances->measure);
-  return "Stylistic distances between segments (" + std::to_string(pairs) + " pairs, " +
-         (all_pairs ? "every pair" : "each segment with its " + k_nearest(analysis) + " nearest") + "): " +
+  std::string k = k_nearest(analysis);
+  return "Stylistic distances between segments (" + std::to_string(pairs) + (pairs == 1 ? " pair, " : " pairs, ") +
+         (all_pairs ? "every pair" : "each segment with its " + (k == "1" ? std::string("nearest") : k + " nearest")) +
+         "): " +
          std::string(info.name) + " (" + std::string(info.citation) + ") over the " +
          std::to_string(analysis.table.feature_count()) + " most frequent " + describe(analysis.table.spec) +
          ". Smaller means more alike. A distance assesses style with this method and these settings; it is "

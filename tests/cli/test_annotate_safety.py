@@ -1,0 +1,142 @@
+"""Safe writing of editions (annotate --in-place):
+- SIGKILL at random moments, also while the temporary file is being written (slowed by
+  the test hook MANICULE_TEST_SLOW_WRITE): the edition is always either the original or
+  the complete new file, byte for byte; a temporary file left behind is hidden, does not
+  end in .xml, is not listed by a folder run, and the next run removes it.
+- A file changed on disk between reading and writing is refused with exit 6 and a clear
+  message (test hook MANICULE_TEST_PAUSE_BEFORE_WRITE): by size, by content with the
+  size and modification time put back, and by modification time alone.
+- --backup keeps the edition as it was.
+The reference for "original" and "complete" is the bytes on disk, compared with Python.
+"""
+import os
+import random
+import shutil
+import signal
+import subprocess
+import sys
+import tempfile
+import time
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+from mtest import BIN, ROOT, check, done, run  # noqa: E402
+
+ARGS = ["--unit", "letter", "--min-tokens", "50"]
+ENV = dict(os.environ, SOURCE_DATE_EPOCH="1767225600")
+random.seed(4)
+work = tempfile.mkdtemp(prefix="manicule-safety-")
+
+
+def big_edition(path):
+    """The example letters with about 3 MB of comment before the root: a large file whose
+    analysis stays quick, so that most of a run is writing."""
+    text = open(os.path.join(ROOT, "examples", "ferry-letters.xml"), "rb").read()
+    head, rest = text.split(b"<TEI ", 1)
+    padding = b"".join(b"<!-- padding line %06d: the ferry crosses the grey river at dawn -->\n" % i
+                       for i in range(50000))
+    open(path, "wb").write(head + padding + b"<TEI " + rest)
+
+
+def temporaries(folder):
+    return [f for f in os.listdir(folder) if "manicule-tmp" in f]
+
+
+try:
+    folder = os.path.join(work, "edition")
+    os.makedirs(folder)
+    edition = os.path.join(folder, "letters.xml")
+    big_edition(edition)
+    original = open(edition, "rb").read()
+    expected_path = os.path.join(work, "expected", "letters.xml")
+    os.makedirs(os.path.dirname(expected_path))
+    shutil.copyfile(edition, expected_path)
+    run(["annotate", expected_path, "--in-place"] + ARGS, env=ENV)
+    expected = open(expected_path, "rb").read()
+    check(len(expected) > len(original) > 3_000_000, "the test edition is not large")
+
+    slow = dict(ENV, MANICULE_TEST_SLOW_WRITE="15")  # ms per 64 KiB: about a second per file
+    start = time.monotonic()
+    run(["annotate", expected_path, "--in-place"] + ARGS, env=slow)
+    full_run = time.monotonic() - start
+
+    # Kills while the temporary file is being written, then at any moment of a run.
+    kills = [("writing", random.uniform(0.05, 0.6)) for _ in range(3)] + \
+            [("anytime", random.uniform(0, full_run * 1.1)) for _ in range(3)]
+    saw_partial = False
+    for when, delay in kills:
+        proc = subprocess.Popen([BIN, "annotate", edition, "--in-place"] + ARGS, env=slow,
+                                stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+        if when == "writing":
+            deadline = time.monotonic() + 60
+            while not temporaries(folder) and proc.poll() is None and time.monotonic() < deadline:
+                time.sleep(0.005)
+        time.sleep(delay)
+        proc.send_signal(signal.SIGKILL)
+        proc.wait()
+        now = open(edition, "rb").read()
+        check(now in (original, expected), "after a kill (%s, %.2f s) the edition is neither the original "
+                                           "nor the complete new file (%d bytes)" % (when, delay, len(now)))
+        left = temporaries(folder)
+        for name in left:
+            saw_partial = saw_partial or os.path.getsize(os.path.join(folder, name)) > 0
+            check(name.startswith(".") and not name.endswith(".xml"), "temporary file %s looks like an edition" % name)
+        listed = run(["segments", folder, "--unit", "letter"]).stdout
+        check("manicule-tmp" not in listed, "a folder run read a temporary file")
+        if now == expected:
+            open(edition, "wb").write(original)  # start the next round from the original
+    check(saw_partial, "no kill happened while the temporary file was being written")
+    run(["annotate", edition, "--in-place"] + ARGS, env=ENV)
+    check(open(edition, "rb").read() == expected, "the run after the kills did not write the expected file")
+    check(not temporaries(folder), "stale temporary files were not removed: %s" % temporaries(folder))
+
+    # Changed on disk between reading and writing: refused, the change kept.
+    small = os.path.join(work, "small", "letters.xml")
+    os.makedirs(os.path.dirname(small))
+    source = os.path.join(ROOT, "examples", "ferry-letters.xml")
+
+    def change_size(path):
+        with open(path, "ab") as f:
+            f.write(b"<!-- the editor saved a correction -->\n")
+
+    def change_content_keep_size_and_time(path):
+        st = os.stat(path)
+        data = bytearray(open(path, "rb").read())
+        i = data.index(b"Quillmouth")
+        data[i:i + 10] = b"Quillmoutt"
+        open(path, "wb").write(bytes(data))
+        os.utime(path, ns=(st.st_atime_ns, st.st_mtime_ns))
+
+    def touch(path):
+        st = os.stat(path)
+        os.utime(path, ns=(st.st_atime_ns, st.st_mtime_ns + 1_000_000_000))
+
+    for change in (change_size, change_content_keep_size_and_time, touch):
+        shutil.copyfile(source, small)
+        paused = dict(ENV, MANICULE_TEST_PAUSE_BEFORE_WRITE="3")
+        proc = subprocess.Popen([BIN, "annotate", small, "--in-place"] + ARGS, env=paused,
+                                stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
+        messages = []
+        for line in proc.stderr:
+            messages.append(line)
+            if "pausing before writing" in line:
+                break
+        change(small)
+        changed = open(small, "rb").read()
+        rest = proc.communicate(timeout=120)[1]
+        message = "".join(messages) + rest
+        check(proc.returncode == 6, "%s: exit %d instead of 6: %s" % (change.__name__, proc.returncode, message))
+        check("changed" in message or "modified" in message, "%s: unclear message: %s" % (change.__name__, message))
+        check("nothing was written" in message, "%s: the message does not say nothing was written" % change.__name__)
+        check(open(small, "rb").read() == changed, "%s: the edited file was overwritten" % change.__name__)
+        check(not temporaries(os.path.dirname(small)), "temporary file left after a refusal")
+
+    # --backup keeps the edition as it was before each write.
+    shutil.copyfile(source, small)
+    run(["annotate", small, "--in-place", "--backup"] + ARGS, env=ENV)
+    check(open(small + ".bak", "rb").read() == open(source, "rb").read(), "the backup is not the original")
+    once = open(small, "rb").read()
+    run(["annotate", small, "--in-place", "--backup", "--all-pairs"] + ARGS, env=ENV)
+    check(open(small + ".bak", "rb").read() == once, "the second backup is not the file as it was")
+finally:
+    shutil.rmtree(work, ignore_errors=True)
+done()
