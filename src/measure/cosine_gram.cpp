@@ -1,5 +1,7 @@
 #include "measure/cosine_gram.h"
 
+#include <cblas.h>
+
 #include <algorithm>
 #include <limits>
 #include <vector>
@@ -10,6 +12,7 @@ namespace manicule {
 
 void cosine_distances_by_gram(const RowMatrix& rows, unsigned threads, Eigen::MatrixXd& out) {
   const Eigen::Index n = rows.rows();
+  const Eigen::Index k = rows.cols();
   RowMatrix unit = rows;
   std::vector<char> zero(static_cast<std::size_t>(n), 0);
   for (Eigen::Index i = 0; i < n; ++i) {
@@ -20,26 +23,26 @@ void cosine_distances_by_gram(const RowMatrix& rows, unsigned threads, Eigen::Ma
       zero[static_cast<std::size_t>(i)] = 1;
     }
   }
-  constexpr Eigen::Index kTile = 128;
+  // The row-major n x k `unit` is, read column-major, the k x n matrix A = unit^T; so
+  // A^T A is the Gram matrix, written into the lower triangle of the column-major `out`.
+  out.resize(n, n);
+  if (k > 0) {
+    cblas_dsyrk(CblasColMajor, CblasLower, CblasTrans, static_cast<int>(n), static_cast<int>(k), 1.0, unit.data(),
+                static_cast<int>(k), 0.0, out.data(), static_cast<int>(n));
+  } else {
+    out.setZero();
+  }
   constexpr double kRoundingNoise = 64 * std::numeric_limits<double>::epsilon();
-  const Eigen::Index tiles = (n + kTile - 1) / kTile;
-  parallel_items(static_cast<std::size_t>(tiles), threads, [&](std::size_t item) {
-    const Eigen::Index i0 = (tiles - 1 - static_cast<Eigen::Index>(item)) * kTile;
-    const Eigen::Index height = std::min(kTile, n - i0);
-    // Rows i0.. against rows 0..i0+height: the lower triangle of this band and a bit more.
-    const Eigen::Index width = i0 + height;
-    Eigen::MatrixXd similarity = unit.middleRows(i0, height) * unit.topRows(width).transpose();
-    for (Eigen::Index r = 0; r < height; ++r) {
-      const Eigen::Index i = i0 + r;
-      for (Eigen::Index j = 0; j < i; ++j) {
-        double d = 1.0 - similarity(r, j);
-        if (zero[static_cast<std::size_t>(i)] || zero[static_cast<std::size_t>(j)]) {
-          d = zero[static_cast<std::size_t>(i)] && zero[static_cast<std::size_t>(j)] ? 0.0 : 1.0;
-        }
-        // Below this, 1 - cos is rounding noise of the dot product (identical rows).
-        if (d < kRoundingNoise) d = 0.0;
-        out(i, j) = std::min(d, 2.0);
-      }
+  parallel_items(static_cast<std::size_t>(n), threads, [&](std::size_t item) {
+    const Eigen::Index j = static_cast<Eigen::Index>(item);  // one column of the lower triangle
+    const bool zero_j = zero[item];
+    for (Eigen::Index i = j + 1; i < n; ++i) {
+      double d = 1.0 - out(i, j);
+      const bool zero_i = zero[static_cast<std::size_t>(i)];
+      if (zero_i || zero_j) d = zero_i && zero_j ? 0.0 : 1.0;
+      // Below this, 1 - cos is rounding noise of the dot product (identical rows).
+      if (d < kRoundingNoise) d = 0.0;
+      out(i, j) = std::min(d, 2.0);
     }
   });
 }
