@@ -11,7 +11,6 @@
 #include "core/corpus_stream.h"
 #include "store/reading_writer.h"
 #include "store/store_settings.h"
-#include "store/store_vocabulary.h"
 
 namespace manicule::store {
 
@@ -143,8 +142,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   stream.hash_first = hash_first;
   stream.known = [&readings](std::size_t, const std::string& sha) { return readings.count(sha) != 0; };
 
-  StoreVocabulary vocabulary(db, summary.settings_id);
-  ReadingWriter writer(db, summary.settings_id, vocabulary);
+  ReadingWriter writer(db, summary.settings_id);
   auto transaction = std::make_unique<Transaction>(db);
   std::size_t in_transaction = 0;
   auto last_commit = std::chrono::steady_clock::now();

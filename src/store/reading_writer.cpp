@@ -17,10 +17,9 @@ std::string authorship_name(Authorship a) {
 
 }  // namespace
 
-ReadingWriter::ReadingWriter(Database& db, std::int64_t settings_id, StoreVocabulary& vocabulary)
+ReadingWriter::ReadingWriter(Database& db, std::int64_t settings_id)
     : db_(db),
       settings_id_(settings_id),
-      vocabulary_(vocabulary),
       upsert_file_(db.prepare(
           "INSERT INTO files (path, relative_path, stem, size, mtime_ns, sha256, read_error) "
           "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7) ON CONFLICT (path) DO UPDATE SET relative_path = excluded.relative_path, "
@@ -55,10 +54,11 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
   q.step_to_end();
   // Nothing inserted: this content is stored already (the same file twice in the archive).
   if (db_.changes() == 0 || r.failed) return;
+  if (!vocabulary_) vocabulary_ = std::make_unique<StoreVocabulary>(db_, settings_id_);
   // The file's own feature ids -> the store's, each form looked up once per file.
   to_store_.resize(r.counts.vocabulary.size());
   for (std::size_t id = 0; id < to_store_.size(); ++id)
-    to_store_[id] = vocabulary_.id_of(r.counts.vocabulary.form(static_cast<FeatureId>(id)));
+    to_store_[id] = vocabulary_->id_of(r.counts.vocabulary.form(static_cast<FeatureId>(id)));
   for (std::size_t i = 0; i < r.segments.size(); ++i) {
     const SegmentRecord& record = r.segments[i];
     const Segment& seg = record.segment;
@@ -74,7 +74,7 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
     w.bind_blob(15, encode_counts(mapped_));
     w.step_to_end();
   }
-  vocabulary_.write_new();
+  vocabulary_->write_new();
 }
 
 }  // namespace manicule::store

@@ -2,9 +2,11 @@
 // content lives now), and what was read from a content under one settings (its readings
 // row with header metadata or error, and its segments with their counts in store ids).
 // A content already stored under these settings is left as it is, so writing twice is
-// harmless: a batch restarted after being killed adds no duplicate.
+// harmless: a batch restarted after being killed adds no duplicate. Construct it after any
+// rollback of the store's vocabulary (it keeps the vocabulary in memory, see StoreVocabulary).
 #pragma once
 #include <cstdint>
+#include <memory>
 #include <string>
 
 #include "core/file_reading.h"
@@ -17,7 +19,7 @@ namespace manicule::store {
 
 class ReadingWriter {
  public:
-  ReadingWriter(Database& db, std::int64_t settings_id, StoreVocabulary& vocabulary);
+  ReadingWriter(Database& db, std::int64_t settings_id);
 
   // `sha256` empty: the file could not be read at all (`read_error` says why).
   void write_file(const ArchiveFile& file, const std::string& sha256, const std::string& read_error);
@@ -26,7 +28,7 @@ class ReadingWriter {
  private:
   Database& db_;
   std::int64_t settings_id_;
-  StoreVocabulary& vocabulary_;
+  std::unique_ptr<StoreVocabulary> vocabulary_;  // loaded when first needed: a re-run may need none
   Statement upsert_file_;
   Statement insert_reading_;
   Statement insert_segment_;
