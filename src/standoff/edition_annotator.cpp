@@ -1,5 +1,6 @@
 #include "standoff/edition_annotator.h"
 
+#include <cstdio>
 #include <filesystem>
 #include <map>
 
@@ -62,6 +63,27 @@ void check_analysed_bytes(const Analysis& analysis, const FileSnapshot& snapshot
   }
 }
 
+// No segment reaches the minimum size: the profiles still say how long each one is.
+Analysis counts_only(const Request& request, const Corpus& corpus, const std::string& why) {
+  Analysis analysis;
+  analysis.provenance = make_provenance(request, corpus);
+  analysis.segments = summarise_segments(corpus);
+  const std::string minimum = std::to_string(request.feature_space.min_segment_tokens);
+  for (SegmentSummary& s : analysis.segments)
+    s.excluded_reason = std::to_string(s.tokens) + " words, fewer than the minimum of " + minimum;
+  auto& params = analysis.provenance.parameters;
+  params.emplace_back("feature ranks", std::to_string(request.feature_space.rank_first) + "-" +
+                                           std::to_string(request.feature_space.rank_last));
+  params.emplace_back("features used", "0");
+  char culling[32];
+  std::snprintf(culling, sizeof culling, "%g%%", request.feature_space.culling_percent);
+  params.emplace_back("culling", culling);
+  params.emplace_back("minimum segment size", minimum + " words");
+  params.emplace_back("segments measured", "0");
+  analysis.notes.push_back("only counts written, no comparison: " + why + " (lower it with --min-tokens)");
+  return analysis;
+}
+
 }  // namespace
 
 Analysis analyse_for_standoff(const Request& request, const std::vector<std::string>& files) {
@@ -74,9 +96,14 @@ Analysis analyse_for_standoff(const Request& request, const std::vector<std::str
     Request profiles_only = request;
     profiles_only.compute_distances = false;
     profiles_only.compute_pca = false;
-    Analysis analysis = analyse_corpus(profiles_only, corpus);
-    analysis.notes.push_back(std::string("no distances written: ") + e.what());
-    return analysis;
+    try {
+      Analysis analysis = analyse_corpus(profiles_only, corpus);
+      analysis.notes.push_back(std::string("no distances written: ") + e.what());
+      return analysis;
+    } catch (const Error& none_long_enough) {
+      if (none_long_enough.kind() != ErrorKind::nothing_selected) throw;
+      return counts_only(request, corpus, none_long_enough.what());
+    }
   }
 }
 

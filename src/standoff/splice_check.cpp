@@ -1,8 +1,10 @@
 #include "standoff/splice_check.h"
 
 #include <map>
+#include <set>
 
 #include "core/error.h"
+#include "standoff/edition_splice.h"
 #include "tei/xml_events.h"
 
 namespace manicule {
@@ -20,6 +22,9 @@ class SpliceChecker : public XmlEventHandler {
     bool tei = tag.ns == kTeiNamespace;
     std::string id(tag.attribute("id", kXmlNamespace));
     if (!id.empty() && added_seen_.count(id)) ++added_seen_[id];
+    // Ids hidden in entity text are invisible to the byte scan: catch clashes with ours.
+    if (id.rfind(kOurIdPrefix, 0) == 0 && !ours_seen_.insert(id).second)
+      problem("the xml:id \"" + id + "\" occurs twice");
     if (tei && local == "standOff" && id == expected_.standoff_id) {
       ++standoffs_;
       if (stack_.size() != 1) problem("our standOff is not a child of the root element");
@@ -76,6 +81,7 @@ class SpliceChecker : public XmlEventHandler {
   const SpliceExpectations& expected_;
   std::vector<Frame> stack_;
   std::map<std::string, int> added_seen_;
+  std::set<std::string> ours_seen_;
   int standoffs_ = 0, applications_ = 0, changes_ = 0;
   std::string problem_;
 };

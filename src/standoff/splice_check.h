@@ -6,6 +6,7 @@
 //   application[@xml:id=ours]                     in teiHeader/encodingDesc/appInfo
 //   change[@target=#ours]                         in teiHeader/revisionDesc(/listChange)
 //   each xml:id we added                          present once
+//   each xml:id with our prefix                   present once (entity text may hide ids)
 // A byte-level slip (an insertion inside a comment, a CDATA section or an entity) shows
 // up here as a missing or misplaced element. Throws Error(internal) naming what is wrong,
 // so that nothing is written.

@@ -29,16 +29,21 @@ StandoffBuilder::StandoffBuilder(const Analysis& analysis, const StandoffTarget&
   distances_annotation_id_ = ids_.claim(p + "ann-distances");
   pca_annotation_id_ = ids_.claim(p + "ann-pca");
   pca_summary_id_ = ids_.claim(p + "pca");
+  for (const SegmentSummary& s : analysis.segments) ++label_count_[s.label.empty() ? s.local_id : s.label];
+  for (std::size_t m : target.members) member_files_.insert(analysis.segments[m].file);
   row_of_.assign(analysis.segments.size(), -1);
   if (analysis.distances)
     for (std::size_t r = 0; r < analysis.distances->rows.size(); ++r)
       row_of_[analysis.distances->rows[r]] = static_cast<long>(r);
   pca_row_of_.assign(analysis.segments.size(), -1);
-  if (analysis.pca)
+  if (analysis.pca) {
+    std::map<std::string, std::size_t> index;
+    for (std::size_t s = 0; s < analysis.segments.size(); ++s) index[analysis.segments[s].id] = s;
     for (std::size_t r = 0; r < analysis.pca->segment_ids.size(); ++r) {
-      std::size_t s = analysis.find_segment(analysis.pca->segment_ids[r]);
-      if (s != std::string::npos) pca_row_of_[s] = static_cast<long>(r);
+      auto it = index.find(analysis.pca->segment_ids[r]);
+      if (it != index.end()) pca_row_of_[it->second] = static_cast<long>(r);
     }
+  }
 }
 
 std::string StandoffBuilder::software() const {
@@ -62,14 +67,8 @@ XmlNode StandoffBuilder::annotation(const std::string& id, const std::string& ta
 std::string StandoffBuilder::label_from_here(std::size_t segment) const {
   const SegmentSummary& s = analysis_.segments[segment];
   std::string label = s.label.empty() ? s.local_id : s.label;
-  bool shared = false;
-  for (const SegmentSummary& other : analysis_.segments)
-    if (&other != &s && (other.label.empty() ? other.local_id : other.label) == label) shared = true;
-  if (shared && label != s.local_id) label = s.local_id + " (" + label + ")";
-  bool here = false;
-  for (std::size_t m : target_.members)
-    if (analysis_.segments[m].file == s.file) here = true;
-  return here ? label : label + " in " + s.id.substr(0, s.id.find('#'));
+  if (label_count_.at(label) > 1 && label != s.local_id) label = s.local_id + " (" + label + ")";
+  return member_files_.count(s.file) ? label : label + " in " + s.id.substr(0, s.id.find('#'));
 }
 
 XmlNode StandoffBuilder::standoff() const {

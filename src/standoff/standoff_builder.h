@@ -23,6 +23,8 @@
 #pragma once
 #include <cstddef>
 #include <functional>
+#include <map>
+#include <set>
 #include <string>
 #include <vector>
 
@@ -84,6 +86,8 @@ class StandoffBuilder {
   StandoffOptions options_;
   std::vector<long> row_of_;  // segment -> row in the distance matrix, -1 if not measured
   std::vector<long> pca_row_of_;
+  std::map<std::string, int> label_count_;  // how many segments bear each label
+  std::set<std::string> member_files_;
   std::string standoff_id_, application_id_, annotations_id_, joins_id_, links_id_, values_id_;
   std::string distances_annotation_id_, pca_annotation_id_, pca_summary_id_;
 };

@@ -294,7 +294,8 @@ class Scanner {
     if (last > p_) {
       if (open_.empty()) fail(p_, "text outside the root element");
       note_content(last, true);
-      for (std::size_t amp = b_.find('&', p_); amp < last; amp = b_.find('&', amp + 1)) {
+      std::string_view content = b_.substr(0, last);  // search this text node only
+      for (std::size_t amp = content.find('&', p_); amp != std::string_view::npos; amp = content.find('&', amp + 1)) {
         std::size_t semi = b_.find(';', amp);
         if (semi == std::string_view::npos || semi > end) fail(amp, "unterminated entity reference");
         std::string_view ref = b_.substr(amp + 1, semi - amp - 1);
