@@ -16,3 +16,19 @@ $m segments --unit speaker examples/ferry-play.xml
 echo
 echo "== Letters of the correspondence, with their senders"
 $m segments --unit letter examples/ferry-letters.xml
+
+echo
+echo "== The letters nearest each other (Cosine Delta on the 150 most frequent words;"
+echo "   the letters are short, so the minimum size is lowered to 200 words for the demo)"
+$m distances --unit letter --min-tokens 200 --ranks 1-150 --neighbours 3 --format tsv examples/ferry-letters.xml \
+  | grep -v '^#' | sort -t$'\t' -k3 -g | head -n 8
+
+echo
+echo "== A map of the speakers (PCA on z-scores) as SVG: $out/play-speakers.svg"
+$m map --unit speaker --min-tokens 200 --ranks 1-100 --format svg --output "$out/play-speakers.svg" examples/ferry-play.xml
+$m tree --unit letter --min-tokens 200 --ranks 1-150 --linkage ward --format newick examples/ferry-letters.xml
+
+echo
+echo "== The results written back into a copy of the edition as TEI standoff: $out/ferry-letters.xml"
+$m annotate --unit letter --min-tokens 200 --ranks 1-150 --output "$out/ferry-letters.xml" examples/ferry-letters.xml
+$m show "$out/ferry-letters.xml" | grep -v '^#' | grep -E '^(kind|nearest)' | head -n 12
