@@ -91,8 +91,8 @@ FileReading read_file(const std::string& file, const Request& request, const Sel
       for (std::size_t i = 0; i < result.segments.size(); ++i) result.segments[i].types = result.counts.segments[i].counts.size();
     result.metadata.title = header.title;
     result.metadata.author = joined_authors(header.authors);
-    result.metadata.date = header.date;
-    result.metadata.year = first_year(header.date);
+    result.metadata.date = header.source_date.empty() ? header.date : header.source_date;
+    result.metadata.year = first_year(result.metadata.date);
     result.metadata.language = header.language.empty() ? main_language(result.segments) : header.language;
   } catch (const Error& e) {
     result.failed = true;

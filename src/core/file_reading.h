@@ -19,7 +19,7 @@ struct SelectionRules;
 struct FileMetadata {
   std::string title;
   std::string author;    // titleStmt authors as written, joined by "; "
-  std::string date;      // the first date of the header, as written
+  std::string date;      // the source's date (first in sourceDesc), else the header's first, as written
   int year = 0;          // the first four-digit year in `date`; 0 when there is none
   std::string language;  // langUsage, else the language most of the selected text is in
 };

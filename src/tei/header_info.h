@@ -24,6 +24,7 @@ struct HeaderInfo {
   std::string title;                               // first main title in titleStmt
   std::vector<std::string> authors;                // titleStmt/author names
   std::string date;                                // first date in the header, as written
+  std::string source_date;                         // first date in sourceDesc (the source's), as written
   std::map<std::string, std::string> person_names;  // person/personGrp/role xml:id -> name
   std::vector<CorrespRecord> corresp;
   std::string language;                            // sole or most used langUsage/language

@@ -104,7 +104,7 @@ struct TeiWalker::State {
     bool member = false;         // a buffered member of the enclosing alternation
     std::string cert, wit;
     Capture capture = Capture::none;
-    bool header = false, title_stmt = false, corresp_desc = false, corresp_sent = false;
+    bool header = false, title_stmt = false, corresp_desc = false, corresp_sent = false, source_desc = false;
     bool person = false, cast_list = false, sp_grp = false, tei_element = false;
     std::string xml_id;
     int ordinal = 0;                                   // position among element siblings
@@ -145,7 +145,7 @@ struct TeiWalker::State {
   std::vector<std::string> capture_text;  // one per open capture
   std::vector<std::string> sp_grp_who;
   std::vector<std::string> person_stack;
-  int header_depth = 0, text_depth = 0, skip_depth = 0, cast_depth = 0;
+  int header_depth = 0, text_depth = 0, skip_depth = 0, cast_depth = 0, source_desc_depth = 0;
   int corresp_index = -1;                // corresp record being read
   bool in_title_stmt = false;
   bool in_sent_action = false;
@@ -250,6 +250,9 @@ struct TeiWalker::State {
     if (f.name == "titleStmt") {
       f.title_stmt = true;
       in_title_stmt = true;
+    } else if (f.name == "sourceDesc") {
+      f.source_desc = true;
+      ++source_desc_depth;
     } else if (f.name == "title" && in_title_stmt && h.title.empty() && tag.attribute("type") != "sub") {
       f.capture = Capture::title;
     } else if (f.name == "author" && in_title_stmt) {
@@ -289,13 +292,20 @@ struct TeiWalker::State {
         h.language = std::string(tag.attribute("ident"));
         best_language_usage = u;
       }
-    } else if (f.name == "date" && h.date.empty()) {
+    } else if (f.name == "date" && (h.date.empty() || (source_desc_depth > 0 && h.source_date.empty()))) {
       std::string_view when = tag.attribute("when");
-      if (!when.empty()) h.date = std::string(when);
-      else f.capture = Capture::date;
+      if (when.empty()) f.capture = Capture::date;
+      else set_date(h, std::string(when));
     }
   }
   int best_language_usage = -1;
+
+  // The header's first date, and the first date describing the source (sourceDesc).
+  void set_date(HeaderInfo& h, const std::string& value) {
+    if (value.empty()) return;
+    if (h.date.empty()) h.date = value;
+    if (source_desc_depth > 0 && h.source_date.empty()) h.source_date = value;
+  }
 
   void finish_capture(Frame& f, std::string text) {
     std::string value = normalise_space(text);
@@ -315,7 +325,7 @@ struct TeiWalker::State {
           if (c.sender_key.empty() && c.sender_status != Authorship::unknown) c.sender_key = case_fold(value);
         }
         break;
-      case Capture::date: if (h && h->date.empty()) h->date = value; break;
+      case Capture::date: if (h) set_date(*h, value); break;
       case Capture::speaker:
         if (!open_units.empty()) open_units.back().speaker_text += text;
         break;
@@ -571,6 +581,7 @@ void TeiWalker::end() {
   if (f.skipped_here) --s.skip_depth;
   if (f.pushed_language) s.language_stack.pop_back();
   if (f.header) --s.header_depth;
+  if (f.source_desc) --s.source_desc_depth;
   if (f.title_stmt) s.in_title_stmt = false;
   if (f.corresp_sent) s.in_sent_action = false;
   if (f.corresp_desc) s.corresp_index = -1;

@@ -28,12 +28,15 @@ MIN_TOKENS, K = 500, 3
 
 
 def header_facts(path):
-    """Title, author text and first header date, read with lxml."""
+    """Title, author text and the source's date, read with lxml."""
     header = etree.parse(path).find(TEI + "teiHeader")
     stmt = header.find("%sfileDesc/%stitleStmt" % (TEI, TEI))
     title = [e for e in stmt.findall(TEI + "title") if e.get("type") != "sub"][0]
     author = " ".join(" ".join("".join(a.itertext()).split()) for a in stmt.findall(TEI + "author"))
-    date = next(header.iter(TEI + "date"), None)
+    # The source's date (first in sourceDesc), else the header's first (docs/store.md).
+    source = header.find("%sfileDesc/%ssourceDesc" % (TEI, TEI))
+    date = next(source.iter(TEI + "date"), None) if source is not None else None
+    date = date if date is not None else next(header.iter(TEI + "date"), None)
     when = None if date is None else (date.get("when") or "".join(date.itertext()))
     year = re.search(r"(?<!\d)\d{4}(?!\d)", when or "")
     return " ".join("".join(title.itertext()).split()), author, int(year.group()) if year else None
