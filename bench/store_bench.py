@@ -1,0 +1,82 @@
+"""Benchmark of the archive store (not a test): `manicule batch` over whole corpora
+against the Python baseline (bench/baseline_archive.py), in one session.
+
+For each corpus (all GerDraCor plays by speaker, all ELTeC-eng novels by chapter), each
+round runs, with /usr/bin/time for wall time, CPU time and peak memory:
+  first      batch --analyse into a new store, on all cores
+  first-1    the same with --threads 1
+  rerun      batch --analyse again, nothing changed (no XML read, stored analysis reused)
+  rerun-read batch again without --analyse (what a re-run costs to find that nothing changed)
+  baseline   /usr/bin/python3 bench/baseline_archive.py (lxml + scikit-learn, one process)
+Rounds are interleaved so that a busy moment on a shared machine hits every variant alike;
+the medians and their ratios are printed as Markdown, with the load average before and after.
+Files are in the page cache after the first round, for every variant alike.
+
+Usage: /usr/bin/python3 bench/store_bench.py BUILD/manicule [ROUNDS]   (from the project root)
+"""
+import os
+import statistics
+import subprocess
+import sys
+import tempfile
+
+ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
+CORPORA = os.environ.get("MANICULE_CORPORA", os.path.join(ROOT, "..", "shared", "corpora"))
+BASELINE = os.path.join(ROOT, "bench", "baseline_archive.py")
+
+
+def timed(args):
+    """(wall s, cpu s, peak MiB) of one command."""
+    fmt = "%e %U %S %M"
+    with tempfile.NamedTemporaryFile("r") as report:
+        proc = subprocess.run(["/usr/bin/time", "-o", report.name, "-f", fmt] + args,
+                              stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
+        if proc.returncode not in (0, 1):
+            sys.exit("failed: %s\n%s" % (" ".join(args), proc.stderr[-2000:]))
+        wall, user, system, rss = report.read().split()[-4:]
+    return float(wall), float(user) + float(system), int(rss) / 1024
+
+
+def load():
+    with open("/proc/loadavg") as f:
+        return " ".join(f.read().split()[:3])
+
+
+def main():
+    binary = os.path.abspath(sys.argv[1])
+    rounds = int(sys.argv[2]) if len(sys.argv) > 2 else 3
+    corpora = [("gerdracor", "speaker"), ("eltec-eng", "chapter")]
+    print("load average before: %s; %d rounds; %d cores" % (load(), rounds, os.cpu_count()))
+    for name, unit in corpora:
+        folder = os.path.join(CORPORA, name)
+        results = {}
+        with tempfile.TemporaryDirectory() as tmp:
+            store = os.path.join(tmp, "store.sqlite")
+            batch = [binary, "batch", folder, "--store", store, "--unit", unit, "--quiet"]
+            for _ in range(rounds):
+                for variant, args, fresh in [
+                    ("first", batch + ["--analyse"], True),
+                    ("first-1", batch + ["--analyse", "--threads", "1"], True),
+                    ("rerun", batch + ["--analyse"], False),
+                    ("rerun-read", batch, False),
+                    ("baseline", ["/usr/bin/python3", BASELINE, folder, unit, os.path.join(tmp, "base.tsv")], False),
+                ]:
+                    if fresh:
+                        for suffix in ("", "-wal", "-shm"):
+                            if os.path.exists(store + suffix):
+                                os.remove(store + suffix)
+                    results.setdefault(variant, []).append(timed(args))
+        med = {v: tuple(statistics.median(r[i] for r in runs) for i in range(3)) for v, runs in results.items()}
+        print("\n### %s (%s)\n" % (name, unit))
+        print("| variant | wall s (median) | CPU s | peak MiB | wall s, each round |")
+        print("| --- | ---: | ---: | ---: | --- |")
+        for v, (wall, cpu, rss) in med.items():
+            print("| %s | %.3f | %.2f | %.0f | %s |" % (v, wall, cpu, rss, " ".join("%.2f" % r[0] for r in results[v])))
+        print("\nbaseline / first: %.1fx; first / rerun: %.0fx; first / rerun-read: %.0fx; first-1 / first: %.2fx"
+              % (med["baseline"][0] / med["first"][0], med["first"][0] / med["rerun"][0],
+                 med["first"][0] / med["rerun-read"][0], med["first-1"][0] / med["first"][0]))
+    print("\nload average after: %s" % load())
+
+
+if __name__ == "__main__":
+    main()
