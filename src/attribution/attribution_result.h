@@ -98,12 +98,22 @@ struct RuleAccuracy {
   std::size_t evaluated = 0;
 };
 
+struct VerificationProblemScore {
+  std::size_t segment = 0;     // the held-out (questioned) segment
+  std::string candidate;       // the candidate, or the label of the pair's other segment
+  std::size_t known_segment = 0;  // pairs: the other segment; else = segment
+  bool same = false;           // the true answer
+  double score = 0;            // General Impostors score
+  double calibrated_score = 0; // on the PAN scale, band from the other half of the files
+};
+
 struct VerificationEvaluation {
   std::string problems;  // "segment against candidate" or "segment pairs"
   std::size_t same = 0, different = 0, undecided = 0;
   double auc = 0, c_at_1 = 0, f05u = 0;  // PAN definitions, on calibrated scores
   double raw_auc = 0;                    // AUC of the scores themselves (no band)
   std::string calibration;               // how the bands were chosen without the answers
+  std::vector<VerificationProblemScore> scores;  // every problem, for checking and plotting
 };
 
 struct EvaluationResult {

@@ -70,6 +70,8 @@ VerificationEvaluation cross_fitted(const std::vector<ImpostorProblem>& problems
   for (std::size_t i = 0; i < problems.size(); ++i) {
     calibrated.push_back(calibrated_score(scores[i], bands[fold[i]]));
     same.push_back(problems[i].same);
+    e.scores.push_back({problems[i].segment, problems[i].candidate, problems[i].known_segment, problems[i].same,
+                        scores[i], calibrated.back()});
     (problems[i].same ? e.same : e.different) += 1;
     if (calibrated.back() == 0.5) ++e.undecided;
   }

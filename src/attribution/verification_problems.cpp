@@ -30,6 +30,7 @@ bool ProblemBuilder::build(std::size_t segment, const std::string& candidate, bo
   if (c == std::string::npos) return false;
   ImpostorProblem p;
   p.segment = segment;
+  p.known_segment = segment;
   p.questioned_row = roles_.table_row[segment];
   p.candidate = candidate;
   p.group = file_of_[segment];
@@ -106,6 +107,7 @@ std::vector<ImpostorProblem> ProblemBuilder::pair_problems(std::size_t each, std
     if ((is_same && same >= each) || (!is_same && different >= each)) continue;
     ImpostorProblem p;
     p.segment = a;
+    p.known_segment = b;
     p.questioned_row = roles_.table_row[a];
     p.candidate = roles_.label[b];
     p.group = file_of_[a];

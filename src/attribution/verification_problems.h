@@ -28,6 +28,7 @@ struct ImpostorProblem {
   std::size_t segment = 0;         // the questioned (or held-out) segment
   std::size_t questioned_row = 0;  // its row in the ProfileSpace
   std::string candidate;           // tested candidate (pairs: the known segment's label)
+  std::size_t known_segment = 0;   // pairs: the known segment; else = segment
   RowGroup known;
   std::vector<RowGroup> impostors;
   std::size_t impostor_rows = 0;   // segments in all impostor groups

@@ -152,10 +152,19 @@ nlohmann::json evaluation_json(const Analysis& analysis) {
     rules.push_back({{"rule", r.rule}, {"correct", r.correct}, {"evaluated", r.evaluated},
                      {"accuracy", r.evaluated ? static_cast<double>(r.correct) / static_cast<double>(r.evaluated) : 0.0}});
   nlohmann::json verification = nlohmann::json::array();
-  for (const auto& v : e.verification)
+  for (const auto& v : e.verification) {
+    nlohmann::json scores = nlohmann::json::array();
+    for (const auto& p : v.scores)
+      scores.push_back({{"segment", analysis.segments[p.segment].id},
+                        {"candidate", p.candidate},
+                        {"known_segment", analysis.segments[p.known_segment].id},
+                        {"same", p.same},
+                        {"score", p.score},
+                        {"calibrated_score", p.calibrated_score}});
     verification.push_back({{"problems", v.problems}, {"same", v.same}, {"different", v.different},
-                            {"undecided", v.undecided}, {"auc", v.auc}, {"raw_auc", v.raw_auc}, {"c_at_1", v.c_at_1}, {"f05u", v.f05u},
-                            {"calibration", v.calibration}});
+                            {"undecided", v.undecided}, {"auc", v.auc}, {"raw_auc", v.raw_auc}, {"c_at_1", v.c_at_1},
+                            {"f05u", v.f05u}, {"calibration", v.calibration}, {"scores", scores}});
+  }
   doc["evaluation"] = {{"held_out", e.held_out},   {"evaluated", e.evaluated},   {"correct", e.correct},
                        {"accuracy", e.accuracy},   {"candidates", e.candidates}, {"confusion", e.confusion},
                        {"per_candidate", candidates}, {"rules", rules},          {"verification", verification},
