@@ -1,6 +1,6 @@
 // `manicule analyse-store`: analyses the counts an archive store holds (reads no XML):
-// distances with each segment's nearest segments, PCA on request, over the whole archive
-// or a sub-corpus chosen by header metadata; the result goes into the store's tables.
+// distances with each segment's nearest segments, PCA and attribution on request, over the
+// whole archive or a sub-corpus chosen by header metadata; the result goes into the store.
 #include <iostream>
 #include <memory>
 
@@ -37,7 +37,7 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
   struct Flags {
     std::string store;
     std::int64_t settings = 0;
-    bool pca = false, recompute = false, list = false;
+    bool pca = false, attribute = false, recompute = false, list = false;
   };
   auto flags = std::make_shared<Flags>();
   command->add_option("--store", flags->store, "the SQLite store made by batch")->required();
@@ -47,6 +47,8 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
   analysis->add_to(*command);
   filters->add_to(*command);
   command->add_flag("--pca", flags->pca, "also principal components");
+  command->add_flag("--attribute", flags->attribute,
+                    "rank the candidate authors of the questioned segments (docs/attribution.md)");
   command->add_flag("--recompute", flags->recompute, "recompute even if an identical analysis is stored");
 
   return [=]() -> int {
@@ -73,7 +75,8 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
       throw Error(ErrorKind::usage, "the store's counts under settings " + std::to_string(settings_id) + " are " +
                                         chosen->settings.features + "; count others with batch --features");
     request.compute_pca = flags->pca;
-    auto result = store::analyse_store(*db, settings_id, request, filters->to_filter(), flags->recompute);
+    store::StoreAnalysisOptions how{filters->to_filter(), flags->attribute, flags->recompute};
+    auto result = store::analyse_store(*db, settings_id, request, how);
     report_analysis(std::cout, std::cerr, result);
     return 0;
   };

@@ -39,7 +39,8 @@ CommandRunner add_batch_command(CLI::App& app) {
   auto filters = std::make_shared<ArchiveFilterOptions>();
   struct Flags {
     std::string store, shard;
-    bool verify = false, analyse = false, pca = false, recompute = false, quiet = false, verbose = false;
+    bool verify = false, analyse = false, pca = false, attribute = false, recompute = false, quiet = false,
+         verbose = false;
     std::size_t commit_every = 64;
   };
   auto flags = std::make_shared<Flags>();
@@ -53,6 +54,8 @@ CommandRunner add_batch_command(CLI::App& app) {
   command->add_option("--commit-every", flags->commit_every, "files per transaction")->capture_default_str();
   command->add_flag("--analyse", flags->analyse, "then analyse the stored counts (distances, nearest neighbours)");
   command->add_flag("--pca", flags->pca, "with --analyse: also principal components");
+  command->add_flag("--attribute", flags->attribute,
+                    "with --analyse: rank the candidate authors of the questioned segments (docs/attribution.md)");
   command->add_flag("--recompute", flags->recompute, "with --analyse: recompute even if an identical analysis is stored");
   command->add_flag("--quiet,-q", flags->quiet, "no progress display");
   command->add_flag("--verbose,-v", flags->verbose, "name each file that had to be opened, and what became of it");
@@ -81,8 +84,8 @@ CommandRunner add_batch_command(CLI::App& app) {
     report_batch(std::cout, flags->store, summary);
     report_failures(std::cerr, summary);
     if (flags->analyse) {
-      store::StoreAnalysisResult result =
-          store::analyse_store(*db, summary.settings_id, request, options.filter, flags->recompute);
+      store::StoreAnalysisOptions how{options.filter, flags->attribute, flags->recompute};
+      store::StoreAnalysisResult result = store::analyse_store(*db, summary.settings_id, request, how);
       report_analysis(std::cout, std::cerr, result);
     }
     return summary.failures.empty() ? kExitOk : kExitSomeFilesFailed;

@@ -89,9 +89,11 @@ std::int64_t write_analysis(Database& db, std::int64_t settings_id, const nlohma
   write_neighbours(db, run, analysis);
   if (analysis.pca) write_pca(db, run, *analysis.pca);
   Statement attribution = db.prepare(
-      "INSERT INTO attributions (run_id, segment, rank, candidate, score, method, detail) "
-      "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)");
-  for (const auto& a : attributions) attribution.run(run, a.segment, a.rank, a.candidate, a.score, a.method, a.detail);
+      "INSERT INTO attributions (run_id, segment, rank, candidate, distance, nearest_segment, nearest_distance, "
+      "margin, stability, rule, warnings) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)");
+  for (const auto& a : attributions)
+    attribution.run(run, a.segment, a.rank, a.candidate, a.distance, a.nearest_segment, a.nearest_distance, a.margin,
+                    a.stability, a.rule, a.warnings);
   RunCounters counters;
   counters.files_found = stored.corpus.files.size();
   update_run(db, run, counters);

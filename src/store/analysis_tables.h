@@ -19,14 +19,18 @@
 
 namespace manicule::store {
 
-// One ranked candidate for a questioned segment, as an attribution method reports it.
+// One ranked candidate for a questioned segment (src/attribution's AttributionResult, flat).
 struct AttributionRow {
-  std::string segment;
-  std::size_t rank = 1;
+  std::string segment;          // the questioned segment
+  std::size_t rank = 1;         // 1 = nearest candidate under the rule
   std::string candidate;
-  double score = 0;
-  std::string method;
-  std::string detail;  // free text (e.g. JSON of the method's own figures)
+  double distance = 0;          // to the candidate's profile under the rule
+  std::string nearest_segment;  // the candidate's nearest single segment
+  double nearest_distance = 0;
+  double margin = 0;            // of the questioned segment: second minus first distance
+  double stability = 0;         // share of resampled feature sets keeping the first first
+  std::string rule;
+  std::string warnings;         // JSON array
 };
 
 std::string analysis_key(const nlohmann::json& parameters, const StoredSelection& selection);

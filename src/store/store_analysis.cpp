@@ -1,5 +1,7 @@
 #include "store/store_analysis.h"
 
+#include "attribution/attribute.h"
+#include "attribution/segment_roles.h"
 #include "core/error.h"
 #include "core/facade.h"
 #include "store/analysis_tables.h"
@@ -10,8 +12,14 @@ namespace manicule::store {
 
 namespace {
 
+std::string rule_name(CandidateRule rule) {
+  return rule == CandidateRule::weighted_centroid ? "weighted-centroid" : rule == CandidateRule::centroid ? "centroid"
+                                                                                                          : "nearest";
+}
+
 nlohmann::json analysis_parameters(Database& db, std::int64_t settings_id, const Request& r,
-                                   const ArchiveFilter& filter) {
+                                   const StoreAnalysisOptions& options) {
+  const ArchiveFilter& filter = options.filter;
   std::string settings_key;
   for (const auto& s : list_settings(db))
     if (s.id == settings_id) settings_key = s.settings.key;
@@ -25,28 +33,54 @@ nlohmann::json analysis_parameters(Database& db, std::int64_t settings_id, const
                       {"measure", std::string(measure_info(r.measure).name)},
                       {"neighbours", r.neighbours},
                       {"pca", r.compute_pca}};
+  if (options.attribute) {
+    const AttributionOptions& a = r.attribution;
+    p["attribution"] = {{"rule", rule_name(a.rule)}, {"weight_spread", a.weight_spread}, {"z_limit", a.z_limit},
+                        {"resamples", a.resamples}, {"resample_share", a.resample_share}, {"seed", a.seed},
+                        {"reliable_words", a.reliable_words}};
+  }
   if (r.compute_pca)
     p["pca_options"] = {{"components", r.pca.components},
                         {"input", r.pca.input == PcaInput::z_scores ? "z-scores" : "relative frequencies"}};
   return p;
 }
 
-// Hook for the attribution layer (src/attribution): once it offers a ranking of candidate
-// authors for the questioned segments of an Analysis, convert its result to AttributionRow
-// here; write_analysis stores the rows in the attributions table. Until then: none.
-std::vector<AttributionRow> attribute_questioned(const Request&, const Analysis&) { return {}; }
+// The attribution layer's ranking of candidates for every questioned segment, as rows.
+std::vector<AttributionRow> attribution_rows(const Request& request, Analysis& analysis,
+                                             std::vector<std::string>& notes) {
+  SegmentRoles roles = assign_roles(analysis, request.attribution);
+  notes.insert(notes.end(), roles.warnings.begin(), roles.warnings.end());
+  try {
+    analysis.attributions =
+        attribute_questioned(analysis, roles, request.measure, request.attribution, request.threads);
+  } catch (const Error& e) {
+    if (e.kind() != ErrorKind::nothing_selected) throw;
+    notes.push_back(std::string("no attribution: ") + e.what());
+    return {};
+  }
+  std::vector<AttributionRow> rows;
+  for (const auto& result : analysis.attributions) {
+    for (const auto& c : result.candidates) {
+      rows.push_back(AttributionRow{analysis.segments[result.segment].id, c.rank, c.candidate, c.distance,
+                                    analysis.segments[c.nearest_segment].id, c.nearest_distance, result.margin,
+                                    result.stability, result.rule, nlohmann::json(result.warnings).dump()});
+    }
+  }
+  return rows;
+}
 
 }  // namespace
 
 StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const Request& request,
-                                  const ArchiveFilter& filter, bool recompute) {
+                                  const StoreAnalysisOptions& options) {
+  const ArchiveFilter& filter = options.filter;
   const StoredSelection selection = select_stored_files(db, settings_id, filter);
   StoreAnalysisResult result;
   result.files_failed = selection.files_failed;
   result.files_not_read = selection.files_not_read;
-  const nlohmann::json parameters = analysis_parameters(db, settings_id, request, filter);
+  const nlohmann::json parameters = analysis_parameters(db, settings_id, request, options);
   const std::string key = analysis_key(parameters, selection);
-  if (!recompute) {
+  if (!options.recompute) {
     if (auto existing = find_analysis(db, key)) {
       result.run_id = *existing;
       result.reused = true;
@@ -80,12 +114,15 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   Request analysis_request = request;
   analysis_request.compute_distances = true;
   Analysis analysis = analyse_corpus(analysis_request, stored.corpus);
-  std::vector<AttributionRow> attributions = attribute_questioned(analysis_request, analysis);
+  std::vector<std::string> notes;
+  std::vector<AttributionRow> attributions;
+  if (options.attribute) attributions = attribution_rows(analysis_request, analysis, notes);
   result.run_id = write_analysis(db, settings_id, parameters, key, analysis, stored, attributions);
   result.measured = analysis.table.segment_count();
   result.features = analysis.table.feature_count();
   result.attributions = attributions.size();
   result.notes = analysis.notes;
+  result.notes.insert(result.notes.end(), notes.begin(), notes.end());
   if (stored.segments_too_short)
     result.notes.push_back(std::to_string(stored.segments_too_short) + " segment(s) shorter than " +
                            std::to_string(request.feature_space.min_segment_tokens) + " words left out");

@@ -1,8 +1,9 @@
 // Analyses over the stored archive, reading no XML: builds a Corpus from the store
 // (load_stored_corpus) for one settings and a filter, runs the facade's analyse_corpus
-// (distances with the k nearest segments, PCA when asked) and records the result as an
-// analysis run. An identical earlier analysis (same parameters, same files and contents)
-// is reused unless `recompute`.
+// (distances with the k nearest segments, PCA when asked), ranks the candidate authors of
+// the questioned segments when asked (src/attribution, with Request::attribution), and
+// records the result as an analysis run. An identical earlier analysis (same parameters,
+// same files and contents) is reused unless `recompute`.
 #pragma once
 #include <cstdint>
 #include <string>
@@ -28,10 +29,17 @@ struct StoreAnalysisResult {
   std::vector<std::string> notes;
 };
 
-// `request` gives the analysis options (feature space, measure, neighbours, PCA) and must
-// carry the reading settings of `settings_id`. Throws Error(nothing_selected) when the
-// filter leaves fewer than two segments.
+struct StoreAnalysisOptions {
+  ArchiveFilter filter;
+  bool attribute = false;  // rank candidates for the questioned segments
+  bool recompute = false;
+};
+
+// `request` gives the analysis options (feature space, measure, neighbours, PCA,
+// attribution) and must carry the reading settings of `settings_id`. Throws
+// Error(nothing_selected) when the filter leaves fewer than two segments. With `attribute`,
+// a run without questioned segments or candidates records none and says so in the notes.
 StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const Request& request,
-                                  const ArchiveFilter& filter, bool recompute = false);
+                                  const StoreAnalysisOptions& options);
 
 }  // namespace manicule::store

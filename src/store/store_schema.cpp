@@ -140,9 +140,13 @@ CREATE TABLE IF NOT EXISTS attributions (
   segment TEXT NOT NULL,
   rank INTEGER NOT NULL,
   candidate TEXT NOT NULL,
-  score REAL NOT NULL,
-  method TEXT NOT NULL,
-  detail TEXT,
+  distance REAL NOT NULL,
+  nearest_segment TEXT NOT NULL,
+  nearest_distance REAL NOT NULL,
+  margin REAL NOT NULL,
+  stability REAL NOT NULL,
+  rule TEXT NOT NULL,
+  warnings TEXT NOT NULL,
   PRIMARY KEY (run_id, segment, rank)
 );
 CREATE VIEW IF NOT EXISTS file_list AS

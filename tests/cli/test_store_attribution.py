@@ -1,0 +1,87 @@
+"""Archive store: attribution of questioned segments over stored counts.
+
+The invented ferry correspondence (examples/ferry-letters.xml: letters of three known
+senders, L07 unsigned, L10 signed "Unknown", L12 ascribed with cert="low") is read into a
+store; analyse-store --attribute must rank the three senders for exactly the questioned
+letters (no sender, or one the edition only conjectures: TEI @cert below high, or
+@evidence="conjecture"). Outside references: lxml for who sent which letter (correspDesc,
+linked by @decls) and how certain the edition is, and so which letters are questioned; numpy and SciPy for each candidate's nearest single letter: the
+smallest cosine distance between z-scores clipped to +-2 (the attribution layer's default
+z limit, docs/attribution.md), over the features the analysis stored.
+"""
+import os
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+import numpy as np  # noqa: E402
+from lxml import etree  # noqa: E402
+from scipy.spatial.distance import cdist  # noqa: E402
+
+TEI = "{http://www.tei-c.org/ns/1.0}"
+XML_ID = "{http://www.w3.org/XML/1998/namespace}id"
+letters = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
+
+# Senders by lxml: each letter's div/@decls names its correspDesc; a sender with @ref is known.
+tree = etree.parse(letters)
+sender_of_desc = {}
+for desc in tree.iter(TEI + "correspDesc"):
+    sent = [a for a in desc.iter(TEI + "correspAction") if a.get("type") == "sent"]
+    name = sent[0].find(".//" + TEI + "persName") if sent else None
+    sure = name is not None and name.get("ref") and name.get("evidence") != "conjecture" \
+        and name.get("cert") in (None, "high", "1", "1.0")
+    sender_of_desc[desc.get(XML_ID)] = name.get("ref") if sure else ""
+known = {}
+for div in tree.iter(TEI + "div"):
+    if div.get("type") == "letter":
+        desc = (div.get("decls") or "").lstrip("#")
+        known["ferry-letters#" + div.get(XML_ID)] = sender_of_desc.get(desc, "")
+questioned = sorted(s for s, who in known.items() if not who)
+candidates = sorted(set(who for who in known.values() if who))
+mtest.check(questioned == ["ferry-letters#L07", "ferry-letters#L10", "ferry-letters#L12"] and len(candidates) == 3,
+            "lxml finds questioned %r and candidates %r" % (questioned, candidates))
+
+with tempfile.TemporaryDirectory() as tmp:
+    store = os.path.join(tmp, "ferry.sqlite")
+    mtest.run(["batch", letters, "--store", store, "--unit", "letter", "--quiet"])
+    mtest.run(["analyse-store", "--store", store, "--min-tokens", "200", "--attribute"])
+    run, tables = storecheck.latest_analysis(store)
+    db = storecheck.connect(store)
+    rows = db.execute("SELECT segment, rank, candidate, distance, nearest_segment, nearest_distance, margin, stability "
+                      "FROM attributions WHERE run_id = ? ORDER BY segment, rank", (run,)).fetchall()
+    forms = dict(db.execute("SELECT feature_id, form FROM vocabulary"))
+    measured = db.execute(
+        "SELECT a.segment, s.feature_total, s.counts FROM analysis_segments a JOIN segments s "
+        "ON s.sha256 = a.sha256 AND s.ordinal = a.ordinal WHERE a.run_id = ? AND a.measured = 1 "
+        "ORDER BY a.path, a.ordinal", (run,)).fetchall()
+    db.close()
+
+    mtest.check(sorted({r[0] for r in rows}) == questioned, "attributed segments %r" % sorted({r[0] for r in rows}))
+    for segment in questioned:
+        mine = [r for r in rows if r[0] == segment]
+        mtest.check([r[1] for r in mine] == [1, 2, 3], "ranks of %s" % segment)
+        mtest.check(sorted(r[2] for r in mine) == candidates, "candidates of %s: %r" % (segment, [r[2] for r in mine]))
+        mtest.check(all(a[3] <= b[3] for a, b in zip(mine, mine[1:])), "%s: ranked by distance" % segment)
+        mtest.check(mtest.close(mine[0][6], mine[1][3] - mine[0][3], rel=1e-9), "%s: margin" % segment)
+        mtest.check(0 <= mine[0][7] <= 1, "%s: stability in [0, 1]" % segment)
+
+    # Nearest single letter of each candidate, by numpy/SciPy from the stored counts.
+    features = [r[1] for r in sorted(tables["features"])]
+    names = [m[0] for m in measured]
+    counts = [{forms[f]: n for f, n in storecheck.decode_counts(m[2])} for m in measured]
+    rel = np.array([[c.get(f, 0) for f in features] for c in counts], dtype=float)
+    rel /= np.array([m[1] for m in measured], dtype=float)[:, None]
+    sd = rel.std(axis=0, ddof=1)
+    z = np.clip(np.where(sd > 0, (rel - rel.mean(axis=0)) / np.where(sd > 0, sd, 1), 0.0), -2, 2)
+    d = cdist(z, z, "cosine")
+    for segment, _, candidate, _, nearest, nearest_distance, _, _ in rows:
+        own = [j for j, n in enumerate(names) if known.get(n) == candidate]
+        i = names.index(segment)
+        j = min(own, key=lambda j: d[i, j])
+        mtest.check(nearest == names[j] and mtest.close(nearest_distance, d[i, j], rel=1e-9, abs_=1e-12),
+                    "%s / %s: nearest %s %.6f, SciPy %s %.6f" % (segment, candidate, nearest, nearest_distance,
+                                                                   names[j], d[i, j]))
+
+mtest.done()
