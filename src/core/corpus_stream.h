@@ -9,7 +9,8 @@
 // (on a worker thread: it must be safe to call concurrently); when it says true the file is
 // not parsed and the sink gets a FileReading with parsed == false, bytes and sha256 set.
 // If the sink throws, the workers stop after their current file and the exception is
-// rethrown once they have. A bad file never throws: it arrives with `failed` set.
+// rethrown once they have. A bad file never throws: it arrives with `failed` set (and its
+// SHA-256 when its bytes could be read, so that a store can remember the failure).
 #pragma once
 #include <cstddef>
 #include <functional>
