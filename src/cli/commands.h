@@ -24,6 +24,9 @@ CommandRunner add_export_command(CLI::App& app);
 CommandRunner add_batch_command(CLI::App& app);
 CommandRunner add_analyse_store_command(CLI::App& app);
 CommandRunner add_merge_command(CLI::App& app);
+CommandRunner add_attribute_command(CLI::App& app);
+CommandRunner add_verify_command(CLI::App& app);
+CommandRunner add_evaluate_command(CLI::App& app);
 
 // Every command, in the order `manicule --help` lists them.
 std::vector<CommandAdder> all_commands();

@@ -6,6 +6,7 @@
 #include <string>
 #include <vector>
 
+#include "attribution/attribution_result.h"
 #include "core/clustering.h"
 #include "core/provenance.h"
 #include "core/segment.h"
@@ -56,6 +57,12 @@ struct Analysis {
   std::optional<DistanceResult> distances;
   std::optional<PcaResult> pca;  // segment_ids are the measured segments, in row order
   std::optional<ClusteringResult> clustering;
+  // Attribution (attribution/attribution_result.h): candidates ranked for each questioned
+  // segment; General Impostors verification with its calibrated band; self-evaluation.
+  std::vector<AttributionResult> attributions;
+  std::vector<VerificationResult> verifications;
+  std::optional<VerificationBand> verification_band;
+  std::optional<EvaluationResult> evaluation;
   std::vector<std::string> notes;  // run-level remarks for the user (e.g. excluded segments)
 
   // Index of a segment by id, or npos.

@@ -5,6 +5,7 @@
 #include <string>
 #include <vector>
 
+#include "attribution/attribution_options.h"
 #include "core/clustering.h"
 #include "measure/distance_measure.h"
 #include "measure/pca.h"
@@ -37,6 +38,7 @@ struct Request {
   bool compute_pca = false;
   PcaOptions pca;
   ClusteringOptions clustering;       // dendrogram or consensus tree (core/clustering.h)
+  AttributionOptions attribution;     // labels, candidate rule, resampling, impostors
 
   // The selection rules this request describes (throws Error(usage) on bad names).
   SelectionRules selection_rules() const;

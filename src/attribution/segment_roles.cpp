@@ -1,0 +1,137 @@
+#include "attribution/segment_roles.h"
+
+#include <algorithm>
+#include <map>
+#include <set>
+
+#include "core/error.h"
+
+namespace manicule {
+
+namespace {
+
+std::string file_stem_of(const std::string& segment_id) { return segment_id.substr(0, segment_id.find('#')); }
+
+std::string edition_label(const SegmentSummary& s) {
+  if (s.author.empty()) return {};
+  return s.unit == "speaker" ? file_stem_of(s.id) + "#" + s.author : s.author;
+}
+
+}  // namespace
+
+std::vector<std::size_t> SegmentRoles::segments_of(const std::string& candidate) const {
+  std::vector<std::size_t> out;
+  for (std::size_t i = 0; i < role.size(); ++i)
+    if (role[i] == SegmentRole::known && label[i] == candidate) out.push_back(i);
+  return out;
+}
+
+std::vector<std::size_t> SegmentRoles::with_role(SegmentRole r) const {
+  std::vector<std::size_t> out;
+  for (std::size_t i = 0; i < role.size(); ++i)
+    if (role[i] == r) out.push_back(i);
+  return out;
+}
+
+SegmentRoles assign_roles(const Analysis& analysis, const AttributionOptions& options) {
+  const std::size_t n = analysis.segments.size();
+  SegmentRoles roles;
+  roles.role.assign(n, SegmentRole::unmeasured);
+  roles.label.assign(n, "");
+  roles.conjecture.assign(n, "");
+  roles.table_row.assign(n, std::string::npos);
+  for (std::size_t r = 0; r < analysis.table_rows.size(); ++r) roles.table_row[analysis.table_rows[r]] = r;
+
+  // Edition labels first, then the labels file over them.
+  std::vector<std::string> label(n);
+  std::vector<bool> questioned(n, true);
+  for (std::size_t i = 0; i < n; ++i) {
+    const SegmentSummary& s = analysis.segments[i];
+    if (s.authorship == Authorship::known && !s.author.empty()) {
+      label[i] = edition_label(s);
+      questioned[i] = false;
+    } else if (s.authorship == Authorship::conjectured) {
+      roles.conjecture[i] = edition_label(s);
+    }
+  }
+  std::map<std::string, std::size_t> index;
+  for (std::size_t i = 0; i < n; ++i) index.emplace(analysis.segments[i].id, i);
+  std::vector<const LabelOverride*> unknown;
+  for (const auto& o : options.labels) {
+    auto it = index.find(o.segment);
+    if (it == index.end()) {
+      unknown.push_back(&o);
+      continue;
+    }
+    label[it->second] = o.label;
+    questioned[it->second] = o.label.empty();
+  }
+  if (!unknown.empty()) {
+    std::string names;
+    for (std::size_t k = 0; k < unknown.size() && k < 5; ++k)
+      names += (k ? ", '" : "'") + unknown[k]->segment + "'";
+    if (unknown.size() > 5) names += " and " + std::to_string(unknown.size() - 5) + " more";
+    throw Error(ErrorKind::bad_input,
+                std::to_string(unknown.size()) + " labelled segment(s) not found in this run: " + names +
+                    " (`manicule segments` lists the ids of the run, with the same --unit)",
+                unknown.front()->source, static_cast<long>(unknown.front()->line));
+  }
+
+  const std::set<std::string> impostor_files(options.impostor_files.begin(), options.impostor_files.end());
+  std::map<std::string, std::pair<std::size_t, std::size_t>> unmeasured_sizes;  // label -> (segments, largest)
+  std::set<std::string> measured_candidates;
+  for (std::size_t i = 0; i < n; ++i) {
+    const SegmentSummary& s = analysis.segments[i];
+    const bool measured = roles.table_row[i] != std::string::npos;
+    if (impostor_files.count(s.file)) {
+      if (measured) roles.role[i] = SegmentRole::impostor;
+      continue;
+    }
+    if (!measured) {
+      if (!questioned[i]) {
+        auto& [count, largest] = unmeasured_sizes[label[i]];
+        ++count;
+        largest = std::max(largest, s.tokens);
+      }
+      continue;
+    }
+    if (questioned[i]) {
+      roles.role[i] = SegmentRole::questioned;
+    } else {
+      roles.role[i] = SegmentRole::known;
+      roles.label[i] = label[i];
+      measured_candidates.insert(label[i]);
+    }
+  }
+  roles.candidates.assign(measured_candidates.begin(), measured_candidates.end());
+  for (const auto& [name, sizes] : unmeasured_sizes) {
+    if (measured_candidates.count(name)) continue;
+    roles.warnings.push_back("candidate '" + name + "' left out: none of its " + std::to_string(sizes.first) +
+                             " segment(s) reaches the minimum size (the largest has " +
+                             std::to_string(sizes.second) + " words)");
+  }
+  return roles;
+}
+
+std::size_t CandidateSet::index_of(const std::string& name) const {
+  auto it = std::lower_bound(names.begin(), names.end(), name);
+  return it != names.end() && *it == name ? static_cast<std::size_t>(it - names.begin()) : std::string::npos;
+}
+
+CandidateSet collect_candidates(const Analysis& analysis, const SegmentRoles& roles) {
+  CandidateSet set;
+  set.names = roles.candidates;
+  set.rows.resize(set.names.size());
+  set.segments.resize(set.names.size());
+  set.words.assign(set.names.size(), 0);
+  for (std::size_t i = 0; i < roles.role.size(); ++i) {
+    if (roles.role[i] != SegmentRole::known) continue;
+    const std::size_t c = set.index_of(roles.label[i]);
+    set.rows[c].push_back(roles.table_row[i]);
+    set.segments[c].push_back(i);
+    set.words[c] += analysis.segments[i].tokens;
+  }
+  return set;
+}
+
+}  // namespace manicule

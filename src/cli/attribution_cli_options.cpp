@@ -1,0 +1,159 @@
+#include "cli/attribution_cli_options.h"
+
+#include <iostream>
+
+#include "attribution/candidate_ranking.h"
+#include "attribution/label_file.h"
+#include "core/error.h"
+#include "core/facade.h"
+
+namespace manicule::cli {
+
+namespace {
+
+CandidateRule parse_rule(const std::string& name) {
+  if (name == "centroid") return CandidateRule::centroid;
+  if (name == "nearest") return CandidateRule::nearest;
+  return CandidateRule::weighted_centroid;
+}
+
+std::string number_text(double x) { return exact_number(x); }
+
+}  // namespace
+
+void AttributionCommandOptions::add_to(CLI::App& command, AttributionTask task) {
+  measuring.analysis.ranks = "1-2000";
+  measuring.add_to(command, {"tsv", "json"}, true);
+  AttributionOptions& s = settings;
+  command.add_option("--labels", labels_file,
+                     "CSV file 'segment,label' naming who wrote which segment (overrides the edition; an empty "
+                     "label questions the segment)");
+  command.add_option("--rule", rule,
+                     "how a candidate's segments make its profile: weighted-centroid (nearer segments count more), "
+                     "centroid, nearest (its single nearest segment)")
+      ->check(CLI::IsMember({"weighted-centroid", "centroid", "nearest"}))
+      ->capture_default_str();
+  command.add_option("--weight-spread", s.weight_spread,
+                     "weighted-centroid: a segment this share farther than the candidate's nearest counts e^-1")
+      ->check(CLI::PositiveNumber)
+      ->capture_default_str();
+  command.add_option("--z-limit", s.z_limit, "limit z-scores to +-this before measuring (0: no limit)")
+      ->check(CLI::NonNegativeNumber)
+      ->capture_default_str();
+  command.add_option("--seed", s.seed, "seed of every random draw (recorded in the output)")->capture_default_str();
+  command.add_option("--min-words-warning", s.reliable_words,
+                     "warn below this many words (Eder 2015, DSH 30(2): about 5,000 in most languages)")
+      ->capture_default_str();
+  if (task == AttributionTask::attribute) {
+    command.add_option("--resamples", s.resamples, "random feature subsets for the stability figure")
+        ->capture_default_str();
+    command.add_option("--resample-share", s.resample_share, "share of the features in each subset")
+        ->check(CLI::Range(0.01, 1.0))
+        ->capture_default_str();
+    command.add_option("--top", top, "candidates listed per questioned segment (0: all)")->capture_default_str();
+  }
+  if (task != AttributionTask::attribute) {
+    command.add_option("--impostors", impostor_inputs,
+                       "TEI files or folders whose texts serve only as impostors (repeatable)");
+    command.add_option("--iterations", s.impostor_iterations, "General Impostors: rounds per problem")
+        ->check(CLI::PositiveNumber)
+        ->capture_default_str();
+    command.add_option("--feature-share", s.impostor_feature_share, "General Impostors: share of features per round")
+        ->check(CLI::Range(0.01, 1.0))
+        ->capture_default_str();
+    command.add_option("--impostors-per-round", s.impostors_per_iteration,
+                       "General Impostors: impostors drawn per round")
+        ->check(CLI::PositiveNumber)
+        ->capture_default_str();
+    command.add_option("--calibration-problems", s.calibration_problems,
+                       "known problems (labelled segments left out in turn, each against its own candidate and "
+                       "against its nearest rival) that calibrate or evaluate the undecided band")
+        ->capture_default_str();
+  }
+  if (task == AttributionTask::verify) {
+    command.add_option("--candidate", s.verify_candidate, "verify against this candidate only (default: each)");
+  }
+  if (task == AttributionTask::evaluate) {
+    command.add_flag("--leave-out-files", s.leave_out_files,
+                     "hold out a segment's whole file, so that chapters of one novel never vouch for each other");
+    command.add_flag("--verification", with_verification,
+                     "also evaluate General Impostors verification (AUC, c@1, F0.5u)");
+    command.add_flag("--author-absent", s.author_absent,
+                     "verification: leave a held-out segment's own author out of the impostors, as when the "
+                     "true author of a questioned text is not in the run");
+    command.add_option("--pairs", s.verification_pairs,
+                       "also verify this many same-author and this many different-author segment pairs")
+        ->capture_default_str();
+    command.add_option("--table", table, "TSV: predictions, candidates, confusion, rules or verification")
+        ->check(CLI::IsMember({"predictions", "candidates", "confusion", "rules", "verification"}))
+        ->capture_default_str();
+  }
+}
+
+Request AttributionCommandOptions::to_request() const {
+  Request request = measuring.to_request();
+  request.compute_distances = false;
+  request.attribution = settings;
+  request.attribution.rule = parse_rule(rule);
+  if (!labels_file.empty()) request.attribution.labels = load_label_file(labels_file);
+  if (!impostor_inputs.empty()) {
+    request.attribution.impostor_files = expand_inputs(impostor_inputs);
+    request.inputs.insert(request.inputs.end(), impostor_inputs.begin(), impostor_inputs.end());
+  }
+  return request;
+}
+
+AttributionRun run_attribution(const Request& request, AttributionTask task) {
+  AttributionRun run{run_analysis(request), {}};
+  const AttributionOptions& s = request.attribution;
+  run.roles = assign_roles(run.analysis, s);
+  for (const auto& w : run.roles.warnings) {
+    std::cerr << "manicule: note: " << w << '\n';
+    run.analysis.notes.push_back(w);
+  }
+  auto& p = run.analysis.provenance.parameters;
+  p.emplace_back("measure", std::string(measure_info(request.measure).name) + " (" +
+                                std::string(measure_info(request.measure).citation) + ")");
+  p.emplace_back("candidate rule", rule_name(s.rule) + (s.rule == CandidateRule::weighted_centroid
+                                                             ? ", spread " + number_text(s.weight_spread)
+                                                             : std::string()));
+  p.emplace_back("z-score limit", s.z_limit > 0 ? "+-" + number_text(s.z_limit) : "none");
+  p.emplace_back("labels", s.labels.empty() ? "from the edition"
+                                            : "from the edition, overridden by " + s.labels.front().source);
+  p.emplace_back("candidates", std::to_string(run.roles.candidates.size()));
+  p.emplace_back("questioned segments", std::to_string(run.roles.with_role(SegmentRole::questioned).size()));
+  p.emplace_back("seed", std::to_string(s.seed));
+  if (task == AttributionTask::attribute) {
+    p.emplace_back("stability", std::to_string(s.resamples) + " random subsets of " +
+                                    number_text(s.resample_share * 100) + "% of the features");
+  } else {
+    p.emplace_back("general impostors", std::to_string(s.impostor_iterations) + " rounds, " +
+                                            number_text(s.impostor_feature_share * 100) + "% of the features and " +
+                                            std::to_string(s.impostors_per_iteration) + " impostors a round");
+    if (!s.impostor_files.empty()) p.emplace_back("impostor files", std::to_string(s.impostor_files.size()));
+  }
+  if (task == AttributionTask::evaluate) {
+    p.emplace_back("held out", s.leave_out_files ? "whole files" : "segments");
+    p.emplace_back("held-out author among the impostors", s.author_absent ? "no" : "yes");
+  }
+  return run;
+}
+
+CommandRunner attribution_command(CLI::App& app, const std::string& name, const std::string& description,
+                                  AttributionTask task, AttributionStep compute, AttributionWriter write_json,
+                                  AttributionWriter write_tsv) {
+  auto* command = app.add_subcommand(name, description);
+  auto options = std::make_shared<AttributionCommandOptions>();
+  options->add_to(*command, task);
+  return [=]() -> int {
+    const Request request = options->to_request();
+    AttributionRun run = run_attribution(request, task);
+    compute(run, request, *options);
+    write_output(options->measuring.output, [&](std::ostream& out) {
+      (options->measuring.format == "json" ? write_json : write_tsv)(out, run.analysis, *options);
+    });
+    return 0;
+  };
+}
+
+}  // namespace manicule::cli

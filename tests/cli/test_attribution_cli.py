@@ -1,0 +1,96 @@
+"""`attribute`, `verify` and `evaluate` end to end on the invented edition
+examples/ferry-letters.xml (twelve letters: three senders, two unsigned letters and one
+conjectured), checking what an editor sees: the caution in every output and format, the
+size warnings of Eder (2015), JSON without NaN, and clear messages with the exit codes of
+src/cli/exit_codes.h for bad input (3), nothing to compare (4) and bad usage (2).
+"""
+import json
+import os
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
+import mtest  # noqa: E402
+
+LETTERS = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
+BASE = ["--unit", "letter", "--min-tokens", "200", LETTERS]
+CAUTION = "Statistical evidence, not proof"
+tmp = tempfile.mkdtemp()
+
+
+def labels(rows):
+    path = os.path.join(tmp, "labels%d.csv" % len(os.listdir(tmp)))
+    with open(path, "w") as f:
+        f.write("segment,label\n" + "".join(r + "\n" for r in rows))
+    return path
+
+
+def strict_json(text):
+    def no_constant(name):
+        mtest.fail("JSON holds " + name)
+    return json.loads(text, parse_constant=no_constant)
+
+
+def expect_failure(args, code, *phrases):
+    proc = mtest.run(args, check=False)
+    mtest.check(proc.returncode == code, "manicule %s: exit %d, expected %d\n%s"
+                % (" ".join(args), proc.returncode, code, proc.stderr))
+    for p in phrases:
+        mtest.check(p in proc.stderr, "message lacks %r: %s" % (p, proc.stderr))
+
+
+# The caution in every format of attribute and verify (and evaluate).
+for command in ["attribute", "verify", "evaluate"]:
+    tsv = mtest.run([command] + BASE).stdout
+    mtest.check(tsv.startswith("# caution: " + CAUTION), command + " TSV does not start with the caution")
+    doc = strict_json(mtest.run([command, "--format", "json"] + BASE).stdout)
+    mtest.check(doc["caution"].startswith(CAUTION), command + " JSON lacks the caution")
+
+doc = strict_json(mtest.run(["attribute", "--format", "json"] + BASE).stdout)
+questioned = {a["segment"]: a for a in doc["attributions"]}
+# L07 and L10 have no sender; L12's is only conjectured, so it is questioned and the
+# conjecture is shown beside the result.
+mtest.check(sorted(questioned) == ["ferry-letters#L07", "ferry-letters#L10", "ferry-letters#L12"],
+            "questioned letters: %s" % sorted(questioned))
+mtest.check(questioned["ferry-letters#L12"]["edition_conjecture"] == "#p-dunnock", "conjecture not kept")
+for a in doc["attributions"]:
+    mtest.check(a["caution"].startswith(CAUTION), "a result lacks the caution")
+    mtest.check(any("Eder (2015" in w for w in a["warnings"]), "a 300-word letter must be warned about (Eder 2015)")
+    mtest.check(0 <= a["stability"] <= 1 and a["margin"] >= 0, "stability or margin out of range")
+    mtest.check([c["rank"] for c in a["candidates"]] == [1, 2, 3], "three candidates ranked")
+    mtest.check(any("little text" in w for w in a["warnings"]), "candidates of about 1,000 words must be warned about")
+doc = strict_json(mtest.run(["verify", "--format", "json"] + BASE).stdout)
+mtest.check(len(doc["verifications"]) == 9, "three questioned letters against three candidates")
+mtest.check(all(v["decision"] in ("same author", "different author", "undecided") for v in doc["verifications"]),
+            "unknown decision")
+mtest.check("not calibrated" in doc["band"]["method"], "nine known problems a side cannot calibrate the band")
+
+# A labels file naming a segment the run does not have: bad input, with file and line.
+path = labels(["ferry-letters#L01,#p-pellow", "ferry-letters#L99,#p-pellow"])
+expect_failure(["attribute", "--labels", path] + BASE, 3, path + ":3:", "'ferry-letters#L99'", "manicule segments")
+# A malformed labels file.
+path = labels(["ferry-letters#L01,#p-pellow,extra"])
+expect_failure(["attribute", "--labels", path] + BASE, 3, path + ":2:", "two fields")
+# A single candidate: every known letter given to one sender.
+path = labels(["ferry-letters#L%02d,#p-pellow" % i for i in (2, 3, 5, 6, 9, 11)])
+expect_failure(["attribute", "--labels", path] + BASE, 4, "at least 2 candidates", "'#p-pellow'")
+expect_failure(["verify", "--labels", path] + BASE, 4, "needs impostors", "--impostors")
+# No questioned segment.
+path = labels(["ferry-letters#L07,#p-pellow", "ferry-letters#L10,#p-abthorpe", "ferry-letters#L12,#p-dunnock"])
+expect_failure(["attribute", "--labels", path] + BASE, 4, "no questioned segment")
+expect_failure(["verify", "--labels", path] + BASE, 4, "no questioned segment")
+# A candidate none of whose letters reaches the minimum size: left out, said so.
+proc = mtest.run(["attribute", "--unit", "letter", "--min-tokens", "315", LETTERS])
+mtest.check("candidate '#p-dunnock' left out" in proc.stderr, "a candidate without text must be named: " + proc.stderr)
+expect_failure(["attribute", "--unit", "letter", "--min-tokens", "380", LETTERS], 4,
+               "at least 2 candidates", "'#p-abthorpe' left out")
+# Verification against a candidate the run does not have: usage.
+expect_failure(["verify", "--candidate", "#p-nobody"] + BASE, 2, "'#p-nobody'", "'#p-pellow'")
+# A questioned letter can be verified against one candidate only.
+doc = strict_json(mtest.run(["verify", "--format", "json", "--candidate", "#p-pellow"] + BASE).stdout)
+mtest.check({v["candidate"] for v in doc["verifications"]} == {"#p-pellow"}, "--candidate not honoured")
+# evaluate reports every table.
+for table in ["predictions", "candidates", "confusion", "rules", "verification"]:
+    out = mtest.run(["evaluate", "--table", table, "--verification"] + BASE).stdout
+    mtest.check("# accuracy: " in out, "evaluate --table %s lacks the accuracy" % table)
+mtest.done()
