@@ -4,7 +4,9 @@ against the Python baseline (bench/baseline_archive.py), in one session.
 For each corpus (all GerDraCor plays by speaker, all ELTeC-eng novels by chapter), each
 round runs, with /usr/bin/time for wall time, CPU time and peak memory:
   first      batch --analyse into a new store, on all cores
-  first-1    the same with --threads 1
+  first-1    the same with --threads 1 (one reading thread; the store writer and the
+             analysis may still use the other core)
+  first-1core  the same pinned to one core (taskset -c 0): the one-core time
   rerun      batch --analyse again, nothing changed (no XML read, stored analysis reused)
   rerun-read batch again without --analyse (what a re-run costs to find that nothing changed)
   baseline   /usr/bin/python3 bench/baseline_archive.py (lxml + scikit-learn, one process)
@@ -12,7 +14,9 @@ Rounds are interleaved so that a busy moment on a shared machine hits every vari
 the medians and their ratios are printed as Markdown, with the load average before and after.
 Files are in the page cache after the first round, for every variant alike.
 
-Usage: /usr/bin/python3 bench/store_bench.py BUILD/manicule [ROUNDS]   (from the project root)
+Usage: /usr/bin/python3 bench/store_bench.py BUILD/manicule [ROUNDS [VARIANTS [CORPORA]]]
+  (from the project root; VARIANTS and CORPORA are comma-separated subsets, e.g.
+  first,first-1 and gerdracor)
 """
 import os
 import statistics
@@ -45,7 +49,10 @@ def load():
 def main():
     binary = os.path.abspath(sys.argv[1])
     rounds = int(sys.argv[2]) if len(sys.argv) > 2 else 3
+    wanted = sys.argv[3].split(",") if len(sys.argv) > 3 else None
     corpora = [("gerdracor", "speaker"), ("eltec-eng", "chapter")]
+    if len(sys.argv) > 4:
+        corpora = [c for c in corpora if c[0] in sys.argv[4].split(",")]
     print("load average before: %s; %d rounds; %d cores" % (load(), rounds, os.cpu_count()))
     for name, unit in corpora:
         folder = os.path.join(CORPORA, name)
@@ -57,10 +64,13 @@ def main():
                 for variant, args, fresh in [
                     ("first", batch + ["--analyse"], True),
                     ("first-1", batch + ["--analyse", "--threads", "1"], True),
+                    ("first-1core", ["taskset", "-c", "0"] + batch + ["--analyse", "--threads", "1"], True),
                     ("rerun", batch + ["--analyse"], False),
                     ("rerun-read", batch, False),
                     ("baseline", ["/usr/bin/python3", BASELINE, folder, unit, os.path.join(tmp, "base.tsv")], False),
                 ]:
+                    if wanted and variant not in wanted:
+                        continue
                     if fresh:
                         for suffix in ("", "-wal", "-shm"):
                             if os.path.exists(store + suffix):
@@ -72,9 +82,10 @@ def main():
         print("| --- | ---: | ---: | ---: | --- |")
         for v, (wall, cpu, rss) in med.items():
             print("| %s | %.3f | %.2f | %.0f | %s |" % (v, wall, cpu, rss, " ".join("%.2f" % r[0] for r in results[v])))
-        print("\nbaseline / first: %.1fx; first / rerun: %.0fx; first / rerun-read: %.0fx; first-1 / first: %.2fx"
-              % (med["baseline"][0] / med["first"][0], med["first"][0] / med["rerun"][0],
-                 med["first"][0] / med["rerun-read"][0], med["first-1"][0] / med["first"][0]))
+        ratios = [("baseline", "first"), ("first", "rerun"), ("first", "rerun-read"), ("first-1", "first"),
+                  ("first-1core", "first")]
+        print("\n" + "; ".join("%s / %s: %.2fx (CPU %.2fx)" % (a, b, med[a][0] / med[b][0], med[a][1] / med[b][1])
+                                for a, b in ratios if a in med and b in med))
     print("\nload average after: %s" % load())
 
 

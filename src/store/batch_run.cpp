@@ -16,6 +16,10 @@ namespace manicule::store {
 
 namespace {
 
+// Files modified less than this before a run are not trusted by their time next time
+// (coarse file-system timestamps; the same reasoning as git's "racily clean" entries).
+constexpr std::int64_t kRacyWindowNs = 2'000'000'000;
+
 struct StoredFile {
   std::uint64_t size = 0;
   std::int64_t mtime_ns = 0;
@@ -143,6 +147,9 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   stream.known = [&readings](std::size_t, const std::string& sha) { return readings.count(sha) != 0; };
 
   ReadingWriter writer(db, summary.settings_id);
+  const std::int64_t racy_after_ns =
+      std::chrono::duration_cast<std::chrono::nanoseconds>(std::chrono::system_clock::now().time_since_epoch()).count() -
+      kRacyWindowNs;
   auto transaction = std::make_unique<Transaction>(db);
   std::size_t in_transaction = 0;
   auto last_commit = std::chrono::steady_clock::now();
@@ -156,7 +163,10 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
 
   try {
     read_files_streaming(request, paths, stream, [&](std::size_t k, FileReading&& reading) {
-      const ArchiveFile& f = files[to_open[k]];
+      ArchiveFile f = files[to_open[k]];
+      // Racily clean: a file changed within a timestamp tick of being read could change
+      // again without its time changing; record no time, so the next run hashes it.
+      if (f.mtime_ns > racy_after_ns) f.mtime_ns = 0;
       FileOutcome outcome;
       if (!reading.parsed) {
         writer.write_file(f, reading.sha256, "");

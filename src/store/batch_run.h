@@ -3,7 +3,9 @@
 //    stored and its content was read under these settings, the file is not opened at all.
 //    Otherwise it is hashed (SHA-256); a content already stored is not parsed again (a file
 //    touched, moved or copied); only new contents are parsed. verify_hashes hashes every
-//    file (for file systems whose times cannot be trusted).
+//    file (for file systems whose times cannot be trusted). A file modified within two
+//    seconds before the run is recorded without its time, so the next run hashes it (it
+//    could change again within one timestamp tick).
 //  - Files are read on all cores (read_files_streaming); what is read is committed in one
 //    transaction per batch of files (commit_files, or commit_seconds, whichever first), so
 //    memory stays bounded and a killed run loses at most one batch: run again, it goes on
