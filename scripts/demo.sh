@@ -29,6 +29,11 @@ $m map --unit speaker --min-tokens 200 --ranks 1-100 --format svg --output "$out
 $m tree --unit letter --min-tokens 200 --ranks 1-150 --linkage ward --format newick examples/ferry-letters.xml
 
 echo
+echo "== Who wrote the unsigned letters? Candidates ranked, with margin and stability"
+$m attribute --unit letter --min-tokens 200 --format tsv examples/ferry-letters.xml | grep -v '^# [^c]' | cut -f1-7
+
+echo
 echo "== The results written back into a copy of the edition as TEI standoff: $out/ferry-letters.xml"
-$m annotate --unit letter --min-tokens 200 --ranks 1-150 --output "$out/ferry-letters.xml" examples/ferry-letters.xml
-$m show "$out/ferry-letters.xml" | grep -v '^#' | grep -E '^(kind|nearest)' | head -n 12
+echo "   (profiles, distances, PCA, the attribution and its verification, with the caution)"
+$m annotate --unit letter --min-tokens 200 --attribute --verify --output "$out/ferry-letters.xml" examples/ferry-letters.xml
+$m show "$out/ferry-letters.xml" | grep -E '^(# caution|kind|candidate|verification)' | head -n 16

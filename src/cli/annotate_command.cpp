@@ -1,6 +1,9 @@
 // `manicule annotate`: writes a run's results into the editions as TEI standoff (or into
 // a separate results file), changing nothing else. The work is in src/standoff
-// (edition_annotator.h); this file reads the options and reports.
+// (edition_annotator.h); this file reads the options and reports. With --attribute and
+// --verify the run also ranks the candidates of each questioned segment and verifies them
+// (as the attribute and verify commands do, with their settings and their 2,000-word
+// default), and the results with their caution go into the same standOff.
 // Test hook (used only by tests/cli/test_annotate_safety.py): the environment variable
 // MANICULE_TEST_PAUSE_BEFORE_WRITE=<seconds> waits that long after the results are
 // computed and before anything is written, so that a test can change the edition on disk
@@ -10,7 +13,10 @@
 #include <iostream>
 #include <thread>
 
+#include "attribution/attribute.h"
+#include "attribution/verify.h"
 #include "cli/analysis_options.h"
+#include "cli/attribution_cli_options.h"
 #include "cli/commands.h"
 #include "cli/selection_options.h"
 #include "core/corpus.h"
@@ -62,6 +68,18 @@ CommandRunner add_annotate_command(CLI::App& app) {
                       "pointer to the person responsible, for the revisionDesc change entry (e.g. #ed)");
   command->add_option("--components", *components, "principal components written per segment (0: no PCA)")
       ->capture_default_str();
+  auto attribution = std::make_shared<AttributionCommandOptions>();
+  auto attribute = std::make_shared<bool>(false);
+  auto verify = std::make_shared<bool>(false);
+  command->add_flag("--attribute", *attribute,
+                    "also rank the candidate authors of each questioned segment (as the attribute command does; "
+                    "features default to ranks " + std::string(kAttributionRanks) + ")");
+  command->add_flag("--verify", *verify,
+                    "also verify each questioned segment against the candidates by General Impostors (as the "
+                    "verify command does)");
+  attribution->add_settings(*command, true, true);
+  command->add_option("--candidate", attribution->settings.verify_candidate,
+                      "--verify: against this candidate only (default: each)");
   return [=]() -> int {
     if (!*in_place && output->empty() && standoff_file->empty())
       throw Error(ErrorKind::usage, "say where the results go: --in-place, --output FILE or --standoff-file FILE");
@@ -69,17 +87,35 @@ CommandRunner add_annotate_command(CLI::App& app) {
                      : !output->empty() ? AnnotateMode::output
                                         : AnnotateMode::standoff_file;
     settings->output = *in_place ? std::string() : !output->empty() ? *output : *standoff_file;
+    const bool attributing = *attribute || *verify;
     Request request = selection->to_request();
-    analysis_options->apply_to(request);
+    AnalysisOptions measuring = *analysis_options;
+    if (attributing && command->count("--ranks") == 0) measuring.ranks = kAttributionRanks;
+    measuring.apply_to(request);
     request.compute_pca = *components > 0;
     request.pca.components = *components;
 
+    // The editions written into; impostor files (--impostors) are read, never written.
     std::vector<std::string> files = expand_inputs(request.inputs);
     std::vector<FileSnapshot> editions;
     editions.reserve(files.size());
     for (const auto& f : files) editions.push_back(take_snapshot(f));
-    Analysis analysis = analyse_for_standoff(request, files);
+    if (attributing) attribution->apply_settings(request);
+    Analysis analysis = analyse_for_standoff(request, attributing ? expand_inputs(request.inputs) : files);
     for (const auto& note : analysis.notes) std::cerr << "manicule: " << note << '\n';
+    if (attributing) {
+      SegmentRoles roles = assign_roles_noting(analysis, request, {*attribute, *verify, false});
+      if (*attribute)
+        analysis.attributions =
+            attribute_questioned(analysis, roles, request.measure, request.attribution, request.threads);
+      if (*verify) {
+        VerificationRun verified =
+            verify_questioned(analysis, roles, request.measure, request.attribution, request.threads);
+        analysis.verifications = std::move(verified.results);
+        analysis.verification_band = verified.band;
+      }
+      std::cerr << "manicule: caution: " << kAttributionCaution << '\n';
+    }
     std::vector<PreparedOutput> outputs = prepare_annotation(analysis, editions, *settings);
 
     pause_for_tests();

@@ -22,8 +22,32 @@ std::string number_text(double x) { return exact_number(x); }
 }  // namespace
 
 void AttributionCommandOptions::add_to(CLI::App& command, AttributionTask task) {
-  measuring.analysis.ranks = "1-2000";
+  measuring.analysis.ranks = std::string(kAttributionRanks);
   measuring.add_to(command, {"tsv", "json"}, true);
+  add_settings(command, task == AttributionTask::attribute, task != AttributionTask::attribute);
+  if (task == AttributionTask::attribute)
+    command.add_option("--top", top, "candidates listed per questioned segment (0: all)")->capture_default_str();
+  if (task == AttributionTask::verify)
+    command.add_option("--candidate", settings.verify_candidate, "verify against this candidate only (default: each)");
+  if (task == AttributionTask::evaluate) {
+    AttributionOptions& s = settings;
+    command.add_flag("--leave-out-files", s.leave_out_files,
+                     "hold out a segment's whole file, so that chapters of one novel never vouch for each other");
+    command.add_flag("--verification", with_verification,
+                     "also evaluate General Impostors verification (AUC, c@1, F0.5u)");
+    command.add_flag("--author-absent", s.author_absent,
+                     "verification: leave a held-out segment's own author out of the impostors, as when the "
+                     "true author of a questioned text is not in the run");
+    command.add_option("--pairs", s.verification_pairs,
+                       "also verify this many same-author and this many different-author segment pairs")
+        ->capture_default_str();
+    command.add_option("--table", table, "TSV: predictions, candidates, confusion, rules or verification")
+        ->check(CLI::IsMember({"predictions", "candidates", "confusion", "rules", "verification"}))
+        ->capture_default_str();
+  }
+}
+
+void AttributionCommandOptions::add_settings(CLI::App& command, bool stability, bool impostors) {
   AttributionOptions& s = settings;
   command.add_option("--labels", labels_file,
                      "CSV file 'segment,label' naming who wrote which segment (overrides the edition; an empty "
@@ -44,15 +68,14 @@ void AttributionCommandOptions::add_to(CLI::App& command, AttributionTask task) 
   command.add_option("--min-words-warning", s.reliable_words,
                      "warn below this many words (Eder 2015, DSH 30(2): about 5,000 in most languages)")
       ->capture_default_str();
-  if (task == AttributionTask::attribute) {
+  if (stability) {
     command.add_option("--resamples", s.resamples, "random feature subsets for the stability figure")
         ->capture_default_str();
     command.add_option("--resample-share", s.resample_share, "share of the features in each subset")
         ->check(CLI::Range(0.01, 1.0))
         ->capture_default_str();
-    command.add_option("--top", top, "candidates listed per questioned segment (0: all)")->capture_default_str();
   }
-  if (task != AttributionTask::attribute) {
+  if (impostors) {
     command.add_option("--impostors", impostor_inputs,
                        "TEI files or folders whose texts serve only as impostors (repeatable)");
     command.add_option("--iterations", s.impostor_iterations, "General Impostors: rounds per problem")
@@ -70,29 +93,16 @@ void AttributionCommandOptions::add_to(CLI::App& command, AttributionTask task) 
                        "against its nearest rival) that calibrate or evaluate the undecided band")
         ->capture_default_str();
   }
-  if (task == AttributionTask::verify) {
-    command.add_option("--candidate", s.verify_candidate, "verify against this candidate only (default: each)");
-  }
-  if (task == AttributionTask::evaluate) {
-    command.add_flag("--leave-out-files", s.leave_out_files,
-                     "hold out a segment's whole file, so that chapters of one novel never vouch for each other");
-    command.add_flag("--verification", with_verification,
-                     "also evaluate General Impostors verification (AUC, c@1, F0.5u)");
-    command.add_flag("--author-absent", s.author_absent,
-                     "verification: leave a held-out segment's own author out of the impostors, as when the "
-                     "true author of a questioned text is not in the run");
-    command.add_option("--pairs", s.verification_pairs,
-                       "also verify this many same-author and this many different-author segment pairs")
-        ->capture_default_str();
-    command.add_option("--table", table, "TSV: predictions, candidates, confusion, rules or verification")
-        ->check(CLI::IsMember({"predictions", "candidates", "confusion", "rules", "verification"}))
-        ->capture_default_str();
-  }
 }
 
 Request AttributionCommandOptions::to_request() const {
   Request request = measuring.to_request();
   request.compute_distances = false;
+  apply_settings(request);
+  return request;
+}
+
+void AttributionCommandOptions::apply_settings(Request& request) const {
   request.attribution = settings;
   request.attribution.rule = parse_rule(rule);
   if (!labels_file.empty()) request.attribution.labels = load_label_file(labels_file);
@@ -100,43 +110,53 @@ Request AttributionCommandOptions::to_request() const {
     request.attribution.impostor_files = expand_inputs(impostor_inputs);
     request.inputs.insert(request.inputs.end(), impostor_inputs.begin(), impostor_inputs.end());
   }
-  return request;
 }
 
 AttributionRun run_attribution(const Request& request, AttributionTask task) {
   AttributionRun run{run_analysis(request), {}};
+  run.roles = assign_roles_noting(run.analysis, request,
+                                  {task == AttributionTask::attribute, task != AttributionTask::attribute,
+                                   task == AttributionTask::evaluate});
+  return run;
+}
+
+SegmentRoles assign_roles_noting(Analysis& analysis, const Request& request, AttributionSteps steps) {
   const AttributionOptions& s = request.attribution;
-  run.roles = assign_roles(run.analysis, s);
-  for (const auto& w : run.roles.warnings) {
+  SegmentRoles roles = assign_roles(analysis, s);
+  for (const auto& w : roles.warnings) {
     std::cerr << "manicule: note: " << w << '\n';
-    run.analysis.notes.push_back(w);
+    analysis.notes.push_back(w);
   }
-  auto& p = run.analysis.provenance.parameters;
-  p.emplace_back("measure", std::string(measure_info(request.measure).name) + " (" +
-                                std::string(measure_info(request.measure).citation) + ")");
+  auto& p = analysis.provenance.parameters;
+  bool has_measure = false;
+  for (const auto& entry : p) has_measure = has_measure || entry.first == "measure";
+  if (!has_measure)
+    p.emplace_back("measure", std::string(measure_info(request.measure).name) + " (" +
+                                  std::string(measure_info(request.measure).citation) + ")");
   p.emplace_back("candidate rule", rule_name(s.rule) + (s.rule == CandidateRule::weighted_centroid
                                                              ? ", spread " + number_text(s.weight_spread)
                                                              : std::string()));
   p.emplace_back("z-score limit", s.z_limit > 0 ? "+-" + number_text(s.z_limit) : "none");
   p.emplace_back("labels", s.labels.empty() ? "from the edition"
                                             : "from the edition, overridden by " + s.labels.front().source);
-  p.emplace_back("candidates", std::to_string(run.roles.candidates.size()));
-  p.emplace_back("questioned segments", std::to_string(run.roles.with_role(SegmentRole::questioned).size()));
+  p.emplace_back("candidates", std::to_string(roles.candidates.size()));
+  p.emplace_back("questioned segments", std::to_string(roles.with_role(SegmentRole::questioned).size()));
   p.emplace_back("seed", std::to_string(s.seed));
-  if (task == AttributionTask::attribute) {
+  if (steps.ranking) {
     p.emplace_back("stability", std::to_string(s.resamples) + " random subsets of " +
                                     number_text(s.resample_share * 100) + "% of the features");
-  } else {
+  }
+  if (steps.impostors) {
     p.emplace_back("general impostors", std::to_string(s.impostor_iterations) + " rounds, " +
                                             number_text(s.impostor_feature_share * 100) + "% of the features and " +
                                             std::to_string(s.impostors_per_iteration) + " impostors a round");
     if (!s.impostor_files.empty()) p.emplace_back("impostor files", std::to_string(s.impostor_files.size()));
   }
-  if (task == AttributionTask::evaluate) {
+  if (steps.evaluation) {
     p.emplace_back("held out", s.leave_out_files ? "whole files" : "segments");
     p.emplace_back("held-out author among the impostors", s.author_absent ? "no" : "yes");
   }
-  return run;
+  return roles;
 }
 
 CommandRunner attribution_command(CLI::App& app, const std::string& name, const std::string& description,

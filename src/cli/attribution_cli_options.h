@@ -20,6 +20,16 @@ namespace manicule::cli {
 
 enum class AttributionTask { attribute, verify, evaluate };
 
+// What a run computes, for the parameters it records (annotate may rank and verify at once).
+struct AttributionSteps {
+  bool ranking = false;     // attribute: candidates ranked, stability
+  bool impostors = false;   // verify / evaluate: General Impostors
+  bool evaluation = false;  // evaluate: leave-one-out
+};
+
+// Ranks of the most frequent features attribution uses by default (docs/attribution.md).
+inline constexpr const char* kAttributionRanks = "1-2000";
+
 struct AttributionCommandOptions {
   MeasureCommandOptions measuring;
   std::string labels_file;
@@ -31,7 +41,13 @@ struct AttributionCommandOptions {
   std::string table = "predictions";  // evaluate: which TSV table
 
   void add_to(CLI::App& command, AttributionTask task);
+  // Only the attribution settings (labels, rule, z limit, seed, warnings), with the
+  // stability and the General Impostors options as asked: for a command that has its own
+  // selection and analysis options (annotate).
+  void add_settings(CLI::App& command, bool stability, bool impostors);
   Request to_request() const;
+  // Fills request.attribution; impostor folders are added to the inputs.
+  void apply_settings(Request& request) const;
 };
 
 struct AttributionRun {
@@ -41,6 +57,10 @@ struct AttributionRun {
 
 // Reads and measures (no distance matrix), assigns roles, prints notes to standard error.
 AttributionRun run_attribution(const Request& request, AttributionTask task);
+
+// Assigns the segment roles of an analysed run, prints and keeps the notes, and records
+// the attribution settings in the provenance.
+SegmentRoles assign_roles_noting(Analysis& analysis, const Request& request, AttributionSteps steps);
 
 // A whole attribution command: its options, the run, `compute` (which fills the
 // Analysis) and the output in the chosen format.

@@ -1,10 +1,12 @@
 // `manicule show`: lists the results stored in an annotated edition (or a separate
 // results file) without recomputing anything: each segment's profile and nearest
-// segments, the distances written, the PCA coordinates, and the run's settings.
+// segments, the distances written, the PCA coordinates, attribution and verification
+// results with their caution, and the run's settings.
 #include <iostream>
 
 #include <nlohmann/json.hpp>
 
+#include "attribution/attribution_result.h"
 #include "cli/commands.h"
 #include "cli/table_output.h"
 #include "standoff/stored_results.h"
@@ -57,19 +59,38 @@ nlohmann::json results_json(const StoredResults& r) {
   }
   for (const auto& [id, value] : r.values)
     if (value.value("type", "") == "pcaSummary") pca = value;
-  return {{"file", r.file},
+  nlohmann::json attributions = nlohmann::json::array(), verifications = nlohmann::json::array();
+  for (const auto& a : r.annotations)
+    for (const auto& [type, target] : a.pointers) {
+      auto v = r.values.find(target.size() > 1 ? target.substr(1) : "");
+      if (type != "result" || v == r.values.end()) continue;
+      nlohmann::json row = v->second;
+      const std::string kind = row.value("type", "");
+      row.erase("type");
+      row["target"] = a.target;
+      if (kind == "attributionResult") attributions.push_back(row);
+      if (kind == "verificationResult") verifications.push_back(row);
+    }
+  nlohmann::json out = {{"file", r.file},
           {"standoff", r.standoff_id},
           {"application", {{"version", r.version}, {"when", r.when}, {"settings", r.settings}}},
           {"segments", segments},
           {"distances", distances},
           {"pca", pca}};
+  if (!attributions.empty()) out["attributions"] = attributions;
+  if (!verifications.empty()) out["verifications"] = verifications;
+  if (!attributions.empty() || !verifications.empty()) out["caution"] = kAttributionCaution;
+  return out;
 }
 
 void print_tsv(const nlohmann::json& doc) {
-  write_tsv_parameters(std::cout, {{"file", doc["file"].get<std::string>()},
-                                   {"written by", "manicule " + doc["application"]["version"].get<std::string>()},
-                                   {"when", doc["application"]["when"].get<std::string>()},
-                                   {"settings", doc["application"]["settings"].get<std::string>()}});
+  std::vector<std::pair<std::string, std::string>> head{
+      {"file", doc["file"].get<std::string>()},
+      {"written by", "manicule " + doc["application"]["version"].get<std::string>()},
+      {"when", doc["application"]["when"].get<std::string>()},
+      {"settings", doc["application"]["settings"].get<std::string>()}};
+  if (doc.contains("caution")) head.emplace_back("caution", doc["caution"].get<std::string>());
+  write_tsv_parameters(std::cout, head);
   write_tsv_row(std::cout, {"kind", "segment", "other", "name", "value"});
   for (const auto& s : doc["segments"]) {
     std::string seg = cell(s.value("segment", nlohmann::json()));
@@ -89,6 +110,20 @@ void print_tsv(const nlohmann::json& doc) {
   for (const auto& [key, value] : doc["pca"].items())
     if (value.is_object() && value.contains("explainedVarianceRatio"))
       write_tsv_row(std::cout, {"pca-variance", "", "", key, cell(value["explainedVarianceRatio"])});
+  const nlohmann::json none;
+  for (const auto& a : doc.value("attributions", nlohmann::json::array())) {
+    std::string seg = cell(a.value("segment", none));
+    for (const auto& c : a.value("candidates", nlohmann::json::array()))
+      write_tsv_row(std::cout, {"candidate", seg, cell(c.value("candidate", none)), "rank " + cell(c.value("rank", none)),
+                                cell(c.value("distance", none))});
+    for (const char* key : {"margin", "stability"})
+      if (a.contains(key)) write_tsv_row(std::cout, {"attribution", seg, "", key, cell(a[key])});
+  }
+  for (const auto& v : doc.value("verifications", nlohmann::json::array()))
+    for (const char* key : {"score", "decision"})
+      if (v.contains(key))
+        write_tsv_row(std::cout, {"verification", cell(v.value("segment", none)), cell(v.value("candidate", none)), key,
+                                  cell(v[key])});
 }
 
 }  // namespace

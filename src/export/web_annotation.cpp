@@ -72,6 +72,10 @@ nlohmann::ordered_json annotation_json(const StoredAnnotation& a, const std::str
   nlohmann::ordered_json body = nlohmann::ordered_json::array();
   if (!note.empty())
     body.push_back({{"type", "TextualBody"}, {"value", note}, {"format", "text/plain"}, {"language", "en"}});
+  // The caution of an attribution travels with it (W3C Web Annotation purpose "commenting").
+  if (!a.caution.empty())
+    body.push_back({{"type", "TextualBody"}, {"purpose", "commenting"}, {"value", a.caution},
+                    {"format", "text/plain"}, {"language", "en"}});
   for (auto& b : bodies) body.push_back(std::move(b));
   nlohmann::ordered_json out{{"@context", kContext}, {"id", id}, {"type", "Annotation"}};
   if (!a.motivation.empty()) out["motivation"] = a.motivation;

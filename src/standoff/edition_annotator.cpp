@@ -134,12 +134,14 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
                                                              : snapshot.path;
     edition_of_file[snapshot.path] = open.size() - 1;
   }
-  std::vector<std::size_t> edition_of(analysis.segments.size());
+  // Segments of files that are read but not written into (impostor texts of a
+  // verification) have no edition: nothing is written about them, and a pointer to one
+  // names its file.
+  constexpr std::size_t kNoEdition = static_cast<std::size_t>(-1);
+  std::vector<std::size_t> edition_of(analysis.segments.size(), kNoEdition);
   for (std::size_t s = 0; s < analysis.segments.size(); ++s) {
     auto it = edition_of_file.find(analysis.segments[s].file);
-    if (it == edition_of_file.end())
-      throw Error(ErrorKind::internal, "a segment comes from a file that was not read: " + analysis.segments[s].file);
-    edition_of[s] = it->second;
+    if (it != edition_of_file.end()) edition_of[s] = it->second;
   }
 
   std::vector<std::size_t> added(open.size(), 0);
@@ -161,12 +163,18 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
   IdRegistry results_ids;
   std::vector<SegmentIds> segment_ids(analysis.segments.size());
   for (std::size_t s = 0; s < analysis.segments.size(); ++s)
-    segment_ids[s] = claim_segment_ids(separate ? results_ids : open[edition_of[s]].ids, analysis.segments[s].local_id);
+    if (edition_of[s] != kNoEdition)
+      segment_ids[s] = claim_segment_ids(separate ? results_ids : open[edition_of[s]].ids, analysis.segments[s].local_id);
 
   auto pointers_from = [&](const std::string& document) {
     return [&, document](std::size_t s) {
-      const Edition& e = open[edition_of[s]];
       std::vector<std::string> out;
+      if (edition_of[s] == kNoEdition) {
+        for (const auto& p : analysis.segments[s].pointers)
+          out.push_back(relative_uri(document, analysis.segments[s].file) + "#" + strip_hash(p));
+        return out;
+      }
+      const Edition& e = open[edition_of[s]];
       bool same = !separate && e.document_path == document;
       for (const auto& p : analysis.segments[s].pointers)
         out.push_back((same ? "" : relative_uri(document, e.snapshot->path)) + "#" + strip_hash(p));
@@ -177,6 +185,11 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     return [&, document](std::size_t s) {
       std::vector<std::string> p = pointers_from(document)(s);
       if (p.size() == 1) return p.front();
+      if (edition_of[s] == kNoEdition) {
+        std::string all;
+        for (const auto& one : p) all += (all.empty() ? "" : " ") + one;
+        return all;
+      }
       const Edition& e = open[edition_of[s]];
       if (separate || e.document_path == document) return "#" + segment_ids[s].join;
       return relative_uri(document, e.document_path) + "#" + segment_ids[s].join;
@@ -193,7 +206,8 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
   std::vector<PreparedOutput> outputs;
   if (separate) {
     StandoffTarget target;
-    for (std::size_t s = 0; s < analysis.segments.size(); ++s) target.members.push_back(s);
+    for (std::size_t s = 0; s < analysis.segments.size(); ++s)
+      if (edition_of[s] != kNoEdition) target.members.push_back(s);
     target.pointers = pointers_from(settings.output);
     target.reference = reference_from(settings.output);
     target.segment_ids = segment_ids;

@@ -45,8 +45,9 @@ struct PreparedOutput {
 // are, the analysis is repeated without them and a note says so.
 Analysis analyse_for_standoff(const Request& request, const std::vector<std::string>& files);
 
-// `analysis` must come from `editions` (same paths); with add_ids its segments are
-// renamed to the ids given. Throws Error(usage) for a bad combination of settings,
+// `analysis` must come from `editions` (same paths), and may hold segments of further
+// files that were read but are not written into (impostor texts): nothing is written
+// about those. With add_ids the editions' segments are renamed to the ids given. Throws Error(usage) for a bad combination of settings,
 // Error(bad_input) for an edition that cannot be written into safely.
 std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::vector<FileSnapshot>& editions,
                                                const AnnotateSettings& settings);

@@ -31,6 +31,7 @@ StandoffBuilder::StandoffBuilder(const Analysis& analysis, const StandoffTarget&
   pca_summary_id_ = ids_.claim(p + "pca");
   for (const SegmentSummary& s : analysis.segments) ++label_count_[s.label.empty() ? s.local_id : s.label];
   for (std::size_t m : target.members) member_files_.insert(analysis.segments[m].file);
+  member_set_.insert(target.members.begin(), target.members.end());
   row_of_.assign(analysis.segments.size(), -1);
   if (analysis.distances)
     for (std::size_t r = 0; r < analysis.distances->rows.size(); ++r)
@@ -83,6 +84,8 @@ XmlNode StandoffBuilder::standoff() const {
   add_profiles(parts);
   add_distances(parts);
   add_pca(parts);
+  add_attributions(parts);
+  add_verifications(parts);
   XmlNode standoff = XmlNode::element("standOff", {{"xml:id", standoff_id_}, {"type", std::string(kOurStandoffType)}});
   standoff.add(std::move(parts.annotations));
   if (parts.joins.children.size() > 1) standoff.add(std::move(parts.joins));

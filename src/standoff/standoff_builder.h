@@ -18,8 +18,13 @@
 // run asked, --neighbours), one link per unordered pair; with all_pairs, every pair of
 // measured segments that involves a segment of this document.
 // Numbers are written in the shortest form that reads back as the same double.
-// Each result kind has its own add_* function; a new kind (attribution, once Analysis
-// carries it) is one more function and one more line in standoff().
+// Attribution and verification (standoff_attribution.cpp), for questioned segments of this
+// document: an annotation ("assessing"; a verification that reached a decision
+// "classifying", tei-conventions.md section 6) with a note for people, the caution as a
+// second note (type "caution"), and a ptr to its fs (attributionResult: the ranked
+// candidates with distances, margin and stability; verificationResult: score, band,
+// decision), which carries the caution too.
+// Each result kind has its own add_* function and one line in standoff().
 #pragma once
 #include <cstddef>
 #include <functional>
@@ -72,6 +77,9 @@ class StandoffBuilder {
   void add_profiles(Parts& parts) const;
   void add_distances(Parts& parts) const;
   void add_pca(Parts& parts) const;
+  void add_attributions(Parts& parts) const;
+  void add_verifications(Parts& parts) const;
+  bool is_member(std::size_t segment) const { return member_set_.count(segment) != 0; }
 
   XmlNode annotation(const std::string& id, const std::string& target, const std::string& motivation,
                      const std::string& note) const;
@@ -88,6 +96,7 @@ class StandoffBuilder {
   std::vector<long> pca_row_of_;
   std::map<std::string, int> label_count_;  // how many segments bear each label
   std::set<std::string> member_files_;
+  std::set<std::size_t> member_set_;
   std::string standoff_id_, application_id_, annotations_id_, joins_id_, links_id_, values_id_;
   std::string distances_annotation_id_, pca_annotation_id_, pca_summary_id_;
 };

@@ -97,12 +97,67 @@ std::string settings_description(const Analysis& analysis, bool all_pairs, const
          (all_pairs ? std::string("all") : "each segment's " + k_nearest(analysis) + " nearest") + ".";
   }
   if (analysis.pca) d += " PCA on " + parameter(analysis, "pca input") + ".";
+  if (!analysis.attributions.empty() || !analysis.verifications.empty()) {
+    d += " Attribution:";
+    bool first = true;
+    for (const char* key : {"candidate rule", "z-score limit", "labels", "candidates", "questioned segments", "seed",
+                            "stability", "general impostors", "impostor files"}) {
+      std::string v = parameter(analysis, key);
+      if (v.empty()) continue;
+      d += std::string(first ? " " : "; ") + key + " " + v;
+      first = false;
+    }
+    d += ".";
+  }
   if (!inputs.empty()) {
     d += " Results point into:";
     for (std::size_t i = 0; i < inputs.size(); ++i) d += (i ? "; " : " ") + inputs[i];
     d += ".";
   }
   return d;
+}
+
+std::string run_measure_word(const Analysis& analysis) {
+  if (analysis.distances) return measure_word(analysis);
+  std::string m = parameter(analysis, "measure");
+  return m.substr(0, m.find(" ("));
+}
+
+std::string attribution_note(const Analysis& analysis, const AttributionResult& result, const std::string& label) {
+  const SegmentSummary& s = analysis.segments[result.segment];
+  std::string note = "Candidates for the " + (s.unit == "whole" ? std::string("text") : s.unit) + " " + label +
+                     " (" + std::to_string(s.tokens) + " words), nearest first by " + run_measure_word(analysis) +
+                     " (" + result.rule + "):";
+  for (std::size_t i = 0; i < result.candidates.size(); ++i)
+    note += (i ? ", " : " ") + result.candidates[i].candidate + " " + rounded(result.candidates[i].distance);
+  note += ".";
+  if (result.candidates.size() > 1) note += " Margin between the first two: " + rounded(result.margin) + ".";
+  if (result.resamples > 0 && !result.candidates.empty())
+    note += " " + result.candidates.front().candidate + " first in " + rounded(100 * result.stability, "%.0f") +
+            "% of " + std::to_string(result.resamples) + " random subsets of " +
+            rounded(100 * result.resample_share, "%.0f") + "% of the features.";
+  if (!result.edition_conjecture.empty())
+    note += " The edition conjectures " + result.edition_conjecture + ".";
+  for (const auto& w : result.warnings) note += " Warning: " + w + (w.empty() || w.back() == '.' ? "" : ".");
+  return note;
+}
+
+std::string verification_note(const Analysis& analysis, const VerificationResult& result, const std::string& label) {
+  const SegmentSummary& s = analysis.segments[result.segment];
+  std::string note = "General Impostors verification (Koppel & Winter 2014) of the " +
+                     (s.unit == "whole" ? std::string("text") : s.unit) + " " + label + " against " +
+                     result.candidate + ": score " + rounded(result.score, "%.2f") + " (share of " +
+                     std::to_string(result.iterations) + " rounds in which " + result.candidate +
+                     " was nearer than every impostor, " + std::to_string(result.impostors_per_iteration) +
+                     " drawn each round from " + std::to_string(result.impostor_pool) + "); " + result.decision;
+  if (analysis.verification_band && analysis.verification_band->calibrated)
+    note += " under the undecided band " + rounded(analysis.verification_band->low, "%.2f") + "-" +
+            rounded(analysis.verification_band->high, "%.2f") + " calibrated on this run's labelled segments";
+  else if (analysis.verification_band)
+    note += " read against 0.5 (too few labelled segments to calibrate an undecided band)";
+  note += ".";
+  for (const auto& w : result.warnings) note += " Warning: " + w + (w.empty() || w.back() == '.' ? "" : ".");
+  return note;
 }
 
 }  // namespace manicule

@@ -24,6 +24,19 @@ std::string distances_note(const Analysis& analysis, bool all_pairs, std::size_t
 // The components and how much of the variance each explains.
 std::string pca_note(const Analysis& analysis);
 
+// "Candidates for the letter L12, nearest first by cosine-delta (weighted centroid): Dunnock
+// 0.612, Pellow 0.701, ...; margin 0.089; Dunnock first in 93% of 100 resampled feature
+// sets." plus the size warnings.
+std::string attribution_note(const Analysis& analysis, const AttributionResult& result, const std::string& label);
+
+// "General Impostors: Dunnock against 11 impostors, score 0.97 (undecided band 0.40-0.90):
+// same author." plus the warnings.
+std::string verification_note(const Analysis& analysis, const VerificationResult& result, const std::string& label);
+
+// The measure's user name from the run's parameters ("cosine-delta"), with or without
+// a distance matrix.
+std::string run_measure_word(const Analysis& analysis);
+
 // Everything a reader needs to repeat the run: unit, selection, tokenizer, features,
 // measure, pairs written, and the editions (with SHA-256) the results point into.
 std::string settings_description(const Analysis& analysis, bool all_pairs, const std::vector<std::string>& inputs);

@@ -135,7 +135,7 @@ StoredAnnotation annotation_of(const Node& a) {
   s.target = a.attr("target");
   s.motivation = a.attr("motivation");
   for (const auto& c : a.children) {
-    if (c->name == "note") s.note = collapse(c->text);
+    if (c->name == "note") (c->attr("type") == "caution" ? s.caution : s.note) = collapse(c->text);
     if (c->name == "ptr") s.pointers.emplace_back(c->attr("type"), c->attr("target"));
     if (c->name == "respStmt")
       if (const Node* name = c->child("name")) {

@@ -17,6 +17,7 @@ namespace manicule {
 struct StoredAnnotation {
   std::string id, target, motivation;
   std::string note;
+  std::string caution;  // note[@type="caution"] of attribution and verification results
   std::string created;  // revisionDesc/change[@status="created"]/@when
   std::string creator;  // respStmt/name, e.g. "manicule 0.1.0"
   std::string creator_ref;  // its @ref, e.g. "#mcl-app"

@@ -1,0 +1,144 @@
+// StandoffBuilder, continued: attribution and verification results of the questioned
+// segments this document holds (tei-conventions.md section 8c, extended with every
+// candidate, the stability and the caution).
+#include <cstdint>
+#include <string>
+
+#include "standoff/edition_splice.h"
+#include "standoff/standoff_builder.h"
+#include "standoff/standoff_wording.h"
+
+namespace manicule {
+
+namespace {
+
+XmlNode& add_feature(XmlNode& fs, const std::string& name) { return fs.add(XmlNode::element("f", {{"name", name}})); }
+
+XmlNode numeric(const std::string& value) { return XmlNode::element("numeric", {{"value", value}}); }
+XmlNode numeric(double value) { return numeric(format_number(value)); }
+XmlNode count(std::size_t value) { return numeric(std::to_string(value)); }
+
+// TEI symbol/@value is teidata.word: no spaces ("weighted centroid" -> "weighted-centroid").
+XmlNode symbol(std::string value) {
+  for (char& c : value)
+    if (c == ' ') c = '-';
+  return XmlNode::element("symbol", {{"value", value}});
+}
+
+void add_strings(XmlNode& fs, const std::string& name, const std::vector<std::string>& values) {
+  if (values.empty()) return;
+  XmlNode& list = add_feature(fs, name).add(XmlNode::element("vColl", {{"org", "list"}}));
+  for (const auto& v : values) list.add_text_element("string", v);
+}
+
+// A candidate label that is a pointer into the edition ("#p-pellow", a person's id from
+// @who or correspAction/persName/@ref) is pointed at from this document: through the
+// document that holds the candidate's segment ("" here, "letters.xml" elsewhere).
+std::string candidate_pointer(const std::string& label, const std::string& segment_reference) {
+  if (label.size() < 2 || label[0] != '#' || label.find(' ') != std::string::npos) return "";
+  std::string first = segment_reference.substr(0, segment_reference.find(' '));
+  return first.substr(0, first.find('#')) + label;
+}
+
+std::string label_key(const std::string& label) {
+  return id_key(!label.empty() && label[0] == '#' ? label.substr(1) : label);
+}
+
+}  // namespace
+
+void StandoffBuilder::add_attributions(Parts& parts) const {
+  const std::string prefix(kOurIdPrefix);
+  for (const AttributionResult& r : analysis_.attributions) {
+    if (!is_member(r.segment)) continue;
+    const std::string key = target_.segment_ids[r.segment].key;
+    const std::string value_id = ids_.claim(prefix + "attr-" + key);
+    XmlNode fs = XmlNode::element("fs", {{"xml:id", value_id}, {"type", "attributionResult"}});
+    add_feature(fs, "segment").add_text_element("string", analysis_.segments[r.segment].id);
+    add_feature(fs, "measure").add(symbol(run_measure_word(analysis_)));
+    add_feature(fs, "rule").add(symbol(r.rule));
+    add_feature(fs, "scoreType").add(symbol("distance"));
+    if (!r.candidates.empty()) {
+      add_feature(fs, "candidate").add_text_element("string", r.candidates.front().candidate);
+      add_feature(fs, "score").add(numeric(r.candidates.front().distance));
+    }
+    add_feature(fs, "margin").add(numeric(r.margin));
+    add_feature(fs, "stability").add(numeric(r.stability));
+    add_feature(fs, "resamples").add(count(r.resamples));
+    add_feature(fs, "resampleShare").add(numeric(r.resample_share));
+    add_feature(fs, "seed").add(numeric(std::to_string(r.seed)));
+    add_feature(fs, "textTokens").add(count(analysis_.segments[r.segment].tokens));
+    if (!r.edition_conjecture.empty()) add_feature(fs, "editionConjecture").add_text_element("string", r.edition_conjecture);
+    XmlNode& list = add_feature(fs, "candidates").add(XmlNode::element("vColl", {{"org", "list"}}));
+    for (const CandidateDistance& c : r.candidates) {
+      XmlNode& entry = list.add(XmlNode::element("fs", {{"type", "candidateDistance"}}));
+      std::string pointer = candidate_pointer(c.candidate, target_.reference(c.nearest_segment));
+      add_feature(entry, "candidate")
+          .add_text_element("string", c.candidate, pointer.empty() ? std::vector<std::pair<std::string, std::string>>{}
+                                                                   : std::vector<std::pair<std::string, std::string>>{
+                                                                         {"corresp", pointer}});
+      add_feature(entry, "rank").add(count(c.rank));
+      add_feature(entry, "distance").add(numeric(c.distance));
+      add_feature(entry, "nearestSegment").add_text_element("string", analysis_.segments[c.nearest_segment].id);
+      add_feature(entry, "nearestDistance").add(numeric(c.nearest_distance));
+      add_feature(entry, "nearestRank").add(count(c.nearest_rank));
+      add_feature(entry, "segments").add(count(c.segments));
+      add_feature(entry, "words").add(count(c.words));
+    }
+    add_strings(fs, "warnings", r.warnings);
+    add_feature(fs, "caution").add_text_element("string", r.caution);
+    parts.values.add(std::move(fs));
+
+    XmlNode a = annotation(ids_.claim(prefix + "ann-attr-" + key), target_.reference(r.segment), "assessing",
+                           attribution_note(analysis_, r, label_from_here(r.segment)));
+    a.add_text_element("note", r.caution, {{"type", "caution"}, {"xml:lang", "en"}});
+    if (!r.candidates.empty()) {
+      const CandidateDistance& first = r.candidates.front();
+      std::string pointer = candidate_pointer(first.candidate, target_.reference(first.nearest_segment));
+      if (!pointer.empty()) a.add(XmlNode::element("ptr", {{"type", "candidate"}, {"target", pointer}}));
+    }
+    a.add(XmlNode::element("ptr", {{"type", "result"}, {"target", "#" + value_id}}));
+    parts.annotations.add(std::move(a));
+  }
+}
+
+void StandoffBuilder::add_verifications(Parts& parts) const {
+  const std::string prefix(kOurIdPrefix);
+  for (const VerificationResult& r : analysis_.verifications) {
+    if (!is_member(r.segment)) continue;
+    const std::string key = target_.segment_ids[r.segment].key + "-" + label_key(r.candidate);
+    const std::string value_id = ids_.claim(prefix + "verif-" + key);
+    XmlNode fs = XmlNode::element("fs", {{"xml:id", value_id}, {"type", "verificationResult"}});
+    add_feature(fs, "segment").add_text_element("string", analysis_.segments[r.segment].id);
+    add_feature(fs, "method").add(symbol("general-impostors"));
+    add_feature(fs, "measure").add(symbol(run_measure_word(analysis_)));
+    add_feature(fs, "candidate").add_text_element("string", r.candidate);
+    add_feature(fs, "score").add(numeric(r.score));
+    add_feature(fs, "calibratedScore").add(numeric(r.calibrated_score));
+    add_feature(fs, "decision").add(symbol(r.decision));
+    if (analysis_.verification_band) {
+      const VerificationBand& band = *analysis_.verification_band;
+      add_feature(fs, "bandLow").add(numeric(band.low));
+      add_feature(fs, "bandHigh").add(numeric(band.high));
+      add_feature(fs, "bandCalibrated").add(XmlNode::element("binary", {{"value", band.calibrated ? "true" : "false"}}));
+    }
+    add_feature(fs, "iterations").add(count(r.iterations));
+    add_feature(fs, "featureShare").add(numeric(r.feature_share));
+    add_feature(fs, "impostorsPerIteration").add(count(r.impostors_per_iteration));
+    add_feature(fs, "impostorPool").add(count(r.impostor_pool));
+    add_feature(fs, "seed").add(numeric(std::to_string(r.seed)));
+    add_strings(fs, "warnings", r.warnings);
+    add_feature(fs, "caution").add_text_element("string", r.caution);
+    parts.values.add(std::move(fs));
+
+    // A thresholded decision commits to a label (classifying); an undecided score only
+    // assesses (tei-conventions.md section 6).
+    const char* motivation = r.decision == "undecided" ? "assessing" : "classifying";
+    XmlNode a = annotation(ids_.claim(prefix + "ann-verif-" + key), target_.reference(r.segment), motivation,
+                           verification_note(analysis_, r, label_from_here(r.segment)));
+    a.add_text_element("note", r.caution, {{"type", "caution"}, {"xml:lang", "en"}});
+    a.add(XmlNode::element("ptr", {{"type", "result"}, {"target", "#" + value_id}}));
+    parts.annotations.add(std::move(a));
+  }
+}
+
+}  // namespace manicule

@@ -1,0 +1,177 @@
+"""`annotate --attribute --verify`: attribution and verification written into the invented
+edition examples/ferry-letters.xml as TEI standoff, checked without our own code:
+- the edition's bytes are kept: difflib finds only insertions, of elements write-back may
+  add, where TEI allows them (tests/pylib/standoff_check.py);
+- the result validates against TEI P5 4.12.0 tei_all.rng (jing);
+- which letters are questioned and who the candidates are is read here with lxml from
+  correspDesc/correspAction[@type='sent']/persName (a sender with @ref and no @cert is
+  known; none, no @ref, or @cert is questioned: TEI P5 13.3.2.1 on @cert, 2.4.6 on
+  correspDesc), and each questioned letter has one annotation with motivation "assessing"
+  and each verification "classifying" when it decides and "assessing" when undecided
+  (tei-conventions.md section 6, after W3C Web Annotation motivations);
+- the candidate distances in the fs are recomputed with numpy from `profile --values
+  counts` (z-scores over the run with ddof=1, limited to +-2, cosine distance, weighted
+  centroid exp(-(d/d_min - 1)/0.2): docs/attribution.md);
+- every attribution and verification annotation carries the caution, in TEI and in the
+  W3C Web Annotation export (a body with purpose "commenting");
+- with --impostors and --standoff-file, the impostor edition is read but never written
+  (SHA-256 by hashlib) and nothing of it is written as a profile.
+"""
+import hashlib
+import json
+import os
+import shutil
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import numpy as np  # noqa: E402
+from lxml import etree  # noqa: E402
+from standoff_check import NS, PARSER, check_insertions, id_targets, jing_errors  # noqa: E402
+
+TEI = "{http://www.tei-c.org/ns/1.0}"
+XML_ID = "{http://www.w3.org/XML/1998/namespace}id"
+LETTERS = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
+CAUTION = "Statistical evidence, not proof"
+BASE = ["--unit", "letter", "--min-tokens", "200"]
+SETTINGS = ["--resamples", "20", "--iterations", "40"]
+tmp = tempfile.mkdtemp()
+
+
+def senders(path):
+    """letter id -> candidate label ('#p-...') or '' (questioned), read with lxml."""
+    tree = etree.parse(path, PARSER)
+    out = {}
+    for div in tree.iterfind(".//tei:text//tei:div[@type='letter']", NS):
+        cd = tree.xpath(".//tei:correspDesc[@xml:id=$id]", namespaces=NS, id=div.get("decls").lstrip("#"))[0]
+        person = cd.find("tei:correspAction[@type='sent']/tei:persName", NS)
+        known = person is not None and person.get("ref") and person.get("cert") is None
+        out[div.get(XML_ID)] = person.get("ref") if known else ""
+    return out
+
+
+def fs_value(fs, name):
+    f = fs.find("tei:f[@name='%s']" % name, NS)
+    if f is None:
+        return None
+    v = f[0]
+    return float(v.get("value")) if v.tag == TEI + "numeric" else v.get("value") if v.tag == TEI + "symbol" else v.text
+
+
+# --- in place ------------------------------------------------------------------------------
+edition = os.path.join(tmp, "ferry-letters.xml")
+shutil.copy(LETTERS, edition)
+before = open(edition, "rb").read()
+proc = mtest.run(["annotate"] + BASE + SETTINGS + ["--attribute", "--verify", "--in-place", edition])
+mtest.check(CAUTION in proc.stderr, "annotate --attribute does not print the caution: " + proc.stderr)
+after = open(edition, "rb").read()
+_, problems = check_insertions(before, after)
+mtest.check(not problems, "edition bytes not kept or insertions misplaced: %s" % problems[:3])
+errors = jing_errors(mtest.SCHEMA, [edition])
+mtest.check(not any(errors.values()), "tei_all (jing) rejects the annotated edition: %s" % errors)
+
+tree = etree.fromstring(after, PARSER)
+ids = id_targets(tree)
+who = senders(LETTERS)
+questioned = sorted(k for k, v in who.items() if not v)
+candidates = sorted(set(v for v in who.values() if v))
+mtest.check(questioned == ["L07", "L10", "L12"], "lxml finds questioned letters %s" % questioned)
+
+# numpy: the run's counts and sizes, the same feature ranks as annotate --attribute (1-2000).
+rows = mtest.read_tsv(mtest.run(["profile", "--values", "counts", "--ranks", "1-2000"] + BASE + [LETTERS]).stdout)
+seg_ids = [r["segment"] for r in rows]
+features = [k for k in rows[0] if k != "segment"]
+counts = np.array([[float(r[f]) for f in features] for r in rows])
+words = {s["segment"]: s["tokens"] for s in
+         json.loads(mtest.run(["segments", "--format", "json", "--unit", "letter", LETTERS]).stdout)["segments"]}
+rel = counts / np.array([words[i] for i in seg_ids], dtype=float)[:, None]
+sd = rel.std(axis=0, ddof=1)
+Z = np.clip(np.where(sd > 0, (rel - rel.mean(axis=0)) / np.where(sd > 0, sd, 1), 0.0), -2, 2)
+
+
+def cosine(a, b):
+    return max(0.0, 1 - float(a @ b) / (np.linalg.norm(a) * np.linalg.norm(b)))
+
+
+def weighted_centroid(q, members):
+    d = np.array([cosine(q, m) for m in members])
+    w = np.exp(-(d / d.min() - 1) / 0.2)
+    return cosine(q, (w[:, None] * members).sum(axis=0) / w.sum())
+
+
+annotations = tree.findall(".//tei:standOff[@type='stylometry']//tei:annotation", NS)
+attribution_targets = []
+for ann in annotations:
+    result = ann.find("tei:ptr[@type='result']", NS)
+    if result is None:
+        continue
+    fs = ids[result.get("target").lstrip("#")]
+    notes = [n for n in ann.findall("tei:note", NS) if n.get("type") == "caution"]
+    mtest.check(len(notes) == 1 and notes[0].text.startswith(CAUTION), "%s lacks its caution note" % ann.get(XML_ID))
+    mtest.check(fs_value(fs, "caution").startswith(CAUTION), "%s lacks the caution" % fs.get(XML_ID))
+    letter = ann.get("target").lstrip("#")
+    mtest.check(letter in questioned, "result for %s, which the edition does not question" % letter)
+    if fs.get("type") == "attributionResult":
+        mtest.check(ann.get("motivation") == "assessing", "attribution motivation %s" % ann.get("motivation"))
+        attribution_targets.append(letter)
+        q = Z[seg_ids.index("ferry-letters#" + letter)]
+        expected = {c: weighted_centroid(q, Z[[seg_ids.index("ferry-letters#" + k) for k, v in who.items() if v == c]])
+                    for c in candidates}
+        order = sorted(candidates, key=lambda c: expected[c])
+        got = [(e.find("tei:f[@name='candidate']/tei:string", NS).text, fs_value(e, "distance"))
+               for e in fs.findall("tei:f[@name='candidates']/tei:vColl/tei:fs", NS)]
+        mtest.check([c for c, _ in got] == order, "%s: ranking %s, numpy %s" % (letter, got, order))
+        for c, d in got:
+            mtest.check(mtest.close(d, expected[c], rel=1e-9), "%s %s: distance %r, numpy %r" % (letter, c, d, expected[c]))
+        mtest.check(mtest.close(fs_value(fs, "margin"), expected[order[1]] - expected[order[0]], rel=1e-9),
+                    "%s: margin differs from numpy" % letter)
+        pointer = ann.find("tei:ptr[@type='candidate']", NS)
+        mtest.check(pointer is not None and pointer.get("target") == order[0] and order[0].lstrip("#") in ids,
+                    "%s: the candidate pointer does not name the first candidate's person" % letter)
+    else:
+        mtest.check(fs.get("type") == "verificationResult", "unexpected result fs %s" % fs.get("type"))
+        decision = fs_value(fs, "decision")
+        score = fs_value(fs, "score")
+        mtest.check(0 <= score <= 1, "verification score %r outside [0, 1]" % score)
+        expected = "assessing" if decision == "undecided" else "classifying"
+        mtest.check(ann.get("motivation") == expected, "verification %s: motivation %s for decision %s"
+                    % (ann.get(XML_ID), ann.get("motivation"), decision))
+mtest.check(sorted(attribution_targets) == questioned, "attributions written for %s" % attribution_targets)
+verified = [a for a in annotations if "verif" in (a.get(XML_ID) or "")]
+mtest.check(len(verified) == len(questioned) * len(candidates),
+            "%d verification annotations, expected one per questioned letter and candidate" % len(verified))
+
+# W3C Web Annotation export: the caution travels with every attribution annotation.
+doc = json.loads(mtest.run(["export", edition]).stdout)
+items = doc["first"]["items"] if "first" in doc else doc["items"]
+results = [a for a in items if "-attr-" in a["id"] or "-verif-" in a["id"]]
+mtest.check(len(results) == len(questioned) * (1 + len(candidates)), "%d results exported" % len(results))
+for a in results:
+    mtest.check(any(b.get("purpose") == "commenting" and b.get("value", "").startswith(CAUTION) for b in a["body"]),
+                "exported %s lacks the caution body" % a["id"])
+
+# --- impostors, separate results file -----------------------------------------------------------
+impostor = os.path.join(tmp, "impostor-letters.xml")
+with open(LETTERS, encoding="utf-8") as f:
+    text = f.read()
+with open(impostor, "w", encoding="utf-8") as f:  # the same letters under other ids, all known
+    f.write(text.replace('xml:id="L', 'xml:id="X').replace('cert="low" ', ""))
+impostor_sha = hashlib.sha256(open(impostor, "rb").read()).hexdigest()
+letters_copy = os.path.join(tmp, "letters.xml")
+shutil.copy(LETTERS, letters_copy)
+letters_sha = hashlib.sha256(open(letters_copy, "rb").read()).hexdigest()
+results_file = os.path.join(tmp, "results.xml")
+mtest.run(["annotate"] + BASE + SETTINGS + ["--verify", "--impostors", impostor, "--standoff-file", results_file,
+                                            letters_copy])
+mtest.check(hashlib.sha256(open(impostor, "rb").read()).hexdigest() == impostor_sha, "the impostor file was changed")
+mtest.check(hashlib.sha256(open(letters_copy, "rb").read()).hexdigest() == letters_sha, "--standoff-file changed the edition")
+res = etree.parse(results_file, PARSER)
+profiled = [f.find("tei:f[@name='segment']/tei:string", NS).text for f in res.iterfind(".//tei:fs[@type='styleProfile']", NS)]
+mtest.check(profiled and all(p.startswith("letters#") for p in profiled), "profiles written for %s" % profiled)
+pools = [fs_value(f, "impostorPool") for f in res.iterfind(".//tei:fs[@type='verificationResult']", NS)]
+mtest.check(pools and all(p > 12 for p in pools), "impostor pools %s do not include the impostor file's letters" % pools)
+errors = jing_errors(mtest.SCHEMA, [results_file])
+mtest.check(not any(errors.values()), "tei_all (jing) rejects the results file: %s" % errors)
+
+mtest.done()
