@@ -111,13 +111,24 @@ void ProfileBuilder::merge(const CountProfile& other) {
     throw Error(ErrorKind::usage, "cannot merge counts of " + describe(other.spec) +
                                       " into a profile of " + describe(profile_.spec));
   }
+  // Each form of `other` is looked up once, not once per segment that uses it (a word
+  // spoken by twenty speakers of a play would otherwise be hashed twenty times).
+  constexpr FeatureId kUnmapped = static_cast<FeatureId>(-1);
+  std::vector<FeatureId> ours(other.vocabulary.size(), kUnmapped);
   for (const SegmentCounts& segment : other.segments) {
     claim_id(segment.id);
     SegmentCounts copy = segment;
-    for (auto& [id, count] : copy.counts) {
-      id = profile_.vocabulary.intern(other.vocabulary.form(id));
+    bool ascending = true;
+    FeatureId previous = 0;
+    for (std::size_t k = 0; k < copy.counts.size(); ++k) {
+      FeatureId& id = copy.counts[k].first;
+      FeatureId& mapped = ours[id];
+      if (mapped == kUnmapped) mapped = profile_.vocabulary.intern(other.vocabulary.form(id));
+      id = mapped;
+      if (k > 0 && id < previous) ascending = false;
+      previous = id;
     }
-    std::sort(copy.counts.begin(), copy.counts.end());
+    if (!ascending) std::sort(copy.counts.begin(), copy.counts.end());
     profile_.segments.push_back(std::move(copy));
   }
 }
