@@ -6,6 +6,7 @@
 #include "core/error.h"
 #include "measure/blocked_pairs.h"
 #include "measure/cosine_gram.h"
+#include "profile/large_matrix.h"
 
 namespace manicule {
 
@@ -51,7 +52,7 @@ Eigen::MatrixXd pairwise_distances(const RowMatrix& rows, DistanceMeasure measur
   check_input(rows);
   const Eigen::Index n = rows.rows();
   const double features = static_cast<double>(rows.cols());
-  Eigen::MatrixXd out = Eigen::MatrixXd::Zero(n, n);
+  Eigen::MatrixXd out = zero_matrix<Eigen::MatrixXd>(n, n);
   switch (measure) {
     case DistanceMeasure::burrows_delta:  // Burrows 2002: mean absolute z difference
       blocked_pair_sums(rows, PairSum::absolute, options.threads, out);

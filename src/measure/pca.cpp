@@ -6,6 +6,7 @@
 #include <numeric>
 
 #include "core/error.h"
+#include "profile/large_matrix.h"
 
 namespace manicule {
 
@@ -49,7 +50,7 @@ PcaResult principal_components(const RowMatrix& rows, const PcaOptions& options)
 
   // Eigen-decompose the smaller of X X^T (n x n) and X^T X (p x p); eigenvalues ascend.
   const bool by_segments = n <= p;
-  Eigen::MatrixXd gram = Eigen::MatrixXd::Zero(by_segments ? n : p, by_segments ? n : p);
+  Eigen::MatrixXd gram = zero_matrix<Eigen::MatrixXd>(by_segments ? n : p, by_segments ? n : p);
   if (by_segments) {
     gram.selfadjointView<Eigen::Lower>().rankUpdate(x);
   } else {

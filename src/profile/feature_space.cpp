@@ -6,6 +6,7 @@
 #include <unordered_set>
 
 #include "core/error.h"
+#include "profile/large_matrix.h"
 
 namespace manicule {
 
@@ -124,8 +125,8 @@ FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpace
 
   const auto rows = static_cast<Eigen::Index>(kept.size());
   const auto cols = static_cast<Eigen::Index>(table.features.size());
-  table.counts = RowMatrix::Zero(rows, cols);
-  table.relative = RowMatrix::Zero(rows, cols);
+  table.counts = zero_matrix<RowMatrix>(rows, cols);
+  table.relative = zero_matrix<RowMatrix>(rows, cols);
   for (Eigen::Index r = 0; r < rows; ++r) {
     const SegmentCounts& segment = profile.segments[kept[static_cast<std::size_t>(r)]];
     table.segment_ids.push_back(segment.id);

@@ -1,4 +1,5 @@
 #include "profile/feature_table.h"
+#include "profile/large_matrix.h"
 
 #include <cmath>
 
@@ -9,7 +10,7 @@ void standardise(FeatureTable& table) {
   const Eigen::Index cols = table.relative.cols();
   table.mean = Eigen::VectorXd::Zero(cols);
   table.sd = Eigen::VectorXd::Zero(cols);
-  table.z = RowMatrix::Zero(rows, cols);
+  table.z = zero_matrix<RowMatrix>(rows, cols);
   table.report.zero_variance = 0;
   if (rows == 0) return;
   table.mean = table.relative.colwise().mean().transpose();

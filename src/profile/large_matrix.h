@@ -1,0 +1,27 @@
+// Zero-filled matrices of many megabytes (feature tables, z-scores, distance and Gram
+// matrices), backed by transparent huge pages where the kernel offers them on request
+// (the "madvise" setting, Debian's default). Every fresh 4 KiB page costs a page fault
+// when first written, and on virtual machines a fault is dear: a 2,500 x 2,500 distance
+// matrix is 12,500 of them, a fifth of an analysis's time in our measurements
+// (bench/RESULTS.md). The advice changes nothing but speed; where it is refused, pages
+// are ordinary.
+#pragma once
+#include <cstddef>
+
+#include <Eigen/Dense>
+
+namespace manicule {
+
+// Asks for huge pages on the whole 2 MiB blocks inside [data, data + bytes); small
+// ranges are left alone.
+void advise_huge_pages(void* data, std::size_t bytes);
+
+template <typename Matrix>
+Matrix zero_matrix(Eigen::Index rows, Eigen::Index cols) {
+  Matrix m(rows, cols);
+  advise_huge_pages(m.data(), sizeof(typename Matrix::Scalar) * static_cast<std::size_t>(rows * cols));
+  m.setZero();
+  return m;
+}
+
+}  // namespace manicule
