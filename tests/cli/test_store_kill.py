@@ -58,7 +58,7 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(got == expected, "after %d kills: %s" % (kills, storecheck.diff_summary(got, expected)))
     mtest.check(storecheck.integrity(victim) == "ok", "PRAGMA integrity_check fails after the final run")
 
-    for path, _, _, _, _, sha, _ in got["files"]:
+    for path, _, _, _, sha, _ in got["files"]:
         mtest.check(sha == storecheck.sha256_of(path), "stored SHA-256 of %s differs from hashlib" % path)
 
     db = storecheck.connect(victim)

@@ -54,7 +54,7 @@ with tempfile.TemporaryDirectory() as tmp:
 
     for store in (one, merged):
         mtest.check(storecheck.integrity(store) == "ok", "PRAGMA integrity_check fails on " + store)
-    for path, _, _, size, _, sha, error in a["files"]:
+    for path, _, _, size, sha, error in a["files"]:
         mtest.check(sha == storecheck.sha256_of(path), "stored SHA-256 of %s differs from hashlib" % path)
         mtest.check(size == os.path.getsize(path) and error is None, "size or error of %s" % path)
 
