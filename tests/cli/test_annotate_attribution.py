@@ -13,7 +13,8 @@ edition examples/ferry-letters.xml as TEI standoff, checked without our own code
   counts` (z-scores over the run with ddof=1, limited to +-2, cosine distance, weighted
   centroid exp(-(d/d_min - 1)/0.2): docs/attribution.md);
 - every attribution and verification annotation carries the caution, in TEI and in the
-  W3C Web Annotation export (a body with purpose "commenting");
+  W3C Web Annotation export (a body with purpose "commenting"); `show` reads back the
+  candidates and distances lxml reads in the file;
 - with --impostors and --standoff-file, the impostor edition is read but never written
   (SHA-256 by hashlib) and nothing of it is written as a profile.
 """
@@ -138,6 +139,17 @@ for ann in annotations:
         mtest.check(ann.get("motivation") == expected, "verification %s: motivation %s for decision %s"
                     % (ann.get(XML_ID), ann.get("motivation"), decision))
 mtest.check(sorted(attribution_targets) == questioned, "attributions written for %s" % attribution_targets)
+
+# `show --format json` reads back what lxml reads in the file, with the caution.
+shown = json.loads(mtest.run(["show", "--format", "json", edition]).stdout)
+mtest.check(shown.get("caution", "").startswith(CAUTION), "show --format json lacks the caution")
+by_lxml = {}
+for fs in tree.iterfind(".//tei:fs[@type='attributionResult']", NS):
+    by_lxml[fs_value(fs, "segment")] = [(e.find("tei:f[@name='candidate']/tei:string", NS).text, fs_value(e, "distance"))
+                                        for e in fs.findall("tei:f[@name='candidates']/tei:vColl/tei:fs", NS)]
+by_show = {a["segment"]: [(c["candidate"], c["distance"]) for c in a["candidates"]] for a in shown["attributions"]}
+mtest.check(by_show == by_lxml, "show lists %s, lxml reads %s" % (by_show, by_lxml))
+mtest.check(len(shown.get("verifications", [])) == len(questioned) * len(candidates), "show lists the verifications")
 verified = [a for a in annotations if "verif" in (a.get(XML_ID) or "")]
 mtest.check(len(verified) == len(questioned) * len(candidates),
             "%d verification annotations, expected one per questioned letter and candidate" % len(verified))
