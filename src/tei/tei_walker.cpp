@@ -106,6 +106,8 @@ struct TeiWalker::State {
     Capture capture = Capture::none;
     bool header = false, title_stmt = false, corresp_desc = false, corresp_sent = false, source_desc = false;
     bool person = false, cast_list = false, sp_grp = false, tei_element = false;
+    bool author_name = false;  // titleStmt/author, whose text is captured
+    bool muted = false;        // an idno inside it: an identifier, not part of the name
     std::string xml_id;
     int ordinal = 0;                                   // position among element siblings
     int same_name_index = 0;                           // position among same-name siblings
@@ -146,6 +148,7 @@ struct TeiWalker::State {
   std::vector<std::string> sp_grp_who;
   std::vector<std::string> person_stack;
   int header_depth = 0, text_depth = 0, skip_depth = 0, cast_depth = 0, source_desc_depth = 0;
+  int author_depth = 0, muted_depth = 0;  // open author captures, open idno inside them
   int corresp_index = -1;                // corresp record being read
   bool in_title_stmt = false;
   bool in_sent_action = false;
@@ -257,6 +260,14 @@ struct TeiWalker::State {
       f.capture = Capture::title;
     } else if (f.name == "author" && in_title_stmt) {
       f.capture = Capture::author;
+      f.author_name = true;
+      ++author_depth;
+    } else if (f.name == "idno" && author_depth > 0) {
+      // <author><persName>..</persName><idno type="wikidata">Q..</idno></author>: the name
+      // is the author's label; the identifier would make "(Anonym) Q4233718" of an
+      // anonymous author (then not recognised as anonymous).
+      f.muted = true;
+      ++muted_depth;
     } else if ((f.name == "person" || f.name == "personGrp") && !f.xml_id.empty()) {
       person_stack.push_back(f.xml_id);
       f.person = true;
@@ -583,6 +594,8 @@ void TeiWalker::end() {
   if (f.header) --s.header_depth;
   if (f.source_desc) --s.source_desc_depth;
   if (f.title_stmt) s.in_title_stmt = false;
+  if (f.author_name) --s.author_depth;
+  if (f.muted) --s.muted_depth;
   if (f.corresp_sent) s.in_sent_action = false;
   if (f.corresp_desc) s.corresp_index = -1;
   if (f.person) s.person_stack.pop_back();
@@ -594,7 +607,8 @@ void TeiWalker::end() {
 
 void TeiWalker::text(std::string_view chars) {
   State& s = *s_;
-  for (std::string& c : s.capture_text) c.append(chars);
+  if (s.muted_depth == 0)
+    for (std::string& c : s.capture_text) c.append(chars);
   if (!s.collecting() || s.frames.empty()) return;
   if (s.frames.back().alternation) return;  // whitespace between members
   int language = s.language_stack.empty() ? 0 : s.language_stack.back();

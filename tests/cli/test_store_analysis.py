@@ -32,7 +32,9 @@ def header_facts(path):
     header = etree.parse(path).find(TEI + "teiHeader")
     stmt = header.find("%sfileDesc/%stitleStmt" % (TEI, TEI))
     title = [e for e in stmt.findall(TEI + "title") if e.get("type") != "sub"][0]
-    author = " ".join(" ".join("".join(a.itertext()).split()) for a in stmt.findall(TEI + "author"))
+    # The author's name without its idno identifiers (Wikidata, GND), as the header reader keeps it.
+    author = " ".join(" ".join("".join(a.xpath(".//text()[not(ancestor::t:idno)]", namespaces={"t": TEI[1:-1]})).split())
+                      for a in stmt.findall(TEI + "author"))
     # The source's date (first in sourceDesc), else the header's first (docs/store.md).
     source = header.find("%sfileDesc/%ssourceDesc" % (TEI, TEI))
     date = next(source.iter(TEI + "date"), None) if source is not None else None

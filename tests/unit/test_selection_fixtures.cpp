@@ -156,3 +156,27 @@ TEST_CASE("a segment without xml:id gets a TEI xpath() pointer to its element (1
   REQUIRE(pointers.size() == 1);
   CHECK(pointers[0].rfind("xpath(/TEI[1]/text[1]/body[1]/", 0) == 0);
 }
+
+// TEI P5 2.2.1: titleStmt/author holds the author's name, and may hold an idno (13.3.1) with
+// an identifier; an anonymous work names a placeholder. The label is the name alone, and a
+// placeholder (here DraCor's "(Anonym)" with Wikidata's "anonymous", Q4233718, from memory)
+// leaves the text without a known author, so attribution questions it.
+TEST_CASE("the header author is its name without idno identifiers; an anonymous author is unknown (2.2.1, 13.3.1)") {
+  auto whole = [](const std::string& author) {
+    const std::string xml =
+        "<TEI xmlns=\"http://www.tei-c.org/ns/1.0\"><teiHeader><fileDesc><titleStmt><title>Der Fährmann</title>"
+        "<author>" + author + "</author></titleStmt><publicationStmt><p>invented</p></publicationStmt>"
+        "<sourceDesc><p>invented</p></sourceDesc></fileDesc></teiHeader>"
+        "<text><body><p>Am Ufer wartet der Fährmann.</p></body></text></TEI>";
+    auto segments = read_segments(XmlSource::buffer("author.xml", xml.data(), xml.size()), SelectionRules::make("whole", Preset::reading));
+    REQUIRE(segments.size() == 1);
+    return segments[0];
+  };
+  Segment named = whole("<persName><forename>Hanne</forename> <surname>Quillfeld</surname></persName>"
+                        "<idno type=\"wikidata\">Q000</idno><idno type=\"pnd\">000</idno>");
+  CHECK(named.author == "Hanne Quillfeld");
+  CHECK(named.authorship == Authorship::known);
+  Segment anonymous = whole("<persName>(Anonym)</persName><idno type=\"wikidata\">Q4233718</idno>");
+  CHECK(anonymous.author.empty());
+  CHECK(anonymous.authorship == Authorship::unknown);
+}
