@@ -30,7 +30,7 @@ $m tree --unit letter --min-tokens 200 --ranks 1-150 --linkage ward --format new
 
 echo
 echo "== Who wrote the unsigned letters? Candidates ranked, with margin and stability"
-$m attribute --unit letter --min-tokens 200 --format tsv examples/ferry-letters.xml | grep -v '^# [^c]' | cut -f1-7
+$m attribute --unit letter --min-tokens 200 --format tsv examples/ferry-letters.xml | awk '/^# caution/ || !/^#/' | cut -f1-7
 
 echo
 echo "== The results written back into a copy of the edition as TEI standoff: $out/ferry-letters.xml"
