@@ -39,11 +39,7 @@ std::vector<AttributionResult> attribute_questioned(const Analysis& analysis, co
                                                     unsigned threads) {
   require_candidates(roles, 2, "attribution");
   const std::vector<std::size_t> questioned = roles.with_role(SegmentRole::questioned);
-  if (questioned.empty()) {
-    throw Error(ErrorKind::nothing_selected,
-                "no questioned segment: every measured segment has a known author (give a segment an empty "
-                "label in --labels, e.g. 'file#id,', to question it)");
-  }
+  require_questioned(roles);
   const CandidateSet candidates = collect_candidates(analysis, roles);
   const ProfileSpace space = make_profile_space(analysis.table, measure, options.z_limit);
   const std::vector<ColumnSubset> resamples =

@@ -110,6 +110,10 @@ struct VerificationProblemScore {
 struct VerificationEvaluation {
   std::string problems;  // "segment against candidate" or "segment pairs"
   std::size_t same = 0, different = 0, undecided = 0;
+  // AUC is undefined unless both answers occur, c@1 and F0.5u without any problem; the
+  // fields then hold 0 and the writers print null / n/a.
+  bool auc_defined() const { return same > 0 && different > 0; }
+  bool rates_defined() const { return same + different > 0; }
   double auc = 0, c_at_1 = 0, f05u = 0;  // PAN definitions, on calibrated scores
   double raw_auc = 0;                    // AUC of the scores themselves (no band)
   std::string calibration;               // how the bands were chosen without the answers

@@ -176,6 +176,12 @@ EvaluationResult evaluate_labelled(const Analysis& analysis, const SegmentRoles&
       const auto scores = score_problems(space, problems, settings, threads);
       result.verification.push_back(cross_fitted(problems, scores, "segment pairs", options.seed));
     }
+    for (const VerificationEvaluation& v : result.verification)
+      if (v.same == 0 || v.different == 0)
+        result.warnings.push_back(v.problems + ": " + std::to_string(v.same) + " same-author and " +
+                                  std::to_string(v.different) +
+                                  " different-author problem(s); AUC needs both (and pairs need segments in "
+                                  "different files), so it is not given");
   }
   return result;
 }

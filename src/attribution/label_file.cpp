@@ -90,6 +90,8 @@ std::vector<LabelOverride> parse_label_file(std::string_view text, const std::st
     seen.emplace(fields[0], at);
     out.push_back(LabelOverride{fields[0], fields[1], at, source});
   }
+  // An empty file is most likely the wrong file: the run would silently use the edition.
+  if (out.empty()) throw Error(ErrorKind::bad_input, "no labelled row (expected lines 'segment,label')", source);
   return out;
 }
 

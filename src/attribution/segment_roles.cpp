@@ -92,6 +92,9 @@ SegmentRoles assign_roles(const Analysis& analysis, const AttributionOptions& op
         auto& [count, largest] = unmeasured_sizes[label[i]];
         ++count;
         largest = std::max(largest, s.tokens);
+      } else {
+        ++roles.questioned_too_short;
+        roles.largest_too_short = std::max(roles.largest_too_short, s.tokens);
       }
       continue;
     }
@@ -111,6 +114,18 @@ SegmentRoles assign_roles(const Analysis& analysis, const AttributionOptions& op
                              std::to_string(sizes.second) + " words)");
   }
   return roles;
+}
+
+void require_questioned(const SegmentRoles& roles) {
+  if (!roles.with_role(SegmentRole::questioned).empty()) return;
+  if (roles.questioned_too_short > 0)
+    throw Error(ErrorKind::nothing_selected,
+                std::to_string(roles.questioned_too_short) +
+                    " questioned segment(s), all shorter than the minimum size (the largest has " +
+                    std::to_string(roles.largest_too_short) + " words; lower it with --min-tokens)");
+  throw Error(ErrorKind::nothing_selected,
+              "no questioned segment: every measured segment has a known author (give a segment an empty "
+              "label in --labels, e.g. 'file#id,', to question it)");
 }
 
 std::size_t CandidateSet::index_of(const std::string& name) const {

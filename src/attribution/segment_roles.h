@@ -31,6 +31,8 @@ struct SegmentRoles {
   std::vector<std::string> candidates;  // measured candidates, sorted
   std::vector<std::size_t> table_row;   // per segment: row in Analysis::table, or npos
   std::vector<std::string> warnings;    // candidates left out and why
+  std::size_t questioned_too_short = 0;  // questioned segments below the minimum size
+  std::size_t largest_too_short = 0;     // words of the largest of them
 
   // The measured known segments of `candidate` (indices into Analysis::segments).
   std::vector<std::size_t> segments_of(const std::string& candidate) const;
@@ -38,6 +40,10 @@ struct SegmentRoles {
 };
 
 SegmentRoles assign_roles(const Analysis& analysis, const AttributionOptions& options);
+
+// Throws nothing_selected when no measured segment is questioned, saying why: questioned
+// segments too short for --min-tokens, or none questioned at all.
+void require_questioned(const SegmentRoles& roles);
 
 // The measured candidates with their known segments, as table rows and as segments.
 struct CandidateSet {

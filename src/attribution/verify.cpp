@@ -26,11 +26,7 @@ std::vector<std::string> tested_candidates(const SegmentRoles& roles, const Attr
 VerificationRun verify_questioned(const Analysis& analysis, const SegmentRoles& roles, DistanceMeasure measure,
                                   const AttributionOptions& options, unsigned threads) {
   const std::vector<std::size_t> questioned = roles.with_role(SegmentRole::questioned);
-  if (questioned.empty()) {
-    throw Error(ErrorKind::nothing_selected,
-                "no questioned segment: every measured segment has a known author (give a segment an empty "
-                "label in --labels, e.g. 'file#id,', to question it)");
-  }
+  require_questioned(roles);
   if (roles.candidates.empty()) {
     throw Error(ErrorKind::nothing_selected,
                 "verification needs a candidate with a measured segment; none is labelled (label known segments "

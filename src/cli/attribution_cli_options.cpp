@@ -1,6 +1,9 @@
 #include "cli/attribution_cli_options.h"
 
+#include <filesystem>
 #include <iostream>
+#include <map>
+#include <set>
 
 #include "attribution/candidate_ranking.h"
 #include "attribution/label_file.h"
@@ -8,6 +11,8 @@
 #include "core/facade.h"
 
 namespace manicule::cli {
+
+namespace fs = std::filesystem;
 
 namespace {
 
@@ -31,8 +36,6 @@ void AttributionCommandOptions::add_to(CLI::App& command, AttributionTask task) 
     command.add_option("--candidate", settings.verify_candidate, "verify against this candidate only (default: each)");
   if (task == AttributionTask::evaluate) {
     AttributionOptions& s = settings;
-    command.add_flag("--leave-out-files", s.leave_out_files,
-                     "hold out a segment's whole file, so that chapters of one novel never vouch for each other");
     command.add_flag("--verification", with_verification,
                      "also evaluate General Impostors verification (AUC, c@1, F0.5u)");
     command.add_flag("--author-absent", s.author_absent,
@@ -79,15 +82,18 @@ void AttributionCommandOptions::add_settings(CLI::App& command, bool stability, 
     command.add_option("--impostors", impostor_inputs,
                        "TEI files or folders whose texts serve only as impostors (repeatable)");
     command.add_option("--iterations", s.impostor_iterations, "General Impostors: rounds per problem")
-        ->check(CLI::PositiveNumber)
+        ->check(CLI::Range(std::size_t{1}, std::size_t{1000000}))
         ->capture_default_str();
     command.add_option("--feature-share", s.impostor_feature_share, "General Impostors: share of features per round")
         ->check(CLI::Range(0.01, 1.0))
         ->capture_default_str();
     command.add_option("--impostors-per-round", s.impostors_per_iteration,
                        "General Impostors: impostors drawn per round")
-        ->check(CLI::PositiveNumber)
+        ->check(CLI::Range(std::size_t{1}, std::size_t{100000}))
         ->capture_default_str();
+    command.add_flag("--leave-out-files", s.leave_out_files,
+                     "when a known segment is held out (evaluation, and the calibration of the undecided band), "
+                     "hold out its whole file, so that chapters of one novel never vouch for each other");
     command.add_option("--calibration-problems", s.calibration_problems,
                        "known problems (labelled segments left out in turn, each against its own candidate and "
                        "against its nearest rival) that calibrate or evaluate the undecided band")
@@ -108,6 +114,15 @@ void AttributionCommandOptions::apply_settings(Request& request) const {
   if (!labels_file.empty()) request.attribution.labels = load_label_file(labels_file);
   if (!impostor_inputs.empty()) {
     request.attribution.impostor_files = expand_inputs(impostor_inputs);
+    // A text among its own impostors beats every candidate: each verdict would turn into
+    // "different author". The same file named twice is refused here, the same content
+    // under another name once it has been read (assign_roles_noting).
+    std::set<std::string> editions;
+    for (const auto& f : expand_inputs(request.inputs)) editions.insert(fs::weakly_canonical(f).string());
+    for (const auto& f : request.attribution.impostor_files)
+      if (editions.count(fs::weakly_canonical(f).string()))
+        throw Error(ErrorKind::usage, "--impostors names a file that is also an input: " + f +
+                                          " (impostors must be other texts than the edition's)");
     request.inputs.insert(request.inputs.end(), impostor_inputs.begin(), impostor_inputs.end());
   }
 }
@@ -122,6 +137,20 @@ AttributionRun run_attribution(const Request& request, AttributionTask task) {
 
 SegmentRoles assign_roles_noting(Analysis& analysis, const Request& request, AttributionSteps steps) {
   const AttributionOptions& s = request.attribution;
+  if (!s.impostor_files.empty()) {
+    const std::set<std::string> impostors(s.impostor_files.begin(), s.impostor_files.end());
+    std::map<std::string, std::string> edition_by_sha;
+    for (const auto& in : analysis.provenance.inputs)
+      if (!impostors.count(in.path) && !in.sha256.empty()) edition_by_sha.emplace(in.sha256, in.path);
+    for (const auto& in : analysis.provenance.inputs) {
+      auto same = impostors.count(in.path) ? edition_by_sha.find(in.sha256) : edition_by_sha.end();
+      if (same != edition_by_sha.end())
+        throw Error(ErrorKind::bad_input,
+                    "this impostor file has the same content as the input " + same->second +
+                        ": a text cannot be its own impostor",
+                    in.path);
+    }
+  }
   SegmentRoles roles = assign_roles(analysis, s);
   for (const auto& w : roles.warnings) {
     std::cerr << "manicule: note: " << w << '\n';

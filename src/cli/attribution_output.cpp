@@ -25,11 +25,18 @@ void write_head(std::ostream& out, const Analysis& analysis) {
   write_analysis_parameters(out, analysis);
 }
 
+// A figure that cannot be computed (AUC over problems of one answer only) is null, never a
+// number that could be read as a result.
+nlohmann::json figure(double value, bool defined) { return defined ? nlohmann::json(value) : nlohmann::json(); }
+std::string figure_text(double value, bool defined) { return defined ? fixed(value) : "n/a"; }
+
 nlohmann::json band_json(const VerificationBand& b) {
+  const bool both = b.same_problems > 0 && b.different_problems > 0;
+  const bool any = b.same_problems + b.different_problems > 0;
   return {{"low", b.low},           {"high", b.high},
           {"calibrated", b.calibrated}, {"method", b.method},
           {"same_problems", b.same_problems}, {"different_problems", b.different_problems},
-          {"auc", b.auc}, {"c_at_1", b.c_at_1}, {"f05u", b.f05u}};
+          {"auc", figure(b.auc, both)}, {"c_at_1", figure(b.c_at_1, any)}, {"f05u", figure(b.f05u, any)}};
 }
 
 }  // namespace
@@ -59,7 +66,8 @@ nlohmann::json attributions_json(const Analysis& analysis, std::size_t top) {
                     {"rule", r.rule},
                     {"first", r.candidates.empty() ? "" : r.candidates.front().candidate},
                     {"margin", r.margin},
-                    {"stability", r.stability},
+                    // With no resampled subsets (--resamples 0) stability was not measured.
+                    {"stability", r.resamples > 0 ? nlohmann::json(r.stability) : nlohmann::json()},
                     {"resamples", r.resamples},
                     {"resample_share", r.resample_share},
                     {"seed", r.seed},
@@ -82,7 +90,7 @@ void write_attributions_tsv(std::ostream& out, const Analysis& analysis, std::si
       if (top > 0 && c.rank > top) break;
       const bool first = c.rank == 1;
       write_tsv_row(out, {s.id, std::to_string(s.tokens), std::to_string(c.rank), c.candidate, fixed(c.distance, 6),
-                          first ? fixed(r.margin, 6) : "", first ? fixed(r.stability, 2) : "",
+                          first ? fixed(r.margin, 6) : "", first && r.resamples > 0 ? fixed(r.stability, 2) : "",
                           analysis.segments[c.nearest_segment].id, fixed(c.nearest_distance, 6),
                           std::to_string(c.nearest_rank), std::to_string(c.segments), std::to_string(c.words),
                           r.edition_conjecture, first ? joined(r.warnings) : ""});
@@ -162,8 +170,10 @@ nlohmann::json evaluation_json(const Analysis& analysis) {
                         {"score", p.score},
                         {"calibrated_score", p.calibrated_score}});
     verification.push_back({{"problems", v.problems}, {"same", v.same}, {"different", v.different},
-                            {"undecided", v.undecided}, {"auc", v.auc}, {"raw_auc", v.raw_auc}, {"c_at_1", v.c_at_1},
-                            {"f05u", v.f05u}, {"calibration", v.calibration}, {"scores", scores}});
+                            {"undecided", v.undecided}, {"auc", figure(v.auc, v.auc_defined())},
+                            {"raw_auc", figure(v.raw_auc, v.auc_defined())}, {"c_at_1", figure(v.c_at_1, v.rates_defined())},
+                            {"f05u", figure(v.f05u, v.rates_defined())}, {"calibration", v.calibration},
+                            {"scores", scores}});
   }
   doc["evaluation"] = {{"held_out", e.held_out},   {"evaluated", e.evaluated},   {"correct", e.correct},
                        {"accuracy", e.accuracy},   {"candidates", e.candidates}, {"confusion", e.confusion},
@@ -181,7 +191,10 @@ void write_evaluation_tsv(std::ostream& out, const Analysis& analysis, const std
     summary.emplace_back("rule " + r.rule, std::to_string(r.correct) + "/" + std::to_string(r.evaluated));
   for (const auto& v : e.verification)
     summary.emplace_back("verification, " + v.problems,
-                         "AUC " + fixed(v.auc) + " (scores before the band: " + fixed(v.raw_auc) + "), c@1 " + fixed(v.c_at_1) + ", F0.5u " + fixed(v.f05u));
+                         "AUC " + figure_text(v.auc, v.auc_defined()) + " (scores before the band: " +
+                             figure_text(v.raw_auc, v.auc_defined()) + "), c@1 " +
+                             figure_text(v.c_at_1, v.rates_defined()) + ", F0.5u " +
+                             figure_text(v.f05u, v.rates_defined()));
   for (const auto& w : e.warnings) summary.emplace_back("warning", w);
   write_tsv_parameters(out, summary);
   if (table == "candidates") {
@@ -207,7 +220,9 @@ void write_evaluation_tsv(std::ostream& out, const Analysis& analysis, const std
     write_tsv_row(out, {"problems", "same", "different", "undecided", "auc", "raw_auc", "c_at_1", "f05u", "calibration"});
     for (const auto& v : e.verification)
       write_tsv_row(out, {v.problems, std::to_string(v.same), std::to_string(v.different),
-                          std::to_string(v.undecided), fixed(v.auc), fixed(v.raw_auc), fixed(v.c_at_1), fixed(v.f05u), v.calibration});
+                          std::to_string(v.undecided), figure_text(v.auc, v.auc_defined()),
+                          figure_text(v.raw_auc, v.auc_defined()), figure_text(v.c_at_1, v.rates_defined()),
+                          figure_text(v.f05u, v.rates_defined()), v.calibration});
   } else {
     write_tsv_row(out, {"segment", "truth", "predicted", "correct", "margin"});
     for (const auto& s : e.segments)

@@ -62,7 +62,7 @@ void StandoffBuilder::add_attributions(Parts& parts) const {
       add_feature(fs, "score").add(numeric(r.candidates.front().distance));
     }
     add_feature(fs, "margin").add(numeric(r.margin));
-    add_feature(fs, "stability").add(numeric(r.stability));
+    if (r.resamples > 0) add_feature(fs, "stability").add(numeric(r.stability));  // else not measured
     add_feature(fs, "resamples").add(count(r.resamples));
     add_feature(fs, "resampleShare").add(numeric(r.resample_share));
     add_feature(fs, "seed").add(numeric(std::to_string(r.seed)));

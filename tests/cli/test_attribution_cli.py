@@ -84,6 +84,30 @@ proc = mtest.run(["attribute", "--unit", "letter", "--min-tokens", "315", LETTER
 mtest.check("candidate '#p-dunnock' left out" in proc.stderr, "a candidate without text must be named: " + proc.stderr)
 expect_failure(["attribute", "--unit", "letter", "--min-tokens", "380", LETTERS], 4,
                "at least 2 candidates", "'#p-abthorpe' left out")
+# Questioned letters that are all too short: said so, not "no questioned segment". The
+# three questioned letters (lxml: L07, L10, L12 have no sure sender) are each under 360 words.
+expect_failure(["attribute", "--unit", "letter", "--min-tokens", "360", LETTERS], 4,
+               "3 questioned segment(s), all shorter than the minimum size")
+# An empty labels file (or only its header) is refused: it is most likely the wrong file.
+expect_failure(["attribute", "--labels", labels([])] + BASE, 3, "no labelled row")
+# Impostors must be other texts: the edition itself, a folder holding it, or a copy of it
+# under another name would make each questioned letter its own impostor.
+expect_failure(["verify", "--impostors", LETTERS] + BASE, 2, "--impostors names a file that is also an input")
+copies = os.path.join(tmp, "impostor-copies")
+os.makedirs(copies)
+with open(LETTERS, "rb") as src, open(os.path.join(copies, "copy.xml"), "wb") as dst:
+    dst.write(src.read())
+expect_failure(["verify", "--impostors", copies] + BASE, 3, "same content as the input", "copy.xml")
+# With --resamples 0 stability is not measured: null, not 0.
+doc = strict_json(mtest.run(["attribute", "--format", "json", "--resamples", "0"] + BASE).stdout)
+mtest.check(all(a["stability"] is None for a in doc["attributions"]), "stability without resamples must be null")
+# Pairs need segments in different files: one edition gives none, so AUC is undefined (as
+# scikit-learn's roc_auc_score refuses one class): null with a warning, never 0.
+doc = strict_json(mtest.run(["evaluate", "--format", "json", "--pairs", "20"] + BASE).stdout)
+pairs = [v for v in doc["evaluation"]["verification"] if v["problems"] == "segment pairs"][0]
+mtest.check(pairs["same"] + pairs["different"] == 0 and pairs["auc"] is None and pairs["raw_auc"] is None,
+            "AUC over no pairs must be null: %r" % {k: pairs[k] for k in ("same", "different", "auc")})
+mtest.check(any("AUC needs both" in w for w in doc["evaluation"]["warnings"]), "no warning for undefined AUC")
 # Verification against a candidate the run does not have: usage.
 expect_failure(["verify", "--candidate", "#p-nobody"] + BASE, 2, "'#p-nobody'", "'#p-pellow'")
 # A questioned letter can be verified against one candidate only.

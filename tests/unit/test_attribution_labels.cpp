@@ -44,6 +44,9 @@ TEST_CASE("labels files: errors name the line", "[attribution]") {
   CHECK(message_of("a#1,x\na#1,y\n").find("labelled twice") != std::string::npos);
   CHECK(message_of("a#1,\"open\n").find("never closed") != std::string::npos);
   CHECK(message_of(",x\n").find("empty") != std::string::npos);
+  // A file with no row at all (or only the header) is most likely the wrong file.
+  CHECK(message_of("").find("no labelled row") != std::string::npos);
+  CHECK(message_of("segment,label\n# nothing yet\n").find("no labelled row") != std::string::npos);
 }
 
 namespace {

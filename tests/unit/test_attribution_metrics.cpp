@@ -45,7 +45,9 @@ TEST_CASE("AUC worked by hand, ties counting one half", "[attribution]") {
   CHECK(roc_auc({0.1, 0.9}, {false, true}) == Approx(1.0));
   CHECK(roc_auc({0.9, 0.1}, {false, true}) == Approx(0.0));
   CHECK(roc_auc({0.4, 0.4}, {false, true}) == Approx(0.5));
-  CHECK(roc_auc({0.4, 0.6}, {true, true}) == 0.0);  // one class only: undefined, reported 0
+  // One class only: undefined; the function returns 0 and the writers print null / n/a
+  // (VerificationEvaluation::auc_defined), never a figure that reads as a result.
+  CHECK(roc_auc({0.4, 0.6}, {true, true}) == 0.0);
 }
 
 TEST_CASE("calibrated scores put the band at 0.5 and keep the order", "[attribution]") {
