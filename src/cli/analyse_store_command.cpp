@@ -6,6 +6,7 @@
 
 #include "cli/analysis_options.h"
 #include "cli/archive_options.h"
+#include "cli/attribution_cli_options.h"
 #include "cli/commands.h"
 #include "cli/store_report.h"
 #include "core/error.h"
@@ -67,7 +68,10 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
     if (!chosen) throw Error(ErrorKind::usage, "the store has no settings " + std::to_string(settings_id) + " (see --list-settings)");
 
     Request request;
-    analysis->apply_to(request);
+    // With --attribute the features default to those of the attribute command.
+    AnalysisOptions measuring = *analysis;
+    if (flags->attribute && command->get_option("--ranks")->count() == 0) measuring.ranks = kAttributionRanks;
+    measuring.apply_to(request);
     const FeatureSpec asked = request.features;
     store::apply_settings(chosen->settings.request, request);
     bool features_given = command->get_option("--features")->count() + command->get_option("--n")->count() > 0;

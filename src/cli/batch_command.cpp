@@ -6,6 +6,7 @@
 
 #include "cli/analysis_options.h"
 #include "cli/archive_options.h"
+#include "cli/attribution_cli_options.h"
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
 #include "cli/progress_display.h"
@@ -62,7 +63,10 @@ CommandRunner add_batch_command(CLI::App& app) {
 
   return [=]() -> int {
     Request request = selection->to_request();
-    analysis->apply_to(request);
+    // With --attribute the features default to those of the attribute command.
+    AnalysisOptions measuring = *analysis;
+    if (flags->attribute && command->get_option("--ranks")->count() == 0) measuring.ranks = kAttributionRanks;
+    measuring.apply_to(request);
     request.compute_pca = flags->pca;
     store::BatchOptions options;
     options.filter = filters->to_filter();

@@ -1,5 +1,7 @@
 #include "cli/store_report.h"
 
+#include "attribution/attribution_result.h"
+
 namespace manicule::cli {
 
 void report_batch(std::ostream& out, const std::string& store, const store::BatchSummary& s) {
@@ -20,6 +22,7 @@ void report_analysis(std::ostream& out, std::ostream& err, const store::StoreAna
       << r.measured << " segment(s) measured, " << r.features << " feature(s)";
   if (r.attributions) out << ", " << r.attributions << " attribution row(s)";
   out << '\n';
+  if (r.attributions) out << "caution: " << kAttributionCaution << '\n';
   for (const auto& note : r.notes) err << "manicule: note: " << note << '\n';
   if (r.files_failed) err << "manicule: note: " << r.files_failed << " file(s) stored as failed were left out\n";
   if (r.files_not_read)

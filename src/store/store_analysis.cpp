@@ -37,7 +37,7 @@ nlohmann::json analysis_parameters(Database& db, std::int64_t settings_id, const
     const AttributionOptions& a = r.attribution;
     p["attribution"] = {{"rule", rule_name(a.rule)}, {"weight_spread", a.weight_spread}, {"z_limit", a.z_limit},
                         {"resamples", a.resamples}, {"resample_share", a.resample_share}, {"seed", a.seed},
-                        {"reliable_words", a.reliable_words}};
+                        {"reliable_words", a.reliable_words}, {"caution", kAttributionCaution}};
   }
   if (r.compute_pca)
     p["pca_options"] = {{"components", r.pca.components},

@@ -9,6 +9,7 @@ linked by @decls) and how certain the edition is, and so which letters are quest
 smallest cosine distance between z-scores clipped to +-2 (the attribution layer's default
 z limit, docs/attribution.md), over the features the analysis stored.
 """
+import json
 import os
 import sys
 import tempfile
@@ -46,9 +47,17 @@ mtest.check(questioned == ["ferry-letters#L07", "ferry-letters#L10", "ferry-lett
 with tempfile.TemporaryDirectory() as tmp:
     store = os.path.join(tmp, "ferry.sqlite")
     mtest.run(["batch", letters, "--store", store, "--unit", "letter", "--quiet"])
-    mtest.run(["analyse-store", "--store", store, "--min-tokens", "200", "--attribute"])
+    shown = mtest.run(["analyse-store", "--store", store, "--min-tokens", "200", "--attribute"]).stdout
+    # Every attribution output carries the caution (issue text): on the terminal and in the
+    # run's stored parameters, where a query of the attributions table finds it.
+    mtest.check("caution: Statistical evidence, not proof" in shown, "analyse-store --attribute prints no caution")
     run, tables = storecheck.latest_analysis(store)
     db = storecheck.connect(store)
+    parameters = json.loads(db.execute("SELECT parameters FROM runs WHERE run_id = ?", (run,)).fetchone()[0])
+    mtest.check(parameters["attribution"]["caution"].startswith("Statistical evidence, not proof"),
+                "the stored analysis parameters lack the caution")
+    # The attribute command's features (1-2000, docs/attribution.md) unless --ranks says otherwise.
+    mtest.check(parameters["ranks"] == "1-2000", "attribution over the store used ranks %s" % parameters["ranks"])
     rows = db.execute("SELECT segment, rank, candidate, distance, nearest_segment, nearest_distance, margin, stability "
                       "FROM attributions WHERE run_id = ? ORDER BY segment, rank", (run,)).fetchall()
     forms = dict(db.execute("SELECT feature_id, form FROM vocabulary"))
