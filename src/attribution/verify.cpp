@@ -1,5 +1,8 @@
 #include "attribution/verify.h"
 
+#include <map>
+#include <set>
+
 #include "attribution/seeded_sampler.h"
 #include "attribution/size_warnings.h"
 #include "attribution/verification_band.h"
@@ -19,6 +22,16 @@ std::vector<std::string> tested_candidates(const SegmentRoles& roles, const Attr
     known += (i ? ", '" : "'") + roles.candidates[i] + "'";
   throw Error(ErrorKind::usage, "no measured candidate '" + options.verify_candidate + "'; the candidates are " +
                                     (known.empty() ? std::string("none") : known));
+}
+
+bool every_candidate_in_two_files(const Analysis& analysis, const SegmentRoles& roles) {
+  std::map<std::string, std::set<std::string>> files_of;
+  for (std::size_t i = 0; i < roles.role.size(); ++i)
+    if (roles.role[i] == SegmentRole::known) files_of[roles.label[i]].insert(analysis.segments[i].file);
+  if (files_of.empty()) return false;
+  for (const auto& [candidate, files] : files_of)
+    if (files.size() < 2) return false;
+  return true;
 }
 
 }  // namespace
@@ -43,6 +56,11 @@ VerificationRun verify_questioned(const Analysis& analysis, const SegmentRoles& 
   const ProblemBuilder builder(analysis, roles, space, options);
   AttributionOptions strict = options;
   strict.author_absent = true;
+  // A known problem holds out its segment's whole file when every candidate has known texts
+  // in two files or more, so that chapters of one novel (speeches of one play) never vouch
+  // for each other and the band is not fitted on problems easier than a questioned work;
+  // in a one-file edition (letters) only the segment can be held out.
+  strict.leave_out_files = options.leave_out_files || every_candidate_in_two_files(analysis, roles);
   const ProblemBuilder calibrating(analysis, roles, space, strict);
 
   VerificationRun run;
@@ -51,6 +69,8 @@ VerificationRun verify_questioned(const Analysis& analysis, const SegmentRoles& 
   std::vector<KnownProblem> calibration;
   for (std::size_t i = 0; i < known.size(); ++i) calibration.push_back({known_scores[i], known[i].same});
   run.band = calibrate_band(calibration);
+  run.band.method += strict.leave_out_files ? "; each known segment held out with its whole file"
+                                            : "; each known segment held out alone";
 
   std::vector<ImpostorProblem> problems;
   for (std::size_t q : questioned) {

@@ -92,8 +92,9 @@ void AttributionCommandOptions::add_settings(CLI::App& command, bool stability, 
         ->check(CLI::Range(std::size_t{1}, std::size_t{100000}))
         ->capture_default_str();
     command.add_flag("--leave-out-files", s.leave_out_files,
-                     "when a known segment is held out (evaluation, and the calibration of the undecided band), "
-                     "hold out its whole file, so that chapters of one novel never vouch for each other");
+                     "when a known segment is held out, hold out its whole file, so that chapters of one novel "
+                     "never vouch for each other (the band's calibration does so by itself when every candidate "
+                     "has texts in two files)");
     command.add_option("--calibration-problems", s.calibration_problems,
                        "known problems (labelled segments left out in turn, each against its own candidate and "
                        "against its nearest rival) that calibrate or evaluate the undecided band")

@@ -108,6 +108,20 @@ pairs = [v for v in doc["evaluation"]["verification"] if v["problems"] == "segme
 mtest.check(pairs["same"] + pairs["different"] == 0 and pairs["auc"] is None and pairs["raw_auc"] is None,
             "AUC over no pairs must be null: %r" % {k: pairs[k] for k in ("same", "different", "auc")})
 mtest.check(any("AUC needs both" in w for w in doc["evaluation"]["warnings"]), "no warning for undefined AUC")
+# The band's known problems hold out a whole file when every candidate has known texts in
+# two files (docs/attribution.md, "The undecided band"): one edition holds each sender's
+# letters in one file, so single letters are held out; add a second edition of the same
+# senders (the letters under other ids, all signed) and whole files are held out.
+doc = strict_json(mtest.run(["verify", "--format", "json"] + BASE).stdout)
+mtest.check(doc["band"]["method"].endswith("held out alone"), "one edition: " + doc["band"]["method"])
+second = os.path.join(tmp, "second-edition.xml")
+with open(LETTERS, encoding="utf-8") as f:
+    text = f.read()
+with open(second, "w", encoding="utf-8") as f:
+    f.write(text.replace('xml:id="L', 'xml:id="S').replace('decls="#cd-', 'decls="#sd-')
+            .replace('xml:id="cd-', 'xml:id="sd-').replace('cert="low" ', "").replace('<persName>Unknown</persName>', '<persName ref="#p-abthorpe">Cornelius Abthorpe</persName>'))
+doc = strict_json(mtest.run(["verify", "--format", "json", "--unit", "letter", "--min-tokens", "200", LETTERS, second]).stdout)
+mtest.check(doc["band"]["method"].endswith("held out with its whole file"), "two editions: " + doc["band"]["method"])
 # Verification against a candidate the run does not have: usage.
 expect_failure(["verify", "--candidate", "#p-nobody"] + BASE, 2, "'#p-nobody'", "'#p-pellow'")
 # A questioned letter can be verified against one candidate only.
