@@ -16,20 +16,6 @@
 
 namespace manicule::cli {
 
-namespace {
-
-// The settings of the latest batch run, when the user names none.
-std::int64_t latest_batch_settings(store::Database& db) {
-  store::Statement latest = db.prepare(
-      "SELECT settings_id FROM runs WHERE kind = 'batch' AND settings_id IS NOT NULL ORDER BY run_id DESC LIMIT 1");
-  if (latest.step()) return latest.int64_at(0);
-  auto all = store::list_settings(db);
-  if (all.empty()) throw Error(ErrorKind::nothing_selected, "the store " + db.path() + " holds no counts yet (run batch)");
-  return all.back().id;
-}
-
-}  // namespace
-
 CommandRunner add_analyse_store_command(CLI::App& app) {
   auto* command = app.add_subcommand(
       "analyse-store", "Analyse the counts an archive store holds (no XML read): nearest segments, PCA, sub-corpora");
@@ -60,7 +46,7 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
                   << '\n';
       return 0;
     }
-    std::int64_t settings_id = flags->settings ? flags->settings : latest_batch_settings(*db);
+    std::int64_t settings_id = flags->settings ? flags->settings : store::latest_batch_settings(*db);
     const store::StoredSettings* chosen = nullptr;
     auto all = store::list_settings(*db);
     for (const auto& s : all)

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 
+#include "core/error.h"
 #include "core/provenance.h"
 #include "core/sha256.h"
 #include "manicule_version.h"
@@ -71,6 +72,15 @@ std::vector<StoredSettings> list_settings(Database& db) {
     out.push_back(std::move(row));
   }
   return out;
+}
+
+std::int64_t latest_batch_settings(Database& db) {
+  Statement latest = db.prepare(
+      "SELECT settings_id FROM runs WHERE kind = 'batch' AND settings_id IS NOT NULL ORDER BY run_id DESC LIMIT 1");
+  if (latest.step()) return latest.int64_at(0);
+  auto all = list_settings(db);
+  if (all.empty()) throw Error(ErrorKind::nothing_selected, "the store " + db.path() + " holds no counts yet (run batch)");
+  return all.back().id;
 }
 
 void apply_settings(const nlohmann::json& o, Request& r) {

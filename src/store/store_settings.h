@@ -36,6 +36,10 @@ std::int64_t ensure_settings(Database& db, const ReadingSettings& settings);
 
 std::vector<StoredSettings> list_settings(Database& db);
 
+// The settings of the latest batch run (else the newest stored); Error(nothing_selected)
+// when the store holds no counts yet.
+std::int64_t latest_batch_settings(Database& db);
+
 // Sets the reading options of `request` from a stored settings JSON.
 void apply_settings(const nlohmann::json& stored, Request& request);
 
