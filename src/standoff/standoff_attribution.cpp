@@ -5,31 +5,15 @@
 #include <string>
 
 #include "standoff/edition_splice.h"
+#include "standoff/feature_values.h"
 #include "standoff/standoff_builder.h"
 #include "standoff/standoff_wording.h"
 
 namespace manicule {
 
+using namespace tei_fs;
+
 namespace {
-
-XmlNode& add_feature(XmlNode& fs, const std::string& name) { return fs.add(XmlNode::element("f", {{"name", name}})); }
-
-XmlNode numeric(const std::string& value) { return XmlNode::element("numeric", {{"value", value}}); }
-XmlNode numeric(double value) { return numeric(format_number(value)); }
-XmlNode count(std::size_t value) { return numeric(std::to_string(value)); }
-
-// TEI symbol/@value is teidata.word: no spaces ("weighted centroid" -> "weighted-centroid").
-XmlNode symbol(std::string value) {
-  for (char& c : value)
-    if (c == ' ') c = '-';
-  return XmlNode::element("symbol", {{"value", value}});
-}
-
-void add_strings(XmlNode& fs, const std::string& name, const std::vector<std::string>& values) {
-  if (values.empty()) return;
-  XmlNode& list = add_feature(fs, name).add(XmlNode::element("vColl", {{"org", "list"}}));
-  for (const auto& v : values) list.add_text_element("string", v);
-}
 
 // A candidate label that is a pointer into the edition ("#p-pellow", a person's id from
 // @who or correspAction/persName/@ref) is pointed at from this document: through the

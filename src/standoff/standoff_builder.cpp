@@ -5,6 +5,7 @@
 #include <cstdio>
 
 #include "standoff/edition_splice.h"
+#include "standoff/feature_values.h"
 #include "standoff/standoff_wording.h"
 
 namespace manicule {
@@ -95,32 +96,29 @@ XmlNode StandoffBuilder::standoff() const {
 }
 
 XmlNode StandoffBuilder::profile_values(std::size_t segment) const {
+  using namespace tei_fs;
   const SegmentSummary& s = analysis_.segments[segment];
   const SegmentIds& sid = target_.segment_ids[segment];
   XmlNode fs = XmlNode::element("fs", {{"xml:id", sid.profile}, {"type", "styleProfile"}});
-  auto feature = [&fs](const std::string& name) -> XmlNode& {
-    return fs.add(XmlNode::element("f", {{"name", name}}));
-  };
-  feature("segment").add_text_element("string", s.id);
-  feature("label").add_text_element("string", s.label.empty() ? s.local_id : s.label);
-  feature("unitType").add(XmlNode::element("symbol", {{"value", s.unit}}));
-  feature("tokens").add(XmlNode::element("numeric", {{"value", std::to_string(s.tokens)}}));
-  feature("types").add(XmlNode::element("numeric", {{"value", std::to_string(s.types)}}));
-  if (!s.language.empty()) feature("language").add(XmlNode::element("symbol", {{"value", s.language}}));
-  if (!s.author.empty()) feature("author").add_text_element("string", s.author);
-  feature("authorship").add(XmlNode::element("symbol", {{"value", authorship_word(s.authorship)}}));
-  feature("measured").add(XmlNode::element("binary", {{"value", s.measured ? "true" : "false"}}));
-  if (!s.excluded_reason.empty()) feature("excludedBecause").add_text_element("string", s.excluded_reason);
+  add_feature(fs, "segment").add_text_element("string", s.id);
+  add_feature(fs, "label").add_text_element("string", s.label.empty() ? s.local_id : s.label);
+  add_feature(fs, "unitType").add(symbol(s.unit));
+  add_feature(fs, "tokens").add(count(s.tokens));
+  add_feature(fs, "types").add(count(s.types));
+  if (!s.language.empty()) add_feature(fs, "language").add(symbol(s.language));
+  if (!s.author.empty()) add_feature(fs, "author").add_text_element("string", s.author);
+  add_feature(fs, "authorship").add(symbol(authorship_word(s.authorship)));
+  add_feature(fs, "measured").add(XmlNode::element("binary", {{"value", s.measured ? "true" : "false"}}));
+  if (!s.excluded_reason.empty()) add_feature(fs, "excludedBecause").add_text_element("string", s.excluded_reason);
   long row = row_of_[segment];
   if (row >= 0 && !analysis_.distances->nearest[static_cast<std::size_t>(row)].empty()) {
-    XmlNode& list = feature("nearest").add(XmlNode::element("vColl", {{"org", "list"}}));
-    int rank = 0;
+    XmlNode& list = add_feature(fs, "nearest").add(XmlNode::element("vColl", {{"org", "list"}}));
+    std::size_t rank = 0;
     for (const Neighbour& n : analysis_.distances->nearest[static_cast<std::size_t>(row)]) {
       XmlNode& entry = list.add(XmlNode::element("fs", {{"type", "neighbour"}, {"corresp", target_.reference(n.segment)}}));
-      entry.add(XmlNode::element("f", {{"name", "rank"}})).add(XmlNode::element("numeric", {{"value", std::to_string(++rank)}}));
-      entry.add(XmlNode::element("f", {{"name", "segment"}})).add_text_element("string", analysis_.segments[n.segment].id);
-      entry.add(XmlNode::element("f", {{"name", "distance"}}))
-          .add(XmlNode::element("numeric", {{"value", format_number(n.distance)}}));
+      add_feature(entry, "rank").add(count(++rank));
+      add_feature(entry, "segment").add_text_element("string", analysis_.segments[n.segment].id);
+      add_feature(entry, "distance").add(numeric(n.distance));
     }
   }
   return fs;

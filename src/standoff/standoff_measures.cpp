@@ -4,20 +4,13 @@
 
 #include "profile/feature_spec.h"
 #include "standoff/edition_splice.h"
+#include "standoff/feature_values.h"
 #include "standoff/standoff_builder.h"
 #include "standoff/standoff_wording.h"
 
 namespace manicule {
 
-namespace {
-
-XmlNode& add_feature(XmlNode& fs, const std::string& name) { return fs.add(XmlNode::element("f", {{"name", name}})); }
-
-XmlNode numeric(const std::string& value) { return XmlNode::element("numeric", {{"value", value}}); }
-
-XmlNode symbol(const std::string& value) { return XmlNode::element("symbol", {{"value", value}}); }
-
-}  // namespace
+using namespace tei_fs;
 
 std::vector<std::pair<std::size_t, std::size_t>> StandoffBuilder::pairs() const {
   std::set<std::pair<std::size_t, std::size_t>> out;
