@@ -100,8 +100,13 @@ CommandRunner add_annotate_command(CLI::App& app) {
     std::vector<FileSnapshot> editions;
     editions.reserve(files.size());
     for (const auto& f : files) editions.push_back(take_snapshot(f));
-    if (attributing) attribution->apply_settings(request);
-    Analysis analysis = analyse_for_standoff(request, attributing ? expand_inputs(request.inputs) : files);
+    std::vector<std::string> read = files;  // the editions, then any impostor files
+    if (attributing) {
+      attribution->apply_settings(request);
+      const auto& impostors = request.attribution.impostor_files;
+      read.insert(read.end(), impostors.begin(), impostors.end());
+    }
+    Analysis analysis = analyse_for_standoff(request, read);
     for (const auto& note : analysis.notes) std::cerr << "manicule: " << note << '\n';
     if (attributing) {
       SegmentRoles roles = assign_roles_noting(analysis, request, {*attribute, *verify, false});
