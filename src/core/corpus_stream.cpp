@@ -10,6 +10,7 @@
 #include <thread>
 
 #include "core/sha256.h"
+#include "measure/parallel_items.h"
 #include "text/tokenizer.h"
 
 namespace manicule {
@@ -89,8 +90,8 @@ void read_files_streaming(const Request& request, const std::vector<std::string>
   const SelectionRules rules = request.selection_rules();
   validate(request.features);
   if (files.empty()) return;
-  unsigned workers = request.threads ? request.threads : std::max(1u, std::thread::hardware_concurrency());
-  workers = std::min<unsigned>(workers, static_cast<unsigned>(files.size()));
+  const auto workers = static_cast<unsigned>(
+      std::min<std::size_t>(resolve_thread_count(request.threads), files.size()));
   FinishedQueue queue(options.max_waiting ? options.max_waiting : 4 * workers, workers);
   std::atomic<std::size_t> next{0};
 
@@ -102,7 +103,7 @@ void read_files_streaming(const Request& request, const std::vector<std::string>
       if (!skip_known(files[i], i, options, reading)) {
         reading = read_file(files[i], request, rules, tokenizer);
         // A parse that stopped on an error gives no digest; the content is still worth a key.
-        if (reading.failed && reading.sha256.empty()) {
+        if (options.hash_failures && reading.failed && reading.sha256.empty()) {
           try {
             reading.sha256 = sha256_file(files[i]);
           } catch (const std::exception&) {

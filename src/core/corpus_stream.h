@@ -29,6 +29,7 @@ struct StreamOptions {
   std::vector<char> hash_first;  // per file; empty = parse every file straight away
   KnownContent known;
   std::size_t max_waiting = 0;   // 0 = four per worker
+  bool hash_failures = true;     // hash a failed file whose parse stopped before its end
 };
 
 // Throws Error(usage) for a bad request (before any reading), or what the sink throws.

@@ -104,7 +104,7 @@ void ProfileBuilder::end_segment() {
   in_segment_ = false;
 }
 
-void ProfileBuilder::merge(const CountProfile& other) {
+void ProfileBuilder::merge(CountProfile other) {
   if (in_segment_) throw Error(ErrorKind::usage, "merge() inside an open segment");
   if (other.spec.kind != profile_.spec.kind ||
       (other.spec.kind != FeatureKind::word && other.spec.n != profile_.spec.n)) {
@@ -115,21 +115,20 @@ void ProfileBuilder::merge(const CountProfile& other) {
   // spoken by twenty speakers of a play would otherwise be hashed twenty times).
   constexpr FeatureId kUnmapped = static_cast<FeatureId>(-1);
   std::vector<FeatureId> ours(other.vocabulary.size(), kUnmapped);
-  for (const SegmentCounts& segment : other.segments) {
+  for (SegmentCounts& segment : other.segments) {
     claim_id(segment.id);
-    SegmentCounts copy = segment;
     bool ascending = true;
     FeatureId previous = 0;
-    for (std::size_t k = 0; k < copy.counts.size(); ++k) {
-      FeatureId& id = copy.counts[k].first;
+    for (std::size_t k = 0; k < segment.counts.size(); ++k) {
+      FeatureId& id = segment.counts[k].first;
       FeatureId& mapped = ours[id];
       if (mapped == kUnmapped) mapped = profile_.vocabulary.intern(other.vocabulary.form(id));
       id = mapped;
       if (k > 0 && id < previous) ascending = false;
       previous = id;
     }
-    if (!ascending) std::sort(copy.counts.begin(), copy.counts.end());
-    profile_.segments.push_back(std::move(copy));
+    if (!ascending) std::sort(segment.counts.begin(), segment.counts.end());
+    profile_.segments.push_back(std::move(segment));
   }
 }
 

@@ -26,7 +26,7 @@ class ProfileBuilder {
   void end_segment();
 
   // Appends the segments of `other` (built with the same FeatureSpec) to this profile.
-  void merge(const CountProfile& other);
+  void merge(CountProfile other);  // taken by value: its segments are moved in
 
   // The counts so far; the builder is empty afterwards.
   CountProfile finish();
