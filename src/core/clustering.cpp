@@ -12,7 +12,6 @@ ClusteringResult cluster_segments(const Request& request, const CountProfile& co
   ClusteringResult result;
   result.method = options.method;
   result.measure = request.measure;
-  result.leaves = analysis.table_rows;
   if (options.consensus_ranges.empty()) {
     if (!analysis.distances)
       throw Error(ErrorKind::internal, "clustering needs the run's distances");
@@ -31,7 +30,6 @@ ClusteringResult cluster_segments(const Request& request, const CountProfile& co
   result.consensus = bootstrap_consensus(counts, consensus);
   result.ranges = options.consensus_ranges;
   // Every range keeps the same segments (same minimum size), in table-row order; check it.
-  result.leaves.clear();
   for (const auto& id : result.consensus->labels) {
     const std::size_t index = analysis.find_segment(id);
     if (index == std::string::npos) throw Error(ErrorKind::internal, "consensus leaf " + id + " is not a segment");

@@ -14,12 +14,6 @@ namespace manicule {
 
 namespace {
 
-std::string joined_authors(const std::vector<std::string>& authors) {
-  std::string out;
-  for (const auto& a : authors) out += (out.empty() ? "" : "; ") + a;
-  return out;
-}
-
 // The language holding the most tokens, for editions without langUsage.
 std::string main_language(const std::vector<SegmentRecord>& segments) {
   std::map<std::string, std::size_t> tokens;
@@ -90,7 +84,7 @@ FileReading read_file(const std::string& file, const Request& request, const Sel
     if (words_are_features)
       for (std::size_t i = 0; i < result.segments.size(); ++i) result.segments[i].types = result.counts.segments[i].counts.size();
     result.metadata.title = header.title;
-    result.metadata.author = joined_authors(header.authors);
+    result.metadata.author = join_authors(header.authors);
     result.metadata.date = header.source_date.empty() ? header.date : header.source_date;
     result.metadata.year = first_year(result.metadata.date);
     result.metadata.language = header.language.empty() ? main_language(result.segments) : header.language;

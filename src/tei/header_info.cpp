@@ -20,6 +20,12 @@ std::string normalise_space(const std::string& text) {
   return out;
 }
 
+std::string join_authors(const std::vector<std::string>& authors) {
+  std::string out;
+  for (const auto& a : authors) out += (out.empty() ? "" : "; ") + a;
+  return out;
+}
+
 bool is_placeholder_name(const std::string& name) {
   std::string folded;
   icu::UnicodeString::fromUTF8(normalise_space(name)).foldCase().toUTF8String(folded);

@@ -34,6 +34,9 @@ struct HeaderInfo {
 // (tei-conventions.md section 3, "Anonymous letters"; the list is common practice).
 bool is_placeholder_name(const std::string& name);
 
+// The titleStmt authors as one text, "A; B" (the segments' author and the store's metadata).
+std::string join_authors(const std::vector<std::string>& authors);
+
 // Collapses runs of XML whitespace to one space and trims both ends.
 std::string normalise_space(const std::string& text);
 

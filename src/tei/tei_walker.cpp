@@ -106,7 +106,6 @@ struct TeiWalker::State {
     Capture capture = Capture::none;
     bool header = false, title_stmt = false, corresp_desc = false, corresp_sent = false, source_desc = false;
     bool person = false, cast_list = false, sp_grp = false, tei_element = false;
-    bool author_name = false;  // titleStmt/author, whose text is captured
     bool muted = false;        // an idno inside it: an identifier, not part of the name
     std::string xml_id;
     int ordinal = 0;                                   // position among element siblings
@@ -260,7 +259,6 @@ struct TeiWalker::State {
       f.capture = Capture::title;
     } else if (f.name == "author" && in_title_stmt) {
       f.capture = Capture::author;
-      f.author_name = true;
       ++author_depth;
     } else if (f.name == "idno" && author_depth > 0) {
       // <author><persName>..</persName><idno type="wikidata">Q..</idno></author>: the name
@@ -594,7 +592,7 @@ void TeiWalker::end() {
   if (f.header) --s.header_depth;
   if (f.source_desc) --s.source_desc_depth;
   if (f.title_stmt) s.in_title_stmt = false;
-  if (f.author_name) --s.author_depth;
+  if (f.capture == Capture::author) --s.author_depth;
   if (f.muted) --s.muted_depth;
   if (f.corresp_sent) s.in_sent_action = false;
   if (f.corresp_desc) s.corresp_index = -1;
@@ -689,13 +687,10 @@ std::vector<Segment> TeiWalker::finish() {
         seg.label = s.rules.unit == UnitKind::whole ? h.title : seg.label;
         if (seg.label.empty()) seg.label = seg.local_id;
       }
-      std::string authors;
       bool anonymous = h.authors.empty();
-      for (const auto& a : h.authors) {
-        authors += (authors.empty() ? "" : "; ") + a;
+      for (const auto& a : h.authors)
         if (is_placeholder_name(a)) anonymous = true;
-      }
-      seg.author = anonymous ? "" : authors;
+      seg.author = anonymous ? "" : join_authors(h.authors);
       seg.authorship = anonymous ? Authorship::unknown : Authorship::known;
     }
     std::string fallback = h.language.empty() ? s.rules.default_language : h.language;
