@@ -71,6 +71,19 @@ std::vector<std::vector<Neighbour>> nearest_neighbours(const Eigen::MatrixXd& d,
 
 }  // namespace
 
+void record_feature_parameters(const Request& request, std::size_t features_used, std::size_t segments_measured,
+                               Provenance& provenance) {
+  const FeatureSpaceOptions& f = request.feature_space;
+  auto& params = provenance.parameters;
+  params.emplace_back("feature ranks", std::to_string(f.rank_first) + "-" + std::to_string(f.rank_last));
+  params.emplace_back("features used", std::to_string(features_used));
+  std::ostringstream culling;  // "0%", "12.5%" rather than to_string's "0.000000%"
+  culling << f.culling_percent << "%";
+  params.emplace_back("culling", culling.str());
+  params.emplace_back("minimum segment size", std::to_string(f.min_segment_tokens) + " words");
+  params.emplace_back("segments measured", std::to_string(segments_measured));
+}
+
 Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
   Analysis analysis;
   analysis.provenance = make_provenance(request, corpus);
@@ -95,15 +108,8 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
                              " segment(s) left out, shorter than the minimum of " +
                              std::to_string(request.feature_space.min_segment_tokens) + " words");
   }
+  record_feature_parameters(request, table.feature_count(), table.segment_count(), analysis.provenance);
   auto& params = analysis.provenance.parameters;
-  params.emplace_back("feature ranks", std::to_string(request.feature_space.rank_first) + "-" +
-                                           std::to_string(request.feature_space.rank_last));
-  params.emplace_back("features used", std::to_string(table.feature_count()));
-  std::ostringstream culling;  // "0%", "12.5%" rather than to_string's "0.000000%"
-  culling << request.feature_space.culling_percent << "%";
-  params.emplace_back("culling", culling.str());
-  params.emplace_back("minimum segment size", std::to_string(request.feature_space.min_segment_tokens) + " words");
-  params.emplace_back("segments measured", std::to_string(table.segment_count()));
 
   if (table.report.fewer_than_asked) {
     analysis.notes.push_back("ranks " + std::to_string(request.feature_space.rank_first) + "-" +

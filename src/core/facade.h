@@ -22,4 +22,9 @@ std::vector<SegmentSummary> summarise_segments(const Corpus& corpus);
 // Throws the error of the first failed file, if any.
 void throw_first_failure(const Corpus& corpus);
 
+// Records the feature settings of a run in its provenance: ranks asked, features used,
+// culling, minimum segment size, segments measured.
+void record_feature_parameters(const Request& request, std::size_t features_used, std::size_t segments_measured,
+                               Provenance& provenance);
+
 }  // namespace manicule

@@ -71,15 +71,7 @@ Analysis counts_only(const Request& request, const Corpus& corpus, const std::st
   const std::string minimum = std::to_string(request.feature_space.min_segment_tokens);
   for (SegmentSummary& s : analysis.segments)
     s.excluded_reason = std::to_string(s.tokens) + " words, fewer than the minimum of " + minimum;
-  auto& params = analysis.provenance.parameters;
-  params.emplace_back("feature ranks", std::to_string(request.feature_space.rank_first) + "-" +
-                                           std::to_string(request.feature_space.rank_last));
-  params.emplace_back("features used", "0");
-  char culling[32];
-  std::snprintf(culling, sizeof culling, "%g%%", request.feature_space.culling_percent);
-  params.emplace_back("culling", culling);
-  params.emplace_back("minimum segment size", minimum + " words");
-  params.emplace_back("segments measured", "0");
+  record_feature_parameters(request, 0, 0, analysis.provenance);
   analysis.notes.push_back("only counts written, no comparison: " + why + " (lower it with --min-tokens)");
   return analysis;
 }
@@ -187,7 +179,10 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
       if (p.size() == 1) return p.front();
       if (edition_of[s] == kNoEdition) {
         std::string all;
-        for (const auto& one : p) all += (all.empty() ? "" : " ") + one;
+        for (const auto& one : p) {
+          if (!all.empty()) all += ' ';
+          all += one;
+        }
         return all;
       }
       const Edition& e = open[edition_of[s]];
