@@ -1,12 +1,12 @@
 #include "cli/measure_output.h"
 
-#include <charconv>
 #include <fstream>
 #include <iostream>
 
 #include "cli/table_output.h"
 #include "core/error.h"
 #include "core/facade.h"
+#include "measure/newick.h"
 
 namespace manicule::cli {
 
@@ -45,11 +45,7 @@ void write_output(const std::string& path, const std::function<void(std::ostream
   if (!out) throw Error(ErrorKind::write_failed, "cannot write the output", path);
 }
 
-std::string exact_number(double value) {
-  char buffer[32];
-  const auto [end, error] = std::to_chars(buffer, buffer + sizeof buffer, value);
-  return error == std::errc{} ? std::string(buffer, end) : std::string("0");
-}
+std::string exact_number(double value) { return newick_number(value); }
 
 nlohmann::json measure_json(DistanceMeasure measure) {
   const MeasureInfo& info = measure_info(measure);

@@ -1,9 +1,9 @@
 #include "standoff/standoff_builder.h"
 
-#include <charconv>
 #include <cmath>
 #include <cstdio>
 
+#include "measure/newick.h"
 #include "standoff/edition_splice.h"
 #include "standoff/feature_values.h"
 #include "standoff/standoff_wording.h"
@@ -12,9 +12,7 @@ namespace manicule {
 
 std::string format_number(double value) {
   if (!std::isfinite(value)) return "NaN";
-  char buf[64];
-  auto result = std::to_chars(buf, buf + sizeof buf, value);
-  return std::string(buf, result.ptr);
+  return newick_number(value);
 }
 
 StandoffBuilder::StandoffBuilder(const Analysis& analysis, const StandoffTarget& target, IdRegistry& ids,
