@@ -35,7 +35,7 @@ nlohmann::json map_json(const Analysis& analysis) {
                           {"positive_pole", pole < pca.poles.size() ? weights_json(pca, pca.poles[pole].positive) : nlohmann::json::array()},
                           {"negative_pole", pole < pca.poles.size() ? weights_json(pca, pca.poles[pole].negative) : nlohmann::json::array()}});
   }
-  doc["pca"] = {{"input", provenance_parameter(analysis, "pca input")},
+  doc["pca"] = {{"input", analysis.provenance.parameter("pca input")},
                 {"total_variance", pca.total_variance},
                 {"components", components}};
   nlohmann::json coordinates = nlohmann::json::array();

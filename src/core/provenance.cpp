@@ -7,6 +7,12 @@
 
 namespace manicule {
 
+std::string Provenance::parameter(const std::string& key) const {
+  for (const auto& [k, v] : parameters)
+    if (k == key) return v;
+  return "";
+}
+
 std::string current_time_iso8601() {
   std::time_t now = std::time(nullptr);
   if (const char* epoch = std::getenv("SOURCE_DATE_EPOCH")) {

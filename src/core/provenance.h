@@ -27,6 +27,9 @@ struct Provenance {
   std::string features;   // e.g. "word 1-grams"
   std::vector<InputFile> inputs;
   std::vector<std::pair<std::string, std::string>> parameters;  // added by each analysis
+
+  // The value of a parameter, "" when the run did not record it.
+  std::string parameter(const std::string& key) const;
 };
 
 // Now, or SOURCE_DATE_EPOCH when set, as ISO 8601 UTC.

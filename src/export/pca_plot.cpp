@@ -54,7 +54,7 @@ ScatterPlot pca_scatter(const Analysis& analysis, const PcaPlotOptions& options)
     point.group = grouping.group_of[r];
     plot.points.push_back(point);
   }
-  const std::string input = provenance_parameter(analysis, "pca input");
+  const std::string input = analysis.provenance.parameter("pca input");
   plot.caption = plot_caption(analysis, "PCA on " + (input.empty() ? std::string("z-scores") : input));
   return plot;
 }

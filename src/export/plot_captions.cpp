@@ -10,12 +10,6 @@ std::string stem(const std::string& path) { return std::filesystem::path(path).s
 
 }  // namespace
 
-std::string provenance_parameter(const Analysis& analysis, const std::string& key) {
-  for (const auto& [k, v] : analysis.provenance.parameters)
-    if (k == key) return v;
-  return {};
-}
-
 std::string describe_measured_segments(const Analysis& analysis) {
   std::size_t measured = 0;
   std::string unit;
@@ -36,11 +30,11 @@ std::vector<std::string> plot_caption(const Analysis& analysis, const std::strin
   for (const auto& s : analysis.segments) left_out += s.measured ? 0 : 1;
   std::vector<std::string> lines;
   std::string first = method + " \u00b7 " + p.features + ", frequency ranks " +
-                      provenance_parameter(analysis, "feature ranks") + " (" +
-                      provenance_parameter(analysis, "features used") + " used), culling " +
-                      provenance_parameter(analysis, "culling") + " \u00b7 minimum segment size " +
-                      provenance_parameter(analysis, "minimum segment size") + ": " +
-                      provenance_parameter(analysis, "segments measured") + " measured, " +
+                      analysis.provenance.parameter("feature ranks") + " (" +
+                      analysis.provenance.parameter("features used") + " used), culling " +
+                      analysis.provenance.parameter("culling") + " \u00b7 minimum segment size " +
+                      analysis.provenance.parameter("minimum segment size") + ": " +
+                      analysis.provenance.parameter("segments measured") + " measured, " +
                       std::to_string(left_out) + " left out";
   lines.push_back(first);
   std::string inputs;

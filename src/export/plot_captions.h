@@ -9,9 +9,6 @@
 
 namespace manicule {
 
-// A parameter recorded in the provenance, or "" if the run did not record it.
-std::string provenance_parameter(const Analysis& analysis, const std::string& key);
-
 // "23 speaker segments of lessing-emilia-galotti" / "... of 2 editions".
 std::string describe_measured_segments(const Analysis& analysis);
 

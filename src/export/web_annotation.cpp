@@ -10,8 +10,6 @@ namespace {
 
 const char* const kContext = "http://www.w3.org/ns/anno.jsonld";
 
-std::string without_fragment(const std::string& uri) { return uri.substr(0, uri.find('#')); }
-
 // A TEI pointer (one, no spaces) as one or more WADM targets.
 void add_targets(const StoredResults& results, const std::string& base, const std::string& pointer,
                  nlohmann::ordered_json& targets) {

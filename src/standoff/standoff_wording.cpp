@@ -14,12 +14,6 @@ std::string rounded(double v, const char* format = "%.3f") {
   return buf;
 }
 
-std::string parameter(const Analysis& analysis, const std::string& key) {
-  for (const auto& [k, v] : analysis.provenance.parameters)
-    if (k == key) return v;
-  return "";
-}
-
 std::string k_nearest(const Analysis& analysis) {
   std::size_t k = 0;
   if (analysis.distances)
@@ -78,7 +72,7 @@ std::string distances_note(const Analysis& analysis, bool all_pairs, std::size_t
 std::string pca_note(const Analysis& analysis) {
   const PcaResult& pca = *analysis.pca;
   std::string note = "Principal components of the " + std::to_string(pca.segment_ids.size()) + " measured segments (" +
-                     parameter(analysis, "pca input") + " of " + std::to_string(pca.features.size()) + " features):";
+                     analysis.provenance.parameter("pca input") + " of " + std::to_string(pca.features.size()) + " features):";
   for (Eigen::Index c = 0; c < pca.explained_variance_ratio.size(); ++c)
     note += (c ? ", " : " ") + std::string("PC") + std::to_string(c + 1) + " explains " +
             rounded(100 * pca.explained_variance_ratio(c), "%.1f") + "%";
@@ -88,21 +82,21 @@ std::string pca_note(const Analysis& analysis) {
 std::string settings_description(const Analysis& analysis, bool all_pairs, const std::vector<std::string>& inputs) {
   const Provenance& p = analysis.provenance;
   std::string d = "Selection: " + p.selection + ". Tokenizer: " + p.tokenizer + ". Features: " + p.features +
-                  ", ranks " + parameter(analysis, "feature ranks") + " (" + parameter(analysis, "features used") +
-                  " used), culling " + parameter(analysis, "culling") + ", minimum segment size " +
-                  parameter(analysis, "minimum segment size") + "; " + parameter(analysis, "segments measured") +
+                  ", ranks " + analysis.provenance.parameter("feature ranks") + " (" + analysis.provenance.parameter("features used") +
+                  " used), culling " + analysis.provenance.parameter("culling") + ", minimum segment size " +
+                  analysis.provenance.parameter("minimum segment size") + "; " + analysis.provenance.parameter("segments measured") +
                   " segments measured.";
   if (analysis.distances) {
-    d += " Measure: " + parameter(analysis, "measure") + "; pairs written: " +
+    d += " Measure: " + analysis.provenance.parameter("measure") + "; pairs written: " +
          (all_pairs ? std::string("all") : "each segment's " + k_nearest(analysis) + " nearest") + ".";
   }
-  if (analysis.pca) d += " PCA on " + parameter(analysis, "pca input") + ".";
+  if (analysis.pca) d += " PCA on " + analysis.provenance.parameter("pca input") + ".";
   if (!analysis.attributions.empty() || !analysis.verifications.empty()) {
     d += " Attribution:";
     bool first = true;
     for (const char* key : {"candidate rule", "z-score limit", "labels", "candidates", "questioned segments", "seed",
                             "stability", "general impostors", "impostor files"}) {
-      std::string v = parameter(analysis, key);
+      std::string v = analysis.provenance.parameter(key);
       if (v.empty()) continue;
       d += std::string(first ? " " : "; ") + key + " " + v;
       first = false;
@@ -119,7 +113,7 @@ std::string settings_description(const Analysis& analysis, bool all_pairs, const
 
 std::string run_measure_word(const Analysis& analysis) {
   if (analysis.distances) return measure_word(analysis);
-  std::string m = parameter(analysis, "measure");
+  std::string m = analysis.provenance.parameter("measure");
   return m.substr(0, m.find(" ("));
 }
 

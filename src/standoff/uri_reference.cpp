@@ -27,8 +27,6 @@ std::string percent_encoded(const std::string& path) {
   return out;
 }
 
-std::string without_fragment(const std::string& uri) { return uri.substr(0, uri.find('#')); }
-
 std::string remove_dot_segments(const std::string& path) {
   std::vector<std::string> out;
   std::size_t i = 0;
@@ -50,6 +48,8 @@ std::string remove_dot_segments(const std::string& path) {
 }
 
 }  // namespace
+
+std::string without_fragment(const std::string& uri) { return uri.substr(0, uri.find('#')); }
 
 std::string relative_uri(const std::string& from, const std::string& to) {
   fs::path from_dir = fs::absolute(from).lexically_normal().parent_path();

@@ -15,4 +15,7 @@ std::string file_uri(const std::string& path);
 
 std::string resolve_uri(const std::string& base, const std::string& reference);
 
+// The URI without its fragment ("a.xml#L07" -> "a.xml").
+std::string without_fragment(const std::string& uri);
+
 }  // namespace manicule
