@@ -42,7 +42,6 @@ struct AttributionResult {
   double resample_share = 0;  // share of the features in each resample
   std::uint64_t seed = 0;
   std::vector<std::string> warnings;
-  std::string caution = kAttributionCaution;
 };
 
 // The band of General Impostors scores treated as "undecided", calibrated on problems
@@ -71,7 +70,6 @@ struct VerificationResult {
   std::size_t impostor_pool = 0;  // segments the impostors were drawn from
   std::uint64_t seed = 0;
   std::vector<std::string> warnings;
-  std::string caution = kAttributionCaution;
 };
 
 // `evaluate`: how the settings fare on the run's own labelled segments.

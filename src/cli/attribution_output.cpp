@@ -73,7 +73,7 @@ nlohmann::json attributions_json(const Analysis& analysis, std::size_t top) {
                     {"seed", r.seed},
                     {"candidates", candidates},
                     {"warnings", r.warnings},
-                    {"caution", r.caution}});
+                    {"caution", kAttributionCaution}});
   }
   doc["attributions"] = list;
   return doc;
@@ -117,7 +117,7 @@ nlohmann::json verifications_json(const Analysis& analysis) {
                     {"impostor_pool", v.impostor_pool},
                     {"seed", v.seed},
                     {"warnings", v.warnings},
-                    {"caution", v.caution}});
+                    {"caution", kAttributionCaution}});
   }
   doc["verifications"] = list;
   return doc;

@@ -69,12 +69,12 @@ void StandoffBuilder::add_attributions(Parts& parts) const {
       add_feature(entry, "words").add(count(c.words));
     }
     add_strings(fs, "warnings", r.warnings);
-    add_feature(fs, "caution").add_text_element("string", r.caution);
+    add_feature(fs, "caution").add_text_element("string", kAttributionCaution);
     parts.values.add(std::move(fs));
 
     XmlNode a = annotation(ids_.claim(prefix + "ann-attr-" + key), target_.reference(r.segment), "assessing",
                            attribution_note(analysis_, r, label_from_here(r.segment)));
-    a.add_text_element("note", r.caution, {{"type", "caution"}, {"xml:lang", "en"}});
+    a.add_text_element("note", kAttributionCaution, {{"type", "caution"}, {"xml:lang", "en"}});
     if (!r.candidates.empty()) {
       const CandidateDistance& first = r.candidates.front();
       std::string pointer = candidate_pointer(first.candidate, target_.reference(first.nearest_segment));
@@ -111,7 +111,7 @@ void StandoffBuilder::add_verifications(Parts& parts) const {
     add_feature(fs, "impostorPool").add(count(r.impostor_pool));
     add_feature(fs, "seed").add(numeric(std::to_string(r.seed)));
     add_strings(fs, "warnings", r.warnings);
-    add_feature(fs, "caution").add_text_element("string", r.caution);
+    add_feature(fs, "caution").add_text_element("string", kAttributionCaution);
     parts.values.add(std::move(fs));
 
     // A thresholded decision commits to a label (classifying); an undecided score only
@@ -119,7 +119,7 @@ void StandoffBuilder::add_verifications(Parts& parts) const {
     const char* motivation = r.decision == "undecided" ? "assessing" : "classifying";
     XmlNode a = annotation(ids_.claim(prefix + "ann-verif-" + key), target_.reference(r.segment), motivation,
                            verification_note(analysis_, r, label_from_here(r.segment)));
-    a.add_text_element("note", r.caution, {{"type", "caution"}, {"xml:lang", "en"}});
+    a.add_text_element("note", kAttributionCaution, {{"type", "caution"}, {"xml:lang", "en"}});
     a.add(XmlNode::element("ptr", {{"type", "result"}, {"target", "#" + value_id}}));
     parts.annotations.add(std::move(a));
   }
