@@ -69,6 +69,21 @@ std::vector<CandidateMeasure> rank_candidates(const ProfileSpace& space, const d
   return out;
 }
 
+std::string rule_option_name(CandidateRule rule) {
+  switch (rule) {
+    case CandidateRule::weighted_centroid: return "weighted-centroid";
+    case CandidateRule::centroid: return "centroid";
+    case CandidateRule::nearest: return "nearest";
+  }
+  return "weighted-centroid";
+}
+
+CandidateRule rule_from_option_name(const std::string& name) {
+  for (CandidateRule rule : {CandidateRule::centroid, CandidateRule::nearest})
+    if (name == rule_option_name(rule)) return rule;
+  return CandidateRule::weighted_centroid;
+}
+
 std::string rule_name(CandidateRule rule) {
   switch (rule) {
     case CandidateRule::weighted_centroid: return "weighted centroid";

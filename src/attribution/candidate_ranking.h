@@ -31,5 +31,9 @@ std::vector<CandidateMeasure> rank_candidates(const ProfileSpace& space, const d
                                               CandidateRule rule, double spread, const ColumnSubset& columns);
 
 std::string rule_name(CandidateRule rule);  // "weighted centroid", "centroid", "nearest segment"
+// The rule as the command line names it: "weighted-centroid", "centroid", "nearest".
+std::string rule_option_name(CandidateRule rule);
+// The rule an option name stands for (weighted centroid for any other name).
+CandidateRule rule_from_option_name(const std::string& name);
 
 }  // namespace manicule

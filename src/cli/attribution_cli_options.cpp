@@ -14,18 +14,6 @@ namespace manicule::cli {
 
 namespace fs = std::filesystem;
 
-namespace {
-
-CandidateRule parse_rule(const std::string& name) {
-  if (name == "centroid") return CandidateRule::centroid;
-  if (name == "nearest") return CandidateRule::nearest;
-  return CandidateRule::weighted_centroid;
-}
-
-std::string number_text(double x) { return exact_number(x); }
-
-}  // namespace
-
 void AttributionCommandOptions::add_to(CLI::App& command, AttributionTask task) {
   measuring.analysis.ranks = std::string(kAttributionRanks);
   measuring.add_to(command, {"tsv", "json"}, true);
@@ -111,7 +99,7 @@ Request AttributionCommandOptions::to_request() const {
 
 void AttributionCommandOptions::apply_settings(Request& request) const {
   request.attribution = settings;
-  request.attribution.rule = parse_rule(rule);
+  request.attribution.rule = rule_from_option_name(rule);
   if (!labels_file.empty()) request.attribution.labels = load_label_file(labels_file);
   if (!impostor_inputs.empty()) {
     request.attribution.impostor_files = expand_inputs(impostor_inputs);
@@ -158,15 +146,13 @@ SegmentRoles assign_roles_noting(Analysis& analysis, const Request& request, Att
     analysis.notes.push_back(w);
   }
   auto& p = analysis.provenance.parameters;
-  bool has_measure = false;
-  for (const auto& entry : p) has_measure = has_measure || entry.first == "measure";
-  if (!has_measure)
+  if (analysis.provenance.parameter("measure").empty())
     p.emplace_back("measure", std::string(measure_info(request.measure).name) + " (" +
                                   std::string(measure_info(request.measure).citation) + ")");
   p.emplace_back("candidate rule", rule_name(s.rule) + (s.rule == CandidateRule::weighted_centroid
-                                                             ? ", spread " + number_text(s.weight_spread)
+                                                             ? ", spread " + exact_number(s.weight_spread)
                                                              : std::string()));
-  p.emplace_back("z-score limit", s.z_limit > 0 ? "+-" + number_text(s.z_limit) : "none");
+  p.emplace_back("z-score limit", s.z_limit > 0 ? "+-" + exact_number(s.z_limit) : "none");
   p.emplace_back("labels", s.labels.empty() ? "from the edition"
                                             : "from the edition, overridden by " + s.labels.front().source);
   p.emplace_back("candidates", std::to_string(roles.candidates.size()));
@@ -174,11 +160,11 @@ SegmentRoles assign_roles_noting(Analysis& analysis, const Request& request, Att
   p.emplace_back("seed", std::to_string(s.seed));
   if (steps.ranking) {
     p.emplace_back("stability", std::to_string(s.resamples) + " random subsets of " +
-                                    number_text(s.resample_share * 100) + "% of the features");
+                                    exact_number(s.resample_share * 100) + "% of the features");
   }
   if (steps.impostors) {
     p.emplace_back("general impostors", std::to_string(s.impostor_iterations) + " rounds, " +
-                                            number_text(s.impostor_feature_share * 100) + "% of the features and " +
+                                            exact_number(s.impostor_feature_share * 100) + "% of the features and " +
                                             std::to_string(s.impostors_per_iteration) + " impostors a round");
     if (!s.impostor_files.empty()) p.emplace_back("impostor files", std::to_string(s.impostor_files.size()));
   }

@@ -1,6 +1,7 @@
 #include "store/store_analysis.h"
 
 #include "attribution/attribute.h"
+#include "attribution/candidate_ranking.h"
 #include "attribution/segment_roles.h"
 #include "core/error.h"
 #include "core/facade.h"
@@ -11,11 +12,6 @@
 namespace manicule::store {
 
 namespace {
-
-std::string rule_name(CandidateRule rule) {
-  return rule == CandidateRule::weighted_centroid ? "weighted-centroid" : rule == CandidateRule::centroid ? "centroid"
-                                                                                                          : "nearest";
-}
 
 nlohmann::json analysis_parameters(Database& db, std::int64_t settings_id, const Request& r,
                                    const StoreAnalysisOptions& options) {
@@ -35,7 +31,7 @@ nlohmann::json analysis_parameters(Database& db, std::int64_t settings_id, const
                       {"pca", r.compute_pca}};
   if (options.attribute) {
     const AttributionOptions& a = r.attribution;
-    p["attribution"] = {{"rule", rule_name(a.rule)}, {"weight_spread", a.weight_spread}, {"z_limit", a.z_limit},
+    p["attribution"] = {{"rule", rule_option_name(a.rule)}, {"weight_spread", a.weight_spread}, {"z_limit", a.z_limit},
                         {"resamples", a.resamples}, {"resample_share", a.resample_share}, {"seed", a.seed},
                         {"reliable_words", a.reliable_words}, {"caution", kAttributionCaution}};
   }
