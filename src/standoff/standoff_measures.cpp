@@ -15,12 +15,11 @@ using namespace tei_fs;
 std::vector<std::pair<std::size_t, std::size_t>> StandoffBuilder::pairs() const {
   std::set<std::pair<std::size_t, std::size_t>> out;
   if (!analysis_.distances) return {};
-  std::set<std::size_t> members(target_.members.begin(), target_.members.end());
   if (options_.all_pairs) {
     const auto& rows = analysis_.distances->rows;
     for (std::size_t a = 0; a < rows.size(); ++a)
       for (std::size_t b = a + 1; b < rows.size(); ++b)
-        if (members.count(rows[a]) || members.count(rows[b]))
+        if (is_member(rows[a]) || is_member(rows[b]))
           out.emplace(std::min(rows[a], rows[b]), std::max(rows[a], rows[b]));
   } else {
     for (std::size_t segment : target_.members) {
@@ -40,9 +39,8 @@ void StandoffBuilder::add_distances(Parts& parts) const {
   const FeatureSpec& spec = analysis_.table.spec;
   const std::string prefix(kOurIdPrefix);
   for (const auto& [a, b] : written) {
-    std::string key = target_.segment_ids[a].key + "-" + target_.segment_ids[b].key;
-    if (target_.segment_ids[a].key.empty() || target_.segment_ids[b].key.empty())
-      key = id_key(analysis_.segments[a].local_id) + "-" + id_key(analysis_.segments[b].local_id);
+    // The segments' keys (claim_segment_ids), also for a segment of a file not written into.
+    const std::string key = id_key(analysis_.segments[a].local_id) + "-" + id_key(analysis_.segments[b].local_id);
     std::string link_id = ids_.claim(prefix + "link-" + key);
     std::string value_id = ids_.claim(prefix + "dist-" + key);
     parts.links.add(XmlNode::element(
