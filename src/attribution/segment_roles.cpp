@@ -19,13 +19,6 @@ std::string edition_label(const SegmentSummary& s) {
 
 }  // namespace
 
-std::vector<std::size_t> SegmentRoles::segments_of(const std::string& candidate) const {
-  std::vector<std::size_t> out;
-  for (std::size_t i = 0; i < role.size(); ++i)
-    if (role[i] == SegmentRole::known && label[i] == candidate) out.push_back(i);
-  return out;
-}
-
 std::vector<std::size_t> SegmentRoles::with_role(SegmentRole r) const {
   std::vector<std::size_t> out;
   for (std::size_t i = 0; i < role.size(); ++i)

@@ -34,8 +34,6 @@ struct SegmentRoles {
   std::size_t questioned_too_short = 0;  // questioned segments below the minimum size
   std::size_t largest_too_short = 0;     // words of the largest of them
 
-  // The measured known segments of `candidate` (indices into Analysis::segments).
-  std::vector<std::size_t> segments_of(const std::string& candidate) const;
   std::vector<std::size_t> with_role(SegmentRole r) const;
 };
 

@@ -136,7 +136,6 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     if (it != edition_of_file.end()) edition_of[s] = it->second;
   }
 
-  std::vector<std::size_t> added(open.size(), 0);
   if (settings.add_ids) {
     for (std::size_t k = 0; k < open.size(); ++k) {
       std::vector<std::size_t> members;
@@ -145,7 +144,6 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
       AddedIds given = give_segments_ids(analysis, members, open[k].scan, open[k].ids, open[k].snapshot->path);
       open[k].id_insertions = std::move(given.insertions);
       open[k].added_ids = std::move(given.ids);
-      added[k] = open[k].id_insertions.size();
     }
   }
   for (Edition& e : open)
@@ -243,7 +241,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     out.bytes = encode_edition(e.text, with_insertions(e.clean, all));
     out.replacing = settings.mode == AnnotateMode::in_place ? e.snapshot : nullptr;
     out.notes = plan.notes;
-    out.ids_added = added[k];
+    out.ids_added = e.id_insertions.size();
     SpliceExpectations expected;
     expected.standoff_id = builder.standoff_id();
     for (const auto& i : plan.insertions) {

@@ -16,7 +16,6 @@ class IdRegistry {
   explicit IdRegistry(std::set<std::string> taken) : taken_(std::move(taken)) {}
   // `wanted` if free, else the first free `wanted-N` (N = 2, 3, ...); marks it taken.
   std::string claim(const std::string& wanted);
-  bool taken(const std::string& id) const { return taken_.count(id) != 0; }
 
  private:
   std::set<std::string> taken_;

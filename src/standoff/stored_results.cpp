@@ -9,12 +9,6 @@
 
 namespace manicule {
 
-const StoredAnnotation* StoredResults::annotation_for(const std::string& id) const {
-  for (const auto& a : annotations)
-    if (a.id == id) return &a;
-  return nullptr;
-}
-
 namespace {
 
 // A small tree of the parts we read back.
@@ -176,7 +170,6 @@ StoredResults read_stored_results(const std::string& path) {
   collect(standoff, out);
   if (!collector.applications.empty()) {
     const Node& app = *collector.applications.front();
-    out.application_id = app.attr("xml:id");
     out.version = app.attr("version");
     out.when = app.attr("when");
     if (const Node* desc = app.child("desc")) out.settings = collapse(desc->text);

@@ -31,14 +31,13 @@ struct StoredLink {
 struct StoredResults {
   std::string file;
   std::string standoff_id;
-  std::string application_id, version, when, settings;  // our application entry, if any
+  std::string version, when, settings;  // our application entry, if any
   std::vector<StoredAnnotation> annotations;
   std::string link_group_id;  // the linkGrp of distances
   std::vector<StoredLink> links;
   std::map<std::string, std::string> joins;     // join xml:id -> its @target
   std::map<std::string, nlohmann::json> values;  // fs xml:id -> {"type": ..., features...}
 
-  const StoredAnnotation* annotation_for(const std::string& id) const;
 };
 
 // Throws Error(bad_input) for unreadable or malformed files and for a file without

@@ -116,7 +116,6 @@ void Statement::step_to_end() {
 void Statement::reset() { sqlite3_reset(stmt_); }
 
 std::int64_t Statement::int64_at(int column) const { return sqlite3_column_int64(stmt_, column); }
-double Statement::double_at(int column) const { return sqlite3_column_double(stmt_, column); }
 
 std::string Statement::text_at(int column) const {
   const unsigned char* text = sqlite3_column_text(stmt_, column);

@@ -49,7 +49,6 @@ class Statement {
 
   // Columns are numbered from 0.
   std::int64_t int64_at(int column) const;
-  double double_at(int column) const;
   std::string text_at(int column) const;   // "" for NULL
   std::string_view blob_at(int column) const;  // valid until the next step or reset
   bool is_null(int column) const;

@@ -100,7 +100,6 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
                                            request.feature_space.min_segment_tokens);
   result.files = stored.corpus.files.size();
   result.segments = stored.corpus.segments.size();
-  result.too_short = stored.segments_too_short;
   if (stored.corpus.segments.size() < 2)
     throw Error(ErrorKind::nothing_selected,
                 std::to_string(stored.corpus.segments.size()) + " stored segment(s) of at least " +

@@ -22,7 +22,6 @@ struct StoreAnalysisResult {
   std::size_t segments = 0;       // segments loaded (long enough)
   std::size_t measured = 0;       // rows of the feature table
   std::size_t features = 0;
-  std::size_t too_short = 0;      // segments below the minimum size
   std::size_t files_failed = 0;   // stored as failed, left out
   std::size_t files_not_read = 0; // in the store but not read under these settings
   std::size_t attributions = 0;
