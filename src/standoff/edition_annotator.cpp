@@ -42,8 +42,14 @@ Edition open_edition(const FileSnapshot& snapshot, bool for_writing) {
   e.snapshot = &snapshot;
   e.text = decode_edition(snapshot.bytes, snapshot.path);
   ScannedDocument first = scan_xml(e.text.text, snapshot.path);
-  e.clean = without_ranges(e.text.text, previous_results(first, e.text.text));
-  e.scan = scan_xml(e.clean, snapshot.path);
+  const std::vector<ByteRange> earlier = previous_results(first, e.text.text);
+  if (earlier.empty()) {  // a first run: nothing to take out, the scan stands
+    e.clean = e.text.text;
+    e.scan = std::move(first);
+  } else {
+    e.clean = without_ranges(e.text.text, earlier);
+    e.scan = scan_xml(e.clean, snapshot.path);
+  }
   if (for_writing) e.ascii_only = needs_ascii_insertions(e.scan.declared_encoding, e.text.form, snapshot.path);
   e.ids = IdRegistry(e.scan.xml_ids);
   return e;
