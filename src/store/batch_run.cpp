@@ -51,27 +51,38 @@ std::unordered_map<std::string, StoredReading> stored_readings(Database& db, std
   return out;
 }
 
-// Is `path` one that a batch over `inputs` would have found?
-bool under_inputs(const std::string& path, const std::vector<std::string>& inputs) {
-  namespace fs = std::filesystem;
-  for (const auto& input : inputs) {
-    if (path == input) return true;
-    std::string prefix = input.empty() || input.back() == '/' ? input : input + "/";
-    std::error_code ec;
-    if (fs::is_directory(input, ec) && path.rfind(prefix, 0) == 0) return true;
+// What a batch over `inputs` finds: the files named, and what lies below the folders named
+// (each folder as a prefix ending in '/'). Worked out once, not for every stored file.
+struct InputScope {
+  std::unordered_set<std::string> files;
+  std::vector<std::string> folder_prefixes;
+
+  explicit InputScope(const std::vector<std::string>& inputs) {
+    for (const auto& input : inputs) {
+      files.insert(input);
+      std::error_code ec;
+      if (std::filesystem::is_directory(input, ec))
+        folder_prefixes.push_back(input.empty() || input.back() == '/' ? input : input + "/");
+    }
   }
-  return false;
-}
+  bool covers(const std::string& path) const {
+    if (files.count(path)) return true;
+    for (const auto& prefix : folder_prefixes)
+      if (path.rfind(prefix, 0) == 0) return true;
+    return false;
+  }
+};
 
 std::size_t remove_vanished(Database& db, const Request& request, const BatchOptions& options,
                             const std::vector<ArchiveFile>& files) {
   std::unordered_set<std::string> found;
   for (const auto& f : files) found.insert(f.path);
+  const InputScope scope(request.inputs);
   std::vector<std::string> gone;
   Statement all = db.prepare("SELECT path, relative_path FROM files");
   while (all.step()) {
     std::string path = all.text_at(0), relative = all.text_at(1);
-    if (!found.count(path) && under_inputs(path, request.inputs) && in_folder(options.filter, path, relative) &&
+    if (!found.count(path) && scope.covers(path) && in_folder(options.filter, path, relative) &&
         in_shard(relative, options.shard))
       gone.push_back(path);
   }
