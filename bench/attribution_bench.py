@@ -24,14 +24,13 @@ import sys
 import tempfile
 import time
 
-import numpy as np
-
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
+sys.path.insert(0, os.path.join(ROOT, "tests", "pylib"))
+from attribution_baseline import baseline, regex_tokens, write_labels  # noqa: E402
 BIN = sys.argv[1] if len(sys.argv) > 1 else os.path.join(ROOT, "build", "manicule")
 CORPORA = os.environ.get("MANICULE_CORPORA", os.path.join(ROOT, "..", "shared", "corpora"))
 NOVELS, PLAYS = os.path.join(CORPORA, "eltec-eng"), os.path.join(CORPORA, "gerdracor")
 TMP = tempfile.mkdtemp()
-WORD = re.compile(r"\w+(?:['’.:·]\w+)*")
 
 
 def run(args):
@@ -49,38 +48,8 @@ def evaluate(args):
 
 def labels_file(name, rows):
     path = os.path.join(TMP, name)
-    with open(path, "w", newline="") as f:
-        w = csv.writer(f)
-        w.writerow(["segment", "label"])
-        w.writerows(rows)
+    write_labels(path, rows)
     return path
-
-
-def baseline(counters, labels, groups, mfw):
-    total = collections.Counter()
-    for c in counters:
-        total.update(c)
-    vocab = [w for w, _ in sorted(total.items(), key=lambda x: (-x[1], x[0]))[:mfw]]
-    index = {w: k for k, w in enumerate(vocab)}
-    rel = np.zeros((len(counters), len(vocab)))
-    for r, c in enumerate(counters):
-        n = sum(c.values())
-        for w, k in c.items():
-            if w in index:
-                rel[r, index[w]] = k / n
-    sd = rel.std(axis=0, ddof=1)
-    z = (rel - rel.mean(axis=0)) / np.where(sd > 0, sd, 1)
-    z[:, sd == 0] = 0
-    z /= np.linalg.norm(z, axis=1, keepdims=True)
-    labels, groups = np.array(labels), np.array(groups)
-    authors = sorted(set(labels))
-    correct = 0
-    for i in range(len(labels)):
-        train = groups != groups[i]
-        names = [a for a in authors if (train & (labels == a)).any()]
-        cent = np.array([z[train & (labels == a)].mean(axis=0) for a in names])
-        correct += names[int(np.argmax(cent @ z[i] / np.linalg.norm(cent, axis=1)))] == labels[i]
-    return correct
 
 
 def baseline_texts(unit, files, keep):
@@ -89,8 +58,7 @@ def baseline_texts(unit, files, keep):
     for s in json.loads(out)["segments"]:
         if keep(s):
             text = " ".join(r["text"] for r in s["text"])
-            result.append((s["segment"], collections.Counter(
-                w.casefold() for w in WORD.findall(text) if any(ch.isalpha() for ch in w))))
+            result.append((s["segment"], collections.Counter(regex_tokens(text))))
     return result
 
 

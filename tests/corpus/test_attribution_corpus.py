@@ -6,7 +6,7 @@ taken over ALL segments of the run, a regex tokenizer (letters/digits joined by 
 case-folded, segments without a letter dropped), the most frequent words of the run, and
 the nearest author centroid. The texts are those `manicule segments --show-text` selects
 (selection itself is checked against lxml in test_selection_corpus.py); tokenizing,
-counting, standardising and attributing are done here independently.
+counting, standardising and attributing are done independently (tests/pylib/attribution_baseline.py).
 
 Asserted (defaults of `manicule evaluate`):
 - eltec-eng novels, authors with two or more novels in eltec-eng-metadata.tsv (27 novels by
@@ -23,13 +23,12 @@ import collections
 import csv
 import json
 import os
-import re
 import sys
 import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
 import mtest  # noqa: E402
-import numpy as np  # noqa: E402
+from attribution_baseline import baseline, regex_tokens, write_labels  # noqa: E402
 
 NOVELS = os.path.join(mtest.CORPORA, "eltec-eng")
 PLAYS = os.path.join(mtest.CORPORA, "gerdracor")
@@ -38,52 +37,15 @@ if not (os.path.isdir(NOVELS) and os.path.isdir(PLAYS) and os.path.isfile(METADA
     print("corpora not found at " + mtest.CORPORA)
     sys.exit(77)
 tmp = tempfile.mkdtemp()
-WORD = re.compile(r"\w+(?:['’.:·]\w+)*")
-
-
-def regex_tokens(text):
-    return [w.casefold() for w in WORD.findall(text) if any(c.isalpha() for c in w)]
-
-
 def strict_json(text):
     def no_constant(name):
         mtest.fail("JSON holds " + name)
     return json.loads(text, parse_constant=no_constant)
 
 
-def write_labels(path, rows):
-    with open(path, "w", newline="") as f:
-        w = csv.writer(f)
-        w.writerow(["segment", "label"])
-        w.writerows(rows)
-
-
 def texts(unit, files):
     segs = json.loads(mtest.run(["segments", "--format", "json", "--show-text", "--unit", unit] + files).stdout)
     return [(s["segment"], s["tokens"], " ".join(r["text"] for r in s["text"])) for s in segs["segments"]]
-
-
-def baseline(counters, labels, groups, mfw):
-    """Nearest author centroid, Cosine Delta on z over all segments; held-out group left out."""
-    total = collections.Counter()
-    for c in counters:
-        total.update(c)
-    vocab = [w for w, _ in sorted(total.items(), key=lambda x: (-x[1], x[0]))[:mfw]]
-    rel = np.array([[c[w] / sum(c.values()) for w in vocab] for c in counters])
-    sd = rel.std(axis=0, ddof=1)
-    z = (rel - rel.mean(axis=0)) / np.where(sd > 0, sd, 1)
-    z[:, sd == 0] = 0
-    z /= np.linalg.norm(z, axis=1, keepdims=True)
-    labels, groups = np.array(labels), np.array(groups)
-    authors = sorted(set(labels))
-    correct = 0
-    for i in range(len(labels)):
-        train = groups != groups[i]
-        names = [a for a in authors if (train & (labels == a)).any()]
-        cent = np.array([z[train & (labels == a)].mean(axis=0) for a in names])
-        sims = cent @ z[i] / np.linalg.norm(cent, axis=1)
-        correct += names[int(np.argmax(sims))] == labels[i]
-    return correct
 
 
 def evaluate(args):
