@@ -3,15 +3,15 @@ edition examples/ferry-letters.xml as TEI standoff, checked without our own code
 - the edition's bytes are kept: difflib finds only insertions, of elements write-back may
   add, where TEI allows them (tests/pylib/standoff_check.py);
 - the result validates against TEI P5 4.12.0 tei_all.rng (jing);
-- which letters are questioned and who the candidates are is read here with lxml from
-  correspDesc/correspAction[@type='sent']/persName (a sender with @ref and no @cert is
-  known; none, no @ref, or @cert is questioned: TEI P5 13.3.2.1 on @cert, 2.4.6 on
-  correspDesc), and each questioned letter has one annotation with motivation "assessing"
-  and each verification "classifying" when it decides and "assessing" when undecided
+- which letters are questioned and who the candidates are is read with lxml from
+  correspDesc/correspAction[@type='sent']/persName (tests/pylib/attribution_reference.py:
+  a sender with @ref, not conjectured, is known), and each questioned letter has one
+  annotation with motivation "assessing" and each verification "classifying" when it
+  decides and "assessing" when undecided
   (tei-conventions.md section 6, after W3C Web Annotation motivations);
 - the candidate distances in the fs are recomputed with numpy from `profile --values
-  counts` (z-scores over the run with ddof=1, limited to +-2, cosine distance, weighted
-  centroid exp(-(d/d_min - 1)/0.2): docs/attribution.md);
+  counts` (tests/pylib/attribution_reference.py: z-scores over the run, limited to +-2,
+  cosine distance, weighted centroid);
 - every attribution and verification annotation carries the caution, in TEI and in the
   W3C Web Annotation export (a body with purpose "commenting"); `show` reads back the
   candidates and distances lxml reads in the file;
@@ -27,6 +27,7 @@ import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
+from attribution_reference import cosine, letter_senders, to_candidate, z_scores  # noqa: E402
 import numpy as np  # noqa: E402
 from lxml import etree  # noqa: E402
 from standoff_check import NS, PARSER, check_insertions, id_targets, jing_errors  # noqa: E402
@@ -38,18 +39,6 @@ CAUTION = "Statistical evidence, not proof"
 BASE = ["--unit", "letter", "--min-tokens", "200"]
 SETTINGS = ["--resamples", "20", "--iterations", "40"]
 tmp = tempfile.mkdtemp()
-
-
-def senders(path):
-    """letter id -> candidate label ('#p-...') or '' (questioned), read with lxml."""
-    tree = etree.parse(path, PARSER)
-    out = {}
-    for div in tree.iterfind(".//tei:text//tei:div[@type='letter']", NS):
-        cd = tree.xpath(".//tei:correspDesc[@xml:id=$id]", namespaces=NS, id=div.get("decls").lstrip("#"))[0]
-        person = cd.find("tei:correspAction[@type='sent']/tei:persName", NS)
-        known = person is not None and person.get("ref") and person.get("cert") is None
-        out[div.get(XML_ID)] = person.get("ref") if known else ""
-    return out
 
 
 def fs_value(fs, name):
@@ -74,7 +63,7 @@ mtest.check(not any(errors.values()), "tei_all (jing) rejects the annotated edit
 
 tree = etree.fromstring(after, PARSER)
 ids = id_targets(tree)
-who = senders(LETTERS)
+who = {k.split("#")[1]: v for k, v in letter_senders(LETTERS, "ferry-letters").items()}
 questioned = sorted(k for k, v in who.items() if not v)
 candidates = sorted(set(v for v in who.values() if v))
 mtest.check(questioned == ["L07", "L10", "L12"], "lxml finds questioned letters %s" % questioned)
@@ -86,20 +75,7 @@ features = [k for k in rows[0] if k != "segment"]
 counts = np.array([[float(r[f]) for f in features] for r in rows])
 words = {s["segment"]: s["tokens"] for s in
          json.loads(mtest.run(["segments", "--format", "json", "--unit", "letter", LETTERS]).stdout)["segments"]}
-rel = counts / np.array([words[i] for i in seg_ids], dtype=float)[:, None]
-sd = rel.std(axis=0, ddof=1)
-Z = np.clip(np.where(sd > 0, (rel - rel.mean(axis=0)) / np.where(sd > 0, sd, 1), 0.0), -2, 2)
-
-
-def cosine(a, b):
-    return max(0.0, 1 - float(a @ b) / (np.linalg.norm(a) * np.linalg.norm(b)))
-
-
-def weighted_centroid(q, members):
-    d = np.array([cosine(q, m) for m in members])
-    w = np.exp(-(d / d.min() - 1) / 0.2)
-    return cosine(q, (w[:, None] * members).sum(axis=0) / w.sum())
-
+Z = z_scores(counts, words, seg_ids, 2.0)
 
 annotations = tree.findall(".//tei:standOff[@type='stylometry']//tei:annotation", NS)
 attribution_targets = []
@@ -117,7 +93,8 @@ for ann in annotations:
         mtest.check(ann.get("motivation") == "assessing", "attribution motivation %s" % ann.get("motivation"))
         attribution_targets.append(letter)
         q = Z[seg_ids.index("ferry-letters#" + letter)]
-        expected = {c: weighted_centroid(q, Z[[seg_ids.index("ferry-letters#" + k) for k, v in who.items() if v == c]])
+        expected = {c: to_candidate(q, Z[[seg_ids.index("ferry-letters#" + k) for k, v in who.items() if v == c]],
+                                    "weighted", cosine)
                     for c in candidates}
         order = sorted(candidates, key=lambda c: expected[c])
         got = [(e.find("tei:f[@name='candidate']/tei:string", NS).text, fs_value(e, "distance"))

@@ -5,9 +5,11 @@ senders, L07 unsigned, L10 signed "Unknown", L12 ascribed with cert="low") is re
 store; analyse-store --attribute must rank the three senders for exactly the questioned
 letters (no sender, or one the edition only conjectures: TEI @cert below high, or
 @evidence="conjecture"). Outside references: lxml for who sent which letter (correspDesc,
-linked by @decls) and how certain the edition is, and so which letters are questioned; numpy and SciPy for each candidate's nearest single letter: the
-smallest cosine distance between z-scores clipped to +-2 (the attribution layer's default
-z limit, docs/attribution.md), over the features the analysis stored.
+linked by @decls) and how certain the edition is, and so which letters are questioned;
+numpy and SciPy, over the features the analysis stored and z-scores clipped to +-2 (the
+attribution layer's default z limit, docs/attribution.md), for each candidate's distance
+under the weighted-centroid rule, the ranking and the margin, and each candidate's nearest
+single letter (tests/pylib/attribution_reference.py).
 """
 import json
 import os
@@ -17,28 +19,14 @@ import tempfile
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
+from attribution_reference import cosine, letter_senders, to_candidate, z_from_relative  # noqa: E402
 import numpy as np  # noqa: E402
-from lxml import etree  # noqa: E402
 from scipy.spatial.distance import cdist  # noqa: E402
 
-TEI = "{http://www.tei-c.org/ns/1.0}"
-XML_ID = "{http://www.w3.org/XML/1998/namespace}id"
 letters = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
 
-# Senders by lxml: each letter's div/@decls names its correspDesc; a sender with @ref is known.
-tree = etree.parse(letters)
-sender_of_desc = {}
-for desc in tree.iter(TEI + "correspDesc"):
-    sent = [a for a in desc.iter(TEI + "correspAction") if a.get("type") == "sent"]
-    name = sent[0].find(".//" + TEI + "persName") if sent else None
-    sure = name is not None and name.get("ref") and name.get("evidence") != "conjecture" \
-        and name.get("cert") in (None, "high", "1", "1.0")
-    sender_of_desc[desc.get(XML_ID)] = name.get("ref") if sure else ""
-known = {}
-for div in tree.iter(TEI + "div"):
-    if div.get("type") == "letter":
-        desc = (div.get("decls") or "").lstrip("#")
-        known["ferry-letters#" + div.get(XML_ID)] = sender_of_desc.get(desc, "")
+# Senders by lxml: each letter's div/@decls names its correspDesc; a sure sender is known.
+known = letter_senders(letters, "ferry-letters")
 questioned = sorted(s for s, who in known.items() if not who)
 candidates = sorted(set(who for who in known.values() if who))
 mtest.check(questioned == ["ferry-letters#L07", "ferry-letters#L10", "ferry-letters#L12"] and len(candidates) == 3,
@@ -82,9 +70,23 @@ with tempfile.TemporaryDirectory() as tmp:
     counts = [{forms[f]: n for f, n in storecheck.decode_counts(m[2])} for m in measured]
     rel = np.array([[c.get(f, 0) for f in features] for c in counts], dtype=float)
     rel /= np.array([m[1] for m in measured], dtype=float)[:, None]
-    sd = rel.std(axis=0, ddof=1)
-    z = np.clip(np.where(sd > 0, (rel - rel.mean(axis=0)) / np.where(sd > 0, sd, 1), 0.0), -2, 2)
+    z = z_from_relative(rel, 2.0)
     d = cdist(z, z, "cosine")
+    # Each candidate's distance under the stored rule (weighted centroid, spread 0.2), the
+    # ranking and the margin, by numpy (docs/attribution.md; attribution_reference.py).
+    mtest.check(parameters["attribution"]["rule"] == "weighted-centroid", "the default rule is stored")
+    for segment in questioned:
+        i = names.index(segment)
+        expected = {c: to_candidate(z[i], z[[j for j, n in enumerate(names) if known.get(n) == c]], "weighted", cosine)
+                    for c in candidates}
+        order = sorted(candidates, key=expected.get)
+        mine = [r for r in rows if r[0] == segment]
+        mtest.check([r[2] for r in mine] == order, "%s: ranking %r, numpy %r" % (segment, [r[2] for r in mine], order))
+        for r in mine:
+            mtest.check(mtest.close(r[3], expected[r[2]], rel=1e-9, abs_=1e-12),
+                        "%s / %s: distance %r, numpy %r" % (segment, r[2], r[3], expected[r[2]]))
+        mtest.check(mtest.close(mine[0][6], expected[order[1]] - expected[order[0]], rel=1e-9, abs_=1e-12),
+                    "%s: margin against numpy" % segment)
     for segment, _, candidate, _, nearest, nearest_distance, _, _ in rows:
         own = [j for j, n in enumerate(names) if known.get(n) == candidate]
         i = names.index(segment)

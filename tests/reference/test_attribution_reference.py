@@ -23,6 +23,7 @@ import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
 import mtest  # noqa: E402
+from attribution_reference import SplitMix64, burrows, cosine, to_candidate, z_scores  # noqa: E402
 import numpy as np  # noqa: E402
 from sklearn.metrics import roc_auc_score  # noqa: E402
 
@@ -48,38 +49,6 @@ with open(labels_path, "w", newline="") as f:
             w.writerow([s + "#whole1", "" if s in QUESTIONED else author])
 label_of = {s + "#whole1": ("" if s in QUESTIONED else a) for a in AUTHORS for s in AUTHORS[a]}
 
-M64 = (1 << 64) - 1
-
-
-class SplitMix64:
-    def __init__(self, seed):
-        self.state = seed & M64
-
-    def next(self):
-        self.state = (self.state + 0x9E3779B97F4A7C15) & M64
-        z = self.state
-        z = ((z ^ (z >> 30)) * 0xBF58476D1CE4E5B9) & M64
-        z = ((z ^ (z >> 27)) * 0x94D049BB133111EB) & M64
-        return z ^ (z >> 31)
-
-    def below(self, n):  # Lemire 2019: multiply, reject the biased low part
-        m = self.next() * n
-        low = m & M64
-        if low < n:
-            threshold = ((1 << 64) - n) % n
-            while low < threshold:
-                m = self.next() * n
-                low = m & M64
-        return m >> 64
-
-    def choose(self, n, k):  # partial Fisher-Yates
-        pool = list(range(n))
-        for i in range(min(k, n)):
-            j = i + self.below(n - i)
-            pool[i], pool[j] = pool[j], pool[i]
-        return pool[:min(k, n)]
-
-
 def table(extra):
     out = mtest.run(["profile", "--values", "counts", "--ranks", "1-%d" % RANKS] + extra).stdout
     rows = mtest.read_tsv(out)
@@ -92,35 +61,6 @@ def table(extra):
 def words_of(extra):
     segs = json.loads(mtest.run(["segments", "--format", "json"] + extra).stdout)["segments"]
     return {s["segment"]: s["tokens"] for s in segs}
-
-
-def z_scores(counts, words, ids, limit):
-    rel = counts / np.array([words[i] for i in ids], dtype=float)[:, None]
-    sd = rel.std(axis=0, ddof=1)
-    z = np.where(sd > 0, (rel - rel.mean(axis=0)) / np.where(sd > 0, sd, 1), 0.0)
-    return np.clip(z, -limit, limit) if limit > 0 else z
-
-
-def cosine(a, b):
-    na, nb = np.linalg.norm(a), np.linalg.norm(b)
-    if na == 0 or nb == 0:
-        return 0.0 if na == nb else 1.0
-    return max(0.0, 1 - float(a @ b) / (na * nb))
-
-
-def burrows(a, b):
-    return float(np.mean(np.abs(a - b)))
-
-
-def to_candidate(q, rows, rule, dist, spread=0.2):
-    d = np.array([dist(q, r) for r in rows])
-    if rule == "nearest":
-        return d.min()
-    if rule == "centroid" or len(rows) == 1:
-        w = np.ones(len(rows))
-    else:
-        w = np.exp(-(d / d.min() - 1) / spread)
-    return dist(q, (w[:, None] * rows).sum(axis=0) / w.sum())
 
 
 args = FILES + ["--labels", labels_path]
