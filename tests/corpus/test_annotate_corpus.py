@@ -8,7 +8,9 @@ Checked against outside references:
 - jing against TEI P5 4.12.0 tei_all.rng: no error in the output that the input did not
   already have (the plays validate cleanly before; the novels carry a few of their own).
 - A second run with the same options and SOURCE_DATE_EPOCH gives the same bytes.
-- `show` gives back the numbers `distances --format json` computes on the same options.
+- `show` gives back the numbers `distances --format json` computes on the same options, as
+  many as lxml finds links in the file, and each equals SciPy's cosine distance of the
+  z-scores numpy computes from the run's counts.
 """
 import glob
 import json
@@ -18,8 +20,12 @@ import sys
 import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
-from mtest import CORPORA, SCHEMA, check, done, run  # noqa: E402
-from standoff_check import check_insertions, jing_errors  # noqa: E402
+from attribution_reference import z_from_relative  # noqa: E402
+from mtest import CORPORA, SCHEMA, check, done, read_tsv, run  # noqa: E402
+import numpy as np  # noqa: E402
+from lxml import etree  # noqa: E402
+from scipy.spatial.distance import cosine as cosine_distance  # noqa: E402
+from standoff_check import TEI, check_insertions, jing_errors  # noqa: E402
 
 plays = sorted(glob.glob(os.path.join(CORPORA, "gerdracor", "*.xml")))
 novels = sorted(glob.glob(os.path.join(CORPORA, "eltec-eng", "*.xml")))
@@ -67,26 +73,36 @@ try:
     with_distances = [x for x in shown_all if x[0]["distances"]]
     check(len(with_distances) >= 5, "only %d files hold distances" % len(with_distances))
     shown, copy, unit = with_distances[0]
-    proc = run(["distances", copy, "--unit", unit, "--format", "json"], check=False)
-    if proc.returncode == 0:
-        computed = json.loads(proc.stdout)
-        pairs = {tuple(sorted((p["segment_a"], p["segment_b"]))): p["value"] for p in computed["pairs"]}
-        check(shown["distances"], "no distances stored in %s" % copy)
-        for d in shown["distances"]:
-            key = tuple(sorted((d["segment_a"], d["segment_b"])))
-            check(key in pairs and pairs[key] == d["value"],
-                  "stored distance %s = %r, computed %r" % (key, d["value"], pairs.get(key)))
-        tokens = {s["segment"]: (s["tokens"], s["types"]) for s in computed["segments"]}
-        for s in shown["segments"]:
-            check(tokens.get(s["segment"]) == (s["tokens"], s["types"]), "tokens of %s differ" % s["segment"])
-        nearest = {n["segment"]: [(m["segment"], m["distance"]) for m in n["nearest"]]
-                   for n in computed["nearest_neighbours"]}
-        for s in shown["segments"]:
-            if "nearest" in s:
-                check([(m["segment"], m["distance"]) for m in s["nearest"]] == nearest[s["segment"]],
-                      "nearest of %s differ" % s["segment"])
-    else:
-        print("note: no distances command in this build; round trip checked in tests/cli")
+    # lxml counts the distance links written into the file.
+    links = etree.parse(copy).findall(".//{%s}linkGrp[@type='styleDistance']/{%s}link" % (TEI, TEI))
+    check(len(links) > 0 and len(shown["distances"]) == len(links),
+          "show lists %d distances, lxml finds %d links" % (len(shown["distances"]), len(links)))
+    computed = json.loads(run(["distances", copy, "--unit", unit, "--format", "json"]).stdout)
+    pairs = {tuple(sorted((p["segment_a"], p["segment_b"]))): p["value"] for p in computed["pairs"]}
+    for d in shown["distances"]:
+        key = tuple(sorted((d["segment_a"], d["segment_b"])))
+        check(key in pairs and pairs[key] == d["value"],
+              "stored distance %s = %r, computed %r" % (key, d["value"], pairs.get(key)))
+    # Each stored Cosine Delta recomputed with SciPy from the run's counts (relative
+    # frequencies of the 1,000 most frequent words, z-scores with ddof=1: Smith & Aldridge 2011).
+    rows = read_tsv(run(["profile", copy, "--unit", unit, "--values", "counts"]).stdout)
+    ids = [r["segment"] for r in rows]
+    words = {s["segment"]: s["tokens"] for s in computed["segments"]}
+    counts = np.array([[float(r[f]) for f in rows[0] if f != "segment"] for r in rows])
+    z = z_from_relative(counts / np.array([words[i] for i in ids], dtype=float)[:, None], 0)
+    for d in shown["distances"]:
+        expected = cosine_distance(z[ids.index(d["segment_a"])], z[ids.index(d["segment_b"])])
+        check(abs(d["value"] - expected) <= 1e-9 * max(1.0, abs(expected)),
+              "stored distance %s-%s = %r, SciPy %r" % (d["segment_a"], d["segment_b"], d["value"], expected))
+    tokens = {s["segment"]: (s["tokens"], s["types"]) for s in computed["segments"]}
+    for s in shown["segments"]:
+        check(tokens.get(s["segment"]) == (s["tokens"], s["types"]), "tokens of %s differ" % s["segment"])
+    nearest = {n["segment"]: [(m["segment"], m["distance"]) for m in n["nearest"]]
+               for n in computed["nearest_neighbours"]}
+    for s in shown["segments"]:
+        if "nearest" in s:
+            check([(m["segment"], m["distance"]) for m in s["nearest"]] == nearest[s["segment"]],
+                  "nearest of %s differ" % s["segment"])
 finally:
     shutil.rmtree(work, ignore_errors=True)
 done()
