@@ -83,7 +83,7 @@ def check_export(name):
             if isinstance(body, dict) and body.get("type") == "TextualBody":
                 check(isinstance(body.get("value"), str) and body["value"], "%s: empty TextualBody" % where)
                 if body.get("format") == "application/json":
-                    json.loads(body["value"])
+                    check(isinstance(json.loads(body["value"]), dict), "%s: a JSON body that is no object" % where)
             else:
                 check(element_of(body["id"]) is not None, "%s: body %s names no element" % (where, body))
         check("target" in a, "%s: no target" % where)

@@ -113,6 +113,7 @@ for rule in ["weighted-centroid", "centroid", "nearest"]:
 Z = z_scores(counts, words, ids, 0)
 doc = json.loads(mtest.run(["attribute", "--format", "json", "--rule", "centroid", "--z-limit", "0",
                             "--measure", "burrows-delta", "--ranks", "1-%d" % RANKS, "--resamples", "0"] + args).stdout)
+mtest.check(len(doc["attributions"]) == len(QUESTIONED), "burrows-delta: two questioned novels expected")
 for a in doc["attributions"]:
     q = Z[ids.index(a["segment"])]
     for c in a["candidates"]:
@@ -124,6 +125,8 @@ for a in doc["attributions"]:
 Z = z_scores(counts, words, ids, 2.0)
 doc = json.loads(mtest.run(["evaluate", "--format", "json", "--ranks", "1-%d" % RANKS] + args).stdout)
 known = [i for i in ids if label_of[i]]
+mtest.check(sorted(r["rule"] for r in doc["evaluation"]["rules"]) == ["centroid", "nearest segment", "weighted centroid"],
+            "evaluate reports the three rules")
 for r in doc["evaluation"]["rules"]:
     rule = {"weighted centroid": "weighted", "centroid": "centroid", "nearest segment": "nearest"}[r["rule"]]
     correct = 0
