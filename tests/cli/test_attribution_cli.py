@@ -116,7 +116,8 @@ mtest.check(any("AUC needs both" in w for w in doc["evaluation"]["warnings"]), "
 # two files (docs/attribution.md, "The undecided band"): one edition holds each sender's
 # letters in one file, so single letters are held out; add a second edition of the same
 # senders (the letters under other ids, all signed) and whole files are held out.
-mtest.check(json_of["verify"]["band"]["method"].endswith("held out alone"), "one edition: " + json_of["verify"]["band"]["method"])
+method = json_of["verify"]["band"]["method"]
+mtest.check(method.endswith("held out alone"), "one edition: " + method)
 second = os.path.join(tmp, "second-edition.xml")
 with open(LETTERS, encoding="utf-8") as f:
     text = f.read()

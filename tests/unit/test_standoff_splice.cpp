@@ -149,7 +149,13 @@ TEST_CASE("splice: a play with a standOff of its own and a listChange", "[stando
   std::string out = annotate(doc);
   CHECK(out == expected);
   CHECK(strip(out) == doc);
-  CHECK(annotate(strip(out)) == out);
+  // A run over an edition holding an earlier run's results (other values in our fvLib)
+  // takes them out (as prepare_annotation does before splicing) and writes the same again.
+  std::string older = out;
+  const std::string value = "<fs type=\"y\"/>";
+  REQUIRE(older.find(value) != std::string::npos);
+  older.replace(older.find(value), value.size(), "<fs type=\"y-earlier\"/>");
+  CHECK(annotate(strip(older)) == expected);
 }
 
 TEST_CASE("splice: no standOff, encodingDesc with appInfo, CRLF and tabs", "[standoff]") {
