@@ -6,7 +6,9 @@ outputs (--output, --standoff-file) and `show`.
 Outside references: difflib (only insertions; removing them gives back the input), lxml
 (the inserted ranges are standOff/application/change where TEI allows them; pointers
 resolve), jing with TEI P5 4.12.0 tei_all.rng (no new errors), the UTF-16 and ISO-8859-1
-codecs of Python, and `distances --format json` for the round trip of `show`.
+codecs of Python; for `show`, the distances lxml reads in the written file, each equal to
+SciPy's cosine distance of numpy z-scores from the run's counts (and to what `distances
+--format json` computes on the same options).
 """
 import json
 import os
@@ -16,10 +18,13 @@ import sys
 import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
-from mtest import FIXTURES, ROOT, SCHEMA, check, done, run  # noqa: E402
+from attribution_reference import z_from_relative  # noqa: E402
+from mtest import FIXTURES, ROOT, SCHEMA, check, done, read_tsv, run  # noqa: E402
 from standoff_check import (NS, PARSER, check_insertions, id_targets, inserted_chunks,  # noqa: E402
                             jing_errors, resolve_tei_xpath)
 from lxml import etree  # noqa: E402
+import numpy as np  # noqa: E402
+from scipy.spatial.distance import cosine as cosine_distance  # noqa: E402
 
 if shutil.which("jing") is None:
     print("SKIP: jing not available")
@@ -187,8 +192,28 @@ try:
     for s in shown["segments"]:
         check([(m["segment"], m["distance"]) for m in s["nearest"]] == nearest[s["segment"]],
               "nearest of %s differ" % s["segment"])
+    # What lxml reads in the written file: each link's fs, its two segments and its value;
+    # show must list exactly these, and each value must be SciPy's cosine distance of the
+    # z-scores numpy computes from the run's counts (Smith & Aldridge 2011).
+    tree = etree.parse(out, PARSER)
+    targets = id_targets(tree)
+    by_lxml = {}
+    for link in tree.iterfind(".//tei:linkGrp[@type='styleDistance']/tei:link", NS):
+        fs = targets[link.get("ana").lstrip("#")]
+        segments = tuple(sorted(s.text for s in fs.iterfind("tei:f[@name='segments']/tei:vColl/tei:string", NS)))
+        by_lxml[segments] = float(fs.find("tei:f[@name='value']/tei:numeric", NS).get("value"))
+    check(by_lxml == {tuple(sorted((d["segment_a"], d["segment_b"]))): d["value"] for d in shown["distances"]},
+          "show lists other distances than lxml reads in the file")
+    rows = read_tsv(run(["profile", letters] + args + ["--values", "counts"]).stdout)
+    ids = [r["segment"] for r in rows]
+    words = {s["segment"]: s["tokens"] for s in computed["segments"]}
+    counts = np.array([[float(r[f]) for f in rows[0] if f != "segment"] for r in rows])
+    z = z_from_relative(counts / np.array([words[i] for i in ids], dtype=float)[:, None], 0)
+    for (a, b), value in by_lxml.items():
+        expected = cosine_distance(z[ids.index(a)], z[ids.index(b)])
+        check(abs(value - expected) <= 1e-9 * max(1.0, abs(expected)), "%s-%s: %r, SciPy %r" % (a, b, value, expected))
     tsv = run(["show", out]).stdout
-    check(tsv.count("\ndistance\t") == len(shown["distances"]), "show --format tsv lists other distances")
+    check(tsv.count("\ndistance\t") == len(by_lxml), "show --format tsv lists other distances than the file holds")
 
     # Validity of everything written: no jing error the input did not already have.
     before_errors = jing_errors(SCHEMA, sorted({i for i, _ in validated if i}))
