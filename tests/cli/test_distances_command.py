@@ -11,6 +11,7 @@ import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
+from measure_reference import reference_distances  # noqa: E402
 from measure_tables import read_distances, read_profile  # noqa: E402
 
 import numpy as np  # noqa: E402
@@ -25,30 +26,6 @@ if not all(os.path.exists(p) for p in PLAYS):
 SELECT = PLAYS + ["--unit", "speaker", "--min-tokens", "500", "--ranks", "1-300"]
 
 
-def minmax(u, v):
-    # Ruzicka / MinMax from SciPy's Bray-Curtis b = sum|u-v| / sum(u+v), valid for u, v >= 0:
-    # sum min = (S - D)/2, sum max = (S + D)/2, so 1 - min/max = 2b / (1 + b).
-    b = distance.braycurtis(u, v)
-    return 2 * b / (1 + b)
-
-
-def eder(u, v):
-    n = len(u)
-    weights = (n - np.arange(n)) / n  # rank position i (1-based) weighs (n - i + 1)/n
-    return distance.cityblock(u, v, w=weights) / n
-
-
-REFERENCE = {  # measure -> (table, SciPy function)
-    "burrows-delta": ("z", lambda u, v: distance.cityblock(u, v) / len(u)),
-    "quadratic-delta": ("z", distance.sqeuclidean),
-    "eder-delta": ("z", eder),
-    "cosine-delta": ("z", distance.cosine),
-    "manhattan": ("relative", distance.cityblock),
-    "euclidean": ("relative", distance.euclidean),
-    "cosine": ("relative", distance.cosine),
-    "minmax": ("relative", minmax),
-}
-
 tables = {}
 for values in ("z", "relative"):
     _, features, rows = read_profile(mtest.run(["profile", "--values", values] + SELECT).stdout)
@@ -57,16 +34,18 @@ ids = list(tables["z"])
 mtest.check(len(ids) >= 10, "at least 10 speakers measured, got %d" % len(ids))
 mtest.check(len({i.split("#")[0] for i in ids}) == 2, "speakers from both plays")
 n = len(ids)
+# Every measure pair by pair with scipy.spatial.distance (measure_reference.py).
+reference_of = reference_distances(np.array([tables["z"][i] for i in ids]),
+                                   np.array([tables["relative"][i] for i in ids]))
 
-for measure, (table, function) in REFERENCE.items():
+for measure, matrix in reference_of.items():
     params, pairs = read_distances(mtest.run(["distances", "--measure", measure] + SELECT).stdout)
     mtest.check(any(measure in v for v in params.get("measure", [])), "%s named in the header" % measure)
     expected_pairs = [(ids[i], ids[j]) for i in range(n) for j in range(i + 1, n)]
     mtest.check([(a, b) for a, b, _ in pairs] == expected_pairs, "%s: each pair once, a before b in row order" % measure)
     worst = 0.0
     for a, b, value in pairs:
-        u, v = np.array(tables[table][a]), np.array(tables[table][b])
-        reference = function(u, v)  # scipy.spatial.distance
+        reference = matrix[ids.index(a), ids.index(b)]
         worst = max(worst, abs(value - reference) / max(abs(reference), 1e-300))
         mtest.check(mtest.close(value, reference, rel=1e-9),
                     "%s(%s, %s) = %r, SciPy %r" % (measure, a, b, value, reference))
@@ -85,6 +64,7 @@ mtest.check(any(not s["measured"] and s["left_out_because"] for s in doc["segmen
             "small speakers listed as left out, with the reason")
 z = np.array([tables["z"][i] for i in ids])
 reference = distance.squareform(distance.pdist(z, "cityblock")) / z.shape[1]  # scipy.spatial.distance.pdist
+mtest.check(len(doc["nearest_neighbours"]) == n, "nearest neighbours for every measured segment")
 for r, entry in enumerate(doc["nearest_neighbours"]):
     mtest.check(entry["segment"] == ids[r], "nearest neighbours in row order")
     others = sorted((reference[r, c], c) for c in range(n) if c != r)[:3]

@@ -20,10 +20,9 @@ import tempfile
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 import invented_letters  # noqa: E402
+from measure_battery import MEASURES  # noqa: E402
 from measure_tables import read_distances, read_parameters, read_profile  # noqa: E402
 
-MEASURES = ["burrows-delta", "quadratic-delta", "eder-delta", "cosine-delta", "manhattan", "euclidean", "cosine",
-            "minmax"]
 NOT_A_NUMBER = re.compile(r"(?<![A-Za-z])(nan|NaN|inf|Infinity)(?![A-Za-z])")
 
 
