@@ -11,7 +11,6 @@ command line, on invented letters whose tokens are plain ASCII words:
 """
 import json
 import random
-import math
 import os
 import re
 import sys
@@ -21,7 +20,7 @@ sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."
 import mtest  # noqa: E402
 import invented_letters  # noqa: E402
 from measure_battery import MEASURES  # noqa: E402
-from measure_tables import read_distances, read_parameters, read_profile  # noqa: E402
+from measure_tables import read_distances, read_profile  # noqa: E402
 
 NOT_A_NUMBER = re.compile(r"(?<![A-Za-z])(nan|NaN|inf|Infinity)(?![A-Za-z])")
 
