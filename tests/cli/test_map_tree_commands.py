@@ -10,6 +10,7 @@ one GerDraCor play (30 speakers at a lowered minimum size):
     lengths add up to the top merge height on every root-to-leaf path
   - a bootstrap consensus over feature ranges: Newick support labels match the JSON groups
 """
+import collections
 import json
 import os
 import re
@@ -162,7 +163,9 @@ newick_groups = {members: int(name) for name, members in groups if name}
 mtest.check(newick_groups == json_groups, "Newick support labels are the JSON groups' support")
 mtest.check(all(50 < s <= 100 for s in newick_groups.values()), "majority-rule supports lie in (50, 100]")
 # Each single run of the consensus, as SciPy clusters it: a group with 100 % support must
-# be a cluster of every one of the five trees.
+# be a cluster of every one of the five trees, and the groups and their supports are the
+# majority-rule consensus of SciPy's five trees (clusters in more than half of them).
+in_trees = collections.Counter()
 for last in (100, 200, 300, 400, 500):
     _, _, zr = read_profile(mtest.run(["profile", "--values", "z", PLAY, "--unit", "speaker", "--min-tokens", "300",
                                        "--ranks", "1-%d" % last]).stdout)
@@ -174,5 +177,10 @@ for last in (100, 200, 300, 400, 500):
     for members, support in json_groups.items():
         if support == 100:
             mtest.check(members in set(sets), "a group of 100 %% support is a SciPy cluster at ranks 1-%d" % last)
+    in_trees.update(set(sets[len(ids):]))  # the clusters the merges make, root included
+majority = {m: round(100 * c / 5) for m, c in in_trees.items() if c * 2 > 5}
+without_root = {m: v for m, v in majority.items() if len(m) < len(ids)}
+mtest.check(len(json_groups) > 0 and json_groups in (majority, without_root),
+            "consensus groups %s, SciPy's majority rule %s" % (sorted(map(sorted, json_groups)), sorted(map(sorted, majority))))
 
 mtest.done()
