@@ -16,11 +16,8 @@ namespace {
 nlohmann::json analysis_parameters(Database& db, std::int64_t settings_id, const Request& r,
                                    const StoreAnalysisOptions& options) {
   const ArchiveFilter& filter = options.filter;
-  std::string settings_key;
-  for (const auto& s : list_settings(db))
-    if (s.id == settings_id) settings_key = s.settings.key;
   const FeatureSpaceOptions& fs = r.feature_space;
-  nlohmann::json p = {{"settings_key", settings_key},
+  nlohmann::json p = {{"settings_key", settings_key(db, settings_id)},
                       {"filter", filter.describe()},
                       {"ranks", std::to_string(fs.rank_first) + "-" + std::to_string(fs.rank_last)},
                       {"culling_percent", fs.culling_percent},

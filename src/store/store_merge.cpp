@@ -39,9 +39,9 @@ std::string remap_counts(std::string_view blob, const std::vector<FeatureId>& ma
 }
 
 void merge_settings(Database& out, Database& input, const StoredSettings& in, std::int64_t run, MergeSummary& summary) {
-  std::size_t before = list_settings(out).size();
-  std::int64_t out_id = ensure_settings(out, in.settings);
-  if (list_settings(out).size() > before) ++summary.settings_added;
+  bool inserted = false;
+  std::int64_t out_id = ensure_settings(out, in.settings, &inserted);
+  if (inserted) ++summary.settings_added;
   StoreVocabulary out_vocabulary(out, out_id);
   const std::vector<FeatureId> map = map_vocabulary(input, in.id, out_vocabulary);
 

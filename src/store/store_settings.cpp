@@ -47,13 +47,21 @@ ReadingSettings reading_settings(const Request& request) {
   return s;
 }
 
-std::int64_t ensure_settings(Database& db, const ReadingSettings& s) {
+std::int64_t ensure_settings(Database& db, const ReadingSettings& s, bool* inserted) {
   Statement find = db.prepare("SELECT settings_id FROM settings WHERE key = ?1");
   find.bind(1, s.key);
+  if (inserted) *inserted = false;
   if (find.step()) return find.int64_at(0);
   db.prepare("INSERT INTO settings (key, unit, selection, tokenizer, features, request) VALUES (?1, ?2, ?3, ?4, ?5, ?6)")
       .run(s.key, s.unit, s.selection, s.tokenizer, s.features, s.request.dump());
+  if (inserted) *inserted = true;
   return db.last_insert_id();
+}
+
+std::string settings_key(Database& db, std::int64_t settings_id) {
+  Statement find = db.prepare("SELECT key FROM settings WHERE settings_id = ?1");
+  find.bind(1, settings_id);
+  return find.step() ? find.text_at(0) : std::string();
 }
 
 std::vector<StoredSettings> list_settings(Database& db) {

@@ -31,8 +31,12 @@ struct StoredSettings {
 
 ReadingSettings reading_settings(const Request& request);
 
-// The settings' row id, inserting the row when the store does not have it yet.
-std::int64_t ensure_settings(Database& db, const ReadingSettings& settings);
+// The settings' row id, inserting the row when the store does not have it yet (and then
+// setting *inserted, when given).
+std::int64_t ensure_settings(Database& db, const ReadingSettings& settings, bool* inserted = nullptr);
+
+// The key of the settings row `settings_id` ("" when there is none).
+std::string settings_key(Database& db, std::int64_t settings_id);
 
 std::vector<StoredSettings> list_settings(Database& db);
 
