@@ -675,24 +675,20 @@ std::vector<Segment> TeiWalker::finish() {
         seg.author = c->sender_status == Authorship::unknown ? "" : c->sender_key;
         seg.authorship = c->sender_status;
       }
-      if (seg.label.empty()) seg.label = seg.local_id;
     } else if (s.rules.unit == UnitKind::speaker) {
       auto it = h.person_names.find(seg.local_id);
       if (it != h.person_names.end()) seg.label = it->second;
-      if (seg.label.empty()) seg.label = seg.local_id;
       seg.author = seg.local_id == "unknown" ? "" : seg.local_id;
       seg.authorship = seg.author.empty() ? Authorship::unknown : Authorship::known;
     } else {
-      if (s.rules.unit == UnitKind::whole || seg.label.empty()) {
-        seg.label = s.rules.unit == UnitKind::whole ? h.title : seg.label;
-        if (seg.label.empty()) seg.label = seg.local_id;
-      }
+      if (s.rules.unit == UnitKind::whole) seg.label = h.title;
       bool anonymous = h.authors.empty();
       for (const auto& a : h.authors)
         if (is_placeholder_name(a)) anonymous = true;
       seg.author = anonymous ? "" : join_authors(h.authors);
       seg.authorship = anonymous ? Authorship::unknown : Authorship::known;
     }
+    if (seg.label.empty()) seg.label = seg.local_id;  // no name, title or heading: the id
     std::string fallback = h.language.empty() ? s.rules.default_language : h.language;
     for (auto& run : seg.runs)
       if (run.language.empty()) run.language = fallback;
