@@ -34,7 +34,10 @@ class Vocabulary {
   std::string arena_;                  // all forms, back to back
   std::vector<std::size_t> offsets_;   // form i is arena_[offsets_[i], offsets_[i + 1])
   std::vector<std::uint64_t> hashes_;  // hash of form i, kept for rehashing
-  std::vector<std::uint32_t> slots_;   // id + 1, or 0 for an empty slot; size is a power of 2
+  // (high 32 bits of the hash) << 32 | (id + 1), or 0 for an empty slot; the size is a
+  // power of 2. The hash bits in the slot turn most mismatches away without touching the
+  // form or hashes_.
+  std::vector<std::uint64_t> slots_;
 };
 
 }  // namespace manicule

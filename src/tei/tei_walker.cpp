@@ -3,6 +3,7 @@
 #include <unicode/unistr.h>
 
 #include <algorithm>
+#include <charconv>
 #include <map>
 #include <unordered_map>
 #include <unordered_set>
@@ -94,7 +95,9 @@ struct TeiWalker::State {
   std::unordered_set<std::string_view> skip;  // views into rules.skipped
 
   struct Frame {
-    std::string name;
+    // The local name, a view into the parser's dictionary of names, which outlives the
+    // parse's events (libxml2 hands the same interned name to every start tag).
+    std::string_view name;
     bool tei = false;
     bool skipped_here = false;   // this element began a skipped subtree
     bool pushed_language = false;
@@ -111,9 +114,27 @@ struct TeiWalker::State {
     int ordinal = 0;                                   // position among element siblings
     int same_name_index = 0;                           // position among same-name siblings
     int child_elements = 0;
-    std::vector<std::pair<std::string, int>> child_name_counts;
   };
   std::vector<Frame> frames;
+  // For the open element at each depth, how many children of each name it has had so far
+  // (for same_name_index). Kept outside the frames so that the vectors keep their memory
+  // from one element to the next instead of allocating for each element with children.
+  std::vector<std::vector<std::pair<std::string_view, int>>> child_name_counts;
+
+  // What an element name means to the walker, worked out once per name and file.
+  struct NameClass {
+    bool milestone = false, block = false, skipped = false;
+  };
+  std::unordered_map<std::string_view, NameClass> name_classes;
+  const NameClass& name_class(std::string_view name) {
+    auto [it, added] = name_classes.try_emplace(name);
+    if (added) {
+      it->second.milestone = milestone_elements().count(name) > 0;
+      it->second.block = block_elements().count(name) > 0;
+      it->second.skipped = skip.count(name) > 0;
+    }
+    return it->second;
+  }
 
   struct Member {
     std::string name, cert, wit;
@@ -183,11 +204,21 @@ struct TeiWalker::State {
   TextBuffer& sink() { return open_units.back().buffers.back(); }
 
   // The element being opened is not on `frames` yet: its own step comes last.
+  static void append_step(std::string& path, const Frame& f) {
+    char digits[16];
+    path += '/';
+    path.append(f.name);
+    path += '[';
+    path.append(digits, std::to_chars(digits, digits + sizeof digits, f.same_name_index).ptr);
+    path += ']';
+  }
   std::string xpath_pointer(const Frame& current) const {
-    std::string path;
-    for (const Frame& f : frames) path += "/" + f.name + "[" + std::to_string(f.same_name_index) + "]";
-    path += "/" + current.name + "[" + std::to_string(current.same_name_index) + "]";
-    return "xpath(" + path + ")";
+    std::string path = "xpath(";
+    path.reserve(16 * (frames.size() + 2));
+    for (const Frame& f : frames) append_step(path, f);
+    append_step(path, current);
+    path += ')';
+    return path;
   }
 
   std::vector<int> ordinal_path() const {
@@ -440,16 +471,19 @@ void TeiWalker::start(const StartTag& tag) {
     }
   }
   State::Frame f;
-  f.name = std::string(tag.local);
+  f.name = tag.local;
   f.tei = tag.ns == kTeiNamespace;
   f.xml_id = std::string(tag.attribute("id", kXmlNamespace));
+  const std::size_t depth = s.frames.size();
+  if (s.child_name_counts.size() <= depth) s.child_name_counts.resize(depth + 1);
+  s.child_name_counts[depth].clear();  // this element's own children: none yet
   if (!s.frames.empty()) {
     State::Frame& parent = s.frames.back();
     f.ordinal = ++parent.child_elements;
-    auto it = std::find_if(parent.child_name_counts.begin(), parent.child_name_counts.end(),
-                           [&](const auto& p) { return p.first == f.name; });
-    if (it == parent.child_name_counts.end()) {
-      parent.child_name_counts.emplace_back(f.name, 1);
+    auto& siblings = s.child_name_counts[depth - 1];
+    auto it = std::find_if(siblings.begin(), siblings.end(), [&](const auto& p) { return p.first == f.name; });
+    if (it == siblings.end()) {
+      siblings.emplace_back(f.name, 1);
       f.same_name_index = 1;
     } else {
       f.same_name_index = ++it->second;
@@ -493,7 +527,8 @@ void TeiWalker::start(const StartTag& tag) {
   // One letter per file: the body is the letter unless letter divs turn up (section 3).
   bool body_letter = s.rules.unit == UnitKind::letter && f.tei && f.name == "body" && s.skip_depth == 0 &&
                      s.open_units.empty() && !s.tei_stack.empty() && !s.header().corresp.empty();
-  if (!f.member && f.tei && s.skip_depth == 0 && !unit_here && s.skip.count(f.name)) {
+  const State::NameClass& name_class = s.name_class(f.name);
+  if (!f.member && f.tei && s.skip_depth == 0 && !unit_here && name_class.skipped) {
     f.skipped_here = true;
     ++s.skip_depth;
   }
@@ -517,10 +552,10 @@ void TeiWalker::start(const StartTag& tag) {
   if (f.capture != Capture::none) s.capture_text.emplace_back();
 
   if (s.collecting()) {
-    if (f.tei && milestone_elements().count(f.name)) {
+    if (f.tei && name_class.milestone) {
       if (tag.attribute("break") == "no") s.sink().add_join();
       else s.sink().add_boundary();
-    } else if (f.tei && block_elements().count(f.name)) {
+    } else if (f.tei && name_class.block) {
       f.block = true;
       s.sink().add_boundary();
     }
@@ -579,7 +614,7 @@ void TeiWalker::end() {
     TextBuffer buffer = std::move(s.open_units.back().buffers.back());
     s.open_units.back().buffers.pop_back();
     if (!s.alternations.empty())
-      s.alternations.back().members.push_back(State::Member{f.name, f.cert, f.wit, s.skip.count(f.name) > 0, std::move(buffer)});
+      s.alternations.back().members.push_back(State::Member{std::string(f.name), f.cert, f.wit, s.skip.count(f.name) > 0, std::move(buffer)});
   }
   if (f.unit >= 0) {
     State::OpenUnit u = std::move(s.open_units.back());

@@ -1,5 +1,7 @@
 #include "tei/text_buffer.h"
 
+#include "core/error.h"
+
 namespace manicule {
 
 namespace {
@@ -18,23 +20,27 @@ bool ends_with(const std::string& s, const std::string& suffix) {
 
 void TextBuffer::add_text(std::string_view text, int language) {
   if (text.empty()) return;
+  if (text_.size() + text.size() > 0xFFFFFFFFULL) throw Error(ErrorKind::bad_input, "a unit holds more than 4 GB of text");
+  const auto begin = static_cast<std::uint32_t>(text_.size());
+  text_.append(text);
+  const auto end = static_cast<std::uint32_t>(text_.size());
   if (!pieces_.empty() && pieces_.back().kind == Kind::text && pieces_.back().language == language) {
-    pieces_.back().text.append(text);
+    pieces_.back().end = end;  // pieces of one buffer are back to back in text_
     return;
   }
-  pieces_.push_back(Piece{Kind::text, language, std::string(text)});
+  pieces_.push_back(Piece{Kind::text, language, begin, end});
 }
 
 void TextBuffer::add_boundary() {
   if (!pieces_.empty() && pieces_.back().kind == Kind::boundary) return;
-  pieces_.push_back(Piece{Kind::boundary, 0, {}});
+  pieces_.push_back(Piece{Kind::boundary, 0, 0, 0});
 }
 
-void TextBuffer::add_join() { pieces_.push_back(Piece{Kind::join, 0, {}}); }
+void TextBuffer::add_join() { pieces_.push_back(Piece{Kind::join, 0, 0, 0}); }
 
 void TextBuffer::append(const TextBuffer& other) {
   for (const Piece& p : other.pieces_) {
-    if (p.kind == Kind::text) add_text(p.text, p.language);
+    if (p.kind == Kind::text) add_text(other.text_of(p), p.language);
     else if (p.kind == Kind::boundary) add_boundary();
     else add_join();
   }
@@ -72,7 +78,7 @@ void TextBuffer::render(std::vector<TextRun>& runs, const std::vector<std::strin
         joining = true;
         break;
       case Kind::text: {
-        std::string_view t = p.text;
+        std::string_view t = text_of(p);
         if (joining) {
           std::size_t i = 0;
           while (i < t.size() && is_xml_space(t[i])) ++i;

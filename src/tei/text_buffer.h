@@ -2,7 +2,9 @@
 // join across a line break), turned into language runs once a unit is complete. Keeping
 // pieces rather than a string lets alternations (choice, app) buffer each member and
 // replay only the chosen one, and lets <lb break="no"/> join words across skipped matter.
+// The text of all pieces lives in one string, so adding text seldom allocates.
 #pragma once
+#include <cstdint>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -18,7 +20,10 @@ class TextBuffer {
   void add_join();  // a <lb|pb|cb break="no"/>: the next word continues this one
   void append(const TextBuffer& other);
   bool empty() const { return pieces_.empty(); }
-  void clear() { pieces_.clear(); }
+  void clear() {
+    pieces_.clear();
+    text_.clear();
+  }
 
   // Appends this buffer's text to `runs` (language index -> tag through `languages`),
   // removing the whitespace around joins and, where `hyphens` is not empty, a hyphen-like
@@ -31,9 +36,11 @@ class TextBuffer {
   struct Piece {
     Kind kind;
     int language;
-    std::string text;
+    std::uint32_t begin, end;  // text pieces: text_[begin, end)
   };
+  std::string_view text_of(const Piece& p) const { return std::string_view(text_).substr(p.begin, p.end - p.begin); }
   std::vector<Piece> pieces_;
+  std::string text_;
 };
 
 }  // namespace manicule

@@ -110,6 +110,12 @@ bool is_ascii_letter(unsigned char byte) {
   return static_cast<unsigned char>((byte | 0x20) - 'a') < 26;
 }
 
+// U+00C0-U+00FF but for U+00D7 and U+00F7 (C3 80-BF in UTF-8): ALetter (latin1_supplement_class).
+bool is_latin1_letter_at(const unsigned char* bytes, std::size_t at, std::size_t end) {
+  return bytes[at] == 0xC3 && at + 1 < end && (bytes[at + 1] & 0xC0) == 0x80 && bytes[at + 1] != 0x97 &&
+         bytes[at + 1] != 0xB7;
+}
+
 void append_code_point(char32_t c, std::string& out) {
   char bytes[U8_MAX_LENGTH];
   int32_t length = 0;
@@ -161,7 +167,15 @@ void latin_segment(std::string_view text, std::size_t begin, std::size_t end,
   while (at < end) {
     if (left == C::aletter) {  // WB5 through a run of ASCII letters: the common case
       std::size_t run_end = at;
-      while (run_end < end && is_ascii_letter(bytes[run_end])) ++run_end;
+      while (run_end < end) {
+        if (is_ascii_letter(bytes[run_end])) {
+          ++run_end;
+        } else if (is_latin1_letter_at(bytes, run_end, end)) {
+          run_end += 2;
+        } else {
+          break;
+        }
+      }
       if (run_end > at) {
         before = C::aletter;
         left_is_alone = false;

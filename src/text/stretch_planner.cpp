@@ -48,34 +48,53 @@ bool is_unconditional_boundary(std::string_view text, std::size_t at) {
   }
 }
 
+// The latest unconditional boundary in (floor, at], or `floor` if there is none. Asked only
+// when an ineligible code point turns up, which is rare, so the forward scan need not
+// track boundaries as it goes.
+std::size_t latest_cut(std::string_view text, std::size_t floor, std::size_t at) {
+  for (std::size_t q = at; q > floor; --q) {
+    if (is_ascii_white_space(static_cast<unsigned char>(text[q - 1])) && is_unconditional_boundary(text, q))
+      return q;
+  }
+  return floor;
+}
+
 void plan_stretches(std::string_view text, std::vector<TextStretch>& out) {
   out.clear();
+  const auto* bytes = reinterpret_cast<const unsigned char*>(text.data());
   std::size_t stretch_begin = 0;  // start of the stretch being grown
-  std::size_t last_cut = 0;       // latest unconditional boundary in it
   bool fast = true;
   for (std::size_t at = 0; at < text.size();) {
-    const bool after_white_space =
-        at > 0 && is_ascii_white_space(static_cast<unsigned char>(text[at - 1]));
-    if (after_white_space && is_unconditional_boundary(text, at)) {
-      if (!fast) {
-        append_stretch(out, stretch_begin, at, false);
-        stretch_begin = at;
-        fast = true;
+    if (fast) {
+      // Eligible code points, ASCII above all, are skipped in a tight loop.
+      const unsigned char lead = bytes[at];
+      if (lead < 0x80) {
+        if (kAsciiBreakClasses[lead] != LatinBreakClass::ineligible) {
+          ++at;
+          continue;
+        }
+      } else {
+        const LatinCodePoint cp = decode_latin_multibyte(text, at);
+        if (cp.break_class != LatinBreakClass::ineligible) {
+          at += cp.length;
+          continue;
+        }
       }
-      last_cut = at;
-    }
-    if (!fast) {
-      ++at;  // cuts fall only before ASCII or after ASCII white space: never mid-character
+      // Hand back to ICU from the latest cut: the words before it are settled.
+      const std::size_t cut = latest_cut(text, stretch_begin, at);
+      append_stretch(out, stretch_begin, cut, true);
+      stretch_begin = cut;
+      fast = false;
+      at += decode_latin(text, at).length;
       continue;
     }
-    const LatinCodePoint cp = decode_latin(text, at);
-    if (cp.break_class == LatinBreakClass::ineligible) {
-      // Hand back to ICU from the latest cut: the words before it are settled.
-      append_stretch(out, stretch_begin, last_cut, true);
-      stretch_begin = last_cut;
-      fast = false;
+    if (at > 0 && is_ascii_white_space(bytes[at - 1]) && is_unconditional_boundary(text, at)) {
+      append_stretch(out, stretch_begin, at, false);
+      stretch_begin = at;
+      fast = true;
+      continue;  // the code point at `at` is looked at again, in fast mode
     }
-    at += cp.length;
+    ++at;  // cuts fall only before ASCII or after ASCII white space: never mid-character
   }
   append_stretch(out, stretch_begin, text.size(), fast);
 }
