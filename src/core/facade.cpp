@@ -6,6 +6,7 @@
 
 #include "core/error.h"
 #include "measure/pairwise_distances.h"
+#include "measure/parallel_items.h"
 
 namespace manicule {
 
@@ -46,26 +47,26 @@ void throw_first_failure(const Corpus& corpus) {
 
 namespace {
 
+// The k nearest of each row, on `threads` threads. The matrix is symmetric, so row i is
+// read as column i: contiguous in Eigen's column-major storage.
 std::vector<std::vector<Neighbour>> nearest_neighbours(const Eigen::MatrixXd& d, const std::vector<std::size_t>& rows,
-                                                       std::size_t k) {
+                                                       std::size_t k, unsigned threads) {
   std::vector<std::vector<Neighbour>> out(rows.size());
   const std::size_t n = rows.size();
-  std::vector<std::size_t> order(n);
-  for (std::size_t i = 0; i < n; ++i) {
-    order.resize(n);  // the erase below shortened it
+  parallel_items(n, threads, [&](std::size_t i) {
+    const double* column = d.data() + static_cast<std::ptrdiff_t>(i) * d.rows();
+    std::vector<std::size_t> order(n);
     std::iota(order.begin(), order.end(), 0);
     order.erase(order.begin() + static_cast<std::ptrdiff_t>(i));
-    std::size_t take = std::min(k, order.size());
+    const std::size_t take = std::min(k, order.size());
     // ties are broken by segment order, so results are repeatable
     std::partial_sort(order.begin(), order.begin() + static_cast<std::ptrdiff_t>(take), order.end(),
                       [&](std::size_t a, std::size_t b) {
-                        double da = d(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(a));
-                        double db = d(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(b));
-                        return da < db || (da == db && a < b);
+                        return column[a] < column[b] || (column[a] == column[b] && a < b);
                       });
-    for (std::size_t j = 0; j < take; ++j)
-      out[i].push_back(Neighbour{rows[order[j]], d(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(order[j]))});
-  }
+    out[i].reserve(take);
+    for (std::size_t j = 0; j < take; ++j) out[i].push_back(Neighbour{rows[order[j]], column[order[j]]});
+  });
   return out;
 }
 
@@ -134,8 +135,8 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
     DistanceResult result;
     result.measure = request.measure;
     result.rows = rows;
-    result.values = distance_matrix(table, request.measure, options).values;
-    result.nearest = nearest_neighbours(result.values, rows, request.neighbours);
+    result.values = std::move(distance_matrix(table, request.measure, options).values);
+    result.nearest = nearest_neighbours(result.values, rows, request.neighbours, request.threads);
     analysis.distances = std::move(result);
     const MeasureInfo& info = measure_info(request.measure);
     params.emplace_back("measure", std::string(info.name) + " (" + std::string(info.citation) + ")");

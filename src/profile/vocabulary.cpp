@@ -6,12 +6,22 @@
 
 namespace manicule {
 
-Vocabulary::Vocabulary() : offsets_{0}, slots_(1024, 0) {}
+Vocabulary::Vocabulary() : offsets_{0}, slots_(1024) {}
 
 namespace {
-constexpr std::uint64_t slot_entry(std::uint64_t h, FeatureId id) { return (h & 0xFFFFFFFF00000000ULL) | (id + 1ULL); }
-constexpr FeatureId entry_id(std::uint64_t entry) { return static_cast<FeatureId>((entry & 0xFFFFFFFFULL) - 1); }
+// The slot's tag: high bits of the hash, and in the low 4 bits the form's length up to 8
+// (9: longer), so that short forms match on tag and packed bytes alone, NUL bytes included.
+std::uint32_t tag_of(std::uint64_t h, std::size_t length) {
+  return (static_cast<std::uint32_t>(h >> 32) & ~0xFu) | static_cast<std::uint32_t>(length <= 8 ? length : 9);
+}
 }  // namespace
+
+std::uint64_t Vocabulary::pack_short(std::string_view form) {
+  std::uint64_t word = 0;
+  for (std::size_t k = 0; k < form.size(); ++k)
+    word |= static_cast<std::uint64_t>(static_cast<unsigned char>(form[k])) << (8 * k);
+  return word;
+}
 
 std::uint64_t Vocabulary::hash(std::string_view form) {
   // Eight bytes at a time, each word mixed by a multiply, then a final avalanche so that
@@ -39,12 +49,18 @@ std::uint64_t Vocabulary::hash(std::string_view form) {
 // The slot holding `form`, or the empty slot where it would go (linear probing).
 std::size_t Vocabulary::slot_of(std::string_view form, std::uint64_t h) const {
   const std::size_t mask = slots_.size() - 1;
-  const std::uint64_t tag = h & 0xFFFFFFFF00000000ULL;
+  const std::uint32_t tag = tag_of(h, form.size());
+  const bool is_short = form.size() <= 8;
+  const std::uint64_t packed = is_short ? pack_short(form) : 0;
   for (std::size_t slot = h & mask;; slot = (slot + 1) & mask) {
-    const std::uint64_t entry = slots_[slot];
-    if (entry == 0) return slot;
-    if ((entry & 0xFFFFFFFF00000000ULL) != tag) continue;
-    const FeatureId id = entry_id(entry);
+    const Slot& entry = slots_[slot];
+    if (entry.id_plus_one == 0) return slot;
+    if (entry.tag != tag) continue;
+    if (is_short) {
+      if (entry.inline_form == packed) return slot;
+      continue;
+    }
+    const FeatureId id = entry.id_plus_one - 1;
     const std::size_t begin = offsets_[id];
     const std::size_t length = offsets_[id + 1] - begin;
     if (length == form.size() && std::memcmp(arena_.data() + begin, form.data(), length) == 0) return slot;
@@ -52,15 +68,15 @@ std::size_t Vocabulary::slot_of(std::string_view form, std::uint64_t h) const {
 }
 
 std::optional<FeatureId> Vocabulary::find(std::string_view form) const {
-  const std::uint64_t entry = slots_[slot_of(form, hash(form))];
-  if (entry == 0) return std::nullopt;
-  return entry_id(entry);
+  const Slot& entry = slots_[slot_of(form, hash(form))];
+  if (entry.id_plus_one == 0) return std::nullopt;
+  return entry.id_plus_one - 1;
 }
 
 FeatureId Vocabulary::intern(std::string_view form) {
   const std::uint64_t h = hash(form);
   std::size_t slot = slot_of(form, h);
-  if (slots_[slot] != 0) return entry_id(slots_[slot]);
+  if (slots_[slot].id_plus_one != 0) return slots_[slot].id_plus_one - 1;
   if (hashes_.size() >= 0xFFFFFFFEULL) {
     throw Error(ErrorKind::usage, "more than 4 billion distinct features");
   }
@@ -68,7 +84,7 @@ FeatureId Vocabulary::intern(std::string_view form) {
   arena_.append(form);
   offsets_.push_back(arena_.size());
   hashes_.push_back(h);
-  slots_[slot] = slot_entry(h, id);
+  slots_[slot] = Slot{id + 1, tag_of(h, form.size()), form.size() <= 8 ? pack_short(form) : 0};
   if (hashes_.size() * 2 > slots_.size()) grow();  // keep the load factor at most 1/2
   return id;
 }
@@ -78,12 +94,15 @@ std::string_view Vocabulary::form(FeatureId id) const {
 }
 
 void Vocabulary::grow() {
-  std::vector<std::uint64_t> bigger(slots_.size() * 2, 0);
+  // Forms are re-inserted in id order, so hashes_, offsets_ and the arena are read
+  // sequentially; only the writes into the new table land at random.
+  std::vector<Slot> bigger(slots_.size() * 2);
   const std::size_t mask = bigger.size() - 1;
   for (FeatureId id = 0; id < hashes_.size(); ++id) {
+    const std::string_view f = form(id);
     std::size_t slot = hashes_[id] & mask;
-    while (bigger[slot] != 0) slot = (slot + 1) & mask;
-    bigger[slot] = slot_entry(hashes_[id], id);
+    while (bigger[slot].id_plus_one != 0) slot = (slot + 1) & mask;
+    bigger[slot] = Slot{id + 1, tag_of(hashes_[id], f.size()), f.size() <= 8 ? pack_short(f) : 0};
   }
   slots_.swap(bigger);
 }

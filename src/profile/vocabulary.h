@@ -27,17 +27,23 @@ class Vocabulary {
   std::size_t size() const { return hashes_.size(); }
 
  private:
+  // A slot of the open-addressing table. Forms of up to 8 bytes are kept in the slot
+  // itself, so that finding a known short form reads one cache line; longer forms are
+  // compared against the arena.
+  struct Slot {
+    std::uint32_t id_plus_one = 0;  // 0: empty
+    std::uint32_t tag = 0;          // hash bits and length class (tag_of)
+    std::uint64_t inline_form = 0;  // the form's bytes if it is short, else 0
+  };
   static std::uint64_t hash(std::string_view form);
+  static std::uint64_t pack_short(std::string_view form);  // forms of at most 8 bytes
   std::size_t slot_of(std::string_view form, std::uint64_t h) const;
   void grow();
 
   std::string arena_;                  // all forms, back to back
   std::vector<std::size_t> offsets_;   // form i is arena_[offsets_[i], offsets_[i + 1])
   std::vector<std::uint64_t> hashes_;  // hash of form i, kept for rehashing
-  // (high 32 bits of the hash) << 32 | (id + 1), or 0 for an empty slot; the size is a
-  // power of 2. The hash bits in the slot turn most mismatches away without touching the
-  // form or hashes_.
-  std::vector<std::uint64_t> slots_;
+  std::vector<Slot> slots_;            // size is a power of 2
 };
 
 }  // namespace manicule

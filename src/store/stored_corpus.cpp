@@ -102,8 +102,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     counts.id = seg.id;
     counts.tokens = record.tokens;
     counts.feature_total = static_cast<std::size_t>(segments.int64_at(14));
-    auto decoded = decode_counts(segments.blob_at(15));
-    counts.counts.assign(decoded.begin(), decoded.end());
+    counts.counts = decode_counts(segments.blob_at(15));
     for (const auto& [id, n] : counts.counts) {
       if (id >= used.size()) used.resize(id + 1, 0);
       used[id] = 1;
