@@ -47,6 +47,7 @@ CommandRunner add_segments_command(CLI::App& app) {
   return [=]() -> int {
     Request request = options->to_request();
     request.keep_text = *show_text;
+    request.keep_counts = false;  // the table shows each segment's tokens and types only
     std::vector<std::string> files = expand_inputs(request.inputs);
     Corpus corpus = read_corpus(request, files);
     for (const auto& f : corpus.failures) std::cerr << "manicule: " << f.message << '\n';

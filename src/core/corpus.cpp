@@ -50,7 +50,7 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
       corpus.failures.push_back(std::move(r.failure));
       return;
     }
-    merged.merge(std::move(r.counts));
+    if (request.keep_counts) merged.merge(std::move(r.counts));
     for (auto& s : r.segments) corpus.segments.push_back(std::move(s));
   };
   std::map<std::size_t, FileReading> waiting;

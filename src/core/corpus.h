@@ -29,7 +29,8 @@ struct Corpus {
   std::vector<std::string> files;       // in the order read
   std::vector<std::string> file_sha256;  // SHA-256 of each file's bytes ("" if unreadable)
   std::vector<SegmentRecord> segments;  // in file order, then document order
-  CountProfile counts;                  // one SegmentCounts per segment, same order
+  CountProfile counts;                  // one SegmentCounts per segment, same order (empty
+                                        // when the Request said keep_counts = false)
   std::vector<FileFailure> failures;
   std::size_t bytes = 0;                // input bytes read
 };

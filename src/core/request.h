@@ -28,6 +28,8 @@ struct Request {
   TokenizerOptions tokenizer;
   FeatureSpec features;             // what to count per segment (words by default)
   bool keep_text = false;           // keep each segment's selected text in the result
+  bool keep_counts = true;          // merge each file's counts into Corpus::counts (listing
+                                    // segments needs only their token and type numbers)
   unsigned threads = 0;             // 0 = one per core
 
   // Analysis: which features, which measure, what to compute beyond the profiles.

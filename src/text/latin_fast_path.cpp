@@ -155,7 +155,7 @@ LatinCodePoint decode_latin_multibyte(std::string_view text, std::size_t at) {
 }
 
 void latin_segment(std::string_view text, std::size_t begin, std::size_t end,
-                   std::vector<WordSegment>& out) {
+                   std::vector<WordSegment>& out, bool letters_only) {
   if (begin >= end) return;
   const auto* bytes = reinterpret_cast<const unsigned char*>(text.data());
   const LatinCodePoint first = decode_latin(text, begin);
@@ -183,13 +183,22 @@ void latin_segment(std::string_view text, std::size_t begin, std::size_t end,
         if (at == end) break;
       }
     }
+    if (left == C::wseg_space && bytes[at] == ' ') {  // WB3d through a run of spaces
+      std::size_t run_end = at;
+      while (run_end < end && bytes[run_end] == ' ') ++run_end;
+      before = C::wseg_space;
+      left_is_alone = false;
+      at = run_end;
+      if (at == end) break;
+    }
     const LatinCodePoint right = decode_latin(text, at);
     const std::size_t next = at + right.length;
     const auto after = [&] { return next < end ? decode_latin(text, next).break_class : C::other; };
     if (joins(before, left, right.break_class, after)) {
       left_is_alone = false;
     } else {
-      out.push_back({segment_begin, at, rule_status(left, before, left_is_alone)});
+      const std::int32_t status = rule_status(left, before, left_is_alone);
+      if (!letters_only || status == UBRK_WORD_LETTER) out.push_back({segment_begin, at, status});
       segment_begin = at;
       left_is_alone = true;
     }
@@ -197,20 +206,28 @@ void latin_segment(std::string_view text, std::size_t begin, std::size_t end,
     left = right.break_class;
     at = next;
   }
-  out.push_back({segment_begin, end, rule_status(left, before, left_is_alone)});
+  const std::int32_t status = rule_status(left, before, left_is_alone);
+  if (!letters_only || status == UBRK_WORD_LETTER) out.push_back({segment_begin, end, status});
 }
 
 std::string_view latin_normalise(std::string_view token, bool case_fold, bool apostrophes,
                                  std::string& buffer) {
-  bool unchanged = true;
+  bool unchanged = true, ascii = true;
   for (const char ch : token) {
     const auto byte = static_cast<unsigned char>(ch);
-    if (byte >= 0x80 || (case_fold && byte >= 'A' && byte <= 'Z')) {
-      unchanged = false;
+    if (byte >= 0x80) {
+      unchanged = ascii = false;
       break;
     }
+    if (case_fold && byte >= 'A' && byte <= 'Z') unchanged = false;
   }
   if (unchanged) return token;
+  if (ascii) {  // only ASCII capitals to fold: copy and fold in place
+    buffer.assign(token);
+    for (char& ch : buffer)
+      if (ch >= 'A' && ch <= 'Z') ch = static_cast<char>(ch + ('a' - 'A'));
+    return buffer;
+  }
 
   buffer.clear();
   for (std::size_t at = 0; at < token.size();) {

@@ -61,9 +61,11 @@ inline LatinCodePoint decode_latin(std::string_view text, std::size_t at) {
 }
 
 // Appends the word segments of text[begin, end), which must be eligible throughout and
-// be cut from the text at boundaries that hold whatever the context, to `out`.
+// be cut from the text at boundaries that hold whatever the context, to `out`; with
+// `letters_only`, only the segments of letters (UBRK_WORD_LETTER), for callers that drop
+// numbers, spaces and punctuation anyway.
 void latin_segment(std::string_view text, std::size_t begin, std::size_t end,
-                   std::vector<WordSegment>& out);
+                   std::vector<WordSegment>& out, bool letters_only = false);
 
 // Normalises a token made of eligible code points as TokenNormaliser would (NFC is a no-op
 // on them): optional full case folding and apostrophe unification. Returns `token` itself

@@ -40,8 +40,10 @@ struct Tokenizer::Impl {
 
   // Segments `text`, calling on_stretch(fast) after the segments of each stretch have
   // been appended to `segments` (fast: they came from the Latin fast path).
+  // With `letters_only` the fast path hands over only segments of letters (what
+  // tokenize() keeps when numbers and punctuation are dropped).
   template <typename OnStretch>
-  void segment(std::string_view text, std::string_view language, bool fast_path,
+  void segment(std::string_view text, std::string_view language, bool fast_path, bool letters_only,
                OnStretch on_stretch) {
     segments.clear();
     if (!fast_path || !breaker.uses_root_rules(language)) {
@@ -52,7 +54,7 @@ struct Tokenizer::Impl {
     plan_stretches(text, stretches);
     for (const TextStretch& stretch : stretches) {
       if (stretch.fast) {
-        latin_segment(text, stretch.begin, stretch.end, segments);
+        latin_segment(text, stretch.begin, stretch.end, segments, letters_only);
       } else {
         breaker.segment(text, stretch.begin, stretch.end, language, segments);
       }
@@ -72,7 +74,8 @@ void Tokenizer::tokenize(std::string_view text, std::string_view language,
                          const std::function<void(std::string_view token)>& sink) {
   Impl& impl = *impl_;
   std::size_t emitted = 0;  // segments of earlier stretches already handled
-  impl.segment(text, language, options_.fast_path, [&](bool fast) {
+  const bool letters_only = !options_.keep_numbers && !options_.keep_punctuation;
+  impl.segment(text, language, options_.fast_path, letters_only, [&](bool fast) {
     for (; emitted < impl.segments.size(); ++emitted) {
       const WordSegment& segment = impl.segments[emitted];
       const std::string_view piece = text.substr(segment.begin, segment.end - segment.begin);
@@ -94,7 +97,7 @@ std::vector<std::size_t> Tokenizer::word_boundaries(std::string_view text,
                                                     std::string_view language) {
   std::vector<std::size_t> boundaries;
   if (text.empty()) return boundaries;
-  impl_->segment(text, language, options_.fast_path, [](bool) {});
+  impl_->segment(text, language, options_.fast_path, false, [](bool) {});
   boundaries.reserve(impl_->segments.size() + 1);
   boundaries.push_back(0);
   for (const WordSegment& segment : impl_->segments) boundaries.push_back(segment.end);
