@@ -53,20 +53,29 @@ std::string speaker_key_text(const std::string& raw) {
   return case_fold(t);
 }
 
-std::vector<std::string> split_pointers(std::string_view value) {
-  std::vector<std::string> out;
+// The pointers of a space-separated attribute value, without their '#', into `out`
+// (cleared first; its strings keep their memory).
+void split_pointers_into(std::string_view value, std::vector<std::string>& out) {
+  std::size_t n = 0;
   std::size_t i = 0;
   while (i < value.size()) {
     while (i < value.size() && (value[i] == ' ' || value[i] == '\t' || value[i] == '\n' || value[i] == '\r')) ++i;
     std::size_t j = i;
     while (j < value.size() && !(value[j] == ' ' || value[j] == '\t' || value[j] == '\n' || value[j] == '\r')) ++j;
     if (j > i) {
-      std::string token(value.substr(i, j - i));
-      if (!token.empty() && token[0] == '#') token.erase(0, 1);
-      out.push_back(token);
+      std::string_view token = value.substr(i, j - i);
+      if (token[0] == '#') token.remove_prefix(1);
+      if (n == out.size()) out.emplace_back();
+      out[n++].assign(token);
     }
     i = j;
   }
+  out.resize(n);
+}
+
+std::vector<std::string> split_pointers(std::string_view value) {
+  std::vector<std::string> out;
+  split_pointers_into(value, out);
   return out;
 }
 
@@ -155,9 +164,43 @@ struct TeiWalker::State {
     std::string speaker_text, head_text;
     std::string decls;                    // letter @decls
     bool body_letter = false;             // provisional one-letter-per-file unit
-    int tei_index;
+    int tei_index = 0;
+
+    // Empty again, keeping the memory of its strings and buffers.
+    void reset() {
+      buffers.resize(1);
+      buffers.front().clear();
+      local_id.clear();
+      pointer.clear();
+      who.clear();
+      speaker_text.clear();
+      head_text.clear();
+      decls.clear();
+      body_letter = false;
+      tei_index = 0;
+    }
   };
-  std::vector<OpenUnit> open_units;
+  // The open units, innermost last. A closed unit's entry is kept for the next unit at
+  // that depth: a play opens some half a million speeches, and reusing the entries spares
+  // allocating their buffers and strings each time.
+  class UnitStack {
+   public:
+    bool empty() const { return open_ == 0; }
+    std::size_t size() const { return open_; }
+    OpenUnit& back() { return entries_[open_ - 1]; }
+    OpenUnit& push() {
+      if (open_ == entries_.size()) entries_.emplace_back();
+      OpenUnit& u = entries_[open_++];
+      u.reset();
+      return u;
+    }
+    void pop() { --open_; }
+
+   private:
+    std::vector<OpenUnit> entries_;
+    std::size_t open_ = 0;
+  };
+  UnitStack open_units;
 
   std::vector<std::string> languages{""};  // interned language tags; 0 = unknown
   std::vector<int> language_stack;
@@ -212,13 +255,11 @@ struct TeiWalker::State {
     path.append(digits, std::to_chars(digits, digits + sizeof digits, f.same_name_index).ptr);
     path += ']';
   }
-  std::string xpath_pointer(const Frame& current) const {
-    std::string path = "xpath(";
-    path.reserve(16 * (frames.size() + 2));
+  void write_xpath_pointer(const Frame& current, std::string& path) const {
+    path.assign("xpath(");
     for (const Frame& f : frames) append_step(path, f);
     append_step(path, current);
     path += ')';
-    return path;
   }
 
   std::vector<int> ordinal_path() const {
@@ -229,21 +270,20 @@ struct TeiWalker::State {
   }
 
   void open_unit(Frame& frame, const StartTag& tag) {
-    OpenUnit u;
+    frame.unit = static_cast<int>(open_units.size());
+    OpenUnit& u = open_units.push();
     u.tei_index = tei_stack.empty() ? 0 : tei_stack.back();
     if (!frame.xml_id.empty()) {
       u.local_id = frame.xml_id;
       u.pointer = "#" + frame.xml_id;
     } else {
-      u.pointer = xpath_pointer(frame);
+      write_xpath_pointer(frame, u.pointer);
     }
     if (rules.unit == UnitKind::speaker) {
-      u.who = split_pointers(tag.attribute("who"));
-      if (u.who.empty() && !sp_grp_who.empty()) u.who = split_pointers(sp_grp_who.back());
+      split_pointers_into(tag.attribute("who"), u.who);
+      if (u.who.empty() && !sp_grp_who.empty()) split_pointers_into(sp_grp_who.back(), u.who);
     }
-    u.decls = std::string(tag.attribute("decls"));
-    frame.unit = static_cast<int>(open_units.size());
-    open_units.push_back(std::move(u));
+    u.decls.assign(tag.attribute("decls"));
     sink().add_boundary();
   }
 
@@ -418,7 +458,7 @@ struct TeiWalker::State {
   }
 
   void close_speech(OpenUnit& u, const TextBuffer& text) {
-    std::vector<std::string> keys = u.who;
+    std::vector<std::string>& keys = u.who;  // the unit is closing: its list can take the key below
     const HeaderInfo& h = headers[static_cast<std::size_t>(u.tei_index)];
     if (keys.empty()) {
       // No @who: match the speaker label against person and role names (section 2).
@@ -617,9 +657,8 @@ void TeiWalker::end() {
       s.alternations.back().members.push_back(State::Member{std::string(f.name), f.cert, f.wit, s.skip.count(f.name) > 0, std::move(buffer)});
   }
   if (f.unit >= 0) {
-    State::OpenUnit u = std::move(s.open_units.back());
-    s.open_units.pop_back();
-    s.close_unit(u);
+    s.close_unit(s.open_units.back());
+    s.open_units.pop();
     if (!s.open_units.empty()) s.sink().add_boundary();
   }
   if (f.skipped_here) --s.skip_depth;
