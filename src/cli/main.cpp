@@ -8,11 +8,9 @@
 #include "cli/exit_codes.h"
 #include "core/error.h"
 #include "manicule_version.h"
-#include "measure/blas_threads.h"
 
 int main(int argc, char** argv) {
   using namespace manicule;
-  stop_idle_blas_threads();  // most commands never multiply a matrix (measure/blas_threads.h)
   CLI::App app{"manicule: measure style inside TEI editions"};
   app.set_version_flag("--version", std::string("manicule ") + MANICULE_VERSION_STRING);
   app.require_subcommand(1);

@@ -1,6 +1,7 @@
 #include "measure/cosine_gram.h"
 
-#include <cblas.h>
+#include <cblas.h>  // the CBLAS enumerations; cblas_dsyrk itself is found at run time
+#include <dlfcn.h>
 
 #include <algorithm>
 #include <limits>
@@ -9,6 +10,29 @@
 #include "measure/parallel_items.h"
 
 namespace manicule {
+
+namespace {
+
+using DsyrkFunction = decltype(&cblas_dsyrk);
+
+// The BLAS is opened at the first Gram matrix rather than linked: loading OpenBLAS costs
+// every command about 5 ms (a re-run over an unchanged archive takes 30 ms in all) and
+// starts its thread pool, whose idle threads spin about 0.1 s of a core before sleeping.
+// Debian's alternatives make libblas.so.3 the chosen BLAS; OpenBLAS's own name comes first.
+DsyrkFunction find_dsyrk() {
+  static const DsyrkFunction found = []() -> DsyrkFunction {
+    for (const char* name : {"libopenblas.so.0", "libblas.so.3", "libcblas.so.3"}) {
+      void* library = dlopen(name, RTLD_NOW | RTLD_LOCAL);
+      if (!library) continue;
+      if (void* symbol = dlsym(library, "cblas_dsyrk")) return reinterpret_cast<DsyrkFunction>(symbol);
+      dlclose(library);
+    }
+    return nullptr;
+  }();
+  return found;
+}
+
+}  // namespace
 
 void cosine_distances_by_gram(const RowMatrix& rows, unsigned threads, Eigen::MatrixXd& out) {
   const Eigen::Index n = rows.rows();
@@ -26,11 +50,12 @@ void cosine_distances_by_gram(const RowMatrix& rows, unsigned threads, Eigen::Ma
   // The row-major n x k `unit` is, read column-major, the k x n matrix A = unit^T; so
   // A^T A is the Gram matrix, written into the lower triangle of the column-major `out`.
   out.resize(n, n);
-  if (k > 0) {
-    cblas_dsyrk(CblasColMajor, CblasLower, CblasTrans, static_cast<int>(n), static_cast<int>(k), 1.0, unit.data(),
-                static_cast<int>(k), 0.0, out.data(), static_cast<int>(n));
+  if (k > 0 && find_dsyrk()) {
+    find_dsyrk()(CblasColMajor, CblasLower, CblasTrans, static_cast<int>(n), static_cast<int>(k), 1.0, unit.data(),
+                 static_cast<int>(k), 0.0, out.data(), static_cast<int>(n));
   } else {
-    out.setZero();
+    out.setZero();  // no BLAS found: Eigen's own product, on one core
+    if (k > 0) out.selfadjointView<Eigen::Lower>().rankUpdate(unit);
   }
   constexpr double kRoundingNoise = 64 * std::numeric_limits<double>::epsilon();
   parallel_items(static_cast<std::size_t>(n), threads, [&](std::size_t item) {
