@@ -104,10 +104,20 @@ std::string_view Vocabulary::form(FeatureId id) const {
   return std::string_view(arena_).substr(offsets_[id], offsets_[id + 1] - offsets_[id]);
 }
 
-void Vocabulary::grow() {
+void Vocabulary::reserve(std::size_t forms) {
+  offsets_.reserve(forms + 1);
+  hashes_.reserve(forms);
+  std::size_t size = slots_.size();
+  while (forms * 2 > size) size *= 2;
+  if (size > slots_.size()) rehash(size);
+}
+
+void Vocabulary::grow() { rehash(slots_.size() * 2); }
+
+void Vocabulary::rehash(std::size_t size) {
   // Forms are re-inserted in id order, so hashes_, offsets_ and the arena are read
   // sequentially; only the writes into the new table land at random.
-  std::vector<Slot> bigger(slots_.size() * 2);
+  std::vector<Slot> bigger(size);
   const std::size_t mask = bigger.size() - 1;
   for (FeatureId id = 0; id < hashes_.size(); ++id) {
     const std::string_view f = form(id);

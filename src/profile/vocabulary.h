@@ -24,6 +24,8 @@ class Vocabulary {
   std::optional<FeatureId> find(std::string_view form) const;
 
   std::string_view form(FeatureId id) const;
+  // Makes room for `forms` forms in all, so that interning up to that many never rehashes.
+  void reserve(std::size_t forms);
   std::size_t size() const { return hashes_.size(); }
 
  private:
@@ -39,6 +41,7 @@ class Vocabulary {
   static std::uint64_t pack_short(std::string_view form);  // forms of at most 8 bytes
   std::size_t slot_of(std::string_view form, std::uint64_t h) const;
   void grow();
+  void rehash(std::size_t slot_count);  // a power of 2 above twice the forms
 
   std::string arena_;                  // all forms, back to back
   std::vector<std::size_t> offsets_;   // form i is arena_[offsets_[i], offsets_[i + 1])

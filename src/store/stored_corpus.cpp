@@ -56,8 +56,11 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
   Statement segments = db.prepare(
       "SELECT f.path, f.stem, f.sha256, s.ordinal, s.local_id, s.unit, s.label, s.language, s.author, s.authorship, "
       "s.pointers, s.warnings, s.tokens, s.types, s.feature_total, s.counts, r.language "
-      "FROM files f JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 AND r.status = 'ok' "
-      "JOIN segments s ON s.settings_id = ?1 AND s.sha256 = f.sha256 ORDER BY f.path, s.ordinal");
+      // CROSS JOIN keeps this join order (SQLite's rule for CROSS JOIN): files in path
+      // order, each file's segments by their key, so that no temporary B-tree has to sort
+      // every row with its counts (0.09 to 0.03 s over the stored plays in the sqlite3 shell).
+      "FROM files f CROSS JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 AND r.status = 'ok' "
+      "CROSS JOIN segments s ON s.settings_id = ?1 AND s.sha256 = f.sha256 ORDER BY f.path, s.ordinal");
   segments.bind(1, settings_id);
   CountProfile& profile = out.corpus.counts;
   profile.spec = spec;
@@ -117,6 +120,9 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
   constexpr FeatureId kMissing = UINT32_MAX;
   std::vector<FeatureId> compact(used.size(), kMissing);
   {
+    std::size_t used_count = 0;
+    for (char u : used) used_count += u != 0;
+    profile.vocabulary.reserve(used_count);
     Statement forms = db.prepare("SELECT feature_id, form FROM vocabulary WHERE settings_id = ?1 ORDER BY feature_id");
     forms.bind(1, settings_id);
     while (forms.step()) {
