@@ -92,11 +92,23 @@ void ProfileBuilder::count_char_ngrams_ending_in_window() {
 
 void ProfileBuilder::end_segment() {
   if (!in_segment_) throw Error(ErrorKind::usage, "end_segment() without begin_segment()");
-  std::sort(touched_.begin(), touched_.end());
   current_.counts.reserve(touched_.size());
-  for (FeatureId id : touched_) {
-    current_.counts.emplace_back(id, scratch_counts_[id]);
-    scratch_counts_[id] = 0;
+  // Every id counted is below both (count() grows scratch_counts_ to hold it).
+  const std::size_t known = std::min(profile_.vocabulary.size(), scratch_counts_.size());
+  if (touched_.size() * 16 >= known) {
+    // Many of the known features: one pass over the counts in id order costs less than
+    // sorting the ids touched (a speaker of a play uses thousands of its words).
+    for (FeatureId id = 0; id < static_cast<FeatureId>(known); ++id) {
+      if (scratch_counts_[id] == 0) continue;
+      current_.counts.emplace_back(id, scratch_counts_[id]);
+      scratch_counts_[id] = 0;
+    }
+  } else {
+    std::sort(touched_.begin(), touched_.end());
+    for (FeatureId id : touched_) {
+      current_.counts.emplace_back(id, scratch_counts_[id]);
+      scratch_counts_[id] = 0;
+    }
   }
   touched_.clear();
   profile_.segments.push_back(std::move(current_));
