@@ -175,6 +175,9 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
   }
   db->exec("PRAGMA synchronous = NORMAL");
   db->exec("PRAGMA foreign_keys = OFF");
+  // Read the store through a memory map rather than a read() call a page: an analysis
+  // reads every stored count, a re-run its lists of files and results.
+  db->exec("PRAGMA mmap_size = 1073741824");
   Transaction t(*db);
   bool has_tables = false;
   {
