@@ -34,6 +34,22 @@ DsyrkFunction find_dsyrk() {
 
 }  // namespace
 
+void gram_lower(const RowMatrix& rows, Eigen::MatrixXd& out, bool allow_blas) {
+  const Eigen::Index n = rows.rows();
+  const Eigen::Index k = rows.cols();
+  out.resize(n, n);
+  const DsyrkFunction dsyrk = allow_blas ? find_dsyrk() : nullptr;
+  if (k > 0 && dsyrk) {
+    // The row-major n x k `rows` is, read column-major, the k x n matrix A = rows^T; so
+    // A^T A is the Gram matrix, written into the lower triangle of the column-major `out`.
+    dsyrk(CblasColMajor, CblasLower, CblasTrans, static_cast<int>(n), static_cast<int>(k), 1.0, rows.data(),
+          static_cast<int>(k), 0.0, out.data(), static_cast<int>(n));
+  } else {
+    out.setZero();  // no BLAS: Eigen's own product, on one core
+    if (k > 0) out.selfadjointView<Eigen::Lower>().rankUpdate(rows);
+  }
+}
+
 void cosine_distances_by_gram(const RowMatrix& rows, unsigned threads, Eigen::MatrixXd& out) {
   const Eigen::Index n = rows.rows();
   const Eigen::Index k = rows.cols();
@@ -47,16 +63,7 @@ void cosine_distances_by_gram(const RowMatrix& rows, unsigned threads, Eigen::Ma
       zero[static_cast<std::size_t>(i)] = 1;
     }
   }
-  // The row-major n x k `unit` is, read column-major, the k x n matrix A = unit^T; so
-  // A^T A is the Gram matrix, written into the lower triangle of the column-major `out`.
-  out.resize(n, n);
-  if (k > 0 && find_dsyrk()) {
-    find_dsyrk()(CblasColMajor, CblasLower, CblasTrans, static_cast<int>(n), static_cast<int>(k), 1.0, unit.data(),
-                 static_cast<int>(k), 0.0, out.data(), static_cast<int>(n));
-  } else {
-    out.setZero();  // no BLAS found: Eigen's own product, on one core
-    if (k > 0) out.selfadjointView<Eigen::Lower>().rankUpdate(unit);
-  }
+  gram_lower(unit, out);
   constexpr double kRoundingNoise = 64 * std::numeric_limits<double>::epsilon();
   parallel_items(static_cast<std::size_t>(n), threads, [&](std::size_t item) {
     const Eigen::Index j = static_cast<Eigen::Index>(item);  // one column of the lower triangle

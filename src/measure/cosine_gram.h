@@ -18,4 +18,9 @@ namespace manicule {
 
 void cosine_distances_by_gram(const RowMatrix& rows, unsigned threads, Eigen::MatrixXd& out);
 
+// The lower triangle (diagonal included) of rows * rows^T into `out`, resized to n x n:
+// by the BLAS's dsyrk when one is found and `allow_blas`, else by Eigen's own product.
+// The upper triangle is left unspecified.
+void gram_lower(const RowMatrix& rows, Eigen::MatrixXd& out, bool allow_blas = true);
+
 }  // namespace manicule

@@ -8,6 +8,7 @@
 
 #include "core/error.h"
 #include "measure/blocked_pairs.h"
+#include "measure/cosine_gram.h"
 #include "measure/pairwise_distances.h"
 #include "profile/feature_space.h"
 #include "profile/profile_builder.h"
@@ -130,5 +131,25 @@ TEST_CASE("baseline and AVX2 loops both agree with plain Eigen sums", "[measure]
         }
       }
     }
+  }
+}
+
+TEST_CASE("the Gram matrix by the BLAS and by Eigen's own product agree with plain dot products", "[measure]") {
+  // gram_lower uses the BLAS (opened at run time) when there is one and Eigen otherwise;
+  // both must give the dot products computed here one by one (the definition). Values are
+  // a fixed pseudo-random pattern with both signs, 37 rows of 53 columns.
+  RowMatrix rows(37, 53);
+  for (Eigen::Index r = 0; r < rows.rows(); ++r)
+    for (Eigen::Index c = 0; c < rows.cols(); ++c) rows(r, c) = std::sin(0.7 * static_cast<double>(r * 53 + c)) * (1 + r % 5);
+  for (bool allow_blas : {true, false}) {
+    Eigen::MatrixXd gram;
+    gram_lower(rows, gram, allow_blas);
+    REQUIRE(gram.rows() == rows.rows());
+    for (Eigen::Index i = 0; i < rows.rows(); ++i)
+      for (Eigen::Index j = 0; j <= i; ++j) {
+        double dot = 0;
+        for (Eigen::Index c = 0; c < rows.cols(); ++c) dot += rows(i, c) * rows(j, c);
+        REQUIRE(gram(i, j) == Approx(dot).epsilon(1e-12).margin(1e-12));
+      }
   }
 }

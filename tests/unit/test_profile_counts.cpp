@@ -2,6 +2,9 @@
 // totals, streaming equal to whole-segment input, merging builders.
 #include <catch2/catch.hpp>
 
+#include <map>
+#include <unordered_map>
+
 #include "core/error.h"
 #include "profile/profile_builder.h"
 
@@ -26,6 +29,62 @@ TEST_CASE("vocabulary interns each form once and survives growth", "[profile]") 
   REQUIRE(v.form(4999) == "w4999");
   REQUIRE(v.find("w5000") == std::nullopt);
   REQUIRE(v.intern("") == 5000);  // the empty form is a form like any other
+}
+
+TEST_CASE("vocabulary tells apart forms that short-form packing could confuse", "[profile]") {
+  // Forms of up to 8 bytes live packed in the hash slot: zero-padded, so "a", "a\0" and
+  // "a\0\0" pack alike and their lengths (in the hash and the slot) tell them apart; prefixes of longer forms,
+  // forms of exactly 8 and 9 bytes, and every length 0..24 are checked against a
+  // std::unordered_map (the reference: ids are dense in order of first appearance).
+  std::vector<std::string> forms = {"", std::string(1, '\0'), std::string(2, '\0'), "a", std::string("a\0", 2),
+                                    std::string("a\0\0", 3), "abcdefgh", "abcdefghi", "abcdefgh\0", "Fräulein",
+                                    "Fräulei", "Fräuleins"};
+  for (std::size_t length = 0; length <= 24; ++length) {
+    for (char c : {'x', 'y'}) forms.push_back(std::string(length, c));
+    forms.push_back(std::string(length, 'x') + "y");
+  }
+  for (int reserve : {0, 1}) {
+    Vocabulary v;
+    if (reserve) v.reserve(forms.size() * 3);
+    std::unordered_map<std::string, FeatureId> reference;
+    for (int round = 0; round < 3; ++round) {  // a second and third round finds each form
+      for (std::size_t i = 0; i < forms.size(); ++i) {
+        const std::string form = forms[i] + (round == 2 ? std::to_string(i) : "");
+        const auto [it, added] = reference.emplace(form, static_cast<FeatureId>(reference.size()));
+        REQUIRE(v.intern(form) == it->second);
+        (void)added;
+      }
+    }
+    REQUIRE(v.size() == reference.size());
+    for (const auto& [form, id] : reference) {
+      REQUIRE(v.form(id) == form);
+      REQUIRE(v.find(form) == id);
+    }
+    REQUIRE(v.find(std::string(3, '\0')) == std::nullopt);
+    REQUIRE(v.find("abcdefghij") == std::nullopt);
+  }
+}
+
+TEST_CASE("counts come out sorted whether a segment touches few or most known words", "[profile]") {
+  // end_segment collects counts by scanning ids when a segment uses many of the known
+  // features, by sorting the ids it touched otherwise; both must give what std::map gives.
+  ProfileBuilder builder;
+  std::vector<std::vector<std::string>> segments;
+  std::vector<std::string> wide;  // 300 words in a scrambled order, some repeated
+  for (int i = 0; i < 300; ++i) wide.push_back("w" + std::to_string((i * 7919) % 300));
+  for (int i = 0; i < 50; ++i) wide.push_back("w" + std::to_string(i * 3));
+  segments.push_back({"alone", "alone"});            // id 0, in no later segment
+  segments.push_back(wide);                            // most of the known words: scanning
+  segments.push_back({"w299", "w5", "w5", "w150"});  // few of the 301 known: sorting
+  segments.push_back(wide);
+  for (std::size_t i = 0; i < segments.size(); ++i) builder.add_segment("s" + std::to_string(i), segments[i]);
+  const CountProfile p = builder.finish();
+  for (std::size_t i = 0; i < segments.size(); ++i) {
+    std::map<FeatureId, std::uint32_t> reference;
+    for (const auto& w : segments[i]) ++reference[*p.vocabulary.find(w)];
+    const std::vector<std::pair<FeatureId, std::uint32_t>> expected(reference.begin(), reference.end());
+    CHECK(p.segments[i].counts == expected);
+  }
 }
 
 TEST_CASE("word counts are sparse, sorted and total the tokens", "[profile]") {
