@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <filesystem>
 #include <map>
+#include <unordered_set>
 
 #include "core/corpus_stream.h"
 #include "core/error.h"
@@ -43,6 +44,7 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
   Corpus corpus;
   corpus.files = files;
   ProfileBuilder merged(request.features);
+  std::unordered_set<std::string> listed_ids;  // when counts are not merged (keep_counts)
   auto absorb = [&](FileReading& r) {
     corpus.bytes += r.bytes;
     corpus.file_sha256.push_back(r.sha256);
@@ -50,7 +52,15 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
       corpus.failures.push_back(std::move(r.failure));
       return;
     }
-    if (request.keep_counts) merged.merge(std::move(r.counts));
+    if (request.keep_counts) {
+      merged.merge(std::move(r.counts));
+    } else {
+      // The same refusal merge() makes: two files of one name in different folders would
+      // give their segments the same ids.
+      for (const auto& s : r.segments)
+        if (!listed_ids.insert(s.segment.id).second)
+          throw Error(ErrorKind::usage, "segment id '" + s.segment.id + "' occurs twice in one profile");
+    }
     for (auto& s : r.segments) corpus.segments.push_back(std::move(s));
   };
   std::map<std::size_t, FileReading> waiting;

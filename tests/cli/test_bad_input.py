@@ -106,4 +106,13 @@ mtest.check(p.returncode == 2 and "does not compile" in p.stderr, "bad XPath: us
 p = subprocess.run([mtest.BIN, "segments", "--unit", "stanza", prose], capture_output=True, text=True)
 mtest.check(p.returncode == 2 and "unknown unit" in p.stderr, "unknown unit: " + p.stderr)
 
+# 9. Two files of one name in different folders would give their segments the same ids
+# (file stem + "#" + id): refused with a usage error naming the id, not listed twice.
+for folder in ("first", "second"):
+    os.makedirs(os.path.join(tmp, folder), exist_ok=True)
+    write(os.path.join(folder, "same.xml"), TEI_OPEN + HEADER + "<text><body><p>Twice named.</p></body></text></TEI>\n")
+p = run_segments(os.path.join(tmp, "first", "same.xml"), os.path.join(tmp, "second", "same.xml"))
+mtest.check(p.returncode == 2 and "same#" in p.stderr and "twice" in p.stderr,
+            "same file name in two folders: usage error naming the id: %d %s" % (p.returncode, p.stderr))
+
 mtest.done()
