@@ -55,9 +55,7 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
 
     Request request;
     // With --attribute the features default to those of the attribute command.
-    AnalysisOptions measuring = *analysis;
-    if (flags->attribute && command->get_option("--ranks")->count() == 0) measuring.ranks = kAttributionRanks;
-    measuring.apply_to(request);
+    apply_measuring_options(*analysis, *command, flags->attribute, request);
     const FeatureSpec asked = request.features;
     store::apply_settings(chosen->settings.request, request);
     bool features_given = command->get_option("--features")->count() + command->get_option("--n")->count() > 0;

@@ -89,9 +89,7 @@ CommandRunner add_annotate_command(CLI::App& app) {
     settings->output = *in_place ? std::string() : !output->empty() ? *output : *standoff_file;
     const bool attributing = *attribute || *verify;
     Request request = selection->to_request();
-    AnalysisOptions measuring = *analysis_options;
-    if (attributing && command->count("--ranks") == 0) measuring.ranks = kAttributionRanks;
-    measuring.apply_to(request);
+    apply_measuring_options(*analysis_options, *command, attributing, request);
     request.compute_pca = *components > 0;
     request.pca.components = *components;
 

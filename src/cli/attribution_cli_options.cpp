@@ -124,6 +124,13 @@ AttributionRun run_attribution(const Request& request, AttributionTask task) {
   return run;
 }
 
+void apply_measuring_options(const AnalysisOptions& options, const CLI::App& command, bool attributing,
+                             Request& request) {
+  AnalysisOptions measuring = options;
+  if (attributing && command.count("--ranks") == 0) measuring.ranks = kAttributionRanks;
+  measuring.apply_to(request);
+}
+
 SegmentRoles assign_roles_noting(Analysis& analysis, const Request& request, AttributionSteps steps) {
   const AttributionOptions& s = request.attribution;
   if (!s.impostor_files.empty()) {

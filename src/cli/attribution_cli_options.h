@@ -30,6 +30,11 @@ struct AttributionSteps {
 // Ranks of the most frequent features attribution uses by default (docs/attribution.md).
 inline constexpr const char* kAttributionRanks = "1-2000";
 
+// `options.apply_to(request)`, with kAttributionRanks instead of the measuring default when
+// the run attributes and `command` was given no --ranks.
+void apply_measuring_options(const AnalysisOptions& options, const CLI::App& command, bool attributing,
+                             Request& request);
+
 struct AttributionCommandOptions {
   MeasureCommandOptions measuring;
   std::string labels_file;

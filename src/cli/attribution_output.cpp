@@ -31,12 +31,11 @@ nlohmann::json figure(double value, bool defined) { return defined ? nlohmann::j
 std::string figure_text(double value, bool defined) { return defined ? fixed(value) : "n/a"; }
 
 nlohmann::json band_json(const VerificationBand& b) {
-  const bool both = b.same_problems > 0 && b.different_problems > 0;
-  const bool any = b.same_problems + b.different_problems > 0;
   return {{"low", b.low},           {"high", b.high},
           {"calibrated", b.calibrated}, {"method", b.method},
           {"same_problems", b.same_problems}, {"different_problems", b.different_problems},
-          {"auc", figure(b.auc, both)}, {"c_at_1", figure(b.c_at_1, any)}, {"f05u", figure(b.f05u, any)}};
+          {"auc", figure(b.auc, b.auc_defined())}, {"c_at_1", figure(b.c_at_1, b.rates_defined())},
+          {"f05u", figure(b.f05u, b.rates_defined())}};
 }
 
 }  // namespace

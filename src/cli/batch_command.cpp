@@ -64,9 +64,7 @@ CommandRunner add_batch_command(CLI::App& app) {
   return [=]() -> int {
     Request request = selection->to_request();
     // With --attribute the features default to those of the attribute command.
-    AnalysisOptions measuring = *analysis;
-    if (flags->attribute && command->get_option("--ranks")->count() == 0) measuring.ranks = kAttributionRanks;
-    measuring.apply_to(request);
+    apply_measuring_options(*analysis, *command, flags->attribute, request);
     request.compute_pca = flags->pca;
     store::BatchOptions options;
     options.filter = filters->to_filter();

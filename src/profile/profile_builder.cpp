@@ -96,19 +96,17 @@ void ProfileBuilder::end_segment() {
   // Every id counted is below both (count() grows scratch_counts_ to hold it).
   const std::size_t known = std::min(profile_.vocabulary.size(), scratch_counts_.size());
   if (touched_.size() * 16 >= known) {
-    // Many of the known features: one pass over the counts in id order costs less than
-    // sorting the ids touched (a speaker of a play uses thousands of its words).
-    for (FeatureId id = 0; id < static_cast<FeatureId>(known); ++id) {
-      if (scratch_counts_[id] == 0) continue;
-      current_.counts.emplace_back(id, scratch_counts_[id]);
-      scratch_counts_[id] = 0;
-    }
+    // Many of the known features: listing them by one pass over the counts in id order
+    // costs less than sorting the ids touched (a speaker of a play uses thousands of its words).
+    touched_.clear();
+    for (FeatureId id = 0; id < static_cast<FeatureId>(known); ++id)
+      if (scratch_counts_[id] != 0) touched_.push_back(id);
   } else {
     std::sort(touched_.begin(), touched_.end());
-    for (FeatureId id : touched_) {
-      current_.counts.emplace_back(id, scratch_counts_[id]);
-      scratch_counts_[id] = 0;
-    }
+  }
+  for (FeatureId id : touched_) {
+    current_.counts.emplace_back(id, scratch_counts_[id]);
+    scratch_counts_[id] = 0;
   }
   touched_.clear();
   profile_.segments.push_back(std::move(current_));

@@ -164,16 +164,13 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
 
   auto pointers_from = [&](const std::string& document) {
     return [&, document](std::size_t s) {
+      // A file read but not written into is always named; an edition is not, from itself.
+      const bool edition = edition_of[s] != kNoEdition;
+      const std::string& file = edition ? open[edition_of[s]].snapshot->path : analysis.segments[s].file;
+      const bool same = edition && !separate && open[edition_of[s]].document_path == document;
       std::vector<std::string> out;
-      if (edition_of[s] == kNoEdition) {
-        for (const auto& p : analysis.segments[s].pointers)
-          out.push_back(relative_uri(document, analysis.segments[s].file) + "#" + strip_hash(p));
-        return out;
-      }
-      const Edition& e = open[edition_of[s]];
-      bool same = !separate && e.document_path == document;
       for (const auto& p : analysis.segments[s].pointers)
-        out.push_back((same ? "" : relative_uri(document, e.snapshot->path)) + "#" + strip_hash(p));
+        out.push_back((same ? "" : relative_uri(document, file)) + "#" + strip_hash(p));
       return out;
     };
   };

@@ -1,5 +1,5 @@
 // The parts of TEI feature structures (P5 chapter 18) that our standoff writes: an `f`
-// added to an `fs`, and its values (numeric, symbol, a vColl of strings). One definition,
+// added to an `fs`, and its values (numeric, binary, symbol, a vColl of strings). One definition,
 // so that profiles, distances, PCA and attribution results write their values alike.
 #pragma once
 #include <cstddef>
@@ -19,6 +19,7 @@ inline XmlNode& add_feature(XmlNode& fs, const std::string& name) {
 inline XmlNode numeric(const std::string& value) { return XmlNode::element("numeric", {{"value", value}}); }
 inline XmlNode numeric(double value) { return numeric(format_number(value)); }
 inline XmlNode count(std::size_t value) { return numeric(std::to_string(value)); }
+inline XmlNode binary(bool value) { return XmlNode::element("binary", {{"value", value ? "true" : "false"}}); }
 
 // TEI symbol/@value is teidata.word: no spaces ("weighted centroid" -> "weighted-centroid").
 inline XmlNode symbol(std::string value) {

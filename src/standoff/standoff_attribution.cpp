@@ -103,7 +103,7 @@ void StandoffBuilder::add_verifications(Parts& parts) const {
       const VerificationBand& band = *analysis_.verification_band;
       add_feature(fs, "bandLow").add(numeric(band.low));
       add_feature(fs, "bandHigh").add(numeric(band.high));
-      add_feature(fs, "bandCalibrated").add(XmlNode::element("binary", {{"value", band.calibrated ? "true" : "false"}}));
+      add_feature(fs, "bandCalibrated").add(binary(band.calibrated));
     }
     add_feature(fs, "iterations").add(count(r.iterations));
     add_feature(fs, "featureShare").add(numeric(r.feature_share));

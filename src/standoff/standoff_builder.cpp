@@ -106,7 +106,7 @@ XmlNode StandoffBuilder::profile_values(std::size_t segment) const {
   if (!s.language.empty()) add_feature(fs, "language").add(symbol(s.language));
   if (!s.author.empty()) add_feature(fs, "author").add_text_element("string", s.author);
   add_feature(fs, "authorship").add(symbol(authorship_word(s.authorship)));
-  add_feature(fs, "measured").add(XmlNode::element("binary", {{"value", s.measured ? "true" : "false"}}));
+  add_feature(fs, "measured").add(binary(s.measured));
   if (!s.excluded_reason.empty()) add_feature(fs, "excludedBecause").add_text_element("string", s.excluded_reason);
   long row = row_of_[segment];
   if (row >= 0 && !analysis_.distances->nearest[static_cast<std::size_t>(row)].empty()) {

@@ -654,7 +654,7 @@ void TeiWalker::end() {
     TextBuffer buffer = std::move(s.open_units.back().buffers.back());
     s.open_units.back().buffers.pop_back();
     if (!s.alternations.empty())
-      s.alternations.back().members.push_back(State::Member{std::string(f.name), f.cert, f.wit, s.skip.count(f.name) > 0, std::move(buffer)});
+      s.alternations.back().members.push_back(State::Member{std::string(f.name), f.cert, f.wit, s.name_class(f.name).skipped, std::move(buffer)});
   }
   if (f.unit >= 0) {
     s.close_unit(s.open_units.back());

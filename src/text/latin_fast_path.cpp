@@ -110,10 +110,11 @@ bool is_ascii_letter(unsigned char byte) {
   return static_cast<unsigned char>((byte | 0x20) - 'a') < 26;
 }
 
-// U+00C0-U+00FF but for U+00D7 and U+00F7 (C3 80-BF in UTF-8): ALetter (latin1_supplement_class).
+// Whether a letter of U+00C0-U+00FF (C3 80-BF in UTF-8) starts at `at`, as
+// latin1_supplement_class says: the letters most Latin-script text has beyond ASCII.
 bool is_latin1_letter_at(const unsigned char* bytes, std::size_t at, std::size_t end) {
-  return bytes[at] == 0xC3 && at + 1 < end && (bytes[at + 1] & 0xC0) == 0x80 && bytes[at + 1] != 0x97 &&
-         bytes[at + 1] != 0xB7;
+  return bytes[at] == 0xC3 && at + 1 < end && (bytes[at + 1] & 0xC0) == 0x80 &&
+         latin1_supplement_class(0xC0 | (bytes[at + 1] & 0x3F)) == C::aletter;
 }
 
 void append_code_point(char32_t c, std::string& out) {
