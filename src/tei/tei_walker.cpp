@@ -609,8 +609,9 @@ void TeiWalker::start(const StartTag& tag) {
 
 void TeiWalker::end() {
   State& s = *s_;
-  State::Frame f = std::move(s.frames.back());
-  s.frames.pop_back();
+  // Popped at the end rather than moved out: a frame holds three strings, and nothing
+  // below looks at the frames.
+  State::Frame& f = s.frames.back();
 
   if (f.capture != Capture::none) {
     std::string text = std::move(s.capture_text.back());
@@ -675,6 +676,7 @@ void TeiWalker::end() {
   if (f.sp_grp) s.sp_grp_who.pop_back();
   if (f.tei && f.name == "text") --s.text_depth;
   if (f.tei_element) s.tei_stack.pop_back();
+  s.frames.pop_back();
 }
 
 void TeiWalker::text(std::string_view chars) {
@@ -727,7 +729,10 @@ std::vector<Segment> TeiWalker::finish() {
   std::map<int, int> letter_ordinal;
   for (auto& b : s.built) {
     Segment& seg = b.segment;
-    const HeaderInfo& h = s.headers.empty() ? HeaderInfo{} : s.headers[static_cast<std::size_t>(b.tei_index)];
+    // Bound without a conditional expression: `cond ? HeaderInfo{} : headers[i]` is a
+    // prvalue, and copied every header (person names and all) for every segment.
+    static const HeaderInfo no_header;
+    const HeaderInfo& h = s.headers.empty() ? no_header : s.headers[static_cast<std::size_t>(b.tei_index)];
     if (s.rules.unit == UnitKind::letter) {
       if (b.body_letter && s.letters_per_tei[static_cast<std::size_t>(b.tei_index)] > 0) continue;
       int ordinal = letter_ordinal[b.tei_index]++;

@@ -1,5 +1,7 @@
 #include "text/latin_fast_path.h"
 
+#include "text/stretch_planner.h"
+
 #include <unicode/utf8.h>
 
 #include <array>
@@ -106,8 +108,27 @@ std::int32_t rule_status(C last, C before, bool alone) {
   }
 }
 
-bool is_ascii_letter(unsigned char byte) {
-  return static_cast<unsigned char>((byte | 0x20) - 'a') < 26;
+// What a segment's bytes say about normalising it, gathered as they are read.
+constexpr unsigned kCapital = 1;   // an ASCII capital letter
+constexpr unsigned kNonAscii = 2;  // a multi-byte code point
+constexpr unsigned kLetter = 4;    // (table only) an ASCII letter
+
+// kLetter for ASCII letters, with kCapital for A-Z; 0 for every other byte.
+constexpr std::array<unsigned char, 256> kAsciiLetterBits = [] {
+  std::array<unsigned char, 256> table{};
+  for (int c = 'a'; c <= 'z'; ++c) table[c] = kLetter;
+  for (int c = 'A'; c <= 'Z'; ++c) table[c] = kLetter | kCapital;
+  return table;
+}();
+
+unsigned form_bits(const LatinCodePoint& code_point, unsigned char lead) {
+  if (code_point.length > 1) return kNonAscii;
+  return lead >= 'A' && lead <= 'Z' ? kCapital : 0;
+}
+
+SegmentForm form_of(unsigned bits) {
+  if (bits & kNonAscii) return SegmentForm::latin;
+  return bits & kCapital ? SegmentForm::ascii_capitals : SegmentForm::ascii_lower;
 }
 
 // Whether a letter of U+00C0-U+00FF (C3 80-BF in UTF-8) starts at `at`, as
@@ -155,23 +176,34 @@ LatinCodePoint decode_latin_multibyte(std::string_view text, std::size_t at) {
   return {1, C::ineligible};
 }
 
-void latin_segment(std::string_view text, std::size_t begin, std::size_t end,
-                   std::vector<WordSegment>& out, bool letters_only) {
-  if (begin >= end) return;
+LatinRun latin_segment(std::string_view text, std::size_t begin, std::size_t end,
+                       std::vector<WordSegment>& out, bool letters_only) {
+  if (begin >= end) return {end, end};
+  const std::size_t kept = out.size();
   const auto* bytes = reinterpret_cast<const unsigned char*>(text.data());
   const LatinCodePoint first = decode_latin(text, begin);
+  if (first.break_class == C::ineligible) return {begin, begin};
   C before = C::other;            // class of the code point ahead of `left`
   C left = first.break_class;     // class of the code point ending at `at`
   bool left_is_alone = true;      // `left` starts the current segment
   std::size_t segment_begin = begin;
+  unsigned seen = form_bits(first, bytes[begin]);  // kCapital | kNonAscii of the segment so far
   std::size_t at = begin + first.length;
+  const auto emit = [&](std::size_t segment_end) {
+    const std::int32_t status = rule_status(left, before, left_is_alone);
+    if (!letters_only || status == UBRK_WORD_LETTER)
+      out.push_back({segment_begin, segment_end, status, form_of(seen)});
+  };
   while (at < end) {
-    if (left == C::aletter) {  // WB5 through a run of ASCII letters: the common case
+    if (left == C::aletter) {  // WB5 through a run of letters: the common case
       std::size_t run_end = at;
       while (run_end < end) {
-        if (is_ascii_letter(bytes[run_end])) {
+        const unsigned bits = kAsciiLetterBits[bytes[run_end]];
+        if (bits) {
+          seen |= bits;
           ++run_end;
         } else if (is_latin1_letter_at(bytes, run_end, end)) {
+          seen |= kNonAscii;
           run_end += 2;
         } else {
           break;
@@ -193,22 +225,35 @@ void latin_segment(std::string_view text, std::size_t begin, std::size_t end,
       if (at == end) break;
     }
     const LatinCodePoint right = decode_latin(text, at);
+    if (right.break_class == C::ineligible) {
+      // Keep what lies before the latest boundary that holds whatever the context (the
+      // segments beyond it may depend on the ineligible code point) and hand the rest
+      // back. A segment cannot straddle such a boundary, so the open one either ends
+      // there or begins after it.
+      const std::size_t cut = latest_cut(text, begin, at);
+      while (out.size() > kept && out.back().begin >= cut) out.pop_back();
+      if (segment_begin < cut) emit(cut);
+      return {cut, at};
+    }
     const std::size_t next = at + right.length;
+    // An ineligible code point ahead reads as Other here; a decision it would change lies
+    // beyond the cut made when it is reached, and is taken back then.
     const auto after = [&] { return next < end ? decode_latin(text, next).break_class : C::other; };
     if (joins(before, left, right.break_class, after)) {
       left_is_alone = false;
+      seen |= form_bits(right, bytes[at]);
     } else {
-      const std::int32_t status = rule_status(left, before, left_is_alone);
-      if (!letters_only || status == UBRK_WORD_LETTER) out.push_back({segment_begin, at, status});
+      emit(at);
       segment_begin = at;
       left_is_alone = true;
+      seen = form_bits(right, bytes[at]);
     }
     before = left;
     left = right.break_class;
     at = next;
   }
-  const std::int32_t status = rule_status(left, before, left_is_alone);
-  if (!letters_only || status == UBRK_WORD_LETTER) out.push_back({segment_begin, end, status});
+  emit(end);
+  return {end, end};
 }
 
 std::string_view latin_normalise(std::string_view token, bool case_fold, bool apostrophes,

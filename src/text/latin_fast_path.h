@@ -60,13 +60,20 @@ inline LatinCodePoint decode_latin(std::string_view text, std::size_t at) {
   return decode_latin_multibyte(text, at);
 }
 
-// Appends the word segments of text[begin, end), which must be eligible throughout and
-// be cut from the text at boundaries that hold whatever the context, to `out`; with
-// `letters_only`, only the segments of letters (UBRK_WORD_LETTER), for callers that drop
-// numbers, spaces and punctuation anyway.
-void latin_segment(std::string_view text, std::size_t begin, std::size_t end,
-                   std::vector<WordSegment>& out, bool letters_only = false);
+// Where latin_segment stopped.
+struct LatinRun {
+  std::size_t end = 0;         // the segments appended cover [begin, end)
+  std::size_t ineligible = 0;  // the first ineligible code point; == end when there is none
+};
 
+// Appends the word segments of text[begin, end) to `out`, which must be cut from the text at
+// boundaries that hold whatever the context; with `letters_only`, only the segments of
+// letters (UBRK_WORD_LETTER), for callers that drop numbers, spaces and punctuation anyway.
+// Stops at the first ineligible code point: then the segments cover [begin, cut), cut being
+// the latest boundary before it that holds whatever follows (latest_cut; `begin` if none),
+// and the text from the cut on is left to ICU. Each segment says its SegmentForm.
+LatinRun latin_segment(std::string_view text, std::size_t begin, std::size_t end,
+                       std::vector<WordSegment>& out, bool letters_only = false);
 // Normalises a token made of eligible code points as TokenNormaliser would (NFC is a no-op
 // on them): optional full case folding and apostrophe unification. Returns `token` itself
 // when nothing changes, else a view into `buffer`.

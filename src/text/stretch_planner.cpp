@@ -59,44 +59,36 @@ std::size_t latest_cut(std::string_view text, std::size_t floor, std::size_t at)
   return floor;
 }
 
+std::size_t end_of_icu_stretch(std::string_view text, std::size_t ineligible) {
+  const auto* bytes = reinterpret_cast<const unsigned char*>(text.data());
+  // Cuts fall only after ASCII white space, so stepping bytewise never stops mid-character.
+  for (std::size_t at = ineligible + decode_latin(text, ineligible).length; at < text.size(); ++at) {
+    if (is_ascii_white_space(bytes[at - 1]) && is_unconditional_boundary(text, at)) return at;
+  }
+  return text.size();
+}
+
+void segment_in_stretches(std::string_view text, std::vector<WordSegment>& segments, bool letters_only,
+                          const std::function<void(std::size_t, std::size_t)>& icu_stretch) {
+  for (std::size_t at = 0; at < text.size();) {
+    const LatinRun run = latin_segment(text, at, text.size(), segments, letters_only);
+    if (run.ineligible == text.size()) return;
+    const std::size_t icu_end = end_of_icu_stretch(text, run.ineligible);
+    icu_stretch(run.end, icu_end);
+    at = icu_end;
+  }
+}
+
 void plan_stretches(std::string_view text, std::vector<TextStretch>& out) {
   out.clear();
-  const auto* bytes = reinterpret_cast<const unsigned char*>(text.data());
-  std::size_t stretch_begin = 0;  // start of the stretch being grown
-  bool fast = true;
-  for (std::size_t at = 0; at < text.size();) {
-    if (fast) {
-      // Eligible code points, ASCII above all, are skipped in a tight loop.
-      const unsigned char lead = bytes[at];
-      if (lead < 0x80) {
-        if (kAsciiBreakClasses[lead] != LatinBreakClass::ineligible) {
-          ++at;
-          continue;
-        }
-      } else {
-        const LatinCodePoint cp = decode_latin_multibyte(text, at);
-        if (cp.break_class != LatinBreakClass::ineligible) {
-          at += cp.length;
-          continue;
-        }
-      }
-      // Hand back to ICU from the latest cut: the words before it are settled.
-      const std::size_t cut = latest_cut(text, stretch_begin, at);
-      append_stretch(out, stretch_begin, cut, true);
-      stretch_begin = cut;
-      fast = false;
-      at += decode_latin(text, at).length;
-      continue;
-    }
-    if (at > 0 && is_ascii_white_space(bytes[at - 1]) && is_unconditional_boundary(text, at)) {
-      append_stretch(out, stretch_begin, at, false);
-      stretch_begin = at;
-      fast = true;
-      continue;  // the code point at `at` is looked at again, in fast mode
-    }
-    ++at;  // cuts fall only before ASCII or after ASCII white space: never mid-character
-  }
-  append_stretch(out, stretch_begin, text.size(), fast);
+  std::vector<WordSegment> scratch;
+  std::size_t fast_begin = 0;  // where the Latin fast path took over last
+  segment_in_stretches(text, scratch, true, [&](std::size_t begin, std::size_t end) {
+    append_stretch(out, fast_begin, begin, true);
+    append_stretch(out, begin, end, false);
+    fast_begin = end;
+  });
+  append_stretch(out, fast_begin, text.size(), true);
 }
 
 }  // namespace manicule

@@ -34,32 +34,21 @@ struct Tokenizer::Impl {
 
   IcuWordBreaker breaker;
   TokenNormaliser normaliser;
-  std::vector<TextStretch> stretches;
   std::vector<WordSegment> segments;
   std::string latin_buffer;
 
-  // Segments `text`, calling on_stretch(fast) after the segments of each stretch have
-  // been appended to `segments` (fast: they came from the Latin fast path).
-  // With `letters_only` the fast path hands over only segments of letters (what
-  // tokenize() keeps when numbers and punctuation are dropped).
-  template <typename OnStretch>
-  void segment(std::string_view text, std::string_view language, bool fast_path, bool letters_only,
-               OnStretch on_stretch) {
+  // Replaces `segments` with those of `text`: the Latin fast path's where it can, ICU's
+  // elsewhere. With `letters_only` the fast path hands over only segments of letters
+  // (what tokenize() keeps when numbers and punctuation are dropped).
+  void segment(std::string_view text, std::string_view language, bool fast_path, bool letters_only) {
     segments.clear();
     if (!fast_path || !breaker.uses_root_rules(language)) {
       breaker.segment(text, 0, text.size(), language, segments);
-      on_stretch(false);
       return;
     }
-    plan_stretches(text, stretches);
-    for (const TextStretch& stretch : stretches) {
-      if (stretch.fast) {
-        latin_segment(text, stretch.begin, stretch.end, segments, letters_only);
-      } else {
-        breaker.segment(text, stretch.begin, stretch.end, language, segments);
-      }
-      on_stretch(stretch.fast);
-    }
+    segment_in_stretches(text, segments, letters_only, [&](std::size_t begin, std::size_t end) {
+      breaker.segment(text, begin, end, language, segments);
+    });
   }
 };
 
@@ -73,18 +62,33 @@ const TokenizerOptions& Tokenizer::options() const { return options_; }
 void Tokenizer::tokenize(std::string_view text, std::string_view language,
                          const std::function<void(std::string_view token)>& sink) {
   Impl& impl = *impl_;
-  std::size_t emitted = 0;  // segments of earlier stretches already handled
   const bool letters_only = !options_.keep_numbers && !options_.keep_punctuation;
-  impl.segment(text, language, options_.fast_path, letters_only, [&](bool fast) {
-    for (; emitted < impl.segments.size(); ++emitted) {
-      const WordSegment& segment = impl.segments[emitted];
-      const std::string_view piece = text.substr(segment.begin, segment.end - segment.begin);
-      if (!keeps(options_, segment, piece)) continue;
-      sink(fast ? latin_normalise(piece, options_.case_fold, options_.apostrophes,
-                                  impl.latin_buffer)
-                : impl.normaliser.normalise(piece));
+  impl.segment(text, language, options_.fast_path, letters_only);
+  for (const WordSegment& segment : impl.segments) {
+    const std::string_view piece = text.substr(segment.begin, segment.end - segment.begin);
+    if (!keeps(options_, segment, piece)) continue;
+    switch (segment.form) {
+      case SegmentForm::ascii_lower:
+        sink(piece);
+        break;
+      case SegmentForm::ascii_capitals:
+        if (!options_.case_fold) {
+          sink(piece);
+          break;
+        }
+        impl.latin_buffer.assign(piece);
+        for (char& ch : impl.latin_buffer)
+          if (ch >= 'A' && ch <= 'Z') ch = static_cast<char>(ch + ('a' - 'A'));
+        sink(impl.latin_buffer);
+        break;
+      case SegmentForm::latin:
+        sink(latin_normalise(piece, options_.case_fold, options_.apostrophes, impl.latin_buffer));
+        break;
+      case SegmentForm::unknown:
+        sink(impl.normaliser.normalise(piece));
+        break;
     }
-  });
+  }
 }
 
 std::vector<std::string> Tokenizer::tokens(std::string_view text, std::string_view language) {
@@ -97,7 +101,7 @@ std::vector<std::size_t> Tokenizer::word_boundaries(std::string_view text,
                                                     std::string_view language) {
   std::vector<std::size_t> boundaries;
   if (text.empty()) return boundaries;
-  impl_->segment(text, language, options_.fast_path, false, [](bool) {});
+  impl_->segment(text, language, options_.fast_path, false);
   boundaries.reserve(impl_->segments.size() + 1);
   boundaries.push_back(0);
   for (const WordSegment& segment : impl_->segments) boundaries.push_back(segment.end);
