@@ -3,6 +3,7 @@
 #include <unicode/unistr.h>
 
 #include <algorithm>
+#include <array>
 #include <charconv>
 #include <map>
 #include <unordered_map>
@@ -114,12 +115,14 @@ struct TeiWalker::State {
     int unit = -1;               // index into open_units opened here
     bool alternation = false;    // this element is a choice/app being resolved
     bool member = false;         // a buffered member of the enclosing alternation
-    std::string cert, wit;
+                                 // (its @cert and @wit on member_attributes)
     Capture capture = Capture::none;
     bool header = false, title_stmt = false, corresp_desc = false, corresp_sent = false, source_desc = false;
     bool person = false, cast_list = false, sp_grp = false, tei_element = false;
     bool muted = false;        // an idno inside it: an identifier, not part of the name
-    std::string xml_id;
+    // The element's xml:id, a view into the start tag: set while the start tag is handled
+    // and cleared before the frame is kept (frames hold no strings, so they copy cheaply).
+    std::string_view xml_id;
     int ordinal = 0;                                   // position among element siblings
     int same_name_index = 0;                           // position among same-name siblings
     int child_elements = 0;
@@ -135,15 +138,33 @@ struct TeiWalker::State {
     bool milestone = false, block = false, skipped = false;
   };
   std::unordered_map<std::string_view, NameClass> name_classes;
+  // In front of name_classes, a direct-mapped cache keyed by where the name's bytes are:
+  // libxml2 interns names, so one name comes at one address for the whole parse, and the
+  // cache spares hashing and comparing the name for each element.
+  struct CachedNameClass {
+    const char* name = nullptr;
+    const NameClass* name_class = nullptr;
+  };
+  std::array<CachedNameClass, 256> name_class_cache{};
   const NameClass& name_class(std::string_view name) {
+    CachedNameClass& cached =
+        name_class_cache[(reinterpret_cast<std::uintptr_t>(name.data()) >> 3) % name_class_cache.size()];
+    if (cached.name == name.data() && cached.name_class) return *cached.name_class;
     auto [it, added] = name_classes.try_emplace(name);
     if (added) {
       it->second.milestone = milestone_elements().count(name) > 0;
       it->second.block = block_elements().count(name) > 0;
       it->second.skipped = skip.count(name) > 0;
     }
+    cached = {name.data(), &it->second};  // unordered_map entries stay where they are
     return it->second;
   }
+
+  // @cert and @wit of the open alternation members, innermost last.
+  struct MemberAttributes {
+    std::string cert, wit;
+  };
+  std::vector<MemberAttributes> member_attributes;
 
   struct Member {
     std::string name, cert, wit;
@@ -274,8 +295,8 @@ struct TeiWalker::State {
     OpenUnit& u = open_units.push();
     u.tei_index = tei_stack.empty() ? 0 : tei_stack.back();
     if (!frame.xml_id.empty()) {
-      u.local_id = frame.xml_id;
-      u.pointer = "#" + frame.xml_id;
+      u.local_id.assign(frame.xml_id);
+      u.pointer.assign("#").append(frame.xml_id);
     } else {
       write_xpath_pointer(frame, u.pointer);
     }
@@ -313,7 +334,7 @@ struct TeiWalker::State {
       ++cast_depth;
     }
     if (f.name == "role" && cast_depth > 0 && !f.xml_id.empty()) {
-      person_stack.push_back(f.xml_id);
+      person_stack.emplace_back(f.xml_id);
       f.person = true;
       f.capture = Capture::role_name;
       return;
@@ -338,7 +359,7 @@ struct TeiWalker::State {
       f.muted = true;
       ++muted_depth;
     } else if ((f.name == "person" || f.name == "personGrp") && !f.xml_id.empty()) {
-      person_stack.push_back(f.xml_id);
+      person_stack.emplace_back(f.xml_id);
       f.person = true;
     } else if ((f.name == "persName" || f.name == "name" || f.name == "orgName") && in_sent_action &&
                corresp_index >= 0) {
@@ -356,7 +377,7 @@ struct TeiWalker::State {
       f.capture = Capture::person_name;
     } else if (f.name == "correspDesc") {
       CorrespRecord c;
-      c.id = f.xml_id;
+      c.id = std::string(f.xml_id);
       c.is_default = tag.attribute("default") == "true";
       h.corresp.push_back(c);
       corresp_index = static_cast<int>(h.corresp.size() - 1);
@@ -501,7 +522,7 @@ void TeiWalker::start(const StartTag& tag) {
   State& s = *s_;
   if (!s.root_seen) {
     s.root_seen = true;
-    if (!(tag.ns == kTeiNamespace && (tag.local == "TEI" || tag.local == "teiCorpus"))) {
+    if (!(tag.in_tei_namespace && (tag.local == "TEI" || tag.local == "teiCorpus"))) {
       std::string got = tag.ns.empty() ? "<" + std::string(tag.local) + "> in no namespace"
                                        : "<" + std::string(tag.local) + "> in namespace " + std::string(tag.ns);
       throw Error(ErrorKind::bad_input,
@@ -512,8 +533,8 @@ void TeiWalker::start(const StartTag& tag) {
   }
   State::Frame f;
   f.name = tag.local;
-  f.tei = tag.ns == kTeiNamespace;
-  f.xml_id = std::string(tag.attribute("id", kXmlNamespace));
+  f.tei = tag.in_tei_namespace;
+  f.xml_id = tag.attribute("id", kXmlNamespace);
   const std::size_t depth = s.frames.size();
   if (s.child_name_counts.size() <= depth) s.child_name_counts.resize(depth + 1);
   s.child_name_counts[depth].clear();  // this element's own children: none yet
@@ -521,7 +542,10 @@ void TeiWalker::start(const StartTag& tag) {
     State::Frame& parent = s.frames.back();
     f.ordinal = ++parent.child_elements;
     auto& siblings = s.child_name_counts[depth - 1];
-    auto it = std::find_if(siblings.begin(), siblings.end(), [&](const auto& p) { return p.first == f.name; });
+    // Names are interned by libxml2, so the pointers match for the same name; the
+    // comparison of the bytes is kept for any name that is not.
+    auto it = std::find_if(siblings.begin(), siblings.end(),
+                           [&](const auto& p) { return p.first.data() == f.name.data() || p.first == f.name; });
     if (it == siblings.end()) {
       siblings.emplace_back(f.name, 1);
       f.same_name_index = 1;
@@ -542,7 +566,7 @@ void TeiWalker::start(const StartTag& tag) {
   if (f.tei && (f.name == "TEI")) {
     f.tei_element = true;
     HeaderInfo h;
-    h.tei_id = f.xml_id;
+    h.tei_id = std::string(f.xml_id);
     s.headers.push_back(h);
     s.tei_stack.push_back(static_cast<int>(s.headers.size() - 1));
     s.letters_per_tei.push_back(0);
@@ -557,8 +581,7 @@ void TeiWalker::start(const StartTag& tag) {
     bool is_app = s.alternations.back().is_app;
     if (!is_app || f.name == "lem" || f.name == "rdg" || f.name == "rdgGrp") {
       f.member = true;
-      f.cert = std::string(tag.attribute("cert"));
-      f.wit = std::string(tag.attribute("wit"));
+      s.member_attributes.push_back({std::string(tag.attribute("cert")), std::string(tag.attribute("wit"))});
       s.open_units.back().buffers.emplace_back();
     }
   }
@@ -604,7 +627,8 @@ void TeiWalker::start(const StartTag& tag) {
       s.alternations.push_back(State::Alternation{f.name == "app", {}});
     }
   }
-  s.frames.push_back(std::move(f));
+  f.xml_id = {};  // the view ends with the start tag
+  s.frames.push_back(f);
 }
 
 void TeiWalker::end() {
@@ -654,8 +678,12 @@ void TeiWalker::end() {
   if (f.member) {
     TextBuffer buffer = std::move(s.open_units.back().buffers.back());
     s.open_units.back().buffers.pop_back();
+    State::MemberAttributes attributes = std::move(s.member_attributes.back());
+    s.member_attributes.pop_back();
     if (!s.alternations.empty())
-      s.alternations.back().members.push_back(State::Member{std::string(f.name), f.cert, f.wit, s.name_class(f.name).skipped, std::move(buffer)});
+      s.alternations.back().members.push_back(State::Member{std::string(f.name), std::move(attributes.cert),
+                                                            std::move(attributes.wit), s.name_class(f.name).skipped,
+                                                            std::move(buffer)});
   }
   if (f.unit >= 0) {
     s.close_unit(s.open_units.back());

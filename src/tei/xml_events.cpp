@@ -43,13 +43,18 @@ namespace {
 
 // Per-parse state reachable from libxml2 callbacks through ctxt->_private.
 struct ParseState {
-  XmlEventHandler* handler;
+  XmlEventHandler* handler = nullptr;
   xmlParserCtxtPtr ctxt = nullptr;
   std::string first_error;
   long error_line = 0;
   long error_column = 0;
   std::exception_ptr handler_error;
   bool stopped = false;
+  // The namespace of the last start tag: libxml2 hands the same interned URI to every
+  // element of a namespace, so its length and TEI-ness are worked out once, not per element.
+  const xmlChar* last_uri = nullptr;
+  std::string_view last_ns;
+  bool last_ns_is_tei = false;
 };
 
 ParseState* state_of(void* ctx) {
@@ -69,7 +74,13 @@ void on_start(void* ctx, const xmlChar* local, const xmlChar*, const xmlChar* ur
   if (st->stopped) return;
   StartTag tag;
   tag.local = reinterpret_cast<const char*>(local);
-  tag.ns = uri ? std::string_view(reinterpret_cast<const char*>(uri)) : std::string_view();
+  if (uri != st->last_uri || !uri) {
+    st->last_uri = uri;
+    st->last_ns = uri ? std::string_view(reinterpret_cast<const char*>(uri)) : std::string_view();
+    st->last_ns_is_tei = st->last_ns == kTeiNamespace;
+  }
+  tag.ns = st->last_ns;
+  tag.in_tei_namespace = st->last_ns_is_tei;
   tag.line = xmlSAX2GetLineNumber(ctx);
   tag.attributes = attributes;
   tag.attribute_count = nb_attributes;
@@ -258,7 +269,8 @@ SourceDigest parse_xml(const XmlSource& source, XmlEventHandler& handler) {
   sax.error = nullptr;
   sax.fatalError = nullptr;
 
-  ParseState st{&handler, nullptr, {}, 0, 0, nullptr, false};
+  ParseState st;
+  st.handler = &handler;
   std::unique_ptr<xmlParserCtxt, void (*)(xmlParserCtxtPtr)> ctxt(
       xmlCreatePushParserCtxt(&sax, nullptr, chunk.data(), static_cast<int>(std::min<std::size_t>(n, 4)),
                               source.name.c_str()),

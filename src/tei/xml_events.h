@@ -18,6 +18,7 @@ inline constexpr std::string_view kXmlNamespace = "http://www.w3.org/XML/1998/na
 struct StartTag {
   std::string_view local;
   std::string_view ns;
+  bool in_tei_namespace = false;  // ns == kTeiNamespace, worked out once per distinct ns
   long line = 0;
   const xmlChar** attributes = nullptr;  // libxml2 SAX2 layout: 5 pointers per attribute
   int attribute_count = 0;
@@ -25,7 +26,7 @@ struct StartTag {
   // empty view when absent.
   std::string_view attribute(std::string_view local_name, std::string_view ns_uri = {}) const;
   bool has_attribute(std::string_view local_name, std::string_view ns_uri = {}) const;
-  bool is_tei(std::string_view name) const { return ns == kTeiNamespace && local == name; }
+  bool is_tei(std::string_view name) const { return in_tei_namespace && local == name; }
 };
 
 class XmlEventHandler {

@@ -121,6 +121,9 @@ constexpr std::array<unsigned char, 256> kAsciiLetterBits = [] {
   return table;
 }();
 
+// Tab, line feed, vertical tab, form feed, carriage return and space.
+bool is_ascii_space(unsigned char byte) { return byte == ' ' || (byte >= '\t' && byte <= '\r'); }
+
 unsigned form_bits(const LatinCodePoint& code_point, unsigned char lead) {
   if (code_point.length > 1) return kNonAscii;
   return lead >= 'A' && lead <= 'Z' ? kCapital : 0;
@@ -223,6 +226,23 @@ LatinRun latin_segment(std::string_view text, std::size_t begin, std::size_t end
       left_is_alone = false;
       at = run_end;
       if (at == end) break;
+    }
+    if (letters_only && is_ascii_space(bytes[at]) && !is_ascii_space(bytes[at - 1])) {
+      // Between words (and the indentation of the markup): nothing here is handed over,
+      // and a word always ends before ASCII white space (no rule joins Other, WSegSpace
+      // or a line break to what precedes it). Skip to the run's last character and go on
+      // from there as if it began a segment: the rules ask of `before` only whether it is
+      // a letter or a number, which white space is not.
+      emit(at);
+      std::size_t run_end = at + 1;
+      while (run_end < end && is_ascii_space(bytes[run_end])) ++run_end;
+      segment_begin = run_end - 1;
+      before = C::other;
+      left = kAsciiBreakClasses[bytes[run_end - 1]];
+      left_is_alone = true;
+      seen = 0;
+      at = run_end;
+      continue;
     }
     const LatinCodePoint right = decode_latin(text, at);
     if (right.break_class == C::ineligible) {

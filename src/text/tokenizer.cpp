@@ -59,36 +59,36 @@ Tokenizer::~Tokenizer() = default;
 
 const TokenizerOptions& Tokenizer::options() const { return options_; }
 
-void Tokenizer::tokenize(std::string_view text, std::string_view language,
-                         const std::function<void(std::string_view token)>& sink) {
+const std::vector<WordSegment>& Tokenizer::kept_segments(std::string_view text, std::string_view language) {
   Impl& impl = *impl_;
   const bool letters_only = !options_.keep_numbers && !options_.keep_punctuation;
   impl.segment(text, language, options_.fast_path, letters_only);
+  std::size_t kept = 0;
   for (const WordSegment& segment : impl.segments) {
-    const std::string_view piece = text.substr(segment.begin, segment.end - segment.begin);
-    if (!keeps(options_, segment, piece)) continue;
-    switch (segment.form) {
-      case SegmentForm::ascii_lower:
-        sink(piece);
-        break;
-      case SegmentForm::ascii_capitals:
-        if (!options_.case_fold) {
-          sink(piece);
-          break;
-        }
-        impl.latin_buffer.assign(piece);
-        for (char& ch : impl.latin_buffer)
-          if (ch >= 'A' && ch <= 'Z') ch = static_cast<char>(ch + ('a' - 'A'));
-        sink(impl.latin_buffer);
-        break;
-      case SegmentForm::latin:
-        sink(latin_normalise(piece, options_.case_fold, options_.apostrophes, impl.latin_buffer));
-        break;
-      case SegmentForm::unknown:
-        sink(impl.normaliser.normalise(piece));
-        break;
-    }
+    if (keeps(options_, segment, text.substr(segment.begin, segment.end - segment.begin)))
+      impl.segments[kept++] = segment;
   }
+  impl.segments.resize(kept);
+  return impl.segments;
+}
+
+std::string_view Tokenizer::normalise(std::string_view piece, SegmentForm form) {
+  Impl& impl = *impl_;
+  switch (form) {
+    case SegmentForm::ascii_lower:
+      return piece;
+    case SegmentForm::ascii_capitals:
+      if (!options_.case_fold) return piece;
+      impl.latin_buffer.assign(piece);
+      for (char& ch : impl.latin_buffer)
+        if (ch >= 'A' && ch <= 'Z') ch = static_cast<char>(ch + ('a' - 'A'));
+      return impl.latin_buffer;
+    case SegmentForm::latin:
+      return latin_normalise(piece, options_.case_fold, options_.apostrophes, impl.latin_buffer);
+    case SegmentForm::unknown:
+      break;
+  }
+  return impl.normaliser.normalise(piece);
 }
 
 std::vector<std::string> Tokenizer::tokens(std::string_view text, std::string_view language) {
