@@ -41,11 +41,21 @@ std::uint64_t avalanche(std::uint64_t h) {
 }
 }  // namespace
 
+Vocabulary::Key Vocabulary::key_of(std::string_view form) {
+  if (form.size() > 8) return Key{form, hash(form), 0};
+  const std::uint64_t packed = pack_short(form);
+  return Key{form, hash_short(packed, form.size()), packed};
+}
+
+std::uint64_t Vocabulary::hash_short(std::uint64_t packed, std::size_t size) {
+  return avalanche(((0x9E3779B97F4A7C15ULL ^ size) ^ packed) * 0xff51afd7ed558ccdULL);
+}
+
 std::uint64_t Vocabulary::hash(std::string_view form) {
   // Eight bytes at a time, each word mixed by a multiply, then a final avalanche so that
   // both the low bits (the slot index) and the high bits (kept in the slot) are mixed.
   std::uint64_t h = 0x9E3779B97F4A7C15ULL ^ form.size();
-  if (form.size() <= 8) return avalanche((h ^ pack_short(form)) * 0xff51afd7ed558ccdULL);
+  if (form.size() <= 8) return hash_short(pack_short(form), form.size());
   std::size_t i = 0;
   for (; i + 8 <= form.size(); i += 8) {
     std::uint64_t word;
@@ -58,11 +68,13 @@ std::uint64_t Vocabulary::hash(std::string_view form) {
 }
 
 // The slot holding `form`, or the empty slot where it would go (linear probing).
-std::size_t Vocabulary::slot_of(std::string_view form, std::uint64_t h) const {
+std::size_t Vocabulary::slot_of(const Key& key) const {
+  const std::string_view form = key.form;
+  const std::uint64_t h = key.hash;
   const std::size_t mask = slots_.size() - 1;
   const std::uint32_t tag = tag_of(h, form.size());
   const bool is_short = form.size() <= 8;
-  const std::uint64_t packed = is_short ? pack_short(form) : 0;
+  const std::uint64_t packed = key.packed;
   for (std::size_t slot = h & mask;; slot = (slot + 1) & mask) {
     const Slot& entry = slots_[slot];
     if (entry.id_plus_one == 0) return slot;
@@ -79,14 +91,15 @@ std::size_t Vocabulary::slot_of(std::string_view form, std::uint64_t h) const {
 }
 
 std::optional<FeatureId> Vocabulary::find(std::string_view form) const {
-  const Slot& entry = slots_[slot_of(form, hash(form))];
+  const Slot& entry = slots_[slot_of(key_of(form))];
   if (entry.id_plus_one == 0) return std::nullopt;
   return entry.id_plus_one - 1;
 }
 
 FeatureId Vocabulary::intern(std::string_view form) {
-  const std::uint64_t h = hash(form);
-  std::size_t slot = slot_of(form, h);
+  const Key key = key_of(form);  // the form's bytes are packed and hashed once
+  const std::uint64_t h = key.hash;
+  std::size_t slot = slot_of(key);
   if (slots_[slot].id_plus_one != 0) return slots_[slot].id_plus_one - 1;
   if (hashes_.size() >= 0xFFFFFFFEULL) {
     throw Error(ErrorKind::usage, "more than 4 billion distinct features");
@@ -95,7 +108,7 @@ FeatureId Vocabulary::intern(std::string_view form) {
   arena_.append(form);
   offsets_.push_back(arena_.size());
   hashes_.push_back(h);
-  slots_[slot] = Slot{id + 1, tag_of(h, form.size()), form.size() <= 8 ? pack_short(form) : 0};
+  slots_[slot] = Slot{id + 1, tag_of(h, form.size()), key.packed};
   if (hashes_.size() * 2 > slots_.size()) grow();  // keep the load factor at most 1/2
   return id;
 }

@@ -37,9 +37,17 @@ class Vocabulary {
     std::uint32_t tag = 0;          // hash bits and length class (tag_of)
     std::uint64_t inline_form = 0;  // the form's bytes if it is short, else 0
   };
+  // A form with what finding it takes: its hash and, for a short form, its packed bytes.
+  struct Key {
+    std::string_view form;
+    std::uint64_t hash = 0;
+    std::uint64_t packed = 0;  // pack_short(form) if at most 8 bytes, else 0
+  };
+  static Key key_of(std::string_view form);
   static std::uint64_t hash(std::string_view form);
+  static std::uint64_t hash_short(std::uint64_t packed, std::size_t size);  // == hash() of that form
   static std::uint64_t pack_short(std::string_view form);  // forms of at most 8 bytes
-  std::size_t slot_of(std::string_view form, std::uint64_t h) const;
+  std::size_t slot_of(const Key& key) const;
   void grow();
   void rehash(std::size_t slot_count);  // a power of 2 above twice the forms
 

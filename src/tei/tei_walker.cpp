@@ -294,18 +294,29 @@ struct TeiWalker::State {
     frame.unit = static_cast<int>(open_units.size());
     OpenUnit& u = open_units.push();
     u.tei_index = tei_stack.empty() ? 0 : tei_stack.back();
-    if (!frame.xml_id.empty()) {
-      u.local_id.assign(frame.xml_id);
-      u.pointer.assign("#").append(frame.xml_id);
-    } else {
-      write_xpath_pointer(frame, u.pointer);
-    }
     if (rules.unit == UnitKind::speaker) {
       split_pointers_into(tag.attribute("who"), u.who);
       if (u.who.empty() && !sp_grp_who.empty()) split_pointers_into(sp_grp_who.back(), u.who);
     }
+    if (!frame.xml_id.empty()) {
+      u.local_id.assign(frame.xml_id);
+      u.pointer.assign("#").append(frame.xml_id);
+    } else if (!speech_of_listed_persons(u)) {
+      write_xpath_pointer(frame, u.pointer);
+    }
     u.decls.assign(tag.attribute("decls"));
     sink().add_boundary();
+  }
+
+  // Whether a speech's own pointer will go unused: close_speech points a speaker listed in
+  // the header at the person ("#id"), not at each speech. Most speeches of a play are
+  // such, and building an xpath() pointer for each was a good part of opening them.
+  bool speech_of_listed_persons(const OpenUnit& u) const {
+    if (rules.unit != UnitKind::speaker || u.who.empty() || headers.empty()) return false;
+    const auto& persons = headers[static_cast<std::size_t>(u.tei_index)].person_names;
+    for (const std::string& key : u.who)
+      if (!persons.count(key)) return false;
+    return true;
   }
 
   bool is_unit_element(const Frame& frame, const StartTag& tag) const {

@@ -6,6 +6,10 @@
 
 #include <array>
 
+#if defined(__SSE2__)
+#include <emmintrin.h>
+#endif
+
 namespace manicule {
 
 namespace {
@@ -129,6 +133,37 @@ unsigned form_bits(const LatinCodePoint& code_point, unsigned char lead) {
   return lead >= 'A' && lead <= 'Z' ? kCapital : 0;
 }
 
+// The end of the run of ASCII letters starting at `at` (at most `end`), noting capitals in
+// `seen`. Sixteen bytes at a time with SSE2 (part of every x86-64 CPU): a word's letters
+// take one step instead of a branch each, the last of them mispredicted.
+std::size_t skip_ascii_letters(const unsigned char* bytes, std::size_t at, std::size_t end, unsigned& seen) {
+#if defined(__SSE2__)
+  while (at + 16 <= end) {
+    const __m128i block = _mm_loadu_si128(reinterpret_cast<const __m128i*>(bytes + at));
+    // Letters are the bytes whose lower-case form (bit 0x20 set) lies in 'a'..'z': moved
+    // to the bottom of the signed range, they are exactly those below -128 + 26.
+    const __m128i lower = _mm_or_si128(block, _mm_set1_epi8(0x20));
+    const __m128i moved = _mm_add_epi8(lower, _mm_set1_epi8(static_cast<char>(128 - 'a')));
+    const auto letters = static_cast<unsigned>(
+        _mm_movemask_epi8(_mm_cmplt_epi8(moved, _mm_set1_epi8(static_cast<char>(-128 + 26)))));
+    const auto capitals = static_cast<unsigned>(
+        _mm_movemask_epi8(_mm_cmpeq_epi8(_mm_and_si128(block, _mm_set1_epi8(0x20)), _mm_setzero_si128())));
+    const unsigned run = letters == 0xFFFF ? 16 : static_cast<unsigned>(__builtin_ctz(~letters));
+    const unsigned in_run = run == 16 ? 0xFFFFu : (1u << run) - 1;
+    if (capitals & letters & in_run) seen |= kCapital;
+    at += run;
+    if (run < 16) return at;
+  }
+#endif
+  while (at < end) {
+    const unsigned bits = kAsciiLetterBits[bytes[at]];
+    if (!bits) break;
+    seen |= bits;
+    ++at;
+  }
+  return at;
+}
+
 SegmentForm form_of(unsigned bits) {
   if (bits & kNonAscii) return SegmentForm::latin;
   return bits & kCapital ? SegmentForm::ascii_capitals : SegmentForm::ascii_lower;
@@ -201,11 +236,9 @@ LatinRun latin_segment(std::string_view text, std::size_t begin, std::size_t end
     if (left == C::aletter) {  // WB5 through a run of letters: the common case
       std::size_t run_end = at;
       while (run_end < end) {
-        const unsigned bits = kAsciiLetterBits[bytes[run_end]];
-        if (bits) {
-          seen |= bits;
-          ++run_end;
-        } else if (is_latin1_letter_at(bytes, run_end, end)) {
+        run_end = skip_ascii_letters(bytes, run_end, end, seen);
+        if (run_end == end) break;
+        if (is_latin1_letter_at(bytes, run_end, end)) {
           seen |= kNonAscii;
           run_end += 2;
         } else {
