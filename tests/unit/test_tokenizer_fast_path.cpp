@@ -132,6 +132,30 @@ TEST_CASE("fast path equals ICU on every character it handles, in context",
   CHECK(handled > 300);
 }
 
+TEST_CASE("fast path equals ICU on long words, a capital or umlaut at every position",
+          "[tokenizer][fast_path]") {
+  // The fast path reads runs of ASCII letters sixteen bytes at a time; words of 1 to 40
+  // letters with a capital, an umlaut or an apostrophe at each position, at each offset from
+  // the start of the text, cross those blocks everywhere. Reference: ICU.
+  PathPair paths;
+  int compared = 0;
+  for (std::size_t offset = 0; offset < 17; ++offset) {
+    for (std::size_t length = 1; length <= 40; ++length) {
+      for (std::size_t position = 0; position < length; ++position) {
+        for (const std::string odd : {"Q", "\xC3\x9C", "'"}) {  // Q, U-umlaut (capital), apostrophe
+          std::string word(length, 'w');
+          word.replace(position, 1, odd);
+          const std::string text = std::string(offset, ' ') + word + " wort, Wort.";
+          INFO("\"" << text << "\"");
+          CHECK(paths.same(text, "de"));
+          ++compared;
+        }
+      }
+    }
+  }
+  CHECK(compared == 17 * 820 * 3);
+}
+
 TEST_CASE("fast path equals ICU on German plays and English novels", "[tokenizer][fast_path]") {
   namespace fs = std::filesystem;
   const fs::path corpora = MANICULE_CORPORA;
