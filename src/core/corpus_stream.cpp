@@ -92,6 +92,30 @@ void read_files_streaming(const Request& request, const std::vector<std::string>
   if (files.empty()) return;
   const auto workers = static_cast<unsigned>(
       std::min<std::size_t>(resolve_thread_count(request.threads), files.size()));
+  auto read_one = [&](std::size_t i, Tokenizer& tokenizer) {
+    FileReading reading;
+    if (!skip_known(files[i], i, options, reading)) {
+      reading = read_file(files[i], request, rules, tokenizer);
+      // A parse that stopped on an error gives no digest; the content is still worth a key.
+      if (options.hash_failures && reading.failed && reading.sha256.empty()) {
+        try {
+          reading.sha256 = sha256_file(files[i]);
+        } catch (const std::exception&) {
+        }
+      }
+    }
+    return reading;
+  };
+
+  if (workers == 1) {
+    // One thread: read on the caller's. A worker would only add a hand-over per file (a
+    // futex wake-up, which costs tens of microseconds on a virtual machine) and move each
+    // reading's memory to another core's cache.
+    Tokenizer tokenizer(request.tokenizer);
+    for (std::size_t i = 0; i < files.size(); ++i) sink(i, read_one(i, tokenizer));
+    return;
+  }
+
   FinishedQueue queue(options.max_waiting ? options.max_waiting : 4 * workers, workers);
   std::atomic<std::size_t> next{0};
 
@@ -99,18 +123,7 @@ void read_files_streaming(const Request& request, const std::vector<std::string>
     Tokenizer tokenizer(request.tokenizer);
     for (std::size_t i = next++; i < files.size(); i = next++) {
       if (queue.stopped()) break;
-      FileReading reading;
-      if (!skip_known(files[i], i, options, reading)) {
-        reading = read_file(files[i], request, rules, tokenizer);
-        // A parse that stopped on an error gives no digest; the content is still worth a key.
-        if (options.hash_failures && reading.failed && reading.sha256.empty()) {
-          try {
-            reading.sha256 = sha256_file(files[i]);
-          } catch (const std::exception&) {
-          }
-        }
-      }
-      if (!queue.push(i, std::move(reading))) break;
+      if (!queue.push(i, read_one(i, tokenizer))) break;
     }
     queue.producer_done();
   };

@@ -3,10 +3,12 @@
 // finished file is handed to `sink` on the calling thread, in the order the files finish,
 // while the workers go on. At most `max_waiting` finished files wait for the sink (workers
 // pause beyond that), so memory is bounded by a few files whatever the archive's size, and
-// the sink (e.g. a database writer) needs no locking of its own.
+// the sink (e.g. a database writer) needs no locking of its own. With one thread (one
+// file, or Request::threads 1) there are no workers: each file is read on the calling
+// thread, then handed to the sink, in file order.
 //
 // Files with `hash_first[i]` set are hashed before parsing, and `known(i, sha256)` is asked
-// (on a worker thread: it must be safe to call concurrently); when it says true the file is
+// (on a worker thread: it must be safe to call concurrently with other calls, not with the sink); when it says true the file is
 // not parsed and the sink gets a FileReading with parsed == false, bytes and sha256 set.
 // If the sink throws, the workers stop after their current file and the exception is
 // rethrown once they have. A bad file never throws: it arrives with `failed` set (and its
