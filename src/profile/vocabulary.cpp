@@ -18,7 +18,8 @@ std::uint32_t tag_of(std::uint64_t h, std::size_t length) {
 
 // The bytes of a form of at most 8 bytes as one little-endian word, zero-padded. Two
 // overlapping loads instead of a loop: the bytes they share are the same bytes.
-std::uint64_t Vocabulary::pack_short(std::string_view form) {
+// Inline, as are hash_short and key_of: they run for every token counted.
+inline std::uint64_t Vocabulary::pack_short(std::string_view form) {
   const auto* p = reinterpret_cast<const unsigned char*>(form.data());
   const std::size_t n = form.size();
   if (n >= 4) {
@@ -41,13 +42,7 @@ std::uint64_t avalanche(std::uint64_t h) {
 }
 }  // namespace
 
-Vocabulary::Key Vocabulary::key_of(std::string_view form) {
-  if (form.size() > 8) return Key{form, hash(form), 0};
-  const std::uint64_t packed = pack_short(form);
-  return Key{form, hash_short(packed, form.size()), packed};
-}
-
-std::uint64_t Vocabulary::hash_short(std::uint64_t packed, std::size_t size) {
+inline std::uint64_t Vocabulary::hash_short(std::uint64_t packed, std::size_t size) {
   return avalanche(((0x9E3779B97F4A7C15ULL ^ size) ^ packed) * 0xff51afd7ed558ccdULL);
 }
 
@@ -65,6 +60,12 @@ std::uint64_t Vocabulary::hash(std::string_view form) {
   }
   if (i < form.size()) h = (h ^ pack_short(form.substr(i))) * 0xff51afd7ed558ccdULL;
   return avalanche(h);
+}
+
+inline Vocabulary::Key Vocabulary::key_of(std::string_view form) {
+  if (form.size() > 8) return Key{form, hash(form), 0};
+  const std::uint64_t packed = pack_short(form);
+  return Key{form, hash_short(packed, form.size()), packed};
 }
 
 // The slot holding `form`, or the empty slot where it would go (linear probing).
