@@ -56,6 +56,9 @@ FileReading read_file(const std::string& file, const Request& request, const Sel
     result.sha256 = digest.sha256;
     result.bytes = digest.bytes;
     ProfileBuilder builder(request.features);
+    // A guess at the distinct words: the plays and novels of ../shared/corpora have one per
+    // 40-120 bytes of XML; a low guess costs a rehash or two, a high one a larger table.
+    if (request.features.kind == FeatureKind::word) builder.expect_features(result.bytes / 64);
     // Distinct words: for word features they are the segment's features; otherwise they
     // are interned here, a word counting once per segment (no allocation per token).
     const bool words_are_features = request.features.kind == FeatureKind::word;

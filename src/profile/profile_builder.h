@@ -18,6 +18,9 @@ namespace manicule {
 class ProfileBuilder {
  public:
   explicit ProfileBuilder(FeatureSpec spec = {});
+  // Makes room for about `features` distinct features (a guess; more still fit), so that
+  // the vocabulary does not grow step by step while counting.
+  void expect_features(std::size_t features) { profile_.vocabulary.reserve(features); }
 
   void add_segment(std::string segment_id, const std::vector<std::string>& tokens);
 

@@ -185,6 +185,7 @@ struct TeiWalker::State {
     std::string speaker_text, head_text;
     std::string decls;                    // letter @decls
     bool body_letter = false;             // provisional one-letter-per-file unit
+    bool by_listed_persons = false;       // speech_of_listed_persons when it opened
     int tei_index = 0;
 
     // Empty again, keeping the memory of its strings and buffers.
@@ -198,6 +199,7 @@ struct TeiWalker::State {
       head_text.clear();
       decls.clear();
       body_letter = false;
+      by_listed_persons = false;
       tei_index = 0;
     }
   };
@@ -246,7 +248,7 @@ struct TeiWalker::State {
     bool body_letter = false;
   };
   std::vector<Built> built;
-  std::map<std::string, std::size_t> speaker_index;  // speaker key -> built index
+  std::unordered_map<std::string, std::size_t> speaker_index;  // speaker key -> built index
   std::map<std::string, int> unit_counter;          // for generated ids
   std::vector<int> letters_per_tei;
 
@@ -301,8 +303,9 @@ struct TeiWalker::State {
     if (!frame.xml_id.empty()) {
       u.local_id.assign(frame.xml_id);
       u.pointer.assign("#").append(frame.xml_id);
-    } else if (!speech_of_listed_persons(u)) {
-      write_xpath_pointer(frame, u.pointer);
+    } else {
+      u.by_listed_persons = speech_of_listed_persons(u);
+      if (!u.by_listed_persons) write_xpath_pointer(frame, u.pointer);
     }
     u.decls.assign(tag.attribute("decls"));
     sink().add_boundary();
@@ -420,6 +423,10 @@ struct TeiWalker::State {
   }
 
   void finish_capture(Frame& f, std::string text) {
+    if (f.capture == Capture::speaker) {  // kept raw: close_speech makes the key of it
+      if (!open_units.empty()) open_units.back().speaker_text += text;
+      return;
+    }
     std::string value = normalise_space(text);
     HeaderInfo* h = tei_stack.empty() ? nullptr : &header();
     switch (f.capture) {
@@ -438,9 +445,7 @@ struct TeiWalker::State {
         }
         break;
       case Capture::date: if (h) set_date(*h, value); break;
-      case Capture::speaker:
-        if (!open_units.empty()) open_units.back().speaker_text += text;
-        break;
+      case Capture::speaker: break;  // above
       case Capture::head:
         if (!open_units.empty() && open_units.back().head_text.empty()) open_units.back().head_text = value;
         break;
@@ -512,7 +517,7 @@ struct TeiWalker::State {
         it = speaker_index.emplace(key, built.size() - 1).first;
       }
       Segment& seg = built[it->second].segment;
-      if (h.person_names.count(key)) {
+      if (u.by_listed_persons || h.person_names.count(key)) {
         if (seg.pointers.empty()) seg.pointers.push_back("#" + key);
       } else {
         seg.pointers.push_back(u.pointer);

@@ -49,12 +49,15 @@ void TextBuffer::append(const TextBuffer& other) {
 void TextBuffer::render(std::vector<TextRun>& runs, const std::vector<std::string>& languages,
                         const std::vector<std::string>& hyphens) const {
   bool joining = false;  // after a join, leading whitespace of the next text is dropped
+  int last_language = -1;  // the language of runs.back(), once looked at in this call
   auto current = [&](int language) -> std::string& {
+    if (language == last_language) return runs.back().text;
     const std::string& tag = languages[static_cast<std::size_t>(language)];
     if (runs.empty() || runs.back().language != tag) {
       if (!runs.empty()) runs.back().text.push_back(' ');  // a language switch separates words
       runs.push_back(TextRun{{}, tag});
     }
+    last_language = language;
     return runs.back().text;
   };
   for (const Piece& p : pieces_) {
