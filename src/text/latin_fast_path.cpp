@@ -164,6 +164,25 @@ std::size_t skip_ascii_letters(const unsigned char* bytes, std::size_t at, std::
   return at;
 }
 
+// The end of the run of ASCII white space starting at `at` (at most `end`); like
+// skip_ascii_letters, sixteen bytes at a time: markup indentation makes long runs.
+std::size_t skip_ascii_space(const unsigned char* bytes, std::size_t at, std::size_t end) {
+#if defined(__SSE2__)
+  while (at + 16 <= end) {
+    const __m128i block = _mm_loadu_si128(reinterpret_cast<const __m128i*>(bytes + at));
+    // Tab to carriage return (9-13) moved to the bottom of the signed range; and space.
+    const __m128i moved = _mm_add_epi8(block, _mm_set1_epi8(static_cast<char>(128 - '\t')));
+    const __m128i controls = _mm_cmplt_epi8(moved, _mm_set1_epi8(static_cast<char>(-128 + 5)));
+    const __m128i spaces = _mm_cmpeq_epi8(block, _mm_set1_epi8(' '));
+    const auto white = static_cast<unsigned>(_mm_movemask_epi8(_mm_or_si128(controls, spaces)));
+    if (white != 0xFFFF) return at + static_cast<unsigned>(__builtin_ctz(~white));
+    at += 16;
+  }
+#endif
+  while (at < end && is_ascii_space(bytes[at])) ++at;
+  return at;
+}
+
 SegmentForm form_of(unsigned bits) {
   if (bits & kNonAscii) return SegmentForm::latin;
   return bits & kCapital ? SegmentForm::ascii_capitals : SegmentForm::ascii_lower;
@@ -267,8 +286,7 @@ LatinRun latin_segment(std::string_view text, std::size_t begin, std::size_t end
       // from there as if it began a segment: the rules ask of `before` only whether it is
       // a letter or a number, which white space is not.
       emit(at);
-      std::size_t run_end = at + 1;
-      while (run_end < end && is_ascii_space(bytes[run_end])) ++run_end;
+      const std::size_t run_end = skip_ascii_space(bytes, at + 1, end);
       segment_begin = run_end - 1;
       before = C::other;
       left = kAsciiBreakClasses[bytes[run_end - 1]];

@@ -156,6 +156,30 @@ TEST_CASE("fast path equals ICU on long words, a capital or umlaut at every posi
   CHECK(compared == 17 * 820 * 3);
 }
 
+TEST_CASE("fast path equals ICU across runs of white space of every length",
+          "[tokenizer][fast_path]") {
+  // Between words the fast path skips ASCII white space sixteen bytes at a time; runs of 1
+  // to 40 characters mixing spaces, tabs, line breaks and form feeds, ending at each offset
+  // of a block, with an ineligible character (a colon, left to ICU) or a letter after them.
+  // Reference: ICU.
+  PathPair paths;
+  const std::string kinds = " \t\n\r\v\f";
+  int compared = 0;
+  for (std::size_t length = 1; length <= 40; ++length) {
+    for (std::size_t first = 0; first < kinds.size(); ++first) {
+      std::string run;
+      for (std::size_t i = 0; i < length; ++i) run += kinds[(first + i * (i % 3 + 1)) % kinds.size()];
+      for (const std::string after : {"Wort", ":x", "\xC3\xA4rger", "'s"}) {
+        const std::string text = "ab" + run + after + run + "Ende";
+        INFO("length " << length << ", first kind " << first << ", then " << after);
+        CHECK(paths.same(text, "de"));
+        ++compared;
+      }
+    }
+  }
+  CHECK(compared == 40 * 6 * 4);
+}
+
 TEST_CASE("fast path equals ICU on German plays and English novels", "[tokenizer][fast_path]") {
   namespace fs = std::filesystem;
   const fs::path corpora = MANICULE_CORPORA;
