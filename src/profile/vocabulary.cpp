@@ -98,7 +98,29 @@ std::optional<FeatureId> Vocabulary::find(std::string_view form) const {
 }
 
 FeatureId Vocabulary::intern(std::string_view form) {
-  const Key key = key_of(form);  // the form's bytes are packed and hashed once
+  return intern(key_of(form));  // the form's bytes are packed and hashed once
+}
+
+void Vocabulary::intern_all(const Vocabulary& source, std::vector<FeatureId>& ids) {
+  const std::size_t n = source.size();
+  ids.resize(n);
+  // The keys first (the source keeps each form's hash: the same function), then the
+  // lookups, each slot fetched a few lookups ahead: in a table larger than the caches the
+  // lookups then wait for memory together instead of one after another.
+  std::vector<Key> keys(n);
+  for (std::size_t i = 0; i < n; ++i) {
+    const std::string_view form = source.form(static_cast<FeatureId>(i));
+    keys[i] = Key{form, source.hashes_[i], form.size() <= 8 ? pack_short(form) : 0};
+  }
+  constexpr std::size_t kAhead = 12;
+  for (std::size_t i = 0; i < n; ++i) {
+    if (i + kAhead < n) __builtin_prefetch(&slots_[keys[i + kAhead].hash & (slots_.size() - 1)]);
+    ids[i] = intern(keys[i]);
+  }
+}
+
+FeatureId Vocabulary::intern(const Key& key) {
+  const std::string_view form = key.form;
   const std::uint64_t h = key.hash;
   std::size_t slot = slot_of(key);
   if (slots_[slot].id_plus_one != 0) return slots_[slot].id_plus_one - 1;

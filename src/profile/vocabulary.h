@@ -20,6 +20,9 @@ class Vocabulary {
 
   // The id of `form`, adding it if it is new.
   FeatureId intern(std::string_view form);
+  // ids[i] = intern(source.form(i)) for every form of `source`, in id order; faster than
+  // one call at a time when this vocabulary has outgrown the caches.
+  void intern_all(const Vocabulary& source, std::vector<FeatureId>& ids);
   // The id of `form` if it is known.
   std::optional<FeatureId> find(std::string_view form) const;
 
@@ -44,6 +47,7 @@ class Vocabulary {
     std::uint64_t packed = 0;  // pack_short(form) if at most 8 bytes, else 0
   };
   static Key key_of(std::string_view form);
+  FeatureId intern(const Key& key);
   static std::uint64_t hash(std::string_view form);
   static std::uint64_t hash_short(std::uint64_t packed, std::size_t size);  // == hash() of that form
   static std::uint64_t pack_short(std::string_view form);  // forms of at most 8 bytes

@@ -158,6 +158,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   stream.known = [&readings](std::size_t, const std::string& sha) { return readings.count(sha) != 0; };
 
   ReadingWriter writer(db, summary.settings_id);
+  writer.expect_bytes(progress.bytes_total);
   const std::int64_t racy_after_ns =
       std::chrono::duration_cast<std::chrono::nanoseconds>(std::chrono::system_clock::now().time_since_epoch()).count() -
       kRacyWindowNs;

@@ -54,18 +54,40 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
   q.step_to_end();
   // Nothing inserted: this content is stored already (the same file twice in the archive).
   if (db_.changes() == 0 || r.failed) return;
-  if (!vocabulary_) vocabulary_ = std::make_unique<StoreVocabulary>(db_, settings_id_);
+  if (!vocabulary_) {
+    vocabulary_ = std::make_unique<StoreVocabulary>(db_, settings_id_);
+    // A guess at the new forms: the play and novel corpora of ../shared/corpora bring one
+    // per 600-1,500 bytes of XML; a low guess costs a rehash or two.
+    vocabulary_->expect(vocabulary_->forms().size() + expected_bytes_ / 1024);
+  }
   // The file's own feature ids -> the store's, each form looked up once per file.
-  to_store_.resize(r.counts.vocabulary.size());
-  for (std::size_t id = 0; id < to_store_.size(); ++id)
-    to_store_[id] = vocabulary_->id_of(r.counts.vocabulary.form(static_cast<FeatureId>(id)));
+  vocabulary_->ids_of(r.counts.vocabulary, to_store_);
+  // Counts are stored in store-id order. The file's ids are ranked by store id once; a
+  // segment that uses many of the file's words is then placed by rank and read back in one
+  // pass, a small one sorted (a play's speakers each use much of its vocabulary).
+  const std::size_t words = to_store_.size();
+  by_store_id_.resize(words);
+  for (std::size_t id = 0; id < words; ++id) by_store_id_[id] = static_cast<FeatureId>(id);
+  std::sort(by_store_id_.begin(), by_store_id_.end(), [&](FeatureId a, FeatureId b) { return to_store_[a] < to_store_[b]; });
+  rank_.resize(words);
+  for (std::size_t rank = 0; rank < words; ++rank) rank_[by_store_id_[rank]] = static_cast<FeatureId>(rank);
+  by_rank_.assign(words, 0);
   for (std::size_t i = 0; i < r.segments.size(); ++i) {
     const SegmentRecord& record = r.segments[i];
     const Segment& seg = record.segment;
     const SegmentCounts& counts = r.counts.segments[i];
     mapped_.clear();
-    for (const auto& [local, n] : counts.counts) mapped_.emplace_back(to_store_[local], n);
-    std::sort(mapped_.begin(), mapped_.end());
+    if (counts.counts.size() * 16 >= words) {
+      for (const auto& [local, n] : counts.counts) by_rank_[rank_[local]] = n;
+      for (std::size_t rank = 0; rank < words; ++rank) {
+        if (by_rank_[rank] == 0) continue;
+        mapped_.emplace_back(to_store_[by_store_id_[rank]], by_rank_[rank]);
+        by_rank_[rank] = 0;
+      }
+    } else {
+      for (const auto& [local, n] : counts.counts) mapped_.emplace_back(to_store_[local], n);
+      std::sort(mapped_.begin(), mapped_.end());
+    }
     auto& w = insert_segment_;
     w.bind(1, settings_id_).bind(2, r.sha256).bind(3, i).bind(4, seg.local_id).bind(5, seg.unit).bind(6, seg.label);
     w.bind(7, seg.language).bind(8, seg.author).bind(9, authorship_name(seg.authorship));

@@ -24,15 +24,22 @@ class ReadingWriter {
   // `sha256` empty: the file could not be read at all (`read_error` says why).
   void write_file(const ArchiveFile& file, const std::string& sha256, const std::string& read_error);
   void write_reading(const FileReading& reading, std::int64_t run_id);
+  // The bytes of XML about to be read, so that the store's vocabulary is sized for the
+  // new forms they will bring at once instead of growing step by step.
+  void expect_bytes(std::uint64_t bytes) { expected_bytes_ = bytes; }
 
  private:
   Database& db_;
   std::int64_t settings_id_;
   std::unique_ptr<StoreVocabulary> vocabulary_;  // loaded when first needed: a re-run may need none
+  std::uint64_t expected_bytes_ = 0;
   Statement upsert_file_;
   Statement insert_reading_;
   Statement insert_segment_;
-  std::vector<FeatureId> to_store_;
+  std::vector<FeatureId> to_store_;      // file's feature id -> store's
+  std::vector<FeatureId> by_store_id_;   // the file's feature ids in store-id order
+  std::vector<FeatureId> rank_;          // file's feature id -> its place in by_store_id_
+  std::vector<std::uint32_t> by_rank_;   // a segment's counts by rank, zero between uses
   FeatureCounts mapped_;
 };
 

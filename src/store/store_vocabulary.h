@@ -17,13 +17,18 @@ class StoreVocabulary {
   StoreVocabulary(Database& db, std::int64_t settings_id);
 
   FeatureId id_of(std::string_view form) { return forms_.intern(form); }
+  // ids[i] = id_of(file.form(i)) for each form of a file's vocabulary.
+  void ids_of(const Vocabulary& file, std::vector<FeatureId>& ids) { forms_.intern_all(file, ids); }
+  // Makes room for about `forms` forms in all (a guess; more still fit).
+  void expect(std::size_t forms) { forms_.reserve(forms); }
   const Vocabulary& forms() const { return forms_; }
   // Inserts the forms interned since the last call.
   void write_new();
 
  private:
   std::int64_t settings_id_;
-  Statement insert_;
+  Statement insert_;       // one row
+  Statement insert_many_;  // kRowsPerInsert rows
   Vocabulary forms_;
   std::size_t stored_ = 0;
 };

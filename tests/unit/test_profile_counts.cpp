@@ -65,6 +65,35 @@ TEST_CASE("vocabulary tells apart forms that short-form packing could confuse", 
   }
 }
 
+TEST_CASE("interning a whole vocabulary at once gives the ids one at a time would", "[profile]") {
+  // intern_all fetches slots ahead and reuses the source's hashes; the reference is
+  // std::unordered_map (ids dense in order of first appearance). The target already holds
+  // some of the forms, and grows several times on the way (from its 1,024 slots).
+  Vocabulary source, target;
+  std::unordered_map<std::string, FeatureId> reference;
+  for (int i = 0; i < 3000; i += 3) {  // a third of the forms known to the target beforehand
+    const std::string form = "w" + std::to_string(i * 7919 % 3001) + (i % 2 ? "longer-than-eight" : "");
+    reference.emplace(form, static_cast<FeatureId>(reference.size()));
+    target.intern(form);
+  }
+  std::vector<std::string> forms;
+  for (int i = 0; i < 3000; ++i)
+    forms.push_back("w" + std::to_string(i * 7919 % 3001) + (i % 2 ? "longer-than-eight" : ""));
+  forms.push_back("");
+  forms.push_back(std::string(1, '\0'));
+  for (const std::string& form : forms) source.intern(form);
+  std::vector<FeatureId> ids;
+  target.intern_all(source, ids);
+  REQUIRE(ids.size() == source.size());
+  for (std::size_t i = 0; i < ids.size(); ++i) {
+    const std::string form(source.form(static_cast<FeatureId>(i)));
+    const auto it = reference.emplace(form, static_cast<FeatureId>(reference.size())).first;
+    REQUIRE(ids[i] == it->second);
+    REQUIRE(target.form(ids[i]) == form);
+  }
+  REQUIRE(target.size() == reference.size());
+}
+
 TEST_CASE("counts come out sorted whether a segment touches few or most known words", "[profile]") {
   // end_segment collects counts by scanning ids when a segment uses many of the known
   // features, by sorting the ids it touched otherwise; both must give what std::map gives.
