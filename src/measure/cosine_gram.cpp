@@ -4,10 +4,12 @@
 #include <dlfcn.h>
 
 #include <algorithm>
+#include <cstdlib>
 #include <limits>
 #include <vector>
 
 #include "measure/parallel_items.h"
+#include "profile/large_matrix.h"
 
 namespace manicule {
 
@@ -21,6 +23,10 @@ using DsyrkFunction = decltype(&cblas_dsyrk);
 // Debian's alternatives make libblas.so.3 the chosen BLAS; OpenBLAS's own name comes first.
 DsyrkFunction find_dsyrk() {
   static const DsyrkFunction found = []() -> DsyrkFunction {
+    // OpenBLAS's idle threads spin (sched_yield) for some 2^28 cycles after each call,
+    // taking a core from the distance loops that follow; its own setting lets them sleep
+    // at once. Read when the library loads; a value the user set is kept.
+    setenv("OPENBLAS_THREAD_TIMEOUT", "4", 0);
     for (const char* name : {"libopenblas.so.0", "libblas.so.3", "libcblas.so.3"}) {
       void* library = dlopen(name, RTLD_NOW | RTLD_LOCAL);
       if (!library) continue;
@@ -38,6 +44,7 @@ void gram_lower(const RowMatrix& rows, Eigen::MatrixXd& out, bool allow_blas) {
   const Eigen::Index n = rows.rows();
   const Eigen::Index k = rows.cols();
   out.resize(n, n);
+  advise_huge_pages(out.data(), sizeof(double) * static_cast<std::size_t>(n * n));  // before it is written
   const DsyrkFunction dsyrk = allow_blas ? find_dsyrk() : nullptr;
   if (k > 0 && dsyrk) {
     // The row-major n x k `rows` is, read column-major, the k x n matrix A = rows^T; so
@@ -53,7 +60,9 @@ void gram_lower(const RowMatrix& rows, Eigen::MatrixXd& out, bool allow_blas) {
 void cosine_distances_by_gram(const RowMatrix& rows, unsigned threads, Eigen::MatrixXd& out) {
   const Eigen::Index n = rows.rows();
   const Eigen::Index k = rows.cols();
-  RowMatrix unit = rows;
+  RowMatrix unit(n, k);
+  advise_huge_pages(unit.data(), sizeof(double) * static_cast<std::size_t>(n * k));  // before it is written
+  unit = rows;
   std::vector<char> zero(static_cast<std::size_t>(n), 0);
   for (Eigen::Index i = 0; i < n; ++i) {
     const double norm = unit.row(i).norm();

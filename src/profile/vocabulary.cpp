@@ -3,6 +3,7 @@
 #include <cstring>
 
 #include "core/error.h"
+#include "profile/large_matrix.h"
 
 namespace manicule {
 
@@ -153,7 +154,10 @@ void Vocabulary::grow() { rehash(slots_.size() * 2); }
 void Vocabulary::rehash(std::size_t size) {
   // Forms are re-inserted in id order, so hashes_, offsets_ and the arena are read
   // sequentially; only the writes into the new table land at random.
-  std::vector<Slot> bigger(size);
+  std::vector<Slot> bigger;
+  bigger.reserve(size);
+  advise_huge_pages(bigger.data(), sizeof(Slot) * size);  // before the slots are written
+  bigger.resize(size);
   const std::size_t mask = bigger.size() - 1;
   for (FeatureId id = 0; id < hashes_.size(); ++id) {
     const std::string_view f = form(id);

@@ -41,7 +41,7 @@ std::string encode_counts(const FeatureCounts& counts) {
 
 FeatureCounts decode_counts(std::string_view blob) {
   FeatureCounts out;
-  out.reserve(blob.size() / 3);  // about three bytes a feature (see count_blob.h)
+  out.reserve(blob.size() / 2);  // each feature takes two bytes at least: never regrown
   std::size_t pos = 0;
   std::uint64_t id = 0;
   while (pos < blob.size()) {
