@@ -8,6 +8,7 @@
 #include <cstdint>
 #include <memory>
 #include <string>
+#include <vector>
 
 #include "core/file_reading.h"
 #include "store/archive_files.h"
@@ -29,6 +30,9 @@ class ReadingWriter {
   void expect_bytes(std::uint64_t bytes) { expected_bytes_ = bytes; }
 
  private:
+  // Fills by_store_id_ from to_store_.
+  void rank_file_ids_by_store_id();
+
   Database& db_;
   std::int64_t settings_id_;
   std::unique_ptr<StoreVocabulary> vocabulary_;  // loaded when first needed: a re-run may need none
@@ -38,6 +42,8 @@ class ReadingWriter {
   Statement insert_segment_;
   std::vector<FeatureId> to_store_;      // file's feature id -> store's
   std::vector<FeatureId> by_store_id_;   // the file's feature ids in store-id order
+  std::vector<std::uint64_t> store_id_bits_;    // by store id, all zero between files
+  std::vector<FeatureId> file_id_of_store_id_;  // valid where the bit is set
   std::vector<FeatureId> rank_;          // file's feature id -> its place in by_store_id_
   std::vector<std::uint32_t> by_rank_;   // a segment's counts by rank, zero between uses
   FeatureCounts mapped_;
