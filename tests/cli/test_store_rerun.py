@@ -1,6 +1,7 @@
 """Archive store: what a re-run reads, failing files, vanished files, two runs at once.
 
-12 plays. A re-run over the unchanged archive opens no file; after one play's text is
+12 plays (some runs with one reading thread, which reads on the calling thread). A re-run
+over the unchanged archive opens no file; after one play's text is
 changed, exactly that play is read again (the runs table counts, --verbose names it);
 a play only touched (new time, same bytes) is hashed and not parsed; a malformed file is
 recorded with its error, the run goes on and exits 1, also on the next run (which does
@@ -22,8 +23,12 @@ import storecheck  # noqa: E402
 from lxml import etree  # noqa: E402
 
 
-def batch(store, archive, expect=0):
-    proc = mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--verbose", "--quiet"], check=False)
+def batch(store, archive, expect=0, threads=None):
+    # threads "1": files are read on the calling thread, not by workers (another code path,
+    # held to the same expectations).
+    extra = ["--threads", threads] if threads else []
+    proc = mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--verbose", "--quiet"] + extra,
+                     check=False)
     mtest.check(proc.returncode == expect, "batch exited %d, expected %d: %s" % (proc.returncode, expect, proc.stderr[-800:]))
     named = [line.split(": ", 1)[1] for line in proc.stderr.splitlines() if line.startswith(("read: ", "failed: "))]
     return storecheck.last_run(store), named, proc
@@ -59,7 +64,7 @@ with tempfile.TemporaryDirectory() as tmp:
 
     # Touch another: same bytes, new time -> hashed, not parsed.
     os.utime(paths[7], None)
-    run, named, _ = batch(store, archive)
+    run, named, _ = batch(store, archive, threads="1")
     mtest.check(run["files_read"] == 0 and run["files_hashed"] == 1 and named == [],
                 "after touching one play: read %d, hashed %d" % (run["files_read"], run["files_hashed"]))
 
@@ -80,7 +85,7 @@ with tempfile.TemporaryDirectory() as tmp:
         f.write(swapped)
     os.utime(racy, ns=(first_write.st_atime_ns, first_write.st_mtime_ns))
     mtest.check(os.stat(racy).st_size == first_write.st_size, "the second write changed the size")
-    run, named, _ = batch(store, archive)
+    run, named, _ = batch(store, archive, threads="1")
     mtest.check(run["files_read"] == 1 and named == [racy],
                 "a play changed twice within one time stamp: read %d, named %r" % (run["files_read"], named))
 
@@ -96,7 +101,7 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.fail("lxml parsed the truncated file")
     except etree.XMLSyntaxError:
         pass
-    run, named, proc = batch(store, archive, expect=1)
+    run, named, proc = batch(store, archive, expect=1, threads="1")
     mtest.check(run["files_read"] == 1 and run["files_failed"] == 1 and named == [broken],
                 "with a broken file: read %d, failed %d, named %r" % (run["files_read"], run["files_failed"], named))
     mtest.check("zz-broken.xml" in proc.stderr, "the failure is not named on stderr")
