@@ -8,8 +8,9 @@
 // thread, then handed to the sink, in file order.
 //
 // Files with `hash_first[i]` set are hashed before parsing, and `known(i, sha256)` is asked
-// (on a worker thread: it must be safe to call concurrently with other calls, not with the sink); when it says true the file is
-// not parsed and the sink gets a FileReading with parsed == false, bytes and sha256 set.
+// (on a worker thread, or with one thread on the caller's: it must be safe to call
+// concurrently with other calls and with the sink); when it says true the file is not
+// parsed and the sink gets a FileReading with parsed == false, bytes and sha256 set.
 // If the sink throws, the workers stop after their current file and the exception is
 // rethrown once they have. A bad file never throws: it arrives with `failed` set (and its
 // SHA-256 when its bytes could be read, so that a store can remember the failure).

@@ -44,7 +44,6 @@ void gram_lower(const RowMatrix& rows, Eigen::MatrixXd& out, bool allow_blas) {
   const Eigen::Index n = rows.rows();
   const Eigen::Index k = rows.cols();
   out.resize(n, n);
-  advise_huge_pages(out.data(), sizeof(double) * static_cast<std::size_t>(n * n));  // before it is written
   const DsyrkFunction dsyrk = allow_blas ? find_dsyrk() : nullptr;
   if (k > 0 && dsyrk) {
     // The row-major n x k `rows` is, read column-major, the k x n matrix A = rows^T; so

@@ -82,8 +82,12 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
   if (!vocabulary_) {
     vocabulary_ = std::make_unique<StoreVocabulary>(db_, settings_id_);
     // A guess at the new forms: the play and novel corpora of ../shared/corpora bring one
-    // per 600-1,500 bytes of XML; a low guess costs a rehash or two.
-    vocabulary_->expect(vocabulary_->forms().size() + expected_bytes_ / 1024);
+    // per 600-1,500 bytes of XML; a low guess costs a rehash or two. Capped at a million
+    // (a 32 MiB table): vocabulary grows far slower than text, and an archive of many
+    // gigabytes must not get a table in proportion; a bigger vocabulary still fits.
+    constexpr std::uint64_t kMostExpected = std::uint64_t{1} << 20;
+    vocabulary_->expect(vocabulary_->forms().size() +
+                        static_cast<std::size_t>(std::min(expected_bytes_ / 1024, kMostExpected)));
   }
   // The file's own feature ids -> the store's, each form looked up once per file.
   vocabulary_->ids_of(r.counts.vocabulary, to_store_);

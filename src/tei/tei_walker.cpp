@@ -142,21 +142,22 @@ struct TeiWalker::State {
   // libxml2 interns names, so one name comes at one address for the whole parse, and the
   // cache spares hashing and comparing the name for each element.
   struct CachedNameClass {
-    const char* name = nullptr;
+    std::string_view name;  // compared by address and length: no bytes are read
     const NameClass* name_class = nullptr;
   };
   std::array<CachedNameClass, 256> name_class_cache{};
   const NameClass& name_class(std::string_view name) {
     CachedNameClass& cached =
         name_class_cache[(reinterpret_cast<std::uintptr_t>(name.data()) >> 3) % name_class_cache.size()];
-    if (cached.name == name.data() && cached.name_class) return *cached.name_class;
+    if (cached.name.data() == name.data() && cached.name.size() == name.size() && cached.name_class)
+      return *cached.name_class;
     auto [it, added] = name_classes.try_emplace(name);
     if (added) {
       it->second.milestone = milestone_elements().count(name) > 0;
       it->second.block = block_elements().count(name) > 0;
       it->second.skipped = skip.count(name) > 0;
     }
-    cached = {name.data(), &it->second};  // unordered_map entries stay where they are
+    cached = {name, &it->second};  // unordered_map entries stay where they are
     return it->second;
   }
 
@@ -649,8 +650,7 @@ void TeiWalker::start(const StartTag& tag) {
 
 void TeiWalker::end() {
   State& s = *s_;
-  // Popped at the end rather than moved out: a frame holds three strings, and nothing
-  // below looks at the frames.
+  // Used in place and popped at the end (nothing below looks at the frames).
   State::Frame& f = s.frames.back();
 
   if (f.capture != Capture::none) {
