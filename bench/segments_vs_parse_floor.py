@@ -2,8 +2,8 @@
 """Benchmark: `manicule segments --unit speaker` over all plays vs the libxml2 parse floor.
 
 Runs, in one session and alternating, `xmllint --stream --noout` over the same files (the
-floor: parsing alone, libxml2's streaming reader) and manicule on one core (--threads 1)
-and on all cores. Reports median wall and CPU (user+sys) seconds, MB/s, peak memory
+floor: parsing alone, libxml2's streaming reader) and manicule on one core (--threads 1),
+both pinned to the same core, and on all cores. Reports median wall and CPU (user+sys) seconds, MB/s, peak memory
 (/usr/bin/time -v) and the ratios. Usage (from the project root, after a Release build):
 
     /usr/bin/python3 bench/segments_vs_parse_floor.py [build/manicule] [repeats]
@@ -36,9 +36,14 @@ def timed(cmd):
     return seconds, cpu, int(stats["Maximum resident set size (kbytes)"]) / 1024
 
 
+# The floor and the one-core run are pinned to the same core (taskset; MANICULE_BENCH_CORE,
+# default 0): on a shared virtual machine one virtual core can run a third slower than the
+# other for minutes, and a single-threaded process lands on either; pinned, both sides of
+# the ratio meet the same core.
+PIN = ["taskset", "-c", os.environ.get("MANICULE_BENCH_CORE", "0")]
 commands = {
-    "xmllint --stream --noout": ["xmllint", "--stream", "--noout"] + FILES,
-    "manicule segments, 1 core": [BIN, "segments", "--unit", "speaker", "--threads", "1"] + FILES,
+    "xmllint --stream --noout": PIN + ["xmllint", "--stream", "--noout"] + FILES,
+    "manicule segments, 1 core": PIN + [BIN, "segments", "--unit", "speaker", "--threads", "1"] + FILES,
     "manicule segments, 2 cores": [BIN, "segments", "--unit", "speaker", "--threads", "2"] + FILES,
 }
 results = {name: [] for name in commands}
