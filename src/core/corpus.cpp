@@ -3,7 +3,6 @@
 #include <algorithm>
 #include <filesystem>
 #include <map>
-#include <unordered_set>
 
 #include "core/corpus_stream.h"
 #include "core/error.h"
@@ -44,7 +43,6 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
   Corpus corpus;
   corpus.files = files;
   ProfileBuilder merged(request.features);
-  std::unordered_set<std::string> listed_ids;  // when counts are not merged (keep_counts)
   auto absorb = [&](FileReading& r) {
     corpus.bytes += r.bytes;
     corpus.file_sha256.push_back(r.sha256);
@@ -57,9 +55,7 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
     } else {
       // The same refusal merge() makes: two files of one name in different folders would
       // give their segments the same ids.
-      for (const auto& s : r.segments)
-        if (!listed_ids.insert(s.segment.id).second)
-          throw Error(ErrorKind::usage, "segment id '" + s.segment.id + "' occurs twice in one profile");
+      for (const auto& s : r.segments) merged.claim_id(s.segment.id);
     }
     for (auto& s : r.segments) corpus.segments.push_back(std::move(s));
   };

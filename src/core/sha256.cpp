@@ -16,17 +16,12 @@ struct Sha256::Context {
   ~Context() { EVP_MD_CTX_free(md); }
 };
 
-namespace {
-// A digest needs none of the system's OpenSSL configuration; reading openssl.cnf would
-// cost every process about a millisecond. Once, before the first context.
-bool init_libcrypto() {
-  return OPENSSL_init_crypto(OPENSSL_INIT_NO_LOAD_CONFIG, nullptr) == 1;
+void sha256_without_system_config() {
+  // On failure the first digest reports that SHA-256 is unavailable.
+  OPENSSL_init_crypto(OPENSSL_INIT_NO_LOAD_CONFIG, nullptr);
 }
-}  // namespace
 
 Sha256::Sha256() {
-  static const bool initialised = init_libcrypto();
-  (void)initialised;  // on failure the digest below reports that SHA-256 is unavailable
   context_ = std::make_unique<Context>();
   if (!context_->md || EVP_DigestInit_ex(context_->md, EVP_sha256(), nullptr) != 1)
     throw Error(ErrorKind::internal, "SHA-256 is not available from libcrypto");

@@ -23,10 +23,6 @@ using DsyrkFunction = decltype(&cblas_dsyrk);
 // Debian's alternatives make libblas.so.3 the chosen BLAS; OpenBLAS's own name comes first.
 DsyrkFunction find_dsyrk() {
   static const DsyrkFunction found = []() -> DsyrkFunction {
-    // OpenBLAS's idle threads spin (sched_yield) for some 2^28 cycles after each call,
-    // taking a core from the distance loops that follow; its own setting lets them sleep
-    // at once. Read when the library loads; a value the user set is kept.
-    setenv("OPENBLAS_THREAD_TIMEOUT", "4", 0);
     for (const char* name : {"libopenblas.so.0", "libblas.so.3", "libcblas.so.3"}) {
       void* library = dlopen(name, RTLD_NOW | RTLD_LOCAL);
       if (!library) continue;
@@ -39,6 +35,12 @@ DsyrkFunction find_dsyrk() {
 }
 
 }  // namespace
+
+void let_blas_threads_sleep_when_idle() {
+  // OpenBLAS reads it when it is loaded (at the first Gram matrix); a value the user set
+  // is kept.
+  setenv("OPENBLAS_THREAD_TIMEOUT", "4", 0);
+}
 
 void gram_lower(const RowMatrix& rows, Eigen::MatrixXd& out, bool allow_blas) {
   const Eigen::Index n = rows.rows();

@@ -18,6 +18,12 @@ namespace manicule {
 
 void cosine_distances_by_gram(const RowMatrix& rows, unsigned threads, Eigen::MatrixXd& out);
 
+// Process-wide, for a program's start before other threads (the command line calls it; a
+// host embedding the library keeps its own environment): OpenBLAS's idle threads spin on
+// sched_yield for some 2^28 cycles after each call, taking a core from the distance loops
+// that follow; this lets them sleep at once.
+void let_blas_threads_sleep_when_idle();
+
 // The lower triangle (diagonal included) of rows * rows^T into `out`, resized to n x n:
 // by the BLAS's dsyrk when one is found and `allow_blas`, else by Eigen's own product.
 // The upper triangle is left unspecified.

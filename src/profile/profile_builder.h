@@ -34,10 +34,13 @@ class ProfileBuilder {
   // The counts so far; the builder is empty afterwards.
   CountProfile finish();
 
+  // Refuses a segment id this profile already holds (usage error); every segment added is
+  // claimed, and a caller listing segments without counting them can claim theirs.
+  void claim_id(const std::string& segment_id);
+
  private:
   void count(std::string_view form);
   void count_char_ngrams_ending_in_window();
-  void claim_id(const std::string& segment_id);
 
   CountProfile profile_;
   std::unordered_set<std::string> seen_ids_;

@@ -19,7 +19,7 @@ class SpliceChecker : public XmlEventHandler {
 
   void start(const StartTag& tag) override {
     std::string local(tag.local);
-    bool tei = tag.ns == kTeiNamespace;
+    bool tei = tag.in_tei_namespace;
     std::string id(tag.attribute("id", kXmlNamespace));
     if (!id.empty() && added_seen_.count(id)) ++added_seen_[id];
     // Ids hidden in entity text are invisible to the byte scan: catch clashes with ours.

@@ -36,7 +36,7 @@ class ResultsCollector : public XmlEventHandler {
 
   void start(const StartTag& tag) override {
     auto node = std::make_unique<Node>();
-    node->name = tag.ns == kTeiNamespace ? std::string(tag.local) : "{" + std::string(tag.ns) + "}" + std::string(tag.local);
+    node->name = tag.in_tei_namespace ? std::string(tag.local) : "{" + std::string(tag.ns) + "}" + std::string(tag.local);
     for (int i = 0; i < tag.attribute_count; ++i) {
       const xmlChar** a = tag.attributes + 5 * i;
       std::string local(reinterpret_cast<const char*>(a[0]));

@@ -91,25 +91,24 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
   }
   // The file's own feature ids -> the store's, each form looked up once per file.
   vocabulary_->ids_of(r.counts.vocabulary, to_store_);
-  // Counts are stored in store-id order. The file's ids are ranked by store id once; a
-  // segment that uses many of the file's words is then placed by rank and read back in one
-  // pass, a small one sorted (a play's speakers each use much of its vocabulary).
+  // Counts are stored in store-id order. The file's ids are put in store-id order once; a
+  // segment that uses many of the file's words is then placed by file id and read back in
+  // that order in one pass, a small one sorted (a play's speakers each use much of its
+  // vocabulary).
   const std::size_t words = to_store_.size();
   rank_file_ids_by_store_id();
-  rank_.resize(words);
-  for (std::size_t rank = 0; rank < words; ++rank) rank_[by_store_id_[rank]] = static_cast<FeatureId>(rank);
-  by_rank_.assign(words, 0);
+  by_file_id_.assign(words, 0);
   for (std::size_t i = 0; i < r.segments.size(); ++i) {
     const SegmentRecord& record = r.segments[i];
     const Segment& seg = record.segment;
     const SegmentCounts& counts = r.counts.segments[i];
     mapped_.clear();
     if (counts.counts.size() * 16 >= words) {
-      for (const auto& [local, n] : counts.counts) by_rank_[rank_[local]] = n;
-      for (std::size_t rank = 0; rank < words; ++rank) {
-        if (by_rank_[rank] == 0) continue;
-        mapped_.emplace_back(to_store_[by_store_id_[rank]], by_rank_[rank]);
-        by_rank_[rank] = 0;
+      for (const auto& [local, n] : counts.counts) by_file_id_[local] = n;
+      for (const FeatureId local : by_store_id_) {
+        if (by_file_id_[local] == 0) continue;
+        mapped_.emplace_back(to_store_[local], by_file_id_[local]);
+        by_file_id_[local] = 0;
       }
     } else {
       for (const auto& [local, n] : counts.counts) mapped_.emplace_back(to_store_[local], n);

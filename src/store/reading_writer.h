@@ -44,8 +44,7 @@ class ReadingWriter {
   std::vector<FeatureId> by_store_id_;   // the file's feature ids in store-id order
   std::vector<std::uint64_t> store_id_bits_;    // by store id, all zero between files
   std::vector<FeatureId> file_id_of_store_id_;  // valid where the bit is set
-  std::vector<FeatureId> rank_;          // file's feature id -> its place in by_store_id_
-  std::vector<std::uint32_t> by_rank_;   // a segment's counts by rank, zero between uses
+  std::vector<std::uint32_t> by_file_id_;  // a segment's counts by file id, zero between uses
   FeatureCounts mapped_;
 };
 

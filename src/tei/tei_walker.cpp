@@ -186,7 +186,6 @@ struct TeiWalker::State {
     std::string speaker_text, head_text;
     std::string decls;                    // letter @decls
     bool body_letter = false;             // provisional one-letter-per-file unit
-    bool by_listed_persons = false;       // speech_of_listed_persons when it opened
     int tei_index = 0;
 
     // Empty again, keeping the memory of its strings and buffers.
@@ -200,7 +199,6 @@ struct TeiWalker::State {
       head_text.clear();
       decls.clear();
       body_letter = false;
-      by_listed_persons = false;
       tei_index = 0;
     }
   };
@@ -304,9 +302,8 @@ struct TeiWalker::State {
     if (!frame.xml_id.empty()) {
       u.local_id.assign(frame.xml_id);
       u.pointer.assign("#").append(frame.xml_id);
-    } else {
-      u.by_listed_persons = speech_of_listed_persons(u);
-      if (!u.by_listed_persons) write_xpath_pointer(frame, u.pointer);
+    } else if (!speech_of_listed_persons(u)) {
+      write_xpath_pointer(frame, u.pointer);
     }
     u.decls.assign(tag.attribute("decls"));
     sink().add_boundary();
@@ -518,7 +515,7 @@ struct TeiWalker::State {
         it = speaker_index.emplace(key, built.size() - 1).first;
       }
       Segment& seg = built[it->second].segment;
-      if (u.by_listed_persons || h.person_names.count(key)) {
+      if (h.person_names.count(key)) {
         if (seg.pointers.empty()) seg.pointers.push_back("#" + key);
       } else {
         seg.pointers.push_back(u.pointer);

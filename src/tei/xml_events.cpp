@@ -74,7 +74,7 @@ void on_start(void* ctx, const xmlChar* local, const xmlChar*, const xmlChar* ur
   if (st->stopped) return;
   StartTag tag;
   tag.local = reinterpret_cast<const char*>(local);
-  if (uri != st->last_uri || !uri) {
+  if (uri != st->last_uri) {  // (no namespace at first: last_ns empty, not TEI)
     st->last_uri = uri;
     st->last_ns = uri ? std::string_view(reinterpret_cast<const char*>(uri)) : std::string_view();
     st->last_ns_is_tei = st->last_ns == kTeiNamespace;

@@ -125,9 +125,6 @@ constexpr std::array<unsigned char, 256> kAsciiLetterBits = [] {
   return table;
 }();
 
-// Tab, line feed, vertical tab, form feed, carriage return and space.
-bool is_ascii_space(unsigned char byte) { return byte == ' ' || (byte >= '\t' && byte <= '\r'); }
-
 unsigned form_bits(const LatinCodePoint& code_point, unsigned char lead) {
   if (code_point.length > 1) return kNonAscii;
   return lead >= 'A' && lead <= 'Z' ? kCapital : 0;
@@ -327,25 +324,21 @@ LatinRun latin_segment(std::string_view text, std::size_t begin, std::size_t end
   return {end, end};
 }
 
+std::string_view fold_ascii_capitals(std::string_view token, std::string& buffer) {
+  // One pass through plain pointers: writes through the string itself could alias its own
+  // fields, and were reloaded at every byte.
+  buffer.resize(token.size());
+  char* out = buffer.data();
+  const char* in = token.data();
+  for (std::size_t i = 0, n = token.size(); i < n; ++i) {
+    const char ch = in[i];
+    out[i] = static_cast<char>(ch >= 'A' && ch <= 'Z' ? ch + ('a' - 'A') : ch);
+  }
+  return buffer;
+}
+
 std::string_view latin_normalise(std::string_view token, bool case_fold, bool apostrophes,
                                  std::string& buffer) {
-  bool unchanged = true, ascii = true;
-  for (const char ch : token) {
-    const auto byte = static_cast<unsigned char>(ch);
-    if (byte >= 0x80) {
-      unchanged = ascii = false;
-      break;
-    }
-    if (case_fold && byte >= 'A' && byte <= 'Z') unchanged = false;
-  }
-  if (unchanged) return token;
-  if (ascii) {  // only ASCII capitals to fold: copy and fold in place
-    buffer.assign(token);
-    for (char& ch : buffer)
-      if (ch >= 'A' && ch <= 'Z') ch = static_cast<char>(ch + ('a' - 'A'));
-    return buffer;
-  }
-
   buffer.clear();
   for (std::size_t at = 0; at < token.size();) {
     const auto byte = [&](std::size_t i) { return static_cast<unsigned char>(token[i]); };

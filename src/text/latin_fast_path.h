@@ -47,6 +47,9 @@ struct LatinCodePoint {
   LatinBreakClass break_class = LatinBreakClass::ineligible;
 };
 
+// Tab, line feed, vertical tab, form feed, carriage return and space.
+inline bool is_ascii_space(unsigned char byte) { return byte == ' ' || (byte >= '\t' && byte <= '\r'); }
+
 // Classes of the ASCII code points, by value.
 extern const std::array<LatinBreakClass, 128> kAsciiBreakClasses;
 
@@ -74,9 +77,12 @@ struct LatinRun {
 // and the text from the cut on is left to ICU. Each segment says its SegmentForm.
 LatinRun latin_segment(std::string_view text, std::size_t begin, std::size_t end,
                        std::vector<WordSegment>& out, bool letters_only = false);
+// `token` (ASCII) with A-Z folded to a-z, in `buffer`: what full case folding does to ASCII.
+std::string_view fold_ascii_capitals(std::string_view token, std::string& buffer);
+
 // Normalises a token made of eligible code points as TokenNormaliser would (NFC is a no-op
-// on them): optional full case folding and apostrophe unification. Returns `token` itself
-// when nothing changes, else a view into `buffer`.
+// on them): optional full case folding and apostrophe unification. A view into `buffer`.
+// The tokenizer sends only tokens with other than ASCII here (SegmentForm::latin).
 std::string_view latin_normalise(std::string_view token, bool case_fold, bool apostrophes,
                                  std::string& buffer);
 

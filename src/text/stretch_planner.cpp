@@ -9,10 +9,6 @@ namespace manicule {
 
 namespace {
 
-bool is_ascii_white_space(unsigned char byte) {
-  return byte == ' ' || (byte >= '\t' && byte <= '\r');
-}
-
 void append_stretch(std::vector<TextStretch>& out, std::size_t begin, std::size_t end,
                     bool fast) {
   if (begin == end) return;
@@ -27,7 +23,7 @@ void append_stretch(std::vector<TextStretch>& out, std::size_t begin, std::size_
 
 bool is_unconditional_boundary(std::string_view text, std::size_t at) {
   const auto previous = static_cast<unsigned char>(text[at - 1]);
-  if (!is_ascii_white_space(previous)) return false;
+  if (!is_ascii_space(previous)) return false;
   const auto next = static_cast<unsigned char>(text[at]);
   if (next < 0x80) {
     return !(previous == ' ' && next == ' ') && !(previous == '\r' && next == '\n');
@@ -53,7 +49,7 @@ bool is_unconditional_boundary(std::string_view text, std::size_t at) {
 // track boundaries as it goes.
 std::size_t latest_cut(std::string_view text, std::size_t floor, std::size_t at) {
   for (std::size_t q = at; q > floor; --q) {
-    if (is_ascii_white_space(static_cast<unsigned char>(text[q - 1])) && is_unconditional_boundary(text, q))
+    if (is_ascii_space(static_cast<unsigned char>(text[q - 1])) && is_unconditional_boundary(text, q))
       return q;
   }
   return floor;
@@ -63,7 +59,7 @@ std::size_t end_of_icu_stretch(std::string_view text, std::size_t ineligible) {
   const auto* bytes = reinterpret_cast<const unsigned char*>(text.data());
   // Cuts fall only after ASCII white space, so stepping bytewise never stops mid-character.
   for (std::size_t at = ineligible + decode_latin(text, ineligible).length; at < text.size(); ++at) {
-    if (is_ascii_white_space(bytes[at - 1]) && is_unconditional_boundary(text, at)) return at;
+    if (is_ascii_space(bytes[at - 1]) && is_unconditional_boundary(text, at)) return at;
   }
   return text.size();
 }

@@ -78,19 +78,7 @@ std::string_view Tokenizer::normalise(std::string_view piece, SegmentForm form) 
     case SegmentForm::ascii_lower:
       return piece;
     case SegmentForm::ascii_capitals:
-      if (!options_.case_fold) return piece;
-    {
-      // Folded in one pass through plain pointers (writes through the string itself could
-      // alias its own fields, and were reloaded at every byte).
-      impl.latin_buffer.resize(piece.size());
-      char* out = impl.latin_buffer.data();
-      const char* in = piece.data();
-      for (std::size_t i = 0, n = piece.size(); i < n; ++i) {
-        const char ch = in[i];
-        out[i] = static_cast<char>(ch >= 'A' && ch <= 'Z' ? ch + ('a' - 'A') : ch);
-      }
-      return impl.latin_buffer;
-    }
+      return options_.case_fold ? fold_ascii_capitals(piece, impl.latin_buffer) : piece;
     case SegmentForm::latin:
       return latin_normalise(piece, options_.case_fold, options_.apostrophes, impl.latin_buffer);
     case SegmentForm::unknown:
