@@ -7,15 +7,13 @@
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
 #include "core/error.h"
-#include "core/sha256.h"
 #include "manicule_version.h"
 #include "measure/cosine_gram.h"
 
 int main(int argc, char** argv) {
   using namespace manicule;
-  // Process-wide settings that are the program's to choose, before any thread starts (the
-  // library leaves them to a host that embeds it).
-  sha256_without_system_config();
+  // A process-wide setting that is the program's to choose, before any thread starts (the
+  // library leaves it to a host that embeds it).
   let_blas_threads_sleep_when_idle();
   CLI::App app{"manicule: measure style inside TEI editions"};
   app.set_version_flag("--version", std::string("manicule ") + MANICULE_VERSION_STRING);

@@ -1,7 +1,11 @@
 #include "core/sha256.h"
 
-#include <openssl/crypto.h>
-#include <openssl/evp.h>
+// OpenSSL 3 marks the one-digest functions (SHA256_Init and kin) deprecated in favour of
+// EVP, but the EVP route first sets up a "provider", which costs every process about a
+// millisecond: a tenth of what an unchanged archive's re-run takes in all. These functions
+// run the same code on the data (the SHA extensions where the CPU has them) without that.
+#define OPENSSL_SUPPRESS_DEPRECATED
+#include <openssl/sha.h>
 
 #include <cerrno>
 #include <cstdio>
@@ -12,19 +16,11 @@
 namespace manicule {
 
 struct Sha256::Context {
-  EVP_MD_CTX* md = EVP_MD_CTX_new();
-  ~Context() { EVP_MD_CTX_free(md); }
+  SHA256_CTX state;
 };
 
-void sha256_without_system_config() {
-  // On failure the first digest reports that SHA-256 is unavailable.
-  OPENSSL_init_crypto(OPENSSL_INIT_NO_LOAD_CONFIG, nullptr);
-}
-
-Sha256::Sha256() {
-  context_ = std::make_unique<Context>();
-  if (!context_->md || EVP_DigestInit_ex(context_->md, EVP_sha256(), nullptr) != 1)
-    throw Error(ErrorKind::internal, "SHA-256 is not available from libcrypto");
+Sha256::Sha256() : context_(std::make_unique<Context>()) {
+  if (SHA256_Init(&context_->state) != 1) throw Error(ErrorKind::internal, "SHA-256 is not available from libcrypto");
 }
 
 Sha256::~Sha256() = default;
@@ -32,13 +28,13 @@ Sha256::Sha256(Sha256&&) noexcept = default;
 Sha256& Sha256::operator=(Sha256&&) noexcept = default;
 
 void Sha256::update(const void* data, std::size_t size) {
-  if (size) EVP_DigestUpdate(context_->md, data, size);
+  if (size) SHA256_Update(&context_->state, data, size);
 }
 
 std::string Sha256::hex_digest() {
-  unsigned char digest[EVP_MAX_MD_SIZE];
-  unsigned int length = 0;
-  EVP_DigestFinal_ex(context_->md, digest, &length);
+  unsigned char digest[SHA256_DIGEST_LENGTH];
+  const unsigned int length = SHA256_DIGEST_LENGTH;
+  SHA256_Final(digest, &context_->state);
   static const char* hex = "0123456789abcdef";
   std::string out;
   for (unsigned int i = 0; i < length; ++i) {

@@ -26,11 +26,6 @@ class Sha256 {
 
 std::string sha256_hex(std::string_view bytes);
 
-// Process-wide, for a program's start (the command line calls it; a host embedding the
-// library keeps its own OpenSSL configuration): initialises libcrypto without reading the
-// system's openssl.cnf, which a digest does not need and which costs every process about
-// a millisecond.
-void sha256_without_system_config();
 // Throws Error(bad_input) if the file cannot be read.
 std::string sha256_file(const std::string& path);
 
