@@ -20,25 +20,45 @@ namespace {
 // (coarse file-system timestamps; the same reasoning as git's "racily clean" entries).
 constexpr std::int64_t kRacyWindowNs = 2'000'000'000;
 
+// What the store holds for a path: the file as last seen, and whether its content has
+// been read under this run's settings (and failed). One pass over the files table serves
+// the plan and, at the end, the removal of files that are gone.
 struct StoredFile {
+  std::string relative_path;
   std::uint64_t size = 0;
   std::int64_t mtime_ns = 0;
   std::string sha256;
+  bool read = false;  // a reading of this content under these settings is stored
+  bool failed = false;
+  std::string error;
 };
+
+std::unordered_map<std::string, StoredFile> stored_files(Database& db, std::int64_t settings_id) {
+  std::unordered_map<std::string, StoredFile> out;
+  Statement all = db.prepare(
+      "SELECT f.path, f.relative_path, f.size, f.mtime_ns, f.sha256, r.status, r.error "
+      "FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1");
+  all.bind(1, settings_id);
+  while (all.step()) {
+    StoredFile& f = out[all.text_at(0)];
+    f.relative_path = all.text_at(1);
+    f.size = static_cast<std::uint64_t>(all.int64_at(2));
+    f.mtime_ns = all.int64_at(3);
+    f.sha256 = all.text_at(4);
+    f.read = !all.is_null(5);
+    f.failed = f.read && all.text_at(5) == "failed";
+    f.error = all.text_at(6);
+  }
+  return out;
+}
 
 struct StoredReading {
   bool failed = false;
   std::string error;
 };
 
-std::unordered_map<std::string, StoredFile> stored_files(Database& db) {
-  std::unordered_map<std::string, StoredFile> out;
-  Statement all = db.prepare("SELECT path, size, mtime_ns, sha256 FROM files");
-  while (all.step())
-    out[all.text_at(0)] = StoredFile{static_cast<std::uint64_t>(all.int64_at(1)), all.int64_at(2), all.text_at(3)};
-  return out;
-}
-
+// Every content read under these settings (also of files no longer in the archive: a file
+// moved or copied is then hashed, not parsed), and the sizes those contents had.
 std::unordered_map<std::string, StoredReading> stored_readings(Database& db, std::int64_t settings_id,
                                                                std::unordered_set<std::uint64_t>& sizes) {
   std::unordered_map<std::string, StoredReading> out;
@@ -73,22 +93,24 @@ struct InputScope {
   }
 };
 
+// Files stored before this run that are no longer under the inputs (within the folder
+// filter and the shard) leave the files table.
 std::size_t remove_vanished(Database& db, const Request& request, const BatchOptions& options,
-                            const std::vector<ArchiveFile>& files) {
+                            const std::vector<ArchiveFile>& files,
+                            const std::unordered_map<std::string, StoredFile>& stored) {
   std::unordered_set<std::string> found;
   for (const auto& f : files) found.insert(f.path);
   const InputScope scope(request.inputs);
-  std::vector<std::string> gone;
-  Statement all = db.prepare("SELECT path, relative_path FROM files");
-  while (all.step()) {
-    std::string path = all.text_at(0), relative = all.text_at(1);
-    if (!found.count(path) && scope.covers(path) && in_folder(options.filter, path, relative) &&
-        in_shard(relative, options.shard))
-      gone.push_back(path);
-  }
   Statement remove = db.prepare("DELETE FROM files WHERE path = ?1");
-  for (const auto& path : gone) remove.run(path);
-  return gone.size();
+  std::size_t removed = 0;
+  for (const auto& [path, f] : stored) {
+    if (!found.count(path) && scope.covers(path) && in_folder(options.filter, path, f.relative_path) &&
+        in_shard(f.relative_path, options.shard)) {
+      remove.run(path);
+      ++removed;
+    }
+  }
+  return removed;
 }
 
 nlohmann::json run_parameters(const Request& request, const BatchOptions& options, const ReadingSettings& settings) {
@@ -122,13 +144,10 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   RunCounters& counters = summary.counters;
   counters.files_found = files.size();
 
-  // Plan: which files need opening, and which of those are worth hashing before parsing
-  // (only a file whose size some stored content has can turn out to be known).
-  std::unordered_set<std::uint64_t> known_sizes;
-  const auto readings = stored_readings(db, summary.settings_id, known_sizes);
-  const auto previous = stored_files(db);
+  // Plan: which files need opening. A file whose size and time are as stored, and whose
+  // content was read under these settings, is not opened at all.
+  const auto previous = stored_files(db, summary.settings_id);
   std::vector<std::size_t> to_open;
-  std::vector<char> hash_first;
   std::map<std::string, std::string> failing;  // path -> message, reported in path order
   BatchProgress progress;
   progress.files_total = files.size();
@@ -136,20 +155,25 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     const ArchiveFile& f = files[i];
     auto p = previous.find(f.path);
     if (!options.verify_hashes && p != previous.end() && p->second.size == f.size &&
-        p->second.mtime_ns == f.mtime_ns && !p->second.sha256.empty()) {
-      auto r = readings.find(p->second.sha256);
-      if (r != readings.end()) {
-        ++counters.files_unchanged;
-        if (r->second.failed) failing[f.path] = r->second.error;
-        continue;
-      }
+        p->second.mtime_ns == f.mtime_ns && !p->second.sha256.empty() && p->second.read) {
+      ++counters.files_unchanged;
+      if (p->second.failed) failing[f.path] = p->second.error;
+      continue;
     }
     to_open.push_back(i);
-    hash_first.push_back(known_sizes.count(f.size) ? 1 : 0);
     progress.bytes_total += f.size;
   }
   progress.files_done = counters.files_unchanged;
   if (listener && counters.files_unchanged) listener(progress, "", FileOutcome::unchanged);
+
+  // Of the files to open, only one whose size some stored content has can turn out to be
+  // known: those are hashed before parsing. (Nothing to open, nothing to look up: a
+  // re-run over an unchanged archive skips this.)
+  std::unordered_set<std::uint64_t> known_sizes;
+  std::unordered_map<std::string, StoredReading> readings;
+  if (!to_open.empty()) readings = stored_readings(db, summary.settings_id, known_sizes);
+  std::vector<char> hash_first;
+  for (std::size_t i : to_open) hash_first.push_back(known_sizes.count(files[i].size) ? 1 : 0);
 
   std::vector<std::string> paths;
   for (std::size_t i : to_open) paths.push_back(files[i].path);
@@ -206,7 +230,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
       if (listener) listener(progress, f.path, outcome);
     });
 
-    summary.files_removed = remove_vanished(db, request, options, files);
+    summary.files_removed = remove_vanished(db, request, options, files, previous);
     counters.files_failed = failing.size();
     update_run(db, summary.run_id, counters);
     finish_run(db, summary.run_id, "done");

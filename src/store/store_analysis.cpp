@@ -77,8 +77,10 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
     if (auto existing = find_analysis(db, key)) {
       result.run_id = *existing;
       result.reused = true;
+      // The files count is the one the analysis recorded in its run (files_found): a count
+      // of distinct paths would sort every segment row of the analysis.
       Statement count = db.prepare(
-          "SELECT (SELECT count(DISTINCT path) FROM analysis_segments WHERE run_id = ?1), "
+          "SELECT (SELECT files_found FROM runs WHERE run_id = ?1), "
           "(SELECT count(*) FROM analysis_segments WHERE run_id = ?1), "
           "(SELECT count(*) FROM analysis_segments WHERE run_id = ?1 AND measured = 1), "
           "(SELECT count(*) FROM features WHERE run_id = ?1), (SELECT count(*) FROM attributions WHERE run_id = ?1)");

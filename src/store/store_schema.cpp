@@ -195,8 +195,12 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
       throw Error(ErrorKind::bad_input, "the store " + path + " has format " + (found.empty() ? "?" : found) +
                                             "; this manicule reads format " + std::to_string(kStoreFormat));
   }
-  db->exec(kSchema);
-  db->prepare("INSERT OR IGNORE INTO store_info (key, value) VALUES ('format', ?1)").run(std::to_string(kStoreFormat));
+  if (!has_tables) {
+    // A store of this format has the whole schema (it is created in one transaction), so
+    // only a new store needs it: an unchanged archive's re-run spends no time parsing it.
+    db->exec(kSchema);
+    db->prepare("INSERT INTO store_info (key, value) VALUES ('format', ?1)").run(std::to_string(kStoreFormat));
+  }
   t.commit();
   return db;
 }

@@ -135,6 +135,14 @@ with tempfile.TemporaryDirectory() as tmp:
     # Asking the same again reuses the stored analysis; ids of segments carry the file stem.
     proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", str(MIN_TOKENS), "--neighbours", str(K), "--pca"])
     mtest.check("reused" in proc.stdout, "an identical analysis was computed again: " + proc.stdout)
+    # The reused analysis's report counts what its rows hold (counted here with SQL).
+    reused = int(re.search(r"analysis run (\d+)", proc.stdout).group(1))
+    db = storecheck.connect(store)
+    files, measured = db.execute("SELECT count(DISTINCT path), sum(measured) FROM analysis_segments WHERE run_id = ?",
+                                 (reused,)).fetchone()
+    db.close()
+    mtest.check("%d file(s), %d segment(s) measured" % (files, measured) in proc.stdout,
+                "reused analysis: the report %r, the rows %d files, %d measured" % (proc.stdout, files, measured))
     file_stems = {os.path.splitext(os.path.basename(p))[0] for p in paths}  # the copied plays' names
     mtest.check(names and all(n.split("#")[0] in file_stems for n in names), "segment ids without their file stem")
 

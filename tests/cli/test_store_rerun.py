@@ -9,7 +9,8 @@ not read it again); a deleted file leaves the files table. A store held by anoth
 connection is refused with exit code 5 and a clear message; two batch runs started at
 once either both finish or the second refuses, and the store ends as a clean run's.
 Outside references: Python's hashlib for SHA-256, lxml for the malformed file being
-malformed, SQLite's own exclusive lock held through Python's sqlite3 module.
+malformed, SQLite's own exclusive lock held through Python's sqlite3 module, os.path.relpath
+for the paths relative to the folder named.
 """
 import os
 import re
@@ -151,5 +152,21 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.run(["batch", archive, "--unit", "speaker", "--quiet", "--store", clean])
     a, b = storecheck.logical_tables(fresh), storecheck.logical_tables(clean)
     mtest.check(a == b, "two runs at once left another store than a clean run: " + storecheck.diff_summary(a, b))
+
+    # Relative paths (what shards and --folder go by) are those os.path.relpath gives,
+    # however the folder is spelled on the command line (with a trailing slash, a "."
+    # inside, or a path relative to the working folder that climbs with "..").
+    nested = os.path.join(tmp, "nested")
+    storecheck.copy_plays(storecheck.pick_plays(3), nested, subfolder_every=2)
+    spellings = [nested, nested + "/", os.path.join(tmp, ".", "nested"), os.path.relpath(nested)]
+    for k, spelling in enumerate(spellings):
+        spelled_store = os.path.join(tmp, "spelled%d.sqlite" % k)
+        mtest.run(["batch", spelling, "--store", spelled_store, "--unit", "speaker", "--quiet"])
+        rows = storecheck.logical_tables(spelled_store)["files"]
+        mtest.check(len(rows) == 3, "folder spelled %r: %d files" % (spelling, len(rows)))
+        for path, relative in ((r[0], r[1]) for r in rows):
+            expected = os.path.relpath(path, spelling).replace(os.sep, "/")
+            mtest.check(relative == expected, "folder spelled %r: %s stored as %r, os.path.relpath has %r"
+                        % (spelling, path, relative, expected))
 
 mtest.done()
