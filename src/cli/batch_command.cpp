@@ -71,6 +71,7 @@ CommandRunner add_batch_command(CLI::App& app) {
     options.verify_hashes = flags->verify;
     options.commit_files = std::max<std::size_t>(1, flags->commit_every);
     if (!flags->shard.empty()) options.shard = parse_shard(flags->shard);
+    if (flags->analyse) options.keep_counts_of_segments_from = request.feature_space.min_segment_tokens;
 
     auto db = store::open_store(flags->store, true);
     ProgressDisplay display(flags->quiet);
@@ -87,7 +88,8 @@ CommandRunner add_batch_command(CLI::App& app) {
     report_failures(std::cerr, summary);
     if (flags->analyse) {
       store::StoreAnalysisOptions how{options.filter, flags->attribute, flags->recompute};
-      store::StoreAnalysisResult result = store::analyse_store(*db, summary.settings_id, request, how);
+      store::StoreAnalysisResult result = store::analyse_store(*db, summary.settings_id, request, how, summary.fresh.get());
+      summary.fresh.reset();
       report_analysis(std::cout, std::cerr, result);
     }
     return summary.failures.empty() ? kExitOk : kExitSomeFilesFailed;

@@ -183,6 +183,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
 
   ReadingWriter writer(db, summary.settings_id);
   writer.expect_bytes(progress.bytes_total);
+  if (options.keep_counts_of_segments_from) writer.keep_counts(*options.keep_counts_of_segments_from);
   const std::int64_t racy_after_ns =
       std::chrono::duration_cast<std::chrono::nanoseconds>(std::chrono::system_clock::now().time_since_epoch()).count() -
       kRacyWindowNs;
@@ -246,6 +247,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     throw;
   }
   for (auto& [path, message] : failing) summary.failures.push_back(BatchFailure{path, message});
+  summary.fresh = writer.take_fresh_counts();
   return summary;
 }
 

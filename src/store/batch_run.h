@@ -16,12 +16,15 @@
 #pragma once
 #include <cstdint>
 #include <functional>
+#include <memory>
+#include <optional>
 #include <string>
 #include <vector>
 
 #include "core/request.h"
 #include "store/archive_files.h"
 #include "store/archive_filter.h"
+#include "store/fresh_counts.h"
 #include "store/run_log.h"
 #include "store/sqlite_db.h"
 
@@ -33,6 +36,9 @@ struct BatchOptions {
   bool verify_hashes = false;
   std::size_t commit_files = 64;
   double commit_seconds = 2.0;
+  // Set when an analysis follows in the same process: the counts of the segments read in
+  // this run with at least this many words are kept in memory for it (BatchSummary::fresh).
+  std::optional<std::size_t> keep_counts_of_segments_from;
 };
 
 enum class FileOutcome { unchanged, hashed, read, failed };
@@ -59,6 +65,7 @@ struct BatchSummary {
   RunCounters counters;
   std::vector<BatchFailure> failures;  // every file failing now, in path order
   std::size_t files_removed = 0;       // rows of files no longer found
+  std::shared_ptr<FreshCounts> fresh;  // with keep_counts_of_segments_from, if any file was read
 };
 
 // Throws Error(usage) for a bad request, Error(write_failed) when the store cannot be

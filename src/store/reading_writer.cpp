@@ -41,6 +41,18 @@ void ReadingWriter::write_file(const ArchiveFile& file, const std::string& sha25
   upsert_file_.step_to_end();
 }
 
+void ReadingWriter::keep_counts(std::size_t min_tokens) {
+  kept_ = std::make_unique<FreshCounts>();
+  kept_->min_tokens = min_tokens;
+}
+
+std::unique_ptr<FreshCounts> ReadingWriter::take_fresh_counts() {
+  if (!kept_ || !vocabulary_) return nullptr;
+  kept_->forms = std::move(*vocabulary_).take_forms();
+  vocabulary_.reset();
+  return std::move(kept_);
+}
+
 void ReadingWriter::rank_file_ids_by_store_id() {
   // A bitmap over the store's ids instead of a sort: a file's few thousand ids are marked
   // and read back in order, which cost the main thread a tenth of what sorting them did.
@@ -121,6 +133,7 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
     w.bind(12, record.tokens).bind(13, record.types).bind(14, counts.feature_total);
     w.bind_blob(15, encode_counts(mapped_));
     w.step_to_end();
+    if (kept_ && record.tokens >= kept_->min_tokens) kept_->by_content[r.sha256].emplace_back(i, mapped_);
   }
   vocabulary_->write_new();
 }

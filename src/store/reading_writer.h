@@ -13,6 +13,7 @@
 #include "core/file_reading.h"
 #include "store/archive_files.h"
 #include "store/count_blob.h"
+#include "store/fresh_counts.h"
 #include "store/sqlite_db.h"
 #include "store/store_vocabulary.h"
 
@@ -28,6 +29,12 @@ class ReadingWriter {
   // The bytes of XML about to be read, so that the store's vocabulary is sized for the
   // new forms they will bring at once instead of growing step by step.
   void expect_bytes(std::uint64_t bytes) { expected_bytes_ = bytes; }
+  // Keeps, besides writing them, the counts of segments of at least `min_tokens` words,
+  // for an analysis after the run (FreshCounts).
+  void keep_counts(std::size_t min_tokens);
+  // What was kept, with the store's vocabulary; null when no reading was written. The
+  // writer writes nothing more afterwards.
+  std::unique_ptr<FreshCounts> take_fresh_counts();
 
  private:
   // Fills by_store_id_ from to_store_.
@@ -46,6 +53,7 @@ class ReadingWriter {
   std::vector<FeatureId> file_id_of_store_id_;  // valid where the bit is set
   std::vector<std::uint32_t> by_file_id_;  // a segment's counts by file id, zero between uses
   FeatureCounts mapped_;
+  std::unique_ptr<FreshCounts> kept_;  // when keep_counts() was asked for
 };
 
 }  // namespace manicule::store

@@ -65,7 +65,7 @@ std::vector<AttributionRow> attribution_rows(const Request& request, Analysis& a
 }  // namespace
 
 StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const Request& request,
-                                  const StoreAnalysisOptions& options) {
+                                  const StoreAnalysisOptions& options, FreshCounts* fresh) {
   const ArchiveFilter& filter = options.filter;
   const StoredSelection selection = select_stored_files(db, settings_id, filter);
   StoreAnalysisResult result;
@@ -96,7 +96,7 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   }
 
   StoredCorpus stored = load_stored_corpus(db, settings_id, request.features, filter, selection,
-                                           request.feature_space.min_segment_tokens);
+                                           request.feature_space.min_segment_tokens, fresh);
   result.files = stored.corpus.files.size();
   result.segments = stored.corpus.segments.size();
   if (stored.corpus.segments.size() < 2)

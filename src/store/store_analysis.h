@@ -11,6 +11,7 @@
 
 #include "core/request.h"
 #include "store/archive_filter.h"
+#include "store/fresh_counts.h"
 #include "store/sqlite_db.h"
 
 namespace manicule::store {
@@ -38,7 +39,9 @@ struct StoreAnalysisOptions {
 // attribution) and must carry the reading settings of `settings_id`. Throws
 // Error(nothing_selected) when the filter leaves fewer than two segments. With `attribute`,
 // a run without questioned segments or candidates records none and says so in the notes.
+// `fresh`, from a batch run just before in this process, spares reading back what that run
+// stored (it is used up).
 StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const Request& request,
-                                  const StoreAnalysisOptions& options);
+                                  const StoreAnalysisOptions& options, FreshCounts* fresh = nullptr);
 
 }  // namespace manicule::store

@@ -22,6 +22,8 @@ class StoreVocabulary {
   // Makes room for about `forms` forms in all (a guess; more still fit).
   void expect(std::size_t forms) { forms_.reserve(forms); }
   const Vocabulary& forms() const { return forms_; }
+  // Hands the forms over (to an analysis in the same process); nothing is left to write.
+  Vocabulary take_forms() && { return std::move(forms_); }
   // Inserts the forms interned since the last call.
   void write_new();
 

@@ -50,7 +50,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
 
 StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const FeatureSpec& spec,
                                 const ArchiveFilter& filter, const StoredSelection& selection,
-                                std::size_t min_tokens) {
+                                std::size_t min_tokens, FreshCounts* fresh) {
   StoredCorpus out;
   std::unordered_set<std::string> included(selection.paths.begin(), selection.paths.end());
   Statement segments = db.prepare(
@@ -78,9 +78,10 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
       ++out.segments_too_short;
       continue;
     }
+    const std::string file_sha256 = segments.text_at(2);
     if (path != last_path) {
       out.corpus.files.push_back(path);
-      out.corpus.file_sha256.push_back(segments.text_at(2));
+      out.corpus.file_sha256.push_back(file_sha256);
       last_path = path;
     }
     SegmentRecord record;
@@ -97,21 +98,23 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     seg.warnings = nlohmann::json::parse(segments.text_at(11)).get<std::vector<std::string>>();
     record.tokens = static_cast<std::size_t>(segments.int64_at(12));
     record.types = static_cast<std::size_t>(segments.int64_at(13));
-    auto [owner, fresh] = id_owner.emplace(seg.id, path);
-    if (!fresh)
+    auto [owner, new_id] = id_owner.emplace(seg.id, path);
+    if (!new_id)
       throw Error(ErrorKind::usage, "segment id " + seg.id + " occurs in two files (" + owner->second + ", " + path +
                                         "): files of the same name in different folders; narrow the analysis with --folder");
     SegmentCounts counts;
     counts.id = seg.id;
     counts.tokens = record.tokens;
     counts.feature_total = static_cast<std::size_t>(segments.int64_at(14));
-    counts.counts = decode_counts(segments.blob_at(15));
+    const std::size_t ordinal = static_cast<std::size_t>(segments.int64_at(3));
+    FeatureCounts* kept = fresh && record.tokens >= fresh->min_tokens ? fresh->find(file_sha256, ordinal) : nullptr;
+    counts.counts = kept ? std::move(*kept) : decode_counts(segments.blob_at(15));
     for (const auto& [id, n] : counts.counts) {
       if (id >= used.size()) used.resize(id + 1, 0);
       used[id] = 1;
     }
     profile.segments.push_back(std::move(counts));
-    out.sources.push_back(SegmentSource{path, segments.text_at(2), static_cast<std::size_t>(segments.int64_at(3))});
+    out.sources.push_back(SegmentSource{path, file_sha256, ordinal});
     out.corpus.segments.push_back(std::move(record));
   }
 
@@ -123,13 +126,19 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     std::size_t used_count = 0;
     for (char u : used) used_count += u != 0;
     profile.vocabulary.reserve(used_count);
-    Statement forms = db.prepare("SELECT feature_id, form FROM vocabulary WHERE settings_id = ?1 ORDER BY feature_id");
-    forms.bind(1, settings_id);
-    while (forms.step()) {
-      auto id = static_cast<std::size_t>(forms.int64_at(0));
-      if (id < used.size() && used[id]) compact[id] = profile.vocabulary.intern(forms.blob_at(1));
+    if (fresh && used.size() <= fresh->forms.size()) {
+      for (std::size_t id = 0; id < used.size(); ++id)
+        if (used[id]) compact[id] = profile.vocabulary.intern(fresh->forms.form(static_cast<FeatureId>(id)));
+    } else {
+      Statement forms = db.prepare("SELECT feature_id, form FROM vocabulary WHERE settings_id = ?1 ORDER BY feature_id");
+      forms.bind(1, settings_id);
+      while (forms.step()) {
+        auto id = static_cast<std::size_t>(forms.int64_at(0));
+        if (id < used.size() && used[id]) compact[id] = profile.vocabulary.intern(forms.blob_at(1));
+      }
     }
   }
+  if (fresh) *fresh = FreshCounts();  // used up: its memory goes before the analysis's
   for (auto& s : profile.segments)
     for (auto& entry : s.counts) {
       entry.first = compact[entry.first];

@@ -4,6 +4,8 @@
 // counts. Segments shorter than `min_tokens` words are left out here already (the feature
 // space would leave them out first anyway; they are counted), which keeps memory and time
 // in proportion to what is measured. Files stored as failed are left out and counted.
+// With `fresh` (what a batch run in this process just stored), its counts and vocabulary
+// are used instead of reading them back (the corpus is the same), and `fresh` is emptied.
 #pragma once
 #include <cstdint>
 #include <string>
@@ -11,6 +13,7 @@
 
 #include "core/corpus.h"
 #include "store/archive_filter.h"
+#include "store/fresh_counts.h"
 #include "store/sqlite_db.h"
 
 namespace manicule::store {
@@ -43,6 +46,6 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
 // Throws Error(usage) when two files' segment ids clash (same file name in two folders).
 StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const FeatureSpec& spec,
                                 const ArchiveFilter& filter, const StoredSelection& selection,
-                                std::size_t min_tokens);
+                                std::size_t min_tokens, FreshCounts* fresh = nullptr);
 
 }  // namespace manicule::store

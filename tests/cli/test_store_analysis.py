@@ -2,10 +2,12 @@
 sub-corpora by header metadata against lxml.
 
 20 plays (every fourth in a subfolder) are read into a store once; then analyse-store
-works from the store alone. The features it chose, the k nearest segments with their
-Cosine Delta (Smith & Aldridge 2011: cosine distance of z-scores) and the PCA explained
-variance are recomputed in Python from the stored counts (blobs decoded by the format in
-docs/store.md): ranking by total then UTF-8 bytes, numpy for z-scores (sample sd),
+works from the store alone. The same analysis is also made by batch --analyse on a new
+store (from the counts just read, kept in memory) and after a run that stored the
+subfolder only (those from the store, the rest from memory). Each time, the features it
+chose, the k nearest segments with their Cosine Delta (Smith & Aldridge 2011: cosine
+distance of z-scores) and the PCA explained variance are recomputed in Python from the
+stored counts (blobs decoded by the format in docs/store.md): ranking by total then UTF-8 bytes, numpy for z-scores (sample sd),
 scipy.spatial.distance.cdist(..., 'cosine'), sklearn.decomposition.PCA. The filters
 (--author, --years, --title, --folder, --language) are checked against the files lxml
 finds matching in the TEI headers.
@@ -53,12 +55,8 @@ def analysed_paths(store, args):
     return {row[1] for row in tables["segments"]}
 
 
-with tempfile.TemporaryDirectory() as tmp:
-    archive = os.path.join(tmp, "archive")
-    paths = storecheck.copy_plays(storecheck.pick_plays(20), archive, subfolder_every=4)
-    store = os.path.join(tmp, "s.sqlite")
-    mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--quiet"])
-    mtest.run(["analyse-store", "--store", store, "--min-tokens", str(MIN_TOKENS), "--neighbours", str(K), "--pca"])
+def check_against_python(store, how):
+    """The latest analysis in `store` (made `how`) against the same computed in Python."""
     run, tables = storecheck.latest_analysis(store)
 
     # The measured segments' counts, from the store, by feature form.
@@ -74,7 +72,7 @@ with tempfile.TemporaryDirectory() as tmp:
     names = [r[0] for r in rows]
     counts = [{forms[f]: n for f, n in storecheck.decode_counts(r[2])} for r in rows]
     totals = np.array([r[1] for r in rows], dtype=float)
-    mtest.check(len(names) >= 10, "only %d segments measured" % len(names))
+    mtest.check(len(names) >= 10, "%s: only %d segments measured" % (how, len(names)))
 
     summed = {}
     for c in counts:
@@ -82,7 +80,7 @@ with tempfile.TemporaryDirectory() as tmp:
             summed[form] = summed.get(form, 0) + n
     ranked = sorted(summed, key=lambda f: (-summed[f], f.encode("utf-8")))[:1000]
     stored_features = [r[1] for r in sorted(tables["features"])]
-    mtest.check(stored_features == ranked, "the features chosen differ from the Python ranking")
+    mtest.check(stored_features == ranked, "%s: the features chosen differ from the Python ranking" % how)
 
     rel = np.array([[c.get(f, 0) for f in ranked] for c in counts], dtype=float) / totals[:, None]
     sd = rel.std(axis=0, ddof=1)
@@ -94,12 +92,36 @@ with tempfile.TemporaryDirectory() as tmp:
         expected += [(name, k + 1, names[j], d[i, j]) for k, j in enumerate(order)]
     got = sorted(tables["neighbours"])
     expected.sort()
-    mtest.check([g[:3] for g in got] == [e[:3] for e in expected], "nearest segments differ from SciPy's")
+    mtest.check([g[:3] for g in got] == [e[:3] for e in expected], "%s: nearest segments differ from SciPy's" % how)
     mtest.check(all(mtest.close(g[3], e[3], rel=1e-9, abs_=1e-12) for g, e in zip(got, expected)),
-                "Cosine Delta values differ from SciPy's")
+                "%s: Cosine Delta values differ from SciPy's" % how)
     ratio = PCA(n_components=2, svd_solver="full").fit(z).explained_variance_ratio_
     mtest.check(len(pca_ratio) == 2 and all(mtest.close(a, b, rel=1e-6) for a, b in zip(pca_ratio, ratio)),
-                "PCA explained variance ratio %r, scikit-learn %r" % (pca_ratio, list(ratio)))
+                "%s: PCA explained variance ratio %r, scikit-learn %r" % (how, pca_ratio, list(ratio)))
+    return names
+
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    paths = storecheck.copy_plays(storecheck.pick_plays(20), archive, subfolder_every=4)
+    store = os.path.join(tmp, "s.sqlite")
+    mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--quiet"])
+    analysis_args = ["--min-tokens", str(MIN_TOKENS), "--neighbours", str(K), "--pca"]
+    mtest.run(["analyse-store", "--store", store] + analysis_args)
+    names = check_against_python(store, "analyse-store over a stored archive")
+    # The same analysis right after reading, in one batch run (it takes the counts just
+    # read from memory), and after a run that stored the subfolder's plays before (those
+    # come from the store, the rest from memory).
+    first = os.path.join(tmp, "first.sqlite")
+    mtest.run(["batch", archive, "--store", first, "--unit", "speaker", "--quiet", "--analyse"] + analysis_args)
+    check_against_python(first, "batch --analyse on a new store")
+    mixed = os.path.join(tmp, "mixed.sqlite")
+    mtest.run(["batch", archive, "--store", mixed, "--unit", "speaker", "--quiet", "--folder", "more"])
+    mtest.run(["batch", archive, "--store", mixed, "--unit", "speaker", "--quiet", "--analyse"] + analysis_args)
+    run = storecheck.last_run(mixed)
+    mtest.check(run["files_read"] == 15 and run["files_unchanged"] == 5,
+                "the mixed run read %d files, found %d unchanged" % (run["files_read"], run["files_unchanged"]))
+    check_against_python(mixed, "batch --analyse after the subfolder was stored")
 
     # Sub-corpora: the files an analysis takes in are those lxml finds matching.
     facts = {p: header_facts(p) for p in paths}
@@ -133,7 +155,7 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(len(expect(cases[0][1])) >= 2, "the author case picks too few files to mean anything")
 
     # Asking the same again reuses the stored analysis; ids of segments carry the file stem.
-    proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", str(MIN_TOKENS), "--neighbours", str(K), "--pca"])
+    proc = mtest.run(["analyse-store", "--store", store] + analysis_args)
     mtest.check("reused" in proc.stdout, "an identical analysis was computed again: " + proc.stdout)
     # The reused analysis's report counts what its rows hold (counted here with SQL).
     reused = int(re.search(r"analysis run (\d+)", proc.stdout).group(1))
