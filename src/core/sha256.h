@@ -1,7 +1,10 @@
-// SHA-256 (FIPS 180-4) of bytes or of a file, as lowercase hex, computed by OpenSSL's
-// libcrypto (hardware SHA extensions where the CPU has them: the hash runs alongside the
-// parser for every input, so its speed matters). Used for provenance (which exact edition
-// a result refers to) and as the archive store's content key.
+// SHA-256 (FIPS 180-4) of bytes or of a file, as lowercase hex, computed by GNU Nettle
+// (its x86-64 build uses the CPU's SHA extensions where they exist: the hash runs
+// alongside the parser for every input, so its speed matters). Nettle rather than
+// OpenSSL's libcrypto: both hash at 1.4-1.6 GB/s here, but loading libcrypto costs every
+// process some 4 ms against Nettle's 0.4 ms, a sixth of an unchanged archive's re-run.
+// Used for provenance (which exact edition a result refers to) and as the archive
+// store's content key.
 #pragma once
 #include <cstddef>
 #include <memory>
