@@ -28,7 +28,13 @@ CommandRunner add_attribute_command(CLI::App& app);
 CommandRunner add_verify_command(CLI::App& app);
 CommandRunner add_evaluate_command(CLI::App& app);
 
+// A command's name (as its add function gives it to CLI11) and its add function.
+struct CommandEntry {
+  const char* name;
+  CommandAdder add;
+};
+
 // Every command, in the order `manicule --help` lists them.
-std::vector<CommandAdder> all_commands();
+std::vector<CommandEntry> all_commands();
 
 }  // namespace manicule::cli
