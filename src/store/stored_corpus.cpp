@@ -118,6 +118,15 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     out.corpus.segments.push_back(std::move(record));
   }
 
+  if (fresh && used.size() <= fresh->forms.size()) {
+    // The store's vocabulary itself, just handed over: the counts are in its ids already.
+    // (Forms no segment here uses have no occurrences and are never selected.)
+    profile.vocabulary = std::move(fresh->forms);
+    *fresh = FreshCounts();  // used up
+    return out;
+  }
+  if (fresh) *fresh = FreshCounts();
+
   // A compact vocabulary of the features these segments use, in store-id order, so the
   // remapping keeps every segment's counts sorted.
   constexpr FeatureId kMissing = UINT32_MAX;
@@ -126,19 +135,13 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     std::size_t used_count = 0;
     for (char u : used) used_count += u != 0;
     profile.vocabulary.reserve(used_count);
-    if (fresh && used.size() <= fresh->forms.size()) {
-      for (std::size_t id = 0; id < used.size(); ++id)
-        if (used[id]) compact[id] = profile.vocabulary.intern(fresh->forms.form(static_cast<FeatureId>(id)));
-    } else {
-      Statement forms = db.prepare("SELECT feature_id, form FROM vocabulary WHERE settings_id = ?1 ORDER BY feature_id");
-      forms.bind(1, settings_id);
-      while (forms.step()) {
-        auto id = static_cast<std::size_t>(forms.int64_at(0));
-        if (id < used.size() && used[id]) compact[id] = profile.vocabulary.intern(forms.blob_at(1));
-      }
+    Statement forms = db.prepare("SELECT feature_id, form FROM vocabulary WHERE settings_id = ?1 ORDER BY feature_id");
+    forms.bind(1, settings_id);
+    while (forms.step()) {
+      auto id = static_cast<std::size_t>(forms.int64_at(0));
+      if (id < used.size() && used[id]) compact[id] = profile.vocabulary.intern(forms.blob_at(1));
     }
   }
-  if (fresh) *fresh = FreshCounts();  // used up: its memory goes before the analysis's
   for (auto& s : profile.segments)
     for (auto& entry : s.counts) {
       entry.first = compact[entry.first];
