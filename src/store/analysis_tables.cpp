@@ -1,6 +1,7 @@
 #include "store/analysis_tables.h"
 
 #include "core/sha256.h"
+#include "store/row_inserter.h"
 #include "store/run_log.h"
 
 namespace manicule::store {
@@ -28,49 +29,50 @@ std::optional<std::int64_t> find_analysis(Database& db, const std::string& key) 
 namespace {
 
 void write_segments(Database& db, std::int64_t run, const Analysis& a, const StoredCorpus& stored) {
-  Statement insert = db.prepare(
-      "INSERT INTO analysis_segments (run_id, segment, path, sha256, ordinal, label, author, tokens, measured, "
-      "excluded_reason) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10)");
+  RowInserter insert(db,
+                     "INSERT INTO analysis_segments (run_id, segment, path, sha256, ordinal, label, author, tokens, "
+                     "measured, excluded_reason)",
+                     10);
   for (std::size_t i = 0; i < a.segments.size(); ++i) {
     const SegmentSummary& s = a.segments[i];
     const SegmentSource& src = stored.sources[i];
-    insert.bind(1, run).bind(2, s.id).bind(3, src.path).bind(4, src.sha256).bind(5, src.ordinal);
-    insert.bind(6, s.label).bind(7, s.author).bind(8, s.tokens).bind(9, s.measured ? 1 : 0);
-    if (s.excluded_reason.empty()) insert.bind_null(10); else insert.bind(10, s.excluded_reason);
-    insert.step_to_end();
+    insert.add(run, s.id, src.path, src.sha256, src.ordinal, s.label, s.author, s.tokens, s.measured ? 1 : 0,
+               s.excluded_reason.empty() ? std::nullopt : std::optional<std::string>(s.excluded_reason));
   }
+  insert.finish();
 }
 
 void write_features(Database& db, std::int64_t run, const FeatureTable& t) {
-  Statement insert = db.prepare("INSERT INTO features (run_id, rank, form, total, mean, sd) VALUES (?1, ?2, ?3, ?4, ?5, ?6)");
+  RowInserter insert(db, "INSERT INTO features (run_id, rank, form, total, mean, sd)", 6);
   for (std::size_t j = 0; j < t.feature_count(); ++j) {
     auto col = static_cast<Eigen::Index>(j);
-    insert.run(run, t.feature_ranks[j], t.features[j], t.feature_totals[j], t.mean(col), t.sd(col));
+    insert.add(run, t.feature_ranks[j], t.features[j], t.feature_totals[j], t.mean(col), t.sd(col));
   }
+  insert.finish();
 }
 
 void write_neighbours(Database& db, std::int64_t run, const Analysis& a) {
   if (!a.distances) return;
-  Statement insert = db.prepare(
-      "INSERT INTO neighbours (run_id, segment, rank, neighbour, distance) VALUES (?1, ?2, ?3, ?4, ?5)");
+  RowInserter insert(db, "INSERT INTO neighbours (run_id, segment, rank, neighbour, distance)", 5);
   const DistanceResult& d = *a.distances;
   for (std::size_t r = 0; r < d.rows.size(); ++r)
     for (std::size_t k = 0; k < d.nearest[r].size(); ++k)
-      insert.run(run, a.segments[d.rows[r]].id, k + 1, a.segments[d.nearest[r][k].segment].id, d.nearest[r][k].distance);
+      insert.add(run, a.segments[d.rows[r]].id, k + 1, a.segments[d.nearest[r][k].segment].id, d.nearest[r][k].distance);
+  insert.finish();
 }
 
 void write_pca(Database& db, std::int64_t run, const PcaResult& pca) {
   Statement component = db.prepare(
       "INSERT INTO pca_components (run_id, component, explained_variance, explained_variance_ratio) "
       "VALUES (?1, ?2, ?3, ?4)");
-  Statement coordinate = db.prepare(
-      "INSERT INTO pca_coordinates (run_id, segment, component, value) VALUES (?1, ?2, ?3, ?4)");
+  RowInserter coordinate(db, "INSERT INTO pca_coordinates (run_id, segment, component, value)", 4);
   for (Eigen::Index c = 0; c < pca.coordinates.cols(); ++c) {
     component.run(run, static_cast<std::int64_t>(c + 1), pca.explained_variance(c), pca.explained_variance_ratio(c));
     for (Eigen::Index r = 0; r < pca.coordinates.rows(); ++r)
-      coordinate.run(run, pca.segment_ids[static_cast<std::size_t>(r)], static_cast<std::int64_t>(c + 1),
+      coordinate.add(run, pca.segment_ids[static_cast<std::size_t>(r)], static_cast<std::int64_t>(c + 1),
                      pca.coordinates(r, c));
   }
+  coordinate.finish();
 }
 
 }  // namespace
@@ -88,12 +90,14 @@ std::int64_t write_analysis(Database& db, std::int64_t settings_id, const nlohma
   write_features(db, run, analysis.table);
   write_neighbours(db, run, analysis);
   if (analysis.pca) write_pca(db, run, *analysis.pca);
-  Statement attribution = db.prepare(
-      "INSERT INTO attributions (run_id, segment, rank, candidate, distance, nearest_segment, nearest_distance, "
-      "margin, stability, rule, warnings) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11)");
+  RowInserter attribution(db,
+                          "INSERT INTO attributions (run_id, segment, rank, candidate, distance, nearest_segment, "
+                          "nearest_distance, margin, stability, rule, warnings)",
+                          11);
   for (const auto& a : attributions)
-    attribution.run(run, a.segment, a.rank, a.candidate, a.distance, a.nearest_segment, a.nearest_distance, a.margin,
+    attribution.add(run, a.segment, a.rank, a.candidate, a.distance, a.nearest_segment, a.nearest_distance, a.margin,
                     a.stability, a.rule, a.warnings);
+  attribution.finish();
   RunCounters counters;
   counters.files_found = stored.corpus.files.size();
   update_run(db, run, counters);

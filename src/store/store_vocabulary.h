@@ -8,6 +8,7 @@
 #include <string_view>
 
 #include "profile/vocabulary.h"
+#include "store/row_inserter.h"
 #include "store/sqlite_db.h"
 
 namespace manicule::store {
@@ -29,8 +30,7 @@ class StoreVocabulary {
 
  private:
   std::int64_t settings_id_;
-  Statement insert_;       // one row
-  Statement insert_many_;  // kRowsPerInsert rows
+  RowInserter insert_;
   Vocabulary forms_;
   std::size_t stored_ = 0;
 };
