@@ -20,7 +20,8 @@ CommandRunner add_profile_command(CLI::App& app) {
     request.compute_distances = false;
     const Analysis analysis = run_analysis(request);
     const FeatureTable& table = analysis.table;
-    const RowMatrix& numbers = *values == "counts" ? table.counts : *values == "z" ? table.z : table.relative;
+    const RowMatrix counts = *values == "counts" ? feature_counts(table) : RowMatrix();
+    const RowMatrix& numbers = *values == "counts" ? counts : *values == "z" ? table.z : table.relative;
     write_output(options->output, [&](std::ostream& out) {
       write_analysis_parameters(out, analysis);
       write_tsv_parameters(out, {{"values", *values == "counts"     ? "raw counts"

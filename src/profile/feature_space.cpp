@@ -1,6 +1,7 @@
 #include "profile/feature_space.h"
 
 #include <algorithm>
+#include <cmath>
 #include <cstdint>
 #include <string_view>
 #include <unordered_set>
@@ -125,7 +126,6 @@ FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpace
 
   const auto rows = static_cast<Eigen::Index>(kept.size());
   const auto cols = static_cast<Eigen::Index>(table.features.size());
-  table.counts = zero_matrix<RowMatrix>(rows, cols);
   table.relative = zero_matrix<RowMatrix>(rows, cols);
   for (Eigen::Index r = 0; r < rows; ++r) {
     const SegmentCounts& segment = profile.segments[kept[static_cast<std::size_t>(r)]];
@@ -136,12 +136,20 @@ FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpace
     for (const auto& [id, count] : segment.counts) {
       const std::int64_t c = column_of[id];
       if (c < 0) continue;
-      table.counts(r, c) = count;
       table.relative(r, c) = count / denominator;
     }
   }
   standardise(table);
   return table;
+}
+
+RowMatrix feature_counts(const FeatureTable& table) {
+  RowMatrix counts(table.relative.rows(), table.relative.cols());
+  for (Eigen::Index r = 0; r < counts.rows(); ++r) {
+    const double total = static_cast<double>(table.segment_totals[static_cast<std::size_t>(r)]);
+    for (Eigen::Index c = 0; c < counts.cols(); ++c) counts(r, c) = std::round(table.relative(r, c) * total);
+  }
+  return counts;
 }
 
 }  // namespace manicule

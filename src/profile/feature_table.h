@@ -1,7 +1,6 @@
 // FeatureTable: the dense segments x features numbers every measure works on.
 // Rows are the segments that passed the minimum size, in the order they were added;
 // columns are the selected features, most frequent first (rank order).
-//  - counts:   raw occurrences
 //  - relative: count / the segment's total feature occurrences (all tokens for words, all
 //              n-grams for n-grams), NOT over the selected features only, so a word's share
 //              does not change with how many other words are selected
@@ -9,6 +8,9 @@
 //              (divisor n - 1, as R's sd() and numpy's std(ddof=1))
 //  - z:        (relative - mean) / sd; defined as 0 where sd is 0 (a feature with the same
 //              relative frequency in every segment, or a table of one segment), never NaN
+// The raw counts are not kept (feature_counts() gives them back): every measure works on
+// relative frequencies or z-scores, and an analysis of the plays spared 16 MiB of fresh
+// memory, which costs page faults on a virtual machine.
 #pragma once
 #include <cstddef>
 #include <string>
@@ -48,7 +50,6 @@ struct FeatureTable {
   std::vector<std::string> features;        // forms, rank order
   std::vector<std::size_t> feature_ranks;   // 1-based rank of each column
   std::vector<std::size_t> feature_totals;  // occurrences over the table's segments
-  RowMatrix counts;
   RowMatrix relative;
   Eigen::VectorXd mean;
   Eigen::VectorXd sd;
@@ -58,6 +59,10 @@ struct FeatureTable {
   std::size_t segment_count() const { return segment_ids.size(); }
   std::size_t feature_count() const { return features.size(); }
 };
+
+// The raw counts: relative x the segment's total, rounded (exact: a count is an integer far
+// below 2^53, and relative is its quotient correctly rounded).
+RowMatrix feature_counts(const FeatureTable& table);
 
 // Fills mean, sd and z from relative (see above) and counts the zero-variance features.
 void standardise(FeatureTable& table);

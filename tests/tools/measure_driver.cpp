@@ -175,7 +175,7 @@ void print_matrix(const std::vector<std::string>& rows, const std::vector<std::s
 void run_profile(const Options& o) {
   const FeatureTable t = build_feature_table(read_token_profile(o), feature_options(o));
   const std::string table = get(o, "table", "relative");
-  if (table == "counts") print_matrix(t.segment_ids, t.features, t.counts);
+  if (table == "counts") print_matrix(t.segment_ids, t.features, feature_counts(t));
   if (table == "relative") print_matrix(t.segment_ids, t.features, t.relative);
   if (table == "z") print_matrix(t.segment_ids, t.features, t.z);
   if (table == "stats") {
