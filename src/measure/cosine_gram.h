@@ -1,13 +1,14 @@
 // cosine_distances_by_gram: 1 - cos(x_i, x_j) for every pair of rows, from one symmetric
-// rank-k product (BLAS dsyrk) of the length-normalised rows: the Gram matrix of n rows is
-// the one cubic step, and an optimised BLAS (OpenBLAS on Debian, which picks the CPU's
-// widest vector unit at run time and uses every core) does it several times faster than
-// generic compiled code. A row of length 0 has no direction: its distance is 0 to another
-// zero row and 1 to every other row, never NaN. Fills only the strict lower triangle of
-// `out` (n x n); values below 64 machine epsilons (rounding noise of the dot product, as
-// for identical rows) are set to 0, and values are capped at 2. `threads` bounds the
-// post-processing; BLAS threads follow the BLAS library's own setting. The BLAS is opened
-// at the first call (dlopen); without one, Eigen's own product does the work, slower.
+// rank-k product (BLAS dsyrk) of the rows, each dot product then divided by the two rows'
+// lengths: the Gram matrix of n rows is the one cubic step, and an optimised BLAS
+// (OpenBLAS on Debian, which picks the CPU's widest vector unit at run time and uses every
+// core) does it several times faster than generic compiled code. A row of length 0 has no
+// direction: its distance is 0 to another zero row and 1 to every other row, never NaN.
+// Fills only the strict lower triangle of `out` (n x n); values below 64 machine epsilons
+// (rounding noise of the dot product, as for identical rows) are set to 0, and values are
+// capped at 2. `threads` bounds the post-processing; BLAS threads follow the BLAS
+// library's own setting. The BLAS is opened at the first call (dlopen); without one,
+// Eigen's own product does the work, slower.
 #pragma once
 
 #include <Eigen/Dense>
