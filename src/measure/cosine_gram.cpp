@@ -35,6 +35,8 @@ DsyrkFunction find_dsyrk() {
 
 }  // namespace
 
+void open_blas() { find_dsyrk(); }
+
 void let_blas_threads_sleep_when_idle() {
   // OpenBLAS reads it when it is loaded (at the first Gram matrix); a value the user set
   // is kept.

@@ -19,6 +19,10 @@ namespace manicule {
 
 void cosine_distances_by_gram(const RowMatrix& rows, unsigned threads, Eigen::MatrixXd& out);
 
+// Opens the BLAS now (it is otherwise opened at the first Gram matrix): some 5.5 ms of
+// loading that a caller can do on another thread while other work goes on. Thread-safe.
+void open_blas();
+
 // Process-wide, for a program's start before other threads (the command line calls it; a
 // host embedding the library keeps its own environment): OpenBLAS's idle threads spin on
 // sched_yield for some 2^28 cycles after each call, taking a core from the distance loops

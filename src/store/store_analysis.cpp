@@ -1,10 +1,13 @@
 #include "store/store_analysis.h"
 
+#include <future>
+
 #include "attribution/attribute.h"
 #include "attribution/candidate_ranking.h"
 #include "attribution/segment_roles.h"
 #include "core/error.h"
 #include "core/facade.h"
+#include "measure/cosine_gram.h"
 #include "store/analysis_tables.h"
 #include "store/store_settings.h"
 #include "store/stored_corpus.h"
@@ -98,6 +101,10 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
     }
   }
 
+  // Cosine measures take their Gram matrix from the BLAS: it is opened while the corpus loads.
+  std::future<void> blas;
+  if (request.measure == DistanceMeasure::cosine_delta || request.measure == DistanceMeasure::cosine)
+    blas = std::async(std::launch::async, open_blas);
   StoredCorpus stored = load_stored_corpus(db, settings_id, request.features, filter, selection,
                                            request.feature_space.min_segment_tokens, fresh);
   result.files = stored.corpus.files.size();
@@ -108,6 +115,7 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
                     std::to_string(request.feature_space.min_segment_tokens) +
                     " words pass the filter; an analysis needs two (lower --min-tokens, widen the filter, or run batch "
                     "over more files)");
+  if (blas.valid()) blas.get();
   Request analysis_request = request;
   analysis_request.compute_distances = true;
   Analysis analysis = analyse_corpus(analysis_request, stored.corpus);
