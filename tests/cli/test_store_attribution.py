@@ -9,7 +9,8 @@ linked by @decls) and how certain the edition is, and so which letters are quest
 numpy and SciPy, over the features the analysis stored and z-scores clipped to +-2 (the
 attribution layer's default z limit, docs/attribution.md), for each candidate's distance
 under the weighted-centroid rule, the ranking and the margin, and each candidate's nearest
-single letter (tests/pylib/attribution_reference.py).
+single letter (tests/pylib/attribution_reference.py). batch --analyse --attribute on a new
+store (which analyses the counts just read, from memory) must give those same rows.
 """
 import json
 import os
@@ -94,5 +95,20 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check(nearest == names[j] and mtest.close(nearest_distance, d[i, j], rel=1e-9, abs_=1e-12),
                     "%s / %s: nearest %s %.6f, SciPy %s %.6f" % (segment, candidate, nearest, nearest_distance,
                                                                    names[j], d[i, j]))
+
+    # batch --analyse --attribute on a new store analyses the counts it has just read, from
+    # memory: its attributions are those checked against numpy and SciPy above.
+    fresh = os.path.join(tmp, "fresh.sqlite")
+    mtest.run(["batch", letters, "--store", fresh, "--unit", "letter", "--quiet", "--analyse", "--attribute",
+               "--min-tokens", "200"])
+    fresh_run, _ = storecheck.latest_analysis(fresh)
+    db = storecheck.connect(fresh)
+    fresh_rows = db.execute("SELECT segment, rank, candidate, distance, nearest_segment, nearest_distance, margin, "
+                            "stability FROM attributions WHERE run_id = ? ORDER BY segment, rank", (fresh_run,)).fetchall()
+    db.close()
+    mtest.check(len(fresh_rows) == len(rows) and all(
+        a[:3] == b[:3] and a[4] == b[4] and all(mtest.close(x, y, rel=1e-12, abs_=1e-15) for x, y in
+                                                  ((a[3], b[3]), (a[5], b[5]), (a[6], b[6]), (a[7], b[7])))
+        for a, b in zip(fresh_rows, rows)), "batch --analyse --attribute: %r, checked above: %r" % (fresh_rows, rows))
 
 mtest.done()
