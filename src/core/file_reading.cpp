@@ -57,13 +57,13 @@ FileReading read_file(const std::string& file, const Request& request, const Sel
     result.sha256 = digest.sha256;
     result.bytes = digest.bytes;
     ProfileBuilder builder(request.features);
+    // Distinct words: for word features they are the segment's features; otherwise they
+    // are interned here, a word counting once per segment (no allocation per token).
+    const bool words_are_features = request.features.kind == FeatureKind::word;
     // A guess at the distinct words: the plays and novels of ../shared/corpora have one per
     // 40-120 bytes of XML; a low guess costs a rehash or two, a high one a larger table.
     // Capped: vocabulary grows far slower than text, and a file of gigabytes must not get
     // a table of its size (a bigger vocabulary still fits, by doubling).
-    // Distinct words: for word features they are the segment's features; otherwise they
-    // are interned here, a word counting once per segment (no allocation per token).
-    const bool words_are_features = request.features.kind == FeatureKind::word;
     constexpr std::size_t kMostExpected = std::size_t{1} << 16;
     if (words_are_features) builder.expect_features(std::min<std::size_t>(result.bytes / 64, kMostExpected));
     Vocabulary words;

@@ -75,7 +75,7 @@ Eigen::MatrixXd pairwise_distances(const RowMatrix& rows, DistanceMeasure measur
       finish(out, 1.0, true);
       break;
     case DistanceMeasure::cosine_delta:  // Smith & Aldridge 2011: cosine on z
-    case DistanceMeasure::cosine:
+    case DistanceMeasure::cosine:       // (uses_gram_matrix names these two)
       cosine_distances_by_gram(rows, options.threads, out);
       finish(out, 1.0, false);
       break;
@@ -85,6 +85,10 @@ Eigen::MatrixXd pairwise_distances(const RowMatrix& rows, DistanceMeasure measur
       break;
   }
   return out;
+}
+
+bool uses_gram_matrix(DistanceMeasure measure) {
+  return measure == DistanceMeasure::cosine_delta || measure == DistanceMeasure::cosine;
 }
 
 DistanceMatrix distance_matrix(const FeatureTable& table, DistanceMeasure measure,

@@ -31,6 +31,10 @@ struct DistanceMatrix {
 Eigen::MatrixXd pairwise_distances(const RowMatrix& rows, DistanceMeasure measure,
                                    const DistanceOptions& options = {});
 
+// Whether pairwise_distances takes this measure from a Gram matrix (the BLAS, opened at
+// the first one; open_blas() in cosine_gram.h opens it ahead).
+bool uses_gram_matrix(DistanceMeasure measure);
+
 // Picks table.z or table.relative as the measure requires.
 DistanceMatrix distance_matrix(const FeatureTable& table, DistanceMeasure measure,
                                const DistanceOptions& options = {});

@@ -28,16 +28,15 @@ bool stat_file(const std::string& path, std::uint64_t& size, std::int64_t& mtime
 namespace {
 
 // `path`, found by walking `folder`, relative to it with '/' between names. The walk
-// builds each path as the folder's own spelling, a separator and the names below it, so
-// the part after that prefix is the answer; std::filesystem's lexical rule is kept for
-// anything else (it costs microseconds a file: an unchanged archive's re-run is mostly
-// such per-file costs).
+// builds each path as the folder's own spelling, a separator and the names below it (never
+// "." or ".."), so the part after that prefix is the answer; std::filesystem's lexical
+// rule is kept for anything else (it costs microseconds a file: an unchanged archive's
+// re-run is mostly such per-file costs).
 std::string relative_to_folder(const std::string& path, const std::string& folder) {
   const bool ends_with_separator = !folder.empty() && folder.back() == '/';
   const std::size_t rest = folder.size() + (ends_with_separator ? 0 : 1);
   if (!folder.empty() && path.size() > rest && path.compare(0, folder.size(), folder) == 0 &&
-      (ends_with_separator || path[folder.size()] == '/') && path[rest] != '/' &&
-      path.find("/./", rest - 1) == std::string::npos && path.find("/../", rest - 1) == std::string::npos)
+      (ends_with_separator || path[folder.size()] == '/'))
     return path.substr(rest);
   return fs::path(path).lexically_relative(folder).generic_string();
 }

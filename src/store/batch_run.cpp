@@ -28,7 +28,7 @@ struct StoredFile {
   std::uint64_t size = 0;
   std::int64_t mtime_ns = 0;
   std::string sha256;
-  bool read = false;  // a reading of this content under these settings is stored
+  bool read = false;  // a reading of this content under these settings is stored (so sha256 is set)
   bool failed = false;
   std::string error;
 };
@@ -155,7 +155,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     const ArchiveFile& f = files[i];
     auto p = previous.find(f.path);
     if (!options.verify_hashes && p != previous.end() && p->second.size == f.size &&
-        p->second.mtime_ns == f.mtime_ns && !p->second.sha256.empty() && p->second.read) {
+        p->second.mtime_ns == f.mtime_ns && p->second.read) {
       ++counters.files_unchanged;
       if (p->second.failed) failing[f.path] = p->second.error;
       continue;

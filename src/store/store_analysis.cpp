@@ -8,6 +8,7 @@
 #include "core/error.h"
 #include "core/facade.h"
 #include "measure/cosine_gram.h"
+#include "measure/pairwise_distances.h"
 #include "store/analysis_tables.h"
 #include "store/store_settings.h"
 #include "store/stored_corpus.h"
@@ -103,8 +104,7 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
 
   // Cosine measures take their Gram matrix from the BLAS: it is opened while the corpus loads.
   std::future<void> blas;
-  if (request.measure == DistanceMeasure::cosine_delta || request.measure == DistanceMeasure::cosine)
-    blas = std::async(std::launch::async, open_blas);
+  if (uses_gram_matrix(request.measure)) blas = std::async(std::launch::async, open_blas);
   StoredCorpus stored = load_stored_corpus(db, settings_id, request.features, filter, selection,
                                            request.feature_space.min_segment_tokens, fresh);
   result.files = stored.corpus.files.size();

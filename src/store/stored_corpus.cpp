@@ -107,7 +107,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     counts.tokens = record.tokens;
     counts.feature_total = static_cast<std::size_t>(segments.int64_at(14));
     const std::size_t ordinal = static_cast<std::size_t>(segments.int64_at(3));
-    FeatureCounts* kept = fresh && record.tokens >= fresh->min_tokens ? fresh->find(file_sha256, ordinal) : nullptr;
+    FeatureCounts* kept = fresh ? fresh->find(file_sha256, ordinal) : nullptr;
     counts.counts = kept ? std::move(*kept) : decode_counts(segments.blob_at(15));
     for (const auto& [id, n] : counts.counts) {
       if (id >= used.size()) used.resize(id + 1, 0);
