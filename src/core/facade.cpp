@@ -1,12 +1,11 @@
 #include "core/facade.h"
 
 #include <algorithm>
-#include <numeric>
 #include <sstream>
 
 #include "core/error.h"
+#include "measure/nearest_rows.h"
 #include "measure/pairwise_distances.h"
-#include "measure/parallel_items.h"
 
 namespace manicule {
 
@@ -47,26 +46,12 @@ void throw_first_failure(const Corpus& corpus) {
 
 namespace {
 
-// The k nearest of each row, on `threads` threads. The matrix is symmetric, so row i is
-// read as column i: contiguous in Eigen's column-major storage.
-std::vector<std::vector<Neighbour>> nearest_neighbours(const Eigen::MatrixXd& d, const std::vector<std::size_t>& rows,
-                                                       std::size_t k, unsigned threads) {
-  std::vector<std::vector<Neighbour>> out(rows.size());
-  const std::size_t n = rows.size();
-  parallel_items(n, threads, [&](std::size_t i) {
-    const double* column = d.data() + static_cast<std::ptrdiff_t>(i) * d.rows();
-    std::vector<std::size_t> order(n);
-    std::iota(order.begin(), order.end(), 0);
-    order.erase(order.begin() + static_cast<std::ptrdiff_t>(i));
-    const std::size_t take = std::min(k, order.size());
-    // ties are broken by segment order, so results are repeatable
-    std::partial_sort(order.begin(), order.begin() + static_cast<std::ptrdiff_t>(take), order.end(),
-                      [&](std::size_t a, std::size_t b) {
-                        return column[a] < column[b] || (column[a] == column[b] && a < b);
-                      });
-    out[i].reserve(take);
-    for (std::size_t j = 0; j < take; ++j) out[i].push_back(Neighbour{rows[order[j]], column[order[j]]});
-  });
+// Row numbers of the measured table -> segments.
+std::vector<std::vector<Neighbour>> as_neighbours(const std::vector<std::vector<NearRow>>& nearest,
+                                                  const std::vector<std::size_t>& rows) {
+  std::vector<std::vector<Neighbour>> out(nearest.size());
+  for (std::size_t i = 0; i < nearest.size(); ++i)
+    for (const NearRow& r : nearest[i]) out[i].push_back(Neighbour{rows[r.row], r.distance});
   return out;
 }
 
@@ -135,8 +120,16 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
     DistanceResult result;
     result.measure = request.measure;
     result.rows = rows;
-    result.values = std::move(distance_matrix(table, request.measure, options).values);
-    result.nearest = nearest_neighbours(result.values, rows, request.neighbours, request.threads);
+    if (request.keep_distance_matrix || request.clustering.compute) {
+      result.values = std::move(distance_matrix(table, request.measure, options).values);
+      result.nearest = as_neighbours(nearest_in_matrix(result.values, request.neighbours, request.threads), rows);
+    } else {
+      const bool on_z = measure_info(request.measure).input == MeasureInput::z_scores;
+      NearestOptions nearest;
+      nearest.distance = options;
+      result.nearest = as_neighbours(
+          nearest_rows(on_z ? table.z : table.relative, request.measure, request.neighbours, nearest), rows);
+    }
     analysis.distances = std::move(result);
     const MeasureInfo& info = measure_info(request.measure);
     params.emplace_back("measure", std::string(info.name) + " (" + std::string(info.citation) + ")");

@@ -36,6 +36,10 @@ struct Request {
   FeatureSpaceOptions feature_space;  // rank range, culling, stop words, minimum size
   DistanceMeasure measure = DistanceMeasure::cosine_delta;
   bool compute_distances = true;
+  // false: of the distances only each segment's nearest are kept (DistanceResult::values
+  // stays empty), found without the n x n matrix where the measure allows (nearest_rows.h);
+  // a dendrogram still gets its matrix.
+  bool keep_distance_matrix = true;
   std::size_t neighbours = 5;         // nearest segments kept per segment
   bool compute_pca = false;
   PcaOptions pca;

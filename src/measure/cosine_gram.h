@@ -10,6 +10,10 @@
 // library's own setting. The BLAS is opened at the first call (dlopen); without one,
 // Eigen's own product does the work, slower.
 #pragma once
+#include <algorithm>
+#include <cstddef>
+#include <limits>
+#include <vector>
 
 #include <Eigen/Dense>
 
@@ -18,6 +22,35 @@
 namespace manicule {
 
 void cosine_distances_by_gram(const RowMatrix& rows, unsigned threads, Eigen::MatrixXd& out);
+
+// What turning dot products into cosine distances needs of the rows: 1 / length, and
+// which rows have length 0.
+struct RowLengths {
+  std::vector<double> inverse;  // 0 for a zero row
+  std::vector<char> zero;
+};
+RowLengths row_lengths(const RowMatrix& rows);
+
+// 1 - cos of rows `larger` > `smaller` from their dot product, as cosine_distances_by_gram
+// computes it (the same operations in the same order, so that a distance is the same bits
+// whichever way it was computed from the same dot product).
+inline double cosine_from_dot(double dot, const RowLengths& lengths, std::size_t larger, std::size_t smaller) {
+  constexpr double kRoundingNoise = 64 * std::numeric_limits<double>::epsilon();
+  const bool zero_larger = lengths.zero[larger];
+  const bool zero_smaller = lengths.zero[smaller];
+  double d = 1.0 - dot * lengths.inverse[larger] * lengths.inverse[smaller];
+  if (zero_larger || zero_smaller) d = zero_larger && zero_smaller ? 0.0 : 1.0;
+  // Below this, 1 - cos is rounding noise of the dot product (identical rows).
+  if (d < kRoundingNoise) d = 0.0;
+  return std::min(d, 2.0);
+}
+
+// The dot products of rows a_first .. a_first + a_count - 1 with rows b_first .. b_first +
+// b_count - 1: out[a + a_count * b] is row (a_first + a) . row (b_first + b), for an
+// a_count x b_count column-major `out` the caller provides. By the BLAS's dgemm when one is
+// found, else by Eigen's own product.
+void dot_products(const RowMatrix& rows, Eigen::Index a_first, Eigen::Index a_count, Eigen::Index b_first,
+                  Eigen::Index b_count, double* out);
 
 // Opens the BLAS now (it is otherwise opened at the first Gram matrix): some 5.5 ms of
 // loading that a caller can do on another thread while other work goes on. Thread-safe.

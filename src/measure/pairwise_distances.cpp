@@ -10,9 +10,7 @@
 
 namespace manicule {
 
-namespace {
-
-void check_input(const RowMatrix& rows) {
+void check_distance_input(const RowMatrix& rows) {
   if (rows.rows() < 2) {
     throw Error(ErrorKind::usage, "distances need at least two segments, not " +
                                       std::to_string(rows.rows()));
@@ -22,6 +20,8 @@ void check_input(const RowMatrix& rows) {
     throw Error(ErrorKind::usage, "the feature values hold NaN or infinity");
   }
 }
+
+namespace {
 
 // Eder's weights (n - i + 1) / n for the feature at rank position i = 1..n.
 RowMatrix weighted_by_rank(const RowMatrix& rows) {
@@ -49,7 +49,7 @@ void finish(Eigen::MatrixXd& out, double scale, bool take_root) {
 
 Eigen::MatrixXd pairwise_distances(const RowMatrix& rows, DistanceMeasure measure,
                                    const DistanceOptions& options) {
-  check_input(rows);
+  check_distance_input(rows);
   const Eigen::Index n = rows.rows();
   const double features = static_cast<double>(rows.cols());
   Eigen::MatrixXd out = zero_matrix<Eigen::MatrixXd>(n, n);

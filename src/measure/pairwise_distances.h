@@ -31,6 +31,10 @@ struct DistanceMatrix {
 Eigen::MatrixXd pairwise_distances(const RowMatrix& rows, DistanceMeasure measure,
                                    const DistanceOptions& options = {});
 
+// Refuses what pairwise_distances refuses: fewer than two rows, no column, NaN or infinity
+// (Error usage).
+void check_distance_input(const RowMatrix& rows);
+
 // Whether pairwise_distances takes this measure from a Gram matrix (the BLAS, opened at
 // the first one; open_blas() in cosine_gram.h opens it ahead).
 bool uses_gram_matrix(DistanceMeasure measure);

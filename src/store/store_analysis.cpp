@@ -118,6 +118,7 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   if (blas.valid()) blas.get();
   Request analysis_request = request;
   analysis_request.compute_distances = true;
+  analysis_request.keep_distance_matrix = false;  // the store keeps each segment's nearest only
   Analysis analysis = analyse_corpus(analysis_request, stored.corpus);
   std::vector<std::string> notes;
   std::vector<AttributionRow> attributions;

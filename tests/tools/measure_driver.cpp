@@ -14,6 +14,7 @@
 
 #include "core/error.h"
 #include "measure/bootstrap_consensus.h"
+#include "measure/nearest_rows.h"
 #include "measure/newick.h"
 #include "measure/pca.h"
 #include "profile/profile_builder.h"
@@ -27,6 +28,7 @@ const char* usage() {
   return "measure_driver COMMAND [--key value ...]\n"
          "  profile   --table counts|relative|z|stats|excluded|report\n"
          "  distance  --measure NAME [--threads T] [--repeat K] [--output none]\n"
+         "  nearest   --measure NAME [--k K] [--block ROWS] [--threads T]\n"
          "  pca       [--input z|relative] [--components K] [--top K] "
          "--table coordinates|variance|loadings|poles\n"
          "  linkage   --method ward|average|complete [--measure NAME] [--newick]\n"
@@ -225,6 +227,25 @@ void run_distance(const Options& o) {
   if (get(o, "output", "tsv") == "tsv") print_matrix(input.rows, input.rows, d);
 }
 
+// The k nearest rows of each row, computed as an archive's analysis does (nearest_rows.h);
+// --block sets the rows a block of dot products holds.
+void run_nearest(const Options& o) {
+  const DistanceMeasure measure = parse_distance_measure(get(o, "measure", "cosine-delta"));
+  const LabelledMatrix input =
+      measure_input(o, measure_info(measure).input == MeasureInput::z_scores);
+  NearestOptions options;
+  options.distance.threads = static_cast<unsigned>(get_size(o, "threads", 0));
+  options.block_rows = get_size(o, "block", 0);
+  const auto nearest = nearest_rows(input.values, measure, get_size(o, "k", 5), options);
+  std::printf("row\trank\tneighbour\tdistance\n");
+  for (std::size_t i = 0; i < nearest.size(); ++i)
+    for (std::size_t r = 0; r < nearest[i].size(); ++r) {
+      std::printf("%s\t%zu\t%s\t", input.rows[i].c_str(), r + 1, input.rows[nearest[i][r].row].c_str());
+      print_number(nearest[i][r].distance);
+      std::printf("\n");
+    }
+}
+
 void run_pca(const Options& o) {
   PcaOptions options;
   options.input = get(o, "input", "z") == "z" ? PcaInput::z_scores : PcaInput::relative_frequencies;
@@ -319,6 +340,7 @@ int main(int argc, char** argv) {
     const Options options = parse_options(argc, argv);
     if (command == "profile") run_profile(options);
     else if (command == "distance") run_distance(options);
+    else if (command == "nearest") run_nearest(options);
     else if (command == "pca") run_pca(options);
     else if (command == "linkage") run_linkage(options);
     else if (command == "consensus") run_consensus(options);

@@ -1,0 +1,95 @@
+"""The k nearest rows of each row as an archive's analysis finds them (src/measure/
+nearest_rows.h: dot products a block of rows at a time, never the whole distance matrix),
+for many block sizes and thread counts, against SciPy's cosine distance over all pairs
+(scipy.spatial.distance.cdist) and Burrows's Delta (cityblock / number of features).
+
+The matrix holds the cases the block loop must get right: rows that are equal (ties between
+two neighbours), a row that is a multiple of another (distance 0 up to rounding), two zero
+rows (the documented rule of src/measure/cosine_gram.h: distance 0 between them, 1 to every
+other row, where SciPy gives NaN), and more rows than most block sizes, so that pairs fall
+inside one block, across two blocks, and in a last block that is shorter."""
+import os
+import sys
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import numpy as np  # noqa: E402
+from scipy.spatial.distance import cdist  # noqa: E402
+
+import mtest  # noqa: E402
+from measure_reference import driver, require_driver, tempdir, write_matrix  # noqa: E402
+
+require_driver()
+
+rng = np.random.default_rng(20261202)
+X = rng.standard_normal((41, 23))
+X[7] = X[3]          # equal rows: every row is as near to 3 as to 7
+X[12] = 2.5 * X[5]   # same direction: cosine distance 0 (SciPy: rounding noise)
+X[20] = 0.0          # zero rows
+X[33] = 0.0
+ids = ["r%02d" % i for i in range(len(X))]
+features = ["f%d" % i for i in range(X.shape[1])]
+TOLERANCE = 1e-12  # absolute, on distances of order 1; the dot products are summed in another order
+
+
+def cosine_reference(x):
+    """scipy.spatial.distance.cdist(x, x, 'cosine'), with the zero-row rule and the
+    rounding floor of src/measure/cosine_gram.h (below 64 machine epsilons -> 0)."""
+    with np.errstate(invalid="ignore", divide="ignore"):
+        d = cdist(x, x, "cosine")
+    zero = ~x.any(axis=1)
+    d[zero, :] = 1.0
+    d[:, zero] = 1.0
+    d[np.ix_(zero, zero)] = 0.0
+    d[d < 64 * np.finfo(float).eps] = 0.0
+    return d
+
+
+def check_nearest(text, reference, k, what):
+    by_row = {}
+    for line in text.splitlines()[1:]:
+        row, rank, neighbour, distance = line.split("\t")
+        by_row.setdefault(row, []).append((int(rank), neighbour, float(distance)))
+    mtest.check(sorted(by_row) == ids, what + ": a list for every row")
+    n = len(ids)
+    for i, row in enumerate(ids):
+        ours = by_row[row]
+        expected_k = min(k, n - 1)
+        mtest.check([r for r, _, _ in ours] == list(range(1, expected_k + 1)), what + ": ranks of " + row)
+        others = sorted((reference[i, j], j) for j in range(n) if j != i)
+        for (rank, neighbour, distance), (want, _) in zip(ours, others):
+            j = ids.index(neighbour)
+            mtest.check(j != i, what + ": " + row + " is not its own neighbour")
+            # the distance is SciPy's for that pair, and the one SciPy ranks at that place
+            mtest.check(abs(distance - reference[i, j]) <= TOLERANCE,
+                        "%s: %s-%s %.17g, SciPy %.17g" % (what, row, neighbour, distance, reference[i, j]))
+            mtest.check(abs(distance - want) <= TOLERANCE, "%s: rank %d of %s" % (what, rank, row))
+        # nearest first; equal distances in row order (the documented tie rule)
+        for (_, a, da), (_, b, db) in zip(ours, ours[1:]):
+            mtest.check(da < db or (da == db and a < b), what + ": order of " + row)
+        # where SciPy's k-th and (k+1)-th differ clearly, the same set of neighbours
+        if expected_k < n - 1 and others[expected_k][0] - others[expected_k - 1][0] > TOLERANCE:
+            mtest.check({ids.index(nb) for _, nb, _ in ours} == {j for _, j in others[:expected_k]},
+                        what + ": neighbours of " + row)
+
+
+with tempdir() as directory:
+    path = write_matrix(directory, "x.tsv", ids, features, X)
+    cosine = cosine_reference(X)
+    # ties the construction promises, checked on the reference itself
+    mtest.check(cosine[20, 33] == 0 and cosine[20, 0] == 1 and abs(cosine[5, 12]) <= TOLERANCE,
+                "reference: zero rows and the multiple")
+    for block in (1, 4, 13, 40, 41, 0):  # 0: the size the library picks (one block here)
+        for threads in (1, 2):
+            for k in (5, 60):
+                out = driver(["nearest", "--measure", "cosine-delta", "--matrix", path, "--k", k,
+                              "--block", block, "--threads", threads])
+                check_nearest(out, cosine, k, "cosine-delta block %d threads %d k %d" % (block, threads, k))
+    # the same rows as relative frequencies: 'cosine' takes the same path
+    out = driver(["nearest", "--measure", "cosine", "--matrix", path, "--k", 5, "--block", 7])
+    check_nearest(out, cosine, 5, "cosine block 7")
+    # a measure without a Gram matrix: from its full matrix (Burrows 2002: mean absolute z difference)
+    burrows = cdist(X, X, "cityblock") / X.shape[1]
+    out = driver(["nearest", "--measure", "burrows-delta", "--matrix", path, "--k", 5])
+    check_nearest(out, burrows, 5, "burrows-delta")
+
+mtest.done()
