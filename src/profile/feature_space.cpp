@@ -139,7 +139,7 @@ FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpace
       table.relative(r, c) = count / denominator;
     }
   }
-  standardise(table);
+  standardise(table, options.keep_relative);
   return table;
 }
 

@@ -3,7 +3,8 @@
 // columns are the selected features, most frequent first (rank order).
 //  - relative: count / the segment's total feature occurrences (all tokens for words, all
 //              n-grams for n-grams), NOT over the selected features only, so a word's share
-//              does not change with how many other words are selected
+//              does not change with how many other words are selected; empty when the
+//              table was built without keep_relative (feature_space.h)
 //  - mean, sd: per feature over the table's segments; sd is the sample standard deviation
 //              (divisor n - 1, as R's sd() and numpy's std(ddof=1))
 //  - z:        (relative - mean) / sd; defined as 0 where sd is 0 (a feature with the same
@@ -65,6 +66,7 @@ struct FeatureTable {
 RowMatrix feature_counts(const FeatureTable& table);
 
 // Fills mean, sd and z from relative (see above) and counts the zero-variance features.
-void standardise(FeatureTable& table);
+// Without keep_relative, z takes relative's memory and relative is left empty.
+void standardise(FeatureTable& table, bool keep_relative = true);
 
 }  // namespace manicule

@@ -119,6 +119,11 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   Request analysis_request = request;
   analysis_request.compute_distances = true;
   analysis_request.keep_distance_matrix = false;  // the store keeps each segment's nearest only
+  // Nothing reads the relative frequencies when the measure (also the attribution's) and
+  // the PCA take z-scores: the z-scores are computed in their place.
+  analysis_request.feature_space.keep_relative =
+      measure_info(request.measure).input != MeasureInput::z_scores ||
+      (request.compute_pca && request.pca.input == PcaInput::relative_frequencies);
   Analysis analysis = analyse_corpus(analysis_request, stored.corpus);
   std::vector<std::string> notes;
   std::vector<AttributionRow> attributions;

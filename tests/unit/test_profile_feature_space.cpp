@@ -43,14 +43,23 @@ TEST_CASE("features rank by total count, ties by UTF-8 bytes", "[profile]") {
 
 TEST_CASE("a zero-variance feature gets z = 0, never NaN", "[profile][edge]") {
   const CountProfile p = profile_of({{"s1", {"x", "y"}}, {"s2", {"x", "z"}}, {"s3", {"x", "y"}}});
-  const FeatureTable t = build_feature_table(p, small());
+  // Both ways of building: beside the relative frequencies, and in their place.
+  const bool keep_relative = GENERATE(true, false);
+  FeatureSpaceOptions options = small();
+  options.keep_relative = keep_relative;
+  const FeatureTable t = build_feature_table(p, options);
   REQUIRE(t.features.front() == "x");  // 0.5 in every segment
   CHECK(t.report.zero_variance == 1);
   CHECK(t.sd[0] == 0.0);
   CHECK(t.z.allFinite());
   CHECK(t.z.col(0).isZero());
   // y: 0.5, 0, 0.5 -> mean 1/3, sample sd sqrt(1/12); z of s1 = (1/6)/sqrt(1/12) = 1/sqrt(3)
+  CHECK(t.mean[1] == Approx(1.0 / 3.0));
+  CHECK(t.sd[1] == Approx(std::sqrt(1.0 / 12.0)));
   CHECK(t.z(0, 1) == Approx(1.0 / std::sqrt(3.0)));
+  CHECK(t.z(1, 1) == Approx(-2.0 / std::sqrt(3.0)));  // (0 - 1/3) / sqrt(1/12)
+  CHECK(t.relative.size() == (keep_relative ? t.z.size() : 0));
+  if (keep_relative) CHECK(t.relative(1, 1) == 0.0);
 }
 
 TEST_CASE("asking for more features than exist uses those that exist", "[profile][edge]") {
@@ -68,7 +77,9 @@ TEST_CASE("asking for more features than exist uses those that exist", "[profile
 }
 
 TEST_CASE("a single segment gives a table whose z-scores are 0", "[profile][edge]") {
-  const FeatureTable t = build_feature_table(profile_of({{"only", {"a", "b", "a"}}}), small());
+  FeatureSpaceOptions options = small();
+  options.keep_relative = GENERATE(true, false);
+  const FeatureTable t = build_feature_table(profile_of({{"only", {"a", "b", "a"}}}), options);
   CHECK(t.segment_count() == 1);
   CHECK(t.report.zero_variance == 2);
   CHECK(t.z.isZero());
