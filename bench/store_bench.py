@@ -11,6 +11,10 @@ from the kernel's accounting of the child process (wait4):
   rerun      batch --analyse again, nothing changed (no XML read, stored analysis reused)
   rerun-read batch again without --analyse (what a re-run costs to find that nothing changed)
   baseline   /usr/bin/python3 bench/baseline_archive.py (lxml + scikit-learn, one process)
+  read-only  manicule segments over the same folder, output thrown away: reading, selection,
+             tokens and counts on all cores with nothing stored and nothing analysed (how
+             fast the first run could be if the store and the analysis cost nothing)
+  xmllint    xmllint --stream --noout over the same files: libxml2 parsing alone, one core
 Rounds are interleaved so that a busy moment on a shared machine hits every variant alike;
 the medians and their ratios are printed as Markdown, with the load average before and after.
 Files are in the page cache after the first round, for every variant alike.
@@ -63,6 +67,7 @@ def main():
     for name, unit in corpora:
         folder = os.path.join(CORPORA, name)
         results = {}
+        xml_files = sorted(os.path.join(d, f) for d, _, fs in os.walk(folder) for f in fs if f.endswith(".xml"))
         with tempfile.TemporaryDirectory() as tmp:
             store = os.path.join(tmp, "store.sqlite")
             batch = [binary, "batch", folder, "--store", store, "--unit", unit, "--quiet"]
@@ -74,6 +79,8 @@ def main():
                     ("rerun", batch + ["--analyse"], False),
                     ("rerun-read", batch, False),
                     ("baseline", ["/usr/bin/python3", BASELINE, folder, unit, os.path.join(tmp, "base.tsv")], False),
+                    ("read-only", [binary, "segments", folder, "--unit", unit], False),
+                    ("xmllint", ["xmllint", "--stream", "--noout"] + xml_files, False),
                 ]:
                     if wanted and variant not in wanted:
                         continue
@@ -89,7 +96,7 @@ def main():
         for v, (wall, cpu, rss) in med.items():
             print("| %s | %.3f | %.2f | %.0f | %s |" % (v, wall, cpu, rss, " ".join("%.3f" % r[0] for r in results[v])))
         ratios = [("baseline", "first"), ("first", "rerun"), ("first", "rerun-read"), ("first-1", "first"),
-                  ("first-1core", "first")]
+                  ("first-1core", "first"), ("baseline", "read-only"), ("first", "read-only"), ("read-only", "xmllint")]
         print("\n" + "; ".join("%s / %s: %.2fx (CPU %.2fx)" % (a, b, med[a][0] / med[b][0], med[a][1] / med[b][1])
                                 for a, b in ratios if a in med and b in med))
     print("\nload average after: %s" % load())
