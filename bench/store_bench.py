@@ -14,6 +14,9 @@ from the kernel's accounting of the child process (wait4):
   read-only  manicule segments over the same folder, output thrown away: reading, selection,
              tokens and counts on all cores with nothing stored and nothing analysed (how
              fast the first run could be if the store and the analysis cost nothing)
+  read-only-1core  the same on one thread pinned to one core: with read-only, how much two
+             cores of this machine give to work that is perfectly parallel (the ceiling of
+             the first run's two-core ratio)
   xmllint    xmllint --stream --noout over the same files: libxml2 parsing alone, one core
 Rounds are interleaved so that a busy moment on a shared machine hits every variant alike;
 the medians and their ratios are printed as Markdown, with the load average before and after.
@@ -80,6 +83,8 @@ def main():
                     ("rerun-read", batch, False),
                     ("baseline", ["/usr/bin/python3", BASELINE, folder, unit, os.path.join(tmp, "base.tsv")], False),
                     ("read-only", [binary, "segments", folder, "--unit", unit], False),
+                    ("read-only-1core", ["taskset", "-c", "0", binary, "segments", folder, "--unit", unit,
+                                         "--threads", "1"], False),
                     ("xmllint", ["xmllint", "--stream", "--noout"] + xml_files, False),
                 ]:
                     if wanted and variant not in wanted:
@@ -96,7 +101,8 @@ def main():
         for v, (wall, cpu, rss) in med.items():
             print("| %s | %.3f | %.2f | %.0f | %s |" % (v, wall, cpu, rss, " ".join("%.3f" % r[0] for r in results[v])))
         ratios = [("baseline", "first"), ("first", "rerun"), ("first", "rerun-read"), ("first-1", "first"),
-                  ("first-1core", "first"), ("baseline", "read-only"), ("first", "read-only"), ("read-only", "xmllint")]
+                  ("first-1core", "first"), ("baseline", "read-only"), ("first", "read-only"), ("read-only-1core", "read-only"),
+                  ("read-only", "xmllint")]
         print("\n" + "; ".join("%s / %s: %.2fx (CPU %.2fx)" % (a, b, med[a][0] / med[b][0], med[a][1] / med[b][1])
                                 for a, b in ratios if a in med and b in med))
     print("\nload average after: %s" % load())
