@@ -16,13 +16,10 @@ namespace {
 // Input feature id -> output feature id, for one settings.
 std::vector<FeatureId> map_vocabulary(Database& input, std::int64_t input_settings, StoreVocabulary& out_vocabulary) {
   std::vector<FeatureId> map;
-  Statement forms = input.prepare("SELECT feature_id, form FROM vocabulary WHERE settings_id = ?1 ORDER BY feature_id");
-  forms.bind(1, input_settings);
-  while (forms.step()) {
-    auto id = static_cast<std::size_t>(forms.int64_at(0));
+  for_each_stored_form(input, input_settings, [&](FeatureId id, std::string_view form) {
     if (id >= map.size()) map.resize(id + 1, UINT32_MAX);
-    map[id] = out_vocabulary.id_of(forms.blob_at(1));
-  }
+    map[id] = out_vocabulary.id_of(form);
+  });
   out_vocabulary.write_new();
   return map;
 }

@@ -68,11 +68,11 @@ CREATE TABLE IF NOT EXISTS segments (
   counts BLOB NOT NULL,
   PRIMARY KEY (settings_id, sha256, ordinal)
 );
-CREATE TABLE IF NOT EXISTS vocabulary (
+CREATE TABLE IF NOT EXISTS vocabulary_blocks (
   settings_id INTEGER NOT NULL,
-  feature_id INTEGER NOT NULL,
-  form TEXT NOT NULL,
-  PRIMARY KEY (settings_id, feature_id)
+  first_feature_id INTEGER NOT NULL,
+  forms TEXT NOT NULL,
+  PRIMARY KEY (settings_id, first_feature_id)
 ) WITHOUT ROWID;
 CREATE TABLE IF NOT EXISTS runs (
   run_id INTEGER PRIMARY KEY,
@@ -149,6 +149,9 @@ CREATE TABLE IF NOT EXISTS attributions (
   warnings TEXT NOT NULL,
   PRIMARY KEY (run_id, segment, rank)
 );
+CREATE VIEW IF NOT EXISTS vocabulary AS
+  SELECT b.settings_id, b.first_feature_id + j.key AS feature_id, j.value AS form
+  FROM vocabulary_blocks b, json_each(b.forms) j;
 CREATE VIEW IF NOT EXISTS file_list AS
   SELECT f.path, r.settings_id, r.status, COALESCE(f.read_error, r.error) AS error, r.title, r.author,
          r.date, r.year, r.language, r.segments, r.tokens, f.size, f.sha256

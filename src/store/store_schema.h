@@ -15,7 +15,7 @@ namespace manicule::store {
 // Raised whenever a table changes shape or a table, index or view is added: a store of
 // another format is refused, and an existing store of this format is not given the schema
 // again (open_store runs it on a new store only).
-inline constexpr int kStoreFormat = 1;
+inline constexpr int kStoreFormat = 2;  // 2: the vocabulary in blocks (store_vocabulary.h)
 
 // Opens the store (creating file and tables when `create`), locks it and checks its format.
 std::unique_ptr<Database> open_store(const std::string& path, bool create);

@@ -7,6 +7,7 @@
 
 #include "core/error.h"
 #include "store/count_blob.h"
+#include "store/store_vocabulary.h"
 
 namespace manicule::store {
 
@@ -135,12 +136,9 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     std::size_t used_count = 0;
     for (char u : used) used_count += u != 0;
     profile.vocabulary.reserve(used_count);
-    Statement forms = db.prepare("SELECT feature_id, form FROM vocabulary WHERE settings_id = ?1 ORDER BY feature_id");
-    forms.bind(1, settings_id);
-    while (forms.step()) {
-      auto id = static_cast<std::size_t>(forms.int64_at(0));
-      if (id < used.size() && used[id]) compact[id] = profile.vocabulary.intern(forms.blob_at(1));
-    }
+    for_each_stored_form(db, settings_id, [&](FeatureId id, std::string_view form) {
+      if (id < used.size() && used[id]) compact[id] = profile.vocabulary.intern(form);
+    });
   }
   for (auto& s : profile.segments)
     for (auto& entry : s.counts) {
