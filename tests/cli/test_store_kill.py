@@ -1,8 +1,12 @@
 """Archive store: a batch run killed with SIGKILL at several points and started again ends
 with exactly the tables of an uninterrupted run (no duplicate, no missing row).
 
-30 plays, one transaction per 3 files. The victim run prints each file it finishes
-(--verbose); it is killed right after it finished its 1st, 4th, 6th, 5th and 2nd file
+30 plays of 120-300 KB, one transaction per 3 files. The victim run prints each file it finishes
+(--verbose) and reads on one thread (--threads 1), so that this test, on the other core,
+sees each line while the rest of the run is still ahead: with both cores reading 20 small
+plays, the run could end before the kill arrived on a loaded CI machine (seen once). (The uninterrupted
+reference run reads on all cores: the tables must not depend on it.) The victim is killed
+right after it finished its 1st, 4th, 6th, 5th and 2nd file
 (each time started again on the same store, so it resumes from what the previous one
 committed, and the kills land inside and between transactions), then once right at the
 start, and finally allowed to finish. Outside references: SQLite's
@@ -38,7 +42,7 @@ def killed_after(args, files_done):
 
 with tempfile.TemporaryDirectory() as tmp:
     archive = os.path.join(tmp, "archive")
-    storecheck.copy_plays(storecheck.pick_plays(30, max_size=120000), archive)
+    storecheck.copy_plays(storecheck.pick_plays(30, min_size=120000, max_size=300000), archive)
     args = ["batch", archive, "--unit", "speaker", "--commit-every", "3", "--verbose", "--quiet"]
 
     reference = os.path.join(tmp, "reference.sqlite")
@@ -49,7 +53,7 @@ with tempfile.TemporaryDirectory() as tmp:
     victim = os.path.join(tmp, "victim.sqlite")
     kills = 0
     for point in (1, 4, 6, 5, 2, 0):
-        killed_after(args + ["--store", victim], point)
+        killed_after(args + ["--store", victim, "--threads", "1"], point)
         kills += 1
         if os.path.exists(victim):
             mtest.check(storecheck.integrity(victim) == "ok", "store damaged after kill at file %d" % point)
