@@ -124,11 +124,10 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
       result.values = std::move(distance_matrix(table, request.measure, options).values);
       result.nearest = as_neighbours(nearest_in_matrix(result.values, request.neighbours, request.threads), rows);
     } else {
-      const bool on_z = measure_info(request.measure).input == MeasureInput::z_scores;
       NearestOptions nearest;
       nearest.distance = options;
       result.nearest = as_neighbours(
-          nearest_rows(on_z ? table.z : table.relative, request.measure, request.neighbours, nearest), rows);
+          nearest_rows(measure_rows(table, request.measure), request.measure, request.neighbours, nearest), rows);
     }
     analysis.distances = std::move(result);
     const MeasureInfo& info = measure_info(request.measure);

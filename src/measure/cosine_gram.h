@@ -31,11 +31,13 @@ struct RowLengths {
 };
 RowLengths row_lengths(const RowMatrix& rows);
 
-// 1 - cos of rows `larger` > `smaller` from their dot product, as cosine_distances_by_gram
-// computes it (the same operations in the same order, so that a distance is the same bits
-// whichever way it was computed from the same dot product).
-inline double cosine_from_dot(double dot, const RowLengths& lengths, std::size_t larger, std::size_t smaller) {
+// 1 - cos of rows a and b from their dot product, in [0, 2]. The larger row's length is
+// applied first whichever way round they are given, so that a distance is the same bits
+// whether it comes from the full matrix or from blocks of the same dot product.
+inline double cosine_from_dot(double dot, const RowLengths& lengths, std::size_t a, std::size_t b) {
   constexpr double kRoundingNoise = 64 * std::numeric_limits<double>::epsilon();
+  const std::size_t larger = std::max(a, b);
+  const std::size_t smaller = std::min(a, b);
   const bool zero_larger = lengths.zero[larger];
   const bool zero_smaller = lengths.zero[smaller];
   double d = 1.0 - dot * lengths.inverse[larger] * lengths.inverse[smaller];

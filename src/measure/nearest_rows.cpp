@@ -95,10 +95,7 @@ std::vector<std::vector<NearRow>> nearest_rows(const RowMatrix& rows, DistanceMe
         for (std::size_t c = 0; c < count; ++c) {
           const std::size_t i = first + c;
           if (i == j) continue;
-          // As pairwise_distances: the formula takes the larger row first, and its finish
-          // clamps at 0 (which cosine_from_dot never goes below).
-          const double d = std::max(0.0, i > j ? cosine_from_dot(column[c], lengths, i, j)
-                                               : cosine_from_dot(column[c], lengths, j, i));
+          const double d = cosine_from_dot(column[c], lengths, i, j);
           best[j].offer(i, d);
           // A pair inside the block offers to both from both ends (r runs over the block
           // too); a row after it offers to the block's row here, once.

@@ -1,10 +1,11 @@
 // nearest_rows: the k nearest other rows of every row under a distance measure, without
 // the n x n distance matrix when the measure is a cosine one: the dot products are taken
 // a block of rows at a time (a BLAS matrix product of the block against itself and the
-// rows after it, so each pair once), and each row keeps its k best as they go by. An archive's analysis needs only the nearest segments, and
-// its matrix grows with the square of the segments: 51 MiB for the 2,538 long chapters of
-// the English novels, 3.2 GiB for 20,000 segments; on the virtual machines we measure on,
-// every fresh page of it costs a page fault and the host's zeroing as well.
+// rows after it, so each pair once), and each row keeps its k best as they go by. An
+// archive's analysis needs only the nearest segments, and its matrix grows with the square
+// of the segments: 51 MiB for the 2,538 long chapters of the English novels, 3.2 GiB for
+// 20,000 segments; on the virtual machines we measure on, every fresh page of it costs a
+// page fault and the host's zeroing as well.
 // Distances are those pairwise_distances gives, from the same formula on dot products
 // that may be rounded differently (a general matrix product instead of a symmetric one:
 // within a few units in the last place). Other measures take their full matrix.

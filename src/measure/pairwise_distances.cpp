@@ -91,13 +91,16 @@ bool uses_gram_matrix(DistanceMeasure measure) {
   return measure == DistanceMeasure::cosine_delta || measure == DistanceMeasure::cosine;
 }
 
+const RowMatrix& measure_rows(const FeatureTable& table, DistanceMeasure measure) {
+  return measure_info(measure).input == MeasureInput::z_scores ? table.z : table.relative;
+}
+
 DistanceMatrix distance_matrix(const FeatureTable& table, DistanceMeasure measure,
                                const DistanceOptions& options) {
   DistanceMatrix result;
   result.measure = measure;
   result.labels = table.segment_ids;
-  const bool on_z = measure_info(measure).input == MeasureInput::z_scores;
-  result.values = pairwise_distances(on_z ? table.z : table.relative, measure, options);
+  result.values = pairwise_distances(measure_rows(table, measure), measure, options);
   return result;
 }
 

@@ -39,6 +39,9 @@ void check_distance_input(const RowMatrix& rows);
 // the first one; open_blas() in cosine_gram.h opens it ahead).
 bool uses_gram_matrix(DistanceMeasure measure);
 
+// The table's rows the measure's formula takes: z-scores or relative frequencies.
+const RowMatrix& measure_rows(const FeatureTable& table, DistanceMeasure measure);
+
 // Picks table.z or table.relative as the measure requires.
 DistanceMatrix distance_matrix(const FeatureTable& table, DistanceMeasure measure,
                                const DistanceOptions& options = {});

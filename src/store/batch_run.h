@@ -65,7 +65,7 @@ struct BatchSummary {
   RunCounters counters;
   std::vector<BatchFailure> failures;  // every file failing now, in path order
   std::size_t files_removed = 0;       // rows of files no longer found
-  std::shared_ptr<FreshCounts> fresh;  // with keep_counts_of_segments_from, if any file was read
+  std::unique_ptr<FreshCounts> fresh;  // with keep_counts_of_segments_from, if any file was read
 };
 
 // Throws Error(usage) for a bad request, Error(write_failed) when the store cannot be

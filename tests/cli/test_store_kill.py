@@ -1,15 +1,15 @@
 """Archive store: a batch run killed with SIGKILL at several points and started again ends
 with exactly the tables of an uninterrupted run (no duplicate, no missing row).
 
-30 plays of 120-300 KB, one transaction per 3 files. The victim run prints each file it finishes
-(--verbose) and reads on one thread (--threads 1), so that this test, on the other core,
-sees each line while the rest of the run is still ahead: with both cores reading 20 small
-plays, the run could end before the kill arrived on a loaded CI machine (seen once). (The uninterrupted
-reference run reads on all cores: the tables must not depend on it.) The victim is killed
-right after it finished its 1st, 4th, 6th, 5th and 2nd file
-(each time started again on the same store, so it resumes from what the previous one
-committed, and the kills land inside and between transactions), then once right at the
-start, and finally allowed to finish. Outside references: SQLite's
+30 plays of 120-300 KB, one transaction per 3 files. The victim run prints each file it
+finishes (--verbose) and reads on one thread (--threads 1), so that this test, on the
+other core, sees each line while the rest of the run is still ahead: with both cores
+reading 20 small plays, the run could end before the kill arrived on a loaded CI machine
+(seen once). (The uninterrupted reference run reads on all cores: the tables must not
+depend on it.) The victim is killed right after it finished its 1st, 4th, 6th, 5th and
+2nd file (each time started again on the same store, so it resumes from what the previous
+one committed, and the kills land inside and between transactions), then once right at
+the start, and finally allowed to finish. Outside references: SQLite's
 PRAGMA integrity_check and Python's hashlib for every stored SHA-256.
 """
 import os
