@@ -6,6 +6,7 @@
 
 #include <CLI/CLI.hpp>
 
+#include "cli/allocator_settings.h"
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
 #include "core/error.h"
@@ -14,9 +15,10 @@
 
 int main(int argc, char** argv) {
   using namespace manicule;
-  // A process-wide setting that is the program's to choose, before any thread starts (the
-  // library leaves it to a host that embeds it).
+  // Process-wide settings that are the program's to choose, before any thread starts (the
+  // library leaves them to a host that embeds it).
   let_blas_threads_sleep_when_idle();
+  cli::keep_freed_memory_for_reuse();
   CLI::App app{"manicule: measure style inside TEI editions"};
   app.set_version_flag("--version", std::string("manicule ") + MANICULE_VERSION_STRING);
   app.require_subcommand(1);
