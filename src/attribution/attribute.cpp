@@ -7,7 +7,7 @@
 #include "attribution/seeded_sampler.h"
 #include "attribution/size_warnings.h"
 #include "core/error.h"
-#include "measure/parallel_items.h"
+#include "core/parallel_items.h"
 
 namespace manicule {
 

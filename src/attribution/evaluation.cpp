@@ -8,7 +8,7 @@
 #include "attribution/verification_band.h"
 #include "attribution/verification_metrics.h"
 #include "attribution/verification_problems.h"
-#include "measure/parallel_items.h"
+#include "core/parallel_items.h"
 #include "measure/pairwise_distances.h"
 
 namespace manicule {

@@ -4,7 +4,7 @@
 
 #include "attribution/candidate_ranking.h"
 #include "attribution/seeded_sampler.h"
-#include "measure/parallel_items.h"
+#include "core/parallel_items.h"
 
 namespace manicule {
 

@@ -10,7 +10,7 @@
 #include <thread>
 
 #include "core/sha256.h"
-#include "measure/parallel_items.h"
+#include "core/parallel_items.h"
 #include "text/tokenizer.h"
 
 namespace manicule {

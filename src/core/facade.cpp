@@ -77,7 +77,7 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
   if (analysis.segments.empty())
     throw Error(ErrorKind::nothing_selected, "no " + request.unit + " segment found in the input files");
 
-  FeatureTable table = build_feature_table(corpus.counts, request.feature_space);
+  FeatureTable table = build_feature_table(corpus.counts, request.feature_space, request.threads);
   for (const auto& excluded : table.report.excluded_segments) {
     std::size_t i = analysis.find_segment(excluded.id);
     if (i != std::string::npos) analysis.segments[i].excluded_reason = excluded.reason;

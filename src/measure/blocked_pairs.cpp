@@ -4,7 +4,7 @@
 #include <cmath>
 #include <cstring>
 
-#include "measure/parallel_items.h"
+#include "core/parallel_items.h"
 
 // 32-byte vectors passed between always-inlined helpers are not an ABI concern here.
 #pragma GCC diagnostic ignored "-Wpsabi"

@@ -8,7 +8,7 @@
 #include <limits>
 #include <vector>
 
-#include "measure/parallel_items.h"
+#include "core/parallel_items.h"
 
 namespace manicule {
 

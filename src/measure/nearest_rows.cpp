@@ -3,7 +3,7 @@
 #include <algorithm>
 
 #include "measure/cosine_gram.h"
-#include "measure/parallel_items.h"
+#include "core/parallel_items.h"
 #include "profile/large_matrix.h"
 
 namespace manicule {

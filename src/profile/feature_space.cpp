@@ -7,6 +7,7 @@
 #include <unordered_set>
 
 #include "core/error.h"
+#include "core/parallel_items.h"
 #include "profile/large_matrix.h"
 
 namespace manicule {
@@ -67,7 +68,8 @@ bool contains_stop_word(std::string_view form, FeatureKind kind,
 
 }  // namespace
 
-FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpaceOptions& options) {
+FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpaceOptions& options,
+                                 unsigned threads) {
   validate_options(profile.spec, options);
   FeatureTable table;
   table.spec = profile.spec;
@@ -77,12 +79,27 @@ FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpace
   const std::vector<std::size_t> kept = keep_large_segments(profile, options, report);
 
   const Vocabulary& vocabulary = profile.vocabulary;
-  std::vector<std::uint64_t> totals(vocabulary.size(), 0);
-  std::vector<std::uint32_t> segments_with(vocabulary.size(), 0);
-  for (std::size_t s : kept) {
-    for (const auto& [id, count] : profile.segments[s].counts) {
-      totals[id] += count;
-      ++segments_with[id];
+  // Each part of the segments is counted into arrays of its own, added up after: integer
+  // sums, the same in any order.
+  const std::size_t parts = std::min<std::size_t>(resolve_thread_count(threads), (kept.size() + 255) / 256);
+  std::vector<std::vector<std::uint64_t>> part_totals(parts);
+  std::vector<std::vector<std::uint32_t>> part_segments_with(parts);
+  parallel_items(parts, threads, [&](std::size_t part) {
+    part_totals[part].assign(vocabulary.size(), 0);
+    part_segments_with[part].assign(vocabulary.size(), 0);
+    for (std::size_t k = part * kept.size() / parts; k < (part + 1) * kept.size() / parts; ++k) {
+      for (const auto& [id, count] : profile.segments[kept[k]].counts) {
+        part_totals[part][id] += count;
+        ++part_segments_with[part][id];
+      }
+    }
+  });
+  std::vector<std::uint64_t> totals = std::move(part_totals[0]);
+  std::vector<std::uint32_t> segments_with = std::move(part_segments_with[0]);
+  for (std::size_t part = 1; part < parts; ++part) {
+    for (std::size_t id = 0; id < totals.size(); ++id) {
+      totals[id] += part_totals[part][id];
+      segments_with[id] += part_segments_with[part][id];
     }
   }
 
@@ -126,19 +143,29 @@ FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpace
 
   const auto rows = static_cast<Eigen::Index>(kept.size());
   const auto cols = static_cast<Eigen::Index>(table.features.size());
-  table.relative = zero_matrix<RowMatrix>(rows, cols);
-  for (Eigen::Index r = 0; r < rows; ++r) {
-    const SegmentCounts& segment = profile.segments[kept[static_cast<std::size_t>(r)]];
+  for (std::size_t s : kept) {
+    const SegmentCounts& segment = profile.segments[s];
     table.segment_ids.push_back(segment.id);
     table.segment_tokens.push_back(segment.tokens);
     table.segment_totals.push_back(segment.feature_total);
-    const double denominator = static_cast<double>(segment.feature_total);
-    for (const auto& [id, count] : segment.counts) {
-      const std::int64_t c = column_of[id];
-      if (c < 0) continue;
-      table.relative(r, c) = count / denominator;
-    }
   }
+  // Rows are zeroed and filled by whichever thread takes them: a table of many megabytes is
+  // fresh memory, and its first writes (page faults) are much of the cost.
+  table.relative = uninitialised_matrix<RowMatrix>(rows, cols);
+  constexpr Eigen::Index kRowsATask = 64;
+  parallel_items(static_cast<std::size_t>((rows + kRowsATask - 1) / kRowsATask), threads, [&](std::size_t task) {
+    const Eigen::Index end = std::min(rows, static_cast<Eigen::Index>(task + 1) * kRowsATask);
+    for (Eigen::Index r = static_cast<Eigen::Index>(task) * kRowsATask; r < end; ++r) {
+      table.relative.row(r).setZero();
+      const SegmentCounts& segment = profile.segments[kept[static_cast<std::size_t>(r)]];
+      const double denominator = static_cast<double>(segment.feature_total);
+      for (const auto& [id, count] : segment.counts) {
+        const std::int64_t c = column_of[id];
+        if (c < 0) continue;
+        table.relative(r, c) = count / denominator;
+      }
+    }
+  });
   standardise(table, options.keep_relative);
   return table;
 }

@@ -40,6 +40,9 @@ struct FeatureSpaceOptions {
   bool keep_relative = true;
 };
 
-FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpaceOptions& options);
+// `threads` (0: one per core) share the counting and the filling of the table; the
+// table is the same, bit for bit, whatever their number.
+FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpaceOptions& options,
+                                 unsigned threads = 1);
 
 }  // namespace manicule

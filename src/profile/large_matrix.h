@@ -16,10 +16,18 @@ namespace manicule {
 // ranges are left alone.
 void advise_huge_pages(void* data, std::size_t bytes);
 
+// For a caller that writes every element itself (and so chooses which thread first
+// touches which pages).
 template <typename Matrix>
-Matrix zero_matrix(Eigen::Index rows, Eigen::Index cols) {
+Matrix uninitialised_matrix(Eigen::Index rows, Eigen::Index cols) {
   Matrix m(rows, cols);
   advise_huge_pages(m.data(), sizeof(typename Matrix::Scalar) * static_cast<std::size_t>(rows * cols));
+  return m;
+}
+
+template <typename Matrix>
+Matrix zero_matrix(Eigen::Index rows, Eigen::Index cols) {
+  Matrix m = uninitialised_matrix<Matrix>(rows, cols);
   m.setZero();
   return m;
 }

@@ -157,3 +157,29 @@ TEST_CASE("bad ranges are usage errors", "[profile]") {
     }
   }
 }
+
+TEST_CASE("a table built on several threads counts every segment once", "[profile][threads]") {
+  // 700 segments (the counting is split in parts of at least 256): segment i holds "a"
+  // (i mod 3) + 1 times, "b" twice and "c<i mod 10>" once. By construction: totals b 1,400,
+  // a 234 * 1 + 233 * 2 + 233 * 3 = 1,399, each c<k> 70 (ties in byte order), and in row i
+  // each feature's count over the segment's (i mod 3) + 4 tokens.
+  std::vector<std::pair<std::string, std::vector<std::string>>> segments;
+  for (int i = 0; i < 700; ++i) {
+    std::vector<std::string> tokens(static_cast<std::size_t>(i % 3 + 1), "a");
+    tokens.insert(tokens.end(), {"b", "b", "c" + std::to_string(i % 10)});
+    segments.push_back({"s" + std::to_string(i), tokens});
+  }
+  const CountProfile p = profile_of(segments);
+  const unsigned threads = GENERATE(1u, 2u, 3u, 0u);
+  const FeatureTable t = build_feature_table(p, small(), threads);
+  REQUIRE(t.features == std::vector<std::string>{"b", "a", "c0", "c1", "c2", "c3", "c4", "c5", "c6", "c7", "c8", "c9"});
+  CHECK(t.feature_totals == std::vector<std::size_t>{1400, 1399, 70, 70, 70, 70, 70, 70, 70, 70, 70, 70});
+  REQUIRE(t.relative.rows() == 700);
+  for (int i = 0; i < 700; ++i) {
+    const double tokens = i % 3 + 4;
+    for (int c = 0; c < 12; ++c) {
+      const double expected = c == 0 ? 2 / tokens : c == 1 ? (i % 3 + 1) / tokens : c - 2 == i % 10 ? 1 / tokens : 0.0;
+      CHECK(t.relative(i, c) == expected);  // the same division: bit for bit
+    }
+  }
+}

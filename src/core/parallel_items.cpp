@@ -1,4 +1,4 @@
-#include "measure/parallel_items.h"
+#include "core/parallel_items.h"
 
 #include <algorithm>
 #include <atomic>
