@@ -80,8 +80,11 @@ FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpace
 
   const Vocabulary& vocabulary = profile.vocabulary;
   // Each part of the segments is counted into arrays of its own, added up after: integer
-  // sums, the same in any order.
-  const std::size_t parts = std::min<std::size_t>(resolve_thread_count(threads), (kept.size() + 255) / 256);
+  // sums, the same in any order. At most 4 parts: each costs 12 bytes per form of the
+  // vocabulary, and adding it up a pass over them.
+  constexpr std::size_t kMostParts = 4;
+  const std::size_t parts =
+      std::min<std::size_t>({resolve_thread_count(threads), (kept.size() + 255) / 256, kMostParts});
   std::vector<std::vector<std::uint64_t>> part_totals(parts);
   std::vector<std::vector<std::uint32_t>> part_segments_with(parts);
   parallel_items(parts, threads, [&](std::size_t part) {
