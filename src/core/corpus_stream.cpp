@@ -9,8 +9,8 @@
 #include <mutex>
 #include <thread>
 
-#include "core/sha256.h"
 #include "core/parallel_items.h"
+#include "core/sha256.h"
 #include "text/tokenizer.h"
 
 namespace manicule {

@@ -2,8 +2,8 @@
 
 #include <algorithm>
 
-#include "measure/cosine_gram.h"
 #include "core/parallel_items.h"
+#include "measure/cosine_gram.h"
 #include "profile/large_matrix.h"
 
 namespace manicule {
@@ -67,10 +67,10 @@ std::vector<std::vector<NearRow>> nearest_rows(const RowMatrix& rows, DistanceMe
   const std::size_t block =
       std::min(n, options.block_rows ? options.block_rows : std::max<std::size_t>(1, kBlockBytes / sizeof(double) / n));
   const RowLengths lengths = row_lengths(rows);
-  std::vector<double> dots;
-  dots.reserve(n * block);
-  advise_huge_pages(dots.data(), sizeof(double) * n * block);
-  dots.resize(n * block);
+  // Each block's products are written whole before they are read; only data() is used,
+  // with the block's own row count as the leading dimension.
+  Eigen::MatrixXd dots = uninitialised_matrix<Eigen::MatrixXd>(static_cast<Eigen::Index>(block),
+                                                               static_cast<Eigen::Index>(n));
   std::vector<BestRows> best(n, BestRows(keep));
   // Each pair once, as the symmetric product does: a block of rows against itself and the
   // rows after it. A pair offers each row to the other's best; the rows after the block

@@ -49,6 +49,11 @@ void for_each_stored_form(Database& db, std::int64_t settings_id,
 
 // A block's text: the forms as a JSON array of strings (RFC 8259: '"', '\' and control
 // characters escaped, every other byte as it is), and back (only what encode writes).
+// Our own few lines rather than nlohmann::json, which the project uses elsewhere: a re-run
+// that reads one changed file loads the whole vocabulary, and decoding the plays' 245,435
+// forms took 6 ms here against 19 ms with nlohmann's SAX parser and 39 ms with its DOM
+// (measured 2026-12-02). The view and Python's json module check the format in
+// tests/cli/test_store_vocabulary.py.
 std::string encode_form_block(const Vocabulary& forms, std::size_t first, std::size_t end);
 bool decode_form_block(std::string_view json, const std::function<void(std::string_view)>& each);
 
