@@ -171,6 +171,12 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
   // below and kept, and WAL then needs no shared-memory file.
   db->exec("PRAGMA locking_mode = EXCLUSIVE");
   db->exec("PRAGMA busy_timeout = 1500");
+  // 16 KiB pages for a new store (an existing one keeps its own): most of what is stored
+  // is count blobs of a few KiB each, which 4 KiB pages split over chains of overflow
+  // pages. First runs took 5 % (plays) to 10 % (novels) less time and CPU than with 4 KiB;
+  // 64 KiB gained hardly more and would write a whole 64 KiB to the log for each page a
+  // file's row changes in the indexes keyed by content hash.
+  db->exec("PRAGMA page_size = 16384");
   {
     Statement mode = db->prepare("PRAGMA journal_mode = WAL");
     if (mode.step() && mode.text_at(0) != "wal")
