@@ -1,5 +1,6 @@
 #include "store/stored_corpus.h"
 
+#include <algorithm>
 #include <unordered_map>
 #include <unordered_set>
 
@@ -66,7 +67,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
   CountProfile& profile = out.corpus.counts;
   profile.spec = spec;
   std::unordered_map<std::string, std::string> id_owner;  // segment id -> path
-  std::vector<char> used;                                 // by store feature id
+  std::size_t id_bound = 0;  // one past the largest store feature id counted
   std::string last_path;
   while (segments.step()) {
     std::string path = segments.text_at(0);
@@ -110,16 +111,14 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     const std::size_t ordinal = static_cast<std::size_t>(segments.int64_at(3));
     FeatureCounts* kept = fresh ? fresh->find(file_sha256, ordinal) : nullptr;
     counts.counts = kept ? std::move(*kept) : decode_counts(segments.blob_at(15));
-    for (const auto& [id, n] : counts.counts) {
-      if (id >= used.size()) used.resize(id + 1, 0);
-      used[id] = 1;
-    }
+    // Counts are sorted by id: the last is the largest.
+    if (!counts.counts.empty()) id_bound = std::max<std::size_t>(id_bound, counts.counts.back().first + std::size_t{1});
     profile.segments.push_back(std::move(counts));
     out.sources.push_back(SegmentSource{path, file_sha256, ordinal});
     out.corpus.segments.push_back(std::move(record));
   }
 
-  if (fresh && used.size() <= fresh->forms.size()) {
+  if (fresh && id_bound <= fresh->forms.size()) {
     // The store's vocabulary itself, just handed over: the counts are in its ids already.
     // (Forms no segment here uses have no occurrences and are never selected.)
     profile.vocabulary = std::move(fresh->forms);
@@ -130,6 +129,9 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
 
   // A compact vocabulary of the features these segments use, in store-id order, so the
   // remapping keeps every segment's counts sorted.
+  std::vector<char> used(id_bound, 0);  // by store feature id
+  for (const auto& s : profile.segments)
+    for (const auto& entry : s.counts) used[entry.first] = 1;
   constexpr FeatureId kMissing = UINT32_MAX;
   std::vector<FeatureId> compact(used.size(), kMissing);
   {
