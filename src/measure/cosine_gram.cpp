@@ -16,10 +16,12 @@ namespace {
 
 using DsyrkFunction = decltype(&cblas_dsyrk);
 using DgemmFunction = decltype(&cblas_dgemm);
+using SgemmFunction = decltype(&cblas_sgemm);
 
 struct BlasFunctions {
   DsyrkFunction dsyrk = nullptr;
   DgemmFunction dgemm = nullptr;
+  SgemmFunction sgemm = nullptr;  // may be missing where the other two are found
 };
 
 // The BLAS is opened at the first Gram matrix rather than linked: loading OpenBLAS costs
@@ -33,7 +35,10 @@ const BlasFunctions& find_blas() {
       if (!library) continue;
       void* dsyrk = dlsym(library, "cblas_dsyrk");
       void* dgemm = dlsym(library, "cblas_dgemm");
-      if (dsyrk && dgemm) return BlasFunctions{reinterpret_cast<DsyrkFunction>(dsyrk), reinterpret_cast<DgemmFunction>(dgemm)};
+      void* sgemm = dlsym(library, "cblas_sgemm");
+      if (dsyrk && dgemm)
+        return BlasFunctions{reinterpret_cast<DsyrkFunction>(dsyrk), reinterpret_cast<DgemmFunction>(dgemm),
+                             reinterpret_cast<SgemmFunction>(sgemm)};
       dlclose(library);
     }
     return {};
@@ -98,6 +103,17 @@ void dot_products(const RowMatrix& rows, Eigen::Index a_first, Eigen::Index a_co
   } else {
     result.noalias() = rows.middleRows(a_first, a_count) * rows.middleRows(b_first, b_count).transpose();
   }
+}
+
+bool float_dot_products(const float* rows, Eigen::Index cols, Eigen::Index a_first, Eigen::Index a_count,
+                        Eigen::Index b_first, Eigen::Index b_count, float* out) {
+  const SgemmFunction sgemm = find_blas().sgemm;
+  if (!sgemm || cols == 0) return false;
+  // As in dot_products: the row-major rows are, read column-major, the columns of a cols x n matrix.
+  sgemm(CblasColMajor, CblasTrans, CblasNoTrans, static_cast<int>(a_count), static_cast<int>(b_count),
+        static_cast<int>(cols), 1.0f, rows + a_first * cols, static_cast<int>(cols), rows + b_first * cols,
+        static_cast<int>(cols), 0.0f, out, static_cast<int>(a_count));
+  return true;
 }
 
 void cosine_distances_by_gram(const RowMatrix& rows, unsigned threads, Eigen::MatrixXd& out) {

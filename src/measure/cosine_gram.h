@@ -54,6 +54,12 @@ inline double cosine_from_dot(double dot, const RowLengths& lengths, std::size_t
 void dot_products(const RowMatrix& rows, Eigen::Index a_first, Eigen::Index a_count, Eigen::Index b_first,
                   Eigen::Index b_count, double* out);
 
+// The same in single precision, for rows already in single precision (`cols` floats a
+// row, row-major): out[a + a_count * b] is row (a_first + a) . row (b_first + b). By the
+// BLAS's sgemm; false, with nothing written, when the BLAS has none.
+bool float_dot_products(const float* rows, Eigen::Index cols, Eigen::Index a_first, Eigen::Index a_count,
+                        Eigen::Index b_first, Eigen::Index b_count, float* out);
+
 // Opens the BLAS now (it is otherwise opened at the first Gram matrix): some 5.5 ms of
 // loading that a caller can do on another thread while other work goes on. Thread-safe.
 void open_blas();

@@ -7,7 +7,13 @@ The matrix holds the cases the block loop must get right: rows that are equal (t
 two neighbours), a row that is a multiple of another (distance 0 up to rounding), two zero
 rows (the documented rule of src/measure/cosine_gram.h: distance 0 between them, 1 to every
 other row, where SciPy gives NaN), and more rows than most block sizes, so that pairs fall
-inside one block, across two blocks, and in a last block that is shorter."""
+inside one block, across two blocks, and in a last block that is shorter. Each case runs
+with the single-precision screening (the default) and without it (every pair in double).
+
+A second matrix is made for the screening: a cluster of rows around one direction whose
+cosine distances are some 1e-10 apart, far below what single precision resolves near a
+similarity of 1 (steps of 6e-8), so that only the double-precision measurement of the
+candidates can rank them as SciPy does."""
 import os
 import sys
 
@@ -44,6 +50,18 @@ def cosine_reference(x):
     return d
 
 
+def check_cases(path, reference, blocks, ks, what):
+    """Every block size, one and two threads, every k, with and without screening."""
+    for block in blocks:
+        for threads in (1, 2):
+            for k in ks:
+                for screen in ("yes", "no"):
+                    out = driver(["nearest", "--measure", "cosine-delta", "--matrix", path, "--k", k,
+                                  "--block", block, "--threads", threads, "--screen", screen])
+                    check_nearest(out, reference, k, "%s block %d threads %d k %d screen %s"
+                                  % (what, block, threads, k, screen))
+
+
 def check_nearest(text, reference, k, what):
     by_row = {}
     for line in text.splitlines()[1:]:
@@ -78,12 +96,8 @@ with tempdir() as directory:
     # ties the construction promises, checked on the reference itself
     mtest.check(cosine[20, 33] == 0 and cosine[20, 0] == 1 and abs(cosine[5, 12]) <= TOLERANCE,
                 "reference: zero rows and the multiple")
-    for block in (1, 4, 13, 40, 41, 0):  # 0: the size the library picks (one block here)
-        for threads in (1, 2):
-            for k in (5, 60):
-                out = driver(["nearest", "--measure", "cosine-delta", "--matrix", path, "--k", k,
-                              "--block", block, "--threads", threads])
-                check_nearest(out, cosine, k, "cosine-delta block %d threads %d k %d" % (block, threads, k))
+    # block 0: the size the library picks (one block here)
+    check_cases(path, cosine, (1, 4, 13, 40, 41, 0), (5, 60), "cosine-delta")
     # the same rows as relative frequencies: 'cosine' takes the same path
     out = driver(["nearest", "--measure", "cosine", "--matrix", path, "--k", 5, "--block", 7])
     check_nearest(out, cosine, 5, "cosine block 7")
@@ -91,5 +105,30 @@ with tempdir() as directory:
     burrows = cdist(X, X, "cityblock") / X.shape[1]
     out = driver(["nearest", "--measure", "burrows-delta", "--matrix", path, "--k", 5])
     check_nearest(out, burrows, 5, "burrows-delta")
+
+# The near ties. Rows v + t_j w_j, with w_j unit vectors orthogonal to v (|v|^2 about 40):
+# 1 - cos(v + t w, v) is about t^2 / (2 |v|^2), so t_j = 1e-4 sqrt(j) puts the cluster's
+# distances to v at about 1.25e-10 j, and their distances to each other as close.
+cluster_rng = np.random.default_rng(20261203)
+v = cluster_rng.standard_normal(40)
+near = [v]
+for j in range(1, 15):
+    w = cluster_rng.standard_normal(40)
+    w -= (w @ v) / (v @ v) * v
+    near.append(v + 1e-4 * np.sqrt(j) * w / np.linalg.norm(w))
+Y = np.vstack(near + [cluster_rng.standard_normal(40) for _ in range(25)])
+Y[30] = Y[4]  # an exact tie inside the cluster's reach
+ids = ["r%02d" % i for i in range(len(Y))]
+features = ["f%d" % i for i in range(Y.shape[1])]
+with tempdir() as directory:
+    path = write_matrix(directory, "y.tsv", ids, features, Y)
+    cosine = cosine_reference(Y)
+    # what the case needs, checked on SciPy's distances: v's nearest 5 differ by far more
+    # than the tolerance, and by far less than single precision resolves near 1
+    nearest_to_v = np.sort(cosine[0, 1:15])[:6]
+    gaps = np.diff(nearest_to_v)
+    mtest.check(gaps.min() > 100 * TOLERANCE and nearest_to_v.max() < 1e-8,
+                "reference: the cluster's distances are distinct and below single precision's steps")
+    check_cases(path, cosine, (3, 16, 0), (5, 12), "near ties")
 
 mtest.done()

@@ -28,7 +28,7 @@ const char* usage() {
   return "measure_driver COMMAND [--key value ...]\n"
          "  profile   --table counts|relative|z|stats|excluded|report\n"
          "  distance  --measure NAME [--threads T] [--repeat K] [--output none]\n"
-         "  nearest   --measure NAME [--k K] [--block ROWS] [--threads T]\n"
+         "  nearest   --measure NAME [--k K] [--block ROWS] [--threads T] [--screen yes|no]\n"
          "  pca       [--input z|relative] [--components K] [--top K] "
          "--table coordinates|variance|loadings|poles\n"
          "  linkage   --method ward|average|complete [--measure NAME] [--newick]\n"
@@ -228,7 +228,8 @@ void run_distance(const Options& o) {
 }
 
 // The k nearest rows of each row, computed as an archive's analysis does (nearest_rows.h);
-// --block sets the rows a block of dot products holds.
+// --block sets the rows a block of dot products holds, --screen no measures every pair in
+// double precision.
 void run_nearest(const Options& o) {
   const DistanceMeasure measure = parse_distance_measure(get(o, "measure", "cosine-delta"));
   const LabelledMatrix input =
@@ -236,6 +237,7 @@ void run_nearest(const Options& o) {
   NearestOptions options;
   options.distance.threads = static_cast<unsigned>(get_size(o, "threads", 0));
   options.block_rows = get_size(o, "block", 0);
+  options.screen = get(o, "screen", "yes") == "yes";
   const auto nearest = nearest_rows(input.values, measure, get_size(o, "k", 5), options);
   std::printf("row\trank\tneighbour\tdistance\n");
   for (std::size_t i = 0; i < nearest.size(); ++i)
