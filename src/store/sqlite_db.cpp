@@ -53,6 +53,11 @@ void Database::exec(std::string_view sql) {
   if (rc != SQLITE_OK) fail(rc, text.substr(0, 60));
 }
 
+void Database::checkpoint() {
+  int rc = sqlite3_wal_checkpoint_v2(db_, nullptr, SQLITE_CHECKPOINT_PASSIVE, nullptr, nullptr);
+  if (rc != SQLITE_OK) fail(rc, "checkpoint");
+}
+
 std::int64_t Database::last_insert_id() const { return sqlite3_last_insert_rowid(db_); }
 int Database::changes() const { return sqlite3_changes(db_); }
 

@@ -68,6 +68,9 @@ class Database {
   Database& operator=(const Database&) = delete;
 
   void exec(std::string_view sql);  // one or more statements without results
+  // Copies what the write-ahead log holds into the database file and syncs it. Not while
+  // another thread uses this connection (it is opened without SQLite's mutex).
+  void checkpoint();
   Statement prepare(std::string_view sql) { return Statement(*this, sql); }
   std::int64_t last_insert_id() const;
   int changes() const;
