@@ -51,7 +51,12 @@ class ReadingWriter {
   std::vector<FeatureId> by_store_id_;   // the file's feature ids in store-id order
   std::vector<std::uint64_t> store_id_bits_;    // by store id, all zero between files
   std::vector<FeatureId> file_id_of_store_id_;  // valid where the bit is set
-  std::vector<std::uint32_t> by_file_id_;  // a segment's counts by file id, zero between uses
+  // The file's feature ids ranked in store-id order: a segment's counts are put in that
+  // order by marking their ranks in a bitmap and reading the set bits back.
+  std::vector<std::uint32_t> rank_of_file_id_;
+  std::vector<FeatureId> store_id_of_rank_;
+  std::vector<std::uint64_t> rank_bits_;         // a segment's ranks, all zero between uses
+  std::vector<std::uint32_t> count_of_rank_;     // valid where the rank's bit is set
   FeatureCounts mapped_;
   std::unique_ptr<FreshCounts> kept_;  // when keep_counts() was asked for
 };
