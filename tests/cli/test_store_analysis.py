@@ -10,10 +10,12 @@ distance of z-scores) and the PCA explained variance are recomputed in Python fr
 stored counts (blobs decoded by the format in docs/store.md): ranking by total then UTF-8 bytes, numpy for z-scores (sample sd),
 scipy.spatial.distance.cdist(..., 'cosine'), sklearn.decomposition.PCA. The filters
 (--author, --years, --title, --folder, --language) are checked against the files lxml
-finds matching in the TEI headers.
+finds matching in the TEI headers. A store closed after batch --analyse is one file: copied
+without anything beside it, it holds the same analysis.
 """
 import os
 import re
+import shutil
 import sys
 import tempfile
 
@@ -114,6 +116,15 @@ with tempfile.TemporaryDirectory() as tmp:
     # come from the store, the rest from memory).
     first = os.path.join(tmp, "first.sqlite")
     mtest.run(["batch", archive, "--store", first, "--unit", "speaker", "--quiet", "--analyse"] + analysis_args)
+    # A closed store is one file (docs/store.md): what the batch logged, its counts and then
+    # its analysis (the counts' log checkpointed on another thread while the analysis ran),
+    # is in the .sqlite itself, with no -wal file left beside it; copied alone, it holds
+    # the whole analysis, checked like the original.
+    mtest.check(not os.path.exists(first + "-wal"), "batch --analyse left a -wal file beside the store")
+    alone = os.path.join(tmp, "alone", "first.sqlite")
+    os.makedirs(os.path.dirname(alone))
+    shutil.copyfile(first, alone)
+    check_against_python(alone, "the store's .sqlite copied alone after batch --analyse")
     check_against_python(first, "batch --analyse on a new store")
     mixed = os.path.join(tmp, "mixed.sqlite")
     mtest.run(["batch", archive, "--store", mixed, "--unit", "speaker", "--quiet", "--folder", "more"])
