@@ -67,12 +67,16 @@ void ReadingWriter::rank_file_ids_by_store_id() {
     store_id_bits_[s / 64] |= std::uint64_t{1} << (s % 64);
     file_id_of_store_id_[s] = static_cast<FeatureId>(id);
   }
-  by_store_id_.clear();
+  rank_of_file_id_.resize(to_store_.size());
+  store_id_of_rank_.resize(to_store_.size());
+  std::uint32_t rank = 0;
   for (std::size_t w = 0; w < bitmap_words; ++w) {
     std::uint64_t bits = store_id_bits_[w];
     store_id_bits_[w] = 0;  // clear for the next file
     while (bits) {
-      by_store_id_.push_back(file_id_of_store_id_[w * 64 + static_cast<std::size_t>(__builtin_ctzll(bits))]);
+      const auto store_id = static_cast<FeatureId>(w * 64 + static_cast<std::size_t>(__builtin_ctzll(bits)));
+      rank_of_file_id_[file_id_of_store_id_[store_id]] = rank;
+      store_id_of_rank_[rank++] = store_id;
       bits &= bits - 1;
     }
   }
@@ -110,13 +114,6 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
   // novel's chapters a fifth of the writer's time.)
   const std::size_t words = to_store_.size();
   rank_file_ids_by_store_id();
-  rank_of_file_id_.resize(words);
-  store_id_of_rank_.resize(words);
-  for (std::size_t rank = 0; rank < words; ++rank) {
-    const FeatureId local = by_store_id_[rank];
-    rank_of_file_id_[local] = static_cast<std::uint32_t>(rank);
-    store_id_of_rank_[rank] = to_store_[local];
-  }
   const std::size_t bitmap_words = (words + 63) / 64;
   rank_bits_.assign(bitmap_words, 0);
   count_of_rank_.resize(words);

@@ -37,7 +37,7 @@ class ReadingWriter {
   std::unique_ptr<FreshCounts> take_fresh_counts();
 
  private:
-  // Fills by_store_id_ from to_store_.
+  // Fills rank_of_file_id_ and store_id_of_rank_ from to_store_.
   void rank_file_ids_by_store_id();
 
   Database& db_;
@@ -48,7 +48,6 @@ class ReadingWriter {
   Statement insert_reading_;
   Statement insert_segment_;
   std::vector<FeatureId> to_store_;      // file's feature id -> store's
-  std::vector<FeatureId> by_store_id_;   // the file's feature ids in store-id order
   std::vector<std::uint64_t> store_id_bits_;    // by store id, all zero between files
   std::vector<FeatureId> file_id_of_store_id_;  // valid where the bit is set
   // The file's feature ids ranked in store-id order: a segment's counts are put in that

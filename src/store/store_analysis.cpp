@@ -116,7 +116,7 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
                     " words pass the filter; an analysis needs two (lower --min-tokens, widen the filter, or run batch "
                     "over more files)");
   if (blas.valid()) blas.get();
-  // The log holds what the batch just stored (up to 16 MiB): copying it into the database
+  // The log holds what the batch just stored (up to 64 MiB): copying it into the database
   // waits on the disk (two syncs, 30 and 18 ms after the novels' batch), which the store's
   // closing would otherwise spend after everything else. It is done now, on another
   // thread, while the analysis computes; nothing below uses the store (whose connection
