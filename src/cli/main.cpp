@@ -20,6 +20,7 @@ int main(int argc, char** argv) {
   let_blas_threads_sleep_when_idle();
   cli::keep_freed_memory_for_reuse();
   cli::back_main_heap_with_huge_pages();
+  cli::back_thread_heaps_with_huge_pages();
   CLI::App app{"manicule: measure style inside TEI editions"};
   app.set_version_flag("--version", std::string("manicule ") + MANICULE_VERSION_STRING);
   app.require_subcommand(1);

@@ -11,6 +11,7 @@
 
 #include "core/parallel_items.h"
 #include "core/sha256.h"
+#include "core/worker_start.h"
 #include "text/tokenizer.h"
 
 namespace manicule {
@@ -120,6 +121,7 @@ void read_files_streaming(const Request& request, const std::vector<std::string>
   std::atomic<std::size_t> next{0};
 
   auto work = [&] {
+    on_worker_start();
     Tokenizer tokenizer(request.tokenizer);
     for (std::size_t i = next++; i < files.size(); i = next++) {
       if (queue.stopped()) break;

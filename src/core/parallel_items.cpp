@@ -1,5 +1,7 @@
 #include "core/parallel_items.h"
 
+#include "core/worker_start.h"
+
 #include <algorithm>
 #include <atomic>
 #include <exception>
@@ -34,7 +36,11 @@ void parallel_items(std::size_t count, unsigned threads,
   };
   std::vector<std::thread> pool;
   pool.reserve(helpers);
-  for (std::size_t t = 0; t < helpers; ++t) pool.emplace_back(run);
+  for (std::size_t t = 0; t < helpers; ++t)
+    pool.emplace_back([&] {
+      on_worker_start();
+      run();
+    });
   run();
   for (std::thread& thread : pool) thread.join();
   if (first_error) std::rethrow_exception(first_error);
