@@ -1,5 +1,6 @@
 #include "profile/vocabulary.h"
 
+#include <algorithm>
 #include <cstring>
 
 #include "core/error.h"
@@ -63,6 +64,26 @@ std::uint64_t Vocabulary::hash(std::string_view form) {
   return avalanche(h);
 }
 
+inline std::uint64_t Vocabulary::arena_ref(std::size_t offset, std::size_t length) {
+  return (static_cast<std::uint64_t>(offset) << 16) | std::min<std::uint64_t>(length, kLongerThanRef);
+}
+
+namespace {
+// Whether the n bytes at a and b are equal, for n > 8: up to 16 bytes as two overlapping
+// words (no call), longer ones with memcmp.
+inline bool same_long_bytes(const char* a, const char* b, std::size_t n) {
+  if (n <= 16) {
+    std::uint64_t a0, a1, b0, b1;
+    std::memcpy(&a0, a, 8);
+    std::memcpy(&b0, b, 8);
+    std::memcpy(&a1, a + n - 8, 8);
+    std::memcpy(&b1, b + n - 8, 8);
+    return ((a0 ^ b0) | (a1 ^ b1)) == 0;
+  }
+  return std::memcmp(a, b, n) == 0;
+}
+}  // namespace
+
 inline Vocabulary::Key Vocabulary::key_of(std::string_view form) {
   if (form.size() > 8) return Key{form, hash(form), 0};
   const std::uint64_t packed = pack_short(form);
@@ -85,10 +106,13 @@ std::size_t Vocabulary::slot_of(const Key& key) const {
       if (entry.inline_form == packed) return slot;
       continue;
     }
-    const FeatureId id = entry.id_plus_one - 1;
-    const std::size_t begin = offsets_[id];
-    const std::size_t length = offsets_[id + 1] - begin;
-    if (length == form.size() && std::memcmp(arena_.data() + begin, form.data(), length) == 0) return slot;
+    const std::size_t begin = entry.inline_form >> 16;
+    std::size_t length = entry.inline_form & kLongerThanRef;
+    if (length == kLongerThanRef) {
+      const FeatureId id = entry.id_plus_one - 1;
+      length = offsets_[id + 1] - begin;
+    }
+    if (length == form.size() && same_long_bytes(arena_.data() + begin, form.data(), length)) return slot;
   }
 }
 
@@ -113,9 +137,17 @@ void Vocabulary::intern_all(const Vocabulary& source, std::vector<FeatureId>& id
     const std::string_view form = source.form(static_cast<FeatureId>(i));
     keys[i] = Key{form, source.hashes_[i], form.size() <= 8 ? pack_short(form) : 0};
   }
+  // Two stages: a long form's first slot, fetched kAhead lookups earlier, says where the
+  // form it holds lies in the arena, which is fetched kAhead / 2 lookups ahead.
   constexpr std::size_t kAhead = 12;
+  const std::size_t mask = slots_.size() - 1;
   for (std::size_t i = 0; i < n; ++i) {
-    if (i + kAhead < n) __builtin_prefetch(&slots_[keys[i + kAhead].hash & (slots_.size() - 1)]);
+    if (i + kAhead < n) __builtin_prefetch(&slots_[keys[i + kAhead].hash & mask]);
+    if (i + kAhead / 2 < n && keys[i + kAhead / 2].form.size() > 8) {
+      const Slot& first = slots_[keys[i + kAhead / 2].hash & mask];
+      if (first.id_plus_one != 0 && first.tag == tag_of(keys[i + kAhead / 2].hash, 9))
+        __builtin_prefetch(arena_.data() + (first.inline_form >> 16));
+    }
     ids[i] = intern(keys[i]);
   }
 }
@@ -129,10 +161,11 @@ FeatureId Vocabulary::intern(const Key& key) {
     throw Error(ErrorKind::usage, "more than 4 billion distinct features");
   }
   const auto id = static_cast<FeatureId>(hashes_.size());
+  const std::size_t begin = arena_.size();
   arena_.append(form);
   offsets_.push_back(arena_.size());
   hashes_.push_back(h);
-  slots_[slot] = Slot{id + 1, tag_of(h, form.size()), key.packed};
+  slots_[slot] = Slot{id + 1, tag_of(h, form.size()), form.size() <= 8 ? key.packed : arena_ref(begin, form.size())};
   if (hashes_.size() * 2 > slots_.size()) grow();  // keep the load factor at most 1/2
   return id;
 }
@@ -163,7 +196,7 @@ void Vocabulary::rehash(std::size_t size) {
     const std::string_view f = form(id);
     std::size_t slot = hashes_[id] & mask;
     while (bigger[slot].id_plus_one != 0) slot = (slot + 1) & mask;
-    bigger[slot] = Slot{id + 1, tag_of(hashes_[id], f.size()), f.size() <= 8 ? pack_short(f) : 0};
+    bigger[slot] = Slot{id + 1, tag_of(hashes_[id], f.size()), f.size() <= 8 ? pack_short(f) : arena_ref(offsets_[id], f.size())};
   }
   slots_.swap(bigger);
 }

@@ -33,12 +33,13 @@ class Vocabulary {
 
  private:
   // A slot of the open-addressing table. Forms of up to 8 bytes are kept in the slot
-  // itself, so that finding a known short form reads one cache line; longer forms are
-  // compared against the arena.
+  // itself, so that finding a known short form reads one cache line; a longer form's slot
+  // says where the form lies in the arena, so that comparing it reads the arena alone
+  // (not offsets_ first: two cache misses a lookup in a large vocabulary instead of three).
   struct Slot {
     std::uint32_t id_plus_one = 0;  // 0: empty
     std::uint32_t tag = 0;          // hash bits and length class (tag_of)
-    std::uint64_t inline_form = 0;  // the form's bytes if it is short, else 0
+    std::uint64_t inline_form = 0;  // the form's bytes if it is short, else arena_ref()
   };
   // A form with what finding it takes: its hash and, for a short form, its packed bytes.
   struct Key {
@@ -52,6 +53,10 @@ class Vocabulary {
   static std::uint64_t hash_short(std::uint64_t packed, std::size_t size);  // == hash() of that form
   static std::uint64_t pack_short(std::string_view form);  // forms of at most 8 bytes
   std::size_t slot_of(const Key& key) const;
+  // A long form's place in the arena as a slot keeps it: the offset above 16 bits, the
+  // length below (kLongerThanRef: look the length up in offsets_).
+  static std::uint64_t arena_ref(std::size_t offset, std::size_t length);
+  static constexpr std::uint64_t kLongerThanRef = 0xFFFF;
   void grow();
   void rehash(std::size_t slot_count);  // a power of 2 above twice the forms
 

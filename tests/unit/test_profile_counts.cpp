@@ -65,6 +65,57 @@ TEST_CASE("vocabulary tells apart forms that short-form packing could confuse", 
   }
 }
 
+TEST_CASE("vocabulary compares long forms at every byte, at every length", "[profile]") {
+  // A long form's slot points into the arena; forms of 9 to 16 bytes are compared as two
+  // overlapping words, longer ones with memcmp, and a form longer than the slot's length
+  // field (65,535 bytes and up) has its length looked up. Forms differing in one byte,
+  // at each position of each length, must get ids of their own, checked against
+  // std::unordered_map (the reference: ids dense in order of first appearance), with and
+  // without a table grown under them, one at a time and through intern_all. (A compare
+  // that wrongly says equal would only show when two forms share the slot's 28 hash bits,
+  // which this test cannot arrange; one that wrongly says different, or a wrong length,
+  // gives a form two ids and fails here.)
+  std::vector<std::string> forms;
+  for (std::size_t length : {9, 10, 11, 12, 13, 14, 15, 16, 17, 24, 33}) {
+    const std::string base(length, 'q');
+    forms.push_back(base);
+    for (std::size_t at = 0; at < length; ++at) {
+      std::string changed = base;
+      changed[at] = 'r';
+      forms.push_back(changed);
+    }
+  }
+  for (std::size_t length : {65534, 65535, 65536, 70000}) {
+    const std::string base(length, 'z');
+    forms.push_back(base);
+    forms.push_back(base.substr(0, length - 1) + "y");
+    forms.push_back("y" + base.substr(1));
+  }
+  for (int reserve : {0, 1}) {
+    Vocabulary one_at_a_time;
+    if (reserve) one_at_a_time.reserve(forms.size());
+    std::unordered_map<std::string, FeatureId> reference;
+    for (int round = 0; round < 2; ++round) {
+      for (const auto& form : forms) {
+        const auto it = reference.emplace(form, static_cast<FeatureId>(reference.size())).first;
+        REQUIRE(one_at_a_time.intern(form) == it->second);
+      }
+    }
+    REQUIRE(one_at_a_time.size() == forms.size());
+    Vocabulary all_at_once;
+    std::vector<FeatureId> ids;
+    all_at_once.intern_all(one_at_a_time, ids);  // a fresh target: every form new
+    all_at_once.intern_all(one_at_a_time, ids);  // again: every form found
+    for (std::size_t i = 0; i < forms.size(); ++i) {
+      REQUIRE(ids[i] == reference.at(forms[i]));
+      REQUIRE(all_at_once.find(forms[i]) == reference.at(forms[i]));
+      REQUIRE(one_at_a_time.form(static_cast<FeatureId>(i)) == forms[i]);
+    }
+    REQUIRE(one_at_a_time.find(std::string(65537, 'z')) == std::nullopt);
+    REQUIRE(one_at_a_time.find(std::string(16, 's')) == std::nullopt);
+  }
+}
+
 TEST_CASE("interning a whole vocabulary at once gives the ids one at a time would", "[profile]") {
   // intern_all fetches slots ahead and reuses the source's hashes; the reference is
   // std::unordered_map (ids dense in order of first appearance). The target already holds
