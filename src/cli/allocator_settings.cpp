@@ -4,9 +4,12 @@
 #include <sys/mman.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <cstddef>
 #include <cstdint>
 #include <cstdlib>
+#include <mutex>
+#include <vector>
 
 #include "core/worker_start.h"
 
@@ -64,27 +67,39 @@ constexpr std::uintptr_t kThreadHeapBytes = std::uintptr_t{64} << 20;
 // A block this close to its heap's start is among the first of a new arena.
 constexpr std::uintptr_t kFreshArena = std::uintptr_t{64} << 10;
 
+// The heaps advised so far. A thread that ends leaves its arena to the next thread started
+// (the analysis starts threads for each of its steps), which must not advise it again and
+// above all not keep another 2 MiB of it out of use.
+std::mutex advised_mutex;
+std::vector<std::uintptr_t> advised_heaps;  // one per arena: a handful
+
+bool first_advice_for(std::uintptr_t heap) {
+  std::lock_guard<std::mutex> lock(advised_mutex);
+  if (std::find(advised_heaps.begin(), advised_heaps.end(), heap) != advised_heaps.end()) return false;
+  advised_heaps.push_back(heap);
+  return true;
+}
+
 void advise_this_threads_heap() {
   void* probe = std::malloc(1);  // creates the thread's arena if it has none yet
   if (!probe) return;
   const auto at = reinterpret_cast<std::uintptr_t>(probe);
   const std::uintptr_t heap = at & ~(kThreadHeapBytes - 1);
-  // Below the program break: the main heap (glibc's arenas ran out), advised already. An
-  // arena used before (by a thread that has ended) was advised by that thread.
-  if (at < reinterpret_cast<std::uintptr_t>(sbrk(0)) || at - heap >= kFreshArena) {
+  // Below the program break: the main heap (glibc's arenas ran out), advised already.
+  if (at < reinterpret_cast<std::uintptr_t>(sbrk(0)) || !first_advice_for(heap)) {
     std::free(probe);
     return;
   }
   advise(heap, heap + kThreadHeapBytes);
   // The heap's first 2 MiB were written before the advice (glibc's headers, the probe) and
-  // stay in small pages: a block filling them, never freed and never written, keeps the
-  // thread's memory out of them (it costs address space, not memory). Then the heap is
-  // made writable 30 MiB further at once, so that its growth does not leave the 2 MiB at
-  // its end half writable, which would also give them small pages.
+  // stay in small pages: in a new arena, a block filling them, never freed and never
+  // written, keeps the thread's memory out of them (it costs address space, not memory).
+  // Then the heap is made writable 30 MiB further at once, so that its growth does not
+  // leave the 2 MiB at its end half writable, which would also give them small pages.
   // (Through volatile pointers: a compiler may drop a block that is never read, and does.)
   const std::uintptr_t filler_at = at + 32;  // the probe's 32-byte block ends at + 16
   const std::uintptr_t first_huge = heap + kHugePage;
-  if (first_huge > filler_at + 4096) {
+  if (at - heap < kFreshArena && first_huge > filler_at + 4096) {
     void* volatile never_freed = std::malloc(first_huge - filler_at - 64);
     (void)never_freed;
   }
