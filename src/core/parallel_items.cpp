@@ -1,13 +1,13 @@
 #include "core/parallel_items.h"
 
-#include "core/worker_start.h"
-
 #include <algorithm>
 #include <atomic>
 #include <exception>
 #include <mutex>
 #include <thread>
 #include <vector>
+
+#include "core/worker_start.h"
 
 namespace manicule {
 
