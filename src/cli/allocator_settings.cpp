@@ -1,7 +1,6 @@
 #include "cli/allocator_settings.h"
 
 #include <malloc.h>
-#include <sys/mman.h>
 #include <unistd.h>
 
 #include <algorithm>
@@ -12,6 +11,7 @@
 #include <vector>
 
 #include "core/worker_start.h"
+#include "profile/large_matrix.h"
 
 namespace manicule::cli {
 
@@ -20,11 +20,9 @@ namespace {
 constexpr std::size_t kTopPad = std::size_t{16} << 20;
 constexpr std::uintptr_t kHugePage = std::uintptr_t{2} << 20;
 
-std::uintptr_t huge_page_above(std::uintptr_t address) { return (address + kHugePage - 1) & ~(kHugePage - 1); }
-std::uintptr_t huge_page_below(std::uintptr_t address) { return address & ~(kHugePage - 1); }
-
-void advise(std::uintptr_t begin, std::uintptr_t end) {
-  if (end > begin) madvise(reinterpret_cast<void*>(begin), end - begin, MADV_HUGEPAGE);  // advice only
+// advise_huge_pages (profile/large_matrix.h) over [begin, end), given as addresses.
+void advise_range(std::uintptr_t begin, std::uintptr_t end) {
+  if (end > begin) advise_huge_pages(reinterpret_cast<void*>(begin), end - begin);
 }
 
 }  // namespace
@@ -49,9 +47,10 @@ void back_main_heap_with_huge_pages() {
   const std::size_t request = mallinfo2().keepcost + 4096;
   void* trigger = std::malloc(request);
   if (trigger) {
-    // The trigger's own pages and the header written after it lie below the range.
-    advise(huge_page_above(reinterpret_cast<std::uintptr_t>(trigger) + request + 64),
-           huge_page_below(reinterpret_cast<std::uintptr_t>(sbrk(0))));
+    // The trigger's own pages and the header written after it lie below the range (whose
+    // ends advise_huge_pages rounds inwards to whole huge pages).
+    advise_range(reinterpret_cast<std::uintptr_t>(trigger) + request + 64,
+                 reinterpret_cast<std::uintptr_t>(sbrk(0)));
   }
   std::free(trigger);
   mallopt(M_TOP_PAD, static_cast<int>(kTopPad));
@@ -66,6 +65,8 @@ namespace {
 constexpr std::uintptr_t kThreadHeapBytes = std::uintptr_t{64} << 20;
 // A block this close to its heap's start is among the first of a new arena.
 constexpr std::uintptr_t kFreshArena = std::uintptr_t{64} << 10;
+// How far a thread's heap is made writable at once (below the 32 MiB mapping threshold).
+constexpr std::size_t kThreadHeapGrowth = std::size_t{30} << 20;
 
 // The heaps advised so far. A thread that ends leaves its arena to the next thread started
 // (the analysis starts threads for each of its steps), which must not advise it again and
@@ -90,7 +91,7 @@ void advise_this_threads_heap() {
     std::free(probe);
     return;
   }
-  advise(heap, heap + kThreadHeapBytes);
+  advise_range(heap, heap + kThreadHeapBytes);
   // The heap's first 2 MiB were written before the advice (glibc's headers, the probe) and
   // stay in small pages: in a new arena, a block filling them, never freed and never
   // written, keeps the thread's memory out of them (it costs address space, not memory).
@@ -103,7 +104,7 @@ void advise_this_threads_heap() {
     void* volatile never_freed = std::malloc(first_huge - filler_at - 64);
     (void)never_freed;
   }
-  void* volatile growth = std::malloc(std::size_t{30} << 20);
+  void* volatile growth = std::malloc(kThreadHeapGrowth);
   std::free(growth);
   std::free(probe);
 }

@@ -1,6 +1,6 @@
 // What each worker thread the library starts does first: nothing, unless the program that
 // embeds the library asks for something. The command line uses it to tune the memory each
-// reading thread allocates from (cli/allocator_settings.h); a host keeps its own choices.
+// worker thread allocates from (cli/allocator_settings.h); a host keeps its own choices.
 #pragma once
 
 namespace manicule {

@@ -144,8 +144,9 @@ void Vocabulary::intern_all(const Vocabulary& source, std::vector<FeatureId>& id
   for (std::size_t i = 0; i < n; ++i) {
     if (i + kAhead < n) __builtin_prefetch(&slots_[keys[i + kAhead].hash & mask]);
     if (i + kAhead / 2 < n && keys[i + kAhead / 2].form.size() > 8) {
-      const Slot& first = slots_[keys[i + kAhead / 2].hash & mask];
-      if (first.id_plus_one != 0 && first.tag == tag_of(keys[i + kAhead / 2].hash, 9))
+      const Key& soon = keys[i + kAhead / 2];
+      const Slot& first = slots_[soon.hash & mask];
+      if (first.id_plus_one != 0 && first.tag == tag_of(soon.hash, soon.form.size()))
         __builtin_prefetch(arena_.data() + (first.inline_form >> 16));
     }
     ids[i] = intern(keys[i]);
