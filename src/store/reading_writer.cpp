@@ -117,6 +117,7 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
   const std::size_t bitmap_words = (words + 63) / 64;
   rank_bits_.assign(bitmap_words, 0);
   count_of_rank_.resize(words);
+  FreshContent* fresh = kept_ ? &kept_->by_content[r.sha256] : nullptr;
   for (std::size_t i = 0; i < r.segments.size(); ++i) {
     const SegmentRecord& record = r.segments[i];
     const Segment& seg = record.segment;
@@ -148,7 +149,26 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
     w.bind(12, record.tokens).bind(13, record.types).bind(14, counts.feature_total);
     w.bind_blob(15, encode_counts(mapped_));
     w.step_to_end();
-    if (kept_ && record.tokens >= kept_->min_tokens) kept_->by_content[r.sha256].emplace_back(i, mapped_);
+    if (fresh) {
+      fresh->languages.push_back(seg.language);
+      fresh->tokens.push_back(record.tokens);
+      if (record.tokens >= kept_->min_tokens) {
+        FreshSegment& kept = fresh->kept.emplace_back();
+        kept.ordinal = i;
+        kept.record.segment.local_id = seg.local_id;
+        kept.record.segment.unit = seg.unit;
+        kept.record.segment.label = seg.label;
+        kept.record.segment.language = seg.language;
+        kept.record.segment.pointers = seg.pointers;
+        kept.record.segment.author = seg.author;
+        kept.record.segment.authorship = seg.authorship;
+        kept.record.segment.warnings = seg.warnings;
+        kept.record.tokens = record.tokens;
+        kept.record.types = record.types;
+        kept.feature_total = counts.feature_total;
+        kept.counts = mapped_;
+      }
+    }
   }
   vocabulary_->write_new();
 }

@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <unordered_map>
-#include <unordered_set>
 
 #include <nlohmann/json.hpp>
 
@@ -23,7 +22,7 @@ Authorship parse_authorship(const std::string& s) {
 StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& filter) {
   StoredSelection out;
   Statement files = db.prepare(
-      "SELECT f.path, f.relative_path, f.sha256, r.status, r.title, r.author, r.date, r.year, r.language "
+      "SELECT f.path, f.relative_path, f.sha256, r.status, r.title, r.author, r.date, r.year, r.language, f.stem "
       "FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 ORDER BY f.path");
   files.bind(1, settings_id);
   while (files.step()) {
@@ -46,6 +45,8 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     }
     out.paths.push_back(path);
     out.sha256.push_back(files.text_at(2));
+    out.stems.push_back(files.text_at(9));
+    out.languages.push_back(std::move(m.language));
   }
   return out;
 }
@@ -54,68 +55,98 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
                                 const ArchiveFilter& filter, const StoredSelection& selection,
                                 std::size_t min_tokens, FreshCounts* fresh) {
   StoredCorpus out;
-  std::unordered_set<std::string> included(selection.paths.begin(), selection.paths.end());
-  Statement segments = db.prepare(
-      "SELECT f.path, f.stem, f.sha256, s.ordinal, s.local_id, s.unit, s.label, s.language, s.author, s.authorship, "
-      "s.pointers, s.warnings, s.tokens, s.types, s.feature_total, s.counts, r.language "
-      // CROSS JOIN keeps this join order (SQLite's rule for CROSS JOIN): files in path
-      // order, each file's segments by their key, so that no temporary B-tree has to sort
-      // every row with its counts (0.09 to 0.03 s over the stored plays in the sqlite3 shell).
-      "FROM files f CROSS JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 AND r.status = 'ok' "
-      "CROSS JOIN segments s ON s.settings_id = ?1 AND s.sha256 = f.sha256 ORDER BY f.path, s.ordinal");
-  segments.bind(1, settings_id);
+  // Each selected file's segments in ordinal order, from what the batch just stored when
+  // it is at hand, else from the store (the index on the segments' key gives that order).
+  Statement stored_segments = db.prepare(
+      "SELECT ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens, types, "
+      "feature_total, counts FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal");
   CountProfile& profile = out.corpus.counts;
   profile.spec = spec;
   std::unordered_map<std::string, std::string> id_owner;  // segment id -> path
   std::size_t id_bound = 0;  // one past the largest store feature id counted
-  std::string last_path;
-  while (segments.step()) {
-    std::string path = segments.text_at(0);
-    if (!included.count(path)) continue;
-    const std::string segment_language = segments.text_at(7);
-    if (!filter.language.empty() && !language_matches(filter, segment_language) &&
-        !language_matches(filter, segments.text_at(16)))
-      continue;
-    if (static_cast<std::size_t>(segments.int64_at(12)) < min_tokens) {
-      ++out.segments_too_short;
+  // Files sharing a content share its fresh segments: each but the last takes a copy.
+  std::unordered_map<std::string, std::size_t> uses_left;
+  if (fresh)
+    for (const auto& sha256 : selection.sha256) ++uses_left[sha256];
+
+  for (std::size_t f = 0; f < selection.paths.size(); ++f) {
+    const std::string& path = selection.paths[f];
+    const std::string& file_sha256 = selection.sha256[f];
+    bool file_listed = false;
+    const auto passes = [&](const std::string& segment_language, std::size_t tokens) {
+      if (!filter.language.empty() && !language_matches(filter, segment_language) &&
+          !language_matches(filter, selection.languages[f]))
+        return false;
+      if (tokens < min_tokens) {
+        ++out.segments_too_short;
+        return false;
+      }
+      return true;
+    };
+    const auto add = [&](SegmentRecord&& record, std::size_t ordinal, std::size_t feature_total,
+                         FeatureCounts&& counts) {
+      if (!file_listed) {
+        out.corpus.files.push_back(path);
+        out.corpus.file_sha256.push_back(file_sha256);
+        file_listed = true;
+      }
+      Segment& seg = record.segment;
+      seg.id = selection.stems[f] + "#" + seg.local_id;
+      seg.file = path;
+      auto [owner, new_id] = id_owner.emplace(seg.id, path);
+      if (!new_id)
+        throw Error(ErrorKind::usage, "segment id " + seg.id + " occurs in two files (" + owner->second + ", " + path +
+                                          "): files of the same name in different folders; narrow the analysis with --folder");
+      SegmentCounts segment_counts;
+      segment_counts.id = seg.id;
+      segment_counts.tokens = record.tokens;
+      segment_counts.feature_total = feature_total;
+      segment_counts.counts = std::move(counts);
+      // Counts are sorted by id: the last is the largest.
+      if (!segment_counts.counts.empty())
+        id_bound = std::max<std::size_t>(id_bound, segment_counts.counts.back().first + std::size_t{1});
+      profile.segments.push_back(std::move(segment_counts));
+      out.sources.push_back(SegmentSource{path, file_sha256, ordinal});
+      out.corpus.segments.push_back(std::move(record));
+    };
+
+    if (FreshContent* content = fresh ? fresh->find(file_sha256, min_tokens) : nullptr) {
+      const bool last_use = --uses_left[file_sha256] == 0;
+      std::size_t next_kept = 0;
+      for (std::size_t ordinal = 0; ordinal < content->tokens.size(); ++ordinal) {
+        const bool kept = next_kept < content->kept.size() && content->kept[next_kept].ordinal == ordinal;
+        FreshSegment* segment = kept ? &content->kept[next_kept++] : nullptr;
+        // One that passes has at least min_tokens words, so it was kept (find() said so).
+        if (!passes(content->languages[ordinal], content->tokens[ordinal])) continue;
+        if (last_use) {
+          add(std::move(segment->record), ordinal, segment->feature_total, std::move(segment->counts));
+        } else {
+          add(SegmentRecord(segment->record), ordinal, segment->feature_total, FeatureCounts(segment->counts));
+        }
+      }
       continue;
     }
-    const std::string file_sha256 = segments.text_at(2);
-    if (path != last_path) {
-      out.corpus.files.push_back(path);
-      out.corpus.file_sha256.push_back(file_sha256);
-      last_path = path;
+    stored_segments.bind(1, settings_id).bind(2, file_sha256);
+    while (stored_segments.step()) {
+      const std::string segment_language = stored_segments.text_at(4);
+      if (!passes(segment_language, static_cast<std::size_t>(stored_segments.int64_at(9)))) continue;
+      SegmentRecord record;
+      Segment& seg = record.segment;
+      seg.local_id = stored_segments.text_at(1);
+      seg.unit = stored_segments.text_at(2);
+      seg.label = stored_segments.text_at(3);
+      seg.language = segment_language;
+      seg.author = stored_segments.text_at(5);
+      seg.authorship = parse_authorship(stored_segments.text_at(6));
+      seg.pointers = nlohmann::json::parse(stored_segments.text_at(7)).get<std::vector<std::string>>();
+      seg.warnings = nlohmann::json::parse(stored_segments.text_at(8)).get<std::vector<std::string>>();
+      record.tokens = static_cast<std::size_t>(stored_segments.int64_at(9));
+      record.types = static_cast<std::size_t>(stored_segments.int64_at(10));
+      const auto ordinal = static_cast<std::size_t>(stored_segments.int64_at(0));
+      add(std::move(record), ordinal, static_cast<std::size_t>(stored_segments.int64_at(11)),
+          decode_counts(stored_segments.blob_at(12)));
     }
-    SegmentRecord record;
-    Segment& seg = record.segment;
-    seg.local_id = segments.text_at(4);
-    seg.id = segments.text_at(1) + "#" + seg.local_id;
-    seg.file = path;
-    seg.unit = segments.text_at(5);
-    seg.label = segments.text_at(6);
-    seg.language = segment_language;
-    seg.author = segments.text_at(8);
-    seg.authorship = parse_authorship(segments.text_at(9));
-    seg.pointers = nlohmann::json::parse(segments.text_at(10)).get<std::vector<std::string>>();
-    seg.warnings = nlohmann::json::parse(segments.text_at(11)).get<std::vector<std::string>>();
-    record.tokens = static_cast<std::size_t>(segments.int64_at(12));
-    record.types = static_cast<std::size_t>(segments.int64_at(13));
-    auto [owner, new_id] = id_owner.emplace(seg.id, path);
-    if (!new_id)
-      throw Error(ErrorKind::usage, "segment id " + seg.id + " occurs in two files (" + owner->second + ", " + path +
-                                        "): files of the same name in different folders; narrow the analysis with --folder");
-    SegmentCounts counts;
-    counts.id = seg.id;
-    counts.tokens = record.tokens;
-    counts.feature_total = static_cast<std::size_t>(segments.int64_at(14));
-    const std::size_t ordinal = static_cast<std::size_t>(segments.int64_at(3));
-    FeatureCounts* kept = fresh ? fresh->find(file_sha256, ordinal) : nullptr;
-    counts.counts = kept ? std::move(*kept) : decode_counts(segments.blob_at(15));
-    // Counts are sorted by id: the last is the largest.
-    if (!counts.counts.empty()) id_bound = std::max<std::size_t>(id_bound, counts.counts.back().first + std::size_t{1});
-    profile.segments.push_back(std::move(counts));
-    out.sources.push_back(SegmentSource{path, file_sha256, ordinal});
-    out.corpus.segments.push_back(std::move(record));
+    stored_segments.reset();
   }
 
   if (fresh && id_bound <= fresh->forms.size()) {

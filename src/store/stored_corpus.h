@@ -4,8 +4,9 @@
 // counts. Segments shorter than `min_tokens` words are left out here already (the feature
 // space would leave them out first anyway; they are counted), which keeps memory and time
 // in proportion to what is measured. Files stored as failed are left out and counted.
-// With `fresh` (what a batch run in this process just stored), its counts and vocabulary
-// are used instead of reading them back (the corpus is the same), and `fresh` is emptied.
+// With `fresh` (what a batch run in this process just stored), the segments, counts and
+// vocabulary it holds are used instead of reading them back (the corpus is the same), and
+// `fresh` is emptied.
 #pragma once
 #include <cstdint>
 #include <string>
@@ -29,6 +30,8 @@ struct SegmentSource {
 struct StoredSelection {
   std::vector<std::string> paths;   // in path order
   std::vector<std::string> sha256;  // of each path
+  std::vector<std::string> stems;   // of each path: segment ids begin with it
+  std::vector<std::string> languages;  // each file's header language
   std::size_t files_in_store = 0;       // rows of the files table
   std::size_t files_not_read = 0;       // no reading under these settings (run batch)
   std::size_t files_failed = 0;         // stored as failed under these settings

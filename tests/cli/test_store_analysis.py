@@ -1,7 +1,8 @@
 """Archive store: analyses over stored counts against numpy, SciPy and scikit-learn, and
 sub-corpora by header metadata against lxml.
 
-20 plays (every fourth in a subfolder) are read into a store once; then analyse-store
+20 plays (every fourth in a subfolder) and a copy of one of them under another name are
+read into a store once; then analyse-store
 works from the store alone. The same analysis is also made by batch --analyse on a new
 store (from the counts just read, kept in memory) and after a run that stored the
 subfolder only (those from the store, the rest from memory). Each time, the features it
@@ -106,6 +107,10 @@ def check_against_python(store, how):
 with tempfile.TemporaryDirectory() as tmp:
     archive = os.path.join(tmp, "archive")
     paths = storecheck.copy_plays(storecheck.pick_plays(20), archive, subfolder_every=4)
+    # A second copy of a play under another name: two files, one content (read once, stored once).
+    twin = os.path.join(archive, "zz-twin-" + os.path.basename(paths[0]))
+    shutil.copyfile(paths[0], twin)
+    paths.append(twin)
     store = os.path.join(tmp, "s.sqlite")
     mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--quiet"])
     analysis_args = ["--min-tokens", str(MIN_TOKENS), "--neighbours", str(K), "--pca"]
@@ -126,11 +131,21 @@ with tempfile.TemporaryDirectory() as tmp:
     shutil.copyfile(first, alone)
     check_against_python(alone, "the store's .sqlite copied alone after batch --analyse")
     check_against_python(first, "batch --analyse on a new store")
+    # Known by construction: each segment of the copy has the same counts as the original's,
+    # so its nearest segment is that one, at distance 0 (up to rounding).
+    _, tables = storecheck.latest_analysis(first)
+    nearest = {n[0]: (n[2], n[3]) for n in tables["neighbours"] if n[1] == 1}
+    twin_stem, original_stem = (os.path.splitext(os.path.basename(p))[0] for p in (twin, paths[0]))
+    copies = [s for s in nearest if s.startswith(twin_stem + "#")]
+    mtest.check(copies and all(nearest[s][0] == original_stem + s[len(twin_stem):] and nearest[s][1] < 1e-12
+                               for s in copies),
+                "batch --analyse: the copy's segments are not nearest their originals: %r" %
+                {s: nearest[s] for s in copies})
     mixed = os.path.join(tmp, "mixed.sqlite")
     mtest.run(["batch", archive, "--store", mixed, "--unit", "speaker", "--quiet", "--folder", "more"])
     mtest.run(["batch", archive, "--store", mixed, "--unit", "speaker", "--quiet", "--analyse"] + analysis_args)
     run = storecheck.last_run(mixed)
-    mtest.check(run["files_read"] == 15 and run["files_unchanged"] == 5,
+    mtest.check(run["files_read"] == 16 and run["files_unchanged"] == 5,
                 "the mixed run read %d files, found %d unchanged" % (run["files_read"], run["files_unchanged"]))
     check_against_python(mixed, "batch --analyse after the subfolder was stored")
 
