@@ -13,8 +13,6 @@
 #include "cli/progress_display.h"
 #include "cli/selection_options.h"
 #include "cli/store_report.h"
-#include "measure/cosine_gram.h"
-#include "measure/pairwise_distances.h"
 #include "store/batch_run.h"
 #include "store/store_analysis.h"
 #include "store/store_schema.h"
@@ -80,13 +78,12 @@ CommandRunner add_batch_command(CLI::App& app) {
     // after (its loading and thread start took 1-19 ms of the plays' analysis). A re-run
     // that reads nothing, whose analysis is most often stored already, does not load it.
     std::future<void> blas;
-    const bool open_blas_ahead = flags->analyse && uses_gram_matrix(request.measure);
     auto db = store::open_store(flags->store, true);
     ProgressDisplay display(flags->quiet);
     store::BatchSummary summary = store::run_batch(
         *db, request, options, [&](const store::BatchProgress& p, const std::string& path, store::FileOutcome outcome) {
-          if (open_blas_ahead && !blas.valid() && outcome != store::FileOutcome::unchanged)
-            blas = std::async(std::launch::async, open_blas);
+          if (flags->analyse && !blas.valid() && outcome != store::FileOutcome::unchanged)
+            blas = store::open_blas_ahead(request);
           if (flags->verbose && !path.empty()) {
             display.clear();
             std::cerr << outcome_word(outcome) << ": " << path << '\n';

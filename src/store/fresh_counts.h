@@ -21,7 +21,7 @@ namespace manicule::store {
 // A segment of at least min_tokens words, as stored.
 struct FreshSegment {
   std::size_t ordinal = 0;
-  SegmentRecord record;  // segment.id and segment.file are left empty: they go with the path
+  SegmentRecord record;  // as read; the corpus loader sets segment.id and .file from the path
   std::size_t feature_total = 0;
   FeatureCounts counts;  // in store ids
 };

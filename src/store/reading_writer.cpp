@@ -153,20 +153,7 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
       fresh->languages.push_back(seg.language);
       fresh->tokens.push_back(record.tokens);
       if (record.tokens >= kept_->min_tokens) {
-        FreshSegment& kept = fresh->kept.emplace_back();
-        kept.ordinal = i;
-        kept.record.segment.local_id = seg.local_id;
-        kept.record.segment.unit = seg.unit;
-        kept.record.segment.label = seg.label;
-        kept.record.segment.language = seg.language;
-        kept.record.segment.pointers = seg.pointers;
-        kept.record.segment.author = seg.author;
-        kept.record.segment.authorship = seg.authorship;
-        kept.record.segment.warnings = seg.warnings;
-        kept.record.tokens = record.tokens;
-        kept.record.types = record.types;
-        kept.feature_total = counts.feature_total;
-        kept.counts = mapped_;
+        fresh->kept.push_back(FreshSegment{i, record, counts.feature_total, mapped_});
       }
     }
   }

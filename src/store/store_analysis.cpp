@@ -68,6 +68,11 @@ std::vector<AttributionRow> attribution_rows(const Request& request, Analysis& a
 
 }  // namespace
 
+std::future<void> open_blas_ahead(const Request& request) {
+  if (!uses_gram_matrix(request.measure)) return {};
+  return std::async(std::launch::async, open_blas);
+}
+
 StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const Request& request,
                                   const StoreAnalysisOptions& options, FreshCounts* fresh) {
   const ArchiveFilter& filter = options.filter;
@@ -103,8 +108,7 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   }
 
   // Cosine measures take their Gram matrix from the BLAS: it is opened while the corpus loads.
-  std::future<void> blas;
-  if (uses_gram_matrix(request.measure)) blas = std::async(std::launch::async, open_blas);
+  std::future<void> blas = open_blas_ahead(request);
   StoredCorpus stored = load_stored_corpus(db, settings_id, request.features, filter, selection,
                                            request.feature_space.min_segment_tokens, fresh);
   result.files = stored.corpus.files.size();

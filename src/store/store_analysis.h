@@ -6,6 +6,7 @@
 // same files and contents) is reused unless `recompute`.
 #pragma once
 #include <cstdint>
+#include <future>
 #include <string>
 #include <vector>
 
@@ -34,6 +35,12 @@ struct StoreAnalysisOptions {
   bool attribute = false;  // rank candidates for the questioned segments
   bool recompute = false;
 };
+
+// Opens, on a thread of its own, the BLAS the analysis of `request` takes its Gram matrix
+// from (a few milliseconds of loading and thread start); an invalid future when the
+// measure needs none. analyse_store does this itself; a caller that knows earlier that an
+// analysis will follow (a batch that reads files) can start it sooner and wait before.
+std::future<void> open_blas_ahead(const Request& request);
 
 // `request` gives the analysis options (feature space, measure, neighbours, PCA,
 // attribution) and must carry the reading settings of `settings_id`. Throws
