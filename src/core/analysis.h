@@ -64,9 +64,6 @@ struct Analysis {
   std::optional<VerificationBand> verification_band;
   std::optional<EvaluationResult> evaluation;
   std::vector<std::string> notes;  // run-level remarks for the user (e.g. excluded segments)
-
-  // Index of a segment by id, or npos.
-  std::size_t find_segment(const std::string& id) const;
 };
 
 }  // namespace manicule

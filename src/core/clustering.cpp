@@ -3,6 +3,7 @@
 #include "core/analysis.h"
 #include "core/error.h"
 #include "core/request.h"
+#include "core/segment_index.h"
 
 namespace manicule {
 
@@ -30,9 +31,10 @@ ClusteringResult cluster_segments(const Request& request, const CountProfile& co
   result.consensus = bootstrap_consensus(counts, consensus);
   result.ranges = options.consensus_ranges;
   // Every range keeps the same segments (same minimum size), in table-row order; check it.
+  const SegmentIndex segment_index(analysis.segments);
   for (const auto& id : result.consensus->labels) {
-    const std::size_t index = analysis.find_segment(id);
-    if (index == std::string::npos) throw Error(ErrorKind::internal, "consensus leaf " + id + " is not a segment");
+    const std::size_t index = segment_index.find(id);
+    if (index == SegmentIndex::npos) throw Error(ErrorKind::internal, "consensus leaf " + id + " is not a segment");
     result.leaves.push_back(index);
   }
   return result;

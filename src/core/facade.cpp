@@ -4,16 +4,12 @@
 #include <sstream>
 
 #include "core/error.h"
+#include "core/segment_index.h"
 #include "measure/nearest_rows.h"
 #include "measure/pairwise_distances.h"
 
 namespace manicule {
 
-std::size_t Analysis::find_segment(const std::string& id) const {
-  for (std::size_t i = 0; i < segments.size(); ++i)
-    if (segments[i].id == id) return i;
-  return std::string::npos;
-}
 
 std::vector<SegmentSummary> summarise_segments(const Corpus& corpus) {
   std::vector<SegmentSummary> out;
@@ -78,15 +74,19 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
     throw Error(ErrorKind::nothing_selected, "no " + request.unit + " segment found in the input files");
 
   FeatureTable table = build_feature_table(corpus.counts, request.feature_space, request.threads);
-  for (const auto& excluded : table.report.excluded_segments) {
-    std::size_t i = analysis.find_segment(excluded.id);
-    if (i != std::string::npos) analysis.segments[i].excluded_reason = excluded.reason;
-  }
   std::vector<std::size_t> rows;
-  for (const auto& id : table.segment_ids) {
-    std::size_t i = analysis.find_segment(id);
-    analysis.segments[i].measured = true;
-    rows.push_back(i);
+  {
+    const SegmentIndex segment_index(analysis.segments);  // views into the ids, left as they are
+    for (const auto& excluded : table.report.excluded_segments) {
+      const std::size_t i = segment_index.find(excluded.id);
+      if (i != SegmentIndex::npos) analysis.segments[i].excluded_reason = excluded.reason;
+    }
+    for (const auto& id : table.segment_ids) {
+      const std::size_t i = segment_index.find(id);
+      if (i == SegmentIndex::npos) throw Error(ErrorKind::internal, "table row " + id + " is not a segment");
+      analysis.segments[i].measured = true;
+      rows.push_back(i);
+    }
   }
   analysis.table_rows = rows;
   if (!table.report.excluded_segments.empty()) {
