@@ -148,6 +148,12 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   if (stored.segments_too_short)
     result.notes.push_back(std::to_string(stored.segments_too_short) + " segment(s) shorter than " +
                            std::to_string(request.feature_space.min_segment_tokens) + " words left out");
+  // Said, so that fewer files in the report than in the archive need no guessing.
+  if (selection.paths.size() > result.files)
+    result.notes.push_back(std::to_string(selection.paths.size() - result.files) + " of the " +
+                           std::to_string(selection.paths.size()) + " file(s) selected hold no segment of " +
+                           std::to_string(request.feature_space.min_segment_tokens) + " words or more" +
+                           (filter.language.empty() ? "" : " in the language asked for"));
   return result;
 }
 

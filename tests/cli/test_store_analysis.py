@@ -149,6 +149,15 @@ with tempfile.TemporaryDirectory() as tmp:
                 "the mixed run read %d files, found %d unchanged" % (run["files_read"], run["files_unchanged"]))
     check_against_python(mixed, "batch --analyse after the subfolder was stored")
 
+    # Files without a segment long enough are said to be left out, as many as the archive's
+    # files (21, by construction) less those the analysis's rows hold (counted with SQL).
+    proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "4000"])
+    _, tables = storecheck.latest_analysis(store)
+    held = len({row[1] for row in tables["segments"]})
+    note = "%d of the %d file(s) selected hold no segment of 4000 words or more" % (len(paths) - held, len(paths))
+    mtest.check(len(paths) == 21 and 2 <= held < len(paths) and note in proc.stderr,
+                "the note on files without a long segment: %d of %d held, stderr %r" % (held, len(paths), proc.stderr))
+
     # Sub-corpora: the files an analysis takes in are those lxml finds matching.
     facts = {p: header_facts(p) for p in paths}
     db = storecheck.connect(store)
