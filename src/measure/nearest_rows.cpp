@@ -51,15 +51,12 @@ class BestRows {
 class Candidates {
  public:
   Candidates(std::size_t k, double window) : k_(k), window_(window) { top_.reserve(k); }
+  // Inline: once the k-th largest is known, nearly every similarity offered lies below the
+  // floor, and the test is all it should cost; as a call, offer took 9 % of the CPU of an
+  // analysis of 10,000 segments.
   void offer(std::size_t row, float similarity) {
     if (k_ == 0 || similarity < floor_) return;
-    if (top_.size() < k_ || similarity > top_.back()) {
-      if (top_.size() == k_) top_.pop_back();
-      top_.insert(std::upper_bound(top_.begin(), top_.end(), similarity, std::greater<float>()), similarity);
-      if (top_.size() == k_) floor_ = static_cast<double>(top_.back()) - window_;
-    }
-    kept_.push_back({similarity, static_cast<std::uint32_t>(row)});
-    if (kept_.size() >= 2 * prune_at_) prune();
+    keep(row, similarity);
   }
   // Every row kept that is within the window of the k-th largest.
   template <typename Visit>
@@ -73,6 +70,15 @@ class Candidates {
     float similarity;
     std::uint32_t row;
   };
+  [[gnu::noinline]] void keep(std::size_t row, float similarity) {
+    if (top_.size() < k_ || similarity > top_.back()) {
+      if (top_.size() == k_) top_.pop_back();
+      top_.insert(std::upper_bound(top_.begin(), top_.end(), similarity, std::greater<float>()), similarity);
+      if (top_.size() == k_) floor_ = static_cast<double>(top_.back()) - window_;
+    }
+    kept_.push_back({similarity, static_cast<std::uint32_t>(row)});
+    if (kept_.size() >= 2 * prune_at_) prune();
+  }
   void prune() {
     kept_.erase(std::remove_if(kept_.begin(), kept_.end(), [&](const Kept& c) { return c.similarity < floor_; }),
                 kept_.end());
