@@ -33,7 +33,7 @@ struct NearRow {
 
 struct NearestOptions {
   DistanceOptions distance;
-  std::size_t block_rows = 0;  // rows a block; 0 = some 4 MiB of dot products a block
+  std::size_t block_rows = 0;  // rows a block; 0 = some 4 MiB of dot products a block, 256 rows at least
   // Screen in single precision first (see above); off: every pair in double precision.
   bool screen = true;
 };
