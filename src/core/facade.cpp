@@ -10,7 +10,6 @@
 
 namespace manicule {
 
-
 std::vector<SegmentSummary> summarise_segments(const Corpus& corpus) {
   std::vector<SegmentSummary> out;
   out.reserve(corpus.segments.size());
