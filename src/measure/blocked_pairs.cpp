@@ -176,6 +176,86 @@ __attribute__((target("avx2"))) void row_tile_avx2(const Frame& f, Eigen::Index 
 bool has_avx2() { return __builtin_cpu_supports("avx2"); }
 #endif
 
+// A band of rows (see blocked_pair_sums_band) against the rows first + r, r in [r0, r1).
+struct Band {
+  const double* rows;
+  Eigen::Index length;  // values per row (= row stride)
+  Eigen::Index first;
+  Eigen::Index count;
+  double* out;
+  const double* row(Eigen::Index i) const { return rows + i * length; }
+  // The pair's sum, and within the band the same sum for the pair seen from its other row.
+  void put(Eigen::Index c, Eigen::Index r, double v) const {
+    out[c + count * r] = v;
+    if (r < count) out[r + count * c] = v;
+  }
+};
+
+// Pairs (c, r) with c < r only (inside the band a pair is measured once and put at both
+// places): tiles of kTileRows band rows, Op::kRows x Op::kColumns pairs at a time.
+template <class Op>
+MANICULE_INLINE void band_rows(const Band& b, Eigen::Index r0, Eigen::Index r1) {
+  constexpr int RA = Op::kRows;
+  constexpr int RB = Op::kColumns;
+  for (Eigen::Index c0 = 0; c0 < b.count && c0 < r1 - 1; c0 += kTileRows) {
+    const Eigen::Index c1 = std::min(b.count, c0 + kTileRows);
+    for (Eigen::Index r = r0; r < r1; r += RB) {
+      const Eigen::Index rs = std::min<Eigen::Index>(RB, r1 - r);
+      for (Eigen::Index c = c0; c < c1 && c < r + rs - 1; c += RA) {
+        const Eigen::Index cs = std::min<Eigen::Index>(RA, c1 - c);
+        if (cs == RA && rs == RB && c + RA - 1 < r) {  // every pair of the block has c < r
+          const double* a[RA];
+          const double* o[RB];
+          for (int i = 0; i < RA; ++i) a[i] = b.row(b.first + c + i);
+          for (int s = 0; s < RB; ++s) o[s] = b.row(b.first + r + s);
+          double result[RA][RB];
+          pair_block<Op, RA, RB>(a, o, b.length, result);
+          for (int i = 0; i < RA; ++i)
+            for (int s = 0; s < RB; ++s) b.put(c + i, r + s, result[i][s]);
+          continue;
+        }
+        for (Eigen::Index cc = c; cc < c + cs; ++cc) {
+          for (Eigen::Index rr = std::max(r, cc + 1); rr < r + rs; ++rr) {
+            const double* a[1] = {b.row(b.first + cc)};
+            const double* o[1] = {b.row(b.first + rr)};
+            double result[1][1];
+            pair_block<Op, 1, 1>(a, o, b.length, result);
+            b.put(cc, rr, result[0][0]);
+          }
+        }
+      }
+    }
+  }
+}
+
+template <class Op>
+void band_rows_baseline(const Band& b, Eigen::Index r0, Eigen::Index r1) {
+  band_rows<Op>(b, r0, r1);
+}
+
+#if defined(__GNUC__) && (defined(__x86_64__) || defined(__i386__))
+template <class Op>
+__attribute__((target("avx2"))) void band_rows_avx2(const Band& b, Eigen::Index r0, Eigen::Index r1) {
+  band_rows<Op>(b, r0, r1);
+}
+#endif
+
+template <class Op>
+void run_band(const RowMatrix& x, Eigen::Index first, Eigen::Index count, double* out, unsigned threads,
+              SimdLevel simd) {
+  auto rows = &band_rows_baseline<Op>;
+#if defined(__GNUC__) && (defined(__x86_64__) || defined(__i386__))
+  if (simd == SimdLevel::best && has_avx2()) rows = &band_rows_avx2<Op>;
+#endif
+  const Band band{x.data(), x.cols(), first, count, out};
+  const Eigen::Index rest = x.rows() - first;
+  const Eigen::Index tiles = (rest + kTileRows - 1) / kTileRows;
+  parallel_items(static_cast<std::size_t>(tiles), threads, [&](std::size_t item) {
+    const Eigen::Index r0 = static_cast<Eigen::Index>(item) * kTileRows;
+    rows(band, r0, std::min(rest, r0 + kTileRows));
+  });
+}
+
 template <class Op>
 void run_tiles(const RowMatrix& x, unsigned threads, Eigen::MatrixXd& out, SimdLevel simd) {
   auto tile = &row_tile_baseline<Op>;
@@ -200,6 +280,15 @@ void blocked_pair_sums(const RowMatrix& rows, PairSum kind, unsigned threads,
     case PairSum::absolute: run_tiles<AbsoluteSum>(rows, threads, out, simd); break;
     case PairSum::squared: run_tiles<SquaredSum>(rows, threads, out, simd); break;
     case PairSum::min_max: run_tiles<MinMaxRatio>(rows, threads, out, simd); break;
+  }
+}
+
+void blocked_pair_sums_band(const RowMatrix& rows, PairSum kind, Eigen::Index first, Eigen::Index count,
+                            double* out, unsigned threads, SimdLevel simd) {
+  switch (kind) {
+    case PairSum::absolute: run_band<AbsoluteSum>(rows, first, count, out, threads, simd); break;
+    case PairSum::squared: run_band<SquaredSum>(rows, first, count, out, threads, simd); break;
+    case PairSum::min_max: run_band<MinMaxRatio>(rows, first, count, out, threads, simd); break;
   }
 }
 

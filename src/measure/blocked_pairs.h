@@ -24,4 +24,12 @@ enum class SimdLevel { best, baseline };
 void blocked_pair_sums(const RowMatrix& rows, PairSum kind, unsigned threads,
                        Eigen::MatrixXd& out, SimdLevel simd = SimdLevel::best);
 
+// The sums of a band of rows, first .. first + count - 1, against every row from `first`
+// on (the band's own included): out[c + count * r] is the sum of rows first + c and
+// first + r, for c < count and r < n - first; out[c + count * c] is not written. What
+// nearest_rows.h needs to keep each row's nearest without the n x n matrix. Each pair's
+// sum is the same to the last bit as blocked_pair_sums gives it.
+void blocked_pair_sums_band(const RowMatrix& rows, PairSum kind, Eigen::Index first, Eigen::Index count,
+                            double* out, unsigned threads, SimdLevel simd = SimdLevel::best);
+
 }  // namespace manicule

@@ -231,11 +231,28 @@ std::vector<std::vector<NearRow>> nearest_in_matrix(const Eigen::MatrixXd& dista
 
 std::vector<std::vector<NearRow>> nearest_rows(const RowMatrix& rows, DistanceMeasure measure, std::size_t k,
                                                const NearestOptions& options) {
-  if (!uses_gram_matrix(measure))
-    return nearest_in_matrix(pairwise_distances(rows, measure, options.distance), k, options.distance.threads);
   check_distance_input(rows);
   const auto n = static_cast<std::size_t>(rows.rows());
   const std::size_t keep = std::min(k, n - 1);
+  if (!uses_gram_matrix(measure)) {
+    // The pair sums a band of rows at a time (blocked_pairs.h), each turned into its
+    // distance as the whole matrix has it: the same distances, in a band's memory.
+    const PairSumMeasure how = pair_sum_measure(measure, rows.cols());
+    const RowMatrix weighted = how.rank_weighted ? rank_weighted_rows(rows) : RowMatrix();
+    const RowMatrix& summed = how.rank_weighted ? weighted : rows;
+    std::vector<BestRows> best;
+    offer_every_pair<double>(
+        n, options, BestRows(keep), best,
+        [&](std::size_t first, std::size_t count, std::size_t, double* out) {
+          blocked_pair_sums_band(summed, how.kind, static_cast<Eigen::Index>(first), static_cast<Eigen::Index>(count),
+                                 out, options.distance.threads);
+          return true;
+        },
+        [&](double sum, std::size_t, std::size_t) { return how.distance(sum); });
+    std::vector<std::vector<NearRow>> out(n);
+    for (std::size_t i = 0; i < n; ++i) out[i] = best[i].take();
+    return out;
+  }
   const RowLengths lengths = row_lengths(rows);
   if (options.screen && keep > 0 && static_cast<std::size_t>(rows.cols()) <= kMostScreenedFeatures)
     if (auto screened = nearest_by_screening(rows, keep, lengths, options)) return std::move(*screened);

@@ -1,12 +1,12 @@
 // nearest_rows: the k nearest other rows of every row under a distance measure, without
-// the n x n distance matrix when the measure is a cosine one: the dot products are taken
-// a block of rows at a time (a BLAS matrix product of the block against itself and the
-// rows after it, so each pair once), and each row keeps its k best as they go by. An
-// archive's analysis needs only the nearest segments, and its matrix grows with the square
-// of the segments: 51 MiB for the 2,538 long chapters of the English novels, 3.2 GiB for
-// 20,000 segments; on the virtual machines we measure on, every fresh page of it costs a
-// page fault and the host's zeroing as well.
-// The products are screened in single precision, which halves the one cubic step (the
+// the n x n distance matrix: for a cosine measure the dot products are taken a block of
+// rows at a time (a BLAS matrix product of the block against itself and the rows after
+// it, so each pair once), for the others the pair sums (see the end), and each row keeps
+// its k best as they go by. An archive's analysis needs only the nearest segments, and
+// the matrix grows with the square of the segments: 51 MiB for the 2,538 long chapters of
+// the English novels, 3.2 GiB for 20,000 segments; on the virtual machines we measure on,
+// every fresh page of it costs a page fault and the host's zeroing as well.
+// The cosine measures' products are screened in single precision, which halves the one cubic step (the
 // novels' 2,538 x 2,538 x 1,000: 97 ms in double, 50 ms in single on two cores here): each
 // row keeps every row whose single-precision similarity is within a proven rounding
 // bound (and 1e-9) of its k-th largest, and only those candidates are measured in double
@@ -15,7 +15,9 @@
 // distances, in row order) included, since rows that tie are all candidates.
 // Distances are those pairwise_distances gives, from the same formula on dot products
 // that may be rounded differently (summed in another order: within a few units in the
-// last place). Other measures take their full matrix.
+// last place). The other measures sum each pair of a band of rows against the rows after
+// it (blocked_pairs.h), a band at a time as well, with the distances of their full matrix
+// to the last bit.
 #pragma once
 #include <cstddef>
 #include <vector>

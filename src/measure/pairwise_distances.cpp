@@ -21,24 +21,44 @@ void check_distance_input(const RowMatrix& rows) {
   }
 }
 
-namespace {
-
-// Eder's weights (n - i + 1) / n for the feature at rank position i = 1..n.
-RowMatrix weighted_by_rank(const RowMatrix& rows) {
+RowMatrix rank_weighted_rows(const RowMatrix& rows) {
   const auto n = static_cast<double>(rows.cols());
   Eigen::RowVectorXd weights(rows.cols());
   for (Eigen::Index c = 0; c < rows.cols(); ++c) weights[c] = (n - static_cast<double>(c)) / n;
   return rows.array().rowwise() * weights.array();
 }
 
-// Lower triangle -> whole matrix: clamp, scale, zero diagonal, mirror.
-void finish(Eigen::MatrixXd& out, double scale, bool take_root) {
+PairSumMeasure pair_sum_measure(DistanceMeasure measure, Eigen::Index features) {
+  const double per_feature = 1.0 / static_cast<double>(features);
+  switch (measure) {
+    case DistanceMeasure::burrows_delta:  // Burrows 2002: mean absolute z difference
+      return {PairSum::absolute, per_feature, false, false};
+    case DistanceMeasure::quadratic_delta:  // Argamon 2008: squared Euclidean on z
+      return {PairSum::squared, 1.0, false, false};
+    case DistanceMeasure::eder_delta:  // Eder et al. 2016: rank-weighted, divided by n
+      return {PairSum::absolute, per_feature, false, true};
+    case DistanceMeasure::manhattan:
+      return {PairSum::absolute, 1.0, false, false};
+    case DistanceMeasure::euclidean:
+      return {PairSum::squared, 1.0, true, false};
+    case DistanceMeasure::minmax:  // Ruzicka: 1 - sum min / sum max
+      return {PairSum::min_max, 1.0, false, false};
+    case DistanceMeasure::cosine_delta:
+    case DistanceMeasure::cosine:
+      break;
+  }
+  throw Error(ErrorKind::internal, "pair_sum_measure asked for a measure taken from a Gram matrix");
+}
+
+namespace {
+
+// Lower triangle -> whole matrix: the distance of each sum, zero diagonal, mirror.
+void finish(Eigen::MatrixXd& out, const PairSumMeasure& how) {
   const Eigen::Index n = out.rows();
   for (Eigen::Index j = 0; j < n; ++j) {
     out(j, j) = 0.0;
     for (Eigen::Index i = j + 1; i < n; ++i) {
-      double d = std::max(0.0, out(i, j)) * scale;
-      if (take_root) d = std::sqrt(d);
+      const double d = how.distance(out(i, j));
       out(i, j) = d;
       out(j, i) = d;
     }
@@ -51,39 +71,16 @@ Eigen::MatrixXd pairwise_distances(const RowMatrix& rows, DistanceMeasure measur
                                    const DistanceOptions& options) {
   check_distance_input(rows);
   const Eigen::Index n = rows.rows();
-  const double features = static_cast<double>(rows.cols());
   Eigen::MatrixXd out = zero_matrix<Eigen::MatrixXd>(n, n);
-  switch (measure) {
-    case DistanceMeasure::burrows_delta:  // Burrows 2002: mean absolute z difference
-      blocked_pair_sums(rows, PairSum::absolute, options.threads, out);
-      finish(out, 1.0 / features, false);
-      break;
-    case DistanceMeasure::quadratic_delta:  // Argamon 2008: squared Euclidean on z
-      blocked_pair_sums(rows, PairSum::squared, options.threads, out);
-      finish(out, 1.0, false);
-      break;
-    case DistanceMeasure::eder_delta:  // Eder et al. 2016: rank-weighted, divided by n
-      blocked_pair_sums(weighted_by_rank(rows), PairSum::absolute, options.threads, out);
-      finish(out, 1.0 / features, false);
-      break;
-    case DistanceMeasure::manhattan:
-      blocked_pair_sums(rows, PairSum::absolute, options.threads, out);
-      finish(out, 1.0, false);
-      break;
-    case DistanceMeasure::euclidean:
-      blocked_pair_sums(rows, PairSum::squared, options.threads, out);
-      finish(out, 1.0, true);
-      break;
-    case DistanceMeasure::cosine_delta:  // Smith & Aldridge 2011: cosine on z
-    case DistanceMeasure::cosine:       // (uses_gram_matrix names these two)
-      cosine_distances_by_gram(rows, options.threads, out);
-      finish(out, 1.0, false);
-      break;
-    case DistanceMeasure::minmax:  // Ruzicka: 1 - sum min / sum max
-      blocked_pair_sums(rows, PairSum::min_max, options.threads, out);
-      finish(out, 1.0, false);
-      break;
+  if (uses_gram_matrix(measure)) {  // Smith & Aldridge 2011: cosine (on z for Cosine Delta)
+    cosine_distances_by_gram(rows, options.threads, out);
+    finish(out, PairSumMeasure{});
+    return out;
   }
+  const PairSumMeasure how = pair_sum_measure(measure, rows.cols());
+  const RowMatrix weighted = how.rank_weighted ? rank_weighted_rows(rows) : RowMatrix();
+  blocked_pair_sums(how.rank_weighted ? weighted : rows, how.kind, options.threads, out);
+  finish(out, how);
   return out;
 }
 

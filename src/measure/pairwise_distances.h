@@ -5,11 +5,14 @@
 // Speed: cosine measures are one matrix product of length-normalised rows; the others are
 // blocked, vectorised loops (blocked_pairs.h). Both run on `threads` threads (0 = all).
 #pragma once
+#include <algorithm>
+#include <cmath>
 #include <string>
 #include <vector>
 
 #include <Eigen/Dense>
 
+#include "measure/blocked_pairs.h"
 #include "measure/distance_measure.h"
 #include "profile/feature_table.h"
 
@@ -38,6 +41,26 @@ void check_distance_input(const RowMatrix& rows);
 // Whether pairwise_distances takes this measure from a Gram matrix (the BLAS, opened at
 // the first one; open_blas() in cosine_gram.h opens it ahead).
 bool uses_gram_matrix(DistanceMeasure measure);
+
+// A measure not taken from a Gram matrix: a sum over each pair of rows (blocked_pairs.h)
+// and what makes the distance of it, the same for the whole matrix and for the nearest
+// rows found a band at a time (nearest_rows.h).
+struct PairSumMeasure {
+  PairSum kind = PairSum::absolute;
+  double scale = 1.0;
+  bool take_root = false;
+  bool rank_weighted = false;  // Eder's Delta: the sums are over rank_weighted_rows
+  double distance(double sum) const {
+    const double d = std::max(0.0, sum) * scale;  // rounding below zero clamped
+    return take_root ? std::sqrt(d) : d;
+  }
+};
+
+// For a measure that uses_gram_matrix() does not name, over rows of `features` values.
+PairSumMeasure pair_sum_measure(DistanceMeasure measure, Eigen::Index features);
+
+// Eder's weights (n - i + 1) / n applied to the feature at rank position i = 1..n.
+RowMatrix rank_weighted_rows(const RowMatrix& rows);
 
 // The table's rows the measure's formula takes: z-scores or relative frequencies.
 const RowMatrix& measure_rows(const FeatureTable& table, DistanceMeasure measure);

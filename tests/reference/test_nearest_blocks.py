@@ -1,7 +1,9 @@
 """The k nearest rows of each row as an archive's analysis finds them (src/measure/
 nearest_rows.h: dot products a block of rows at a time, never the whole distance matrix),
 for many block sizes and thread counts, against SciPy's cosine distance over all pairs
-(scipy.spatial.distance.cdist) and Burrows's Delta (cityblock / number of features).
+(scipy.spatial.distance.cdist), and for the measures summed over each pair of rows (the
+Deltas of Burrows, Argamon and Eder, Manhattan, Euclidean) against cdist and for MinMax
+against numpy.
 
 The matrix holds the cases the block loop must get right: rows that are equal (ties between
 two neighbours), a row that is a multiple of another (distance 0 up to rounding), two zero
@@ -101,10 +103,34 @@ with tempdir() as directory:
     # the same rows as relative frequencies: 'cosine' takes the same path
     out = driver(["nearest", "--measure", "cosine", "--matrix", path, "--k", 5, "--block", 7])
     check_nearest(out, cosine, 5, "cosine block 7")
-    # a measure without a Gram matrix: from its full matrix (Burrows 2002: mean absolute z difference)
-    burrows = cdist(X, X, "cityblock") / X.shape[1]
-    out = driver(["nearest", "--measure", "burrows-delta", "--matrix", path, "--k", 5])
-    check_nearest(out, burrows, 5, "burrows-delta")
+    # The measures without a Gram matrix sum each pair a band of rows at a time: every block
+    # size, one and two threads, against SciPy (Burrows 2002: cityblock / n; Argamon 2008:
+    # sqeuclidean; Eder et al. 2016: cityblock of the rows weighted (n - i + 1) / n at rank
+    # i, / n) and numpy for MinMax (Ruzicka: 1 - sum min / sum max, on non-negative rows;
+    # two zero rows at distance 0, the documented rule of src/measure/blocked_pairs.h).
+    n_features = X.shape[1]
+    weights = (n_features - np.arange(n_features)) / n_features
+    positive = np.abs(X)
+    low = np.minimum(positive[:, None, :], positive[None, :, :]).sum(axis=2)
+    high = np.maximum(positive[:, None, :], positive[None, :, :]).sum(axis=2)
+    with np.errstate(invalid="ignore"):
+        ruzicka = np.where(high > 0, 1 - low / np.where(high > 0, high, 1), 0.0)
+    positive_path = write_matrix(directory, "positive.tsv", ids, features, positive)
+    pair_sum_cases = [
+        ("burrows-delta", path, cdist(X, X, "cityblock") / n_features),
+        ("quadratic-delta", path, cdist(X, X, "sqeuclidean")),
+        ("eder-delta", path, cdist(X * weights, X * weights, "cityblock") / n_features),
+        ("manhattan", path, cdist(X, X, "cityblock")),
+        ("euclidean", path, cdist(X, X, "euclidean")),
+        ("minmax", positive_path, ruzicka),
+    ]
+    for measure, matrix, reference in pair_sum_cases:
+        for block in (1, 4, 13, 40, 41, 0):
+            for threads in (1, 2):
+                for k in (5, 60):
+                    out = driver(["nearest", "--measure", measure, "--matrix", matrix, "--k", k,
+                                  "--block", block, "--threads", threads])
+                    check_nearest(out, reference, k, "%s block %d threads %d k %d" % (measure, block, threads, k))
 
 # The near ties. Rows v + t_j w_j, with w_j unit vectors orthogonal to v (|v|^2 about 40):
 # 1 - cos(v + t w, v) is about t^2 / (2 |v|^2), so t_j = 1e-4 sqrt(j) puts the cluster's
