@@ -4,7 +4,10 @@
 // tests/reference/test_measures_*.py.
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <cmath>
+#include <utility>
+#include <vector>
 
 #include "core/error.h"
 #include "measure/blocked_pairs.h"
@@ -128,6 +131,45 @@ TEST_CASE("baseline and AVX2 loops both agree with plain Eigen sums", "[measure]
                                   : kind == PairSum::squared ? (a - b).square().sum()
                                                              : 1.0 - a.min(b).sum() / a.max(b).sum();
           REQUIRE(out(i, j) == Approx(expected).epsilon(1e-13));
+        }
+      }
+    }
+  }
+}
+
+TEST_CASE("a band's pair sums: the definition, and the whole matrix's to the last bit", "[measure]") {
+  // blocked_pairs.h promises each band pair the same sum as blocked_pair_sums gives it (so
+  // that nearest segments found a band at a time have the full matrix's distances), and
+  // both sides of a pair inside the band. Bands of many shapes: one row, an odd count,
+  // the last rows, one band holding all; 23 rows of 37 columns, so that neither the tiles
+  // of 16 rows nor the 4-wide vectors divide them.
+  const RowMatrix x = RowMatrix::Random(23, 37).cwiseAbs();
+  const Eigen::Index n = x.rows();
+  for (SimdLevel simd : {SimdLevel::best, SimdLevel::baseline}) {
+    for (PairSum kind : {PairSum::absolute, PairSum::squared, PairSum::min_max}) {
+      Eigen::MatrixXd whole = Eigen::MatrixXd::Zero(n, n);
+      blocked_pair_sums(x, kind, 2, whole, simd);
+      for (const auto& [first, count] : std::vector<std::pair<Eigen::Index, Eigen::Index>>{
+               {0, 1}, {0, 5}, {3, 7}, {16, 7}, {22, 1}, {0, 23}, {5, 18}}) {
+        const Eigen::Index rest = n - first;
+        std::vector<double> band(static_cast<std::size_t>(count * rest), -1.0);
+        blocked_pair_sums_band(x, kind, first, count, band.data(), 2, simd);
+        for (Eigen::Index c = 0; c < count; ++c) {
+          for (Eigen::Index r = 0; r < rest; ++r) {
+            const double got = band[static_cast<std::size_t>(c + count * r)];
+            if (r == c) {
+              REQUIRE(got == -1.0);  // a row with itself is not written
+              continue;
+            }
+            const Eigen::Index i = first + c, j = first + r;
+            REQUIRE(got == whole(std::max(i, j), std::min(i, j)));
+            const auto a = x.row(i).array();
+            const auto b = x.row(j).array();
+            const double expected = kind == PairSum::absolute  ? (a - b).abs().sum()
+                                    : kind == PairSum::squared ? (a - b).square().sum()
+                                                               : 1.0 - a.min(b).sum() / a.max(b).sum();
+            REQUIRE(got == Approx(expected).epsilon(1e-13));
+          }
         }
       }
     }
