@@ -1,14 +1,12 @@
 #include "measure/cosine_gram.h"
 
-#include <cblas.h>  // the CBLAS enumerations; cblas_dsyrk and cblas_dgemm are found at run time
-#include <dlfcn.h>
-
 #include <algorithm>
 #include <cstdlib>
 #include <limits>
 #include <vector>
 
 #include "core/parallel_items.h"
+#include "measure/blas_library.h"
 
 namespace manicule {
 
@@ -18,37 +16,9 @@ using DsyrkFunction = decltype(&cblas_dsyrk);
 using DgemmFunction = decltype(&cblas_dgemm);
 using SgemmFunction = decltype(&cblas_sgemm);
 
-struct BlasFunctions {
-  DsyrkFunction dsyrk = nullptr;
-  DgemmFunction dgemm = nullptr;
-  SgemmFunction sgemm = nullptr;  // may be missing where the other two are found
-};
-
-// The BLAS is opened at the first Gram matrix rather than linked: loading OpenBLAS costs
-// every command about 5 ms (a re-run over an unchanged archive takes 30 ms in all) and
-// starts its thread pool, whose idle threads spin about 0.1 s of a core before sleeping.
-// Debian's alternatives make libblas.so.3 the chosen BLAS; OpenBLAS's own name comes first.
-const BlasFunctions& find_blas() {
-  static const BlasFunctions found = []() -> BlasFunctions {
-    for (const char* name : {"libopenblas.so.0", "libblas.so.3", "libcblas.so.3"}) {
-      void* library = dlopen(name, RTLD_NOW | RTLD_LOCAL);
-      if (!library) continue;
-      void* dsyrk = dlsym(library, "cblas_dsyrk");
-      void* dgemm = dlsym(library, "cblas_dgemm");
-      void* sgemm = dlsym(library, "cblas_sgemm");
-      if (dsyrk && dgemm)
-        return BlasFunctions{reinterpret_cast<DsyrkFunction>(dsyrk), reinterpret_cast<DgemmFunction>(dgemm),
-                             reinterpret_cast<SgemmFunction>(sgemm)};
-      dlclose(library);
-    }
-    return {};
-  }();
-  return found;
-}
-
 }  // namespace
 
-void open_blas() { find_blas(); }
+void open_blas() { blas_functions(); }
 
 void let_blas_threads_sleep_when_idle() {
   // OpenBLAS reads it when it is loaded (at the first Gram matrix); a value the user set
@@ -60,7 +30,7 @@ void gram_lower(const RowMatrix& rows, Eigen::MatrixXd& out, bool allow_blas) {
   const Eigen::Index n = rows.rows();
   const Eigen::Index k = rows.cols();
   out.resize(n, n);
-  const DsyrkFunction dsyrk = allow_blas ? find_blas().dsyrk : nullptr;
+  const DsyrkFunction dsyrk = allow_blas ? blas_functions().dsyrk : nullptr;
   if (k > 0 && dsyrk) {
     // The row-major n x k `rows` is, read column-major, the k x n matrix A = rows^T; so
     // A^T A is the Gram matrix, written into the lower triangle of the column-major `out`.
@@ -94,7 +64,7 @@ void dot_products(const RowMatrix& rows, Eigen::Index a_first, Eigen::Index a_co
     result.setZero();
     return;
   }
-  if (const DgemmFunction dgemm = find_blas().dgemm) {
+  if (const DgemmFunction dgemm = blas_functions().dgemm) {
     // Read column-major, the row-major n x k `rows` is the k x n matrix A = rows^T; the two
     // ranges are blocks of its columns, and out = A_a^T * A_b.
     dgemm(CblasColMajor, CblasTrans, CblasNoTrans, static_cast<int>(a_count), static_cast<int>(b_count),
@@ -107,7 +77,7 @@ void dot_products(const RowMatrix& rows, Eigen::Index a_first, Eigen::Index a_co
 
 bool float_dot_products(const float* rows, Eigen::Index cols, Eigen::Index a_first, Eigen::Index a_count,
                         Eigen::Index b_first, Eigen::Index b_count, float* out) {
-  const SgemmFunction sgemm = find_blas().sgemm;
+  const SgemmFunction sgemm = blas_functions().sgemm;
   if (!sgemm || cols == 0) return false;
   // As in dot_products: the row-major rows are, read column-major, the columns of a cols x n matrix.
   sgemm(CblasColMajor, CblasTrans, CblasNoTrans, static_cast<int>(a_count), static_cast<int>(b_count),

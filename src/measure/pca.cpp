@@ -6,7 +6,8 @@
 #include <numeric>
 
 #include "core/error.h"
-#include "profile/large_matrix.h"
+#include "measure/cosine_gram.h"
+#include "measure/top_eigenpairs.h"
 
 namespace manicule {
 
@@ -42,47 +43,44 @@ PcaResult principal_components(const RowMatrix& rows, const PcaOptions& options)
   if (options.components < 1) throw Error(ErrorKind::usage, "PCA needs at least one component");
   if (!rows.allFinite()) throw Error(ErrorKind::usage, "the feature values hold NaN or infinity");
 
-  Eigen::MatrixXd x = rows;
-  x.rowwise() -= x.colwise().mean();
   const double divisor = static_cast<double>(n - 1);
   const Eigen::Index k =
       std::min<Eigen::Index>({static_cast<Eigen::Index>(options.components), n - 1, p});
 
-  // Eigen-decompose the smaller of X X^T (n x n) and X^T X (p x p); eigenvalues ascend.
+  // Eigen-decompose the smaller of X X^T (n x n) and X^T X (p x p), X the centred rows;
+  // eigenvalues ascend. Either is the Gram matrix of the rows of `centred`: X itself, or X^T
+  // when the segments outnumber the features. Its product, the one cubic step, is the
+  // BLAS's (gram_lower: dsyrk, on every core): over 10,443 segments of 1,000 features
+  // Eigen's own product on one core took about a second.
   const bool by_segments = n <= p;
-  Eigen::MatrixXd gram = zero_matrix<Eigen::MatrixXd>(by_segments ? n : p, by_segments ? n : p);
-  if (by_segments) {
-    gram.selfadjointView<Eigen::Lower>().rankUpdate(x);
-  } else {
-    gram.selfadjointView<Eigen::Lower>().rankUpdate(x.transpose());
-  }
-  const Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> solver(gram);
-  if (solver.info() != Eigen::Success) {
-    throw Error(ErrorKind::internal, "the eigen-decomposition for PCA did not converge");
-  }
-  const Eigen::Index last = gram.rows() - 1;
-  const double largest = std::max(0.0, solver.eigenvalues()[last]);
+  const Eigen::RowVectorXd mean = rows.colwise().mean();
+  const RowMatrix centred =
+      by_segments ? RowMatrix(rows.rowwise() - mean) : RowMatrix((rows.rowwise() - mean).transpose());
+  Eigen::MatrixXd gram;
+  gram_lower(centred, gram);
+  const auto size = static_cast<double>(gram.rows());
+  const Eigenpairs top = top_eigenpairs(std::move(gram), k);
+  const double largest = std::max(0.0, top.values[0]);
   // Components whose variance is rounding noise have no direction to speak of.
-  const double negligible = static_cast<double>(gram.rows()) *
-                            std::numeric_limits<double>::epsilon() * largest;
+  const double negligible = size * std::numeric_limits<double>::epsilon() * largest;
 
   PcaResult result;
   result.coordinates = Eigen::MatrixXd::Zero(n, k);
   result.loadings = Eigen::MatrixXd::Zero(p, k);
   result.explained_variance = Eigen::VectorXd::Zero(k);
   result.explained_variance_ratio = Eigen::VectorXd::Zero(k);
-  result.total_variance = x.squaredNorm() / divisor;
+  result.total_variance = centred.squaredNorm() / divisor;
   for (Eigen::Index c = 0; c < k; ++c) {
-    const double eigenvalue = std::max(0.0, solver.eigenvalues()[last - c]);
+    const double eigenvalue = std::max(0.0, top.values[c]);
     if (eigenvalue > negligible) {
-      const auto vector = solver.eigenvectors().col(last - c);
+      const auto vector = top.vectors.col(c);
       if (by_segments) {  // vector = u; coordinates = u s, loadings = X^T u / s
         const double singular = std::sqrt(eigenvalue);
         result.coordinates.col(c) = vector * singular;
-        result.loadings.col(c) = x.transpose() * vector / singular;
-      } else {  // vector = v; coordinates = X v
+        result.loadings.col(c) = centred.transpose() * vector / singular;
+      } else {  // vector = v; coordinates = X v, X being centred^T here
         result.loadings.col(c) = vector;
-        result.coordinates.col(c) = x * vector;
+        result.coordinates.col(c) = centred.transpose() * vector;
       }
       Eigen::Index strongest = 0;
       result.loadings.col(c).cwiseAbs().maxCoeff(&strongest);

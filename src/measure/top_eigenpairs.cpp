@@ -1,0 +1,59 @@
+#include "measure/top_eigenpairs.h"
+
+#include <vector>
+
+#include "core/error.h"
+#include "measure/blas_library.h"
+
+namespace manicule {
+
+namespace {
+
+Eigenpairs by_eigen(const Eigen::MatrixXd& lower, Eigen::Index k) {
+  const Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> solver(lower);  // reads the lower triangle
+  if (solver.info() != Eigen::Success) throw Error(ErrorKind::internal, "the eigen-decomposition did not converge");
+  const Eigen::Index last = lower.rows() - 1;  // eigenvalues ascend
+  Eigenpairs out{Eigen::VectorXd(k), Eigen::MatrixXd(lower.rows(), k)};
+  for (Eigen::Index c = 0; c < k; ++c) {
+    out.values[c] = solver.eigenvalues()[last - c];
+    out.vectors.col(c) = solver.eigenvectors().col(last - c);
+  }
+  return out;
+}
+
+}  // namespace
+
+Eigenpairs top_eigenpairs(Eigen::MatrixXd lower, Eigen::Index k) {
+  const DsyevrFunction dsyevr = blas_functions().dsyevr;
+  const int n = static_cast<int>(lower.rows());
+  if (!dsyevr || n < 2) return by_eigen(lower, k);
+  // Eigenvalues n - k + 1 .. n of the ascending order (1-based), and their vectors; the
+  // lower triangle of the column-major matrix is read, then overwritten.
+  const int first = n - static_cast<int>(k) + 1, last = n, lda = n;
+  const double unused = 0.0, tolerance = 0.0;  // 0: LAPACK's default tolerance
+  int found = 0, info = 0;
+  Eigen::VectorXd values(n);
+  Eigen::MatrixXd vectors(n, k);
+  std::vector<int> support(2 * static_cast<std::size_t>(k));
+  // A first call asks how much workspace the second needs.
+  double work_size = 0;
+  int iwork_size = 0, query = -1;
+  dsyevr("V", "I", "L", &n, lower.data(), &lda, &unused, &unused, &first, &last, &tolerance, &found, values.data(),
+         vectors.data(), &lda, support.data(), &work_size, &query, &iwork_size, &query, &info, 1, 1, 1);
+  if (info != 0) return by_eigen(lower, k);
+  const int lwork = static_cast<int>(work_size), liwork = iwork_size;
+  std::vector<double> work(static_cast<std::size_t>(lwork));
+  std::vector<int> iwork(static_cast<std::size_t>(liwork));
+  const Eigen::MatrixXd kept = lower;  // dsyevr overwrites its input; Eigen may still need it
+  dsyevr("V", "I", "L", &n, lower.data(), &lda, &unused, &unused, &first, &last, &tolerance, &found, values.data(),
+         vectors.data(), &lda, support.data(), work.data(), &lwork, iwork.data(), &liwork, &info, 1, 1, 1);
+  if (info != 0 || found != static_cast<int>(k)) return by_eigen(kept, k);
+  Eigenpairs out{Eigen::VectorXd(k), Eigen::MatrixXd(n, k)};
+  for (Eigen::Index c = 0; c < k; ++c) {  // found in ascending order
+    out.values[c] = values[k - 1 - c];
+    out.vectors.col(c) = vectors.col(k - 1 - c);
+  }
+  return out;
+}
+
+}  // namespace manicule
