@@ -1,6 +1,6 @@
 // blas_library: the BLAS (and the LAPACK it carries) found at run time. It is opened at the
 // first call rather than linked: loading OpenBLAS costs every command about 5 ms (a
-// re-run over an unchanged archive takes 30 ms in all) and starts its thread pool, whose
+// re-run over an unchanged archive takes 12-20 ms in all) and starts its thread pool, whose
 // idle threads spin about 0.1 s of a core before sleeping. Debian's alternatives make
 // libblas.so.3 the chosen BLAS; OpenBLAS's own name comes first. Any function may be
 // missing (null): callers then do the work with Eigen.

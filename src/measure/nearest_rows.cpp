@@ -35,6 +35,12 @@ class BestRows {
     for (const NearRow& r : best_) visit(r.row, r.distance);
   }
   std::vector<NearRow> take() { return std::move(best_); }
+  // Every row's, in row order.
+  static std::vector<std::vector<NearRow>> take_all(std::vector<BestRows>& rows) {
+    std::vector<std::vector<NearRow>> out(rows.size());
+    for (std::size_t i = 0; i < rows.size(); ++i) out[i] = rows[i].take();
+    return out;
+  }
 
  private:
   static bool before(double distance, std::size_t row, const NearRow& other) {
@@ -238,8 +244,8 @@ std::vector<std::vector<NearRow>> nearest_rows(const RowMatrix& rows, DistanceMe
     // The pair sums a band of rows at a time (blocked_pairs.h), each turned into its
     // distance as the whole matrix has it: the same distances, in a band's memory.
     const PairSumMeasure how = pair_sum_measure(measure, rows.cols());
-    const RowMatrix weighted = how.rank_weighted ? rank_weighted_rows(rows) : RowMatrix();
-    const RowMatrix& summed = how.rank_weighted ? weighted : rows;
+    RowMatrix weighted;
+    const RowMatrix& summed = rows_to_sum(rows, how, weighted);
     std::vector<BestRows> best;
     offer_every_pair<double>(
         n, options, BestRows(keep), best,
@@ -249,9 +255,7 @@ std::vector<std::vector<NearRow>> nearest_rows(const RowMatrix& rows, DistanceMe
           return true;
         },
         [&](double sum, std::size_t, std::size_t) { return how.distance(sum); });
-    std::vector<std::vector<NearRow>> out(n);
-    for (std::size_t i = 0; i < n; ++i) out[i] = best[i].take();
-    return out;
+    return BestRows::take_all(best);
   }
   const RowLengths lengths = row_lengths(rows);
   if (options.screen && keep > 0 && static_cast<std::size_t>(rows.cols()) <= kMostScreenedFeatures)
@@ -266,9 +270,7 @@ std::vector<std::vector<NearRow>> nearest_rows(const RowMatrix& rows, DistanceMe
         return true;
       },
       [&](double dot, std::size_t i, std::size_t j) { return cosine_from_dot(dot, lengths, i, j); });
-  std::vector<std::vector<NearRow>> out(n);
-  for (std::size_t i = 0; i < n; ++i) out[i] = best[i].take();
-  return out;
+  return BestRows::take_all(best);
 }
 
 }  // namespace manicule

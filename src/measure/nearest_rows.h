@@ -6,9 +6,9 @@
 // the matrix grows with the square of the segments: 51 MiB for the 2,538 long chapters of
 // the English novels, 3.2 GiB for 20,000 segments; on the virtual machines we measure on,
 // every fresh page of it costs a page fault and the host's zeroing as well.
-// The cosine measures' products are screened in single precision, which halves the one cubic step (the
-// novels' 2,538 x 2,538 x 1,000: 97 ms in double, 50 ms in single on two cores here): each
-// row keeps every row whose single-precision similarity is within a proven rounding
+// The cosine measures' products are screened in single precision, which halves the one
+// cubic step (the novels' 2,538 x 2,538 x 1,000: 97 ms in double, 50 ms in single on two
+// cores here): each row keeps every row whose single-precision similarity is within a proven rounding
 // bound (and 1e-9) of its k-th largest, and only those candidates are measured in double
 // precision, each pair as one dot product of the rows as they are. The result is the
 // double-precision k nearest, whatever the single-precision rounding; ties (equal

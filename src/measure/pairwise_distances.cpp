@@ -21,11 +21,13 @@ void check_distance_input(const RowMatrix& rows) {
   }
 }
 
-RowMatrix rank_weighted_rows(const RowMatrix& rows) {
+const RowMatrix& rows_to_sum(const RowMatrix& rows, const PairSumMeasure& how, RowMatrix& weighted) {
+  if (!how.rank_weighted) return rows;
   const auto n = static_cast<double>(rows.cols());
   Eigen::RowVectorXd weights(rows.cols());
   for (Eigen::Index c = 0; c < rows.cols(); ++c) weights[c] = (n - static_cast<double>(c)) / n;
-  return rows.array().rowwise() * weights.array();
+  weighted = rows.array().rowwise() * weights.array();
+  return weighted;
 }
 
 PairSumMeasure pair_sum_measure(DistanceMeasure measure, Eigen::Index features) {
@@ -78,8 +80,8 @@ Eigen::MatrixXd pairwise_distances(const RowMatrix& rows, DistanceMeasure measur
     return out;
   }
   const PairSumMeasure how = pair_sum_measure(measure, rows.cols());
-  const RowMatrix weighted = how.rank_weighted ? rank_weighted_rows(rows) : RowMatrix();
-  blocked_pair_sums(how.rank_weighted ? weighted : rows, how.kind, options.threads, out);
+  RowMatrix weighted;
+  blocked_pair_sums(rows_to_sum(rows, how, weighted), how.kind, options.threads, out);
   finish(out, how);
   return out;
 }

@@ -49,7 +49,7 @@ struct PairSumMeasure {
   PairSum kind = PairSum::absolute;
   double scale = 1.0;
   bool take_root = false;
-  bool rank_weighted = false;  // Eder's Delta: the sums are over rank_weighted_rows
+  bool rank_weighted = false;  // Eder's Delta: the sums are over rows weighted by rank (rows_to_sum)
   double distance(double sum) const {
     const double d = std::max(0.0, sum) * scale;  // rounding below zero clamped
     return take_root ? std::sqrt(d) : d;
@@ -59,8 +59,9 @@ struct PairSumMeasure {
 // For a measure that uses_gram_matrix() does not name, over rows of `features` values.
 PairSumMeasure pair_sum_measure(DistanceMeasure measure, Eigen::Index features);
 
-// Eder's weights (n - i + 1) / n applied to the feature at rank position i = 1..n.
-RowMatrix rank_weighted_rows(const RowMatrix& rows);
+// The rows whose pairs the measure sums: `rows` itself, or for Eder's Delta the rows
+// weighted (n - i + 1) / n at rank position i = 1..n, made in `weighted`.
+const RowMatrix& rows_to_sum(const RowMatrix& rows, const PairSumMeasure& how, RowMatrix& weighted);
 
 // The table's rows the measure's formula takes: z-scores or relative frequencies.
 const RowMatrix& measure_rows(const FeatureTable& table, DistanceMeasure measure);

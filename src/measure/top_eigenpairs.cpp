@@ -9,16 +9,22 @@ namespace manicule {
 
 namespace {
 
+// The last k of pairs in ascending order of their values (one vector a column), largest first.
+Eigenpairs largest_first(const Eigen::Ref<const Eigen::VectorXd>& ascending,
+                         const Eigen::Ref<const Eigen::MatrixXd>& vectors, Eigen::Index k) {
+  const Eigen::Index last = ascending.size() - 1;
+  Eigenpairs out{Eigen::VectorXd(k), Eigen::MatrixXd(vectors.rows(), k)};
+  for (Eigen::Index c = 0; c < k; ++c) {
+    out.values[c] = ascending[last - c];
+    out.vectors.col(c) = vectors.col(last - c);
+  }
+  return out;
+}
+
 Eigenpairs by_eigen(const Eigen::MatrixXd& lower, Eigen::Index k) {
   const Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> solver(lower);  // reads the lower triangle
   if (solver.info() != Eigen::Success) throw Error(ErrorKind::internal, "the eigen-decomposition did not converge");
-  const Eigen::Index last = lower.rows() - 1;  // eigenvalues ascend
-  Eigenpairs out{Eigen::VectorXd(k), Eigen::MatrixXd(lower.rows(), k)};
-  for (Eigen::Index c = 0; c < k; ++c) {
-    out.values[c] = solver.eigenvalues()[last - c];
-    out.vectors.col(c) = solver.eigenvectors().col(last - c);
-  }
-  return out;
+  return largest_first(solver.eigenvalues(), solver.eigenvectors(), k);
 }
 
 }  // namespace
@@ -48,12 +54,7 @@ Eigenpairs top_eigenpairs(Eigen::MatrixXd lower, Eigen::Index k) {
   dsyevr("V", "I", "L", &n, lower.data(), &lda, &unused, &unused, &first, &last, &tolerance, &found, values.data(),
          vectors.data(), &lda, support.data(), work.data(), &lwork, iwork.data(), &liwork, &info, 1, 1, 1);
   if (info != 0 || found != static_cast<int>(k)) return by_eigen(kept, k);
-  Eigenpairs out{Eigen::VectorXd(k), Eigen::MatrixXd(n, k)};
-  for (Eigen::Index c = 0; c < k; ++c) {  // found in ascending order
-    out.values[c] = values[k - 1 - c];
-    out.vectors.col(c) = vectors.col(k - 1 - c);
-  }
-  return out;
+  return largest_first(values.head(k), vectors, k);  // found in ascending order
 }
 
 }  // namespace manicule
