@@ -1,5 +1,6 @@
 #include "store/batch_run.h"
 
+#include <algorithm>
 #include <chrono>
 #include <filesystem>
 #include <map>
@@ -163,6 +164,10 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     to_open.push_back(i);
     progress.bytes_total += f.size;
   }
+  // Largest files first: the readers then end together instead of one of them finishing
+  // a long novel alone while the other core idles (longest-processing-time-first order).
+  std::stable_sort(to_open.begin(), to_open.end(),
+                   [&files](std::size_t a, std::size_t b) { return files[a].size > files[b].size; });
   progress.files_done = counters.files_unchanged;
   if (listener && counters.files_unchanged) listener(progress, "", FileOutcome::unchanged);
 
