@@ -1,7 +1,7 @@
 """Archive store: what a re-run reads, failing files, vanished files, two runs at once.
 
-12 plays (some runs also with one reading thread, which reads on the calling thread). A
-re-run over the unchanged archive opens no file; after one play's text is
+12 plays (some runs also with one reading thread, which reads on the calling thread, the
+largest file first). A re-run over the unchanged archive opens no file; after one play's text is
 changed, exactly that play is read again (the runs table counts, --verbose names it);
 a play only touched (new time, same bytes) is hashed and not parsed; a malformed file is
 recorded with its error, the run goes on and exits 1, also on the next run (which does
@@ -43,6 +43,14 @@ with tempfile.TemporaryDirectory() as tmp:
 
     run, named, _ = batch(store, archive)
     mtest.check(run["files_read"] == 12 and len(named) == 12, "first run read %d files" % run["files_read"])
+
+    # On one thread the files are read in the order the readers are given them: largest
+    # first (sizes from os.path.getsize, ties in path order), so that with more threads
+    # none is left reading a long file alone at the end.
+    _, one_thread, _ = batch(os.path.join(tmp, "one-thread.sqlite"), archive, threads="1")
+    by_size = sorted(sorted(paths), key=lambda p: -os.path.getsize(p))
+    mtest.check([os.path.basename(p) for p in one_thread] == [os.path.basename(p) for p in by_size],
+                "one thread read in the order %r, expected largest first %r" % (one_thread, by_size))
 
     run, named, _ = batch(store, archive)
     mtest.check(run["files_read"] == 0 and run["files_unchanged"] == 12 and named == [],
