@@ -84,8 +84,9 @@ def to_candidate(q, rows, rule, dist, spread=0.2):
     return dist(q, (w[:, None] * rows).sum(axis=0) / w.sum())
 
 
-def letter_senders(path, stem):
-    """{"stem#letterid": sender @ref, or "" for a letter the edition does not attribute}."""
+def letter_senders(path, stem, sure_only=True):
+    """{"stem#letterid": sender @ref, or "" for a letter the edition does not attribute};
+    with sure_only False, a conjectured or uncertain sender's @ref too."""
     tree = etree.parse(path)
     sender_of_desc = {}
     for desc in tree.iter(TEI + "correspDesc"):
@@ -93,6 +94,7 @@ def letter_senders(path, stem):
         name = sent[0].find(".//" + TEI + "persName") if sent else None
         sure = name is not None and name.get("ref") and name.get("evidence") != "conjecture" \
             and name.get("cert") in (None, "high", "1", "1.0")
-        sender_of_desc[desc.get(XML_ID)] = name.get("ref") if sure else ""
+        given = name is not None and name.get("ref")
+        sender_of_desc[desc.get(XML_ID)] = name.get("ref") if (sure if sure_only else given) else ""
     return {stem + "#" + div.get(XML_ID): sender_of_desc.get((div.get("decls") or "").lstrip("#"), "")
             for div in tree.iter(TEI + "div") if div.get("type") == "letter"}

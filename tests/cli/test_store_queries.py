@@ -1,0 +1,107 @@
+"""Archive store: the SQL queries that README.md and docs/store.md show, run as printed.
+
+The invented ferry edition (examples/) is read into a store and analysed as docs/store.md
+says (batch --unit letter, then analyse-store --min-tokens 200). Every statement of every
+```sql block of both files must run on it (a renamed column or view would break them
+silently otherwise), and what the main ones answer is checked against the edition read with
+lxml (TEI P5 correspDesc/correspAction[@type='sent']/persName/@ref for a letter's sender,
+titleStmt/author for a file's authors) and against the neighbours table read row by row
+with Python's sqlite3 module.
+"""
+import os
+import re
+import shutil
+import sqlite3
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+from attribution_reference import letter_senders  # noqa: E402
+from lxml import etree  # noqa: E402
+
+TEI = "{http://www.tei-c.org/ns/1.0}"
+
+
+def sql_blocks(path):
+    """The statements of each ```sql block of a Markdown file, in order."""
+    with open(path, encoding="utf-8") as f:
+        text = f.read()
+    blocks = re.findall(r"```sql\n(.*?)```", text, re.S)
+    mtest.check(blocks, "no ```sql block in " + path)
+    return [[s.strip() for s in block.split(";") if s.strip()] for block in blocks]
+
+
+def header_authors(path):
+    """The file's authors as titleStmt gives them, joined as the store keeps them ("; ")."""
+    stmt = etree.parse(path).find("%steiHeader/%sfileDesc/%stitleStmt" % (TEI, TEI, TEI))
+    return "; ".join(" ".join("".join(a.itertext()).split()) for a in stmt.findall(TEI + "author"))
+
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "examples")
+    os.makedirs(archive)
+    editions = [os.path.join(mtest.ROOT, "examples", name) for name in ("ferry-letters.xml", "ferry-play.xml")]
+    for path in editions:
+        shutil.copy(path, archive)
+    store = os.path.join(tmp, "ferry.sqlite")
+    mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"])
+    mtest.run(["analyse-store", "--store", store, "--min-tokens", "200"])
+
+    db = sqlite3.connect(store)
+    results = {}
+    for doc in ("README.md", os.path.join("docs", "store.md")):
+        for b, block in enumerate(sql_blocks(os.path.join(mtest.ROOT, doc))):
+            for s, statement in enumerate(block):
+                try:
+                    cursor = db.execute(statement)
+                except sqlite3.Error as e:
+                    mtest.fail("%s, query block %d, statement %d does not run: %s\n%s" % (doc, b + 1, s + 1, e, statement))
+                mtest.check(cursor.description is not None, "%s block %d: not a query" % (doc, b + 1))
+                results[(doc, b, s)] = [dict(zip([c[0] for c in cursor.description], row)) for row in cursor]
+
+    letters = os.path.join(archive, "ferry-letters.xml")
+    # Sure or conjectured: analysis_segments.author keeps a conjectured sender (L12's).
+    sender = letter_senders(letters, "ferry-letters", sure_only=False)
+    run_id = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
+    stored = db.execute("SELECT rank, neighbour, distance FROM neighbours WHERE run_id = ? AND segment = ? ORDER BY rank",
+                        (run_id, "ferry-letters#L07")).fetchall()
+    mtest.check(len(stored) == 5, "L07 has %d neighbours stored, 5 expected (the default k)" % len(stored))
+
+    # The first query of each file: L07's neighbours, nearest first, each with its sender.
+    for doc in ("README.md", os.path.join("docs", "store.md")):
+        rows = results[(doc, 0, 0)]
+        mtest.check([(r["rank"], r["neighbour"]) for r in rows] == [(k, n) for k, n, _ in stored],
+                    "%s: the neighbours query gives %r, the table %r" % (doc, rows, stored))
+        mtest.check(all(abs(r["distance"] - round(d, 4)) < 1e-12 for r, (_, _, d) in zip(rows, stored)),
+                    doc + ": distances are not the table's, rounded to 4 places")
+        mtest.check([r["author"] for r in rows] == [sender[r["neighbour"]] for r in rows],
+                    "%s: senders %r, lxml reads %r" % (doc, [r["author"] for r in rows],
+                                                       [sender[r["neighbour"]] for r in rows]))
+
+    # docs/store.md's second query: each letter with no sender in the edition (lxml: L07 and
+    # L10), with how many of its neighbours each named sender wrote.
+    questioned = sorted(s for s, who in sender.items() if not who)
+    mtest.check(questioned == ["ferry-letters#L07", "ferry-letters#L10"], "lxml finds letters without a sender: %r" % questioned)
+    rows = results[(os.path.join("docs", "store.md"), 1, 0)]
+    for segment in questioned:
+        links = {}
+        for _, neighbour in db.execute("SELECT rank, neighbour FROM neighbours WHERE run_id = ? AND segment = ?",
+                                       (run_id, segment)):
+            if sender[neighbour]:
+                links[sender[neighbour]] = links.get(sender[neighbour], 0) + 1
+        got = {r["candidate"]: r["links"] for r in rows if r["questioned"] == segment}
+        mtest.check(got == links, "%s: links %r, from the neighbours and lxml's senders %r" % (segment, got, links))
+
+    # The third block: files per author, as the headers name them (lxml), and the two runs.
+    for doc, block in (("README.md", 2), (os.path.join("docs", "store.md"), 2)):
+        rows = results[(doc, block, 0)]
+        expected = sorted(header_authors(p) for p in editions)
+        mtest.check(sorted(r["author"] for r in rows) == expected and all(r["files"] == 1 for r in rows),
+                    "%s: authors %r, lxml %r" % (doc, rows, expected))
+        mtest.check(results[(doc, block, 1)] == [], doc + ": no file failed, yet the query lists some")
+        mtest.check([(r["kind"], r["status"]) for r in results[(doc, block, 2)]] == [("analysis", "done"), ("batch", "done")],
+                    doc + ": the last runs are %r" % results[(doc, block, 2)])
+    db.close()
+
+mtest.done()
