@@ -20,6 +20,9 @@ CommandRunner add_merge_command(CLI::App& app) {
   return [=]() -> int {
     for (const auto& in : *inputs)
       if (in == *out) throw Error(ErrorKind::usage, "cannot merge " + in + " into itself");
+    // Every input is checked to be a store before the output is created, so that a
+    // mistyped input does not leave a new, empty store behind.
+    for (const auto& in : *inputs) store::open_store(in, false);
     auto target = store::open_store(*out, true);
     for (const auto& in : *inputs) {
       auto source = store::open_store(in, false);

@@ -3,7 +3,8 @@
 24 plays are read once into one store and, as share 1/3, 2/3 and 3/3, into three stores
 merged with `manicule merge`. The stored archive (files, readings, segments with their
 counts by feature form, vocabulary) and an analysis of it must be identical, apart from
-run ids and times. Outside references: Python's hashlib for every stored SHA-256 and for
+run ids and times; a merge refuses an input that is not a store before it creates its
+output, and a share with no file says so. Outside references: Python's hashlib for every stored SHA-256 and for
 the documented shard rule (1 + first 8 bytes of SHA-256(relative path) mod N), SQLite's
 own PRAGMA integrity_check, and lxml for each play's title.
 """
@@ -79,5 +80,29 @@ with tempfile.TemporaryDirectory() as tmp:
     before = storecheck.logical_tables(merged)
     mtest.run(["merge", merged, shards[0]])
     mtest.check(storecheck.logical_tables(merged) == before, "merging a shard twice changed the store")
+
+    # An input that is not a store (here a TEI file, as sqlite3 itself would refuse it) is
+    # refused with exit code 3 (bad input) and its name, before the output is created, and
+    # leaves an existing output as it was.
+    not_a_store = paths[0]
+    fresh = os.path.join(tmp, "fresh.sqlite")
+    for output in (fresh, merged):
+        proc = mtest.run(["merge", output, shards[0], not_a_store], check=False)
+        mtest.check(proc.returncode == 3 and not_a_store in proc.stderr and "not a manicule store" in proc.stderr,
+                    "merging a TEI file: exit %d, %s" % (proc.returncode, proc.stderr))
+    mtest.check(not os.path.exists(fresh), "a refused merge left a new store behind")
+    mtest.check(storecheck.logical_tables(merged) == before, "a refused merge changed the store")
+
+    # A share with no file of the archive in it (more shares than files: the first such
+    # share of 1,000 by the documented rule) is not an error, but says so.
+    taken = {1 + int(hashlib.sha256(os.path.relpath(p, archive).encode()).hexdigest()[:16], 16) % 1000 for p in paths}
+    empty = min(k for k in range(1, 1001) if k not in taken)
+    proc = mtest.run(["batch", archive, "--store", os.path.join(tmp, "empty-share.sqlite"), "--shard",
+                      "%d/1000" % empty] + common, check=False)
+    mtest.check(proc.returncode == 0 and "no TEI file (*.xml) found under the inputs in share %d/1000" % empty in proc.stderr,
+                "an empty share: exit %d, %s" % (proc.returncode, proc.stderr))
+    proc = mtest.run(["batch", archive, "--store", os.path.join(tmp, "full-share.sqlite"), "--shard",
+                      "%d/1000" % min(taken)] + common)
+    mtest.check("no TEI file" not in proc.stderr, "a share holding files says it has none: " + proc.stderr)
 
 mtest.done()
