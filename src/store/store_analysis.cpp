@@ -66,6 +66,37 @@ std::vector<AttributionRow> attribution_rows(const Request& request, Analysis& a
   return rows;
 }
 
+// Says which of the reasons holds, with what to do about it: the store holds no file, no
+// file passes the filter, no file was read with these settings, the files hold no segment
+// of this unit, or their segments are too short.
+Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& selection, const StoredCorpus& stored,
+                            const Request& request) {
+  const std::size_t files = selection.paths.size();
+  const std::size_t long_enough = stored.corpus.segments.size();
+  const std::size_t found = long_enough + stored.segments_too_short;
+  const std::string of_files = std::to_string(files) + " stored file(s)" +
+                               (filter.empty() ? "" : " passing the filter (" + filter.describe() + ")");
+  std::string what;
+  if (selection.files_in_store == 0) {
+    what = "the store holds no file (run batch over the archive first)";
+  } else if (files == 0 && selection.files_filtered_out == selection.files_in_store) {
+    what = "none of the " + std::to_string(selection.files_in_store) + " stored file(s) passes the filter (" +
+           filter.describe() + "): widen it";
+  } else if (files == 0) {
+    what = "none of the stored files" + std::string(filter.empty() ? "" : " passing the filter") +
+           " was read with these settings (" + std::to_string(selection.files_not_read) + " not read with them, " +
+           std::to_string(selection.files_failed) + " failed): run batch with the same unit and options";
+  } else if (found == 0) {
+    what = "the " + of_files + " hold no segment of this unit: try another --unit in batch";
+  } else {
+    what = "of the " + std::to_string(found) + " segment(s) of the " + of_files + ", " + std::to_string(long_enough) +
+           (long_enough == 1 ? " has " : " have ") + std::to_string(request.feature_space.min_segment_tokens) +
+           " words or more: lower --min-tokens" + (filter.empty() ? "" : ", widen the filter") +
+           " or run batch over more files";
+  }
+  return Error(ErrorKind::nothing_selected, "nothing to analyse, which needs two segments: " + what);
+}
+
 }  // namespace
 
 std::future<void> open_blas_ahead(const Request& request) {
@@ -113,12 +144,7 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
                                            request.feature_space.min_segment_tokens, fresh);
   result.files = stored.corpus.files.size();
   result.segments = stored.corpus.segments.size();
-  if (stored.corpus.segments.size() < 2)
-    throw Error(ErrorKind::nothing_selected,
-                std::to_string(stored.corpus.segments.size()) + " stored segment(s) of at least " +
-                    std::to_string(request.feature_space.min_segment_tokens) +
-                    " words pass the filter; an analysis needs two (lower --min-tokens, widen the filter, or run batch "
-                    "over more files)");
+  if (stored.corpus.segments.size() < 2) throw too_little_to_analyse(filter, selection, stored, request);
   if (blas.valid()) blas.get();
   // The log holds what the batch just stored (up to 64 MiB): copying it into the database
   // waits on the disk (two syncs, 30 and 18 ms after the novels' batch), which the store's

@@ -6,7 +6,9 @@ says (batch --unit letter, then analyse-store --min-tokens 200). Every statement
 silently otherwise), and what the main ones answer is checked against the edition read with
 lxml (TEI P5 correspDesc/correspAction[@type='sent']/persName/@ref for a letter's sender,
 titleStmt/author for a file's authors) and against the neighbours table read row by row
-with Python's sqlite3 module.
+with Python's sqlite3 module. When there is nothing to analyse, analyse-store says why
+(no file stored, none passing the filter, segments too short), checked against lxml's count
+of the letters.
 """
 import os
 import re
@@ -103,5 +105,24 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check([(r["kind"], r["status"]) for r in results[(doc, block, 2)]] == [("analysis", "done"), ("batch", "done")],
                     doc + ": the last runs are %r" % results[(doc, block, 2)])
     db.close()
+
+    # Nothing to analyse: the message says which reason holds (exit code 4, README). The
+    # letters, counted with lxml, are 12 in 2 files, each far under 1,500 words even split
+    # at white space; no file's header author contains "Nobody".
+    letter_divs = [d for d in etree.parse(letters).iter(TEI + "div") if d.get("type") == "letter"]
+    longest = max(len(" ".join(d.itertext()).split()) for d in letter_divs)
+    mtest.check(len(letter_divs) == 12 and longest < 1500, "lxml: %d letters, longest %d words" % (len(letter_divs), longest))
+    for args, expected in (
+            (["--author", "Nobody"], "none of the 2 stored file(s) passes the filter (author~Nobody)"),
+            ([], "of the 12 segment(s) of the 2 stored file(s), 0 have 1500 words or more: lower --min-tokens")):
+        proc = mtest.run(["analyse-store", "--store", store] + args, check=False)
+        mtest.check(proc.returncode == 4 and expected in proc.stderr,
+                    "analyse-store %s: exit %d, %s" % (" ".join(args), proc.returncode, proc.stderr))
+    empty = os.path.join(tmp, "empty")
+    os.makedirs(empty)
+    mtest.run(["batch", empty, "--store", os.path.join(tmp, "empty.sqlite"), "--unit", "letter", "--quiet"])
+    proc = mtest.run(["analyse-store", "--store", os.path.join(tmp, "empty.sqlite")], check=False)
+    mtest.check(proc.returncode == 4 and "the store holds no file" in proc.stderr,
+                "an empty store: exit %d, %s" % (proc.returncode, proc.stderr))
 
 mtest.done()
