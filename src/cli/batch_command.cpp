@@ -4,12 +4,14 @@
 #include <future>
 #include <iostream>
 #include <memory>
+#include <optional>
 
 #include "cli/analysis_options.h"
 #include "cli/archive_options.h"
 #include "cli/attribution_cli_options.h"
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
+#include "cli/interrupt_requests.h"
 #include "cli/progress_display.h"
 #include "cli/selection_options.h"
 #include "cli/store_report.h"
@@ -80,17 +82,36 @@ CommandRunner add_batch_command(CLI::App& app) {
     std::future<void> blas;
     auto db = store::open_store(flags->store, true);
     ProgressDisplay display(flags->quiet);
-    store::BatchSummary summary = store::run_batch(
-        *db, request, options, [&](const store::BatchProgress& p, const std::string& path, store::FileOutcome outcome) {
-          if (flags->analyse && !blas.valid() && outcome != store::FileOutcome::unchanged)
-            blas = store::open_blas_ahead(request);
-          if (flags->verbose && !path.empty()) {
-            display.clear();
-            std::cerr << outcome_word(outcome) << ": " << path << '\n';
-          }
-          display.update(p);
-        });
+    store::BatchSummary summary;
+    store::BatchProgress last;
+    std::optional<InterruptRequests> interrupts(std::in_place);
+    try {
+      summary = store::run_batch(
+          *db, request, options, [&](const store::BatchProgress& p, const std::string& path, store::FileOutcome outcome) {
+            if (flags->analyse && !blas.valid() && outcome != store::FileOutcome::unchanged)
+              blas = store::open_blas_ahead(request);
+            if (flags->verbose && !path.empty()) {
+              display.clear();
+              std::cerr << outcome_word(outcome) << ": " << path << '\n';
+            }
+            display.update(p);
+            last = p;
+            if (interrupts->requested()) throw store::BatchInterrupted();
+          });
+    } catch (const store::BatchInterrupted&) {
+      display.clear();
+      std::cerr << "manicule: interrupted: " << last.files_done << " of " << last.files_total
+                << " file(s) are in the store, the rest is not; run the same command again to go on\n";
+      return interrupts->exit_code();
+    }
     display.clear();
+    if (interrupts->requested()) {  // after the last file: the run is complete
+      report_batch(std::cout, flags->store, summary);
+      std::cerr << "manicule: interrupted after every file was stored" << (flags->analyse ? "; no analysis made" : "")
+                << '\n';
+      return interrupts->exit_code();
+    }
+    interrupts.reset();  // from here on Ctrl-C ends the process at once, as usual
     report_batch(std::cout, flags->store, summary);
     // Most often a mistyped folder; with --shard, a share of a small archive may be empty.
     if (summary.counters.files_found == 0)

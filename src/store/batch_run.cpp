@@ -241,6 +241,12 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     update_run(db, summary.run_id, counters);
     finish_run(db, summary.run_id, "done");
     transaction->commit();
+  } catch (const BatchInterrupted&) {
+    counters.files_failed = failing.size();
+    update_run(db, summary.run_id, counters);
+    finish_run(db, summary.run_id, "interrupted");
+    transaction->commit();
+    throw;
   } catch (...) {
     transaction.reset();  // rolls back the open batch; what was committed stays
     try {

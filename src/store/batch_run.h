@@ -18,6 +18,7 @@
 #include <functional>
 #include <memory>
 #include <optional>
+#include <stdexcept>
 #include <string>
 #include <vector>
 
@@ -66,6 +67,13 @@ struct BatchSummary {
   std::vector<BatchFailure> failures;  // every file failing now, in path order
   std::size_t files_removed = 0;       // rows of files no longer found
   std::unique_ptr<FreshCounts> fresh;  // with keep_counts_of_segments_from, if any file was read
+};
+
+// Thrown by a listener to stop a run early (the command line does on Ctrl-C): run_batch
+// keeps every file finished so far (each is whole when the listener hears of it), marks
+// the run interrupted, and throws it on.
+struct BatchInterrupted : std::runtime_error {
+  BatchInterrupted() : std::runtime_error("the batch run was interrupted") {}
 };
 
 // Throws Error(usage) for a bad request, Error(write_failed) when the store cannot be

@@ -9,7 +9,8 @@ reading 20 small plays, the run could end before the kill arrived on a loaded CI
 depend on it.) The victim is killed right after it finished its 1st, 4th, 6th, 5th and
 2nd file (each time started again on the same store, so it resumes from what the previous
 one committed, and the kills land inside and between transactions), then once right at
-the start, and finally allowed to finish. Outside references: SQLite's
+the start; then stopped by SIGINT and by SIGTERM, which must keep every file the run
+reported and record the run as interrupted; and finally allowed to finish. Outside references: SQLite's
 PRAGMA integrity_check and Python's hashlib for every stored SHA-256.
 """
 import os
@@ -57,6 +58,36 @@ with tempfile.TemporaryDirectory() as tmp:
         kills += 1
         if os.path.exists(victim):
             mtest.check(storecheck.integrity(victim) == "ok", "store damaged after kill at file %d" % point)
+    # Ctrl-C (SIGINT) after 3 files, then SIGTERM after 2 more: unlike SIGKILL, the run keeps
+    # every file it reported, records itself as interrupted and exits as a shell reports
+    # that signal (128 + its number: 130, 143).
+    for sig, after in ((signal.SIGINT, 3), (signal.SIGTERM, 2)):
+        db = storecheck.connect(victim)
+        stored_before = db.execute("SELECT count(*) FROM files").fetchone()[0]
+        db.close()
+        proc = subprocess.Popen([mtest.BIN] + args + ["--store", victim, "--threads", "1"],
+                                stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
+        reported = 0
+        for line in proc.stderr:
+            if line.startswith(("read:", "failed:", "hashed")):
+                reported += 1
+                if reported == after:
+                    proc.send_signal(sig)
+                    break
+        rest = proc.stderr.read()
+        proc.wait()
+        reported += sum(1 for line in rest.splitlines() if line.startswith(("read:", "failed:", "hashed")))
+        mtest.check(proc.returncode == 128 + sig and "interrupted" in rest,
+                    "%s: exit %d, %s" % (sig.name, proc.returncode, rest))
+        db = storecheck.connect(victim)
+        stored_after = db.execute("SELECT count(*) FROM files").fetchone()[0]
+        status, files_read = db.execute("SELECT status, files_read FROM runs ORDER BY run_id DESC LIMIT 1").fetchone()
+        db.close()
+        mtest.check(stored_after == stored_before + reported and status == "interrupted" and files_read == reported,
+                    "%s after %d files: %d files stored before, %d after, run %s with %d read"
+                    % (sig.name, reported, stored_before, stored_after, status, files_read))
+        kills += 1
+
     final = mtest.run(args + ["--store", victim])
     got = storecheck.logical_tables(victim)
     mtest.check(got == expected, "after %d kills: %s" % (kills, storecheck.diff_summary(got, expected)))

@@ -1,0 +1,48 @@
+#include "cli/interrupt_requests.h"
+
+#include <atomic>
+
+namespace manicule::cli {
+
+namespace {
+
+// Lock-free, so that the handler may set it (a plain sig_atomic_t would not be seen by
+// another thread in time).
+std::atomic<int> stop_signal{0};  // the signal that asked, 0 if none
+static_assert(std::atomic<int>::is_always_lock_free);
+
+extern "C" void on_stop_signal(int signal_number) {
+  stop_signal.store(signal_number);
+  // The next one ends the process: sigaction is async-signal-safe.
+  struct sigaction plain {};
+  plain.sa_handler = SIG_DFL;
+  sigemptyset(&plain.sa_mask);
+  sigaction(SIGINT, &plain, nullptr);
+  sigaction(SIGTERM, &plain, nullptr);
+}
+
+}  // namespace
+
+InterruptRequests::InterruptRequests() {
+  stop_signal.store(0);
+  struct sigaction handler {};
+  handler.sa_handler = on_stop_signal;
+  sigemptyset(&handler.sa_mask);
+  sigaction(SIGINT, nullptr, &previous_interrupt_);
+  sigaction(SIGTERM, nullptr, &previous_terminate_);
+  // A signal ignored when the program started (a background job of a shell without job
+  // control ignores SIGINT) stays ignored.
+  if (previous_interrupt_.sa_handler != SIG_IGN) sigaction(SIGINT, &handler, nullptr);
+  if (previous_terminate_.sa_handler != SIG_IGN) sigaction(SIGTERM, &handler, nullptr);
+}
+
+InterruptRequests::~InterruptRequests() {
+  sigaction(SIGINT, &previous_interrupt_, nullptr);
+  sigaction(SIGTERM, &previous_terminate_, nullptr);
+}
+
+bool InterruptRequests::requested() const { return stop_signal.load() != 0; }
+
+int InterruptRequests::exit_code() const { return 128 + stop_signal.load(); }
+
+}  // namespace manicule::cli

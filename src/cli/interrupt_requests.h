@@ -1,0 +1,26 @@
+// Ctrl-C (SIGINT) and SIGTERM while a batch run reads files: the first asks the run to stop
+// after the files in hand, so that everything read so far is kept and the run is recorded
+// as interrupted; a second one ends the process at once, as it would without this. Outside
+// the object's lifetime the signals keep their usual effect.
+#pragma once
+#include <csignal>
+
+namespace manicule::cli {
+
+class InterruptRequests {
+ public:
+  InterruptRequests();   // installs the handlers
+  ~InterruptRequests();  // puts back what was there before
+  InterruptRequests(const InterruptRequests&) = delete;
+  InterruptRequests& operator=(const InterruptRequests&) = delete;
+
+  bool requested() const;
+  // What a shell reports for a process ended by that signal: 130 for SIGINT, 143 for SIGTERM.
+  int exit_code() const;
+
+ private:
+  struct sigaction previous_interrupt_ {};
+  struct sigaction previous_terminate_ {};
+};
+
+}  // namespace manicule::cli
