@@ -18,10 +18,17 @@ mkdir -p "$results"
 local_store=$(mktemp -d)/manicule-shard-$k.sqlite    # node-local scratch
 # Start from this share's previous store, if any: a re-run reads only what changed.
 if [ -f "$results/shard-$k.sqlite" ]; then cp "$results/shard-$k.sqlite" "$local_store"; fi
+save() { cp "$local_store" "$results/shard-$k.sqlite.part" && mv "$results/shard-$k.sqlite.part" "$results/shard-$k.sqlite"; }
+# At the time limit Slurm sends SIGTERM to every process of the task: manicule then commits
+# what it has read and exits with 143; this trap keeps the script alive to save that.
+trap 'true' TERM
 status=0
 manicule batch "$archive" --store "$local_store" --shard "$k/$n" \
   --threads "${SLURM_CPUS_PER_TASK:-1}" --quiet --unit speaker "$@" || status=$?
+# Stopped by the time limit (143) or a cancel (130): keep what was read, so that submitting
+# the job again goes on from there; the task still fails, so the merge waits.
+if [ "$status" -eq 143 ] || [ "$status" -eq 130 ]; then save; rm -rf "$(dirname "$local_store")"; exit "$status"; fi
 # Exit code 1 means some files failed: they are recorded in the store, the share is usable.
 if [ "$status" -gt 1 ]; then exit "$status"; fi
-cp "$local_store" "$results/shard-$k.sqlite.part" && mv "$results/shard-$k.sqlite.part" "$results/shard-$k.sqlite"
+save
 rm -rf "$(dirname "$local_store")"

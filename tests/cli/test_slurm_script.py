@@ -1,0 +1,81 @@
+"""The job-array script of the README (examples/slurm-batch.sh), run by bash as the two
+tasks of an array job would run it, with Slurm's variables set by hand (no workload
+manager here) and `manicule` on PATH.
+
+Task 1 gets SIGTERM, sent to its whole process group as Slurm does at a time limit, after
+its first file: the task must fail with 143 and still leave its share's store, with the run
+marked interrupted and every file it reported; submitted again, it must go on from there
+(reading only the rest) and succeed. Task 2 runs through. The two shares merged must hold
+every play of the archive (counted with os.walk) and the same tables as one batch run over
+it. Outside references: the script itself as printed in the README (compared byte for
+byte with the file), os.walk, SQLite's PRAGMA integrity_check.
+"""
+import os
+import signal
+import subprocess
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+
+SCRIPT = os.path.join(mtest.ROOT, "examples", "slurm-batch.sh")
+
+with open(SCRIPT, encoding="utf-8") as f:
+    script_text = f.read()
+for doc in ("README.md", os.path.join("docs", "store.md")):
+    with open(os.path.join(mtest.ROOT, doc), encoding="utf-8") as f:
+        mtest.check(script_text in f.read(), doc + " does not print examples/slurm-batch.sh as it is")
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    storecheck.copy_plays(storecheck.pick_plays(16, min_size=100000, max_size=250000), archive)
+    plays = sum(1 for _, _, names in os.walk(archive) for name in names if name.endswith(".xml"))
+    results = os.path.join(tmp, "results")
+    shims = os.path.join(tmp, "bin")
+    os.makedirs(shims)
+    os.symlink(os.path.abspath(mtest.BIN) if os.path.sep in mtest.BIN else mtest.BIN, os.path.join(shims, "manicule"))
+
+    def task(k, stop_after=None):
+        """Runs array task k of 2; with stop_after, sends SIGTERM to the task's process group
+        once it has reported that many files. Returns (exit code, files reported)."""
+        # One CPU a task, so one reading thread: the stop lands while files remain.
+        env = dict(os.environ, PATH=shims + os.pathsep + os.environ["PATH"], SLURM_ARRAY_TASK_ID=str(k),
+                   SLURM_ARRAY_TASK_MIN="1", SLURM_ARRAY_TASK_COUNT="2", SLURM_CPUS_PER_TASK="1", TMPDIR=tmp)
+        proc = subprocess.Popen(["bash", SCRIPT, archive, results, "--verbose"], env=env,
+                                stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True, start_new_session=True)
+        reported = 0
+        for line in proc.stderr:
+            if line.startswith(("read:", "failed:", "hashed")):
+                reported += 1
+                if reported == stop_after:
+                    os.killpg(proc.pid, signal.SIGTERM)
+        proc.wait()
+        return proc.returncode, reported
+
+    code, reported = task(1, stop_after=1)
+    share = os.path.join(results, "shard-1.sqlite")
+    mtest.check(code == 143, "task 1 stopped by SIGTERM exited %d, expected 143" % code)
+    mtest.check(os.path.exists(share), "the stopped task left no store of its share")
+    first = storecheck.last_run(share)
+    mtest.check(first["status"] == "interrupted" and first["files_read"] == reported,
+                "the stopped task's run: %r, %d files reported" % (first, reported))
+    code, _ = task(1)
+    again = storecheck.last_run(share)
+    mtest.check(code == 0 and again["status"] == "done" and again["files_unchanged"] == reported,
+                "task 1 again: exit %d, run %r (%d files kept from before)" % (code, again, reported))
+    code, _ = task(2)
+    mtest.check(code == 0, "task 2 exited %d" % code)
+    mtest.check(not [n for n in os.listdir(tmp) if n.startswith("tmp")], "a task left its scratch folder behind")
+
+    merged = os.path.join(tmp, "merged.sqlite")
+    mtest.run(["merge", merged, share, os.path.join(results, "shard-2.sqlite")])
+    one = os.path.join(tmp, "one.sqlite")
+    mtest.run(["batch", archive, "--store", one, "--unit", "speaker", "--quiet"])
+    a, b = storecheck.logical_tables(one), storecheck.logical_tables(merged)
+    mtest.check(len(b["files"]) == plays, "the merged shares hold %d files, os.walk finds %d" % (len(b["files"]), plays))
+    mtest.check(a == b, "one run and the script's merged shares differ: " + storecheck.diff_summary(a, b))
+    mtest.check(storecheck.integrity(merged) == "ok", "PRAGMA integrity_check fails on the merged store")
+
+mtest.done()
