@@ -6,8 +6,8 @@ namespace manicule::cli {
 
 namespace {
 
-// Lock-free, so that the handler may set it (a plain sig_atomic_t would not be seen by
-// another thread in time).
+// A lock-free atomic: safe to set in a signal handler, which may run on any of the run's
+// threads, and to read on another (a volatile sig_atomic_t is safe within one thread only).
 std::atomic<int> stop_signal{0};  // the signal that asked, 0 if none
 static_assert(std::atomic<int>::is_always_lock_free);
 
