@@ -7,7 +7,7 @@
 //   5  an output could not be written (the edition is left as it was)
 //   6  the edition changed on disk between reading and writing (nothing written)
 //  70  internal error (a bug)
-// 130  interrupted by Ctrl-C (143: by SIGTERM) during a batch run; what was read is kept
+// 130  interrupted by Ctrl-C (143: by SIGTERM) during a batch run; what was stored is kept
 #pragma once
 
 namespace manicule::cli {

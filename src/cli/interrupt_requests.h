@@ -1,6 +1,6 @@
 // Ctrl-C (SIGINT) and SIGTERM while a batch run reads files: the first asks the run to stop
-// after the files in hand, so that everything read so far is kept and the run is recorded
-// as interrupted; a second one ends the process at once, as it would without this. Outside
+// after the file it is storing, so that everything stored so far is kept and the run is
+// recorded as interrupted; a second one ends the process at once, as it would without this. Outside
 // the object's lifetime the signals keep their usual effect.
 #pragma once
 #include <csignal>
