@@ -162,20 +162,6 @@ MANICULE_INLINE void row_tile(const Frame& f, Eigen::Index i0, Eigen::Index i1) 
   for (Eigen::Index j0 = 0; j0 < i1; j0 += kTileRows) tile_pairs<Op>(f, i0, i1, j0, std::min(i1, j0 + kTileRows));
 }
 
-// The same source compiled twice: for the baseline and, where the processor has it, AVX2.
-template <class Op>
-void row_tile_baseline(const Frame& f, Eigen::Index i0, Eigen::Index i1) {
-  row_tile<Op>(f, i0, i1);
-}
-
-#if defined(__GNUC__) && (defined(__x86_64__) || defined(__i386__))
-template <class Op>
-__attribute__((target("avx2"))) void row_tile_avx2(const Frame& f, Eigen::Index i0, Eigen::Index i1) {
-  row_tile<Op>(f, i0, i1);
-}
-bool has_avx2() { return __builtin_cpu_supports("avx2"); }
-#endif
-
 // A band of rows (see blocked_pair_sums_band) against the rows first + r, r in [r0, r1).
 struct Band {
   const double* rows;
@@ -228,25 +214,46 @@ MANICULE_INLINE void band_rows(const Band& b, Eigen::Index r0, Eigen::Index r1) 
   }
 }
 
+// The two kernels as types, each over its own area of output, for compiled_for below.
 template <class Op>
-void band_rows_baseline(const Band& b, Eigen::Index r0, Eigen::Index r1) {
-  band_rows<Op>(b, r0, r1);
+struct RowTile {
+  using Area = Frame;
+  static MANICULE_INLINE void run(const Frame& f, Eigen::Index i0, Eigen::Index i1) { row_tile<Op>(f, i0, i1); }
+};
+template <class Op>
+struct BandRows {
+  using Area = Band;
+  static MANICULE_INLINE void run(const Band& b, Eigen::Index r0, Eigen::Index r1) { band_rows<Op>(b, r0, r1); }
+};
+
+// The same source compiled twice: for the baseline and, where the processor has it, AVX2
+// (the kernel is inlined into each, so its vectors take the wrapper's instruction set).
+template <class Kernel>
+void on_baseline(const typename Kernel::Area& area, Eigen::Index from, Eigen::Index to) {
+  Kernel::run(area, from, to);
 }
 
 #if defined(__GNUC__) && (defined(__x86_64__) || defined(__i386__))
-template <class Op>
-__attribute__((target("avx2"))) void band_rows_avx2(const Band& b, Eigen::Index r0, Eigen::Index r1) {
-  band_rows<Op>(b, r0, r1);
+template <class Kernel>
+__attribute__((target("avx2"))) void on_avx2(const typename Kernel::Area& area, Eigen::Index from, Eigen::Index to) {
+  Kernel::run(area, from, to);
 }
+bool has_avx2() { return __builtin_cpu_supports("avx2"); }
 #endif
+
+// The build of the kernel to call: AVX2 when asked for and the processor has it.
+template <class Kernel>
+auto compiled_for(SimdLevel simd) -> void (*)(const typename Kernel::Area&, Eigen::Index, Eigen::Index) {
+#if defined(__GNUC__) && (defined(__x86_64__) || defined(__i386__))
+  if (simd == SimdLevel::best && has_avx2()) return &on_avx2<Kernel>;
+#endif
+  return &on_baseline<Kernel>;
+}
 
 template <class Op>
 void run_band(const RowMatrix& x, Eigen::Index first, Eigen::Index count, double* out, unsigned threads,
               SimdLevel simd) {
-  auto rows = &band_rows_baseline<Op>;
-#if defined(__GNUC__) && (defined(__x86_64__) || defined(__i386__))
-  if (simd == SimdLevel::best && has_avx2()) rows = &band_rows_avx2<Op>;
-#endif
+  const auto rows = compiled_for<BandRows<Op>>(simd);
   const Band band{x.data(), x.cols(), first, count, out};
   const Eigen::Index rest = x.rows() - first;
   const Eigen::Index tiles = (rest + kTileRows - 1) / kTileRows;
@@ -258,10 +265,7 @@ void run_band(const RowMatrix& x, Eigen::Index first, Eigen::Index count, double
 
 template <class Op>
 void run_tiles(const RowMatrix& x, unsigned threads, Eigen::MatrixXd& out, SimdLevel simd) {
-  auto tile = &row_tile_baseline<Op>;
-#if defined(__GNUC__) && (defined(__x86_64__) || defined(__i386__))
-  if (simd == SimdLevel::best && has_avx2()) tile = &row_tile_avx2<Op>;
-#endif
+  const auto tile = compiled_for<RowTile<Op>>(simd);
   const Frame frame{x.data(), x.cols(), out.data(), out.rows()};
   const Eigen::Index n = x.rows();
   const Eigen::Index tiles = (n + kTileRows - 1) / kTileRows;

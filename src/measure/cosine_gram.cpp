@@ -10,14 +10,6 @@
 
 namespace manicule {
 
-namespace {
-
-using DsyrkFunction = decltype(&cblas_dsyrk);
-using DgemmFunction = decltype(&cblas_dgemm);
-using SgemmFunction = decltype(&cblas_sgemm);
-
-}  // namespace
-
 void open_blas() { blas_functions(); }
 
 void let_blas_threads_sleep_when_idle() {
@@ -30,7 +22,7 @@ void gram_lower(const RowMatrix& rows, Eigen::MatrixXd& out, bool allow_blas) {
   const Eigen::Index n = rows.rows();
   const Eigen::Index k = rows.cols();
   out.resize(n, n);
-  const DsyrkFunction dsyrk = allow_blas ? blas_functions().dsyrk : nullptr;
+  const auto dsyrk = allow_blas ? blas_functions().dsyrk : nullptr;
   if (k > 0 && dsyrk) {
     // The row-major n x k `rows` is, read column-major, the k x n matrix A = rows^T; so
     // A^T A is the Gram matrix, written into the lower triangle of the column-major `out`.
@@ -64,7 +56,7 @@ void dot_products(const RowMatrix& rows, Eigen::Index a_first, Eigen::Index a_co
     result.setZero();
     return;
   }
-  if (const DgemmFunction dgemm = blas_functions().dgemm) {
+  if (const auto dgemm = blas_functions().dgemm) {
     // Read column-major, the row-major n x k `rows` is the k x n matrix A = rows^T; the two
     // ranges are blocks of its columns, and out = A_a^T * A_b.
     dgemm(CblasColMajor, CblasTrans, CblasNoTrans, static_cast<int>(a_count), static_cast<int>(b_count),
@@ -77,7 +69,7 @@ void dot_products(const RowMatrix& rows, Eigen::Index a_first, Eigen::Index a_co
 
 bool float_dot_products(const float* rows, Eigen::Index cols, Eigen::Index a_first, Eigen::Index a_count,
                         Eigen::Index b_first, Eigen::Index b_count, float* out) {
-  const SgemmFunction sgemm = blas_functions().sgemm;
+  const auto sgemm = blas_functions().sgemm;
   if (!sgemm || cols == 0) return false;
   // As in dot_products: the row-major rows are, read column-major, the columns of a cols x n matrix.
   sgemm(CblasColMajor, CblasTrans, CblasNoTrans, static_cast<int>(a_count), static_cast<int>(b_count),

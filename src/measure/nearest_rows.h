@@ -8,9 +8,9 @@
 // every fresh page of it costs a page fault and the host's zeroing as well.
 // The cosine measures' products are screened in single precision, which halves the one
 // cubic step (the novels' 2,538 x 2,538 x 1,000: 97 ms in double, 50 ms in single on two
-// cores here): each row keeps every row whose single-precision similarity is within a proven rounding
-// bound (and 1e-9) of its k-th largest, and only those candidates are measured in double
-// precision, each pair as one dot product of the rows as they are. The result is the
+// cores here): each row keeps every row whose single-precision similarity is within a
+// proven rounding bound (and 1e-9) of its k-th largest, and only those candidates are
+// measured in double precision, each pair as one dot product of the rows as they are. The result is the
 // double-precision k nearest, whatever the single-precision rounding; ties (equal
 // distances, in row order) included, since rows that tie are all candidates.
 // Distances are those pairwise_distances gives, from the same formula on dot products
