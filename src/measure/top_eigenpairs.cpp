@@ -21,6 +21,12 @@ Eigenpairs largest_first(const Eigen::Ref<const Eigen::VectorXd>& ascending,
   return out;
 }
 
+// The strictly lower triangle copied into the strictly upper one.
+void mirror_lower(Eigen::MatrixXd& m) {
+  for (Eigen::Index j = 0; j < m.cols(); ++j)
+    for (Eigen::Index i = j + 1; i < m.rows(); ++i) m(j, i) = m(i, j);
+}
+
 Eigenpairs by_eigen(const Eigen::MatrixXd& lower, Eigen::Index k) {
   const Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> solver(lower);  // reads the lower triangle
   if (solver.info() != Eigen::Success) throw Error(ErrorKind::internal, "the eigen-decomposition did not converge");
@@ -50,10 +56,18 @@ Eigenpairs top_eigenpairs(Eigen::MatrixXd lower, Eigen::Index k) {
   const int lwork = static_cast<int>(work_size), liwork = iwork_size;
   std::vector<double> work(static_cast<std::size_t>(lwork));
   std::vector<int> iwork(static_cast<std::size_t>(liwork));
-  const Eigen::MatrixXd kept = lower;  // dsyevr overwrites its input; Eigen may still need it
+  // dsyevr destroys the lower triangle and the diagonal, which Eigen needs should it fail;
+  // the upper triangle it leaves alone, so the matrix is kept there (and the diagonal
+  // aside) rather than in a copy of the whole: n x n fresh doubles cost their page faults.
+  mirror_lower(lower);
+  const Eigen::VectorXd diagonal = lower.diagonal();
   dsyevr("V", "I", "L", &n, lower.data(), &lda, &unused, &unused, &first, &last, &tolerance, &found, values.data(),
          vectors.data(), &lda, support.data(), work.data(), &lwork, iwork.data(), &liwork, &info, 1, 1, 1);
-  if (info != 0 || found != static_cast<int>(k)) return by_eigen(kept, k);
+  if (info != 0 || found != static_cast<int>(k)) {
+    lower.transposeInPlace();  // the lower triangle back from the upper
+    lower.diagonal() = diagonal;
+    return by_eigen(lower, k);
+  }
   return largest_first(values.head(k), vectors, k);  // found in ascending order
 }
 
