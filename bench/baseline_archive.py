@@ -6,7 +6,9 @@ scikit-learn, in one process:
               speech credited to each speaker) or chapters (<div type="chapter">); their
               text without the elements manicule's reading preset leaves out (speaker,
               stage, note, head, ...), keeping the text that follows them
-  counting    case-folded word tokens (runs of letters, apostrophes inside words), one
+  counting    word tokens (runs of letters, apostrophes inside words) of the text in NFC,
+              with the apostrophe look-alikes (U+2018, U+2019, U+02BC, U+FF07) made U+0027
+              and full case folding, as manicule's default tokenizer settings do; one
               collections.Counter per segment
   measure     segments of at least 1,500 words; the 1,000 most frequent words; relative
               frequencies, z-scores (sample sd), Cosine Delta (cosine distance of the
@@ -20,6 +22,7 @@ import collections
 import os
 import re
 import sys
+import unicodedata
 
 import numpy as np
 from lxml import etree
@@ -30,7 +33,8 @@ SKIP = {TEI + name for name in (
     "abbr address argument back byline castList closer dateline del desc docAuthor epigraph figDesc figure "
     "floatingText formula front gap head index label note noteGrp opener orig postscript rdg rdgGrp salute sic "
     "signed speaker stage supplied surplus trailer witDetail teiHeader standOff").split()}
-WORD = re.compile(r"[^\W\d_]+(?:['\u2019][^\W\d_]+)*")
+WORD = re.compile(r"[^\W\d_]+(?:'[^\W\d_]+)*")
+APOSTROPHE_LOOKALIKES = ("\u2018", "\u2019", "\u02bc", "\uff07")
 MIN_TOKENS, MFW, K = 1500, 1000, 5
 
 
@@ -55,13 +59,21 @@ def segments_of(path, unit):
             for who in (sp.get("who") or "#unknown").split():
                 texts[stem + "#" + who.lstrip("#")].extend(parts)
     else:
-        for n, div in enumerate(tree.iter(TEI + "div")):
+        unnamed = 0
+        for div in tree.iter(TEI + "div"):
             if div.get("type") == "chapter":
                 parts = []
                 text_of(div, parts)
-                texts[stem + "#" + (div.get("{http://www.w3.org/XML/1998/namespace}id") or str(n))].extend(parts)
+                name = div.get("{http://www.w3.org/XML/1998/namespace}id")
+                if not name:  # named as manicule names a chapter without xml:id, so that the results compare
+                    unnamed += 1
+                    name = "chapter%d" % unnamed
+                texts[stem + "#" + name].extend(parts)
     for key, parts in texts.items():
-        yield key, collections.Counter(WORD.findall(" ".join(parts).casefold()))
+        text = unicodedata.normalize("NFC", " ".join(parts))
+        for lookalike in APOSTROPHE_LOOKALIKES:
+            text = text.replace(lookalike, "'")
+        yield key, collections.Counter(WORD.findall(text.casefold()))
 
 
 def main():

@@ -21,12 +21,16 @@ from the kernel's accounting of the child process (wait4):
 Rounds are interleaved so that a busy moment on a shared machine hits every variant alike;
 the medians and their ratios are printed as Markdown, with the load average before and after.
 Files are in the page cache after the first round, for every variant alike.
+After the rounds, the baseline's nearest segments are compared with the store's (the
+same segments measured? the same neighbours?), so that the figures are known to be of
+the same job.
 
 Usage: /usr/bin/python3 bench/store_bench.py BUILD/manicule [ROUNDS [VARIANTS [CORPORA]]]
   (from the project root; VARIANTS and CORPORA are comma-separated subsets, e.g.
   first,first-1 and gerdracor)
 """
 import os
+import sqlite3
 import statistics
 import subprocess
 import sys
@@ -52,6 +56,41 @@ def timed(args):
             errors.seek(0)
             sys.exit("failed: %s\n%s" % (" ".join(args), errors.read()[-2000:]))
     return wall, usage.ru_utime + usage.ru_stime, usage.ru_maxrss / 1024
+
+
+def agreement(store, baseline_tsv):
+    """How far the baseline's nearest segments agree with those of the store's latest
+    analysis: segments in both, same neighbour at the same rank, same set of neighbours,
+    and the largest and median difference of the distances at the same rank."""
+    db = sqlite3.connect(store)
+    run = db.execute("SELECT max(run_id) FROM neighbours").fetchone()[0]
+    ours = {(seg, rank): (nb, dist) for seg, rank, nb, dist in db.execute(
+        "SELECT segment, rank, neighbour, distance FROM neighbours WHERE run_id = ?", (run,))}
+    db.close()
+    theirs = {}
+    with open(baseline_tsv, encoding="utf-8") as f:
+        for line in f:
+            seg, rank, nb, dist = line.rstrip("\n").split("\t")
+            theirs[(seg, int(rank))] = (nb, float(dist))
+    our_segments = {seg for seg, _ in ours}
+    their_segments = {seg for seg, _ in theirs}
+    common = our_segments & their_segments
+    pairs = [key for key in ours if key[0] in common and key in theirs]
+    same_rank = sum(ours[k][0] == theirs[k][0] for k in pairs)
+    by_segment_ours, by_segment_theirs = {}, {}
+    for (seg, _), (nb, _) in ours.items():
+        by_segment_ours.setdefault(seg, set()).add(nb)
+    for (seg, _), (nb, _) in theirs.items():
+        by_segment_theirs.setdefault(seg, set()).add(nb)
+    same_set = sum(by_segment_ours[s] == by_segment_theirs[s] for s in common)
+    diffs = sorted(abs(ours[k][1] - theirs[k][1]) for k in pairs)
+    return ("agreement with the baseline: %d segments measured by both (%d by manicule only, %d by the "
+            "baseline only); the same neighbour at the same rank in %d of %d pairs (%.1f %%), the same "
+            "set of neighbours for %d of %d segments; distances at the same rank differ by at most %.4f "
+            "(median %.1e)" % (len(common), len(our_segments - common), len(their_segments - common),
+                               same_rank, len(pairs), 100.0 * same_rank / max(1, len(pairs)), same_set,
+                               len(common), diffs[-1] if diffs else 0.0,
+                               statistics.median(diffs) if diffs else 0.0))
 
 
 def load():
@@ -94,6 +133,11 @@ def main():
                             if os.path.exists(store + suffix):
                                 os.remove(store + suffix)
                     results.setdefault(variant, []).append(timed(args))
+            base_tsv = os.path.join(tmp, "base.tsv")
+            if os.path.exists(base_tsv) and os.path.exists(store):
+                agreed = agreement(store, base_tsv)
+            else:
+                agreed = None
         med = {v: tuple(statistics.median(r[i] for r in runs) for i in range(3)) for v, runs in results.items()}
         print("\n### %s (%s)\n" % (name, unit))
         print("| variant | wall s (median) | CPU s | peak MiB | wall s, each round |")
@@ -105,6 +149,8 @@ def main():
                   ("read-only", "xmllint")]
         print("\n" + "; ".join("%s / %s: %.2fx (CPU %.2fx)" % (a, b, med[a][0] / med[b][0], med[a][1] / med[b][1])
                                 for a, b in ratios if a in med and b in med))
+        if agreed:
+            print("\n" + agreed)
     print("\nload average after: %s" % load())
 
 
