@@ -45,7 +45,9 @@ BASELINE = os.path.join(ROOT, "bench", "baseline_archive.py")
 def timed(args):
     """(wall s, cpu s, peak MiB) of one command: wall time from a microsecond clock (a
     re-run takes some 30 ms, where /usr/bin/time's hundredths would be too coarse), CPU
-    time and peak memory from the kernel's rusage of the child (wait4)."""
+    time and peak memory from the kernel's rusage of the child (wait4). The kernel counts
+    a child's peak from before it starts its program, when it is still a copy of this
+    script, so a peak at the script's own size (some 12 MiB) means "no more than that"."""
     with tempfile.TemporaryFile("w+") as errors:
         start = time.perf_counter()
         proc = subprocess.Popen(args, stdout=subprocess.DEVNULL, stderr=errors)
@@ -99,6 +101,9 @@ def load():
 
 
 def main():
+    if sys.argv[1] == "--agreement":
+        print(agreement(sys.argv[2], sys.argv[3]))
+        return
     binary = os.path.abspath(sys.argv[1])
     rounds = int(sys.argv[2]) if len(sys.argv) > 2 else 3
     wanted = sys.argv[3].split(",") if len(sys.argv) > 3 else None
@@ -134,10 +139,12 @@ def main():
                                 os.remove(store + suffix)
                     results.setdefault(variant, []).append(timed(args))
             base_tsv = os.path.join(tmp, "base.tsv")
+            agreed = None
             if os.path.exists(base_tsv) and os.path.exists(store):
-                agreed = agreement(store, base_tsv)
-            else:
-                agreed = None
+                # In a process of its own: the script's memory would otherwise grow by the
+                # tables compared, and a child's peak (below) starts from the script's size.
+                agreed = subprocess.run([sys.executable, os.path.abspath(__file__), "--agreement", store, base_tsv],
+                                        check=True, capture_output=True, text=True).stdout.strip()
         med = {v: tuple(statistics.median(r[i] for r in runs) for i in range(3)) for v, runs in results.items()}
         print("\n### %s (%s)\n" % (name, unit))
         print("| variant | wall s (median) | CPU s | peak MiB | wall s, each round |")
