@@ -5,11 +5,12 @@ scikit-learn, in one process:
   selection   every TEI file under a folder; segments are speakers (<sp who>, a joint
               speech credited to each speaker) or chapters (<div type="chapter">); their
               text without the elements manicule's reading preset leaves out (speaker,
-              stage, note, head, ...), keeping the text that follows them
+              stage, note, head, ...), keeping the text that follows them; units in
+              <body> only (manicule leaves <front> and <back> out)
   counting    word tokens (runs of letters, apostrophes inside words) of the text in NFC,
-              with the apostrophe look-alikes (U+2018, U+2019, U+02BC, U+FF07) made U+0027
-              and full case folding, as manicule's default tokenizer settings do; one
-              collections.Counter per segment
+              with the apostrophe look-alikes (U+2018, U+2019, U+02BC, U+FF07) made U+0027,
+              full case folding and NFC again, as manicule's default tokenizer settings do;
+              one collections.Counter per segment
   measure     segments of at least 1,500 words; the 1,000 most frequent words; relative
               frequencies, z-scores (sample sd), Cosine Delta (cosine distance of the
               z-scores, sklearn.metrics.pairwise.cosine_distances); the 5 nearest
@@ -48,32 +49,43 @@ def text_of(element, out):
             out.append(child.tail)
 
 
+def units(tree, tag):
+    """The file's elements of this tag inside <body>: none in <front> or <back>, which the
+    selection leaves out (a speech in a prologue printed in <front>). In these corpora no
+    unit lies inside another left-out element, so that is all the checking it needs."""
+    for body in tree.iter(TEI + "body"):
+        if next(body.iterancestors(TEI + "body"), None) is None:  # not a body nested in another
+            yield from body.iter(TEI + tag)
+
+
 def segments_of(path, unit):
     stem = os.path.splitext(os.path.basename(path))[0]
     tree = etree.parse(path)
     texts = collections.defaultdict(list)
     if unit == "speaker":
-        for sp in tree.iter(TEI + "sp"):
+        for sp in units(tree, "sp"):
             parts = []
             text_of(sp, parts)
             for who in (sp.get("who") or "#unknown").split():
                 texts[stem + "#" + who.lstrip("#")].extend(parts)
     else:
         unnamed = 0
-        for div in tree.iter(TEI + "div"):
-            if div.get("type") == "chapter":
-                parts = []
-                text_of(div, parts)
-                name = div.get("{http://www.w3.org/XML/1998/namespace}id")
-                if not name:  # named as manicule names a chapter without xml:id, so that the results compare
-                    unnamed += 1
-                    name = "chapter%d" % unnamed
-                texts[stem + "#" + name].extend(parts)
+        for div in units(tree, "div"):
+            if div.get("type") != "chapter":
+                continue
+            parts = []
+            text_of(div, parts)
+            name = div.get("{http://www.w3.org/XML/1998/namespace}id")
+            if not name:  # named as manicule names a chapter without xml:id, so that the results compare
+                unnamed += 1
+                name = "chapter%d" % unnamed
+            texts[stem + "#" + name].extend(parts)
     for key, parts in texts.items():
         text = unicodedata.normalize("NFC", " ".join(parts))
         for lookalike in APOSTROPHE_LOOKALIKES:
             text = text.replace(lookalike, "'")
-        yield key, collections.Counter(WORD.findall(text.casefold()))
+        # NFC again after folding, which can decompose (U+1FE6 folds to U+03C5 U+0342)
+        yield key, collections.Counter(WORD.findall(unicodedata.normalize("NFC", text.casefold())))
 
 
 def main():
