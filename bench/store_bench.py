@@ -19,7 +19,8 @@ from the kernel's accounting of the child process (wait4):
              the first run's two-core ratio)
   xmllint    xmllint --stream --noout over the same files: libxml2 parsing alone, one core
 Rounds are interleaved so that a busy moment on a shared machine hits every variant alike;
-the medians and their ratios are printed as Markdown, with the load average before and after.
+the medians and their ratios are printed as Markdown, with the load average before and after,
+and the three targets' ratios round by round.
 Files are in the page cache after the first round, for every variant alike.
 After the rounds, the baseline's nearest segments are compared with the store's (the
 same segments measured? the same neighbours?), so that the figures are known to be of
@@ -156,6 +157,15 @@ def main():
                   ("read-only", "xmllint")]
         print("\n" + "; ".join("%s / %s: %.2fx (CPU %.2fx)" % (a, b, med[a][0] / med[b][0], med[a][1] / med[b][1])
                                 for a, b in ratios if a in med and b in med))
+        # The same three targets round by round: a busy spell on a shared host lengthens the
+        # 10 s baseline more surely than a 1 s first run, which the ratio of medians hides.
+        per_round = []
+        for a, b in [("baseline", "first"), ("first", "rerun"), ("first-1core", "first")]:
+            if a in results and b in results:
+                each = [x[0] / y[0] for x, y in zip(results[a], results[b])]
+                per_round.append("%s / %s %s" % (a, b, " ".join("%.2fx" % r for r in each)))
+        if per_round:
+            print("\nround by round: " + "; ".join(per_round))
         if agreed:
             print("\n" + agreed)
     print("\nload average after: %s" % load())
