@@ -102,6 +102,8 @@ def load():
 
 
 def main():
+    if len(sys.argv) < 2:
+        sys.exit("usage: /usr/bin/python3 bench/store_bench.py BUILD/manicule [ROUNDS [VARIANTS [CORPORA]]]")
     if sys.argv[1] == "--agreement":
         print(agreement(sys.argv[2], sys.argv[3]))
         return
