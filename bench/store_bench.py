@@ -80,12 +80,14 @@ def agreement(store, baseline_tsv):
     common = our_segments & their_segments
     pairs = [key for key in ours if key[0] in common and key in theirs]
     same_rank = sum(ours[k][0] == theirs[k][0] for k in pairs)
-    by_segment_ours, by_segment_theirs = {}, {}
-    for (seg, _), (nb, _) in ours.items():
-        by_segment_ours.setdefault(seg, set()).add(nb)
-    for (seg, _), (nb, _) in theirs.items():
-        by_segment_theirs.setdefault(seg, set()).add(nb)
-    same_set = sum(by_segment_ours[s] == by_segment_theirs[s] for s in common)
+    def neighbour_sets(table):
+        sets = {}
+        for (seg, _), (nb, _) in table.items():
+            sets.setdefault(seg, set()).add(nb)
+        return sets
+
+    our_sets, their_sets = neighbour_sets(ours), neighbour_sets(theirs)
+    same_set = sum(our_sets[s] == their_sets[s] for s in common)
     diffs = sorted(abs(ours[k][1] - theirs[k][1]) for k in pairs)
     return ("agreement with the baseline: %d segments measured by both (%d by manicule only, %d by the "
             "baseline only); the same neighbour at the same rank in %d of %d pairs (%.1f %%), the same "

@@ -10,9 +10,9 @@
 // cubic step (the novels' 2,538 x 2,538 x 1,000: 97 ms in double, 50 ms in single on two
 // cores here): each row keeps every row whose single-precision similarity is within a
 // proven rounding bound (and 1e-9) of its k-th largest, and only those candidates are
-// measured in double precision, each pair as one dot product of the rows as they are. The result is the
-// double-precision k nearest, whatever the single-precision rounding; ties (equal
-// distances, in row order) included, since rows that tie are all candidates.
+// measured in double precision, each pair as one dot product of the rows as they are.
+// The result is the double-precision k nearest, whatever the single-precision rounding;
+// ties (equal distances, in row order) included, since rows that tie are all candidates.
 // Distances are those pairwise_distances gives, from the same formula on dot products
 // that may be rounded differently (summed in another order: within a few units in the
 // last place). The other measures sum each pair of a band of rows against the rows after

@@ -47,7 +47,7 @@ with tempfile.TemporaryDirectory() as tmp:
                                 stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True, start_new_session=True)
         reported = 0
         for line in proc.stderr:
-            if line.startswith(("read:", "failed:", "hashed")):
+            if storecheck.reports_a_file(line):
                 reported += 1
                 if reported == stop_after:
                     os.killpg(proc.pid, signal.SIGTERM)

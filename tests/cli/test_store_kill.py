@@ -31,7 +31,7 @@ def killed_after(args, files_done):
     seen = 0
     if files_done > 0:
         for line in proc.stderr:
-            if line.startswith(("read:", "failed:", "hashed")):
+            if storecheck.reports_a_file(line):
                 seen += 1
                 if seen >= files_done:
                     break
@@ -69,20 +69,21 @@ with tempfile.TemporaryDirectory() as tmp:
                                 stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
         reported = 0
         for line in proc.stderr:
-            if line.startswith(("read:", "failed:", "hashed")):
+            if storecheck.reports_a_file(line):
                 reported += 1
                 if reported == after:
                     proc.send_signal(sig)
                     break
         rest = proc.stderr.read()
         proc.wait()
-        reported += sum(1 for line in rest.splitlines() if line.startswith(("read:", "failed:", "hashed")))
+        reported += sum(1 for line in rest.splitlines() if storecheck.reports_a_file(line))
         mtest.check(proc.returncode == 128 + sig and "interrupted" in rest,
                     "%s: exit %d, %s" % (sig.name, proc.returncode, rest))
         db = storecheck.connect(victim)
         stored_after = db.execute("SELECT count(*) FROM files").fetchone()[0]
-        status, files_read = db.execute("SELECT status, files_read FROM runs ORDER BY run_id DESC LIMIT 1").fetchone()
         db.close()
+        run = storecheck.last_run(victim)
+        status, files_read = run["status"], run["files_read"]
         mtest.check(stored_after == stored_before + reported and status == "interrupted" and files_read == reported,
                     "%s after %d files: %d files stored before, %d after, run %s with %d read"
                     % (sig.name, reported, stored_before, stored_after, status, files_read))

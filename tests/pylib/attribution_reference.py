@@ -92,9 +92,8 @@ def letter_senders(path, stem, sure_only=True):
     for desc in tree.iter(TEI + "correspDesc"):
         sent = [a for a in desc.iter(TEI + "correspAction") if a.get("type") == "sent"]
         name = sent[0].find(".//" + TEI + "persName") if sent else None
-        sure = name is not None and name.get("ref") and name.get("evidence") != "conjecture" \
-            and name.get("cert") in (None, "high", "1", "1.0")
         given = name is not None and name.get("ref")
+        sure = given and name.get("evidence") != "conjecture" and name.get("cert") in (None, "high", "1", "1.0")
         sender_of_desc[desc.get(XML_ID)] = name.get("ref") if (sure if sure_only else given) else ""
     return {stem + "#" + div.get(XML_ID): sender_of_desc.get((div.get("decls") or "").lstrip("#"), "")
             for div in tree.iter(TEI + "div") if div.get("type") == "letter"}

@@ -66,6 +66,12 @@ def decode_counts(blob):
     return out
 
 
+def reports_a_file(line):
+    """Whether a line of `batch --verbose` reports a file finished (read, failed or only
+    hashed): the runs table counts these, and the store holds each once it is reported."""
+    return line.startswith(("read:", "failed:", "hashed"))
+
+
 def connect(path):
     db = sqlite3.connect(path)
     return db
