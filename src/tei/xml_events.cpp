@@ -55,6 +55,9 @@ struct ParseState {
   const xmlChar* last_uri = nullptr;
   std::string_view last_ns;
   bool last_ns_is_tei = false;
+  // The start line of each open element, innermost last: a file cut short is reported
+  // with the line where its innermost unclosed element began.
+  std::vector<long> open_lines;
 };
 
 ParseState* state_of(void* ctx) {
@@ -82,6 +85,7 @@ void on_start(void* ctx, const xmlChar* local, const xmlChar*, const xmlChar* ur
   tag.ns = st->last_ns;
   tag.in_tei_namespace = st->last_ns_is_tei;
   tag.line = xmlSAX2GetLineNumber(ctx);
+  st->open_lines.push_back(tag.line);
   tag.attributes = attributes;
   tag.attribute_count = nb_attributes;
   try {
@@ -94,6 +98,7 @@ void on_start(void* ctx, const xmlChar* local, const xmlChar*, const xmlChar* ur
 void on_end(void* ctx, const xmlChar*, const xmlChar*, const xmlChar*) {
   ParseState* st = state_of(ctx);
   if (st->stopped) return;
+  if (!st->open_lines.empty()) st->open_lines.pop_back();
   try {
     st->handler->end();
   } catch (...) {
@@ -169,12 +174,44 @@ xmlParserInputPtr on_resolve_entity(void* ctx, const xmlChar*, const xmlChar* sy
 
 void on_external_subset(void*, const xmlChar*, const xmlChar*, const xmlChar*) {}
 
+// Whether anything but white space is left of the input: libxml2's messages for a document
+// that never began do not tell text that is not XML from no text at all.
+bool text_remains(xmlParserCtxtPtr ctxt) {
+  if (!ctxt || !ctxt->input || !ctxt->input->cur || !ctxt->input->end) return false;
+  for (const xmlChar* c = ctxt->input->cur; c < ctxt->input->end; ++c)
+    if (!IS_BLANK_CH(*c)) return true;
+  return false;
+}
+
+constexpr const char* kNotMarkup = "not an XML document: it does not begin with markup ('<' expected)";
+
+// libxml2 says "Document is empty" for any input that does not begin with markup.
+std::string no_document_message(xmlParserCtxtPtr ctxt) {
+  return text_remains(ctxt) ? kNotMarkup : "the file holds only white space: no XML document in it";
+}
+
+// At the end of the input the push parser reports any unfinished document as "Extra content
+// at the end of the document"; most often the file was cut short.
+std::string unfinished_document_message(const ParseState& st, const std::string& libxml2_message) {
+  xmlParserCtxtPtr ctxt = st.ctxt;
+  if (!ctxt || ctxt->instate == XML_PARSER_EPILOG)  // the root closed, then more than comments
+    return libxml2_message + ": only comments and processing instructions may follow the root element";
+  if (ctxt->nameNr > 0 && ctxt->name) {
+    std::string msg = "the document ends before <" + std::string(reinterpret_cast<const char*>(ctxt->name)) + ">";
+    if (!st.open_lines.empty()) msg += " (begun on line " + std::to_string(st.open_lines.back()) + ")";
+    if (ctxt->nameNr > 1) msg += " and the " + std::to_string(ctxt->nameNr - 1) + " element(s) around it";
+    return msg + (ctxt->nameNr > 1 ? " are" : " is") + " closed: the file looks cut short";
+  }
+  return text_remains(ctxt) ? kNotMarkup : "no root element: the document ends before its first element";
+}
+
 void on_structured_error(void* user, xmlErrorPtr error) {
   auto st = static_cast<ParseState*>(static_cast<xmlParserCtxtPtr>(user)->_private);
   if (!error || error->level < XML_ERR_ERROR || !st->first_error.empty()) return;
   std::string msg = error->message ? error->message : "malformed XML";
   while (!msg.empty() && (msg.back() == '\n' || msg.back() == ' ')) msg.pop_back();
-  if (error->code == XML_ERR_DOCUMENT_EMPTY) msg = "the file is empty: no XML document in it";
+  if (error->code == XML_ERR_DOCUMENT_EMPTY) msg = no_document_message(st->ctxt);
+  if (error->code == XML_ERR_DOCUMENT_END) msg = unfinished_document_message(*st, msg);
   if (error->code == XML_ERR_ENTITY_LOOP)
     msg = "entities expand too far (an entity-expansion bomb?): refused (" + msg + ")";
   st->first_error = msg;

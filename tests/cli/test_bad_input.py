@@ -7,6 +7,7 @@ references, 10^10 expansions; XML 1.0 section 4.2 entity declarations); the exte
 is the XML External Entity pattern (OWASP XXE), pointing at a local file with a marker.
 """
 import os
+import re
 import resource
 import subprocess
 import sys
@@ -14,6 +15,7 @@ import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
 import mtest  # noqa: E402
+from lxml import etree  # noqa: E402
 
 TEI_OPEN = '<TEI xmlns="http://www.tei-c.org/ns/1.0">'
 HEADER = ('<teiHeader><fileDesc><titleStmt><title>T</title></titleStmt><publicationStmt><p>x</p>'
@@ -114,5 +116,54 @@ for folder in ("first", "second"):
 p = run_segments(os.path.join(tmp, "first", "same.xml"), os.path.join(tmp, "second", "same.xml"))
 mtest.check(p.returncode == 2 and "same#" in p.stderr and "twice" in p.stderr,
             "same file name in two folders: usage error naming the id: %d %s" % (p.returncode, p.stderr))
+
+# 10. Documents that end too soon or never begin. libxml2's push parser, which reads the
+# files, reports every one of them at the end of the input as "Extra content at the end of
+# the document"; the message must say instead what lxml's whole-document parse of the same
+# bytes finds (lxml, python3-lxml: the independent reading). A file cut short mid-paragraph,
+# as an interrupted copy leaves it:
+cut_text = (TEI_OPEN + "\n" + HEADER + "\n<text><body>\n<div>\n<p>The first paragraph.</p>\n"
+            "<p>The second paragraph\nruns on and is cut")
+cut = write("cut.xml", cut_text)
+
+
+def lxml_error(path):
+    """lxml's message for a document it refuses."""
+    try:
+        etree.parse(path)
+    except etree.XMLSyntaxError as e:
+        return str(e)
+    mtest.fail("lxml parsed " + path)
+
+
+found = re.search(r"Premature end of data in tag (\w+) line (\d+)", lxml_error(cut))
+mtest.check(found is not None, "lxml's message for the cut file: %s" % lxml_error(cut))
+lxml_tag, lxml_line = found.group(1), int(found.group(2))
+p = run_segments(cut)
+last_line = cut_text.count("\n") + 1
+mtest.check(p.returncode == 3, "cut file: exit 3 expected, got %d" % p.returncode)
+mtest.check("cut.xml:%d:" % last_line in p.stderr, "cut file: the message names the last line %d: %s"
+            % (last_line, p.stderr))
+mtest.check("<%s> (begun on line %d)" % (lxml_tag, lxml_line) in p.stderr and "cut short" in p.stderr,
+            "cut file: names <%s> begun on line %d as lxml does: %s" % (lxml_tag, lxml_line, p.stderr))
+mtest.check("Extra content" not in p.stderr, "cut file: libxml2's misleading message kept: " + p.stderr)
+# Text that is not XML at all (lxml: "Start tag expected, '<' not found"): not "empty".
+prose_only = write("letter.xml", "Dear Sir, this was saved as plain text.\n")
+mtest.check("'<' not found" in lxml_error(prose_only), "lxml's message for plain text: " + lxml_error(prose_only))
+p = run_segments(prose_only)
+mtest.check(p.returncode == 3 and "letter.xml:1" in p.stderr and "'<' expected" in p.stderr
+            and "empty" not in p.stderr, "plain text: says markup is missing, not that it is empty: " + p.stderr)
+# A prolog and a comment, no root element (XML 1.0 section 2.1: a document has exactly one).
+prolog_only = write("prolog.xml", '<?xml version="1.0"?>\n<!-- the edition goes here -->\n')
+p = run_segments(prolog_only)
+mtest.check(p.returncode == 3 and "prolog.xml:" in p.stderr and "no root element" in p.stderr,
+            "prolog only: says there is no root element: " + p.stderr)
+# Text after the root element's end: here libxml2's message is right, and kept (XML 1.0
+# section 2.1: only Misc, comments, processing instructions and white space, may follow).
+trailing = write("trailing.xml", TEI_OPEN + HEADER + "<text><body><p>x</p></body></text></TEI>\nstray words\n")
+mtest.check("Extra content at the end of the document" in lxml_error(trailing), "lxml: " + lxml_error(trailing))
+p = run_segments(trailing)
+mtest.check(p.returncode == 3 and "trailing.xml:2" in p.stderr and "Extra content at the end of the document" in p.stderr,
+            "text after the root: libxml2's message with the line: " + p.stderr)
 
 mtest.done()
