@@ -21,10 +21,24 @@ std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs) {
     if (ec || !fs::exists(status)) throw Error(ErrorKind::bad_input, "no such file or folder", input);
     if (fs::is_directory(status)) {
       std::vector<std::string> found;
-      for (auto it = fs::recursive_directory_iterator(input, fs::directory_options::skip_permission_denied, ec);
-           it != fs::recursive_directory_iterator(); it.increment(ec)) {
-        if (ec) break;
-        if (it->is_regular_file() && it->path().extension() == ".xml") found.push_back(it->path().string());
+      // A folder that cannot be listed stops the walk with an error rather than being left
+      // out: an archive's batch would take the stored files under it for removed ones.
+      fs::path at = input;  // the folder being listed
+      for (auto it = fs::recursive_directory_iterator(input, ec); !ec && it != fs::recursive_directory_iterator();
+           it.increment(ec)) {
+        std::error_code type_ec;  // a dangling link is no directory, nor a file to read
+        at = it->is_directory(type_ec) ? it->path() : it->path().parent_path();
+        if (it->path().extension() != ".xml") continue;
+        const bool regular = it->is_regular_file(type_ec);
+        if (type_ec && type_ec != std::errc::no_such_file_or_directory) {  // a loop of links, say
+          throw Error(ErrorKind::bad_input, std::string("cannot tell what the file is: ").append(type_ec.message()),
+                      it->path().string());
+        }
+        if (regular) found.push_back(it->path().string());
+      }
+      if (ec) {
+        throw Error(ErrorKind::bad_input, std::string("cannot list the folder: ").append(ec.message()),
+                    at.string());
       }
       std::sort(found.begin(), found.end());
       files.insert(files.end(), found.begin(), found.end());

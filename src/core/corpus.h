@@ -39,7 +39,8 @@ struct Corpus {
 using ProgressFn = std::function<void(std::size_t, std::size_t, std::size_t)>;
 
 // Lists the TEI files named by `inputs` (files as given; folders searched recursively for
-// *.xml, sorted). Throws Error(bad_input) for a path that does not exist.
+// *.xml, sorted). Throws Error(bad_input) for a path that does not exist and for a folder
+// below an input that cannot be listed (no permission, for one).
 std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs);
 
 // Reads `files` (already expanded). A file that fails is recorded in `failures`; the

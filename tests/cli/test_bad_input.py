@@ -6,6 +6,7 @@ fixture files. The entity bomb is the classic "billion laughs" construction (10 
 references, 10^10 expansions; XML 1.0 section 4.2 entity declarations); the external entity
 is the XML External Entity pattern (OWASP XXE), pointing at a local file with a marker.
 """
+import errno
 import os
 import re
 import resource
@@ -163,7 +164,26 @@ mtest.check(p.returncode == 3 and "prolog.xml:" in p.stderr and "no root element
 trailing = write("trailing.xml", TEI_OPEN + HEADER + "<text><body><p>x</p></body></text></TEI>\nstray words\n")
 mtest.check("Extra content at the end of the document" in lxml_error(trailing), "lxml: " + lxml_error(trailing))
 p = run_segments(trailing)
-mtest.check(p.returncode == 3 and "trailing.xml:2" in p.stderr and "Extra content at the end of the document" in p.stderr,
+mtest.check(p.returncode == 3 and "trailing.xml:2" in p.stderr
+            and "Extra content at the end of the document" in p.stderr,
             "text after the root: libxml2's message with the line: " + p.stderr)
+
+# 11. A link that points at itself, named like a TEI file, in a folder walked for *.xml: the
+# walk stops with a message naming it (exit 3), not an internal error. What the system says
+# of the link is taken from os.stat (POSIX: ELOOP) and must be what the message says.
+looped = os.path.join(tmp, "linked")
+os.makedirs(looped)
+write(os.path.join("linked", "fine.xml"), TEI_OPEN + HEADER + "<text><body><p>Fine.</p></body></text></TEI>\n")
+os.symlink("itself.xml", os.path.join(looped, "itself.xml"))
+try:
+    os.stat(os.path.join(looped, "itself.xml"))
+    mtest.fail("os.stat followed a link to itself")
+except OSError as e:
+    mtest.check(e.errno == errno.ELOOP, "os.stat of the looped link: %r" % e)
+    system_says = os.strerror(e.errno)
+p = run_segments(looped)
+mtest.check(p.returncode == 3 and "itself.xml" in p.stderr and system_says in p.stderr and "internal" not in p.stderr,
+            "a link to itself: exit 3 naming it with the system's reason (%s): %d %s"
+            % (system_says, p.returncode, p.stderr))
 
 mtest.done()

@@ -1,0 +1,88 @@
+"""A folder below an input that cannot be listed stops the command with a message naming
+it, instead of being left out in silence. For `batch` that matters most: a re-run that
+took the stored files under such a folder for removed ones would delete them from the store.
+
+The permission is taken away with chmod (POSIX: listing a folder needs its read and search
+permission). Root is not refused, so as root the command runs as user and group 65534
+("nobody" on Debian) through setpriv (util-linux), from a copy of the binary that user can
+reach. The files the store should keep are listed with os.walk before the chmod.
+"""
+import os
+import shutil
+import sqlite3
+import stat
+import subprocess
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
+import mtest  # noqa: E402
+
+TEI = ('<TEI xmlns="http://www.tei-c.org/ns/1.0"><teiHeader><fileDesc><titleStmt><title>{title}</title>'
+       '</titleStmt><publicationStmt><p>invented</p></publicationStmt><sourceDesc><p>invented</p></sourceDesc>'
+       '</fileDesc></teiHeader><text><body><div type="chapter"><p>{text}</p></div></body></text></TEI>\n')
+OPEN = stat.S_IRWXU | stat.S_IRGRP | stat.S_IXGRP | stat.S_IROTH | stat.S_IXOTH  # 0755
+
+tmp = tempfile.mkdtemp(prefix="manicule-unlisted-")
+os.chmod(tmp, OPEN)
+archive = os.path.join(tmp, "letters")
+hidden = os.path.join(archive, "1852")
+os.makedirs(hidden)
+for folder, name, text in [(archive, "to-the-printer.xml", "The proofs are late again."),
+                           (hidden, "from-the-harbour.xml", "The ship sails on Thursday."),
+                           (hidden, "from-the-mill.xml", "The wheel turns slowly now.")]:
+    with open(os.path.join(folder, name), "w", encoding="utf-8") as f:
+        f.write(TEI.format(title=name, text=text))
+for folder in (archive, hidden):
+    os.chmod(folder, stat.S_IRWXU | stat.S_IRWXG | stat.S_IRWXO)  # the store's user writes beside them
+store_folder = os.path.join(tmp, "store")
+os.makedirs(store_folder)
+os.chmod(store_folder, stat.S_IRWXU | stat.S_IRWXG | stat.S_IRWXO)
+store = os.path.join(store_folder, "letters.sqlite")
+
+binary = mtest.BIN
+as_user = []
+if os.geteuid() == 0:
+    binary = os.path.join(tmp, "manicule")
+    shutil.copy(mtest.BIN, binary)
+    os.chmod(binary, OPEN)
+    as_user = ["setpriv", "--reuid=65534", "--regid=65534", "--clear-groups"]
+
+
+def manicule(*args):
+    return subprocess.run(as_user + [binary] + list(args), capture_output=True, text=True, timeout=300)
+
+
+def stored_paths():
+    db = sqlite3.connect(store)
+    try:
+        paths = sorted(r[0] for r in db.execute("SELECT path FROM files"))
+        return paths, db.execute("SELECT count(*) FROM runs").fetchone()[0]
+    finally:
+        db.close()
+
+
+expected = sorted(os.path.join(d, f) for d, _, fs in os.walk(archive) for f in fs if f.endswith(".xml"))
+p = manicule("batch", archive, "--store", store, "--unit", "chapter", "--quiet")
+mtest.check(p.returncode == 0, "first batch: exit %d, %s" % (p.returncode, p.stderr))
+before, runs_before = stored_paths()
+mtest.check(before == expected, "first batch stored %r, os.walk found %r" % (before, expected))
+
+os.chmod(hidden, 0)
+try:
+    p = manicule("batch", archive, "--store", store, "--unit", "chapter", "--quiet")
+    mtest.check(p.returncode == 3,
+                "re-run with an unreadable folder: exit 3 expected, got %d (%s)" % (p.returncode, p.stderr))
+    mtest.check(hidden in p.stderr and "cannot list the folder" in p.stderr and "denied" in p.stderr,
+                "the message names the folder and the reason: " + p.stderr)
+    after, runs_after = stored_paths()
+    mtest.check(after == expected, "the store lost files under the unreadable folder: %r" % after)
+    mtest.check(runs_after == runs_before, "a refused run was recorded: %d runs, %d before" % (runs_after, runs_before))
+    p = manicule("segments", archive, "--unit", "chapter")
+    mtest.check(p.returncode == 3 and hidden in p.stderr and p.stdout == "",
+                "segments over the archive: exit 3 naming the folder, nothing printed: %d %s" % (p.returncode, p.stderr))
+finally:
+    os.chmod(hidden, OPEN)
+    shutil.rmtree(tmp)
+
+mtest.done()
