@@ -1,5 +1,9 @@
 #include "cli/archive_options.h"
 
+#include <charconv>
+#include <string_view>
+#include <system_error>
+
 #include "core/error.h"
 
 namespace manicule::cli {
@@ -50,20 +54,20 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
 }
 
 store::Shard parse_shard(const std::string& text) {
+  // Digits only: std::stoul would take " 2" and "-1", the latter as 2^64 - 1.
+  const auto number = [](std::string_view digits, unsigned& out) {
+    const char* end = digits.data() + digits.size();
+    const auto [stop, ec] = std::from_chars(digits.data(), end, out);
+    return !digits.empty() && ec == std::errc() && stop == end;
+  };
   store::Shard s;
-  auto slash = text.find('/');
-  try {
-    if (slash == std::string::npos) throw std::invalid_argument("no slash");
-    std::size_t used = 0;
-    s.index = static_cast<unsigned>(std::stoul(text.substr(0, slash), &used));
-    if (used != slash) throw std::invalid_argument("junk");
-    std::string rest = text.substr(slash + 1);
-    s.count = static_cast<unsigned>(std::stoul(rest, &used));
-    if (used != rest.size()) throw std::invalid_argument("junk");
-  } catch (const std::exception&) {
+  const std::string_view whole = text;
+  const std::size_t slash = whole.find('/');
+  if (slash == std::string_view::npos || !number(whole.substr(0, slash), s.index) ||
+      !number(whole.substr(slash + 1), s.count))
     throw Error(ErrorKind::usage, "--shard takes K/N, e.g. 2/8 (share K of N, counted from 1); got '" + text + "'");
-  }
-  if (s.count < 1 || s.index < 1 || s.index > s.count)
+  if (s.count < 1) throw Error(ErrorKind::usage, "--shard " + text + ": N, the number of shares, must be 1 or more");
+  if (s.index < 1 || s.index > s.count)
     throw Error(ErrorKind::usage, "--shard " + text + ": K must lie between 1 and N");
   return s;
 }

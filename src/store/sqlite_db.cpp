@@ -2,6 +2,8 @@
 
 #include <sqlite3.h>
 
+#include <unistd.h>
+
 #include <filesystem>
 
 #include "core/error.h"
@@ -21,6 +23,22 @@ std::string message_for(int code, const std::string& path, std::string_view doin
   return "store " + path + ": " + std::string(doing) + ": " + detail;
 }
 
+// Why a store cannot be opened, where SQLite says only "unable to open database file" (and
+// its saved system error is that of its last attempt, not of the cause).
+std::string why_not_openable(const std::string& path) {
+  namespace fs = std::filesystem;
+  std::error_code ec;
+  if (fs::is_directory(path, ec)) return "it is a folder";
+  const fs::path parent = fs::path(path).has_parent_path() ? fs::path(path).parent_path() : fs::path(".");
+  if (!fs::exists(path, ec)) {
+    if (!fs::is_directory(parent, ec)) return "the folder " + parent.string() + " does not exist";
+    if (::access(parent.c_str(), W_OK | X_OK) != 0) return "no permission to create a file in " + parent.string();
+  } else if (::access(path.c_str(), R_OK | W_OK) != 0) {
+    return "no permission to read and write it";
+  }
+  return "";
+}
+
 }  // namespace
 
 Database::Database(const std::string& path, bool create) : path_(path) {
@@ -30,6 +48,10 @@ Database::Database(const std::string& path, bool create) : path_(path) {
   int rc = sqlite3_open_v2(path.c_str(), &db_, flags, nullptr);
   if (rc != SQLITE_OK) {
     std::string message = message_for(rc, path, "opening", db_);
+    if ((rc & 0xff) == SQLITE_CANTOPEN) {
+      const std::string why = why_not_openable(path);
+      if (!why.empty()) message += ": " + why;
+    }
     sqlite3_close(db_);
     db_ = nullptr;
     throw Error(ErrorKind::write_failed, message);

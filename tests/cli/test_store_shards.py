@@ -4,7 +4,8 @@
 merged with `manicule merge`. The stored archive (files, readings, segments with their
 counts by feature form, vocabulary) and an analysis of it must be identical, apart from
 run ids and times; a merge refuses an input that is not a store before it creates its
-output, and a share with no file says so. Outside references: Python's hashlib for every stored SHA-256 and for
+output, and a share with no file says so; a malformed --shard and a store that cannot be
+opened are refused with their reason. Outside references: Python's hashlib for every stored SHA-256 and for
 the documented shard rule (1 + first 8 bytes of SHA-256(relative path) mod N), SQLite's
 own PRAGMA integrity_check, and lxml for each play's title.
 """
@@ -104,5 +105,25 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["batch", archive, "--store", os.path.join(tmp, "full-share.sqlite"), "--shard",
                       "%d/1000" % min(taken)] + common)
     mtest.check("no TEI file" not in proc.stderr, "a share holding files says it has none: " + proc.stderr)
+
+    # A --shard that is not K/N with 1 <= K <= N, as the documented rule needs, is a usage
+    # error (exit 2) that creates no store: "-1" once passed as share 1 of 4,294,967,295.
+    for bad, says in [("1/-1", "takes K/N"), (" 1/3", "takes K/N"), ("1/0", "N, the number of shares"),
+                      ("0/3", "between 1 and N"), ("4/3", "between 1 and N")]:
+        refused = os.path.join(tmp, "refused.sqlite")
+        proc = mtest.run(["batch", archive, "--store", refused, "--shard", bad] + common, check=False)
+        mtest.check(proc.returncode == 2 and says in proc.stderr and not os.path.exists(refused),
+                    "--shard %r: exit %d, %s" % (bad, proc.returncode, proc.stderr))
+
+    # A store that cannot be opened says why (exit 5, the output could not be written).
+    missing_folder = os.path.join(tmp, "no-such-folder")
+    mtest.check(not os.path.exists(missing_folder), "the missing folder exists")
+    proc = mtest.run(["batch", archive, "--store", os.path.join(missing_folder, "s.sqlite")] + common, check=False)
+    mtest.check(proc.returncode == 5 and "the folder %s does not exist" % missing_folder in proc.stderr,
+                "a store in a missing folder: exit %d, %s" % (proc.returncode, proc.stderr))
+    mtest.check(os.path.isdir(archive), "the archive is not a folder")
+    proc = mtest.run(["batch", archive, "--store", archive] + common, check=False)
+    mtest.check(proc.returncode == 5 and "it is a folder" in proc.stderr,
+                "a folder given as the store: exit %d, %s" % (proc.returncode, proc.stderr))
 
 mtest.done()
