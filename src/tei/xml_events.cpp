@@ -205,6 +205,17 @@ std::string unfinished_document_message(const ParseState& st, const std::string&
   return text_remains(ctxt) ? kNotMarkup : "no root element: the document ends before its first element";
 }
 
+// An entity such as &nbsp; that only the document's external DTD declares: the text it
+// stands for is unknown, since external DTDs are never loaded (as no other file or URL is).
+std::string undeclared_entity_hint(xmlParserCtxtPtr ctxt) {
+  const xmlDtd* doctype = ctxt->myDoc ? ctxt->myDoc->intSubset : nullptr;  // SAX2 keeps the DOCTYPE's ids there
+  const std::string dtd = doctype && doctype->SystemID
+                              ? std::string(reinterpret_cast<const char*>(doctype->SystemID))
+                              : "an external DTD";
+  return " (the DOCTYPE names " + dtd + ", which manicule never loads: declare the entity in the " +
+         "document's internal subset, or write the character it stands for)";
+}
+
 void on_structured_error(void* user, xmlErrorPtr error) {
   auto st = static_cast<ParseState*>(static_cast<xmlParserCtxtPtr>(user)->_private);
   if (!error || error->level < XML_ERR_ERROR || !st->first_error.empty()) return;
@@ -212,6 +223,9 @@ void on_structured_error(void* user, xmlErrorPtr error) {
   while (!msg.empty() && (msg.back() == '\n' || msg.back() == ' ')) msg.pop_back();
   if (error->code == XML_ERR_DOCUMENT_EMPTY) msg = no_document_message(st->ctxt);
   if (error->code == XML_ERR_DOCUMENT_END) msg = unfinished_document_message(*st, msg);
+  if ((error->code == XML_ERR_UNDECLARED_ENTITY || error->code == XML_WAR_UNDECLARED_ENTITY) && st->ctxt &&
+      st->ctxt->hasExternalSubset)
+    msg += undeclared_entity_hint(st->ctxt);
   if (error->code == XML_ERR_ENTITY_LOOP)
     msg = "entities expand too far (an entity-expansion bomb?): refused (" + msg + ")";
   st->first_error = msg;

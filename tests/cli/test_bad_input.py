@@ -186,4 +186,18 @@ mtest.check(p.returncode == 3 and "itself.xml" in p.stderr and system_says in p.
             "a link to itself: exit 3 naming it with the system's reason (%s): %d %s"
             % (system_says, p.returncode, p.stderr))
 
+# 12. An entity that only the external DTD named in the DOCTYPE declares, as older TEI files
+# have (&nbsp; with tei_all.dtd): refused, since external DTDs are never loaded, with the
+# entity, the line and the DTD's name, which lxml reads from the same DOCTYPE (docinfo).
+legacy = write("legacy.xml", '<?xml version="1.0"?>\n<!DOCTYPE TEI SYSTEM "tei_all.dtd">\n' + TEI_OPEN + HEADER +
+               "\n<text><body><p>Before&nbsp;after.</p></body></text></TEI>\n")
+legacy_tree = etree.parse(legacy, etree.XMLParser(load_dtd=False, no_network=True, resolve_entities=False))
+dtd_name = legacy_tree.docinfo.system_url
+entity = [e.name for e in legacy_tree.iter() if isinstance(e, etree._Entity)]
+mtest.check(dtd_name == "tei_all.dtd" and entity == ["nbsp"], "lxml reads %r, %r" % (dtd_name, entity))
+p = run_segments(legacy)
+mtest.check(p.returncode == 3 and "legacy.xml:4:" in p.stderr and "'nbsp'" in p.stderr
+            and "the DOCTYPE names %s, which manicule never loads" % dtd_name in p.stderr,
+            "an entity of the external DTD: exit 3, entity, line and DTD named: %d %s" % (p.returncode, p.stderr))
+
 mtest.done()
