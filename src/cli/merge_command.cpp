@@ -1,5 +1,6 @@
 // `manicule merge OUT IN...`: folds stores (e.g. the shard stores of an array job) into
 // one; OUT is created when missing. Contents held by several stores are kept once.
+#include <filesystem>
 #include <iostream>
 #include <memory>
 
@@ -23,10 +24,21 @@ CommandRunner add_merge_command(CLI::App& app) {
     // Every input is checked to be a store before the output is created, so that a
     // mistyped input does not leave a new, empty store behind.
     for (const auto& in : *inputs) store::open_store(in, false);
+    const bool created = !std::filesystem::exists(*out);
     auto target = store::open_store(*out, true);
-    for (const auto& in : *inputs) {
-      auto source = store::open_store(in, false);
-      report_merge(std::cout, in, store::merge_store(*target, *source));
+    try {
+      for (const auto& in : *inputs) {
+        auto source = store::open_store(in, false);
+        report_merge(std::cout, in, store::merge_store(*target, *source));
+      }
+    } catch (...) {
+      // Each input is merged in one transaction, so an existing output keeps what it had
+      // and the inputs reported merged; an output this merge created goes again.
+      if (created) {
+        target.reset();
+        for (const char* suffix : {"", "-wal", "-shm", "-journal"}) std::filesystem::remove(*out + suffix);
+      }
+      throw;
     }
     return 0;
   };

@@ -54,4 +54,13 @@ FeatureCounts decode_counts(std::string_view blob) {
   return out;
 }
 
+FeatureCounts decode_stored_counts(std::string_view blob, const std::string& store, const std::string& segment) {
+  try {
+    return decode_counts(blob);
+  } catch (const Error& e) {
+    throw Error(ErrorKind::bad_input,
+                std::string(e.what()) + ", " + segment + ": make the store again with batch, or use a copy", store);
+  }
+}
+
 }  // namespace manicule::store

@@ -22,4 +22,8 @@ std::string encode_counts(const FeatureCounts& counts);
 // Throws Error(bad_input) for a truncated or malformed blob.
 FeatureCounts decode_counts(std::string_view blob);
 
+// decode_counts for a blob read from a store: a damaged one is reported with the store's
+// path and `segment` (which segment it is, in words), so that the user knows where to look.
+FeatureCounts decode_stored_counts(std::string_view blob, const std::string& store, const std::string& segment);
+
 }  // namespace manicule::store

@@ -24,8 +24,9 @@ std::vector<FeatureId> map_vocabulary(Database& input, std::int64_t input_settin
   return map;
 }
 
-std::string remap_counts(std::string_view blob, const std::vector<FeatureId>& map, const std::string& store) {
-  FeatureCounts counts = decode_counts(blob);
+std::string remap_counts(std::string_view blob, const std::vector<FeatureId>& map, const std::string& store,
+                         const std::string& segment) {
+  FeatureCounts counts = decode_stored_counts(blob, store, segment);
   for (auto& entry : counts) {
     if (entry.first >= map.size() || map[entry.first] == UINT32_MAX)
       throw Error(ErrorKind::bad_input, "the store " + store + " has a damaged vocabulary (a counted feature has no form)");
@@ -79,7 +80,9 @@ void merge_settings(Database& out, Database& input, const StoredSettings& in, st
       insert_segment.bind(1, out_id).bind(2, sha).bind(3, segments.int64_at(0));
       for (int c = 1; c <= 8; ++c) insert_segment.bind(c + 3, segments.text_at(c));
       insert_segment.bind(12, segments.int64_at(9)).bind(13, segments.int64_at(10)).bind(14, segments.int64_at(11));
-      insert_segment.bind_blob(15, remap_counts(segments.blob_at(12), map, input.path()));
+      insert_segment.bind_blob(15, remap_counts(segments.blob_at(12), map, input.path(),
+                                                "segment " + std::to_string(segments.int64_at(0)) +
+                                                    " of the content with SHA-256 " + sha));
       insert_segment.step_to_end();
       ++summary.segments_added;
     }

@@ -144,7 +144,8 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
       record.types = static_cast<std::size_t>(stored_segments.int64_at(10));
       const auto ordinal = static_cast<std::size_t>(stored_segments.int64_at(0));
       add(std::move(record), ordinal, static_cast<std::size_t>(stored_segments.int64_at(11)),
-          decode_counts(stored_segments.blob_at(12)));
+          decode_stored_counts(stored_segments.blob_at(12), db.path(),
+                               "segment " + std::to_string(ordinal) + " of " + path));
     }
     stored_segments.reset();
   }

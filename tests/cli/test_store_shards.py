@@ -5,12 +5,15 @@ merged with `manicule merge`. The stored archive (files, readings, segments with
 counts by feature form, vocabulary) and an analysis of it must be identical, apart from
 run ids and times; a merge refuses an input that is not a store before it creates its
 output, and a share with no file says so; a malformed --shard and a store that cannot be
-opened are refused with their reason. Outside references: Python's hashlib for every stored SHA-256 and for
+opened are refused with their reason, and a damaged segment is named by analyse-store and
+merge, a merge into a new store then leaving nothing behind. Outside references: Python's hashlib for every stored SHA-256 and for
 the documented shard rule (1 + first 8 bytes of SHA-256(relative path) mod N), SQLite's
 own PRAGMA integrity_check, and lxml for each play's title.
 """
 import hashlib
 import os
+import shutil
+import sqlite3
 import sys
 import tempfile
 
@@ -93,6 +96,34 @@ with tempfile.TemporaryDirectory() as tmp:
                     "merging a TEI file: exit %d, %s" % (proc.returncode, proc.stderr))
     mtest.check(not os.path.exists(fresh), "a refused merge left a new store behind")
     mtest.check(storecheck.logical_tables(merged) == before, "a refused merge changed the store")
+
+    # A store with one segment's counts damaged: its blob cut to the byte 0xff, a varint
+    # that never ends (the format in docs/store.md). The segment is the largest, so that an
+    # analysis needs it; which one it is and its file come from the store through sqlite3.
+    damaged = os.path.join(tmp, "damaged.sqlite")
+    shutil.copy(shards[0], damaged)
+    db = sqlite3.connect(damaged)
+    sha, ordinal = db.execute("SELECT sha256, ordinal FROM segments ORDER BY tokens DESC LIMIT 1").fetchone()
+    damaged_file = db.execute("SELECT path FROM files WHERE sha256 = ?", (sha,)).fetchone()[0]
+    db.execute("UPDATE segments SET counts = x'ff' WHERE sha256 = ? AND ordinal = ?", (sha, ordinal))
+    db.commit()
+    db.close()
+    proc = mtest.run(["analyse-store", "--store", damaged, "--min-tokens", "300"], check=False)
+    mtest.check(proc.returncode == 3 and damaged in proc.stderr and "segment %d of %s" % (ordinal, damaged_file)
+                in proc.stderr, "analysing a damaged store: exit %d, %s" % (proc.returncode, proc.stderr))
+    # Merged into a new store: refused naming the store and the segment, and the new store
+    # is not left behind; merged into an existing one, that one keeps what it held.
+    proc = mtest.run(["merge", fresh, damaged], check=False)
+    mtest.check(proc.returncode == 3 and "segment %d of the content with SHA-256 %s" % (ordinal, sha) in proc.stderr,
+                "merging a damaged store: exit %d, %s" % (proc.returncode, proc.stderr))
+    mtest.check(not any(os.path.exists(fresh + suffix) for suffix in ("", "-wal", "-shm")),
+                "a merge that failed left its new store behind")
+    kept = os.path.join(tmp, "kept.sqlite")
+    mtest.run(["merge", kept, shards[1]])
+    kept_before = storecheck.logical_tables(kept)
+    proc = mtest.run(["merge", kept, damaged], check=False)
+    mtest.check(proc.returncode == 3 and storecheck.logical_tables(kept) == kept_before,
+                "a failed merge changed the existing store: exit %d" % proc.returncode)
 
     # A share with no file of the archive in it (more shares than files: the first such
     # share of 1,000 by the documented rule) is not an error, but says so.
