@@ -5,6 +5,7 @@
 #include "attribution/attribute.h"
 #include "cli/attribution_cli_options.h"
 #include "cli/attribution_output.h"
+#include "core/utf8_text.h"
 
 namespace manicule::cli {
 
@@ -17,7 +18,7 @@ CommandRunner add_attribute_command(CLI::App& app) {
             attribute_questioned(run.analysis, run.roles, request.measure, request.attribution, request.threads);
       },
       [](std::ostream& out, const Analysis& analysis, const AttributionCommandOptions& options) {
-        out << attributions_json(analysis, options.top).dump(2) << '\n';
+        out << json_text(attributions_json(analysis, options.top), 2) << '\n';
       },
       [](std::ostream& out, const Analysis& analysis, const AttributionCommandOptions& options) {
         write_attributions_tsv(out, analysis, options.top);

@@ -6,6 +6,7 @@
 #include "cli/commands.h"
 #include "cli/measure_output.h"
 #include "cli/table_output.h"
+#include "core/utf8_text.h"
 
 namespace manicule::cli {
 
@@ -46,7 +47,7 @@ CommandRunner add_distances_command(CLI::App& app) {
     const Analysis analysis = run_analysis(request);
     write_output(options->output, [&](std::ostream& out) {
       if (options->format == "json") {
-        out << distances_json(analysis).dump(2) << '\n';
+        out << json_text(distances_json(analysis), 2) << '\n';
         return;
       }
       write_analysis_parameters(out, analysis);

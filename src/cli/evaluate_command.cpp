@@ -5,6 +5,7 @@
 #include "attribution/evaluation.h"
 #include "cli/attribution_cli_options.h"
 #include "cli/attribution_output.h"
+#include "core/utf8_text.h"
 
 namespace manicule::cli {
 
@@ -17,7 +18,7 @@ CommandRunner add_evaluate_command(CLI::App& app) {
                                                     options.with_verification, request.threads);
       },
       [](std::ostream& out, const Analysis& analysis, const AttributionCommandOptions&) {
-        out << evaluation_json(analysis).dump(2) << '\n';
+        out << json_text(evaluation_json(analysis), 2) << '\n';
       },
       [](std::ostream& out, const Analysis& analysis, const AttributionCommandOptions& options) {
         write_evaluation_tsv(out, analysis, options.table);

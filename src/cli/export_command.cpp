@@ -7,6 +7,7 @@
 #include "cli/commands.h"
 #include "core/error.h"
 #include "core/provenance.h"
+#include "core/utf8_text.h"
 #include "export/web_annotation.h"
 #include "standoff/stored_results.h"
 #include "standoff/uri_reference.h"
@@ -35,11 +36,11 @@ CommandRunner add_export_command(CLI::App& app) {
     std::string uri = base->empty() ? file_uri(*file) : *base;
     auto doc = web_annotations(results, uri, current_time_iso8601());
     if (output->empty()) {
-      std::cout << doc.dump(2) << '\n';
+      std::cout << json_text(doc, 2) << '\n';
       return 0;
     }
     std::ofstream out(*output, std::ios::binary);
-    out << doc.dump(2) << '\n';
+    out << json_text(doc, 2) << '\n';
     if (!out) throw Error(ErrorKind::write_failed, "cannot write the export", *output);
     return 0;
   };

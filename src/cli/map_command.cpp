@@ -8,6 +8,7 @@
 #include "cli/measure_output.h"
 #include "cli/table_output.h"
 #include "core/error.h"
+#include "core/utf8_text.h"
 #include "export/pca_plot.h"
 #include "export/plot_captions.h"
 
@@ -128,7 +129,7 @@ CommandRunner add_map_command(CLI::App& app) {
     const Analysis analysis = run_analysis(request);
     write_output(options->output, [&](std::ostream& out) {
       if (options->format == "json") {
-        out << map_json(analysis).dump(2) << '\n';
+        out << json_text(map_json(analysis), 2) << '\n';
       } else if (options->format == "svg") {
         PcaPlotOptions plot;
         plot.x_component = x;

@@ -10,6 +10,7 @@
 #include "core/corpus.h"
 #include "core/error.h"
 #include "core/provenance.h"
+#include "core/utf8_text.h"
 
 namespace manicule::cli {
 
@@ -74,7 +75,7 @@ CommandRunner add_segments_command(CLI::App& app) {
         rows.push_back(row);
       }
       nlohmann::json doc{{"provenance", provenance_json(make_provenance(request, corpus))}, {"segments", rows}};
-      std::cout << doc.dump(2) << '\n';
+      std::cout << json_text(doc, 2) << '\n';
     } else {
       write_tsv_parameters(std::cout, provenance_pairs(make_provenance(request, corpus)));
       std::vector<std::string> header{"segment", "label", "tokens", "types", "file", "unit",

@@ -9,6 +9,7 @@
 #include "attribution/attribution_result.h"
 #include "cli/commands.h"
 #include "cli/table_output.h"
+#include "core/utf8_text.h"
 #include "standoff/stored_results.h"
 
 namespace manicule::cli {
@@ -18,7 +19,7 @@ namespace {
 std::string cell(const nlohmann::json& v) {
   if (v.is_string()) return v.get<std::string>();
   if (v.is_null()) return "";
-  return v.dump();
+  return json_text(v);
 }
 
 // The stored results in the shape `show --format json` prints.
@@ -138,7 +139,7 @@ CommandRunner add_show_command(CLI::App& app) {
   return [=]() -> int {
     nlohmann::json doc = results_json(read_stored_results(*file));
     if (*format == "json")
-      std::cout << doc.dump(2) << '\n';
+      std::cout << json_text(doc, 2) << '\n';
     else
       print_tsv(doc);
     return 0;

@@ -8,6 +8,7 @@
 #include "cli/commands.h"
 #include "cli/measure_output.h"
 #include "core/error.h"
+#include "core/utf8_text.h"
 #include "export/tree_plot.h"
 #include "measure/newick.h"
 
@@ -132,7 +133,7 @@ CommandRunner add_tree_command(CLI::App& app) {
     const Analysis analysis = run_analysis(request);
     write_output(options->output, [&](std::ostream& out) {
       if (options->format == "json") {
-        out << tree_json(analysis).dump(2) << '\n';
+        out << json_text(tree_json(analysis), 2) << '\n';
       } else if (options->format == "svg") {
         out << render_svg_dendrogram(clustering_plot(analysis, *title));
       } else {

@@ -4,6 +4,7 @@
 #include "attribution/verify.h"
 #include "cli/attribution_cli_options.h"
 #include "cli/attribution_output.h"
+#include "core/utf8_text.h"
 
 namespace manicule::cli {
 
@@ -18,7 +19,7 @@ CommandRunner add_verify_command(CLI::App& app) {
         run.analysis.verification_band = verified.band;
       },
       [](std::ostream& out, const Analysis& analysis, const AttributionCommandOptions&) {
-        out << verifications_json(analysis).dump(2) << '\n';
+        out << json_text(verifications_json(analysis), 2) << '\n';
       },
       [](std::ostream& out, const Analysis& analysis, const AttributionCommandOptions&) {
         write_verifications_tsv(out, analysis);

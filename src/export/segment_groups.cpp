@@ -5,6 +5,8 @@
 #include <map>
 #include <set>
 
+#include "core/utf8_text.h"
+
 namespace manicule {
 
 namespace {
@@ -13,7 +15,9 @@ const char* const kPalette[] = {"#0072B2", "#D55E00", "#009E73", "#CC79A7", "#E6
 constexpr std::size_t kPaletteSize = sizeof kPalette / sizeof kPalette[0];
 const char* const kUnknownColour = "#8C8C8C";
 
-std::string file_stem(const std::string& path) { return std::filesystem::path(path).stem().string(); }
+std::string file_stem(const std::string& path) {
+  return well_formed_utf8(std::filesystem::path(path).stem().string());
+}
 
 std::vector<std::string> distinct_labels(const Analysis& analysis, const std::vector<std::size_t>& plotted) {
   std::vector<std::string> labels;

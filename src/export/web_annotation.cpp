@@ -2,6 +2,7 @@
 
 #include <vector>
 
+#include "core/utf8_text.h"
 #include "standoff/uri_reference.h"
 
 namespace manicule {
@@ -59,7 +60,7 @@ nlohmann::ordered_json values_body(const StoredResults& results, const std::stri
   nlohmann::ordered_json body = nlohmann::ordered_json::array();
   auto it = results.values.find(fs_id);
   if (it == results.values.end()) return body;
-  body.push_back({{"type", "TextualBody"}, {"value", it->second.dump()}, {"format", "application/json"}});
+  body.push_back({{"type", "TextualBody"}, {"value", json_text(it->second)}, {"format", "application/json"}});
   body.push_back({{"id", without_fragment(base) + "#" + fs_id}, {"type", "Dataset"}, {"format", "application/tei+xml"}});
   return body;
 }
@@ -122,7 +123,7 @@ nlohmann::ordered_json web_annotations(const StoredResults& results, const std::
         if (v != results.values.end() && v->second.contains("segments") && v->second.contains("value")) {
           const auto& s = v->second["segments"];
           note = v->second.value("measure", std::string("distance")) + " distance between " +
-                 s[0].get<std::string>() + " and " + s[1].get<std::string>() + ": " + v->second["value"].dump() +
+                 s[0].get<std::string>() + " and " + s[1].get<std::string>() + ": " + json_text(v->second["value"]) +
                  " (smaller means more alike).";
         }
         items.push_back(annotation_json(a, doc, doc + "#" + a.id + "/" + link.id, doc + "#" + link.id, note,

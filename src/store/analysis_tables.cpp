@@ -1,6 +1,7 @@
 #include "store/analysis_tables.h"
 
 #include "core/sha256.h"
+#include "core/utf8_text.h"
 #include "store/row_inserter.h"
 #include "store/run_log.h"
 
@@ -8,7 +9,7 @@ namespace manicule::store {
 
 std::string analysis_key(const nlohmann::json& parameters, const StoredSelection& selection) {
   Sha256 h;
-  std::string p = parameters.dump();
+  std::string p = json_text(parameters);
   h.update(p.data(), p.size());
   for (std::size_t i = 0; i < selection.paths.size(); ++i) {
     std::string line = "\n" + selection.paths[i] + "\t" + selection.sha256[i];

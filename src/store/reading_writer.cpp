@@ -4,6 +4,7 @@
 
 #include <nlohmann/json.hpp>
 
+#include "core/utf8_text.h"
 #include "store/count_blob.h"
 #include "tei/reader.h"
 
@@ -145,7 +146,7 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
     auto& w = insert_segment_;
     w.bind(1, settings_id_).bind(2, r.sha256).bind(3, i).bind(4, seg.local_id).bind(5, seg.unit).bind(6, seg.label);
     w.bind(7, seg.language).bind(8, seg.author).bind(9, authorship_name(seg.authorship));
-    w.bind(10, nlohmann::json(seg.pointers).dump()).bind(11, nlohmann::json(seg.warnings).dump());
+    w.bind(10, json_text(nlohmann::json(seg.pointers))).bind(11, json_text(nlohmann::json(seg.warnings)));
     w.bind(12, record.tokens).bind(13, record.types).bind(14, counts.feature_total);
     w.bind_blob(15, encode_counts(mapped_));
     w.step_to_end();

@@ -1,6 +1,7 @@
 #include "store/run_log.h"
 
 #include "core/provenance.h"
+#include "core/utf8_text.h"
 #include "manicule_version.h"
 
 namespace manicule::store {
@@ -12,7 +13,7 @@ std::int64_t begin_run(Database& db, const std::string& kind, std::int64_t setti
   insert.bind(1, kind);
   if (settings_id) insert.bind(2, settings_id); else insert.bind_null(2);
   insert.bind(3, current_time_iso8601()).bind(4, std::string("manicule ") + MANICULE_VERSION_STRING);
-  insert.bind(5, parameters.dump());
+  insert.bind(5, json_text(parameters));
   insert.step_to_end();
   return db.last_insert_id();
 }

@@ -7,6 +7,7 @@
 #include "attribution/segment_roles.h"
 #include "core/error.h"
 #include "core/facade.h"
+#include "core/utf8_text.h"
 #include "measure/cosine_gram.h"
 #include "measure/pairwise_distances.h"
 #include "store/analysis_tables.h"
@@ -60,7 +61,7 @@ std::vector<AttributionRow> attribution_rows(const Request& request, Analysis& a
     for (const auto& c : result.candidates) {
       rows.push_back(AttributionRow{analysis.segments[result.segment].id, c.rank, c.candidate, c.distance,
                                     analysis.segments[c.nearest_segment].id, c.nearest_distance, result.margin,
-                                    result.stability, result.rule, nlohmann::json(result.warnings).dump()});
+                                    result.stability, result.rule, json_text(nlohmann::json(result.warnings))});
     }
   }
   return rows;

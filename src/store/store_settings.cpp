@@ -5,6 +5,7 @@
 #include "core/error.h"
 #include "core/provenance.h"
 #include "core/sha256.h"
+#include "core/utf8_text.h"
 #include "manicule_version.h"
 #include "store/store_schema.h"
 
@@ -43,7 +44,7 @@ ReadingSettings reading_settings(const Request& request) {
   s.features = describe(request.features);
   nlohmann::json keyed = {{"options", options}, {"reader", std::string("manicule ") + MANICULE_VERSION_STRING},
                           {"store_format", kStoreFormat}};
-  s.key = sha256_hex(keyed.dump());
+  s.key = sha256_hex(json_text(keyed));
   return s;
 }
 
@@ -53,7 +54,7 @@ std::int64_t ensure_settings(Database& db, const ReadingSettings& s, bool* inser
   if (inserted) *inserted = false;
   if (find.step()) return find.int64_at(0);
   db.prepare("INSERT INTO settings (key, unit, selection, tokenizer, features, request) VALUES (?1, ?2, ?3, ?4, ?5, ?6)")
-      .run(s.key, s.unit, s.selection, s.tokenizer, s.features, s.request.dump());
+      .run(s.key, s.unit, s.selection, s.tokenizer, s.features, json_text(s.request));
   if (inserted) *inserted = true;
   return db.last_insert_id();
 }

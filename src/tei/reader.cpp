@@ -8,6 +8,7 @@
 #include <set>
 
 #include "core/error.h"
+#include "core/utf8_text.h"
 #include "tei/tei_walker.h"
 
 namespace manicule {
@@ -17,7 +18,7 @@ std::string file_stem(const std::string& path) {
   std::string base = slash == std::string::npos ? path : path.substr(slash + 1);
   std::size_t dot = base.rfind('.');
   if (dot != std::string::npos && dot > 0) base.resize(dot);
-  return base;
+  return well_formed_utf8(base);  // a segment id is written into XML and JSON
 }
 
 namespace {
