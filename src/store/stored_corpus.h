@@ -30,7 +30,8 @@ struct SegmentSource {
 struct StoredSelection {
   std::vector<std::string> paths;   // in path order
   std::vector<std::string> sha256;  // of each path
-  std::vector<std::string> stems;   // of each path: segment ids begin with it
+  std::vector<std::string> stems;   // of each path: segment ids begin with it (the file's stem,
+                                    // or its path without ".xml" where stems clash)
   std::vector<std::string> languages;  // each file's header language
   std::size_t files_in_store = 0;       // rows of the files table
   std::size_t files_not_read = 0;       // no reading under these settings (run batch)
@@ -46,7 +47,8 @@ struct StoredCorpus {
 
 StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& filter);
 
-// Throws Error(usage) when two files' segment ids clash (same file name in two folders).
+// Throws Error(usage) when two files' segment ids clash (a safety net: the prefixes that
+// select_stored_files gives are distinct).
 StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const FeatureSpec& spec,
                                 const ArchiveFilter& filter, const StoredSelection& selection,
                                 std::size_t min_tokens, FreshCounts* fresh = nullptr);

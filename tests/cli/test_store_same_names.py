@@ -1,0 +1,70 @@
+"""Files of one name in several folders of an archive (1850/letters.xml, 1851/letters.xml)
+are analysed together from the store: their segment ids begin with their path below the
+input folder, a file whose name is unique keeps its stem, and nothing is refused. Before,
+the analysis stopped with a usage error asking to narrow it with --folder, so such an
+archive could not be compared across its folders at all.
+
+Outside references: the expected id prefixes come from os.path.relpath; the nearest
+neighbours are checked against a plain fact of the data, that a letter and its copy with
+one word changed are each other's nearest, a third copy with many words changed being
+farther (the copies are made here with str.replace), and
+the count of neighbour rows against 5 per measured segment (the documented default).
+"""
+import os
+import sqlite3
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
+import mtest  # noqa: E402
+
+EXAMPLE = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
+with open(EXAMPLE, encoding="utf-8") as f:
+    letters = f.read()
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    files = {
+        os.path.join(archive, "1850", "letters.xml"): letters,
+        # The same letters with one word changed in each (the first "the" of every <p>).
+        os.path.join(archive, "1851", "letters.xml"): letters.replace("<p>The ", "<p>This "),
+        # Many words changed: farther from both than they are from each other.
+        os.path.join(archive, "misc", "stray.xml"): letters.replace(" the ", " a ").replace(" and ", " or "),
+    }
+    for path, text in files.items():
+        os.makedirs(os.path.dirname(path), exist_ok=True)
+        with open(path, "w", encoding="utf-8") as f:
+            f.write(text)
+    mtest.check(files[os.path.join(archive, "1851", "letters.xml")] != letters, "the copy was not changed")
+
+    store = os.path.join(tmp, "archive.sqlite")
+    proc = mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--min-tokens", "200", "--analyse",
+                      "--quiet"], check=False)
+    mtest.check(proc.returncode == 0, "batch --analyse: exit %d, %s" % (proc.returncode, proc.stderr))
+
+    db = sqlite3.connect(store)
+    run = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
+    rows = db.execute("SELECT segment, path FROM analysis_segments WHERE run_id = ? AND measured = 1",
+                      (run,)).fetchall()
+    nearest = dict(db.execute("SELECT segment, neighbour FROM neighbours WHERE run_id = ? AND rank = 1", (run,)))
+    neighbour_rows = db.execute("SELECT count(*) FROM neighbours WHERE run_id = ?", (run,)).fetchone()[0]
+    db.close()
+
+    def expected_prefix(path):
+        if os.path.basename(path) == "stray.xml":  # the one name found once
+            return "stray"
+        return os.path.splitext(os.path.relpath(path, archive))[0]
+
+    mtest.check(len(rows) == 36, "measured segments: %d, 12 letters in each of 3 files expected" % len(rows))
+    for segment, path in rows:
+        mtest.check(segment.startswith(expected_prefix(path) + "#"), "segment %s of %s" % (segment, path))
+    mtest.check(len({s for s, _ in rows}) == len(rows), "segment ids are not distinct")
+    mtest.check(neighbour_rows == 5 * len(rows), "neighbour rows %d for %d segments" % (neighbour_rows, len(rows)))
+    for segment, _ in rows:
+        if segment.startswith("1850/letters#"):
+            twin = "1851/letters#" + segment.split("#", 1)[1]
+            mtest.check(nearest.get(segment) == twin and nearest.get(twin) == segment,
+                        "%s and %s are not each other's nearest: %s, %s"
+                        % (segment, twin, nearest.get(segment), nearest.get(twin)))
+
+mtest.done()
