@@ -7,7 +7,9 @@
 #include "core/corpus_stream.h"
 #include "core/error.h"
 #include "core/file_reading.h"
+#include "core/segment_id_prefixes.h"
 #include "profile/profile_builder.h"
+#include "tei/reader.h"
 
 namespace manicule {
 
@@ -49,6 +51,19 @@ std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs) {
   return files;
 }
 
+namespace {
+
+// Gives a file's segments ids that begin with `prefix` (segment_id_prefixes).
+void use_id_prefix(FileReading& r, const std::string& prefix) {
+  for (std::size_t i = 0; i < r.segments.size(); ++i) {
+    std::string id = prefix + "#" + r.segments[i].segment.local_id;
+    if (i < r.counts.segments.size()) r.counts.segments[i].id = id;
+    r.segments[i].segment.id = std::move(id);
+  }
+}
+
+}  // namespace
+
 Corpus read_corpus(const Request& request, const std::vector<std::string>& files, const ProgressFn& progress) {
   // Files are read on all cores (read_files_streaming) and arrive here as they finish; each
   // is merged into the run's counts, in file order, as soon as it and every file before it
@@ -57,7 +72,11 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
   Corpus corpus;
   corpus.files = files;
   ProfileBuilder merged(request.features);
-  auto absorb = [&](FileReading& r) {
+  // The reader, which sees one file, begins its ids with the file's stem; files of one name
+  // in several folders get longer prefixes here.
+  const std::vector<std::string> prefixes = segment_id_prefixes(files);
+  auto absorb = [&](std::size_t index, FileReading& r) {
+    if (prefixes[index] != file_stem(r.file)) use_id_prefix(r, prefixes[index]);
     corpus.bytes += r.bytes;
     corpus.file_sha256.push_back(r.sha256);
     if (r.failed) {
@@ -67,8 +86,8 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
     if (request.keep_counts) {
       merged.merge(std::move(r.counts));
     } else {
-      // The same refusal merge() makes: two files of one name in different folders would
-      // give their segments the same ids.
+      // The same refusal merge() makes, should two segments still share an id (a file named
+      // twice among the inputs).
       for (const auto& s : r.segments) merged.claim_id(s.segment.id);
     }
     for (auto& s : r.segments) corpus.segments.push_back(std::move(s));
@@ -82,7 +101,7 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
     if (progress) progress(++received, files.size(), bytes_done);
     waiting.emplace(index, std::move(reading));
     for (auto it = waiting.find(next_to_merge); it != waiting.end(); it = waiting.find(++next_to_merge)) {
-      absorb(it->second);
+      absorb(next_to_merge, it->second);
       waiting.erase(it);
     }
   });

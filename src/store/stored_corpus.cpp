@@ -6,7 +6,7 @@
 #include <nlohmann/json.hpp>
 
 #include "core/error.h"
-#include "core/utf8_text.h"
+#include "core/segment_id_prefixes.h"
 #include "store/count_blob.h"
 #include "store/store_vocabulary.h"
 
@@ -18,26 +18,12 @@ Authorship parse_authorship(const std::string& s) {
   return s == "known" ? Authorship::known : s == "conjectured" ? Authorship::conjectured : Authorship::unknown;
 }
 
-// Each prefix shared by two or more files is replaced by that file's `longer` name, without
-// its ".xml".
-void disambiguate(std::vector<std::string>& prefixes, const std::vector<std::string>& longer) {
-  std::unordered_map<std::string, std::size_t> uses;
-  for (const auto& p : prefixes) ++uses[p];
-  for (std::size_t i = 0; i < prefixes.size(); ++i) {
-    if (uses[prefixes[i]] < 2) continue;
-    std::string name = longer[i];
-    if (name.size() > 4 && name.compare(name.size() - 4, 4, ".xml") == 0) name.resize(name.size() - 4);
-    prefixes[i] = well_formed_utf8(name);
-  }
-}
-
 }  // namespace
 
 StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& filter) {
   StoredSelection out;
-  std::vector<std::string> relative_paths;  // of each selected path
   Statement files = db.prepare(
-      "SELECT f.path, f.relative_path, f.sha256, r.status, r.title, r.author, r.date, r.year, r.language, f.stem "
+      "SELECT f.path, f.relative_path, f.sha256, r.status, r.title, r.author, r.date, r.year, r.language "
       "FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 ORDER BY f.path");
   files.bind(1, settings_id);
   while (files.step()) {
@@ -60,15 +46,11 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     }
     out.paths.push_back(path);
     out.sha256.push_back(files.text_at(2));
-    out.stems.push_back(files.text_at(9));
-    relative_paths.push_back(files.text_at(1));
     out.languages.push_back(std::move(m.language));
   }
-  // Segment ids begin with the file's stem, but an archive often holds files of one name in
-  // several folders (1850/letters.xml, 1851/letters.xml): those begin with their path below
-  // the input folder instead, or with their whole path should that clash too.
-  disambiguate(out.stems, relative_paths);
-  disambiguate(out.stems, out.paths);
+  // An archive often holds files of one name in several folders (1850/letters.xml,
+  // 1851/letters.xml): theirs get longer prefixes than the stored stem.
+  out.stems = segment_id_prefixes(out.paths);
   return out;
 }
 

@@ -30,8 +30,8 @@ struct SegmentSource {
 struct StoredSelection {
   std::vector<std::string> paths;   // in path order
   std::vector<std::string> sha256;  // of each path
-  std::vector<std::string> stems;   // of each path: segment ids begin with it (the file's stem,
-                                    // or its path without ".xml" where stems clash)
+  std::vector<std::string> stems;   // of each path: segment ids begin with it
+                                    // (core/segment_id_prefixes.h)
   std::vector<std::string> languages;  // each file's header language
   std::size_t files_in_store = 0;       // rows of the files table
   std::size_t files_not_read = 0;       // no reading under these settings (run batch)

@@ -110,13 +110,21 @@ p = subprocess.run([mtest.BIN, "segments", "--unit", "stanza", prose], capture_o
 mtest.check(p.returncode == 2 and "unknown unit" in p.stderr, "unknown unit: " + p.stderr)
 
 # 9. Two files of one name in different folders would give their segments the same ids
-# (file stem + "#" + id): refused with a usage error naming the id, not listed twice.
+# (file stem + "#" + id): theirs begin with the end of their path that tells them apart
+# (first/same, second/same; the folder names from os.path), each file's segments listed
+# once. The same file named twice among the inputs is still refused, naming the id.
 for folder in ("first", "second"):
     os.makedirs(os.path.join(tmp, folder), exist_ok=True)
     write(os.path.join(folder, "same.xml"), TEI_OPEN + HEADER + "<text><body><p>Twice named.</p></body></text></TEI>\n")
-p = run_segments(os.path.join(tmp, "first", "same.xml"), os.path.join(tmp, "second", "same.xml"))
+same_paths = [os.path.join(tmp, folder, "same.xml") for folder in ("first", "second")]
+p = subprocess.run([mtest.BIN, "segments", "--unit", "whole"] + same_paths, capture_output=True, text=True)
+ids = [row["segment"] for row in mtest.read_tsv(p.stdout)] if p.returncode == 0 else []
+expected_ids = [os.path.basename(os.path.dirname(path)) + "/same#whole1" for path in same_paths]
+mtest.check(p.returncode == 0 and ids == expected_ids,
+            "same file name in two folders: ids %r, expected %r (%d %s)" % (ids, expected_ids, p.returncode, p.stderr))
+p = run_segments(same_paths[0], same_paths[0])
 mtest.check(p.returncode == 2 and "same#" in p.stderr and "twice" in p.stderr,
-            "same file name in two folders: usage error naming the id: %d %s" % (p.returncode, p.stderr))
+            "one file named twice: usage error naming the id: %d %s" % (p.returncode, p.stderr))
 
 # 10. Documents that end too soon or never begin. libxml2's push parser, which reads the
 # files, reports every one of them at the end of the input as "Extra content at the end of

@@ -1,6 +1,7 @@
 """Files of one name in several folders of an archive (1850/letters.xml, 1851/letters.xml)
-are analysed together from the store: their segment ids begin with their path below the
-input folder, a file whose name is unique keeps its stem, and nothing is refused. Before,
+are analysed together from the store: their segment ids begin with the end of their path
+that tells them apart (here the path below the input folder), a file whose name is unique
+keeps its stem, and nothing is refused. Before,
 the analysis stopped with a usage error asking to narrow it with --folder, so such an
 archive could not be compared across its folders at all.
 

@@ -1,0 +1,16 @@
+// What a file's segment ids begin with. An id is "<prefix>#<local id>", the prefix being the
+// file's stem ("ferry-letters" for .../ferry-letters.xml). Files of one name in several
+// folders of an archive (1850/letters.xml, 1851/letters.xml) would share it: theirs is the
+// shortest end of their path, in whole names, that tells them apart ("1850/letters"), or
+// the whole path without its extension. Ids therefore depend on the other files of a run
+// only where names repeat.
+#pragma once
+#include <string>
+#include <vector>
+
+namespace manicule {
+
+// One prefix per path, all distinct for distinct paths; well-formed UTF-8.
+std::vector<std::string> segment_id_prefixes(const std::vector<std::string>& paths);
+
+}  // namespace manicule
