@@ -125,7 +125,7 @@ CommandRunner add_batch_command(CLI::App& app) {
       summary.fresh.reset();
       report_analysis(std::cout, std::cerr, result);
     }
-    return summary.failures.empty() ? kExitOk : kExitSomeFilesFailed;
+    return summary.failures.empty() && summary.unlisted.empty() ? kExitOk : kExitSomeFilesFailed;
   };
 }
 

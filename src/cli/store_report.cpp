@@ -15,6 +15,9 @@ void report_batch(std::ostream& out, const std::string& store, const store::Batc
 
 void report_failures(std::ostream& err, const store::BatchSummary& s) {
   for (const auto& f : s.failures) err << "manicule: failed: " << f.message << '\n';
+  for (const auto& folder : s.unlisted)
+    err << "manicule: failed: " << folder.path << ": cannot list the folder: " << folder.reason
+        << "; its files were not looked at, and those stored from it before are kept\n";
 }
 
 void report_analysis(std::ostream& out, std::ostream& err, const store::StoreAnalysisResult& r) {

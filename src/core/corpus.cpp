@@ -15,7 +15,42 @@ namespace manicule {
 
 namespace fs = std::filesystem;
 
-std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs) {
+namespace {
+
+// Adds the *.xml files below `folder` to `found`, folder by folder (symbolic links to
+// folders are not followed; links to files are). A folder that cannot be listed goes to
+// `unlisted`, or, without it, stops the walk with an error naming it.
+void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::vector<UnlistedFolder>* unlisted) {
+  std::error_code ec;
+  std::vector<fs::path> subfolders;
+  for (fs::directory_iterator it(folder, ec); !ec && it != fs::directory_iterator(); it.increment(ec)) {
+    std::error_code type_ec;  // a dangling link is no folder, nor a file to read
+    const fs::path& path = it->path();
+    if (it->is_directory(type_ec) && !it->is_symlink(type_ec)) {
+      subfolders.push_back(path);
+      continue;
+    }
+    if (path.extension() != ".xml") continue;
+    const bool regular = it->is_regular_file(type_ec);
+    if (type_ec && type_ec != std::errc::no_such_file_or_directory) {  // a loop of links, say
+      throw Error(ErrorKind::bad_input, std::string("cannot tell what the file is: ").append(type_ec.message()),
+                  path.string());
+    }
+    if (regular) found.push_back(path.string());
+  }
+  if (ec) {
+    if (!unlisted) {
+      throw Error(ErrorKind::bad_input, std::string("cannot list the folder: ").append(ec.message()),
+                  folder.string());
+    }
+    unlisted->push_back(UnlistedFolder{folder.string(), ec.message()});
+  }
+  for (const auto& sub : subfolders) walk_folder(sub, found, unlisted);
+}
+
+}  // namespace
+
+std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs, std::vector<UnlistedFolder>* unlisted) {
   std::vector<std::string> files;
   for (const auto& input : inputs) {
     std::error_code ec;
@@ -23,25 +58,7 @@ std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs) {
     if (ec || !fs::exists(status)) throw Error(ErrorKind::bad_input, "no such file or folder", input);
     if (fs::is_directory(status)) {
       std::vector<std::string> found;
-      // A folder that cannot be listed stops the walk with an error rather than being left
-      // out: an archive's batch would take the stored files under it for removed ones.
-      fs::path at = input;  // the folder being listed
-      for (auto it = fs::recursive_directory_iterator(input, ec); !ec && it != fs::recursive_directory_iterator();
-           it.increment(ec)) {
-        std::error_code type_ec;  // a dangling link is no directory, nor a file to read
-        at = it->is_directory(type_ec) ? it->path() : it->path().parent_path();
-        if (it->path().extension() != ".xml") continue;
-        const bool regular = it->is_regular_file(type_ec);
-        if (type_ec && type_ec != std::errc::no_such_file_or_directory) {  // a loop of links, say
-          throw Error(ErrorKind::bad_input, std::string("cannot tell what the file is: ").append(type_ec.message()),
-                      it->path().string());
-        }
-        if (regular) found.push_back(it->path().string());
-      }
-      if (ec) {
-        throw Error(ErrorKind::bad_input, std::string("cannot list the folder: ").append(ec.message()),
-                    at.string());
-      }
+      walk_folder(input, found, unlisted);
       std::sort(found.begin(), found.end());
       files.insert(files.end(), found.begin(), found.end());
     } else {

@@ -38,10 +38,19 @@ struct Corpus {
 // Called after each file: (files done, files in all, bytes done).
 using ProgressFn = std::function<void(std::size_t, std::size_t, std::size_t)>;
 
+// A folder below an input that could not be listed (no permission, for one).
+struct UnlistedFolder {
+  std::string path;
+  std::string reason;  // the system's words
+};
+
 // Lists the TEI files named by `inputs` (files as given; folders searched recursively for
-// *.xml, sorted). Throws Error(bad_input) for a path that does not exist and for a folder
-// below an input that cannot be listed (no permission, for one).
-std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs);
+// *.xml, sorted). Throws Error(bad_input) for a path that does not exist. A folder below an
+// input that cannot be listed is noted in `unlisted` and the rest still listed (for a batch
+// over an archive, which goes on and keeps what it stored from there); without `unlisted`
+// it stops the listing with Error(bad_input) naming it, never left out unsaid.
+std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs,
+                                       std::vector<UnlistedFolder>* unlisted = nullptr);
 
 // Reads `files` (already expanded). A file that fails is recorded in `failures`; the
 // others are still read. Throws only for a bad request.

@@ -44,11 +44,11 @@ std::string relative_to_folder(const std::string& path, const std::string& folde
 }  // namespace
 
 std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inputs, const ArchiveFilter& filter,
-                                            const Shard& shard) {
+                                            const Shard& shard, std::vector<UnlistedFolder>& unlisted) {
   std::vector<ArchiveFile> out;
   for (const auto& input : inputs) {
     const bool folder = fs::is_directory(input);
-    for (const auto& path : expand_inputs({input})) {
+    for (const auto& path : expand_inputs({input}, &unlisted)) {
       ArchiveFile f;
       f.path = path;
       f.relative_path = folder ? relative_to_folder(path, input) : fs::path(path).filename().string();

@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "core/corpus.h"
 #include "store/archive_filter.h"
 
 namespace manicule::store {
@@ -28,9 +29,10 @@ struct ArchiveFile {
 bool in_shard(const std::string& relative_path, const Shard& shard);
 
 // The files under `inputs` inside `filter`'s folder and in `shard`, sorted by path within
-// each input. Throws Error(bad_input) for an input that does not exist.
+// each input. Throws Error(bad_input) for an input that does not exist; a folder below an
+// input that cannot be listed goes to `unlisted` (see expand_inputs).
 std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inputs, const ArchiveFilter& filter,
-                                            const Shard& shard);
+                                            const Shard& shard, std::vector<UnlistedFolder>& unlisted);
 
 // Size and modification time now; false when the file cannot be examined.
 bool stat_file(const std::string& path, std::uint64_t& size, std::int64_t& mtime_ns);

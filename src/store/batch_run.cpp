@@ -98,15 +98,23 @@ struct InputScope {
 // filter and the shard) leave the files table.
 std::size_t remove_vanished(Database& db, const Request& request, const BatchOptions& options,
                             const std::vector<ArchiveFile>& files,
-                            const std::unordered_map<std::string, StoredFile>& stored) {
+                            const std::unordered_map<std::string, StoredFile>& stored,
+                            const std::vector<UnlistedFolder>& unlisted) {
   std::unordered_set<std::string> found;
   for (const auto& f : files) found.insert(f.path);
+  const auto under_unlisted = [&unlisted](const std::string& path) {
+    for (const auto& folder : unlisted)
+      if (path.size() > folder.path.size() && path.compare(0, folder.path.size(), folder.path) == 0 &&
+          path[folder.path.size()] == '/')
+        return true;
+    return false;
+  };
   const InputScope scope(request.inputs);
   Statement remove = db.prepare("DELETE FROM files WHERE path = ?1");
   std::size_t removed = 0;
   for (const auto& [path, f] : stored) {
-    if (!found.count(path) && scope.covers(path) && in_folder(options.filter, path, f.relative_path) &&
-        in_shard(f.relative_path, options.shard)) {
+    if (!found.count(path) && scope.covers(path) && !under_unlisted(path) &&
+        in_folder(options.filter, path, f.relative_path) && in_shard(f.relative_path, options.shard)) {
       remove.run(path);
       ++removed;
     }
@@ -126,7 +134,8 @@ nlohmann::json run_parameters(const Request& request, const BatchOptions& option
 BatchSummary run_batch(Database& db, const Request& request, const BatchOptions& options,
                        const BatchListener& listener) {
   const ReadingSettings settings = reading_settings(request);
-  std::vector<ArchiveFile> listed = list_archive_files(request.inputs, options.filter, options.shard);
+  std::vector<UnlistedFolder> unlisted;
+  std::vector<ArchiveFile> listed = list_archive_files(request.inputs, options.filter, options.shard, unlisted);
   std::vector<ArchiveFile> files;
   {
     std::unordered_set<std::string> seen;
@@ -135,11 +144,15 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   }
 
   BatchSummary summary;
+  summary.unlisted = unlisted;
   {
     Transaction t(db);
     mark_interrupted_runs(db);
     summary.settings_id = ensure_settings(db, settings);
-    summary.run_id = begin_run(db, "batch", summary.settings_id, run_parameters(request, options, settings));
+    nlohmann::json parameters = run_parameters(request, options, settings);
+    for (const auto& folder : unlisted)  // kept with the run, for whoever reads the table later
+      parameters["unlisted_folders"].push_back({{"path", folder.path}, {"reason", folder.reason}});
+    summary.run_id = begin_run(db, "batch", summary.settings_id, parameters);
     t.commit();
   }
   RunCounters& counters = summary.counters;
@@ -236,7 +249,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
       if (listener) listener(progress, f.path, outcome);
     });
 
-    summary.files_removed = remove_vanished(db, request, options, files, previous);
+    summary.files_removed = remove_vanished(db, request, options, files, previous, unlisted);
     counters.files_failed = failing.size();
     update_run(db, summary.run_id, counters);
     finish_run(db, summary.run_id, "done");

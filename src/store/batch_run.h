@@ -66,6 +66,9 @@ struct BatchSummary {
   RunCounters counters;
   std::vector<BatchFailure> failures;  // every file failing now, in path order
   std::size_t files_removed = 0;       // rows of files no longer found
+  // Folders below the inputs that could not be listed: their files were not looked at, and
+  // those stored from them before stay in the store.
+  std::vector<UnlistedFolder> unlisted;
   std::unique_ptr<FreshCounts> fresh;  // with keep_counts_of_segments_from, if any file was read
 };
 

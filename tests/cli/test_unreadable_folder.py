@@ -1,12 +1,15 @@
-"""A folder below an input that cannot be listed stops the command with a message naming
-it, instead of being left out in silence. For `batch` that matters most: a re-run that
-took the stored files under such a folder for removed ones would delete them from the store.
+"""A folder below an input that cannot be listed is never left out in silence. A batch run
+over an archive goes on with the rest, as it does past a file that fails: it names the
+folder, exits 1 (some files failed), records the folder with the run, and keeps in the store
+the files stored from there before; before, it took them for removed and deleted them (2
+of 3 letters gone, exit 0). The other commands stop with exit 3 naming the folder.
 
 The permission is taken away with chmod (POSIX: listing a folder needs its read and search
 permission). Root is not refused, so as root the command runs as user and group 65534
 ("nobody" on Debian) through setpriv (util-linux), from a copy of the binary that user can
 reach. The files the store should keep are listed with os.walk before the chmod.
 """
+import json
 import os
 import shutil
 import sqlite3
@@ -71,16 +74,23 @@ mtest.check(before == expected, "first batch stored %r, os.walk found %r" % (bef
 os.chmod(hidden, 0)
 try:
     p = manicule("batch", archive, "--store", store, "--unit", "chapter", "--quiet")
-    mtest.check(p.returncode == 3,
-                "re-run with an unreadable folder: exit 3 expected, got %d (%s)" % (p.returncode, p.stderr))
+    mtest.check(p.returncode == 1,
+                "re-run with an unreadable folder: exit 1 expected, got %d (%s)" % (p.returncode, p.stderr))
     mtest.check(hidden in p.stderr and "cannot list the folder" in p.stderr and "denied" in p.stderr,
                 "the message names the folder and the reason: " + p.stderr)
     after, runs_after = stored_paths()
     mtest.check(after == expected, "the store lost files under the unreadable folder: %r" % after)
-    mtest.check(runs_after == runs_before, "a refused run was recorded: %d runs, %d before" % (runs_after, runs_before))
+    mtest.check(runs_after == runs_before + 1,
+                "the re-run is not recorded: %d runs, %d before" % (runs_after, runs_before))
+    db = sqlite3.connect(store)
+    status, parameters = db.execute("SELECT status, parameters FROM runs ORDER BY run_id DESC LIMIT 1").fetchone()
+    db.close()
+    recorded = [f["path"] for f in json.loads(parameters).get("unlisted_folders", [])]
+    mtest.check(status == "done" and recorded == [hidden], "the run records %s, %r" % (status, recorded))
     p = manicule("segments", archive, "--unit", "chapter")
     mtest.check(p.returncode == 3 and hidden in p.stderr and p.stdout == "",
-                "segments over the archive: exit 3 naming the folder, nothing printed: %d %s" % (p.returncode, p.stderr))
+                "segments over the archive: exit 3 naming the folder, nothing printed: %d %s"
+                % (p.returncode, p.stderr))
 finally:
     os.chmod(hidden, OPEN)
     shutil.rmtree(tmp)
