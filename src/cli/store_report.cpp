@@ -10,6 +10,7 @@ void report_batch(std::ostream& out, const std::string& store, const store::Batc
       << " read, " << c.files_hashed << " hashed and known, " << c.files_unchanged << " unchanged, " << c.files_failed
       << " failing";
   if (s.files_removed) out << "; " << s.files_removed << " no longer found";
+  if (s.files_respelled) out << "; " << s.files_respelled << " now under another spelling of their path";
   out << '\n';
 }
 

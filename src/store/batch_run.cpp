@@ -95,11 +95,11 @@ struct InputScope {
 };
 
 // Files stored before this run that are no longer under the inputs (within the folder
-// filter and the shard) leave the files table.
-std::size_t remove_vanished(Database& db, const Request& request, const BatchOptions& options,
-                            const std::vector<ArchiveFile>& files,
-                            const std::unordered_map<std::string, StoredFile>& stored,
-                            const std::vector<UnlistedFolder>& unlisted) {
+// filter and the shard) leave the files table; so does a file found in this run under
+// another spelling of its path, which would otherwise be in the archive twice.
+void remove_vanished(Database& db, const Request& request, const BatchOptions& options,
+                     const std::vector<ArchiveFile>& files, const std::unordered_map<std::string, StoredFile>& stored,
+                     const std::vector<UnlistedFolder>& unlisted, BatchSummary& summary) {
   std::unordered_set<std::string> found;
   for (const auto& f : files) found.insert(f.path);
   const auto under_unlisted = [&unlisted](const std::string& path) {
@@ -110,16 +110,24 @@ std::size_t remove_vanished(Database& db, const Request& request, const BatchOpt
     return false;
   };
   const InputScope scope(request.inputs);
+  std::unordered_set<std::string> found_resolved;  // made at the first stored path not found
+  const auto respelled = [&](const std::string& path) {
+    if (found_resolved.empty())
+      for (const auto& f : files) found_resolved.insert(resolved_path(f.path));
+    return found_resolved.count(resolved_path(path)) != 0;
+  };
   Statement remove = db.prepare("DELETE FROM files WHERE path = ?1");
-  std::size_t removed = 0;
   for (const auto& [path, f] : stored) {
-    if (!found.count(path) && scope.covers(path) && !under_unlisted(path) &&
-        in_folder(options.filter, path, f.relative_path) && in_shard(f.relative_path, options.shard)) {
+    if (found.count(path)) continue;
+    if (respelled(path)) {
       remove.run(path);
-      ++removed;
+      ++summary.files_respelled;
+    } else if (scope.covers(path) && !under_unlisted(path) && in_folder(options.filter, path, f.relative_path) &&
+               in_shard(f.relative_path, options.shard)) {
+      remove.run(path);
+      ++summary.files_removed;
     }
   }
-  return removed;
 }
 
 nlohmann::json run_parameters(const Request& request, const BatchOptions& options, const ReadingSettings& settings) {
@@ -249,7 +257,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
       if (listener) listener(progress, f.path, outcome);
     });
 
-    summary.files_removed = remove_vanished(db, request, options, files, previous, unlisted);
+    remove_vanished(db, request, options, files, previous, unlisted, summary);
     counters.files_failed = failing.size();
     update_run(db, summary.run_id, counters);
     finish_run(db, summary.run_id, "done");

@@ -66,6 +66,7 @@ struct BatchSummary {
   RunCounters counters;
   std::vector<BatchFailure> failures;  // every file failing now, in path order
   std::size_t files_removed = 0;       // rows of files no longer found
+  std::size_t files_respelled = 0;     // rows of files found under another spelling of their path
   // Folders below the inputs that could not be listed: their files were not looked at, and
   // those stored from them before stay in the store.
   std::vector<UnlistedFolder> unlisted;

@@ -2,11 +2,13 @@
 
 #include <algorithm>
 #include <unordered_map>
+#include <unordered_set>
 
 #include <nlohmann/json.hpp>
 
 #include "core/error.h"
 #include "core/segment_id_prefixes.h"
+#include "store/archive_files.h"
 #include "store/count_blob.h"
 #include "store/store_vocabulary.h"
 
@@ -16,6 +18,27 @@ namespace {
 
 Authorship parse_authorship(const std::string& s) {
   return s == "known" ? Authorship::known : s == "conjectured" ? Authorship::conjectured : Authorship::unknown;
+}
+
+// Rows that name one file under two spellings of its path (arch/x.xml and ./arch/x.xml,
+// stored by runs from different working directories before batch replaced such rows): the
+// file is taken once, under its first spelling in path order, lest an analysis find each
+// of its segments nearest to itself.
+void drop_respelled(StoredSelection& s) {
+  std::unordered_set<std::string> seen;
+  std::size_t kept = 0;
+  for (std::size_t i = 0; i < s.paths.size(); ++i) {
+    if (!seen.insert(resolved_path(s.paths[i])).second) continue;
+    if (kept != i) {  // (a string moved onto itself may be left empty)
+      s.paths[kept] = std::move(s.paths[i]);
+      s.sha256[kept] = std::move(s.sha256[i]);
+      s.languages[kept] = std::move(s.languages[i]);
+    }
+    ++kept;
+  }
+  s.paths.resize(kept);
+  s.sha256.resize(kept);
+  s.languages.resize(kept);
 }
 
 }  // namespace
@@ -48,6 +71,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     out.sha256.push_back(files.text_at(2));
     out.languages.push_back(std::move(m.language));
   }
+  drop_respelled(out);
   // An archive often holds files of one name in several folders (1850/letters.xml,
   // 1851/letters.xml): theirs get longer prefixes than the stored stem.
   out.stems = segment_id_prefixes(out.paths);

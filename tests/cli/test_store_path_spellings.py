@@ -1,0 +1,81 @@
+"""One archive batched under several spellings of its folder (archive, ./archive, its
+absolute path, as a curator does from another working directory or a script) stays one
+archive in the store: the latest spelling replaces the earlier rows of the same files, and
+no content is read again; and a store that already holds a file twice so is analysed with
+the file once. Before, each spelling added its own rows, so the store held every
+file two or three times and an analysis found each segment nearest to its own copy, at
+distance 0.
+
+Outside references: os.path.samefile (the system's own identity of two paths: device and
+inode) says no two stored rows name one file, and os.walk counts the files.
+"""
+import itertools
+import os
+import shutil
+import sqlite3
+import subprocess
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
+import mtest  # noqa: E402
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    os.makedirs(archive)
+    for name in ("ferry-letters.xml", "ferry-play.xml"):
+        shutil.copy(os.path.join(mtest.ROOT, "examples", name), archive)
+    on_disk = sum(len([f for f in fs if f.endswith(".xml")]) for _, _, fs in os.walk(archive))
+    store = os.path.join(tmp, "archive.sqlite")
+
+    def batch(spelling):
+        proc = subprocess.run([os.path.abspath(mtest.BIN), "batch", spelling, "--store", store, "--unit", "letter",
+                               "--min-tokens", "200", "--analyse"], capture_output=True, text=True, cwd=tmp)
+        mtest.check(proc.returncode == 0, "batch %s: exit %d, %s" % (spelling, proc.returncode, proc.stderr))
+        db = sqlite3.connect(store)
+        paths = [r[0] for r in db.execute("SELECT path FROM files ORDER BY path")]
+        read = db.execute("SELECT files_read FROM runs WHERE kind = 'batch' ORDER BY run_id DESC LIMIT 1"
+                          ).fetchone()[0]
+        run = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
+        zero = db.execute("SELECT count(*) FROM neighbours WHERE run_id = ? AND distance = 0", (run,)).fetchone()[0]
+        db.close()
+        return proc, paths, read, zero
+
+    proc, paths, read, zero = batch("archive")
+    mtest.check(read == on_disk and len(paths) == on_disk, "first run: read %d, stored %r" % (read, paths))
+    for spelling in ("./archive", archive, "archive/"):
+        proc, paths, read, zero = batch(spelling)
+        mtest.check(len(paths) == on_disk, "after %s the store holds %r, %d files on disk" % (spelling, paths, on_disk))
+        same = [(a, b) for a, b in itertools.combinations(paths, 2) if os.path.samefile(os.path.join(tmp, a),
+                                                                                          os.path.join(tmp, b))]
+        mtest.check(not same, "after %s two rows name one file: %r" % (spelling, same))
+        mtest.check(read == 0, "after %s %d file(s) were read again" % (spelling, read))
+        mtest.check(zero == 0, "after %s the analysis has %d neighbours at distance 0" % (spelling, zero))
+    # A run under a new spelling says so in its report.
+    proc, _, _, _ = batch("./archive")
+    mtest.check("%d now under another spelling of their path" % on_disk in proc.stdout,
+                "the report of a respelled run: " + proc.stdout)
+
+    # A store that already holds one file under two spellings, as runs before this rule
+    # left it (made here by copying a row with sqlite3): an analysis takes the file once.
+    db = sqlite3.connect(store)
+    db.execute("INSERT INTO files (path, relative_path, stem, size, mtime_ns, sha256, read_error) "
+               "SELECT 'archive/' || relative_path, relative_path, stem, size, mtime_ns, sha256, read_error "
+               "FROM files WHERE path LIKE './archive/%'")
+    db.commit()
+    rows = [r[0] for r in db.execute("SELECT path FROM files")]
+    db.close()
+    mtest.check(len(rows) == 2 * on_disk, "the copied rows: %r" % rows)
+    proc = subprocess.run([os.path.abspath(mtest.BIN), "analyse-store", "--store", store, "--min-tokens", "200",
+                           "--recompute"], capture_output=True, text=True, cwd=tmp)
+    db = sqlite3.connect(store)
+    run = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
+    zero = db.execute("SELECT count(*) FROM neighbours WHERE run_id = ? AND distance = 0", (run,)).fetchone()[0]
+    files_in_analysis = db.execute("SELECT count(DISTINCT path) FROM analysis_segments WHERE run_id = ?",
+                                   (run,)).fetchone()[0]
+    db.close()
+    mtest.check(proc.returncode == 0 and zero == 0 and files_in_analysis == 1,
+                "an analysis over a file stored twice: exit %d, %d neighbours at distance 0, %d file(s) (%s)"
+                % (proc.returncode, zero, files_in_analysis, proc.stderr))
+
+mtest.done()
