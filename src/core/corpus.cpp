@@ -68,6 +68,12 @@ std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs, s
   return files;
 }
 
+std::string resolved_path(const std::string& path) {
+  std::error_code ec;
+  const fs::path absolute = fs::absolute(path, ec);
+  return (ec ? fs::path(path) : absolute).lexically_normal().string();
+}
+
 namespace {
 
 // Gives a file's segments ids that begin with `prefix` (segment_id_prefixes).
@@ -92,6 +98,16 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
   // The reader, which sees one file, begins its ids with the file's stem; files of one name
   // in several folders get longer prefixes here.
   const std::vector<std::string> prefixes = segment_id_prefixes(files);
+  {
+    // One file under two spellings would get two prefixes, and be compared with itself.
+    std::map<std::string, std::string> spelled;  // resolved path -> first spelling
+    for (const auto& file : files) {
+      auto [first, added] = spelled.emplace(resolved_path(file), file);
+      if (!added)
+        throw Error(ErrorKind::usage, "the file " + file + " is named twice among the inputs" +
+                                          (first->second == file ? "" : " (also as " + first->second + ")"));
+    }
+  }
   auto absorb = [&](std::size_t index, FileReading& r) {
     if (prefixes[index] != file_stem(r.file)) use_id_prefix(r, prefixes[index]);
     corpus.bytes += r.bytes;

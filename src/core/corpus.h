@@ -52,8 +52,13 @@ struct UnlistedFolder {
 std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs,
                                        std::vector<UnlistedFolder>* unlisted = nullptr);
 
+// `path` resolved against the working directory, without following links: equal for the
+// spellings of one file's path (arch/x.xml, ./arch/x.xml, /home/editor/arch/x.xml).
+std::string resolved_path(const std::string& path);
+
 // Reads `files` (already expanded). A file that fails is recorded in `failures`; the
-// others are still read. Throws only for a bad request.
+// others are still read. Throws only for a bad request, such as one file named twice
+// (under one spelling of its path or two).
 Corpus read_corpus(const Request& request, const std::vector<std::string>& files,
                    const ProgressFn& progress = {});
 

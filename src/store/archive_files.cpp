@@ -17,12 +17,6 @@ bool in_shard(const std::string& relative_path, const Shard& shard) {
   return h % shard.count + 1 == shard.index;
 }
 
-std::string resolved_path(const std::string& path) {
-  std::error_code ec;
-  const fs::path absolute = fs::absolute(path, ec);
-  return (ec ? fs::path(path) : absolute).lexically_normal().string();
-}
-
 bool stat_file(const std::string& path, std::uint64_t& size, std::int64_t& mtime_ns) {
   struct stat st {};
   if (::stat(path.c_str(), &st) != 0) return false;

@@ -34,10 +34,6 @@ bool in_shard(const std::string& relative_path, const Shard& shard);
 std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inputs, const ArchiveFilter& filter,
                                             const Shard& shard, std::vector<UnlistedFolder>& unlisted);
 
-// `path` resolved against the working directory, without following links: equal for the
-// spellings of one file's path (arch/x.xml, ./arch/x.xml, /home/editor/arch/x.xml).
-std::string resolved_path(const std::string& path);
-
 // Size and modification time now; false when the file cannot be examined.
 bool stat_file(const std::string& path, std::uint64_t& size, std::int64_t& mtime_ns);
 

@@ -112,7 +112,7 @@ mtest.check(p.returncode == 2 and "unknown unit" in p.stderr, "unknown unit: " +
 # 9. Two files of one name in different folders would give their segments the same ids
 # (file stem + "#" + id): theirs begin with the end of their path that tells them apart
 # (first/same, second/same; the folder names from os.path), each file's segments listed
-# once. The same file named twice among the inputs is still refused, naming the id.
+# once.
 for folder in ("first", "second"):
     os.makedirs(os.path.join(tmp, folder), exist_ok=True)
     write(os.path.join(folder, "same.xml"), TEI_OPEN + HEADER + "<text><body><p>Twice named.</p></body></text></TEI>\n")
@@ -122,9 +122,14 @@ ids = [row["segment"] for row in mtest.read_tsv(p.stdout)] if p.returncode == 0 
 expected_ids = [os.path.basename(os.path.dirname(path)) + "/same#whole1" for path in same_paths]
 mtest.check(p.returncode == 0 and ids == expected_ids,
             "same file name in two folders: ids %r, expected %r (%d %s)" % (ids, expected_ids, p.returncode, p.stderr))
-p = run_segments(same_paths[0], same_paths[0])
-mtest.check(p.returncode == 2 and "same#" in p.stderr and "twice" in p.stderr,
-            "one file named twice: usage error naming the id: %d %s" % (p.returncode, p.stderr))
+# One file named twice, under one spelling or two (first/./same.xml is first/same.xml to
+# os.path.normpath): a usage error naming it, rather than the file compared with itself.
+respelled = os.path.join(tmp, "first", ".", "same.xml")
+mtest.check(os.path.normpath(respelled) == same_paths[0], "normpath reads %s" % os.path.normpath(respelled))
+for second in (same_paths[0], respelled):
+    p = run_segments(same_paths[0], second)
+    mtest.check(p.returncode == 2 and "named twice among the inputs" in p.stderr and second in p.stderr,
+                "one file named twice (%s): usage error naming it: %d %s" % (second, p.returncode, p.stderr))
 
 # 10. Documents that end too soon or never begin. libxml2's push parser, which reads the
 # files, reports every one of them at the end of the input as "Extra content at the end of
