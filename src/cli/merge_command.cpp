@@ -36,7 +36,7 @@ CommandRunner add_merge_command(CLI::App& app) {
       // and the inputs reported merged; an output this merge created goes again.
       if (created) {
         target.reset();
-        for (const char* suffix : {"", "-wal", "-shm", "-journal"}) std::filesystem::remove(*out + suffix);
+        store::remove_store_files(*out);
       }
       throw;
     }

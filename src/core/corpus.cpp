@@ -9,7 +9,6 @@
 #include "core/file_reading.h"
 #include "core/segment_id_prefixes.h"
 #include "profile/profile_builder.h"
-#include "tei/reader.h"
 
 namespace manicule {
 
@@ -95,9 +94,6 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
   Corpus corpus;
   corpus.files = files;
   ProfileBuilder merged(request.features);
-  // The reader, which sees one file, begins its ids with the file's stem; files of one name
-  // in several folders get longer prefixes here.
-  const std::vector<std::string> prefixes = segment_id_prefixes(files);
   {
     // One file under two spellings would get two prefixes, and be compared with itself.
     std::map<std::string, std::string> spelled;  // resolved path -> first spelling
@@ -108,6 +104,9 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
                                           (first->second == file ? "" : " (also as " + first->second + ")"));
     }
   }
+  // The reader, which sees one file, begins its ids with the file's stem; files of one name
+  // in several folders get longer prefixes here.
+  const std::vector<std::string> prefixes = segment_id_prefixes(files);
   auto absorb = [&](std::size_t index, FileReading& r) {
     if (prefixes[index] != file_stem(r.file)) use_id_prefix(r, prefixes[index]);
     corpus.bytes += r.bytes;

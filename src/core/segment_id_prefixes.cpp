@@ -7,14 +7,13 @@
 #include <string_view>
 
 #include "core/utf8_text.h"
-#include "tei/reader.h"
 
 namespace manicule {
 
 namespace {
 
 // The last `parts` names of `path` joined by '/' (the whole path as written when it has no
-// more), without the extension of the last name, as file_stem drops it.
+// more), the last one as file_stem gives it.
 std::string path_end(const std::string& path, std::size_t parts) {
   std::vector<std::string_view> names;
   for (std::size_t at = 0; at <= path.size();) {
@@ -32,12 +31,18 @@ std::string path_end(const std::string& path, std::size_t parts) {
     }
   }
   const std::size_t slash = end.find_last_of('/');
-  const std::size_t dot = end.rfind('.');
-  if (dot != std::string::npos && dot > (slash == std::string::npos ? 0 : slash + 1)) end.resize(dot);
-  return well_formed_utf8(end);
+  return slash == std::string::npos ? file_stem(end) : well_formed_utf8(end.substr(0, slash + 1)) + file_stem(end);
 }
 
 }  // namespace
+
+std::string file_stem(const std::string& path) {
+  const std::size_t slash = path.find_last_of('/');
+  std::string base = slash == std::string::npos ? path : path.substr(slash + 1);
+  const std::size_t dot = base.rfind('.');
+  if (dot != std::string::npos && dot > 0) base.resize(dot);
+  return well_formed_utf8(base);
+}
 
 std::vector<std::string> segment_id_prefixes(const std::vector<std::string>& paths) {
   std::vector<std::string> prefixes;

@@ -10,6 +10,10 @@
 
 namespace manicule {
 
+// "letters/anna-17.xml" -> "anna-17": the file's name without its extension, as
+// well-formed UTF-8 (a segment id is written into XML and JSON).
+std::string file_stem(const std::string& path);
+
 // One prefix per path, all distinct for distinct paths; well-formed UTF-8.
 std::vector<std::string> segment_id_prefixes(const std::vector<std::string>& paths);
 

@@ -1,11 +1,10 @@
 #include "export/segment_groups.h"
 
 #include <algorithm>
-#include <filesystem>
 #include <map>
 #include <set>
 
-#include "core/utf8_text.h"
+#include "core/segment_id_prefixes.h"
 
 namespace manicule {
 
@@ -14,10 +13,6 @@ namespace {
 const char* const kPalette[] = {"#0072B2", "#D55E00", "#009E73", "#CC79A7", "#E69F00", "#56B4E9", "#000000"};
 constexpr std::size_t kPaletteSize = sizeof kPalette / sizeof kPalette[0];
 const char* const kUnknownColour = "#8C8C8C";
-
-std::string file_stem(const std::string& path) {
-  return well_formed_utf8(std::filesystem::path(path).stem().string());
-}
 
 std::vector<std::string> distinct_labels(const Analysis& analysis, const std::vector<std::size_t>& plotted) {
   std::vector<std::string> labels;

@@ -21,12 +21,12 @@ std::string tidy_folder(std::string f) {
   return f;
 }
 
+}  // namespace
+
 bool starts_with_folder(const std::string& path, const std::string& folder) {
   return path.size() > folder.size() && path.compare(0, folder.size(), folder) == 0 &&
          (folder.back() == '/' || path[folder.size()] == '/');
 }
-
-}  // namespace
 
 bool ArchiveFilter::selects_by_header() const {
   return !author.empty() || year_from || year_to || !language.empty() || !title.empty();

@@ -24,6 +24,9 @@ struct ArchiveFilter {
 };
 
 bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::string& relative_path);
+
+// Whether `path` lies below `folder` (a prefix ending at a '/', of the path or the folder).
+bool starts_with_folder(const std::string& path, const std::string& folder);
 // The file-level header tests (author, year, title; language too when `check_language`).
 bool header_matches(const ArchiveFilter& filter, const FileMetadata& metadata, bool check_language);
 bool language_matches(const ArchiveFilter& filter, const std::string& language);

@@ -99,15 +99,12 @@ struct InputScope {
 // another spelling of its path, which would otherwise be in the archive twice.
 void remove_vanished(Database& db, const Request& request, const BatchOptions& options,
                      const std::vector<ArchiveFile>& files, const std::unordered_map<std::string, StoredFile>& stored,
-                     const std::vector<UnlistedFolder>& unlisted, BatchSummary& summary) {
+                     BatchSummary& summary) {
   std::unordered_set<std::string> found;
   for (const auto& f : files) found.insert(f.path);
-  const auto under_unlisted = [&unlisted](const std::string& path) {
-    for (const auto& folder : unlisted)
-      if (path.size() > folder.path.size() && path.compare(0, folder.path.size(), folder.path) == 0 &&
-          path[folder.path.size()] == '/')
-        return true;
-    return false;
+  const auto under_unlisted = [&summary](const std::string& path) {
+    return std::any_of(summary.unlisted.begin(), summary.unlisted.end(),
+                       [&path](const UnlistedFolder& folder) { return starts_with_folder(path, folder.path); });
   };
   const InputScope scope(request.inputs);
   std::unordered_set<std::string> found_resolved;  // made at the first stored path not found
@@ -142,8 +139,9 @@ nlohmann::json run_parameters(const Request& request, const BatchOptions& option
 BatchSummary run_batch(Database& db, const Request& request, const BatchOptions& options,
                        const BatchListener& listener) {
   const ReadingSettings settings = reading_settings(request);
-  std::vector<UnlistedFolder> unlisted;
-  std::vector<ArchiveFile> listed = list_archive_files(request.inputs, options.filter, options.shard, unlisted);
+  BatchSummary summary;
+  std::vector<ArchiveFile> listed =
+      list_archive_files(request.inputs, options.filter, options.shard, summary.unlisted);
   std::vector<ArchiveFile> files;
   {
     std::unordered_set<std::string> seen;
@@ -151,14 +149,12 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
       if (seen.insert(f.path).second) files.push_back(std::move(f));
   }
 
-  BatchSummary summary;
-  summary.unlisted = unlisted;
   {
     Transaction t(db);
     mark_interrupted_runs(db);
     summary.settings_id = ensure_settings(db, settings);
     nlohmann::json parameters = run_parameters(request, options, settings);
-    for (const auto& folder : unlisted)  // kept with the run, for whoever reads the table later
+    for (const auto& folder : summary.unlisted)  // kept with the run, for whoever reads the table later
       parameters["unlisted_folders"].push_back({{"path", folder.path}, {"reason", folder.reason}});
     summary.run_id = begin_run(db, "batch", summary.settings_id, parameters);
     t.commit();
@@ -257,7 +253,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
       if (listener) listener(progress, f.path, outcome);
     });
 
-    remove_vanished(db, request, options, files, previous, unlisted, summary);
+    remove_vanished(db, request, options, files, previous, summary);
     counters.files_failed = failing.size();
     update_run(db, summary.run_id, counters);
     finish_run(db, summary.run_id, "done");

@@ -4,9 +4,9 @@
 
 #include <nlohmann/json.hpp>
 
+#include "core/segment_id_prefixes.h"
 #include "core/utf8_text.h"
 #include "store/count_blob.h"
-#include "tei/reader.h"
 
 namespace manicule::store {
 

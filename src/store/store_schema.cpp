@@ -1,5 +1,7 @@
 #include "store/store_schema.h"
 
+#include <filesystem>
+
 #include "core/error.h"
 
 namespace manicule::store {
@@ -218,6 +220,10 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
   }
   t.commit();
   return db;
+}
+
+void remove_store_files(const std::string& path) {
+  for (const char* suffix : {"", "-wal", "-shm", "-journal"}) std::filesystem::remove(path + suffix);
 }
 
 }  // namespace manicule::store

@@ -20,4 +20,8 @@ inline constexpr int kStoreFormat = 2;  // 2: the vocabulary in blocks (store_vo
 // Opens the store (creating file and tables when `create`), locks it and checks its format.
 std::unique_ptr<Database> open_store(const std::string& path, bool create);
 
+// Removes the store at `path` with the files SQLite keeps beside it (log, shared memory,
+// journal); for a store just created by a command that then failed.
+void remove_store_files(const std::string& path);
+
 }  // namespace manicule::store

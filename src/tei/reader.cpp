@@ -8,18 +8,10 @@
 #include <set>
 
 #include "core/error.h"
-#include "core/utf8_text.h"
+#include "core/segment_id_prefixes.h"
 #include "tei/tei_walker.h"
 
 namespace manicule {
-
-std::string file_stem(const std::string& path) {
-  std::size_t slash = path.find_last_of('/');
-  std::string base = slash == std::string::npos ? path : path.substr(slash + 1);
-  std::size_t dot = base.rfind('.');
-  if (dot != std::string::npos && dot > 0) base.resize(dot);
-  return well_formed_utf8(base);  // a segment id is written into XML and JSON
-}
 
 namespace {
 

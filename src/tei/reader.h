@@ -20,7 +20,4 @@ namespace manicule {
 std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules& rules,
                                    SourceDigest* digest = nullptr, HeaderInfo* header = nullptr);
 
-// "letters/anna-17.xml" -> "anna-17": the file part of segment ids.
-std::string file_stem(const std::string& path);
-
 }  // namespace manicule
