@@ -27,6 +27,19 @@ std::string main_language(const std::vector<SegmentRecord>& segments) {
   return best;
 }
 
+// The date of the work rather than of the file: when the text was made (creation), else
+// its earliest dated event (written, printed, first performed), else its first edition,
+// else the source's date, else the header's first (docs/store.md, "Sub-corpora").
+std::string work_date(const HeaderInfo& h) {
+  if (!h.creation_date.empty()) return h.creation_date;
+  const std::string* earliest = nullptr;
+  for (const std::string& d : h.event_dates)
+    if (first_year(d) != 0 && (!earliest || first_year(d) < first_year(*earliest))) earliest = &d;
+  if (earliest) return *earliest;
+  if (!h.first_edition_date.empty()) return h.first_edition_date;
+  return h.source_date.empty() ? h.date : h.source_date;
+}
+
 }  // namespace
 
 int first_year(const std::string& date) {
@@ -92,7 +105,7 @@ FileReading read_file(const std::string& file, const Request& request, const Sel
       for (std::size_t i = 0; i < result.segments.size(); ++i) result.segments[i].types = result.counts.segments[i].counts.size();
     result.metadata.title = header.title;
     result.metadata.author = join_authors(header.authors);
-    result.metadata.date = header.source_date.empty() ? header.date : header.source_date;
+    result.metadata.date = work_date(header);
     result.metadata.year = first_year(result.metadata.date);
     result.metadata.language = header.language.empty() ? main_language(result.segments) : header.language;
   } catch (const Error& e) {

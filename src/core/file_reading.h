@@ -15,11 +15,16 @@ namespace manicule {
 class Tokenizer;
 struct SelectionRules;
 
+// Raised whenever what read_file makes of the same bytes changes (segments, counts, header
+// metadata) within one version of manicule: the store keys what it keeps by it, so that
+// files stored before are read again. 2: the date is the work's (work_date), not the file's.
+constexpr int kReadingRevision = 2;
+
 // What the edition's own header says (the first TEI element's teiHeader).
 struct FileMetadata {
   std::string title;
   std::string author;    // titleStmt authors as written, joined by "; "
-  std::string date;      // the source's date (first in sourceDesc), else the header's first, as written
+  std::string date;      // the work's date as written (creation, events, first edition, source: work_date)
   int year = 0;          // the first four-digit year in `date`; 0 when there is none
   std::string language;  // langUsage, else the language most of the selected text is in
 };

@@ -3,6 +3,7 @@
 #include <algorithm>
 
 #include "core/error.h"
+#include "core/file_reading.h"
 #include "core/provenance.h"
 #include "core/sha256.h"
 #include "core/utf8_text.h"
@@ -43,6 +44,7 @@ ReadingSettings reading_settings(const Request& request) {
   s.tokenizer = describe_tokenizer(request.tokenizer);
   s.features = describe(request.features);
   nlohmann::json keyed = {{"options", options}, {"reader", std::string("manicule ") + MANICULE_VERSION_STRING},
+                          {"reading_revision", kReadingRevision},
                           {"store_format", kStoreFormat}};
   s.key = sha256_hex(json_text(keyed));
   return s;

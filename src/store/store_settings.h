@@ -2,7 +2,8 @@
 // selection, tokenizer, features counted). Their key, the SHA-256 of a canonical JSON of
 // those options and the tool version, is the same in every store: a store's counts serve
 // any later run with equal settings, and merge matches settings across stores by key.
-// A newer manicule gets a new key, so counts from an older reader are never reused.
+// A newer manicule, or a new reading revision (core/file_reading.h), gets a new key, so
+// counts and headers from an older reader are never reused.
 #pragma once
 #include <cstdint>
 #include <string>

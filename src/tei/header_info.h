@@ -23,8 +23,13 @@ struct HeaderInfo {
   std::string tei_id;                              // xml:id of the TEI element
   std::string title;                               // first main title in titleStmt
   std::vector<std::string> authors;                // titleStmt/author names
-  std::string date;                                // first date in the header, as written
-  std::string source_date;                         // first date in sourceDesc (the source's), as written
+  // Dates as written (@when, else @notBefore, @from, @notAfter or @to, else the text); the
+  // store's file date is the first of these that is known, in this order (work_date).
+  std::string creation_date;             // profileDesc/creation (2.4.1): when the text was made
+  std::vector<std::string> event_dates;  // standOff listEvent events of type written, print, premiere
+  std::string first_edition_date;        // in a sourceDesc bibl of type firstEdition
+  std::string source_date;               // first in sourceDesc outside a bibl of a digital source
+  std::string date;                      // first date anywhere in the header
   std::map<std::string, std::string> person_names;  // person/personGrp/role xml:id -> name
   std::vector<CorrespRecord> corresp;
   std::string language;                            // sole or most used langUsage/language

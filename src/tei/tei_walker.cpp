@@ -38,6 +38,16 @@ bool is_div(std::string_view name) {
   return name == "div" || (name.size() == 4 && name.substr(0, 3) == "div" && name[3] >= '1' && name[3] <= '7');
 }
 
+// A date element's or event's date as written in its attributes: the date itself, else the
+// start of a range (att.datable: @notBefore/@from), else its end; "" when it has none.
+std::string_view date_attribute(const StartTag& tag) {
+  for (std::string_view name : {"when", "notBefore", "from", "notAfter", "to"}) {
+    std::string_view value = tag.attribute(name);
+    if (!value.empty()) return value;
+  }
+  return {};
+}
+
 std::string case_fold(const std::string& text) {
   std::string out;
   icu::UnicodeString::fromUTF8(text).foldCase().toUTF8String(out);
@@ -118,6 +128,7 @@ struct TeiWalker::State {
                                  // (its @cert and @wit on member_attributes)
     Capture capture = Capture::none;
     bool header = false, title_stmt = false, corresp_desc = false, corresp_sent = false, source_desc = false;
+    bool creation = false, standoff = false, source_bibl = false;
     bool person = false, cast_list = false, sp_grp = false, tei_element = false;
     bool muted = false;        // an idno inside it: an identifier, not part of the name
     // The element's xml:id, a view into the start tag: set while the start tag is handled
@@ -234,6 +245,8 @@ struct TeiWalker::State {
   std::vector<std::string> person_stack;
   int header_depth = 0, text_depth = 0, skip_depth = 0, cast_depth = 0, source_desc_depth = 0;
   int author_depth = 0, muted_depth = 0;  // open author captures, open idno inside them
+  int creation_depth = 0, standoff_depth = 0;
+  std::vector<std::string> source_bibl_types;  // @type of each open bibl in sourceDesc ("" if none)
   int corresp_index = -1;                // corresp record being read
   bool in_title_stmt = false;
   bool in_sent_action = false;
@@ -351,6 +364,15 @@ struct TeiWalker::State {
       f.capture = Capture::role_name;
       return;
     }
+    if (f.name == "standOff") {
+      f.standoff = true;
+      ++standoff_depth;
+      return;
+    }
+    if (standoff_depth > 0 && f.name == "event") {
+      note_work_event(tag);
+      return;
+    }
     if (header_depth == 0 || tei_stack.empty()) return;
     HeaderInfo& h = header();
     if (f.name == "titleStmt") {
@@ -359,6 +381,12 @@ struct TeiWalker::State {
     } else if (f.name == "sourceDesc") {
       f.source_desc = true;
       ++source_desc_depth;
+    } else if (f.name == "creation") {
+      f.creation = true;
+      ++creation_depth;
+    } else if (source_desc_depth > 0 && (f.name == "bibl" || f.name == "biblStruct" || f.name == "biblFull")) {
+      f.source_bibl = true;
+      source_bibl_types.emplace_back(tag.attribute("type"));
     } else if (f.name == "title" && in_title_stmt && h.title.empty() && tag.attribute("type") != "sub") {
       f.capture = Capture::title;
     } else if (f.name == "author" && in_title_stmt) {
@@ -405,19 +433,58 @@ struct TeiWalker::State {
         h.language = std::string(tag.attribute("ident"));
         best_language_usage = u;
       }
-    } else if (f.name == "date" && (h.date.empty() || (source_desc_depth > 0 && h.source_date.empty()))) {
-      std::string_view when = tag.attribute("when");
-      if (when.empty()) f.capture = Capture::date;
-      else set_date(h, std::string(when));
+    } else if (f.name == "date" && date_slots(h).any()) {
+      std::string_view value = date_attribute(tag);
+      if (value.empty()) f.capture = Capture::date;
+      else set_date(h, std::string(value));
     }
   }
   int best_language_usage = -1;
 
-  // The header's first date, and the first date describing the source (sourceDesc).
+  // A dated event of the work itself (DraCor's plays: when it was written, printed, first
+  // performed), in a standOff listEvent; other events may be anything the text mentions.
+  void note_work_event(const StartTag& tag) {
+    std::string_view type = tag.attribute("type");
+    if (tei_stack.empty() || (type != "written" && type != "print" && type != "premiere")) return;
+    std::string_view value = date_attribute(tag);
+    if (!value.empty()) header().event_dates.emplace_back(value);
+  }
+
+  // The innermost @type among the open bibl elements of sourceDesc ("" if none has one).
+  std::string_view source_bibl_type() const {
+    for (auto it = source_bibl_types.rbegin(); it != source_bibl_types.rend(); ++it)
+      if (!it->empty()) return *it;
+    return {};
+  }
+
+  // Which of the header's date fields a <date> here fills: those still empty that it
+  // belongs to (header_info.h).
+  struct DateSlots {
+    bool header = false, creation = false, first_edition = false, source = false;
+    bool any() const { return header || creation || first_edition || source; }
+  };
+  DateSlots date_slots(const HeaderInfo& h) const {
+    DateSlots slots;
+    slots.header = h.date.empty();
+    slots.creation = creation_depth > 0 && h.creation_date.empty();
+    if (source_desc_depth > 0) {
+      std::string_view type = source_bibl_type();
+      // ELTeC and DraCor type the electronic edition's bibl "digitalSource"; its date is
+      // the file's making, not the work's (common practice, no source).
+      bool digital = type.substr(0, 7) == "digital";
+      slots.first_edition = type == "firstEdition" && h.first_edition_date.empty();
+      slots.source = !digital && h.source_date.empty();
+    }
+    return slots;
+  }
+
   void set_date(HeaderInfo& h, const std::string& value) {
     if (value.empty()) return;
-    if (h.date.empty()) h.date = value;
-    if (source_desc_depth > 0 && h.source_date.empty()) h.source_date = value;
+    const DateSlots slots = date_slots(h);
+    if (slots.header) h.date = value;
+    if (slots.creation) h.creation_date = value;
+    if (slots.first_edition) h.first_edition_date = value;
+    if (slots.source) h.source_date = value;
   }
 
   void finish_capture(Frame& f, std::string text) {
@@ -707,6 +774,9 @@ void TeiWalker::end() {
   if (f.pushed_language) s.language_stack.pop_back();
   if (f.header) --s.header_depth;
   if (f.source_desc) --s.source_desc_depth;
+  if (f.creation) --s.creation_depth;
+  if (f.standoff) --s.standoff_depth;
+  if (f.source_bibl) s.source_bibl_types.pop_back();
   if (f.title_stmt) s.in_title_stmt = false;
   if (f.capture == Capture::author) --s.author_depth;
   if (f.muted) --s.muted_depth;

@@ -23,6 +23,7 @@ import tempfile
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
+from tei_dates import work_year  # noqa: E402
 import numpy as np  # noqa: E402
 from lxml import etree  # noqa: E402
 from scipy.spatial.distance import cdist  # noqa: E402
@@ -33,20 +34,15 @@ MIN_TOKENS, K = 500, 3
 
 
 def header_facts(path):
-    """Title, author text and the source's date, read with lxml."""
-    header = etree.parse(path).find(TEI + "teiHeader")
+    """Title, author text and the work's year, read with lxml."""
+    root = etree.parse(path).getroot()
+    header = root.find(TEI + "teiHeader")
     stmt = header.find("%sfileDesc/%stitleStmt" % (TEI, TEI))
     title = [e for e in stmt.findall(TEI + "title") if e.get("type") != "sub"][0]
     # The author's name without its idno identifiers (Wikidata, GND), as the header reader keeps it.
     author = " ".join(" ".join("".join(a.xpath(".//text()[not(ancestor::t:idno)]", namespaces={"t": TEI[1:-1]})).split())
                       for a in stmt.findall(TEI + "author"))
-    # The source's date (first in sourceDesc), else the header's first (docs/store.md).
-    source = header.find("%sfileDesc/%ssourceDesc" % (TEI, TEI))
-    date = next(source.iter(TEI + "date"), None) if source is not None else None
-    date = date if date is not None else next(header.iter(TEI + "date"), None)
-    when = None if date is None else (date.get("when") or "".join(date.itertext()))
-    year = re.search(r"(?<!\d)\d{4}(?!\d)", when or "")
-    return " ".join("".join(title.itertext()).split()), author, int(year.group()) if year else None
+    return " ".join("".join(title.itertext()).split()), author, work_year(root, header)
 
 
 def analysed_paths(store, args):

@@ -1,0 +1,101 @@
+"""Archive store: which of a header's dates becomes a file's `date` and `year` (what
+`--years` chooses by), on invented editions that each put the work's date somewhere else.
+
+docs/store.md orders them: profileDesc/creation (TEI P5 2.4.1, "information about the
+creation of a text"), else the earliest dated event of the work in a standOff listEvent
+(written, print, premiere), else the date of a sourceDesc bibl of type firstEdition, else
+the first sourceDesc date outside the bibl of a digital source, else the header's first.
+Dates are read from att.datable's attributes (P5 13.4: @when, else a range's @notBefore or
+@from, then @notAfter or @to), else from the element's text. Each file's expected year is
+given by construction and also read with lxml by tests/pylib/tei_dates.py; the store must
+agree with both, and --years must take the files in range. The editions are valid TEI
+(jing with tei_all, checked first).
+"""
+import os
+import subprocess
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+from lxml import etree  # noqa: E402
+from tei_dates import TEI, work_year  # noqa: E402
+
+WORDS = " ".join(["the ferry left the north pier at dawn and the keeper wrote it down"] * 8)
+
+
+def edition(title, file_desc_dates="", source="<p>Invented.</p>", profile="", standoff=""):
+    return ('<?xml version="1.0" encoding="UTF-8"?>\n'
+            '<TEI xmlns="http://www.tei-c.org/ns/1.0" xml:lang="en"><teiHeader><fileDesc>'
+            '<titleStmt><title>%s</title><author>Ada Pellow</author></titleStmt>'
+            '<publicationStmt><publisher>Invented test data of the manicule project</publisher>%s</publicationStmt>'
+            '<sourceDesc>%s</sourceDesc></fileDesc>%s</teiHeader>%s'
+            '<text><body><p>%s</p></body></text></TEI>\n'
+            % (title, file_desc_dates, source, profile, standoff, WORDS))
+
+
+EDITIONS = {
+    # The creation date wins over everything, its range's start taken.
+    "creation": (1802, edition(
+        "Ferry log with a creation date", '<date when="2024-05-01"/>',
+        '<bibl type="firstEdition"><date when="1810"/></bibl>',
+        '<profileDesc><creation><date notBefore="1802" notAfter="1805">1802-1805</date></creation></profileDesc>',
+        '<standOff><listEvent><event type="print" when="1807"><desc/></event></listEvent></standOff>')),
+    # Events: the earliest of written, print and premiere; a reading event is not the work's.
+    "events": (1798, edition(
+        "Ferry play with events", '<date when="2024-05-01"/>',
+        '<bibl type="digitalSource"><date>2019</date><bibl type="originalSource"><date>1977</date></bibl></bibl>',
+        "",
+        '<standOff><listEvent><event type="reading" when="1790"><desc/></event>'
+        '<event type="print" when="1801"><desc/></event>'
+        '<event type="written" notBefore="1798" notAfter="1799"><desc/></event></listEvent></standOff>')),
+    # The first edition over the electronic edition dated before it in sourceDesc.
+    "first-edition": (1844, edition(
+        "Ferry novel with a first edition", '<date when="2021-04-09"/>',
+        '<bibl type="digitalSource"><date>November 19, 2011</date></bibl>'
+        '<bibl type="firstEdition"><date>1844</date></bibl>')),
+    # Without a first edition: the print source, not the digital one dated before it.
+    "print-source": (1851, edition(
+        "Ferry letters from a print source", '<date when="2021-04-09"/>',
+        '<bibl type="digitalSource"><date>2000</date></bibl><bibl type="printSource"><date>1851</date></bibl>')),
+    # A nested original source inside the digital one: the innermost typed bibl decides.
+    "nested-source": (1977, edition(
+        "Ferry play from a modern edition", '<date when="2024-05-01"/>',
+        '<bibl type="digitalSource"><date>2019</date><bibl type="originalSource"><date>1977</date></bibl></bibl>')),
+    # Nothing but the publication date of the file itself.
+    "file-only": (2020, edition("Ferry notes dated only as a file", '<date when="2020-02-29"/>')),
+    # No date anywhere: no year, left out by any --years.
+    "undated": (None, edition("Ferry notes without a date")),
+}
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    os.makedirs(archive)
+    for name, (_, text) in EDITIONS.items():
+        with open(os.path.join(archive, name + ".xml"), "w", encoding="utf-8") as f:
+            f.write(text)
+    paths = sorted(os.path.join(archive, n) for n in os.listdir(archive))
+    jing = subprocess.run(["jing", mtest.SCHEMA] + paths, capture_output=True, text=True)
+    mtest.check(jing.returncode == 0, "the invented editions are not valid TEI: " + jing.stdout[-2000:])
+    store = os.path.join(tmp, "store.sqlite")
+    mtest.run(["batch", archive, "--store", store, "--unit", "whole", "--quiet"])
+    db = storecheck.connect(store)
+    stored = {os.path.basename(p)[:-4]: (d, y) for p, d, y in db.execute("SELECT path, date, year FROM file_list")}
+    db.close()
+    for name, (year, _) in EDITIONS.items():
+        root = etree.parse(os.path.join(archive, name + ".xml")).getroot()
+        read = work_year(root, root.find(TEI + "teiHeader"))
+        mtest.check(read == year, "%s: lxml reads %r, the edition was made for %r" % (name, read, year))
+        mtest.check((stored[name][1] or None) == year, "%s: stored date %r, year %r; expected %r" % (
+            name, stored[name][0], stored[name][1], year))
+
+    # --years takes the files dated in range; an undated file is in none.
+    for years, names in (("1795-1803", {"creation", "events"}), ("1840-1860", {"first-edition", "print-source"}),
+                         ("1900-", {"nested-source", "file-only"})):
+        proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "10", "--years", years])
+        _, tables = storecheck.latest_analysis(store)
+        got = {os.path.basename(row[1])[:-4] for row in tables["segments"]}
+        mtest.check(got == names, "--years %s took %r, expected %r" % (years, sorted(got), sorted(names)))
+
+mtest.done()
