@@ -6,7 +6,7 @@ packages=(
   build-essential cmake pkg-config
   libxml2-dev libxml2-utils xsltproc libicu-dev libeigen3-dev libopenblas-dev zlib1g-dev liblzma-dev
   libsqlite3-dev sqlite3 nettle-dev catch2 libcli11-dev nlohmann-json3-dev
-  unicode-data jing
+  unicode-data iso-codes jing
   python3-lxml python3-numpy python3-scipy python3-sklearn
   chromium
 )

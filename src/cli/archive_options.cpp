@@ -5,6 +5,7 @@
 #include <system_error>
 
 #include "core/error.h"
+#include "text/language_tags.h"
 
 namespace manicule::cli {
 
@@ -23,11 +24,11 @@ int parse_year(const std::string& text, const std::string& whole) {
 void ArchiveFilterOptions::add_to(CLI::App& command) {
   command.add_option("--folder", folder, "only files inside this folder (below an input folder, or a path)")
       ->group("Sub-corpus");
-  command.add_option("--author", author, "only files whose header author contains this text (ASCII case ignored)")
+  command.add_option("--author", author, "only files whose header author contains this text (letter case ignored)")
       ->group("Sub-corpus");
-  command.add_option("--years", years, "only files whose header date lies in FROM-TO (1800-1850, 1800-, -1850)")
+  command.add_option("--years", years, "only files whose work is dated in FROM-TO (1800-1850, 1800-, -1850; docs/store.md)")
       ->group("Sub-corpus");
-  command.add_option("--language", language, "only segments in this language, or of files declaring it (de, en, eng)")
+  command.add_option("--language", language, "only segments in this language, their own or else their file's (de, en, eng, en-GB)")
       ->group("Sub-corpus");
   command.add_option("--title", title, "only files whose header title matches this pattern (* and ?, case ignored)")
       ->group("Sub-corpus");
@@ -38,6 +39,9 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
   f.folder = folder;
   f.author = author;
   f.language = language;
+  if (!language.empty() && canonical_language_tag(language).empty())
+    throw Error(ErrorKind::usage, "--language " + language +
+                                      ": not a language tag; give an ISO 639 code or a BCP 47 tag, e.g. de, eng, en-GB");
   f.title = title;
   if (!years.empty()) {
     auto dash = years.find('-');

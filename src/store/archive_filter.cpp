@@ -1,18 +1,10 @@
 #include "store/archive_filter.h"
 
-#include <fnmatch.h>
-
-#include <algorithm>
-#include <cctype>
+#include "text/caseless_match.h"
 
 namespace manicule::store {
 
 namespace {
-
-std::string lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
-}
 
 // "./a/b/" -> "a/b"
 std::string tidy_folder(std::string f) {
@@ -53,17 +45,12 @@ bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::
   return starts_with_folder(relative_path, folder) || starts_with_folder(tidy_path, folder);
 }
 
-bool language_matches(const ArchiveFilter& filter, const std::string& language) {
-  return filter.language.empty() || lower(filter.language) == lower(language);
-}
-
-bool header_matches(const ArchiveFilter& filter, const FileMetadata& m, bool check_language) {
-  if (!filter.author.empty() && lower(m.author).find(lower(filter.author)) == std::string::npos) return false;
+bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {
+  if (!filter.author.empty() && !caseless_contains(m.author, filter.author)) return false;
   if ((filter.year_from || filter.year_to) && m.year == 0) return false;
   if (filter.year_from && m.year < filter.year_from) return false;
   if (filter.year_to && m.year > filter.year_to) return false;
-  if (!filter.title.empty() && fnmatch(filter.title.c_str(), m.title.c_str(), FNM_CASEFOLD) != 0) return false;
-  if (check_language && !language_matches(filter, m.language)) return false;
+  if (!filter.title.empty() && !caseless_pattern_match(filter.title, m.title)) return false;
   return true;
 }
 

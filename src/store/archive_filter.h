@@ -1,7 +1,8 @@
 // Sub-corpora of an archive, chosen by where a file lies and what its header says:
 // folder, author, year range, language, title pattern. A filter that is left empty
 // keeps everything. Header fields come from the store (readings), so filtering an
-// analysis reads no XML. Text comparisons ignore ASCII letter case.
+// analysis reads no XML. Author and title ignore letter case (text/caseless_match.h);
+// languages compare as canonical tags (text/language_tags.h).
 #pragma once
 #include <string>
 
@@ -14,7 +15,7 @@ struct ArchiveFilter {
   std::string author;    // the header's author contains this text
   int year_from = 0;     // the header's year is at least this (0 = no lower bound)
   int year_to = 0;       // ... at most this (0 = no upper bound); files without a year are left out
-  std::string language;  // the file's or the segment's language is this tag (e.g. de, en, eng)
+  std::string language;  // the segment's language, else its file's, lies in this range (de, en, eng, en-GB)
   std::string title;     // the header's title matches this shell pattern (* and ?), e.g. "*Brief*"
 
   bool selects_by_header() const;
@@ -27,8 +28,7 @@ bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::
 
 // Whether `path` lies below `folder` (a prefix ending at a '/', of the path or the folder).
 bool starts_with_folder(const std::string& path, const std::string& folder);
-// The file-level header tests (author, year, title; language too when `check_language`).
-bool header_matches(const ArchiveFilter& filter, const FileMetadata& metadata, bool check_language);
-bool language_matches(const ArchiveFilter& filter, const std::string& language);
+// The file-level header tests: author, year, title (language is tested per segment).
+bool header_matches(const ArchiveFilter& filter, const FileMetadata& metadata);
 
 }  // namespace manicule::store

@@ -87,6 +87,9 @@ Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& 
     what = "none of the stored files" + std::string(filter.empty() ? "" : " passing the filter") +
            " was read with these settings (" + std::to_string(selection.files_not_read) + " not read with them, " +
            std::to_string(selection.files_failed) + " failed): run batch with the same unit and options";
+  } else if (found == 0 && stored.segments_other_language > 0) {
+    what = "none of the " + std::to_string(stored.segments_other_language) + " segment(s) of the " + std::to_string(files) +
+           " file(s) chosen is in language " + filter.language + " (by its xml:lang, else its file's langUsage)";
   } else if (found == 0) {
     what = "the " + of_files + " hold no segment of this unit: try another --unit in batch";
   } else {

@@ -11,6 +11,7 @@
 #include "store/archive_files.h"
 #include "store/count_blob.h"
 #include "store/store_vocabulary.h"
+#include "text/language_tags.h"
 
 namespace manicule::store {
 
@@ -63,7 +64,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     FileMetadata m{files.text_at(4), files.text_at(5), files.text_at(6), static_cast<int>(files.int64_at(7)),
                    files.text_at(8)};
     // Language is tested per segment (a segment may be in another language than its file).
-    if (!in_folder(filter, path, files.text_at(1)) || !header_matches(filter, m, false)) {
+    if (!in_folder(filter, path, files.text_at(1)) || !header_matches(filter, m)) {
       ++out.files_filtered_out;
       continue;
     }
@@ -93,6 +94,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
   std::size_t id_bound = 0;  // one past the largest store feature id counted
   // Files sharing a content share its fresh segments: each but the last takes a copy.
   std::unordered_map<std::string, std::size_t> uses_left;
+  const LanguageRange language(filter.language);
   if (fresh)
     for (const auto& sha256 : selection.sha256) ++uses_left[sha256];
 
@@ -101,9 +103,12 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     const std::string& file_sha256 = selection.sha256[f];
     bool file_listed = false;
     const auto passes = [&](const std::string& segment_language, std::size_t tokens) {
-      if (!filter.language.empty() && !language_matches(filter, segment_language) &&
-          !language_matches(filter, selection.languages[f]))
+      // A segment's own language where its text says it (xml:lang), else its file's.
+      if (!filter.language.empty() &&
+          !language.holds(segment_language.empty() ? selection.languages[f] : segment_language)) {
+        ++out.segments_other_language;
         return false;
+      }
       if (tokens < min_tokens) {
         ++out.segments_too_short;
         return false;

@@ -43,6 +43,7 @@ struct StoredCorpus {
   Corpus corpus;                        // files and file_sha256: the files with segments used
   std::vector<SegmentSource> sources;   // one per corpus segment
   std::size_t segments_too_short = 0;   // fewer than min_tokens words
+  std::size_t segments_other_language = 0;  // outside the filter's language
 };
 
 StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& filter);

@@ -1,0 +1,52 @@
+#include "text/caseless_match.h"
+
+#include <unicode/normalizer2.h>
+#include <unicode/uchar.h>
+#include <unicode/unistr.h>
+
+namespace manicule {
+
+std::u32string caseless_code_points(std::string_view utf8) {
+  icu::UnicodeString text =
+      icu::UnicodeString::fromUTF8(icu::StringPiece(utf8.data(), static_cast<int32_t>(utf8.size())));
+  UErrorCode status = U_ZERO_ERROR;
+  const icu::Normalizer2* nfc = icu::Normalizer2::getNFCInstance(status);
+  if (U_SUCCESS(status)) {
+    icu::UnicodeString composed = nfc->normalize(text, status);
+    if (U_SUCCESS(status)) text = composed;
+  }
+  std::u32string out;
+  out.reserve(static_cast<std::size_t>(text.length()));
+  for (int32_t i = 0; i < text.length(); i = text.moveIndex32(i, 1))
+    out.push_back(static_cast<char32_t>(u_foldCase(text.char32At(i), U_FOLD_CASE_DEFAULT)));
+  return out;
+}
+
+bool caseless_contains(std::string_view text, std::string_view part) {
+  return caseless_code_points(text).find(caseless_code_points(part)) != std::u32string::npos;
+}
+
+bool caseless_pattern_match(std::string_view pattern_utf8, std::string_view text_utf8) {
+  const std::u32string pattern = caseless_code_points(pattern_utf8);
+  const std::u32string text = caseless_code_points(text_utf8);
+  // Greedy with a return to the last '*': linear in practice, never exponential.
+  std::size_t p = 0, t = 0, star = std::u32string::npos, star_text = 0;
+  while (t < text.size()) {
+    if (p < pattern.size() && (pattern[p] == U'?' || (pattern[p] != U'*' && pattern[p] == text[t]))) {
+      ++p;
+      ++t;
+    } else if (p < pattern.size() && pattern[p] == U'*') {
+      star = p++;
+      star_text = t;
+    } else if (star != std::u32string::npos) {
+      p = star + 1;
+      t = ++star_text;
+    } else {
+      return false;
+    }
+  }
+  while (p < pattern.size() && pattern[p] == U'*') ++p;
+  return p == pattern.size();
+}
+
+}  // namespace manicule

@@ -1,0 +1,21 @@
+// Matching header text (authors, titles) against what a user typed, regardless of letter
+// case in any script: "ödön" finds "Ödön von Horváth", "*R?uber*" finds "Die Räuber". Both
+// sides are put in NFC, then case-folded one character at a time (simple case folding,
+// CaseFolding.txt statuses C and S), so that one character stays one for '?'.
+#pragma once
+#include <string>
+#include <string_view>
+
+namespace manicule {
+
+// The code points of `utf8` (ill-formed bytes read as U+FFFD), in NFC, simply case-folded.
+std::u32string caseless_code_points(std::string_view utf8);
+
+// Whether `part` occurs in `text`, letter case ignored.
+bool caseless_contains(std::string_view text, std::string_view part);
+
+// Whether all of `text` matches the shell pattern: '*' stands for any run of characters,
+// '?' for one character; every other character stands for itself, letter case ignored.
+bool caseless_pattern_match(std::string_view pattern, std::string_view text);
+
+}  // namespace manicule
