@@ -41,9 +41,13 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
   return [=]() -> int {
     auto db = store::open_store(flags->store, false);
     if (flags->list) {
+      // One settings a line, tab-separated under a header line: which reader made the
+      // counts matters when a store holds the same options twice, before and after an update.
+      std::cout << "settings\tfiles\treader\tselection\ttokenizer\tfeatures\n";
       for (const auto& s : store::list_settings(*db))
-        std::cout << s.id << '\t' << s.settings.selection << '\t' << s.settings.tokenizer << '\t' << s.settings.features
-                  << '\n';
+        std::cout << s.id << '\t' << s.files << '\t'
+                  << (s.this_reader ? "this version" : "an earlier version (batch reads the files again)") << '\t'
+                  << s.settings.selection << '\t' << s.settings.tokenizer << '\t' << s.settings.features << '\n';
       return 0;
     }
     std::int64_t settings_id = flags->settings ? flags->settings : store::latest_batch_settings(*db);

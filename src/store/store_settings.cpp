@@ -70,7 +70,8 @@ std::string settings_key(Database& db, std::int64_t settings_id) {
 std::vector<StoredSettings> list_settings(Database& db) {
   std::vector<StoredSettings> out;
   Statement all = db.prepare(
-      "SELECT settings_id, key, unit, selection, tokenizer, features, request FROM settings ORDER BY settings_id");
+      "SELECT settings_id, key, unit, selection, tokenizer, features, request, "
+      "(SELECT count(*) FROM readings r WHERE r.settings_id = s.settings_id) FROM settings s ORDER BY settings_id");
   while (all.step()) {
     StoredSettings row;
     row.id = all.int64_at(0);
@@ -80,6 +81,11 @@ std::vector<StoredSettings> list_settings(Database& db) {
     row.settings.tokenizer = all.text_at(4);
     row.settings.features = all.text_at(5);
     row.settings.request = nlohmann::json::parse(all.text_at(6));
+    row.files = static_cast<std::size_t>(all.int64_at(7));
+    // Counts from an earlier manicule keep their key: the same options give another key now.
+    Request request;
+    apply_settings(row.settings.request, request);
+    row.this_reader = reading_settings(request).key == row.settings.key;
     out.push_back(std::move(row));
   }
   return out;

@@ -8,6 +8,8 @@ recorded with its error, the run goes on and exits 1, also on the next run (whic
 not read it again); a deleted file leaves the files table. A store held by another
 connection is refused with exit code 5 and a clear message; two batch runs started at
 once either both finish or the second refuses, and the store ends as a clean run's.
+analyse-store --list-settings counts the files read under each settings as SQL does and
+tells counts this version reuses from those keyed otherwise (an earlier version's).
 Outside references: Python's hashlib for SHA-256, lxml for the malformed file being
 malformed, SQLite's own exclusive lock held through Python's sqlite3 module, os.path.relpath
 for the paths relative to the folder named.
@@ -176,5 +178,39 @@ with tempfile.TemporaryDirectory() as tmp:
             expected = os.path.relpath(path, spelling).replace(os.sep, "/")
             mtest.check(relative == expected, "folder spelled %r: %s stored as %r, os.path.relpath has %r"
                         % (spelling, path, relative, expected))
+
+    # --list-settings: each settings the store holds, the files read under it (counted here
+    # with SQL), and whether this manicule would reuse its counts. Counts keyed otherwise
+    # (as by an earlier version: the key is rewritten here through sqlite3) are said to be
+    # read again by batch, and the next batch does read every file again.
+    listed = os.path.join(tmp, "listed.sqlite")
+    option_sets = [["--unit", "speaker"],
+                   ["--unit", "whole", "--preset", "diplomatic", "--keep", "note", "--no-fold", "--long-s"],
+                   ["--unit", "speaker", "--joint-speech", "drop", "--features", "char-ngram", "--n", "3",
+                    "--keep-numbers", "--drop", "quote"]]
+    for options in option_sets:
+        mtest.run(["batch", nested, "--store", listed, "--quiet"] + options)
+
+    def settings_listing():
+        lines = mtest.run(["analyse-store", "--store", listed, "--list-settings"]).stdout.splitlines()
+        mtest.check(lines[0].split("\t")[:3] == ["settings", "files", "reader"], "listing header: %r" % lines[0])
+        return {int(l.split("\t")[0]): l.split("\t") for l in lines[1:]}
+
+    db = storecheck.connect(listed)
+    read_under = dict(db.execute("SELECT settings_id, count(*) FROM readings GROUP BY settings_id"))
+    db.close()
+    rows = settings_listing()
+    mtest.check(len(rows) == 3 and all(int(rows[i][1]) == read_under[i] == 3 and rows[i][2] == "this version"
+                                       for i in rows), "the listing of three settings: %r, SQL %r" % (rows, read_under))
+    db = storecheck.connect(listed)
+    db.execute("UPDATE settings SET key = 'keyed by an earlier version' WHERE settings_id = 2")
+    db.commit()
+    db.close()
+    rows = settings_listing()
+    mtest.check(rows[2][2].startswith("an earlier version") and rows[1][2] == rows[3][2] == "this version",
+                "after the key changed: %r" % rows)
+    mtest.run(["batch", nested, "--store", listed, "--quiet"] + option_sets[1])
+    run = storecheck.last_run(listed)
+    mtest.check(run["files_read"] == 3, "the settings of an earlier version were reused: %r" % run)
 
 mtest.done()
