@@ -24,7 +24,7 @@ int parse_year(const std::string& text, const std::string& whole) {
 void ArchiveFilterOptions::add_to(CLI::App& command) {
   command.add_option("--folder", folder, "only files inside this folder (below an input folder, or a path)")
       ->group("Sub-corpus");
-  command.add_option("--author", author, "only files whose header author contains this text (letter case ignored)")
+  command.add_option("--author", author, "only files whose header authors hold each word of this text (any order, letter case ignored)")
       ->group("Sub-corpus");
   command.add_option("--years", years, "only files whose work is dated in FROM-TO (1800-1850, 1800-, -1850; docs/store.md)")
       ->group("Sub-corpus");

@@ -13,6 +13,23 @@ std::string tidy_folder(std::string f) {
   return f;
 }
 
+// Each word of `wanted` (split at spaces, commas and semicolons) occurs in `author`, in any
+// order: "George Eliot" finds "Eliot, George [pseud.]", as catalogues invert names.
+bool author_matches(const std::string& author, const std::string& wanted) {
+  std::size_t start = 0;
+  bool any_word = false;
+  while (start < wanted.size()) {
+    std::size_t end = wanted.find_first_of(" ,;", start);
+    if (end == std::string::npos) end = wanted.size();
+    if (end > start) {
+      any_word = true;
+      if (!caseless_contains(author, std::string_view(wanted).substr(start, end - start))) return false;
+    }
+    start = end + 1;
+  }
+  return any_word || caseless_contains(author, wanted);
+}
+
 }  // namespace
 
 bool starts_with_folder(const std::string& path, const std::string& folder) {
@@ -46,7 +63,7 @@ bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::
 }
 
 bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {
-  if (!filter.author.empty() && !caseless_contains(m.author, filter.author)) return false;
+  if (!filter.author.empty() && !author_matches(m.author, filter.author)) return false;
   if ((filter.year_from || filter.year_to) && m.year == 0) return false;
   if (filter.year_from && m.year < filter.year_from) return false;
   if (filter.year_to && m.year > filter.year_to) return false;

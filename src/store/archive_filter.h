@@ -12,7 +12,7 @@ namespace manicule::store {
 
 struct ArchiveFilter {
   std::string folder;    // only files inside this folder (relative to an input folder, or as a path)
-  std::string author;    // the header's author contains this text
+  std::string author;    // the header's authors hold each word of this text, in any order
   int year_from = 0;     // the header's year is at least this (0 = no lower bound)
   int year_to = 0;       // ... at most this (0 = no upper bound); files without a year are left out
   std::string language;  // the segment's language, else its file's, lies in this range (de, en, eng, en-GB)

@@ -83,6 +83,8 @@ Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& 
   } else if (files == 0 && selection.files_filtered_out == selection.files_in_store) {
     what = "none of the " + std::to_string(selection.files_in_store) + " stored file(s) passes the filter (" +
            filter.describe() + "): widen it";
+    if (!filter.title.empty() && filter.title.find('*') == std::string::npos)
+      what += " (a title pattern matches whole titles: '*" + filter.title + "*' finds it inside one)";
   } else if (files == 0) {
     what = "none of the stored files" + std::string(filter.empty() ? "" : " passing the filter") +
            " was read with these settings (" + std::to_string(selection.files_not_read) + " not read with them, " +

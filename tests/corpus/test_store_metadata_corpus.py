@@ -15,7 +15,7 @@
 - Letter case in any script. `--author` and `--title` with a name in capitals other than
   ASCII ("ÖDÖN", "*R?UBER*") choose the files whose header Python's str.casefold and
   fnmatch.fnmatchcase choose (the patterns hold no character whose full and simple case
-  foldings differ, such as ß).
+  foldings differ, such as ß). `--author "George Eliot"` finds ELTeC's "Eliot, George".
 """
 import csv
 import fnmatch
@@ -123,6 +123,19 @@ with tempfile.TemporaryDirectory() as tmp:
         got, stderr = analysed_files(plays, args)
         mtest.check(len(want) >= 1 and got == want, "%r: analysed %r, Python's case folding gives %r (%s)" % (
             args, sorted(map(os.path.basename, got)), sorted(map(os.path.basename, want)), stderr.strip()))
+
+    # Inverted names: each word of --author, in any order, as Python finds them.
+    db = storecheck.connect(novels)
+    novel_authors = dict(db.execute("SELECT path, author FROM file_list"))
+    db.close()
+    got, stderr = analysed_files(novels, ["--author", "George Eliot"])
+    want = {p for p, a in novel_authors.items() if all(w in a.casefold() for w in ("george", "eliot"))}
+    mtest.check(len(want) >= 2 and got == want, "--author 'George Eliot': analysed %r, Python finds %r (%s)" % (
+        sorted(map(os.path.basename, got)), sorted(map(os.path.basename, want)), stderr.strip()))
+    # A title pattern matches whole titles; the refusal says how to find a word inside one.
+    proc = mtest.run(["analyse-store", "--store", novels, "--title", "Middlemarch"], check=False)
+    mtest.check(proc.returncode == 4 and "'*Middlemarch*'" in proc.stderr,
+                "--title Middlemarch: exit %d, %s" % (proc.returncode, proc.stderr))
 
     # Languages: five plays and four novels, two more plays saying their language only by
     # langUsage in ISO 639-2's bibliographic code.
