@@ -27,15 +27,22 @@ std::string main_language(const std::vector<SegmentRecord>& segments) {
   return best;
 }
 
+// The one of `dates` with the earliest year; nullptr when none has a year.
+const std::string* earliest_dated(const std::vector<std::string>& dates) {
+  const std::string* earliest = nullptr;
+  for (const std::string& d : dates)
+    if (first_year(d) != 0 && (!earliest || first_year(d) < first_year(*earliest))) earliest = &d;
+  return earliest;
+}
+
 // The date of the work rather than of the file: when the text was made (creation), else
-// its earliest dated event (written, printed, first performed), else its first edition,
-// else the source's date, else the header's first (docs/store.md, "Sub-corpora").
+// when its earliest letter was sent, else its earliest dated event (written, printed,
+// first performed), else its first edition, else the source's date, else the header's
+// first (docs/store.md, "Sub-corpora").
 std::string work_date(const HeaderInfo& h) {
   if (!h.creation_date.empty()) return h.creation_date;
-  const std::string* earliest = nullptr;
-  for (const std::string& d : h.event_dates)
-    if (first_year(d) != 0 && (!earliest || first_year(d) < first_year(*earliest))) earliest = &d;
-  if (earliest) return *earliest;
+  if (const std::string* sent = earliest_dated(h.sent_dates)) return *sent;
+  if (const std::string* event = earliest_dated(h.event_dates)) return *event;
   if (!h.first_edition_date.empty()) return h.first_edition_date;
   return h.source_date.empty() ? h.date : h.source_date;
 }

@@ -17,7 +17,8 @@ struct SelectionRules;
 
 // Raised whenever what read_file makes of the same bytes changes (segments, counts, header
 // metadata) within one version of manicule: the store keys what it keeps by it, so that
-// files stored before are read again. 2: the date is the work's (work_date), not the file's.
+// files stored before are read again. 2: the date is the work's or the letters' (work_date),
+// not the file's.
 constexpr int kReadingRevision = 2;
 
 // What the edition's own header says (the first TEI element's teiHeader).

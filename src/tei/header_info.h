@@ -26,6 +26,7 @@ struct HeaderInfo {
   // Dates as written (@when, else @notBefore, @from, @notAfter or @to, else the text); the
   // store's file date is the first of these that is known, in this order (work_date).
   std::string creation_date;             // profileDesc/creation (2.4.1): when the text was made
+  std::vector<std::string> sent_dates;   // correspAction of type sent (2.4.6): when letters were sent
   std::vector<std::string> event_dates;  // standOff listEvent events of type written, print, premiere
   std::string first_edition_date;        // in a sourceDesc bibl of type firstEdition
   std::string source_date;               // first in sourceDesc outside a bibl of a digital source

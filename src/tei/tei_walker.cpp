@@ -460,13 +460,14 @@ struct TeiWalker::State {
   // Which of the header's date fields a <date> here fills: those still empty that it
   // belongs to (header_info.h).
   struct DateSlots {
-    bool header = false, creation = false, first_edition = false, source = false;
-    bool any() const { return header || creation || first_edition || source; }
+    bool header = false, creation = false, sent = false, first_edition = false, source = false;
+    bool any() const { return header || creation || sent || first_edition || source; }
   };
   DateSlots date_slots(const HeaderInfo& h) const {
     DateSlots slots;
     slots.header = h.date.empty();
     slots.creation = creation_depth > 0 && h.creation_date.empty();
+    slots.sent = in_sent_action;  // every letter's: the earliest is the file's
     if (source_desc_depth > 0) {
       std::string_view type = source_bibl_type();
       // ELTeC and DraCor type the electronic edition's bibl "digitalSource"; its date is
@@ -483,6 +484,7 @@ struct TeiWalker::State {
     const DateSlots slots = date_slots(h);
     if (slots.header) h.date = value;
     if (slots.creation) h.creation_date = value;
+    if (slots.sent) h.sent_dates.push_back(value);
     if (slots.first_edition) h.first_edition_date = value;
     if (slots.source) h.source_date = value;
   }

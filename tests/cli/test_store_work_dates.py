@@ -2,7 +2,8 @@
 `--years` chooses by), on invented editions that each put the work's date somewhere else.
 
 docs/store.md orders them: profileDesc/creation (TEI P5 2.4.1, "information about the
-creation of a text"), else the earliest dated event of the work in a standOff listEvent
+creation of a text"), else the earliest date a letter was sent (correspAction of type sent,
+2.4.6), else the earliest dated event of the work in a standOff listEvent
 (written, print, premiere), else the date of a sourceDesc bibl of type firstEdition, else
 the first sourceDesc date outside the bibl of a digital source, else the header's first.
 Dates are read from att.datable's attributes (P5 13.4: @when, else a range's @notBefore or
@@ -63,6 +64,15 @@ EDITIONS = {
     "nested-source": (1977, edition(
         "Ferry play from a modern edition", '<date when="2024-05-01"/>',
         '<bibl type="digitalSource"><date>2019</date><bibl type="originalSource"><date>1977</date></bibl></bibl>')),
+    # Letters: the earliest sending date, before a printed edition's in sourceDesc.
+    "letters": (1848, edition(
+        "Ferry letters sent over two years", '<date when="2024-05-01"/>',
+        '<bibl type="printSource"><date>1902</date></bibl>',
+        '<profileDesc><correspDesc><correspAction type="sent"><persName>Ada Pellow</persName>'
+        '<date when="1849-11-02"/></correspAction><correspAction type="received"><persName>Kit Dunnock</persName>'
+        '<date when="1847-01-01"/></correspAction></correspDesc>'
+        '<correspDesc><correspAction type="sent"><persName>Ada Pellow</persName><date>May 1848</date>'
+        '</correspAction></correspDesc></profileDesc>')),
     # Nothing but the publication date of the file itself.
     "file-only": (2020, edition("Ferry notes dated only as a file", '<date when="2020-02-29"/>')),
     # No date anywhere: no year, left out by any --years.
@@ -91,7 +101,8 @@ with tempfile.TemporaryDirectory() as tmp:
             name, stored[name][0], stored[name][1], year))
 
     # --years takes the files dated in range; an undated file is in none.
-    for years, names in (("1795-1803", {"creation", "events"}), ("1840-1860", {"first-edition", "print-source"}),
+    for years, names in (("1795-1803", {"creation", "events"}),
+                         ("1840-1860", {"first-edition", "print-source", "letters"}),
                          ("1900-", {"nested-source", "file-only"})):
         proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "10", "--years", years])
         _, tables = storecheck.latest_analysis(store)

@@ -21,12 +21,16 @@ def year_of(text):
 
 def work_year(root, header):
     """The year of the work as docs/store.md orders the header's dates: profileDesc/creation,
-    else the earliest dated event (written, print, premiere) in standOff/listEvent, else the
+    else the earliest date of a correspAction of type sent, else the earliest dated event (written, print, premiere) in standOff/listEvent, else the
     date of a sourceDesc bibl of type firstEdition, else the first sourceDesc date outside a
     bibl of type digitalSource (the innermost typed bibl decides), else the header's first."""
     creation = header.find("%sprofileDesc/%screation" % (TEI, TEI))
     if creation is not None and creation.find(".//" + TEI + "date") is not None:
         return year_of(date_value(creation.find(".//" + TEI + "date")))
+    sent = [year_of(date_value(d)) for action in header.iter(TEI + "correspAction") if action.get("type") == "sent"
+            for d in action.iter(TEI + "date")]
+    if any(y is not None for y in sent):
+        return min(y for y in sent if y is not None)
     events = [year_of(date_value(e, text=False)) for e in root.findall("%sstandOff//%sevent" % (TEI, TEI))
               if e.get("type") in ("written", "print", "premiere")]
     if any(y is not None for y in events):
