@@ -39,6 +39,19 @@ std::string why_not_openable(const std::string& path) {
   return "";
 }
 
+// Why a store that opened cannot be written as a store needs ("" when nothing is seen): every
+// command writes to it (runs, results), and SQLite keeps its log beside it (FILE-wal).
+std::string why_not_writable(const std::string& path) {
+  namespace fs = std::filesystem;
+  std::error_code ec;
+  if (::access(path.c_str(), W_OK) != 0) return "no permission to write it";
+  const fs::path parent = fs::path(path).has_parent_path() ? fs::path(path).parent_path() : fs::path(".");
+  if (::access(parent.c_str(), W_OK | X_OK) != 0 && !fs::exists(path + "-wal", ec))
+    return "SQLite writes its log (" + fs::path(path).filename().string() + "-wal) beside the store, and the folder " +
+           parent.string() + " allows no new file";
+  return "";
+}
+
 }  // namespace
 
 Database::Database(const std::string& path, bool create) : path_(path) {
@@ -57,6 +70,16 @@ Database::Database(const std::string& path, bool create) : path_(path) {
     throw Error(ErrorKind::write_failed, message);
   }
   sqlite3_extended_result_codes(db_, 1);
+  // SQLite opens a file it may not write read-only without a word; the first write would
+  // then fail as "disk I/O error" or "attempt to write a readonly database".
+  std::string why = why_not_writable(path);
+  if (why.empty() && sqlite3_db_readonly(db_, "main") == 1) why = "SQLite opened it read-only";
+  if (!why.empty()) {
+    sqlite3_close(db_);
+    db_ = nullptr;
+    throw Error(ErrorKind::write_failed, "cannot write the store " + path + ": " + why +
+                                             " (copy it to a folder of your own and use the copy)");
+  }
 }
 
 Database::~Database() {

@@ -5,21 +5,20 @@ the files stored from there before; before, it took them for removed and deleted
 of 3 letters gone, exit 0). The other commands stop with exit 3 naming the folder.
 
 The permission is taken away with chmod (POSIX: listing a folder needs its read and search
-permission). Root is not refused, so as root the command runs as user and group 65534
-("nobody" on Debian) through setpriv (util-linux), from a copy of the binary that user can
-reach. The files the store should keep are listed with os.walk before the chmod.
+permission); the command runs as user 65534 (tests/pylib/as_nobody.py). The files the store
+should keep are listed with os.walk before the chmod.
 """
 import json
 import os
 import shutil
 import sqlite3
 import stat
-import subprocess
 import sys
 import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
 import mtest  # noqa: E402
+import as_nobody  # noqa: E402
 
 TEI = ('<TEI xmlns="http://www.tei-c.org/ns/1.0"><teiHeader><fileDesc><titleStmt><title>{title}</title>'
        '</titleStmt><publicationStmt><p>invented</p></publicationStmt><sourceDesc><p>invented</p></sourceDesc>'
@@ -43,17 +42,7 @@ os.makedirs(store_folder)
 os.chmod(store_folder, stat.S_IRWXU | stat.S_IRWXG | stat.S_IRWXO)
 store = os.path.join(store_folder, "letters.sqlite")
 
-binary = mtest.BIN
-as_user = []
-if os.geteuid() == 0:
-    binary = os.path.join(tmp, "manicule")
-    shutil.copy(mtest.BIN, binary)
-    os.chmod(binary, OPEN)
-    as_user = ["setpriv", "--reuid=65534", "--regid=65534", "--clear-groups"]
-
-
-def manicule(*args):
-    return subprocess.run(as_user + [binary] + list(args), capture_output=True, text=True, timeout=300)
+manicule = as_nobody.runner(tmp)
 
 
 def stored_paths():
