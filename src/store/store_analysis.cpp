@@ -180,6 +180,9 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   if (stored.segments_too_short)
     result.notes.push_back(std::to_string(stored.segments_too_short) + " segment(s) shorter than " +
                            std::to_string(request.feature_space.min_segment_tokens) + " words left out");
+  if (selection.files_undated)
+    result.notes.push_back(std::to_string(selection.files_undated) +
+                           " file(s) left out by --years for want of a year in their header (docs/store.md)");
   // Said, so that fewer files in the report than in the archive need no guessing.
   if (selection.paths.size() > result.files)
     result.notes.push_back(std::to_string(selection.paths.size() - result.files) + " of the " +

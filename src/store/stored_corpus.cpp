@@ -64,8 +64,14 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     FileMetadata m{files.text_at(4), files.text_at(5), files.text_at(6), static_cast<int>(files.int64_at(7)),
                    files.text_at(8)};
     // Language is tested per segment (a segment may be in another language than its file).
-    if (!in_folder(filter, path, files.text_at(1)) || !header_matches(filter, m)) {
+    const bool in_folder_asked = in_folder(filter, path, files.text_at(1));
+    if (!in_folder_asked || !header_matches(filter, m)) {
       ++out.files_filtered_out;
+      if (in_folder_asked && m.year == 0 && (filter.year_from || filter.year_to)) {
+        ArchiveFilter any_year = filter;
+        any_year.year_from = any_year.year_to = 0;
+        if (header_matches(any_year, m)) ++out.files_undated;
+      }
       continue;
     }
     out.paths.push_back(path);

@@ -108,5 +108,7 @@ with tempfile.TemporaryDirectory() as tmp:
         _, tables = storecheck.latest_analysis(store)
         got = {os.path.basename(row[1])[:-4] for row in tables["segments"]}
         mtest.check(got == names, "--years %s took %r, expected %r" % (years, sorted(got), sorted(names)))
+        mtest.check("1 file(s) left out by --years for want of a year" in proc.stderr,
+                    "--years %s does not say that the undated file was left out: %s" % (years, proc.stderr))
 
 mtest.done()
