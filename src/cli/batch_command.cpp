@@ -115,8 +115,9 @@ CommandRunner add_batch_command(CLI::App& app) {
     report_batch(std::cout, flags->store, summary);
     // Most often a mistyped folder; with --shard, a share of a small archive may be empty.
     if (summary.counters.files_found == 0)
-      std::cerr << "manicule: note: no TEI file (*.xml) found under the inputs"
+      std::cerr << "manicule: note: no TEI file (*.xml, *.tei) found under the inputs"
                 << (flags->shard.empty() ? "" : " in share " + flags->shard) << '\n';
+    report_left_aside(std::cerr, summary);
     report_failures(std::cerr, summary);
     if (flags->analyse) {
       if (blas.valid()) blas.get();

@@ -6,7 +6,7 @@ namespace manicule::cli {
 
 void SelectionOptions::add_to(CLI::App& command, const std::string& default_unit) {
   unit = default_unit;
-  command.add_option("files", inputs, "TEI files, or folders searched for *.xml")->required();
+  command.add_option("files", inputs, "TEI files, or folders searched for *.xml and *.tei")->required();
   command.add_option("--unit,-u", unit,
                      "what makes a segment: speaker, letter, chapter, whole, or xpath:EXPR "
                      "(prefix TEI elements with tei:)")

@@ -21,6 +21,13 @@ void report_failures(std::ostream& err, const store::BatchSummary& s) {
         << "; its files were not looked at, and those stored from it before are kept\n";
 }
 
+void report_left_aside(std::ostream& err, const store::BatchSummary& s) {
+  if (!s.left_aside.count) return;
+  err << "manicule: note: " << s.left_aside.count
+      << " other file(s) below the folders left aside, such as " << s.left_aside.first
+      << " (a folder's files are read when named *.xml or *.tei)\n";
+}
+
 void report_analysis(std::ostream& out, std::ostream& err, const store::StoreAnalysisResult& r) {
   out << "analysis run " << r.run_id << (r.reused ? " (unchanged, reused)" : "") << ": " << r.files << " file(s), "
       << r.measured << " segment(s) measured, " << r.features << " feature(s)";

@@ -16,20 +16,30 @@ namespace fs = std::filesystem;
 
 namespace {
 
-// Adds the *.xml files below `folder` to `found`, folder by folder (symbolic links to
-// folders are not followed; links to files are). A folder that cannot be listed goes to
-// `unlisted`, or, without it, stops the walk with an error naming it.
-void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::vector<UnlistedFolder>* unlisted) {
+// Adds the files below `folder` whose names say TEI to `found`, folder by folder (symbolic
+// links to folders are not followed; links to files are; hidden files and folders, named
+// with a leading dot, are passed by). A folder that cannot be listed
+// goes to `unlisted`, or, without it, stops the walk with an error naming it. Other
+// regular files are counted in `left_aside`, when given.
+void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::vector<UnlistedFolder>* unlisted,
+                 LeftAside* left_aside) {
   std::error_code ec;
   std::vector<fs::path> subfolders;
   for (fs::directory_iterator it(folder, ec); !ec && it != fs::directory_iterator(); it.increment(ec)) {
     std::error_code type_ec;  // a dangling link is no folder, nor a file to read
     const fs::path& path = it->path();
+    // Hidden by their names (.git, a Mac's ._letter.xml beside letter.xml): not the archive's.
+    if (path.filename().string().front() == '.') continue;
     if (it->is_directory(type_ec) && !it->is_symlink(type_ec)) {
       subfolders.push_back(path);
       continue;
     }
-    if (path.extension() != ".xml") continue;
+    if (!is_tei_file_name(path.filename().string())) {
+      if (left_aside && it->is_regular_file(type_ec)) {
+        if (left_aside->count++ == 0 || path.string() < left_aside->first) left_aside->first = path.string();
+      }
+      continue;
+    }
     const bool regular = it->is_regular_file(type_ec);
     if (type_ec && type_ec != std::errc::no_such_file_or_directory) {  // a loop of links, say
       throw Error(ErrorKind::bad_input, std::string("cannot tell what the file is: ").append(type_ec.message()),
@@ -44,12 +54,26 @@ void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::v
     }
     unlisted->push_back(UnlistedFolder{folder.string(), ec.message()});
   }
-  for (const auto& sub : subfolders) walk_folder(sub, found, unlisted);
+  for (const auto& sub : subfolders) walk_folder(sub, found, unlisted, left_aside);
 }
 
 }  // namespace
 
-std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs, std::vector<UnlistedFolder>* unlisted) {
+bool is_tei_file_name(const std::string& name) {
+  const auto ends_with = [&name](std::string_view ending) {
+    if (name.size() <= ending.size()) return false;
+    for (std::size_t i = 0; i < ending.size(); ++i) {
+      char c = name[name.size() - ending.size() + i];
+      if (c >= 'A' && c <= 'Z') c = static_cast<char>(c - 'A' + 'a');
+      if (c != ending[i]) return false;
+    }
+    return true;
+  };
+  return ends_with(".xml") || ends_with(".tei");
+}
+
+std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs, std::vector<UnlistedFolder>* unlisted,
+                                       LeftAside* left_aside) {
   std::vector<std::string> files;
   for (const auto& input : inputs) {
     std::error_code ec;
@@ -57,7 +81,7 @@ std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs, s
     if (ec || !fs::exists(status)) throw Error(ErrorKind::bad_input, "no such file or folder", input);
     if (fs::is_directory(status)) {
       std::vector<std::string> found;
-      walk_folder(input, found, unlisted);
+      walk_folder(input, found, unlisted, left_aside);
       std::sort(found.begin(), found.end());
       files.insert(files.end(), found.begin(), found.end());
     } else {

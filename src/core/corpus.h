@@ -44,13 +44,26 @@ struct UnlistedFolder {
   std::string reason;  // the system's words
 };
 
+// Files below an input folder that a folder's walk does not take by their names: how many,
+// and the first of them in path order.
+struct LeftAside {
+  std::size_t count = 0;
+  std::string first;
+};
+
+// Whether a folder's walk takes a file by its name: *.xml or *.tei, letter case ignored
+// (LETTER01.XML from an older system, edition.tei).
+bool is_tei_file_name(const std::string& name);
+
 // Lists the TEI files named by `inputs` (files as given; folders searched recursively for
-// *.xml, sorted). Throws Error(bad_input) for a path that does not exist. A folder below an
-// input that cannot be listed is noted in `unlisted` and the rest still listed (for a batch
-// over an archive, which goes on and keeps what it stored from there); without `unlisted`
-// it stops the listing with Error(bad_input) naming it, never left out unsaid.
+// is_tei_file_name, passing by hidden files and folders, sorted). Throws Error(bad_input) for a path that does not exist. A
+// folder below an input that cannot be listed is noted in `unlisted` and the rest still
+// listed (for a batch over an archive, which goes on and keeps what it stored from there);
+// without `unlisted` it stops the listing with Error(bad_input) naming it, never left out
+// unsaid. The other files the folders hold are counted in `left_aside`, when given.
 std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs,
-                                       std::vector<UnlistedFolder>* unlisted = nullptr);
+                                       std::vector<UnlistedFolder>* unlisted = nullptr,
+                                       LeftAside* left_aside = nullptr);
 
 // `path` resolved against the working directory, without following links: equal for the
 // spellings of one file's path (arch/x.xml, ./arch/x.xml, /home/editor/arch/x.xml).

@@ -1,4 +1,4 @@
-// The files of a batch: every TEI file named by the inputs (folders searched for *.xml as
+// The files of a batch: every TEI file named by the inputs (folders searched as
 // expand_inputs does), each with its path relative to the input folder it was found under,
 // its size and modification time. --shard K/N keeps a deterministic share: a file belongs
 // to share 1 + (first 8 bytes of SHA-256 of its relative path) mod N, so the shares do not
@@ -30,9 +30,11 @@ bool in_shard(const std::string& relative_path, const Shard& shard);
 
 // The files under `inputs` inside `filter`'s folder and in `shard`, sorted by path within
 // each input. Throws Error(bad_input) for an input that does not exist; a folder below an
-// input that cannot be listed goes to `unlisted` (see expand_inputs).
+// input that cannot be listed goes to `unlisted`, and other files below the input folders
+// are counted in `left_aside` (see expand_inputs).
 std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inputs, const ArchiveFilter& filter,
-                                            const Shard& shard, std::vector<UnlistedFolder>& unlisted);
+                                            const Shard& shard, std::vector<UnlistedFolder>& unlisted,
+                                            LeftAside& left_aside);
 
 // Size and modification time now; false when the file cannot be examined.
 bool stat_file(const std::string& path, std::uint64_t& size, std::int64_t& mtime_ns);

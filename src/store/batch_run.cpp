@@ -141,7 +141,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   const ReadingSettings settings = reading_settings(request);
   BatchSummary summary;
   std::vector<ArchiveFile> listed =
-      list_archive_files(request.inputs, options.filter, options.shard, summary.unlisted);
+      list_archive_files(request.inputs, options.filter, options.shard, summary.unlisted, summary.left_aside);
   std::vector<ArchiveFile> files;
   {
     std::unordered_set<std::string> seen;
@@ -156,6 +156,8 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     nlohmann::json parameters = run_parameters(request, options, settings);
     for (const auto& folder : summary.unlisted)  // kept with the run, for whoever reads the table later
       parameters["unlisted_folders"].push_back({{"path", folder.path}, {"reason", folder.reason}});
+    if (summary.left_aside.count)
+      parameters["left_aside"] = {{"files", summary.left_aside.count}, {"first", summary.left_aside.first}};
     summary.run_id = begin_run(db, "batch", summary.settings_id, parameters);
     t.commit();
   }

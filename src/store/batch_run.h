@@ -70,6 +70,7 @@ struct BatchSummary {
   // Folders below the inputs that could not be listed: their files were not looked at, and
   // those stored from them before stay in the store.
   std::vector<UnlistedFolder> unlisted;
+  LeftAside left_aside;  // files below the input folders whose names do not say TEI
   std::unique_ptr<FreshCounts> fresh;  // with keep_counts_of_segments_from, if any file was read
 };
 

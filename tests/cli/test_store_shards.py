@@ -131,7 +131,7 @@ with tempfile.TemporaryDirectory() as tmp:
     empty = min(k for k in range(1, 1001) if k not in taken)
     proc = mtest.run(["batch", archive, "--store", os.path.join(tmp, "empty-share.sqlite"), "--shard",
                       "%d/1000" % empty] + common, check=False)
-    mtest.check(proc.returncode == 0 and "no TEI file (*.xml) found under the inputs in share %d/1000" % empty in proc.stderr,
+    mtest.check(proc.returncode == 0 and "no TEI file (*.xml, *.tei) found under the inputs in share %d/1000" % empty in proc.stderr,
                 "an empty share: exit %d, %s" % (proc.returncode, proc.stderr))
     proc = mtest.run(["batch", archive, "--store", os.path.join(tmp, "full-share.sqlite"), "--shard",
                       "%d/1000" % min(taken)] + common)

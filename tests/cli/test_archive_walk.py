@@ -1,0 +1,65 @@
+"""Which files a folder's walk takes: names ending in .xml or .tei, letter case ignored
+(LETTER01.XML from an older system), passing by hidden files and folders (a Mac's
+._letter.xml beside letter.xml, a .git folder), and saying how many other files it left
+aside. Before, only a lower-case .xml was taken, so B.XML and c.tei were left out without
+a word, and ._a.xml was read and failed.
+
+The expected files are listed with os.walk by that rule, and also given by construction;
+batch must store exactly those, note the others' number with the first of them in path
+order (Python's sorted), and record both with the run; segments over the folder must read
+the same files.
+"""
+import gzip
+import json
+import os
+import shutil
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+
+LETTERS = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    for folder in ("1870", ".git", "facsimiles"):
+        os.makedirs(os.path.join(archive, folder))
+    for name in ("1870/a.xml", "1870/B.XML", "c.tei", ".git/copy.xml"):
+        shutil.copy(LETTERS, os.path.join(archive, name))
+    with open(os.path.join(archive, "1870", "._a.xml"), "wb") as f:  # AppleDouble: not XML
+        f.write(b"\x00\x05\x16\x07\x00\x02\x00\x00Mac OS X")
+    with open(LETTERS, "rb") as src, gzip.open(os.path.join(archive, "d.xml.gz"), "wb") as dst:
+        dst.write(src.read())
+    for name in ("facsimiles/p001.jpg", "facsimiles/p002.jpg", "README.txt", "1870/a.xml~"):
+        with open(os.path.join(archive, name), "w") as f:
+            f.write("not TEI")
+
+    taken, other = [], []
+    for root, folders, files in os.walk(archive):
+        folders[:] = [d for d in folders if not d.startswith(".")]
+        for name in files:
+            if name.startswith("."):
+                continue
+            (taken if name.lower().endswith((".xml", ".tei")) else other).append(os.path.join(root, name))
+    by_construction = {os.path.join(archive, n) for n in ("1870/a.xml", "1870/B.XML", "c.tei")}
+    mtest.check(set(taken) == by_construction and len(other) == 5, "the test's own listing: %r %r" % (taken, other))
+
+    store = os.path.join(tmp, "store.sqlite")
+    proc = mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"])
+    db = storecheck.connect(store)
+    stored = {p for (p,) in db.execute("SELECT path FROM files")}
+    parameters = json.loads(db.execute("SELECT parameters FROM runs ORDER BY run_id DESC LIMIT 1").fetchone()[0])
+    db.close()
+    mtest.check(stored == set(taken), "batch stored %r, os.walk by the rule gives %r" % (sorted(stored), sorted(taken)))
+    note = "%d other file(s) below the folders left aside, such as %s" % (len(other), sorted(other)[0])
+    mtest.check(note in proc.stderr, "the note on files left aside: %r, expected %r" % (proc.stderr, note))
+    mtest.check(parameters.get("left_aside") == {"files": len(other), "first": sorted(other)[0]},
+                "the run records %r" % parameters.get("left_aside"))
+
+    proc = mtest.run(["segments", archive, "--unit", "letter", "--format", "json"])
+    files = {s["file"] for s in json.loads(proc.stdout)["segments"]}
+    mtest.check(files == set(taken), "segments read %r" % sorted(files))
+
+mtest.done()
