@@ -56,6 +56,10 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
     for (const auto& s : all)
       if (s.id == settings_id) chosen = &s;
     if (!chosen) throw Error(ErrorKind::usage, "the store has no settings " + std::to_string(settings_id) + " (see --list-settings)");
+    if (!chosen->this_reader)
+      std::cerr << "manicule: note: the counts and headers of settings " << settings_id
+                << " were read by an earlier version of manicule, whose dates and counts may differ;"
+                   " batch with the same options reads the files again\n";
 
     Request request;
     // With --attribute the features default to those of the attribute command.

@@ -209,6 +209,11 @@ with tempfile.TemporaryDirectory() as tmp:
     rows = settings_listing()
     mtest.check(rows[2][2].startswith("an earlier version") and rows[1][2] == rows[3][2] == "this version",
                 "after the key changed: %r" % rows)
+    proc = mtest.run(["analyse-store", "--store", listed, "--settings", "2", "--min-tokens", "10"], check=False)
+    mtest.check("settings 2 were read by an earlier version of manicule" in proc.stderr,
+                "analyse-store on an earlier version's counts says nothing: %s" % proc.stderr)
+    proc = mtest.run(["analyse-store", "--store", listed, "--settings", "1", "--min-tokens", "10"], check=False)
+    mtest.check("earlier version" not in proc.stderr, "this version's counts said to be older: %s" % proc.stderr)
     mtest.run(["batch", nested, "--store", listed, "--quiet"] + option_sets[1])
     run = storecheck.last_run(listed)
     mtest.check(run["files_read"] == 3, "the settings of an earlier version were reused: %r" % run)
