@@ -21,6 +21,7 @@
 #include "cli/selection_options.h"
 #include "core/corpus.h"
 #include "core/error.h"
+#include "core/facade.h"
 #include "standoff/edition_annotator.h"
 
 namespace manicule::cli {
@@ -92,6 +93,7 @@ CommandRunner add_annotate_command(CLI::App& app) {
     apply_measuring_options(*analysis_options, *command, attributing, request);
     request.compute_pca = *components > 0;
     request.pca.components = *components;
+    check_analysis_options(request);  // before any edition is read
 
     // The editions written into; impostor files (--impostors) are read, never written.
     std::vector<std::string> files = expand_inputs(request.inputs);

@@ -15,6 +15,7 @@
 #include "cli/progress_display.h"
 #include "cli/selection_options.h"
 #include "cli/store_report.h"
+#include "core/facade.h"
 #include "store/batch_run.h"
 #include "store/store_analysis.h"
 #include "store/store_schema.h"
@@ -69,6 +70,8 @@ CommandRunner add_batch_command(CLI::App& app) {
     // With --attribute the features default to those of the attribute command.
     apply_measuring_options(*analysis, *command, flags->attribute, request);
     request.compute_pca = flags->pca;
+    // Before an hour of reading, not after it.
+    if (flags->analyse) check_analysis_options(request);
     store::BatchOptions options;
     options.filter = filters->to_filter();
     options.verify_hashes = flags->verify;

@@ -144,7 +144,12 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
   return analysis;
 }
 
+void check_analysis_options(const Request& request) {
+  validate_feature_space_options(request.features, request.feature_space);
+}
+
 Analysis analyse(const Request& request, const ProgressFn& progress) {
+  check_analysis_options(request);  // before the files are read, not after
   std::vector<std::string> files = expand_inputs(request.inputs);
   Corpus corpus = read_corpus(request, files, progress);
   throw_first_failure(corpus);

@@ -12,6 +12,10 @@ namespace manicule {
 // Error(nothing_selected) if no segment has text, Error(usage) for bad options.
 Analysis analyse(const Request& request, const ProgressFn& progress = {});
 
+// Throws Error(usage) for analysis options no corpus could satisfy (feature ranks out of
+// order, say), so that a command can refuse them before reading any file.
+void check_analysis_options(const Request& request);
+
 // The same from counts already read (e.g. from the archive store): `corpus` supplies the
 // segments and their counts in one order.
 Analysis analyse_corpus(const Request& request, const Corpus& corpus);

@@ -12,9 +12,7 @@
 
 namespace manicule {
 
-namespace {
-
-void validate_options(const FeatureSpec& spec, const FeatureSpaceOptions& options) {
+void validate_feature_space_options(const FeatureSpec& spec, const FeatureSpaceOptions& options) {
   if (options.rank_first < 1 || options.rank_last < options.rank_first) {
     throw Error(ErrorKind::usage, "feature ranks must satisfy 1 <= first <= last, not " +
                                       std::to_string(options.rank_first) + ".." +
@@ -27,6 +25,8 @@ void validate_options(const FeatureSpec& spec, const FeatureSpaceOptions& option
     throw Error(ErrorKind::usage, "a stop list applies to words, not to character n-grams");
   }
 }
+
+namespace {
 
 // Indices of the segments to keep; the others go to the report.
 std::vector<std::size_t> keep_large_segments(const CountProfile& profile,
@@ -70,7 +70,7 @@ bool contains_stop_word(std::string_view form, FeatureKind kind,
 
 FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpaceOptions& options,
                                  unsigned threads) {
-  validate_options(profile.spec, options);
+  validate_feature_space_options(profile.spec, options);
   FeatureTable table;
   table.spec = profile.spec;
   FeatureSelectionReport& report = table.report;

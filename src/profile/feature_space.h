@@ -40,6 +40,11 @@ struct FeatureSpaceOptions {
   bool keep_relative = true;
 };
 
+// Throws Error(usage) for options no table can be built with (ranks out of order, culling
+// outside 0-100 %, a stop list for character n-grams); build_feature_table checks them too,
+// a caller about to read an archive first can check them before.
+void validate_feature_space_options(const FeatureSpec& spec, const FeatureSpaceOptions& options);
+
 // `threads` (0: one per core) share the counting and the filling of the table; the
 // table is the same, bit for bit, whatever their number.
 FeatureTable build_feature_table(const CountProfile& profile, const FeatureSpaceOptions& options,

@@ -213,4 +213,21 @@ mtest.check(p.returncode == 3 and "legacy.xml:4:" in p.stderr and "'nbsp'" in p.
             and "the DOCTYPE names %s, which manicule never loads" % dtd_name in p.stderr,
             "an entity of the external DTD: exit 3, entity, line and DTD named: %d %s" % (p.returncode, p.stderr))
 
+# 13. Analysis options no corpus could satisfy are refused before any file is read: over a
+# folder holding a malformed file, the exit is 2 (usage) naming the option, not 3 (the file,
+# which reading would have met first); batch creates no store, annotate writes nothing.
+refused = os.path.join(tmp, "refused")
+os.makedirs(refused)
+write(os.path.join("refused", "broken.xml"), TEI_OPEN + HEADER + "<text><body><p>Cut short")
+for args in (["distances", "--unit", "whole", "--ranks", "10-5", refused],
+             ["annotate", "--unit", "whole", "--culling", "150", "--output", os.path.join(tmp, "out"), refused],
+             ["batch", refused, "--store", os.path.join(tmp, "refused.sqlite"), "--unit", "whole", "--analyse",
+              "--ranks", "0-10"]):
+    p = subprocess.run([mtest.BIN] + args, capture_output=True, text=True, timeout=120)
+    mtest.check(p.returncode == 2 and ("feature ranks" in p.stderr or "culling" in p.stderr)
+                and "broken.xml" not in p.stderr,
+                "%s with an impossible option: exit 2 before reading: %d %s" % (args[0], p.returncode, p.stderr))
+mtest.check(not os.path.exists(os.path.join(tmp, "refused.sqlite")) and not os.path.exists(os.path.join(tmp, "out")),
+            "a refused command left a store or an output behind")
+
 mtest.done()
