@@ -18,9 +18,9 @@ namespace {
 
 // Adds the files below `folder` whose names say TEI to `found`, folder by folder (symbolic
 // links to folders are not followed; links to files are; hidden files and folders, named
-// with a leading dot, are passed by). A folder that cannot be listed
-// goes to `unlisted`, or, without it, stops the walk with an error naming it. Other
-// regular files are counted in `left_aside`, when given.
+// with a leading dot, are passed by). A folder that cannot be listed goes to `unlisted`,
+// or, without it, stops the walk with an error naming it. Other regular files are counted
+// in `left_aside`, when given.
 void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::vector<UnlistedFolder>* unlisted,
                  LeftAside* left_aside) {
   std::error_code ec;

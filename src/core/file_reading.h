@@ -25,7 +25,7 @@ constexpr int kReadingRevision = 2;
 struct FileMetadata {
   std::string title;
   std::string author;    // titleStmt authors as written, joined by "; "
-  std::string date;      // the work's date as written (creation, events, first edition, source: work_date)
+  std::string date;      // the work's date as written (creation, letters sent, events, editions: work_date)
   int year = 0;          // the first four-digit year in `date`; 0 when there is none
   std::string language;  // langUsage, else the language most of the selected text is in
 };
