@@ -115,6 +115,8 @@ FileReading read_file(const std::string& file, const Request& request, const Sel
     result.metadata.date = work_date(header);
     result.metadata.year = first_year(result.metadata.date);
     result.metadata.language = header.language.empty() ? main_language(result.segments) : header.language;
+    // A file without segments of this unit still says its language on its TEI element.
+    if (result.metadata.language.empty()) result.metadata.language = header.tei_language;
   } catch (const Error& e) {
     result.failed = true;
     result.failure = FileFailure{file, e.what(), static_cast<int>(e.kind())};

@@ -18,7 +18,7 @@ struct SelectionRules;
 // Raised whenever what read_file makes of the same bytes changes (segments, counts, header
 // metadata) within one version of manicule: the store keys what it keeps by it, so that
 // files stored before are read again. 2: the date is the work's or the letters' (work_date),
-// not the file's.
+// not the file's, and a file without segments of the unit has its TEI element's language.
 constexpr int kReadingRevision = 2;
 
 // What the edition's own header says (the first TEI element's teiHeader).
@@ -27,7 +27,7 @@ struct FileMetadata {
   std::string author;    // titleStmt authors as written, joined by "; "
   std::string date;      // the work's date as written (creation, letters sent, events, editions: work_date)
   int year = 0;          // the first four-digit year in `date`; 0 when there is none
-  std::string language;  // langUsage, else the language most of the selected text is in
+  std::string language;  // langUsage, else the language most of the selected text is in, else TEI/@xml:lang
 };
 
 struct FileReading {

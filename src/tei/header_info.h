@@ -34,6 +34,7 @@ struct HeaderInfo {
   std::map<std::string, std::string> person_names;  // person/personGrp/role xml:id -> name
   std::vector<CorrespRecord> corresp;
   std::string language;                            // sole or most used langUsage/language
+  std::string tei_language;                        // the TEI element's own xml:lang
 };
 
 // True for names that stand for nobody: "Unknown", "N.N.", "anonym", "[?]" and the like

@@ -650,6 +650,7 @@ void TeiWalker::start(const StartTag& tag) {
     f.tei_element = true;
     HeaderInfo h;
     h.tei_id = std::string(f.xml_id);
+    h.tei_language = std::string(tag.attribute("lang", kXmlNamespace));
     s.headers.push_back(h);
     s.tei_stack.push_back(static_cast<int>(s.headers.size() - 1));
     s.letters_per_tei.push_back(0);

@@ -12,6 +12,8 @@
   segments; the plays say their language by xml:lang ("de") and a copy of two of them
   only by langUsage ("ger"), the novels by xml:lang ("en") and langUsage ("eng", "en").
   A range holds the tags that extend it (RFC 4647 3.3.1): "en-GB" holds no file tagged "en".
+  A file without a segment of the unit keeps its langUsage's language, else its TEI
+  element's xml:lang.
 - Letter case in any script. `--author` and `--title` with a name in capitals other than
   ASCII ("ÖDÖN", "*R?UBER*") choose the files whose header Python's str.casefold and
   fnmatch.fnmatchcase choose (the patterns hold no character whose full and simple case
@@ -181,6 +183,19 @@ with tempfile.TemporaryDirectory() as tmp:
             mtest.check(got == files, "--language %s (%s): analysed %r, expected %r (%s)" % (
                 code, entry["name"], sorted(map(os.path.basename, got)), sorted(map(os.path.basename, files)),
                 stderr.strip()))
+    # A file without a segment of the unit (no letters in plays and novels) still has its
+    # language: langUsage's, else its TEI element's xml:lang, as lxml reads them.
+    no_letters = os.path.join(tmp, "no-letters.sqlite")
+    mtest.run(["batch", archive, "--store", no_letters, "--unit", "letter", "--quiet"])
+    db = storecheck.connect(no_letters)
+    languages = dict(db.execute("SELECT path, language FROM file_list"))
+    db.close()
+    for path, language in languages.items():
+        root = etree.parse(path).getroot()
+        usage = root.find(".//%slangUsage/%slanguage" % (TEI, TEI))
+        want = usage.get("ident") if usage is not None else root.get("{http://www.w3.org/XML/1998/namespace}lang")
+        mtest.check(language == want, "%s without letters: language %r, lxml reads %r" % (
+            os.path.basename(path), language, want))
     got, stderr = analysed_files(mixed, ["--language", "en-GB"], "1500")
     mtest.check(not got and "is in language en-GB" in stderr, "--language en-GB took %r: %s" % (got, stderr))
     proc = mtest.run(["analyse-store", "--store", mixed, "--language", "x-private"], check=False)
