@@ -38,13 +38,20 @@ const std::string* earliest_dated(const std::vector<std::string>& dates) {
 // The date of the work rather than of the file: when the text was made (creation), else
 // when its earliest letter was sent, else its earliest dated event (written, printed,
 // first performed), else its first edition, else the source's date, else the header's
-// first (docs/store.md, "Sub-corpora").
+// first (docs/store.md, "Sub-corpora"). The first of these with a year wins, so that a
+// creation "in the spring" does not hide a first edition of 1850; without any year, the
+// first as written.
 std::string work_date(const HeaderInfo& h) {
-  if (!h.creation_date.empty()) return h.creation_date;
-  if (const std::string* sent = earliest_dated(h.sent_dates)) return *sent;
-  if (const std::string* event = earliest_dated(h.event_dates)) return *event;
-  if (!h.first_edition_date.empty()) return h.first_edition_date;
-  return h.source_date.empty() ? h.date : h.source_date;
+  const std::string* sent = earliest_dated(h.sent_dates);
+  const std::string* event = earliest_dated(h.event_dates);
+  if (!sent && !h.sent_dates.empty()) sent = &h.sent_dates.front();
+  if (!event && !h.event_dates.empty()) event = &h.event_dates.front();
+  const std::string* in_order[] = {&h.creation_date, sent, event, &h.first_edition_date, &h.source_date, &h.date};
+  for (const std::string* d : in_order)
+    if (d && first_year(*d) != 0) return *d;
+  for (const std::string* d : in_order)
+    if (d && !d->empty()) return *d;
+  return {};
 }
 
 }  // namespace

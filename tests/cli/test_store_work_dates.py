@@ -1,13 +1,13 @@
 """Archive store: which of a header's dates becomes a file's `date` and `year` (what
 `--years` chooses by), on invented editions that each put the work's date somewhere else.
 
-docs/store.md orders them: profileDesc/creation (TEI P5 2.4.1, "information about the
-creation of a text"), else the earliest date a letter was sent (correspAction of type sent,
-2.4.6), else the earliest dated event of the work in a standOff listEvent
-(written, print, premiere), else the date of a sourceDesc bibl of type firstEdition, else
-the first sourceDesc date outside the bibl of a digital source, else the header's first.
-Dates are read from att.datable's attributes (P5 13.4: @when, else a range's @notBefore or
-@from, then @notAfter or @to), else from the element's text. Each file's expected year is
+docs/store.md orders them, the first with a year winning: profileDesc/creation (TEI P5
+2.4.1, "information about the creation of a text"), the earliest date a letter was sent
+(correspAction of type sent, 2.4.6), the earliest dated event of the work in standOff
+(written, print, premiere), the date of a sourceDesc bibl of type firstEdition, the first
+sourceDesc date outside the bibl of a digital source, the header's first. Dates are read
+from att.datable's attributes (P5 13.4: @when, else a range's @notBefore or @from, then
+@notAfter or @to), else from the element's text; empty dates are passed by. Each file's expected year is
 given by construction and also read with lxml by tests/pylib/tei_dates.py; the store must
 agree with both, and --years must take the files in range. The editions are valid TEI
 (jing with tei_all, checked first).
@@ -26,14 +26,15 @@ from tei_dates import TEI, work_year  # noqa: E402
 WORDS = " ".join(["the ferry left the north pier at dawn and the keeper wrote it down"] * 8)
 
 
-def edition(title, file_desc_dates="", source="<p>Invented.</p>", profile="", standoff=""):
+def edition(title, file_desc_dates="", source="<p>Invented.</p>", profile="", standoff="", second_source=""):
+    second = "<sourceDesc>%s</sourceDesc>" % second_source if second_source else ""
     return ('<?xml version="1.0" encoding="UTF-8"?>\n'
             '<TEI xmlns="http://www.tei-c.org/ns/1.0" xml:lang="en"><teiHeader><fileDesc>'
             '<titleStmt><title>%s</title><author>Ada Pellow</author></titleStmt>'
             '<publicationStmt><publisher>Invented test data of the manicule project</publisher>%s</publicationStmt>'
-            '<sourceDesc>%s</sourceDesc></fileDesc>%s</teiHeader>%s'
+            '<sourceDesc>%s</sourceDesc>%s</fileDesc>%s</teiHeader>%s'
             '<text><body><p>%s</p></body></text></TEI>\n'
-            % (title, file_desc_dates, source, profile, standoff, WORDS))
+            % (title, file_desc_dates, source, second, profile, standoff, WORDS))
 
 
 EDITIONS = {
@@ -73,6 +74,20 @@ EDITIONS = {
         '<date when="1847-01-01"/></correspAction></correspDesc>'
         '<correspDesc><correspAction type="sent"><persName>Ada Pellow</persName><date>May 1848</date>'
         '</correspAction></correspDesc></profileDesc>')),
+    # Empty dates say nothing and are passed by: the creation's, and the first in a bibl.
+    "empty-dates": (1850, edition(
+        "Ferry log with empty dates", "",
+        '<bibl><date/><date when="1850"/></bibl>',
+        '<profileDesc><creation><date/></creation></profileDesc>')),
+    # A date without a year does not hide a later source that has one.
+    "no-year": (1856, edition(
+        "Ferry log made in the spring", '<date when="2024-05-01"/>',
+        '<bibl type="firstEdition"><date>1856</date></bibl>',
+        '<profileDesc><creation><date>in the spring</date></creation></profileDesc>')),
+    # A second sourceDesc (fileDesc allows several) is read as well as the first.
+    "second-source": (1862, edition(
+        "Ferry letters from a second source", '<date when="2020-02-29"/>',
+        "<p>Transcribed from two sources.</p>", second_source='<bibl type="printSource"><date>1862</date></bibl>')),
     # Nothing but the publication date of the file itself.
     "file-only": (2020, edition("Ferry notes dated only as a file", '<date when="2020-02-29"/>')),
     # No date anywhere: no year, left out by any --years.
@@ -102,8 +117,8 @@ with tempfile.TemporaryDirectory() as tmp:
 
     # --years takes the files dated in range; an undated file is in none.
     for years, names in (("1795-1803", {"creation", "events"}),
-                         ("1840-1860", {"first-edition", "print-source", "letters"}),
-                         ("1900-", {"nested-source", "file-only"})):
+                         ("1840-1860", {"first-edition", "print-source", "letters", "empty-dates", "no-year"}),
+                         ("1861-", {"nested-source", "file-only", "second-source"})):
         proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "10", "--years", years])
         _, tables = storecheck.latest_analysis(store)
         got = {os.path.basename(row[1])[:-4] for row in tables["segments"]}

@@ -7,11 +7,12 @@ TEI = "{http://www.tei-c.org/ns/1.0}"
 
 
 def date_value(element, text=True):
-    """A date as written: its attributes (att.datable), else (for a date element) its text."""
+    """A date as written: its attributes (att.datable), else (for a date element) its text
+    with white space collapsed; "" when it has neither."""
     for name in ("when", "notBefore", "from", "notAfter", "to"):
         if element.get(name):
             return element.get(name)
-    return "".join(element.itertext()) if text else None
+    return " ".join("".join(element.itertext()).split()) if text else ""
 
 
 def year_of(text):
@@ -19,34 +20,39 @@ def year_of(text):
     return int(year.group()) if year else None
 
 
+def _earliest(values):
+    dated = [v for v in values if year_of(v) is not None]
+    return min(dated, key=year_of) if dated else (values[0] if values else "")
+
+
+def _bibl_type(date):
+    """The @type of the innermost bibl (biblStruct, biblFull) around `date` that has one."""
+    typed = [a.get("type") for a in date.iterancestors(TEI + "bibl", TEI + "biblStruct", TEI + "biblFull")
+             if a.get("type")]
+    return typed[0] if typed else ""
+
+
 def work_year(root, header):
-    """The year of the work as docs/store.md orders the header's dates: profileDesc/creation,
-    else the earliest date of a correspAction of type sent, else the earliest dated event (written, print, premiere) in standOff/listEvent, else the
-    date of a sourceDesc bibl of type firstEdition, else the first sourceDesc date outside a
-    bibl of type digitalSource (the innermost typed bibl decides), else the header's first."""
-    creation = header.find("%sprofileDesc/%screation" % (TEI, TEI))
-    if creation is not None and creation.find(".//" + TEI + "date") is not None:
-        return year_of(date_value(creation.find(".//" + TEI + "date")))
-    sent = [year_of(date_value(d)) for action in header.iter(TEI + "correspAction") if action.get("type") == "sent"
-            for d in action.iter(TEI + "date")]
-    if any(y is not None for y in sent):
-        return min(y for y in sent if y is not None)
-    events = [year_of(date_value(e, text=False)) for e in root.findall("%sstandOff//%sevent" % (TEI, TEI))
-              if e.get("type") in ("written", "print", "premiere")]
-    if any(y is not None for y in events):
-        return min(y for y in events if y is not None)
-    source = header.find("%sfileDesc/%ssourceDesc" % (TEI, TEI))
-    if source is not None:
-        def bibl_type(date):
-            typed = [a.get("type") for a in date.iterancestors(TEI + "bibl", TEI + "biblStruct", TEI + "biblFull")
-                     if a.get("type")]
-            return typed[0] if typed else ""
-        dates = list(source.iter(TEI + "date"))
-        first_edition = [d for d in dates if bibl_type(d) == "firstEdition"]
-        if first_edition:
-            return year_of(date_value(first_edition[0]))
-        kept = [d for d in dates if not bibl_type(d).startswith("digital")]
-        if kept:
-            return year_of(date_value(kept[0]))
-    first = next(header.iter(TEI + "date"), None)
-    return None if first is None else year_of(date_value(first))
+    """The year of the work as docs/store.md orders the header's dates, the first with a year
+    winning: the first date in a creation element, the earliest date of a correspAction of
+    type sent, the earliest event (written, print, premiere) in standOff, the first date in a
+    sourceDesc bibl of type firstEdition (the innermost typed bibl decides), the first
+    sourceDesc date outside a bibl whose type begins "digital", the header's first date.
+    Dates without a value (an empty <date/>) are passed by. None when no source has a year."""
+    def values(elements, text=True):
+        return [v for v in (date_value(e, text) for e in elements) if v]
+
+    creation = values(d for c in header.iter(TEI + "creation") for d in c.iter(TEI + "date"))
+    sent = values(d for action in header.iter(TEI + "correspAction") if action.get("type") == "sent"
+                  for d in action.iter(TEI + "date"))
+    events = values((e for s in root.findall(TEI + "standOff") for e in s.iter(TEI + "event")
+                     if e.get("type") in ("written", "print", "premiere")), text=False)
+    source_dates = [d for s in header.iter(TEI + "sourceDesc") for d in s.iter(TEI + "date")]
+    first_edition = values(d for d in source_dates if _bibl_type(d) == "firstEdition")
+    source = values(d for d in source_dates if not _bibl_type(d).startswith("digital"))
+    anywhere = values(header.iter(TEI + "date"))
+    for candidate in (creation[:1], [_earliest(sent)] if sent else [], [_earliest(events)] if events else [],
+                      first_edition[:1], source[:1], anywhere[:1]):
+        if candidate and year_of(candidate[0]) is not None:
+            return year_of(candidate[0])
+    return None
