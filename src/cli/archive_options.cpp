@@ -39,9 +39,10 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
   f.folder = folder;
   f.author = author;
   f.language = language;
-  if (!language.empty() && canonical_language_tag(language).empty())
+  if (!language.empty() && !is_language_code(language))
     throw Error(ErrorKind::usage, "--language " + language +
-                                      ": not a language tag; give an ISO 639 code or a BCP 47 tag, e.g. de, eng, en-GB");
+                                      ": not a language code; give an ISO 639 code, alone or in a BCP 47 tag, "
+                                      "e.g. de, eng, en-GB");
   f.title = title;
   if (!years.empty()) {
     auto dash = years.find('-');

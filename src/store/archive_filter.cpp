@@ -15,7 +15,7 @@ std::string tidy_folder(std::string f) {
 
 // Each word of `wanted` (split at spaces, commas and semicolons) occurs in `author`, in any
 // order: "George Eliot" finds "Eliot, George [pseud.]", as catalogues invert names.
-bool author_matches(const std::string& author, const std::string& wanted) {
+bool one_author_matches(std::string_view author, const std::string& wanted) {
   std::size_t start = 0;
   bool any_word = false;
   while (start < wanted.size()) {
@@ -28,6 +28,18 @@ bool author_matches(const std::string& author, const std::string& wanted) {
     start = end + 1;
   }
   return any_word || caseless_contains(author, wanted);
+}
+
+// One of the authors (joined by "; ", join_authors) holds every word: "Anna Schmidt" does not
+// find "Anna Müller; Karl Schmidt".
+bool author_matches(const std::string& authors, const std::string& wanted) {
+  std::size_t start = 0;
+  while (true) {
+    const std::size_t end = authors.find("; ", start);
+    if (one_author_matches(std::string_view(authors).substr(start, end - start), wanted)) return true;
+    if (end == std::string::npos) return false;
+    start = end + 2;
+  }
 }
 
 }  // namespace

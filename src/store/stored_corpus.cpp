@@ -109,9 +109,9 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     const std::string& file_sha256 = selection.sha256[f];
     bool file_listed = false;
     const auto passes = [&](const std::string& segment_language, std::size_t tokens) {
-      // A segment's own language where its text says it (xml:lang), else its file's.
+      // A segment's own language where its text says it readably (xml:lang), else its file's.
       if (!filter.language.empty() &&
-          !language.holds(segment_language.empty() ? selection.languages[f] : segment_language)) {
+          !language.holds(language.readable(segment_language) ? segment_language : selection.languages[f])) {
         ++out.segments_other_language;
         return false;
       }

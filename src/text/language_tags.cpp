@@ -18,17 +18,28 @@ std::string canonical_language_tag(std::string_view tag) {
   return out;
 }
 
+bool is_language_code(std::string_view tag) {
+  const std::string canonical = canonical_language_tag(tag);
+  const std::size_t primary = canonical.find('-');
+  const std::size_t length = primary == std::string::npos ? canonical.size() : primary;
+  return length == 2 || length == 3;
+}
+
 LanguageRange::LanguageRange(std::string_view range) : canonical_(canonical_language_tag(range)) {}
+
+const std::string& LanguageRange::canonical_of(std::string_view tag) const {
+  auto [it, fresh] = canonical_tags_.try_emplace(std::string(tag));
+  if (fresh) it->second = canonical_language_tag(tag);
+  return it->second;
+}
+
+bool LanguageRange::readable(std::string_view tag) const { return !tag.empty() && !canonical_of(tag).empty(); }
 
 bool LanguageRange::holds(std::string_view tag) const {
   if (canonical_.empty() || tag.empty()) return false;
-  auto [it, fresh] = answers_.try_emplace(std::string(tag), false);
-  if (fresh) {
-    const std::string t = canonical_language_tag(tag);
-    it->second = t == canonical_ || (t.size() > canonical_.size() && t.compare(0, canonical_.size(), canonical_) == 0 &&
-                                     t[canonical_.size()] == '-');
-  }
-  return it->second;
+  const std::string& t = canonical_of(tag);
+  return t == canonical_ ||
+         (t.size() > canonical_.size() && t.compare(0, canonical_.size(), canonical_) == 0 && t[canonical_.size()] == '-');
 }
 
 }  // namespace manicule

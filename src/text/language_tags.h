@@ -11,8 +11,12 @@
 namespace manicule {
 
 // The canonical tag in lower case ("eng" -> "en", "DE-at" -> "de-at"); "" for an empty or
-// undetermined tag ("und"), or one ICU cannot read.
+// undetermined tag ("und"), or one ICU cannot read ("de_AT").
 std::string canonical_language_tag(std::string_view tag);
+
+// Whether `tag` names a language by an ISO 639 code of two or three letters, with or without
+// further subtags: "de", "ger", "en-GB", not "german" (well-formed BCP 47, but no code).
+bool is_language_code(std::string_view tag);
 
 // A language range to filter by, such as a user's --language: which tags it holds.
 class LanguageRange {
@@ -22,10 +26,13 @@ class LanguageRange {
   // Whether `tag`, canonical, is the range or extends it by further subtags. An empty or
   // undetermined tag lies in no range.
   bool holds(std::string_view tag) const;
+  // Whether `tag` can be read as a language at all (canonical_language_tag is not empty).
+  bool readable(std::string_view tag) const;
 
  private:
+  const std::string& canonical_of(std::string_view tag) const;
   std::string canonical_;
-  mutable std::unordered_map<std::string, bool> answers_;  // tags seen so far (a handful)
+  mutable std::unordered_map<std::string, std::string> canonical_tags_;  // tags seen so far (a handful)
 };
 
 }  // namespace manicule

@@ -134,6 +134,15 @@ with tempfile.TemporaryDirectory() as tmp:
     want = {p for p, a in novel_authors.items() if all(w in a.casefold() for w in ("george", "eliot"))}
     mtest.check(len(want) >= 2 and got == want, "--author 'George Eliot': analysed %r, Python finds %r (%s)" % (
         sorted(map(os.path.basename, got)), sorted(map(os.path.basename, want)), stderr.strip()))
+    # The words must all be in one author's name: of the plays' joint authors
+    # ("Arno Holz; Johannes Schlaf"), "Holz Arno" finds them and "Arno Schlaf" does not.
+    for words in (["Holz", "Arno"], ["Arno", "Schlaf"]):
+        got, stderr = analysed_files(plays, ["--author", " ".join(words)])
+        want = {p for p in authors if any(all(w.casefold() in a.casefold() for w in words)
+                                          for a in authors[p].split("; "))} & with_any
+        mtest.check(got == want and (len(want) >= 1) == (words[1] == "Arno"),
+                    "--author %r: analysed %r, Python finds %r" % (" ".join(words), sorted(map(os.path.basename, got)),
+                                                                  sorted(map(os.path.basename, want))))
     # A title pattern matches whole titles; the refusal says how to find a word inside one.
     proc = mtest.run(["analyse-store", "--store", novels, "--title", "Middlemarch"], check=False)
     mtest.check(proc.returncode == 4 and "'*Middlemarch*'" in proc.stderr,
@@ -198,8 +207,10 @@ with tempfile.TemporaryDirectory() as tmp:
             os.path.basename(path), language, want))
     got, stderr = analysed_files(mixed, ["--language", "en-GB"], "1500")
     mtest.check(not got and "is in language en-GB" in stderr, "--language en-GB took %r: %s" % (got, stderr))
-    proc = mtest.run(["analyse-store", "--store", mixed, "--language", "x-private"], check=False)
-    mtest.check(proc.returncode == 2 and "--language x-private: not a language tag" in proc.stderr,
-                "a tag without a language: exit %d, %s" % (proc.returncode, proc.stderr))
+    # No ISO 639 code: a private-use tag, and a language's name (well-formed BCP 47, but no code).
+    for value in ("x-private", "german"):
+        proc = mtest.run(["analyse-store", "--store", mixed, "--language", value], check=False)
+        mtest.check(proc.returncode == 2 and ("--language %s: not a language code" % value) in proc.stderr,
+                    "--language %s: exit %d, %s" % (value, proc.returncode, proc.stderr))
 
 mtest.done()

@@ -63,7 +63,8 @@ TEST_CASE("caseless_code_points folds each character as CaseFolding.txt's C and 
 }
 
 TEST_CASE("caseless_contains and caseless_pattern_match", "[caseless]") {
-  // Worked examples, common practice for shell patterns ('*' any run, '?' one character).
+  // Worked examples (common practice for shell patterns, no source: '*' any run, '?' one
+  // character).
   CHECK(caseless_contains("Ödön von Horváth", "ÖDÖN"));
   CHECK(caseless_contains("Ödön von Horváth", "horváth"));
   CHECK_FALSE(caseless_contains("Ödön von Horváth", "horvath"));  // accents are not letter case
@@ -87,9 +88,10 @@ TEST_CASE("each ISO 639-2 language has one canonical tag for all its codes", "[l
   const std::string content = read_whole_file(path, ok);
   if (!ok) FAIL("cannot read " << path << ": install Debian's iso-codes package");
   const auto table = nlohmann::json::parse(content).at("639-2");
-  // CLDR's language aliases (ICU 72) put a few codes under another language's (Bihari under
-  // Bhojpuri, Tagalog under Filipino, Twi under Akan); for every other language with a
-  // two-letter code, that code is the canonical tag. From the data, not from a standard.
+  // CLDR's language aliases (common/supplemental/supplementalMetadata.xml, languageAlias;
+  // from memory, not read here) put a few codes under another language's: Bihari under
+  // Bhojpuri, Tagalog under Filipino, Twi under Akan. For every other language with a
+  // two-letter code, that code is the canonical tag.
   const std::map<std::string, std::string> replaced{{"bh", "bho"}, {"tl", "fil"}, {"tw", "ak"}};
   std::size_t languages = 0;
   for (const auto& entry : table) {
@@ -124,6 +126,12 @@ TEST_CASE("a language range holds the tags that extend it (RFC 4647 3.3.1)", "[l
   CHECK_FALSE(LanguageRange("en").holds("enm"));  // Middle English is another language
   CHECK_FALSE(LanguageRange("de").holds(""));     // unknown lies in no range
   CHECK(canonical_language_tag("x-private").empty());
+  CHECK(canonical_language_tag("de_AT").empty());  // '_' is no BCP 47 separator (RFC 5646 2.1)
+  // A language's name is well-formed BCP 47 (5-8 letters) but no ISO 639 code.
+  CHECK_FALSE(is_language_code("german"));
+  CHECK(is_language_code("ger"));
+  CHECK(is_language_code("en-GB"));
+  CHECK_FALSE(is_language_code("x-private"));
   CHECK(canonical_language_tag("und").empty());
   CHECK(canonical_language_tag("e!").empty());
 }
