@@ -46,7 +46,7 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
       std::cout << "settings\tfiles\treader\tselection\ttokenizer\tfeatures\n";
       for (const auto& s : store::list_settings(*db))
         std::cout << s.id << '\t' << s.files << '\t'
-                  << (s.this_reader ? "this version" : "an earlier version (batch reads the files again)") << '\t'
+                  << (s.this_reader ? "this version" : "another version (batch reads the files again)") << '\t'
                   << s.settings.selection << '\t' << s.settings.tokenizer << '\t' << s.settings.features << '\n';
       return 0;
     }
@@ -58,7 +58,7 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
     if (!chosen) throw Error(ErrorKind::usage, "the store has no settings " + std::to_string(settings_id) + " (see --list-settings)");
     if (!chosen->this_reader)
       std::cerr << "manicule: note: the counts and headers of settings " << settings_id
-                << " were read by an earlier version of manicule, whose dates and counts may differ;"
+                << " were read by another version of manicule, whose dates and counts may differ;"
                    " batch with the same options reads the files again\n";
 
     Request request;

@@ -71,7 +71,8 @@ std::vector<StoredSettings> list_settings(Database& db) {
   std::vector<StoredSettings> out;
   Statement all = db.prepare(
       "SELECT settings_id, key, unit, selection, tokenizer, features, request, "
-      "(SELECT count(*) FROM readings r WHERE r.settings_id = s.settings_id) FROM settings s ORDER BY settings_id");
+      "(SELECT count(*) FROM files f WHERE EXISTS (SELECT 1 FROM readings r WHERE r.settings_id = s.settings_id "
+      "AND r.sha256 = f.sha256)) FROM settings s ORDER BY settings_id");
   while (all.step()) {
     StoredSettings row;
     row.id = all.int64_at(0);

@@ -28,8 +28,8 @@ struct ReadingSettings {
 struct StoredSettings {
   std::int64_t id = 0;
   ReadingSettings settings;
-  std::size_t files = 0;         // contents read under them (rows of readings)
-  bool this_reader = false;      // keyed as this manicule keys them: batch reuses their counts
+  std::size_t files = 0;         // files of the archive whose content was read under them
+  bool this_reader = false;      // keyed as this manicule keys them (else another version's): batch reuses their counts
 };
 
 ReadingSettings reading_settings(const Request& request);

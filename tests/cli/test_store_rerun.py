@@ -8,8 +8,9 @@ recorded with its error, the run goes on and exits 1, also on the next run (whic
 not read it again); a deleted file leaves the files table. A store held by another
 connection is refused with exit code 5 and a clear message; two batch runs started at
 once either both finish or the second refuses, and the store ends as a clean run's.
-analyse-store --list-settings counts the files read under each settings as SQL does and
-tells counts this version reuses from those keyed otherwise (an earlier version's).
+analyse-store --list-settings counts the files read under each settings as os.walk finds
+them (not the contents stored, which an edit makes one more) and tells counts this version
+reuses from those keyed otherwise (another version's).
 Outside references: Python's hashlib for SHA-256, lxml for the malformed file being
 malformed, SQLite's own exclusive lock held through Python's sqlite3 module, os.path.relpath
 for the paths relative to the folder named.
@@ -196,26 +197,33 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check(lines[0].split("\t")[:3] == ["settings", "files", "reader"], "listing header: %r" % lines[0])
         return {int(l.split("\t")[0]): l.split("\t") for l in lines[1:]}
 
-    db = storecheck.connect(listed)
-    read_under = dict(db.execute("SELECT settings_id, count(*) FROM readings GROUP BY settings_id"))
-    db.close()
+    # One play edited after it was read, then read again under the first settings only: its
+    # old content stays stored there too, but the archive holds three files (os.walk), whose
+    # present contents the first settings hold all of and the others two of.
+    on_disk = [os.path.join(d, f) for d, _, fs in os.walk(nested) for f in fs if f.endswith(".xml")]
+    edited = sorted(on_disk)[0]
+    with open(edited, "a", encoding="utf-8") as f:
+        f.write("<!-- edited -->\n")
+    mtest.run(["batch", nested, "--store", listed, "--quiet"] + option_sets[0])
     rows = settings_listing()
-    mtest.check(len(rows) == 3 and all(int(rows[i][1]) == read_under[i] == 3 and rows[i][2] == "this version"
-                                       for i in rows), "the listing of three settings: %r, SQL %r" % (rows, read_under))
+    expected = {1: len(on_disk), 2: len(on_disk) - 1, 3: len(on_disk) - 1}
+    mtest.check(len(on_disk) == 3 and {i: int(r[1]) for i, r in rows.items()} == expected and
+                all(r[2] == "this version" for r in rows.values()),
+                "the listing of three settings over %d files: %r" % (len(on_disk), rows))
     db = storecheck.connect(listed)
-    db.execute("UPDATE settings SET key = 'keyed by an earlier version' WHERE settings_id = 2")
+    db.execute("UPDATE settings SET key = 'keyed by another version' WHERE settings_id = 2")
     db.commit()
     db.close()
     rows = settings_listing()
-    mtest.check(rows[2][2].startswith("an earlier version") and rows[1][2] == rows[3][2] == "this version",
+    mtest.check(rows[2][2].startswith("another version") and rows[1][2] == rows[3][2] == "this version",
                 "after the key changed: %r" % rows)
     proc = mtest.run(["analyse-store", "--store", listed, "--settings", "2", "--min-tokens", "10"], check=False)
-    mtest.check("settings 2 were read by an earlier version of manicule" in proc.stderr,
-                "analyse-store on an earlier version's counts says nothing: %s" % proc.stderr)
+    mtest.check("settings 2 were read by another version of manicule" in proc.stderr,
+                "analyse-store on another version's counts says nothing: %s" % proc.stderr)
     proc = mtest.run(["analyse-store", "--store", listed, "--settings", "1", "--min-tokens", "10"], check=False)
-    mtest.check("earlier version" not in proc.stderr, "this version's counts said to be older: %s" % proc.stderr)
+    mtest.check("another version" not in proc.stderr, "this version's counts said to be another's: %s" % proc.stderr)
     mtest.run(["batch", nested, "--store", listed, "--quiet"] + option_sets[1])
     run = storecheck.last_run(listed)
-    mtest.check(run["files_read"] == 3, "the settings of an earlier version were reused: %r" % run)
+    mtest.check(run["files_read"] == 3, "the settings of another version were reused: %r" % run)
 
 mtest.done()
