@@ -45,9 +45,12 @@ std::string why_not_writable(const std::string& path) {
   namespace fs = std::filesystem;
   std::error_code ec;
   if (::access(path.c_str(), W_OK) != 0) return "no permission to write it";
-  const fs::path parent = fs::path(path).has_parent_path() ? fs::path(path).parent_path() : fs::path(".");
-  if (::access(parent.c_str(), W_OK | X_OK) != 0 && !fs::exists(path + "-wal", ec))
-    return "SQLite writes its log (" + fs::path(path).filename().string() + "-wal) beside the store, and the folder " +
+  // SQLite follows a link to the store and keeps its log beside the file it leads to.
+  fs::path file = fs::canonical(path, ec);
+  if (ec) file = fs::path(path);
+  const fs::path parent = file.has_parent_path() ? file.parent_path() : fs::path(".");
+  if (::access(parent.c_str(), W_OK | X_OK) != 0 && !fs::exists(file.string() + "-wal", ec))
+    return "SQLite writes its log (" + file.filename().string() + "-wal) beside the store, and the folder " +
            parent.string() + " allows no new file";
   return "";
 }

@@ -5,7 +5,7 @@ failed as "disk I/O error" or "attempt to write a readonly database". Two cases,
 batch, analyse-store and merge (which writes runs and results into the store, or reads a
 shard): the store file itself is read-only (chmod 0444); the file may be written but its
 folder allows no new file, where SQLite must create its log (FILE-wal, SQLite's WAL
-documentation). Each must exit 5 (cannot write) with a message naming the store and the
+documentation), also when the store is named through a link from a folder that does. Each must exit 5 (cannot write) with a message naming the store and the
 cause, and leave the store's bytes unchanged (hashlib). The premise is checked with
 coreutils' test -w and test -w on the folder, run as the same user (tests/pylib/as_nobody.py).
 """
@@ -54,7 +54,11 @@ try:
     in_closed = os.path.join(closed_folder, "archive.sqlite")
     shutil.copy(original, in_closed)
     os.chmod(in_closed, WRITABLE)
-    os.chmod(closed_folder, as_nobody.OPEN)
+    os.chmod(closed_folder, 0o555)  # no new file, for the owner too
+    # A link to that store from a folder that allows new files: SQLite follows it and
+    # writes its log beside the file it leads to.
+    linked = os.path.join(open_folder, "linked.sqlite")
+    os.symlink(in_closed, linked)
 
     mtest.check(manicule("test", "-w", read_only, command=False).returncode != 0,
                 "the user may write the read-only store: the test means nothing")
@@ -63,9 +67,8 @@ try:
                 "the store in the closed folder is not writable, or its folder is")
 
     merged = os.path.join(open_folder, "merged.sqlite")
-    for store, cause in ((read_only, "no permission to write it"),
-                         (in_closed, "archive.sqlite-wal) beside the store, and the folder %s allows no new file"
-                          % closed_folder)):
+    closed_cause = "archive.sqlite-wal) beside the store, and the folder %s allows no new file" % closed_folder
+    for store, cause in ((read_only, "no permission to write it"), (in_closed, closed_cause), (linked, closed_cause)):
         before = digest(store)
         for args in (["batch", archive, "--store", store, "--unit", "speaker", "--quiet"],
                      ["analyse-store", "--store", store, "--min-tokens", "200"],
