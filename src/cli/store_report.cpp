@@ -22,10 +22,12 @@ void report_failures(std::ostream& err, const store::BatchSummary& s) {
 }
 
 void report_left_aside(std::ostream& err, const store::BatchSummary& s) {
-  if (!s.left_aside.count) return;
-  err << "manicule: note: " << s.left_aside.count
-      << " other file(s) below the folders left aside, such as " << s.left_aside.first
-      << " (a folder's files are read when named *.xml or *.tei)\n";
+  if (s.left_aside.count)
+    err << "manicule: note: " << s.left_aside.count << " other file(s) below the folders left aside, such as "
+        << s.left_aside.first << " (a folder's files are read when named *.xml or *.tei)\n";
+  if (s.left_aside.hidden)
+    err << "manicule: note: " << s.left_aside.hidden << " hidden file(s) or folder(s) passed by, such as "
+        << s.left_aside.first_hidden << "\n";
 }
 
 void report_analysis(std::ostream& out, std::ostream& err, const store::StoreAnalysisResult& r) {

@@ -13,7 +13,8 @@ namespace manicule::cli {
 
 void report_batch(std::ostream& out, const std::string& store, const store::BatchSummary& summary);
 void report_failures(std::ostream& err, const store::BatchSummary& summary);
-// How many files below the input folders were not taken for TEI by their names, with one.
+// How many files below the input folders were not taken for TEI by their names, and how
+// many hidden ones were passed by, with one of each.
 void report_left_aside(std::ostream& err, const store::BatchSummary& summary);
 void report_analysis(std::ostream& out, std::ostream& err, const store::StoreAnalysisResult& result);
 void report_merge(std::ostream& out, const std::string& input, const store::MergeSummary& summary);

@@ -19,8 +19,8 @@ namespace {
 // Adds the files below `folder` whose names say TEI to `found`, folder by folder (symbolic
 // links to folders are not followed; links to files are; hidden files and folders, named
 // with a leading dot, are passed by). A folder that cannot be listed goes to `unlisted`,
-// or, without it, stops the walk with an error naming it. Other regular files are counted
-// in `left_aside`, when given.
+// or, without it, stops the walk with an error naming it. Other regular files, and hidden
+// entries, are counted in `left_aside`, when given.
 void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::vector<UnlistedFolder>* unlisted,
                  LeftAside* left_aside) {
   std::error_code ec;
@@ -29,7 +29,11 @@ void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::v
     std::error_code type_ec;  // a dangling link is no folder, nor a file to read
     const fs::path& path = it->path();
     // Hidden by their names (.git, a Mac's ._letter.xml beside letter.xml): not the archive's.
-    if (path.filename().string().front() == '.') continue;
+    if (path.filename().string().front() == '.') {
+      if (left_aside && (left_aside->hidden++ == 0 || path.string() < left_aside->first_hidden))
+        left_aside->first_hidden = path.string();
+      continue;
+    }
     if (it->is_directory(type_ec) && !it->is_symlink(type_ec)) {
       subfolders.push_back(path);
       continue;

@@ -45,10 +45,12 @@ struct UnlistedFolder {
 };
 
 // Files below an input folder that a folder's walk does not take by their names: how many,
-// and the first of them in path order.
+// and the first of them in path order; and the hidden files and folders it passes by.
 struct LeftAside {
   std::size_t count = 0;
   std::string first;
+  std::size_t hidden = 0;
+  std::string first_hidden;
 };
 
 // Whether a folder's walk takes a file by its name: *.xml or *.tei, letter case ignored

@@ -156,8 +156,9 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     nlohmann::json parameters = run_parameters(request, options, settings);
     for (const auto& folder : summary.unlisted)  // kept with the run, for whoever reads the table later
       parameters["unlisted_folders"].push_back({{"path", folder.path}, {"reason", folder.reason}});
-    if (summary.left_aside.count)
-      parameters["left_aside"] = {{"files", summary.left_aside.count}, {"first", summary.left_aside.first}};
+    if (summary.left_aside.count || summary.left_aside.hidden)
+      parameters["left_aside"] = {{"files", summary.left_aside.count}, {"first", summary.left_aside.first},
+                                  {"hidden", summary.left_aside.hidden}, {"first_hidden", summary.left_aside.first_hidden}};
     summary.run_id = begin_run(db, "batch", summary.settings_id, parameters);
     t.commit();
   }

@@ -55,7 +55,14 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(stored == set(taken), "batch stored %r, os.walk by the rule gives %r" % (sorted(stored), sorted(taken)))
     note = "%d other file(s) below the folders left aside, such as %s" % (len(other), sorted(other)[0])
     mtest.check(note in proc.stderr, "the note on files left aside: %r, expected %r" % (proc.stderr, note))
-    mtest.check(parameters.get("left_aside") == {"files": len(other), "first": sorted(other)[0]},
+    hidden = sorted(os.path.join(root, n) for root, folders, files in os.walk(archive)
+                    for n in folders + files if n.startswith(".") and not any(
+                        part.startswith(".") for part in os.path.relpath(root, archive).split(os.sep) if part != "."))
+    mtest.check(len(hidden) == 2, "the test's own hidden entries: %r" % hidden)  # .git and 1870/._a.xml
+    note = "%d hidden file(s) or folder(s) passed by, such as %s" % (len(hidden), hidden[0])
+    mtest.check(note in proc.stderr, "the note on hidden entries: %r, expected %r" % (proc.stderr, note))
+    mtest.check(parameters.get("left_aside") == {"files": len(other), "first": sorted(other)[0],
+                                                 "hidden": len(hidden), "first_hidden": hidden[0]},
                 "the run records %r" % parameters.get("left_aside"))
 
     proc = mtest.run(["segments", archive, "--unit", "letter", "--format", "json"])
