@@ -23,25 +23,27 @@ namespace {
 // entries, are counted in `left_aside`, when given.
 void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::vector<UnlistedFolder>* unlisted,
                  LeftAside* left_aside) {
+  // Counts `path` in `count`, keeping in `first` the first such path in path order.
+  const auto tally = [](const fs::path& path, std::size_t& count, std::string& first) {
+    if (count++ == 0 || path.string() < first) first = path.string();
+  };
   std::error_code ec;
   std::vector<fs::path> subfolders;
   for (fs::directory_iterator it(folder, ec); !ec && it != fs::directory_iterator(); it.increment(ec)) {
     std::error_code type_ec;  // a dangling link is no folder, nor a file to read
     const fs::path& path = it->path();
+    const std::string name = path.filename().string();
     // Hidden by their names (.git, a Mac's ._letter.xml beside letter.xml): not the archive's.
-    if (path.filename().string().front() == '.') {
-      if (left_aside && (left_aside->hidden++ == 0 || path.string() < left_aside->first_hidden))
-        left_aside->first_hidden = path.string();
+    if (name.front() == '.') {
+      if (left_aside) tally(path, left_aside->hidden, left_aside->first_hidden);
       continue;
     }
     if (it->is_directory(type_ec) && !it->is_symlink(type_ec)) {
       subfolders.push_back(path);
       continue;
     }
-    if (!is_tei_file_name(path.filename().string())) {
-      if (left_aside && it->is_regular_file(type_ec)) {
-        if (left_aside->count++ == 0 || path.string() < left_aside->first) left_aside->first = path.string();
-      }
+    if (!is_tei_file_name(name)) {
+      if (left_aside && it->is_regular_file(type_ec)) tally(path, left_aside->count, left_aside->first);
       continue;
     }
     const bool regular = it->is_regular_file(type_ec);

@@ -58,11 +58,12 @@ struct LeftAside {
 bool is_tei_file_name(const std::string& name);
 
 // Lists the TEI files named by `inputs` (files as given; folders searched recursively for
-// is_tei_file_name, passing by hidden files and folders, sorted). Throws Error(bad_input) for a path that does not exist. A
-// folder below an input that cannot be listed is noted in `unlisted` and the rest still
-// listed (for a batch over an archive, which goes on and keeps what it stored from there);
-// without `unlisted` it stops the listing with Error(bad_input) naming it, never left out
-// unsaid. The other files the folders hold are counted in `left_aside`, when given.
+// is_tei_file_name, passing by hidden files and folders, sorted). Throws Error(bad_input)
+// for a path that does not exist. A folder below an input that cannot be listed is noted
+// in `unlisted` and the rest still listed (for a batch over an archive, which goes on and
+// keeps what it stored from there); without `unlisted` it stops the listing with
+// Error(bad_input) naming it, never left out unsaid. The other files the folders hold, and
+// the hidden ones, are counted in `left_aside`, when given.
 std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs,
                                        std::vector<UnlistedFolder>* unlisted = nullptr,
                                        LeftAside* left_aside = nullptr);

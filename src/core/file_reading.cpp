@@ -1,7 +1,6 @@
 #include "core/file_reading.h"
 
 #include <algorithm>
-#include <cctype>
 #include <filesystem>
 #include <map>
 
@@ -27,48 +26,7 @@ std::string main_language(const std::vector<SegmentRecord>& segments) {
   return best;
 }
 
-// The one of `dates` with the earliest year; nullptr when none has a year.
-const std::string* earliest_dated(const std::vector<std::string>& dates) {
-  const std::string* earliest = nullptr;
-  for (const std::string& d : dates)
-    if (first_year(d) != 0 && (!earliest || first_year(d) < first_year(*earliest))) earliest = &d;
-  return earliest;
-}
-
-// The date of the work rather than of the file: when the text was made (creation), else
-// when its earliest letter was sent, else its earliest dated event (written, printed,
-// first performed), else its first edition, else the source's date, else the header's
-// first (docs/store.md, "Sub-corpora"). The first of these with a year wins, so that a
-// creation "in the spring" does not hide a first edition of 1850; without any year, the
-// first as written.
-std::string work_date(const HeaderInfo& h) {
-  const std::string* sent = earliest_dated(h.sent_dates);
-  const std::string* event = earliest_dated(h.event_dates);
-  if (!sent && !h.sent_dates.empty()) sent = &h.sent_dates.front();
-  if (!event && !h.event_dates.empty()) event = &h.event_dates.front();
-  const std::string* in_order[] = {&h.creation_date, sent, event, &h.first_edition_date, &h.source_date, &h.date};
-  for (const std::string* d : in_order)
-    if (d && first_year(*d) != 0) return *d;
-  for (const std::string* d : in_order)
-    if (d && !d->empty()) return *d;
-  return {};
-}
-
 }  // namespace
-
-int first_year(const std::string& date) {
-  for (std::size_t i = 0; i < date.size();) {
-    if (!std::isdigit(static_cast<unsigned char>(date[i]))) {
-      ++i;
-      continue;
-    }
-    std::size_t j = i;
-    while (j < date.size() && std::isdigit(static_cast<unsigned char>(date[j]))) ++j;
-    if (j - i == 4) return std::stoi(date.substr(i, 4));
-    i = j;
-  }
-  return 0;
-}
 
 FileReading read_file(const std::string& file, const Request& request, const SelectionRules& rules,
                       Tokenizer& tokenizer) {

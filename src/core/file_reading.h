@@ -46,7 +46,4 @@ struct FileReading {
 FileReading read_file(const std::string& file, const Request& request, const SelectionRules& rules,
                       Tokenizer& tokenizer);
 
-// "1842", "c. 1799/1800" -> 1842, 1799; 0 when no run of exactly four digits occurs.
-int first_year(const std::string& date);
-
 }  // namespace manicule

@@ -23,13 +23,18 @@ std::string message_for(int code, const std::string& path, std::string_view doin
   return "store " + path + ": " + std::string(doing) + ": " + detail;
 }
 
+// The folder a file lies in ("." for a bare name).
+std::filesystem::path folder_of(const std::filesystem::path& file) {
+  return file.has_parent_path() ? file.parent_path() : std::filesystem::path(".");
+}
+
 // Why a store cannot be opened, where SQLite says only "unable to open database file" (and
 // its saved system error is that of its last attempt, not of the cause).
 std::string why_not_openable(const std::string& path) {
   namespace fs = std::filesystem;
   std::error_code ec;
   if (fs::is_directory(path, ec)) return "it is a folder";
-  const fs::path parent = fs::path(path).has_parent_path() ? fs::path(path).parent_path() : fs::path(".");
+  const fs::path parent = folder_of(path);
   if (!fs::exists(path, ec)) {
     if (!fs::is_directory(parent, ec)) return "the folder " + parent.string() + " does not exist";
     if (::access(parent.c_str(), W_OK | X_OK) != 0) return "no permission to create a file in " + parent.string();
@@ -48,7 +53,7 @@ std::string why_not_writable(const std::string& path) {
   // SQLite follows a link to the store and keeps its log beside the file it leads to.
   fs::path file = fs::canonical(path, ec);
   if (ec) file = fs::path(path);
-  const fs::path parent = file.has_parent_path() ? file.parent_path() : fs::path(".");
+  const fs::path parent = folder_of(file);
   if (::access(parent.c_str(), W_OK | X_OK) != 0 && !fs::exists(file.string() + "-wal", ec))
     return "SQLite writes its log (" + file.filename().string() + "-wal) beside the store, and the folder " +
            parent.string() + " allows no new file";

@@ -6,9 +6,9 @@
 
 #include <nlohmann/json.hpp>
 
+#include "core/corpus.h"
 #include "core/error.h"
 #include "core/segment_id_prefixes.h"
-#include "store/archive_files.h"
 #include "store/count_blob.h"
 #include "store/store_vocabulary.h"
 #include "text/language_tags.h"

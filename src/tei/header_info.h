@@ -44,6 +44,13 @@ bool is_placeholder_name(const std::string& name);
 // The titleStmt authors as one text, "A; B" (the segments' author and the store's metadata).
 std::string join_authors(const std::vector<std::string>& authors);
 
+// "1842", "c. 1799/1800" -> 1842, 1799; 0 when no run of exactly four digits occurs.
+int first_year(const std::string& date);
+
+// The date of the work rather than of the file, as written, from the header's dates in the
+// order of the fields above, the first with a year winning (docs/store.md, "Sub-corpora").
+std::string work_date(const HeaderInfo& header);
+
 // Collapses runs of XML whitespace to one space and trims both ends.
 std::string normalise_space(const std::string& text);
 

@@ -1,4 +1,4 @@
-// Language tags as editions write them (xml:lang, langUsage/language/@ident): BCP 47 tags
+// Language tags as editions declare them for a text or a passage: BCP 47 tags
 // (RFC 5646) or bare ISO 639 codes of two or three letters, "en", "eng", "ger", "de-AT".
 // Two spellings of one language compare equal once canonical (CLDR's aliases, through ICU:
 // "eng" -> "en", "ger" and "deu" -> "de", "fre" -> "fr"), and a range holds the tags that

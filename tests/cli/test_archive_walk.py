@@ -36,13 +36,14 @@ with tempfile.TemporaryDirectory() as tmp:
         with open(os.path.join(archive, name), "w") as f:
             f.write("not TEI")
 
-    taken, other = [], []
+    taken, other, hidden = [], [], []
     for root, folders, files in os.walk(archive):
+        hidden += [os.path.join(root, n) for n in folders + files if n.startswith(".")]
         folders[:] = [d for d in folders if not d.startswith(".")]
         for name in files:
-            if name.startswith("."):
-                continue
-            (taken if name.lower().endswith((".xml", ".tei")) else other).append(os.path.join(root, name))
+            if not name.startswith("."):
+                (taken if name.lower().endswith((".xml", ".tei")) else other).append(os.path.join(root, name))
+    hidden.sort()
     by_construction = {os.path.join(archive, n) for n in ("1870/a.xml", "1870/B.XML", "c.tei")}
     mtest.check(set(taken) == by_construction and len(other) == 5, "the test's own listing: %r %r" % (taken, other))
 
@@ -55,9 +56,6 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(stored == set(taken), "batch stored %r, os.walk by the rule gives %r" % (sorted(stored), sorted(taken)))
     note = "%d other file(s) below the folders left aside, such as %s" % (len(other), sorted(other)[0])
     mtest.check(note in proc.stderr, "the note on files left aside: %r, expected %r" % (proc.stderr, note))
-    hidden = sorted(os.path.join(root, n) for root, folders, files in os.walk(archive)
-                    for n in folders + files if n.startswith(".") and not any(
-                        part.startswith(".") for part in os.path.relpath(root, archive).split(os.sep) if part != "."))
     mtest.check(len(hidden) == 2, "the test's own hidden entries: %r" % hidden)  # .git and 1870/._a.xml
     note = "%d hidden file(s) or folder(s) passed by, such as %s" % (len(hidden), hidden[0])
     mtest.check(note in proc.stderr, "the note on hidden entries: %r, expected %r" % (proc.stderr, note))

@@ -43,11 +43,21 @@ if not (os.path.isdir(PLAYS) and os.path.isdir(NOVELS)):
     sys.exit(77)
 
 
-def stored_years(store):
+def stored(store, column):
+    """{path: the store's `column` of file_list} (title, author, year, language)."""
     db = storecheck.connect(store)
-    years = {path: year for path, year in db.execute("SELECT path, year FROM file_list")}
+    values = dict(db.execute("SELECT path, %s FROM file_list" % column))
     db.close()
-    return years
+    return values
+
+
+def files_with_segments(store, min_tokens):
+    """The stored files holding a segment of at least `min_tokens` words."""
+    db = storecheck.connect(store)
+    paths = {p for (p,) in db.execute("SELECT DISTINCT f.path FROM files f JOIN segments s ON s.sha256 = f.sha256 "
+                                      "WHERE s.tokens >= ?", (min_tokens,))}
+    db.close()
+    return paths
 
 
 def analysed_files(store, args, min_tokens="1"):
@@ -64,7 +74,7 @@ with tempfile.TemporaryDirectory() as tmp:
     # Years of the novels against ELTeC's metadata.
     novels = os.path.join(tmp, "novels.sqlite")
     mtest.run(["batch", NOVELS, "--store", novels, "--unit", "chapter", "--quiet"])
-    years = {os.path.splitext(os.path.basename(p))[0]: y for p, y in stored_years(novels).items()}
+    years = {os.path.splitext(os.path.basename(p))[0]: y for p, y in stored(novels, "year").items()}
     with open(os.path.join(mtest.CORPORA, "eltec-eng-metadata.tsv"), newline="", encoding="utf-8") as f:
         metadata = {row["filename"]: row for row in csv.DictReader(f, delimiter="\t")}
     expected = {}
@@ -78,7 +88,7 @@ with tempfile.TemporaryDirectory() as tmp:
     # Years of the plays against lxml; the edition's year would differ for many.
     plays = os.path.join(tmp, "plays.sqlite")
     mtest.run(["batch", PLAYS, "--store", plays, "--unit", "speaker", "--quiet"])
-    stored = stored_years(plays)
+    stored_year = stored(plays, "year")
     lxml_years, edition_years = {}, {}
     for path in sorted(glob.glob(os.path.join(PLAYS, "*.xml"))):
         root = etree.parse(path).getroot()
@@ -87,33 +97,25 @@ with tempfile.TemporaryDirectory() as tmp:
         source = header.find("%sfileDesc/%ssourceDesc" % (TEI, TEI))
         first = next(source.iter(TEI + "date"), None) if source is not None else None
         edition_years[path] = year_of(date_value(first)) if first is not None else None
-    wrong = {os.path.basename(p): (stored[p], lxml_years[p]) for p in lxml_years if (stored[p] or None) != lxml_years[p]}
-    mtest.check(len(stored) == len(lxml_years) == 773 and not wrong,
+    wrong = {os.path.basename(p): (stored_year[p], lxml_years[p]) for p in lxml_years if (stored_year[p] or None) != lxml_years[p]}
+    mtest.check(len(stored_year) == len(lxml_years) == 773 and not wrong,
                 "%d plays stored with another year than lxml reads: %r" % (len(wrong), dict(list(wrong.items())[:10])))
     later_editions = sum(1 for p in lxml_years if edition_years[p] and lxml_years[p] and edition_years[p] > lxml_years[p])
     mtest.check(later_editions >= 100, "only %d plays date their source edition after the work: the check "
                 "above would not tell the two apart" % later_editions)
     # e.g. Scheerbart's "Der Regierungswechsel": printed 1897, taken from an edition of 1977.
-    mtest.check(stored[os.path.join(PLAYS, "scheerbart-der-regierungswechsel.xml")] == 1897,
+    mtest.check(stored_year[os.path.join(PLAYS, "scheerbart-der-regierungswechsel.xml")] == 1897,
                 "Der Regierungswechsel is not dated 1897")
 
-    db = storecheck.connect(plays)
-    with_segments = {p for (p,) in db.execute(
-        "SELECT DISTINCT f.path FROM files f JOIN segments s ON s.sha256 = f.sha256 WHERE s.tokens >= 1500")}
-    db.close()
+    with_segments = files_with_segments(plays, 1500)
     got, _ = analysed_files(plays, ["--years", "1890-1900"], "1500")
     want = {p for p, y in lxml_years.items() if y and 1890 <= y <= 1900} & with_segments
     mtest.check(len(want) >= 20 and got == want, "--years 1890-1900: %d files analysed, lxml dates %d in range: %r" % (
         len(got), len(want), sorted(os.path.basename(p) for p in got ^ want)[:10]))
 
     # Letter case in any script, on the plays' authors and titles.
-    titles, authors = {}, {}
-    db = storecheck.connect(plays)
-    for path, title, author in db.execute("SELECT path, title, author FROM file_list"):
-        titles[path], authors[path] = title, author
-    with_any = {p for (p,) in db.execute(
-        "SELECT DISTINCT f.path FROM files f JOIN segments s ON s.sha256 = f.sha256 WHERE s.tokens >= 1")}
-    db.close()
+    titles, authors = stored(plays, "title"), stored(plays, "author")
+    with_any = files_with_segments(plays, 1)
     for args, keep in [
         (["--author", "ÖDÖN"], lambda p: "ödön" in authors[p].casefold()),
         (["--author", "HORVÁTH"], lambda p: "horváth" in authors[p].casefold()),
@@ -127,9 +129,7 @@ with tempfile.TemporaryDirectory() as tmp:
             args, sorted(map(os.path.basename, got)), sorted(map(os.path.basename, want)), stderr.strip()))
 
     # Inverted names: each word of --author, in any order, as Python finds them.
-    db = storecheck.connect(novels)
-    novel_authors = dict(db.execute("SELECT path, author FROM file_list"))
-    db.close()
+    novel_authors = stored(novels, "author")
     got, stderr = analysed_files(novels, ["--author", "George Eliot"])
     want = {p for p, a in novel_authors.items() if all(w in a.casefold() for w in ("george", "eliot"))}
     mtest.check(len(want) >= 2 and got == want, "--author 'George Eliot': analysed %r, Python finds %r (%s)" % (
@@ -174,9 +174,7 @@ with tempfile.TemporaryDirectory() as tmp:
         shutil.copy(os.path.join(NOVELS, name), archive)
     mixed = os.path.join(tmp, "mixed.sqlite")
     mtest.run(["batch", archive, "--store", mixed, "--unit", "whole", "--quiet"])
-    db = storecheck.connect(mixed)
-    declared = dict(db.execute("SELECT path, language FROM file_list"))
-    db.close()
+    declared = stored(mixed, "language")
     mtest.check(all(declared[p] == "ger" for p in stripped), "the copies' declared language: %r" %
                 {os.path.basename(p): declared[p] for p in stripped})
     german = {p for p in declared if os.path.basename(p) in picked_plays[:5]} | set(stripped)
@@ -196,9 +194,7 @@ with tempfile.TemporaryDirectory() as tmp:
     # language: langUsage's, else its TEI element's xml:lang, as lxml reads them.
     no_letters = os.path.join(tmp, "no-letters.sqlite")
     mtest.run(["batch", archive, "--store", no_letters, "--unit", "letter", "--quiet"])
-    db = storecheck.connect(no_letters)
-    languages = dict(db.execute("SELECT path, language FROM file_list"))
-    db.close()
+    languages = stored(no_letters, "language")
     for path, language in languages.items():
         root = etree.parse(path).getroot()
         # langUsage's language of highest @usage (the first of equals), TEI P5 2.4.2.
