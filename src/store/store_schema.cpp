@@ -223,7 +223,9 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
 }
 
 void remove_store_files(const std::string& path) {
-  for (const char* suffix : {"", "-wal", "-shm", "-journal"}) std::filesystem::remove(path + suffix);
+  // Called while another error is on its way: a file that cannot go stays, unsaid.
+  std::error_code ec;
+  for (const char* suffix : {"", "-wal", "-shm", "-journal"}) std::filesystem::remove(path + suffix, ec);
 }
 
 }  // namespace manicule::store
