@@ -26,7 +26,7 @@ void ArchiveFilterOptions::add_to(CLI::App& command) {
       ->group("Sub-corpus");
   command.add_option("--author", author, "only files whose header authors hold each word of this text (any order, letter case ignored)")
       ->group("Sub-corpus");
-  command.add_option("--years", years, "only files whose work is dated in FROM-TO (1800-1850, 1800-, -1850; docs/store.md)")
+  command.add_option("--years", years, "only segments dated in FROM-TO (1800-1850, 1800-, -1850): a letter by its own date, else by its file's (the work's; docs/store.md)")
       ->group("Sub-corpus");
   command.add_option("--language", language, "only segments in this language, their own or else their file's (de, en, eng, en-GB)")
       ->group("Sub-corpus");

@@ -66,7 +66,7 @@ CommandRunner add_segments_command(CLI::App& app) {
                            {"file", r.segment.file},           {"unit", r.segment.unit},
                            {"language", r.segment.language},   {"pointers", r.segment.pointers},
                            {"author", r.segment.author},       {"authorship", authorship_name(r.segment.authorship)},
-                           {"warnings", r.segment.warnings}};
+                           {"date", r.segment.date},           {"warnings", r.segment.warnings}};
         if (*show_text) {
           nlohmann::json runs = nlohmann::json::array();
           for (const auto& run : r.segment.runs) runs.push_back({{"language", run.language}, {"text", run.text}});
@@ -79,13 +79,13 @@ CommandRunner add_segments_command(CLI::App& app) {
     } else {
       write_tsv_parameters(std::cout, provenance_pairs(make_provenance(request, corpus)));
       std::vector<std::string> header{"segment", "label", "tokens", "types", "file", "unit",
-                                      "language", "pointer", "author", "authorship", "warnings"};
+                                      "language", "pointer", "author", "authorship", "date", "warnings"};
       if (*show_text) header.push_back("text");
       write_tsv_row(std::cout, header);
       for (const auto& r : corpus.segments) {
         std::vector<std::string> row{r.segment.id, r.segment.label, std::to_string(r.tokens), std::to_string(r.types),
                                      r.segment.file, r.segment.unit, r.segment.language, join(r.segment.pointers, " "),
-                                     r.segment.author, authorship_name(r.segment.authorship),
+                                     r.segment.author, authorship_name(r.segment.authorship), r.segment.date,
                                      join(r.segment.warnings, "; ")};
         if (*show_text) row.push_back(joined_text(r.segment));
         write_tsv_row(std::cout, row);

@@ -27,6 +27,11 @@ struct Segment {
   std::vector<std::string> pointers;
   std::string author;      // author or speaker key from the edition ("" if none)
   Authorship authorship = Authorship::unknown;
+  // When the edition dates this segment apart from its file, as written: a letter's
+  // sending (its correspDesc, else its dateline), a TEI of a corpus by its own header.
+  // "" when only the file is dated (FileMetadata::date).
+  std::string date;
+  int year = 0;            // the first four-digit year in `date`; 0 when there is none
   std::vector<TextRun> runs;
   std::vector<std::string> warnings;  // what the reader noticed (unpaired letter, ...)
 };

@@ -66,6 +66,16 @@ std::string ArchiveFilter::describe() const {
   return out;
 }
 
+bool ArchiveFilter::year_matches(int year) const {
+  if (!asks_years()) return true;
+  return year != 0 && (!year_from || year >= year_from) && (!year_to || year <= year_to);
+}
+
+bool ArchiveFilter::years_overlap(int first, int last) const {
+  if (!asks_years()) return true;
+  return first != 0 && (!year_from || last >= year_from) && (!year_to || first <= year_to);
+}
+
 bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::string& relative_path) {
   if (filter.folder.empty()) return true;
   std::string folder = tidy_folder(filter.folder);
@@ -76,9 +86,6 @@ bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::
 
 bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {
   if (!filter.author.empty() && !author_matches(m.author, filter.author)) return false;
-  if ((filter.year_from || filter.year_to) && m.year == 0) return false;
-  if (filter.year_from && m.year < filter.year_from) return false;
-  if (filter.year_to && m.year > filter.year_to) return false;
   if (!filter.title.empty() && !caseless_pattern_match(filter.title, m.title)) return false;
   return true;
 }

@@ -13,12 +13,19 @@ namespace manicule::store {
 struct ArchiveFilter {
   std::string folder;    // only files inside this folder (relative to an input folder, or as a path)
   std::string author;    // the header's authors hold each word of this text, in any order
-  int year_from = 0;     // the header's year is at least this (0 = no lower bound)
-  int year_to = 0;       // ... at most this (0 = no upper bound); files without a year are left out
+  // Years: a segment's own where the edition dates it apart from its file (a letter), else
+  // its file's (the work's date from the header); segments without either are left out.
+  int year_from = 0;     // the year is at least this (0 = no lower bound)
+  int year_to = 0;       // ... at most this (0 = no upper bound)
   std::string language;  // the segment's language, else its file's, lies in this range (de, en, eng, en-GB)
   std::string title;     // the header's title matches this shell pattern (* and ?), e.g. "*Brief*"
 
   bool selects_by_header() const;
+  bool asks_years() const { return year_from || year_to; }
+  // Whether `year` lies in the range (true when no range is asked; 0, no year, never does).
+  bool year_matches(int year) const;
+  // Whether some year of first..last lies in the range (0, 0: no years).
+  bool years_overlap(int first, int last) const;
   bool empty() const { return folder.empty() && !selects_by_header(); }
   // "author~goethe year=1800-1830", "" when empty; recorded with each analysis run.
   std::string describe() const;
@@ -28,7 +35,8 @@ bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::
 
 // Whether `path` lies below `folder` (a prefix ending at a '/', of the path or the folder).
 bool starts_with_folder(const std::string& path, const std::string& folder);
-// The file-level header tests: author, year, title (language is tested per segment).
+// The file-level header tests: author and title. Years and language are tested per
+// segment (a letter may be dated, or written in a language, apart from its file).
 bool header_matches(const ArchiveFilter& filter, const FileMetadata& metadata);
 
 }  // namespace manicule::store

@@ -28,11 +28,12 @@ ReadingWriter::ReadingWriter(Database& db, std::int64_t settings_id)
           "read_error = excluded.read_error")),
       insert_reading_(db.prepare(
           "INSERT OR IGNORE INTO readings (settings_id, sha256, bytes, status, error, error_kind, title, author, date, "
-          "year, language, segments, tokens, run_id) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14)")),
+          "year, language, segments, tokens, run_id, first_segment_year, last_segment_year) "
+          "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16)")),
       insert_segment_(db.prepare(
           "INSERT INTO segments (settings_id, sha256, ordinal, local_id, unit, label, language, author, authorship, "
-          "pointers, warnings, tokens, types, feature_total, counts) "
-          "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15)")) {}
+          "pointers, warnings, tokens, types, feature_total, counts, date, year) "
+          "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17)")) {}
 
 void ReadingWriter::write_file(const ArchiveFile& file, const std::string& sha256, const std::string& read_error) {
   upsert_file_.bind(1, file.path).bind(2, file.relative_path).bind(3, file_stem(file.path));
@@ -85,7 +86,14 @@ void ReadingWriter::rank_file_ids_by_store_id() {
 
 void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
   std::size_t tokens = 0;
-  for (const auto& s : r.segments) tokens += s.tokens;
+  int first_segment_year = 0, last_segment_year = 0;  // of those dated apart from the file
+  for (const auto& s : r.segments) {
+    tokens += s.tokens;
+    if (const int year = s.segment.year) {
+      first_segment_year = first_segment_year ? std::min(first_segment_year, year) : year;
+      last_segment_year = std::max(last_segment_year, year);
+    }
+  }
   auto& q = insert_reading_;
   q.bind(1, settings_id_).bind(2, r.sha256).bind(3, r.bytes).bind(4, r.failed ? "failed" : "ok");
   if (r.failed) q.bind(5, r.failure.message).bind(6, r.failure.kind); else q.bind_null(5).bind_null(6);
@@ -93,6 +101,8 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
   if (r.metadata.year) q.bind(10, r.metadata.year); else q.bind_null(10);
   q.bind(11, r.metadata.language).bind(12, r.failed ? 0 : r.segments.size()).bind(13, r.failed ? 0 : tokens);
   q.bind(14, run_id);
+  if (first_segment_year) q.bind(15, first_segment_year).bind(16, last_segment_year);
+  else q.bind_null(15).bind_null(16);
   q.step_to_end();
   // Nothing inserted: this content is stored already (the same file twice in the archive).
   if (db_.changes() == 0 || r.failed) return;
@@ -149,9 +159,12 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
     w.bind(10, json_text(nlohmann::json(seg.pointers))).bind(11, json_text(nlohmann::json(seg.warnings)));
     w.bind(12, record.tokens).bind(13, record.types).bind(14, counts.feature_total);
     w.bind_blob(15, encode_counts(mapped_));
+    if (seg.date.empty()) w.bind_null(16); else w.bind(16, seg.date);
+    if (seg.year) w.bind(17, seg.year); else w.bind_null(17);
     w.step_to_end();
     if (fresh) {
       fresh->languages.push_back(seg.language);
+      fresh->years.push_back(seg.year);
       fresh->tokens.push_back(record.tokens);
       if (record.tokens >= kept_->min_tokens) {
         fresh->kept.push_back(FreshSegment{i, record, counts.feature_total, mapped_});

@@ -75,6 +75,7 @@ Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& 
   const std::size_t files = selection.paths.size();
   const std::size_t long_enough = stored.corpus.segments.size();
   const std::size_t found = long_enough + stored.segments_too_short;
+  const std::size_t other_years = stored.segments_other_years + stored.segments_undated;
   const std::string of_files = std::to_string(files) + " stored file(s)" +
                                (filter.empty() ? "" : " passing the filter (" + filter.describe() + ")");
   std::string what;
@@ -92,6 +93,9 @@ Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& 
   } else if (found == 0 && stored.segments_other_language > 0) {
     what = "none of the " + std::to_string(stored.segments_other_language) + " segment(s) of the " + std::to_string(files) +
            " file(s) chosen is in language " + filter.language + " (by its xml:lang, else its file's langUsage)";
+  } else if (found == 0 && other_years > 0) {
+    what = "none of the " + std::to_string(other_years) + " segment(s) of the " + std::to_string(files) +
+           " file(s) chosen is dated in the years asked (by its own date, a letter's, else its file's): widen --years";
   } else if (found == 0) {
     what = "the " + of_files + " hold no segment of this unit: try another --unit in batch";
   } else {
@@ -183,6 +187,13 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   if (selection.files_undated)
     result.notes.push_back(std::to_string(selection.files_undated) +
                            " file(s) left out by --years for want of a year in their header (docs/store.md)");
+  if (stored.segments_undated)
+    result.notes.push_back(std::to_string(stored.segments_undated) +
+                           " segment(s) left out by --years for want of a year, their own or their file's");
+  if (stored.segments_other_years)
+    result.notes.push_back(std::to_string(stored.segments_other_years) +
+                           " segment(s) of the files chosen left out by --years: dated by their own date "
+                           "(a letter's), else their file's, outside the years");
   // Said, so that fewer files in the report than in the archive need no guessing.
   if (selection.paths.size() > result.files)
     result.notes.push_back(std::to_string(selection.paths.size() - result.files) + " of the " +

@@ -44,34 +44,41 @@ void merge_settings(Database& out, Database& input, const StoredSettings& in, st
   const std::vector<FeatureId> map = map_vocabulary(input, in.id, out_vocabulary);
 
   Statement readings = input.prepare(
-      "SELECT sha256, bytes, status, error, error_kind, title, author, date, year, language, segments, tokens "
-      "FROM readings WHERE settings_id = ?1 ORDER BY sha256");
+      "SELECT sha256, bytes, status, error, error_kind, title, author, date, year, language, segments, tokens, "
+      "first_segment_year, last_segment_year FROM readings WHERE settings_id = ?1 ORDER BY sha256");
   readings.bind(1, in.id);
   Statement insert_reading = out.prepare(
       "INSERT OR IGNORE INTO readings (settings_id, sha256, bytes, status, error, error_kind, title, author, date, "
-      "year, language, segments, tokens, run_id) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14)");
+      "year, language, segments, tokens, run_id, first_segment_year, last_segment_year) "
+      "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16)");
   Statement segments = input.prepare(
       "SELECT ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens, types, "
-      "feature_total, counts FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal");
+      "feature_total, counts, date, year FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal");
   Statement insert_segment = out.prepare(
       "INSERT INTO segments (settings_id, sha256, ordinal, local_id, unit, label, language, author, authorship, "
-      "pointers, warnings, tokens, types, feature_total, counts) "
-      "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15)");
+      "pointers, warnings, tokens, types, feature_total, counts, date, year) "
+      "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17)");
   auto copy_value = [](Statement& from, int column, Statement& to, int index) {
     if (from.is_null(column)) to.bind_null(index);
     else to.bind(index, from.text_at(column));
+  };
+  auto copy_integer = [](Statement& from, int column, Statement& to, int index) {
+    if (from.is_null(column)) to.bind_null(index);
+    else to.bind(index, from.int64_at(column));
   };
   while (readings.step()) {
     const std::string sha = readings.text_at(0);
     insert_reading.bind(1, out_id).bind(2, sha).bind(3, readings.int64_at(1)).bind(4, readings.text_at(2));
     copy_value(readings, 3, insert_reading, 5);
-    if (readings.is_null(4)) insert_reading.bind_null(6); else insert_reading.bind(6, readings.int64_at(4));
+    copy_integer(readings, 4, insert_reading, 6);
     copy_value(readings, 5, insert_reading, 7);
     copy_value(readings, 6, insert_reading, 8);
     copy_value(readings, 7, insert_reading, 9);
-    if (readings.is_null(8)) insert_reading.bind_null(10); else insert_reading.bind(10, readings.int64_at(8));
+    copy_integer(readings, 8, insert_reading, 10);
     copy_value(readings, 9, insert_reading, 11);
     insert_reading.bind(12, readings.int64_at(10)).bind(13, readings.int64_at(11)).bind(14, run);
+    copy_integer(readings, 12, insert_reading, 15);
+    copy_integer(readings, 13, insert_reading, 16);
     insert_reading.step_to_end();
     if (out.changes() == 0) continue;  // the output holds this content already
     ++summary.readings_added;
@@ -83,6 +90,8 @@ void merge_settings(Database& out, Database& input, const StoredSettings& in, st
       insert_segment.bind_blob(15, remap_counts(segments.blob_at(12), map, input.path(),
                                                 "segment " + std::to_string(segments.int64_at(0)) +
                                                     " of the content with SHA-256 " + sha));
+      copy_value(segments, 13, insert_segment, 16);
+      copy_integer(segments, 14, insert_segment, 17);
       insert_segment.step_to_end();
       ++summary.segments_added;
     }

@@ -50,6 +50,8 @@ CREATE TABLE IF NOT EXISTS readings (
   segments INTEGER NOT NULL,
   tokens INTEGER NOT NULL,
   run_id INTEGER,
+  first_segment_year INTEGER,
+  last_segment_year INTEGER,
   PRIMARY KEY (settings_id, sha256)
 );
 CREATE TABLE IF NOT EXISTS segments (
@@ -67,6 +69,8 @@ CREATE TABLE IF NOT EXISTS segments (
   tokens INTEGER NOT NULL,
   types INTEGER NOT NULL,
   feature_total INTEGER NOT NULL,
+  date TEXT,
+  year INTEGER,
   counts BLOB NOT NULL,
   PRIMARY KEY (settings_id, sha256, ordinal)
 );
@@ -158,11 +162,27 @@ CREATE VIEW IF NOT EXISTS file_list AS
   SELECT f.path, r.settings_id, r.status, COALESCE(f.read_error, r.error) AS error, r.title, r.author,
          r.date, r.year, r.language, r.segments, r.tokens, f.size, f.sha256
   FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256;
-CREATE VIEW IF NOT EXISTS segment_list AS
+)sql";
+
+// A segment's year is its own where the edition dates it (a letter), else its file's.
+constexpr const char* kSegmentListView = R"sql(
+CREATE VIEW segment_list AS
   SELECT s.settings_id, f.path, f.stem || '#' || s.local_id AS segment, s.label, s.author, s.authorship,
-         s.language, s.tokens, s.types, r.title, r.author AS file_author, r.year
+         s.language, s.tokens, s.types, r.title, r.author AS file_author, s.date, COALESCE(s.year, r.year) AS year
   FROM files f JOIN segments s ON s.sha256 = f.sha256
   JOIN readings r ON r.settings_id = s.settings_id AND r.sha256 = s.sha256;
+)sql";
+
+// Format 2 -> 3: segments dated apart from their file. Columns are added (SQLite adds a
+// column without rewriting the table); the rows of format 2 keep NULL in them, as their
+// readings dated files only. Such readings belong to an earlier reading revision, so the
+// next batch reads the files again under settings of its own.
+constexpr const char* kFrom2To3 = R"sql(
+ALTER TABLE segments ADD COLUMN date TEXT;
+ALTER TABLE segments ADD COLUMN year INTEGER;
+ALTER TABLE readings ADD COLUMN first_segment_year INTEGER;
+ALTER TABLE readings ADD COLUMN last_segment_year INTEGER;
+DROP VIEW IF EXISTS segment_list;
 )sql";
 
 }  // namespace
@@ -208,6 +228,13 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
     if (info.int64_at(0) == 0) throw Error(ErrorKind::bad_input, path + " is an SQLite file but not a manicule store");
     Statement version = db->prepare("SELECT value FROM store_info WHERE key = 'format'");
     std::string found = version.step() ? version.text_at(0) : "";
+    version.reset();
+    if (found == "2") {
+      db->exec(kFrom2To3);
+      db->exec(kSegmentListView);
+      db->prepare("UPDATE store_info SET value = ?1 WHERE key = 'format'").run(std::to_string(kStoreFormat));
+      found = std::to_string(kStoreFormat);
+    }
     if (found != std::to_string(kStoreFormat))
       throw Error(ErrorKind::bad_input, "the store " + path + " has format " + (found.empty() ? "?" : found) +
                                             "; this manicule reads format " + std::to_string(kStoreFormat));
@@ -216,6 +243,7 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
     // A store of this format has the whole schema (it is created in one transaction), so
     // only a new store needs it: an unchanged archive's re-run spends no time parsing it.
     db->exec(kSchema);
+    db->exec(kSegmentListView);
     db->prepare("INSERT INTO store_info (key, value) VALUES ('format', ?1)").run(std::to_string(kStoreFormat));
   }
   t.commit();

@@ -13,9 +13,11 @@
 namespace manicule::store {
 
 // Raised whenever a table changes shape or a table, index or view is added: a store of
-// another format is refused, and an existing store of this format is not given the schema
-// again (open_store runs it on a new store only).
-inline constexpr int kStoreFormat = 2;  // 2: the vocabulary in blocks (store_vocabulary.h)
+// an earlier format is brought up to this one where open_store knows how (from 2), any
+// other is refused, and an existing store of this format is not given the schema again
+// (open_store runs it on a new store only). 2: the vocabulary in blocks
+// (store_vocabulary.h); 3: segments dated apart from their file (segments.date, .year).
+inline constexpr int kStoreFormat = 3;
 
 // Opens the store (creating file and tables when `create`), locks it and checks its format.
 std::unique_ptr<Database> open_store(const std::string& path, bool create);

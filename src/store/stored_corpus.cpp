@@ -34,12 +34,14 @@ void drop_respelled(StoredSelection& s) {
       s.paths[kept] = std::move(s.paths[i]);
       s.sha256[kept] = std::move(s.sha256[i]);
       s.languages[kept] = std::move(s.languages[i]);
+      s.years[kept] = s.years[i];
     }
     ++kept;
   }
   s.paths.resize(kept);
   s.sha256.resize(kept);
   s.languages.resize(kept);
+  s.years.resize(kept);
 }
 
 }  // namespace
@@ -47,8 +49,8 @@ void drop_respelled(StoredSelection& s) {
 StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& filter) {
   StoredSelection out;
   Statement files = db.prepare(
-      "SELECT f.path, f.relative_path, f.sha256, r.status, r.title, r.author, r.date, r.year, r.language "
-      "FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 ORDER BY f.path");
+      "SELECT f.path, f.relative_path, f.sha256, r.status, r.title, r.author, r.date, r.year, r.language, "
+      "r.first_segment_year, r.last_segment_year FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 ORDER BY f.path");
   files.bind(1, settings_id);
   while (files.step()) {
     ++out.files_in_store;
@@ -63,20 +65,25 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     }
     FileMetadata m{files.text_at(4), files.text_at(5), files.text_at(6), static_cast<int>(files.int64_at(7)),
                    files.text_at(8)};
-    // Language is tested per segment (a segment may be in another language than its file).
-    const bool in_folder_asked = in_folder(filter, path, files.text_at(1));
-    if (!in_folder_asked || !header_matches(filter, m)) {
-      ++out.files_filtered_out;
-      if (in_folder_asked && m.year == 0 && (filter.year_from || filter.year_to)) {
-        ArchiveFilter any_year = filter;
-        any_year.year_from = any_year.year_to = 0;
-        if (header_matches(any_year, m)) ++out.files_undated;
+    // Language and years are tested per segment (a letter may be in another language than
+    // its file, or dated apart from it); here a file is passed by when none of its
+    // segments can be in the years asked: neither the file's year nor any of its own.
+    bool chosen = in_folder(filter, path, files.text_at(1)) && header_matches(filter, m);
+    if (chosen && !filter.year_matches(m.year)) {
+      const int first_own = static_cast<int>(files.int64_at(9)), last_own = static_cast<int>(files.int64_at(10));
+      if (!filter.years_overlap(first_own, last_own)) {
+        chosen = false;
+        if (m.year == 0 && first_own == 0) ++out.files_undated;
       }
+    }
+    if (!chosen) {
+      ++out.files_filtered_out;
       continue;
     }
     out.paths.push_back(path);
     out.sha256.push_back(files.text_at(2));
     out.languages.push_back(std::move(m.language));
+    out.years.push_back(m.year);
   }
   drop_respelled(out);
   // An archive often holds files of one name in several folders (1850/letters.xml,
@@ -93,7 +100,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
   // it is at hand, else from the store (the index on the segments' key gives that order).
   Statement stored_segments = db.prepare(
       "SELECT ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens, types, "
-      "feature_total, counts FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal");
+      "feature_total, counts, date, year FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal");
   CountProfile& profile = out.corpus.counts;
   profile.spec = spec;
   std::unordered_map<std::string, std::string> id_owner;  // segment id -> path
@@ -108,11 +115,17 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     const std::string& path = selection.paths[f];
     const std::string& file_sha256 = selection.sha256[f];
     bool file_listed = false;
-    const auto passes = [&](const std::string& segment_language, std::size_t tokens) {
+    const auto passes = [&](const std::string& segment_language, int segment_year, std::size_t tokens) {
       // A segment's own language where its text says it readably (xml:lang), else its file's.
       if (!filter.language.empty() &&
           !language.holds(language.readable(segment_language) ? segment_language : selection.languages[f])) {
         ++out.segments_other_language;
+        return false;
+      }
+      // Its own year where the edition dates it (a letter), else its file's.
+      const int year = segment_year ? segment_year : selection.years[f];
+      if (!filter.year_matches(year)) {
+        ++(year ? out.segments_other_years : out.segments_undated);
         return false;
       }
       if (tokens < min_tokens) {
@@ -155,7 +168,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
         const bool kept = next_kept < content->kept.size() && content->kept[next_kept].ordinal == ordinal;
         FreshSegment* segment = kept ? &content->kept[next_kept++] : nullptr;
         // One that passes has at least min_tokens words, so it was kept (find() said so).
-        if (!passes(content->languages[ordinal], content->tokens[ordinal])) continue;
+        if (!passes(content->languages[ordinal], content->years[ordinal], content->tokens[ordinal])) continue;
         if (last_use) {
           add(std::move(segment->record), ordinal, segment->feature_total, std::move(segment->counts));
         } else {
@@ -167,13 +180,16 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     stored_segments.bind(1, settings_id).bind(2, file_sha256);
     while (stored_segments.step()) {
       const std::string segment_language = stored_segments.text_at(4);
-      if (!passes(segment_language, static_cast<std::size_t>(stored_segments.int64_at(9)))) continue;
+      const int segment_year = static_cast<int>(stored_segments.int64_at(14));
+      if (!passes(segment_language, segment_year, static_cast<std::size_t>(stored_segments.int64_at(9)))) continue;
       SegmentRecord record;
       Segment& seg = record.segment;
       seg.local_id = stored_segments.text_at(1);
       seg.unit = stored_segments.text_at(2);
       seg.label = stored_segments.text_at(3);
       seg.language = segment_language;
+      seg.date = stored_segments.text_at(13);
+      seg.year = segment_year;
       seg.author = stored_segments.text_at(5);
       seg.authorship = parse_authorship(stored_segments.text_at(6));
       seg.pointers = nlohmann::json::parse(stored_segments.text_at(7)).get<std::vector<std::string>>();

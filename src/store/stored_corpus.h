@@ -33,11 +33,13 @@ struct StoredSelection {
   std::vector<std::string> stems;   // of each path: segment ids begin with it
                                     // (core/segment_id_prefixes.h)
   std::vector<std::string> languages;  // each file's header language
+  std::vector<int> years;              // each file's year (0: none)
   std::size_t files_in_store = 0;       // rows of the files table
   std::size_t files_not_read = 0;       // no reading under these settings (run batch)
   std::size_t files_failed = 0;         // stored as failed under these settings
   std::size_t files_filtered_out = 0;   // outside the filter
-  std::size_t files_undated = 0;        // of those, passing but for a year range: no year known
+  std::size_t files_undated = 0;        // of those, passing but for a year range: no year known,
+                                        // neither the file's nor any of its segments'
 };
 
 struct StoredCorpus {
@@ -45,6 +47,8 @@ struct StoredCorpus {
   std::vector<SegmentSource> sources;   // one per corpus segment
   std::size_t segments_too_short = 0;   // fewer than min_tokens words
   std::size_t segments_other_language = 0;  // outside the filter's language
+  std::size_t segments_other_years = 0;     // dated (own year, else the file's) outside the years
+  std::size_t segments_undated = 0;         // no year, in a file chosen for its segments' years
 };
 
 StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& filter);

@@ -10,13 +10,14 @@
 
 namespace manicule {
 
-// One correspDesc (2.4.6): who sent the letter(s) it describes.
+// One correspDesc (2.4.6): who sent the letter(s) it describes, and when.
 struct CorrespRecord {
   std::string id;            // xml:id, "" if none
   bool is_default = false;   // @default="true"
   std::string sender_key;    // @ref of the sender's name, else its normalised text
   std::string sender_label;  // the name as written
   Authorship sender_status = Authorship::unknown;
+  std::string sent_date;     // of its sent action, as written; the first with a year wins
 };
 
 struct HeaderInfo {

@@ -103,7 +103,14 @@ double cert_rank(const std::string& cert) {
 }
 
 // What a capture of an element's text is for.
-enum class Capture { none, title, author, person_name, role_name, speaker, head, sender, date };
+enum class Capture { none, title, author, person_name, role_name, speaker, head, sender, date, letter_date };
+
+// Whether `candidate` should take the place of `kept` as a date: the first date is kept,
+// unless it has no year and the candidate has one.
+bool better_date(const std::string& kept, const std::string& candidate) {
+  if (candidate.empty()) return false;
+  return kept.empty() || (first_year(kept) == 0 && first_year(candidate) != 0);
+}
 
 }  // namespace
 
@@ -130,6 +137,7 @@ struct TeiWalker::State {
     bool header = false, title_stmt = false, corresp_desc = false, corresp_sent = false, source_desc = false;
     bool creation = false, standoff = false, source_bibl = false;
     bool person = false, cast_list = false, sp_grp = false, tei_element = false;
+    bool dateline = false;
     bool muted = false;        // an idno inside it: an identifier, not part of the name
     // The element's xml:id, a view into the start tag: set while the start tag is handled
     // and cleared before the frame is kept (frames hold no strings, so they copy cheaply).
@@ -196,6 +204,7 @@ struct TeiWalker::State {
     std::vector<std::string> who;         // speaker keys from @who
     std::string speaker_text, head_text;
     std::string decls;                    // letter @decls
+    std::string dateline_date;            // a letter's date in its own dateline
     bool body_letter = false;             // provisional one-letter-per-file unit
     int tei_index = 0;
 
@@ -209,6 +218,7 @@ struct TeiWalker::State {
       speaker_text.clear();
       head_text.clear();
       decls.clear();
+      dateline_date.clear();
       body_letter = false;
       tei_index = 0;
     }
@@ -245,7 +255,7 @@ struct TeiWalker::State {
   std::vector<std::string> person_stack;
   int header_depth = 0, text_depth = 0, skip_depth = 0, cast_depth = 0, source_desc_depth = 0;
   int author_depth = 0, muted_depth = 0;  // open author captures, open idno inside them
-  int creation_depth = 0, standoff_depth = 0;
+  int creation_depth = 0, standoff_depth = 0, dateline_depth = 0;
   std::vector<std::string> source_bibl_types;  // @type of each open bibl in sourceDesc ("" if none)
   int corresp_index = -1;                // corresp record being read
   bool in_title_stmt = false;
@@ -257,6 +267,7 @@ struct TeiWalker::State {
     Segment segment;
     int tei_index = 0;
     std::string decls;
+    std::string dateline_date;
     bool body_letter = false;
   };
   std::vector<Built> built;
@@ -441,6 +452,21 @@ struct TeiWalker::State {
   }
   int best_language_usage = -1;
 
+  // A letter's date in its own text: a date in a dateline (4.2.2), most often in the
+  // opener. It dates a letter whose correspDesc gives no date, or that has none.
+  void note_letter_dateline(Frame& f, const StartTag& tag) {
+    if (f.name == "dateline") {
+      f.dateline = true;
+      ++dateline_depth;
+      return;
+    }
+    if (f.name != "date" || dateline_depth == 0 || f.capture != Capture::none) return;
+    std::string_view value = date_attribute(tag);
+    std::string& own = open_units.back().dateline_date;
+    if (value.empty()) f.capture = Capture::letter_date;
+    else if (better_date(own, std::string(value))) own.assign(value);
+  }
+
   // A dated event of the work itself (DraCor's plays: when it was written, printed, first
   // performed), in a standOff listEvent; other events may be anything the text mentions.
   void note_work_event(const StartTag& tag) {
@@ -484,7 +510,13 @@ struct TeiWalker::State {
     const DateSlots slots = date_slots(h);
     if (slots.header) h.date = value;
     if (slots.creation) h.creation_date = value;
-    if (slots.sent) h.sent_dates.push_back(value);
+    if (slots.sent) {
+      h.sent_dates.push_back(value);
+      if (corresp_index >= 0) {  // the letter(s) this correspDesc describes
+        std::string& own = h.corresp[static_cast<std::size_t>(corresp_index)].sent_date;
+        if (better_date(own, value)) own = value;
+      }
+    }
     if (slots.first_edition) h.first_edition_date = value;
     if (slots.source) h.source_date = value;
   }
@@ -512,6 +544,10 @@ struct TeiWalker::State {
         }
         break;
       case Capture::date: if (h) set_date(*h, value); break;
+      case Capture::letter_date:
+        if (!open_units.empty() && better_date(open_units.back().dateline_date, value))
+          open_units.back().dateline_date = value;
+        break;
       case Capture::speaker: break;  // above
       case Capture::head:
         if (!open_units.empty() && open_units.back().head_text.empty()) open_units.back().head_text = value;
@@ -556,6 +592,7 @@ struct TeiWalker::State {
     Built& b = new_built(local_id, u.tei_index);
     b.segment.pointers.push_back(u.pointer);
     b.decls = u.decls;
+    b.dateline_date = u.dateline_date;
     b.body_letter = u.body_letter;
     if (!u.head_text.empty()) b.segment.label = u.head_text;
     render_into(b.segment, text);
@@ -692,6 +729,7 @@ void TeiWalker::start(const StartTag& tag) {
     if (f.name == "speaker" && s.rules.unit == UnitKind::speaker) f.capture = Capture::speaker;
     else if (f.name == "head" && f.capture == Capture::none) f.capture = Capture::head;
   }
+  if (f.tei && s.rules.unit == UnitKind::letter && !s.open_units.empty()) s.note_letter_dateline(f, tag);
   if (f.tei && f.name == "spGrp") {
     s.sp_grp_who.emplace_back(tag.attribute("who"));
     f.sp_grp = true;
@@ -785,6 +823,7 @@ void TeiWalker::end() {
   if (f.muted) --s.muted_depth;
   if (f.corresp_sent) s.in_sent_action = false;
   if (f.corresp_desc) s.corresp_index = -1;
+  if (f.dateline) --s.dateline_depth;
   if (f.person) s.person_stack.pop_back();
   if (f.cast_list) --s.cast_depth;
   if (f.sp_grp) s.sp_grp_who.pop_back();
@@ -868,6 +907,9 @@ std::vector<Segment> TeiWalker::finish() {
         seg.author = c->sender_status == Authorship::unknown ? "" : c->sender_key;
         seg.authorship = c->sender_status;
       }
+      // When it was sent: its correspDesc says, else its dateline.
+      seg.date = c ? c->sent_date : std::string();
+      if (better_date(seg.date, b.dateline_date)) seg.date = b.dateline_date;
     } else if (s.rules.unit == UnitKind::speaker) {
       auto it = h.person_names.find(seg.local_id);
       if (it != h.person_names.end()) seg.label = it->second;
@@ -882,6 +924,10 @@ std::vector<Segment> TeiWalker::finish() {
       seg.authorship = anonymous ? Authorship::unknown : Authorship::known;
     }
     if (seg.label.empty()) seg.label = seg.local_id;  // no name, title or heading: the id
+    // A teiCorpus (or TEI elements in a TEI) dates each text by its own header; the file's
+    // date is its first header's.
+    if (s.headers.size() > 1 && seg.date.empty()) seg.date = work_date(h);
+    seg.year = first_year(seg.date);
     std::string fallback = h.language.empty() ? s.rules.default_language : h.language;
     for (auto& run : seg.runs)
       if (run.language.empty()) run.language = fallback;
