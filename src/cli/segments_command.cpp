@@ -79,14 +79,14 @@ CommandRunner add_segments_command(CLI::App& app) {
     } else {
       write_tsv_parameters(std::cout, provenance_pairs(make_provenance(request, corpus)));
       std::vector<std::string> header{"segment", "label", "tokens", "types", "file", "unit",
-                                      "language", "pointer", "author", "authorship", "date", "warnings"};
+                                      "language", "pointer", "author", "authorship", "warnings", "date"};
       if (*show_text) header.push_back("text");
       write_tsv_row(std::cout, header);
       for (const auto& r : corpus.segments) {
         std::vector<std::string> row{r.segment.id, r.segment.label, std::to_string(r.tokens), std::to_string(r.types),
                                      r.segment.file, r.segment.unit, r.segment.language, join(r.segment.pointers, " "),
-                                     r.segment.author, authorship_name(r.segment.authorship), r.segment.date,
-                                     join(r.segment.warnings, "; ")};
+                                     r.segment.author, authorship_name(r.segment.authorship),
+                                     join(r.segment.warnings, "; "), r.segment.date};
         if (*show_text) row.push_back(joined_text(r.segment));
         write_tsv_row(std::cout, row);
       }

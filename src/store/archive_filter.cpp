@@ -50,7 +50,7 @@ bool starts_with_folder(const std::string& path, const std::string& folder) {
 }
 
 bool ArchiveFilter::selects_by_header() const {
-  return !author.empty() || year_from || year_to || !language.empty() || !title.empty();
+  return !author.empty() || asks_years() || !language.empty() || !title.empty();
 }
 
 std::string ArchiveFilter::describe() const {
@@ -58,7 +58,7 @@ std::string ArchiveFilter::describe() const {
   auto add = [&](const std::string& part) { out += (out.empty() ? "" : " ") + part; };
   if (!folder.empty()) add("folder=" + folder);
   if (!author.empty()) add("author~" + author);
-  if (year_from || year_to)
+  if (asks_years())
     add("year=" + (year_from ? std::to_string(year_from) : std::string()) + "-" +
         (year_to ? std::to_string(year_to) : std::string()));
   if (!language.empty()) add("language=" + language);

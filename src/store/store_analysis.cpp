@@ -199,7 +199,8 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
     result.notes.push_back(std::to_string(selection.paths.size() - result.files) + " of the " +
                            std::to_string(selection.paths.size()) + " file(s) selected hold no segment of " +
                            std::to_string(request.feature_space.min_segment_tokens) + " words or more" +
-                           (filter.language.empty() ? "" : " in the language asked for"));
+                           (filter.language.empty() ? "" : " in the language asked for") +
+                           (filter.asks_years() ? " dated in the years asked" : ""));
   return result;
 }
 

@@ -69,9 +69,9 @@ CREATE TABLE IF NOT EXISTS segments (
   tokens INTEGER NOT NULL,
   types INTEGER NOT NULL,
   feature_total INTEGER NOT NULL,
+  counts BLOB NOT NULL,
   date TEXT,
   year INTEGER,
-  counts BLOB NOT NULL,
   PRIMARY KEY (settings_id, sha256, ordinal)
 );
 CREATE TABLE IF NOT EXISTS vocabulary_blocks (
@@ -174,8 +174,8 @@ CREATE VIEW segment_list AS
 )sql";
 
 // Format 2 -> 3: segments dated apart from their file. Columns are added (SQLite adds a
-// column without rewriting the table); the rows of format 2 keep NULL in them, as their
-// readings dated files only. Such readings belong to an earlier reading revision, so the
+// column without rewriting the table), last, as in a new store; the rows of format 2 keep
+// NULL in them, as their readings dated files only. Such readings belong to an earlier reading revision, so the
 // next batch reads the files again under settings of its own.
 constexpr const char* kFrom2To3 = R"sql(
 ALTER TABLE segments ADD COLUMN date TEXT;
@@ -237,7 +237,8 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
     }
     if (found != std::to_string(kStoreFormat))
       throw Error(ErrorKind::bad_input, "the store " + path + " has format " + (found.empty() ? "?" : found) +
-                                            "; this manicule reads format " + std::to_string(kStoreFormat));
+                                            "; this manicule reads format " + std::to_string(kStoreFormat) +
+                                            " (and brings a store of format 2 up to it)");
   }
   if (!has_tables) {
     // A store of this format has the whole schema (it is created in one transaction), so

@@ -20,6 +20,11 @@ int first_year(const std::string& date) {
   return 0;
 }
 
+bool better_date(const std::string& kept, const std::string& candidate) {
+  if (candidate.empty()) return false;
+  return kept.empty() || (first_year(kept) == 0 && first_year(candidate) != 0);
+}
+
 namespace {
 
 // The one of `dates` with the earliest year; nullptr when none has a year.

@@ -48,6 +48,10 @@ std::string join_authors(const std::vector<std::string>& authors);
 // "1842", "c. 1799/1800" -> 1842, 1799; 0 when no run of exactly four digits occurs.
 int first_year(const std::string& date);
 
+// Whether `candidate` should take the place of `kept` as one thing's date: the first date
+// is kept, unless it has no year and the candidate has one ("Tuesday", then "3 May 1855").
+bool better_date(const std::string& kept, const std::string& candidate);
+
 // The date of the work rather than of the file, as written, from the header's dates in the
 // order of the fields above, the first with a year winning (docs/store.md, "Sub-corpora").
 std::string work_date(const HeaderInfo& header);

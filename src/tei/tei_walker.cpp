@@ -105,13 +105,6 @@ double cert_rank(const std::string& cert) {
 // What a capture of an element's text is for.
 enum class Capture { none, title, author, person_name, role_name, speaker, head, sender, date, letter_date };
 
-// Whether `candidate` should take the place of `kept` as a date: the first date is kept,
-// unless it has no year and the candidate has one.
-bool better_date(const std::string& kept, const std::string& candidate) {
-  if (candidate.empty()) return false;
-  return kept.empty() || (first_year(kept) == 0 && first_year(candidate) != 0);
-}
-
 }  // namespace
 
 struct TeiWalker::State {
@@ -138,6 +131,7 @@ struct TeiWalker::State {
     bool creation = false, standoff = false, source_bibl = false;
     bool person = false, cast_list = false, sp_grp = false, tei_element = false;
     bool dateline = false;
+    bool hides_letter_dates = false;  // text the reader leaves out, inside a letter
     bool muted = false;        // an idno inside it: an identifier, not part of the name
     // The element's xml:id, a view into the start tag: set while the start tag is handled
     // and cleared before the frame is kept (frames hold no strings, so they copy cheaply).
@@ -205,6 +199,7 @@ struct TeiWalker::State {
     std::string speaker_text, head_text;
     std::string decls;                    // letter @decls
     std::string dateline_date;            // a letter's date in its own dateline
+    int hidden_depth = 0;                 // open elements whose dates are not the letter's
     bool body_letter = false;             // provisional one-letter-per-file unit
     int tei_index = 0;
 
@@ -219,6 +214,7 @@ struct TeiWalker::State {
       head_text.clear();
       decls.clear();
       dateline_date.clear();
+      hidden_depth = 0;
       body_letter = false;
       tei_index = 0;
     }
@@ -453,14 +449,23 @@ struct TeiWalker::State {
   int best_language_usage = -1;
 
   // A letter's date in its own text: a date in a dateline (4.2.2), most often in the
-  // opener. It dates a letter whose correspDesc gives no date, or that has none.
-  void note_letter_dateline(Frame& f, const StartTag& tag) {
+  // opener. It dates a letter whose correspDesc gives no date, or that has none. Dates in
+  // text the reader leaves out (a sic, a deletion, a note, a letter quoted in a
+  // floatingText, a postscript) are not the letter's; only the formulae around its
+  // dateline, left out as text, still date it.
+  void note_letter_dateline(Frame& f, const StartTag& tag, bool skipped) {
+    if (f.name == "floatingText" || (skipped && f.name != "opener" && f.name != "closer" && f.name != "dateline")) {
+      f.hides_letter_dates = true;
+      ++open_units.back().hidden_depth;
+      return;
+    }
     if (f.name == "dateline") {
       f.dateline = true;
       ++dateline_depth;
       return;
     }
-    if (f.name != "date" || dateline_depth == 0 || f.capture != Capture::none) return;
+    if (f.name != "date" || dateline_depth == 0 || open_units.back().hidden_depth > 0 || f.capture != Capture::none)
+      return;
     std::string_view value = date_attribute(tag);
     std::string& own = open_units.back().dateline_date;
     if (value.empty()) f.capture = Capture::letter_date;
@@ -729,7 +734,8 @@ void TeiWalker::start(const StartTag& tag) {
     if (f.name == "speaker" && s.rules.unit == UnitKind::speaker) f.capture = Capture::speaker;
     else if (f.name == "head" && f.capture == Capture::none) f.capture = Capture::head;
   }
-  if (f.tei && s.rules.unit == UnitKind::letter && !s.open_units.empty()) s.note_letter_dateline(f, tag);
+  if (f.tei && s.rules.unit == UnitKind::letter && !s.open_units.empty())
+    s.note_letter_dateline(f, tag, name_class.skipped);
   if (f.tei && f.name == "spGrp") {
     s.sp_grp_who.emplace_back(tag.attribute("who"));
     f.sp_grp = true;
@@ -824,6 +830,7 @@ void TeiWalker::end() {
   if (f.corresp_sent) s.in_sent_action = false;
   if (f.corresp_desc) s.corresp_index = -1;
   if (f.dateline) --s.dateline_depth;
+  if (f.hides_letter_dates) --s.open_units.back().hidden_depth;  // never a unit's own element
   if (f.person) s.person_stack.pop_back();
   if (f.cast_list) --s.cast_depth;
   if (f.sp_grp) s.sp_grp_who.pop_back();

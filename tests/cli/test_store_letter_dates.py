@@ -3,18 +3,22 @@ letters of a span even when one file holds the letters of many years.
 
 A letter's date is where TEI P5 puts it: the date of the sent action of its own correspDesc
 (2.4.6; several letters in a file point to theirs with @decls, 16.3.2), else a date in its
-dateline (4.2.2, "Openers and Closers"), the first with a year winning; a text of a
-teiCorpus is dated by its own header. A letter without a date of its own takes its file's.
-Dates are read from att.datable's attributes (13.4: @when, else @notBefore or @from, then
-@notAfter or @to), else from the element's text.
+dateline (4.2.2, "Openers and Closers") of its own text, not of text the reader leaves out
+(a sic beside its corr, a letter enclosed in a floatingText), the first with a year
+winning; a text of a teiCorpus is dated by its own header. A letter without a date of its
+own takes its file's. Dates are read from att.datable's attributes (13.4: @when, else
+@notBefore or @from, then @notAfter or @to), else from the element's text.
 
 The editions are invented and valid TEI (jing with tei_all, checked first). Each letter's
 year is given by construction and also read with lxml below, written apart from manicule's
 reader; the store's segments must agree with both, and every --years range must take the
 letters whose year lies in it, in `batch --analyse` (counts just read) and in
-`analyse-store` (counts read back). Last, a store of the previous format (2, without these
-columns) is opened: it is brought up to format 3 with every row kept.
+`analyse-store` (counts read back), and two shards merged must hold the same. Last, a
+store of the previous format (2, without these columns, its counts of an earlier reading
+revision) is opened: it is brought up to format 3 with every row kept, and the next batch
+reads its files again and dates their letters.
 """
+import json
 import os
 import sqlite3
 import subprocess
@@ -33,17 +37,18 @@ HEADER = ('<titleStmt><title>%s</title><author>Tamsin Corbel</author></titleStmt
           '<sourceDesc><p>No source: invented.</p></sourceDesc>')
 
 
-def corresp(cd_id, sent_date="", received_date=""):
+def corresp(cd_id, sent_date="", received_date="", default=False):
     """A correspDesc with a sent action (Tamsin Corbel) holding `sent_date` (a date element)."""
     received = ('<correspAction type="received"><persName>Ned Quill</persName>%s</correspAction>' % received_date
                 if received_date else "")
-    return ('<correspDesc xml:id="%s"><correspAction type="sent"><persName ref="#tc">Tamsin Corbel</persName>%s'
-            '</correspAction>%s</correspDesc>' % (cd_id, sent_date, received))
+    return ('<correspDesc xml:id="%s"%s><correspAction type="sent"><persName ref="#tc">Tamsin Corbel</persName>%s'
+            '</correspAction>%s</correspDesc>' % (cd_id, ' default="true"' if default else "", sent_date, received))
 
 
-def letter(lid, dateline=""):
+def letter(lid, dateline="", decls=True, after=""):
     opener = '<opener><dateline>Quillmouth%s</dateline></opener>' % (", " + dateline if dateline else "")
-    return '<div type="letter" xml:id="%s" decls="#cd-%s">%s<p>%s</p></div>' % (lid, lid, opener, WORDS)
+    pointer = ' decls="#cd-%s"' % lid if decls else ""
+    return '<div type="letter" xml:id="%s"%s>%s<p>%s</p>%s</div>' % (lid, pointer, opener, WORDS, after)
 
 
 def tei(title, correspondence, body, lang=' xml:lang="en"'):
@@ -66,11 +71,26 @@ EDITIONS = [
         + corresp("cd-H3", "<date>Michaelmas 1851</date>")
         + corresp("cd-H4")  # no date in its sent action: its dateline dates it
         + corresp("cd-H5", "<date>Tuesday</date>")  # no year: the dateline's year wins
-        + corresp("cd-H6"),  # no date anywhere: the file's
+        + corresp("cd-H6")  # no date anywhere: the file's
+        + corresp("cd-H7") + corresp("cd-H8"),
         letter("H1") + letter("H2") + letter("H3")
         + letter("H4", '<date when="1853-02-11">11 February 1853</date>')
-        + letter("H5", "<date>the 3rd of May, 1855</date>") + letter("H6")),
-     {"H1": 1848, "H2": 1850, "H3": 1851, "H4": 1853, "H5": 1855, "H6": 1848}),
+        + letter("H5", "<date>the 3rd of May, 1855</date>") + letter("H6")
+        # The editor's correction dates it, not the error it corrects (3.5.1).
+        + letter("H7", '<choice><sic><date when="1805-06-01">1 June 1805</date></sic>'
+                       '<corr><date when="1852-06-01">1 June 1852</date></corr></choice>')
+        # A letter it encloses (floatingText, 4.3.2) has its own date; this one's is in its closer.
+        + letter("H8", after='<floatingText><body><opener><dateline><date when="1790-01-01">New Year 1790</date>'
+                             '</dateline></opener><p>%s</p></body></floatingText>'
+                             '<closer><dateline><date when="1852-10-10">10 October 1852</date></dateline></closer>'
+                             % WORDS)),
+     {"H1": 1848, "H2": 1850, "H3": 1851, "H4": 1853, "H5": 1855, "H6": 1848, "H7": 1852, "H8": 1852}),
+    # Letters without @decls take the default correspDesc (2.4.6).
+    ("default-letters", XML + tei(
+        "Letters under one default correspDesc",
+        corresp("cd-X", '<date when="1854-03-01"/>', default=True) + corresp("cd-Y", '<date when="1849-01-01"/>'),
+        letter("X1", decls=False) + letter("X2", decls=False)),
+     {"X1": 1854, "X2": 1854}),
     # Letters dated only in their datelines; the file has no year, so the undated one has none.
     ("dateline-letters", XML + tei(
         "Letters dated in their openers",
@@ -103,31 +123,70 @@ def first_with_year(values):
     return dated[0] if dated else (values[0] if values else "")
 
 
-def lxml_letter_years(path):
-    """{local id: year} for each letter of the file, read with lxml by the rule above."""
+# Where a dateline's date is not the letter's own: the side of an alternation the editor
+# does not adopt (sic, orig, abbr; a rdg beside its lem: P5 3.5.1, 3.5.2, 12.1), a deletion
+# (11.3.1.4), an editor's note (3.9), a postscript (4.2.2: it has its own date), or another
+# text embedded in the letter (floatingText, 4.3.2).
+NOT_THE_LETTERS = {TEI + n for n in ("sic", "orig", "abbr", "rdg", "rdgGrp", "del", "note", "postscript",
+                                     "floatingText")}
+
+
+def own_dateline_dates(unit):
+    """The values of the dates in the datelines of `unit` itself, in document order."""
+    out = []
+    for date in unit.iter(TEI + "date"):
+        between = []
+        for a in date.iterancestors():
+            if a is unit:
+                break
+            between.append(a)
+        if any(a.tag == TEI + "dateline" for a in between) and not any(
+                a.tag in NOT_THE_LETTERS or (a.tag == TEI + "div" and a.get("type") == "letter") for a in between):
+            value = date_value(date)
+            if value:
+                out.append(value)
+    return out
+
+
+def paired(desc_list, div, position):
+    """The correspDesc of a letter: @decls, else the default, else the only, else by order."""
+    by_id = {d.get(XML_ID): d for d in desc_list}
+    pointer = (div.get("decls") or "").split()
+    if pointer and pointer[0].lstrip("#") in by_id:
+        return by_id[pointer[0].lstrip("#")]
+    defaults = [d for d in desc_list if d.get("default") == "true"]
+    if defaults:
+        return defaults[0]
+    if len(desc_list) == 1:
+        return desc_list[0]
+    return desc_list[position] if position < len(desc_list) else None
+
+
+def lxml_letter_dates(path):
+    """{local id: (its own date as written or None, its year or its file's)} for each letter
+    of the file, read with lxml by the rule above."""
     root = etree.parse(path).getroot()
     texts = [root] if root.tag == TEI + "TEI" else root.findall(TEI + "TEI")
     file_year = work_year(texts[0], texts[0].find(TEI + "teiHeader"))
     out = {}
     for text in texts:
         header = text.find(TEI + "teiHeader")
-        descs = {d.get(XML_ID): d for d in header.iter(TEI + "correspDesc")}
+        descs = list(header.iter(TEI + "correspDesc"))
         divs = [d for d in text.iter(TEI + "div") if d.get("type") == "letter"]
         # A file of one letter: its body, with the only correspDesc.
-        units = [(d.get(XML_ID), d, descs.get((d.get("decls") or "").lstrip("#"))) for d in divs] or \
-            [(text.get(XML_ID), text.find(TEI + "text"), next(iter(descs.values())))]
+        units = [(d.get(XML_ID), d, paired(descs, d, i)) for i, d in enumerate(divs)] or \
+            [(text.get(XML_ID), text.find(TEI + "text"), descs[0])]
         for lid, unit, desc in units:
             sent = [v for a in desc.iter(TEI + "correspAction") if a.get("type") == "sent"
                     for v in (date_value(d) for d in a.iter(TEI + "date")) if v] if desc is not None else []
-            in_dateline = [v for dl in unit.iter(TEI + "dateline") for v in (date_value(d) for d in dl.iter(TEI + "date"))
-                           if v]
+            in_dateline = own_dateline_dates(unit)
             own = first_with_year(sent)
             if year_of(own) is None and year_of(first_with_year(in_dateline)) is not None:
                 own = first_with_year(in_dateline)
             year = year_of(own)
             if year is None and len(texts) > 1:
                 year = work_year(text, header)
-            out[lid] = year if year is not None else file_year
+            out[lid] = (" ".join(own.split()) or None, year if year is not None else file_year)
     return out
 
 
@@ -135,14 +194,17 @@ with tempfile.TemporaryDirectory() as tmp:
     archive = os.path.join(tmp, "archive")
     os.makedirs(archive)
     expected = {}  # segment id -> year
+    own_dates = {}  # segment id -> its own date as written, or None
     for name, text, years in EDITIONS:
         path = os.path.join(archive, name + ".xml")
         with open(path, "w", encoding="utf-8") as f:
             f.write(text)
-        read = lxml_letter_years(path)
-        mtest.check(read == years, "%s: lxml reads %r, the edition was made for %r" % (name, read, years))
+        read = lxml_letter_dates(path)
+        mtest.check({lid: y for lid, (_, y) in read.items()} == years,
+                    "%s: lxml reads %r, the edition was made for %r" % (name, read, years))
         for lid, year in years.items():
             expected[name + "#" + lid] = year
+            own_dates[name + "#" + lid] = read[lid][0]
     paths = sorted(os.path.join(archive, n) for n in os.listdir(archive))
     jing = subprocess.run(["jing", mtest.SCHEMA] + paths, capture_output=True, text=True)
     mtest.check(jing.returncode == 0, "the invented editions are not valid TEI: " + jing.stdout[-2000:])
@@ -164,6 +226,14 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(set(stored) == set(expected), "stored segments %r, expected %r" % (sorted(stored), sorted(expected)))
     for key, year in expected.items():
         mtest.check(stored.get(key) == year, "%s: stored year %r, expected %r" % (key, stored.get(key), year))
+    # Each letter's own date as written, in the store and in `segments`.
+    db = storecheck.connect(store)
+    stored_dates = dict(db.execute("SELECT segment, date FROM segment_list"))
+    db.close()
+    mtest.check(stored_dates == own_dates, "stored dates %r, lxml reads %r" % (stored_dates, own_dates))
+    listed = json.loads(mtest.run(["segments", archive, "--unit", "letter", "--format", "json"]).stdout)["segments"]
+    listed_dates = {row["segment"]: row["date"] or None for row in listed}
+    mtest.check(listed_dates == own_dates, "`segments` prints dates %r, lxml reads %r" % (listed_dates, own_dates))
 
     # --years over letters, on counts just read and on counts read back.
     for years, low, high in (("1845-1849", 1845, 1849), ("1850-1853", 1850, 1853), ("1854-", 1854, 9999),
@@ -223,6 +293,7 @@ with tempfile.TemporaryDirectory() as tmp:
         ALTER TABLE readings DROP COLUMN last_segment_year;
         CREATE VIEW segment_list AS SELECT s.settings_id, f.path FROM files f JOIN segments s ON s.sha256 = f.sha256;
         UPDATE store_info SET value = '2' WHERE key = 'format';
+        UPDATE settings SET key = key || '-of-reading-revision-2';
     """)
     before = {t: db.execute("SELECT count(*) FROM %s" % t).fetchone()[0] for t in ("files", "readings", "segments")}
     db.close()
@@ -238,5 +309,14 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check("year" in [r[1] for r in db.execute("PRAGMA table_info(segment_list)")],
                 "the upgraded store's segment_list has no year")
     db.close()
+    # Its counts were read by an earlier revision (another settings key): batch reads every
+    # file again once, and the letters are then dated one by one.
+    mtest.run(["batch", archive, "--store", old, "--unit", "letter", "--quiet"])
+    mtest.check(storecheck.last_run(old)["files_read"] == len(EDITIONS),
+                "batch after the upgrade read %r files, expected %d" % (storecheck.last_run(old)["files_read"],
+                                                                       len(EDITIONS)))
+    mtest.run(["analyse-store", "--store", old, "--min-tokens", "10", "--years", "1850-1853"])
+    want = {k for k, y in expected.items() if y is not None and 1850 <= y <= 1853}
+    mtest.check(analysed(old) == want, "the upgraded store's --years 1850-1853 took %r" % sorted(analysed(old)))
 
 mtest.done()
