@@ -23,6 +23,7 @@ from attribution_reference import letter_senders  # noqa: E402
 from lxml import etree  # noqa: E402
 
 TEI = "{http://www.tei-c.org/ns/1.0}"
+XML_ID = "{http://www.w3.org/XML/1998/namespace}id"
 
 
 def sql_blocks(path):
@@ -104,6 +105,23 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check(results[(doc, block, 1)] == [], doc + ": no file failed, yet the query lists some")
         mtest.check([(r["kind"], r["status"]) for r in results[(doc, block, 2)]] == [("analysis", "done"), ("batch", "done")],
                     doc + ": the last runs are %r" % results[(doc, block, 2)])
+
+    # docs/store.md's fourth block: letters per year and sender, by each letter's own date.
+    # lxml: the sent action's date (@when) of the correspDesc each letter points to with
+    # @decls, its persName as the label, else the letter's xml:id (TEI P5 2.4.6, 16.3.2).
+    root = etree.parse(letters).getroot()
+    descs = {d.get(XML_ID): d for d in root.iter(TEI + "correspDesc")}
+    per_year = {}
+    for div in root.iter(TEI + "div"):
+        if div.get("type") != "letter":
+            continue
+        sent = [a for a in descs[div.get("decls").lstrip("#")].iter(TEI + "correspAction") if a.get("type") == "sent"][0]
+        names = [" ".join("".join(n.itertext()).split()) for n in sent.iter(TEI + "persName")]
+        key = (int(sent.find(TEI + "date").get("when")[:4]), names[0] if names else div.get(XML_ID))
+        per_year[key] = per_year.get(key, 0) + 1
+    rows = results[(os.path.join("docs", "store.md"), 3, 0)]
+    got = {(r["year"], r["sender"]): r["letters"] for r in rows}
+    mtest.check(got == per_year, "letters per year and sender %r, lxml reads %r" % (got, per_year))
     db.close()
 
     # Nothing to analyse: the message says which reason holds (exit code 4, README). The
