@@ -32,13 +32,14 @@ namespace {
 void write_segments(Database& db, std::int64_t run, const Analysis& a, const StoredCorpus& stored) {
   RowInserter insert(db,
                      "INSERT INTO analysis_segments (run_id, segment, path, sha256, ordinal, label, author, tokens, "
-                     "measured, excluded_reason)",
-                     10);
+                     "measured, excluded_reason, year)",
+                     11);
   for (std::size_t i = 0; i < a.segments.size(); ++i) {
     const SegmentSummary& s = a.segments[i];
     const SegmentSource& src = stored.sources[i];
     insert.add(run, s.id, src.path, src.sha256, src.ordinal, s.label, s.author, s.tokens, s.measured ? 1 : 0,
-               s.excluded_reason.empty() ? std::nullopt : std::optional<std::string>(s.excluded_reason));
+               s.excluded_reason.empty() ? std::nullopt : std::optional<std::string>(s.excluded_reason),
+               src.year ? std::optional<int>(src.year) : std::nullopt);
   }
   insert.finish();
 }

@@ -45,6 +45,7 @@ class RowInserter {
   static Value value_of(const std::string& v) { return v; }
   static Value value_of(const char* v) { return std::string(v); }
   static Value value_of(const std::optional<std::string>& v) { return v ? Value(*v) : Value(nullptr); }
+  static Value value_of(const std::optional<int>& v) { return v ? Value(std::int64_t{*v}) : Value(nullptr); }
 
   std::string sql_for(std::size_t rows) const;
   void insert_pending(Statement& statement);

@@ -108,6 +108,7 @@ CREATE TABLE IF NOT EXISTS analysis_segments (
   tokens INTEGER NOT NULL,
   measured INTEGER NOT NULL,
   excluded_reason TEXT,
+  year INTEGER,
   PRIMARY KEY (run_id, segment)
 );
 CREATE TABLE IF NOT EXISTS features (
@@ -175,15 +176,17 @@ CREATE VIEW segment_list AS
 
 // Format 2 -> 3: segments dated apart from their file. Columns are added (SQLite adds a
 // column without rewriting the table), last, as in a new store; the rows of format 2 keep
-// NULL in them, as their readings dated files only. Such readings belong to an earlier reading revision, so the
-// next batch reads the files again under settings of its own.
-constexpr const char* kFrom2To3 = R"sql(
-ALTER TABLE segments ADD COLUMN date TEXT;
-ALTER TABLE segments ADD COLUMN year INTEGER;
-ALTER TABLE readings ADD COLUMN first_segment_year INTEGER;
-ALTER TABLE readings ADD COLUMN last_segment_year INTEGER;
-DROP VIEW IF EXISTS segment_list;
-)sql";
+// NULL in them, as their readings dated files only. Such readings belong to an earlier
+// reading revision, so the next batch reads the files again under settings of its own.
+// One statement at a time, so that a failure names the one that failed.
+constexpr const char* kFrom2To3[] = {
+    "ALTER TABLE segments ADD COLUMN date TEXT",
+    "ALTER TABLE segments ADD COLUMN year INTEGER",
+    "ALTER TABLE readings ADD COLUMN first_segment_year INTEGER",
+    "ALTER TABLE readings ADD COLUMN last_segment_year INTEGER",
+    "ALTER TABLE analysis_segments ADD COLUMN year INTEGER",
+    "DROP VIEW IF EXISTS segment_list",
+};
 
 }  // namespace
 
@@ -230,8 +233,14 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
     std::string found = version.step() ? version.text_at(0) : "";
     version.reset();
     if (found == "2") {
-      db->exec(kFrom2To3);
-      db->exec(kSegmentListView);
+      try {
+        for (const char* statement : kFrom2To3) db->exec(statement);
+        db->exec(kSegmentListView);
+      } catch (const Error& e) {  // a store changed by hand; the transaction leaves it as it was
+        throw Error(ErrorKind::bad_input, "the store " + path + " has format 2 but cannot be brought up to format " +
+                                              std::to_string(kStoreFormat) + " (" + e.what() +
+                                              "); it is left unchanged");
+      }
       db->prepare("UPDATE store_info SET value = ?1 WHERE key = 'format'").run(std::to_string(kStoreFormat));
       found = std::to_string(kStoreFormat);
     }

@@ -157,7 +157,8 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
       if (!segment_counts.counts.empty())
         id_bound = std::max<std::size_t>(id_bound, segment_counts.counts.back().first + std::size_t{1});
       profile.segments.push_back(std::move(segment_counts));
-      out.sources.push_back(SegmentSource{path, file_sha256, ordinal});
+      const int year = seg.year ? seg.year : selection.years[f];
+      out.sources.push_back(SegmentSource{path, file_sha256, ordinal, year});
       out.corpus.segments.push_back(std::move(record));
     };
 

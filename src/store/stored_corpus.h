@@ -23,6 +23,7 @@ struct SegmentSource {
   std::string path;
   std::string sha256;
   std::size_t ordinal = 0;
+  int year = 0;  // what --years took it by: its own year, else its file's (0: none)
 };
 
 // The files an analysis takes in: stored, read without error under the settings, inside

@@ -251,6 +251,11 @@ with tempfile.TemporaryDirectory() as tmp:
             mtest.check(proc.returncode == 0, "analyse-store --years %s failed: %s" % (years, proc.stderr))
             mtest.check(analysed(store) == want, "analyse-store --years %s took %r, expected %r" % (
                 years, sorted(analysed(store)), sorted(want)))
+            db = storecheck.connect(store)
+            taken = dict(db.execute("SELECT segment, year FROM analysis_segments WHERE run_id = "
+                                    "(SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done')"))
+            db.close()
+            mtest.check(taken == {k: expected[k] for k in want}, "analysis_segments' years %r" % taken)
             # The undated file, and the undated letter of a file chosen for a dated one.
             mtest.check("1 file(s) left out by --years for want of a year" in proc.stderr,
                         "--years %s: no note of the undated file: %s" % (years, proc.stderr))
@@ -284,13 +289,15 @@ with tempfile.TemporaryDirectory() as tmp:
     old = os.path.join(tmp, "format2.sqlite")
     mtest.run(["batch", archive, "--store", old, "--unit", "letter", "--quiet"])
     db = sqlite3.connect(old)
-    fresh_columns = {t: [r[1] for r in db.execute("PRAGMA table_info(%s)" % t)] for t in ("segments", "readings")}
+    fresh_columns = {t: [r[1] for r in db.execute("PRAGMA table_info(%s)" % t)]
+                     for t in ("segments", "readings", "analysis_segments")}
     db.executescript("""
         DROP VIEW segment_list;
         ALTER TABLE segments DROP COLUMN date;
         ALTER TABLE segments DROP COLUMN year;
         ALTER TABLE readings DROP COLUMN first_segment_year;
         ALTER TABLE readings DROP COLUMN last_segment_year;
+        ALTER TABLE analysis_segments DROP COLUMN year;
         CREATE VIEW segment_list AS SELECT s.settings_id, f.path FROM files f JOIN segments s ON s.sha256 = f.sha256;
         UPDATE store_info SET value = '2' WHERE key = 'format';
         UPDATE settings SET key = key || '-of-reading-revision-2';

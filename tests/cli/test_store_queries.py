@@ -66,6 +66,16 @@ with tempfile.TemporaryDirectory() as tmp:
     letters = os.path.join(archive, "ferry-letters.xml")
     # Sure or conjectured: analysis_segments.author keeps a conjectured sender (L12's).
     sender = letter_senders(letters, "ferry-letters", sure_only=False)
+    # Each letter's year: its correspDesc's sent date (TEI P5 2.4.6), the one it points to
+    # with @decls (16.3.2); every ferry letter has one.
+    root = etree.parse(letters).getroot()
+    descs = {d.get(XML_ID): d for d in root.iter(TEI + "correspDesc")}
+    sent_action = {}  # segment id -> its sent correspAction
+    for div in root.iter(TEI + "div"):
+        if div.get("type") == "letter":
+            sent_action["ferry-letters#" + div.get(XML_ID)] = [
+                a for a in descs[div.get("decls").lstrip("#")].iter(TEI + "correspAction") if a.get("type") == "sent"][0]
+    sent_year = {k: int(a.find(TEI + "date").get("when")[:4]) for k, a in sent_action.items()}
     run_id = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
     stored = db.execute("SELECT rank, neighbour, distance FROM neighbours WHERE run_id = ? AND segment = ? ORDER BY rank",
                         (run_id, "ferry-letters#L07")).fetchall()
@@ -81,6 +91,9 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check([r["author"] for r in rows] == [sender[r["neighbour"]] for r in rows],
                     "%s: senders %r, lxml reads %r" % (doc, [r["author"] for r in rows],
                                                        [sender[r["neighbour"]] for r in rows]))
+        mtest.check([r["year"] for r in rows] == [sent_year[r["neighbour"]] for r in rows],
+                    "%s: years %r, lxml reads %r" % (doc, [r["year"] for r in rows],
+                                                     [sent_year[r["neighbour"]] for r in rows]))
 
     # docs/store.md's second query: each letter with no sender in the edition (lxml: L07 and
     # L10), with how many of its neighbours each named sender wrote.
@@ -106,18 +119,12 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check([(r["kind"], r["status"]) for r in results[(doc, block, 2)]] == [("analysis", "done"), ("batch", "done")],
                     doc + ": the last runs are %r" % results[(doc, block, 2)])
 
-    # docs/store.md's fourth block: letters per year and sender, by each letter's own date.
-    # lxml: the sent action's date (@when) of the correspDesc each letter points to with
-    # @decls, its persName as the label, else the letter's xml:id (TEI P5 2.4.6, 16.3.2).
-    root = etree.parse(letters).getroot()
-    descs = {d.get(XML_ID): d for d in root.iter(TEI + "correspDesc")}
+    # docs/store.md's fourth block: letters per year and sender, by each letter's own date
+    # (above), its sent action's persName as the label, else the letter's xml:id.
     per_year = {}
-    for div in root.iter(TEI + "div"):
-        if div.get("type") != "letter":
-            continue
-        sent = [a for a in descs[div.get("decls").lstrip("#")].iter(TEI + "correspAction") if a.get("type") == "sent"][0]
+    for segment, sent in sent_action.items():
         names = [" ".join("".join(n.itertext()).split()) for n in sent.iter(TEI + "persName")]
-        key = (int(sent.find(TEI + "date").get("when")[:4]), names[0] if names else div.get(XML_ID))
+        key = (sent_year[segment], names[0] if names else segment.split("#")[1])
         per_year[key] = per_year.get(key, 0) + 1
     rows = results[(os.path.join("docs", "store.md"), 3, 0)]
     got = {(r["year"], r["sender"]): r["letters"] for r in rows}

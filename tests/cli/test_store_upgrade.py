@@ -93,4 +93,20 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check([r[0] for r in old_tables["segments"]] == [r[0] for r in new_tables["segments"]],
                 "the analyses took different segments")
 
+    # A format-2 store changed by hand so that the upgrade cannot run (it already has a
+    # column the upgrade adds) is refused with the reason and left as it was.
+    odd = os.path.join(tmp, "odd.sqlite")
+    with gzip.open(FIXTURE) as src, open(odd, "wb") as dst:
+        shutil.copyfileobj(src, dst)
+    db = sqlite3.connect(odd)
+    db.execute("ALTER TABLE segments ADD COLUMN year INTEGER")
+    db.commit()
+    db.close()
+    odd_before = (rows(odd), shape(odd))
+    proc = mtest.run(["analyse-store", "--store", odd, "--min-tokens", "200"], check=False)
+    mtest.check(proc.returncode == 3 and "cannot be brought up to format 3" in proc.stderr
+                and "duplicate column name: year" in proc.stderr and "left unchanged" in proc.stderr,
+                "a store that cannot be upgraded: exit %d, %s" % (proc.returncode, proc.stderr))
+    mtest.check((rows(odd), shape(odd)) == odd_before, "a store that could not be upgraded was changed")
+
 mtest.done()
