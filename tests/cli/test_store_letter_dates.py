@@ -91,6 +91,12 @@ EDITIONS = [
         corresp("cd-X", '<date when="1854-03-01"/>', default=True) + corresp("cd-Y", '<date when="1849-01-01"/>'),
         letter("X1", decls=False) + letter("X2", decls=False)),
      {"X1": 1854, "X2": 1854}),
+    # Neither @decls nor a default: letters pair with the correspDescs in document order.
+    ("order-letters", XML + tei(
+        "Letters paired by their order",
+        corresp("cd-O1", '<date when="1847-02-02"/>') + corresp("cd-O2", '<date when="1856-07-07"/>'),
+        letter("O1", decls=False) + letter("O2", decls=False)),
+     {"O1": 1847, "O2": 1856}),
     # Letters dated only in their datelines; the file has no year, so the undated one has none.
     ("dateline-letters", XML + tei(
         "Letters dated in their openers",
