@@ -897,9 +897,14 @@ std::vector<Segment> TeiWalker::finish() {
       if (b.body_letter && s.letters_per_tei[static_cast<std::size_t>(b.tei_index)] > 0) continue;
       int ordinal = letter_ordinal[b.tei_index]++;
       const CorrespRecord* c = nullptr;
-      std::string decls = b.decls.empty() ? "" : split_pointers(b.decls).front();
-      for (const auto& r : h.corresp)
-        if (!decls.empty() && r.id == decls) c = &r;
+      // @decls may point at several declarations (a source's bibl, a correspDesc, 16.3.2):
+      // the first that names a correspDesc pairs the letter.
+      if (!b.decls.empty())
+        for (const std::string& pointer : split_pointers(b.decls)) {
+          for (const auto& r : h.corresp)
+            if (!r.id.empty() && r.id == pointer) c = &r;
+          if (c) break;
+        }
       if (!c)
         for (const auto& r : h.corresp)
           if (r.is_default) c = &r;

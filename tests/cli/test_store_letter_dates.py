@@ -47,7 +47,7 @@ def corresp(cd_id, sent_date="", received_date="", default=False):
 
 def letter(lid, dateline="", decls=True, after=""):
     opener = '<opener><dateline>Quillmouth%s</dateline></opener>' % (", " + dateline if dateline else "")
-    pointer = ' decls="#cd-%s"' % lid if decls else ""
+    pointer = ' decls="%s"' % (decls if isinstance(decls, str) else "#cd-" + lid) if decls else ""
     return '<div type="letter" xml:id="%s"%s>%s<p>%s</p>%s</div>' % (lid, pointer, opener, WORDS, after)
 
 
@@ -97,6 +97,13 @@ EDITIONS = [
         corresp("cd-O1", '<date when="1847-02-02"/>') + corresp("cd-O2", '<date when="1856-07-07"/>'),
         letter("O1", decls=False) + letter("O2", decls=False)),
      {"O1": 1847, "O2": 1856}),
+    # @decls pointing at two declarations, the langUsage first: the correspDesc pairs.
+    ("two-declarations", XML + tei(
+        "A letter declaring its language and its correspondence",
+        '<langUsage xml:id="lu-M"><language ident="en">English</language></langUsage>'
+        + corresp("cd-M0", '<date when="1845-01-01"/>') + corresp("cd-M1", '<date when="1853-05-05"/>'),
+        letter("M1", decls="#lu-M #cd-M1")),
+     {"M1": 1853}),
     # Letters dated only in their datelines; the file has no year, so the undated one has none.
     ("dateline-letters", XML + tei(
         "Letters dated in their openers",
@@ -155,11 +162,12 @@ def own_dateline_dates(unit):
 
 
 def paired(desc_list, div, position):
-    """The correspDesc of a letter: @decls, else the default, else the only, else by order."""
+    """The correspDesc of a letter: the first of its @decls that names one, else the default,
+    else the only, else by order."""
     by_id = {d.get(XML_ID): d for d in desc_list}
-    pointer = (div.get("decls") or "").split()
-    if pointer and pointer[0].lstrip("#") in by_id:
-        return by_id[pointer[0].lstrip("#")]
+    for pointer in (div.get("decls") or "").split():
+        if pointer.lstrip("#") in by_id:
+            return by_id[pointer.lstrip("#")]
     defaults = [d for d in desc_list if d.get("default") == "true"]
     if defaults:
         return defaults[0]
