@@ -19,7 +19,8 @@ struct SelectionRules;
 // metadata) within one version of manicule: the store keys what it keeps by it, so that
 // files stored before are read again. 2: the date is the work's or the letters' (work_date),
 // not the file's, and a file without segments of the unit has its TEI element's language.
-// 3: segments dated apart from their file (Segment::date: letters, texts of a teiCorpus).
+// 3: segments dated apart from their file (Segment::date: letters, texts of a teiCorpus),
+// and a letter paired with the correspDesc among several @decls pointers.
 constexpr int kReadingRevision = 3;
 
 // What the edition's own header says (the first TEI element's teiHeader).
