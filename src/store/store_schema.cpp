@@ -185,6 +185,10 @@ constexpr const char* kFrom2To3[] = {
     "ALTER TABLE readings ADD COLUMN first_segment_year INTEGER",
     "ALTER TABLE readings ADD COLUMN last_segment_year INTEGER",
     "ALTER TABLE analysis_segments ADD COLUMN year INTEGER",
+    // An analysis made before is reused as long as its key holds: its segments get the
+    // year it took them by, their file's (format 2 dated files only).
+    "UPDATE analysis_segments SET year = (SELECT r.year FROM runs u JOIN readings r ON r.settings_id = u.settings_id "
+    "WHERE u.run_id = analysis_segments.run_id AND r.sha256 = analysis_segments.sha256)",
     "DROP VIEW IF EXISTS segment_list",
 };
 
@@ -236,10 +240,12 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
       try {
         for (const char* statement : kFrom2To3) db->exec(statement);
         db->exec(kSegmentListView);
-      } catch (const Error& e) {  // a store changed by hand; the transaction leaves it as it was
-        throw Error(ErrorKind::bad_input, "the store " + path + " has format 2 but cannot be brought up to format " +
-                                              std::to_string(kStoreFormat) + " (" + e.what() +
-                                              "); it is left unchanged");
+      } catch (const Error& e) {  // e.g. a store changed by hand; the transaction leaves it as it was
+        std::string reason = e.what();
+        const std::string named = "store " + path + ": ";
+        if (reason.rfind(named, 0) == 0) reason.erase(0, named.size());
+        throw Error(e.kind(), "the store " + path + " has format 2 but cannot be brought up to format " +
+                                  std::to_string(kStoreFormat) + " (" + reason + "); it is left unchanged");
       }
       db->prepare("UPDATE store_info SET value = ?1 WHERE key = 'format'").run(std::to_string(kStoreFormat));
       found = std::to_string(kStoreFormat);

@@ -115,6 +115,9 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     const std::string& path = selection.paths[f];
     const std::string& file_sha256 = selection.sha256[f];
     bool file_listed = false;
+    // A segment's year as --years takes it: its own where the edition dates it (a letter),
+    // else its file's.
+    const auto year_of = [&](int own_year) { return own_year ? own_year : selection.years[f]; };
     const auto passes = [&](const std::string& segment_language, int segment_year, std::size_t tokens) {
       // A segment's own language where its text says it readably (xml:lang), else its file's.
       if (!filter.language.empty() &&
@@ -122,8 +125,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
         ++out.segments_other_language;
         return false;
       }
-      // Its own year where the edition dates it (a letter), else its file's.
-      const int year = segment_year ? segment_year : selection.years[f];
+      const int year = year_of(segment_year);
       if (!filter.year_matches(year)) {
         ++(year ? out.segments_other_years : out.segments_undated);
         return false;
@@ -157,8 +159,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
       if (!segment_counts.counts.empty())
         id_bound = std::max<std::size_t>(id_bound, segment_counts.counts.back().first + std::size_t{1});
       profile.segments.push_back(std::move(segment_counts));
-      const int year = seg.year ? seg.year : selection.years[f];
-      out.sources.push_back(SegmentSource{path, file_sha256, ordinal, year});
+      out.sources.push_back(SegmentSource{path, file_sha256, ordinal, year_of(seg.year)});
       out.corpus.segments.push_back(std::move(record));
     };
 

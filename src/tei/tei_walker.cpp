@@ -898,21 +898,28 @@ std::vector<Segment> TeiWalker::finish() {
       int ordinal = letter_ordinal[b.tei_index]++;
       const CorrespRecord* c = nullptr;
       // @decls may point at several declarations (a source's bibl, a correspDesc, 16.3.2):
-      // the first that names a correspDesc pairs the letter.
-      if (!b.decls.empty())
-        for (const std::string& pointer : split_pointers(b.decls)) {
-          for (const auto& r : h.corresp)
-            if (!r.id.empty() && r.id == pointer) c = &r;
-          if (c) break;
-        }
+      // the first that names a correspDesc pairs the letter, in its own TEI's header or in
+      // another TEI's of the document (xml:ids are unique in the document).
+      for (const std::string& pointer : split_pointers(b.decls)) {
+        for (const HeaderInfo& any : s.headers)
+          for (const auto& r : any.corresp)
+            if (!c && !r.id.empty() && r.id == pointer) c = &r;
+        if (c) break;
+      }
+      const bool decls_unmatched = !c && !b.decls.empty();
       if (!c)
         for (const auto& r : h.corresp)
           if (r.is_default) c = &r;
       if (!c && h.corresp.size() == 1) c = &h.corresp.front();
+      if (c && decls_unmatched)
+        seg.warnings.push_back(std::string("letter paired with the ") + (c->is_default ? "default" : "only") +
+                               " correspDesc of its header: its @decls names no correspDesc");
       if (!c && static_cast<std::size_t>(ordinal) < h.corresp.size()) {
         c = &h.corresp[static_cast<std::size_t>(ordinal)];
         seg.warnings.push_back("letter paired with correspDesc number " + std::to_string(ordinal + 1) +
-                               " by document order: no @decls or default correspDesc links them");
+                               " by document order: " +
+                               (decls_unmatched ? "its @decls names no correspDesc"
+                                                : "no @decls or default correspDesc links them"));
       }
       if (c) {
         seg.label = c->sender_label.empty() ? seg.label : c->sender_label;

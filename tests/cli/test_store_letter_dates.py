@@ -123,8 +123,11 @@ EDITIONS = [
      + tei("Second of the packet", corresp("cd-P2", '<date when="1857-09-09"/>'), "<p>%s</p>" % WORDS,
            ' xml:id="P2"').replace(' xmlns="http://www.tei-c.org/ns/1.0"', "")
      .replace('"tc"', '"tc2"').replace('"#tc"', '"#tc2"')  # ids are unique in the whole file
+     # A third text, without a correspDesc of its own, whose letter points at the second's.
+     + tei("Third of the packet", "", letter("P3a", decls="#cd-P2"), ' xml:id="P3"')
+     .replace(' xmlns="http://www.tei-c.org/ns/1.0"', "").replace('"tc"', '"tc3"')
      + "</teiCorpus>\n",
-     {"P1": 1846, "P2": 1857}),
+     {"P1": 1846, "P2": 1857, "P3a": 1857}),
     # No date anywhere: the file is left out by any --years.
     ("undated-letters", XML + tei("Undated letters", corresp("cd-U1") + corresp("cd-U2"), letter("U1") + letter("U2")),
      {"U1": None, "U2": None}),
@@ -161,10 +164,10 @@ def own_dateline_dates(unit):
     return out
 
 
-def paired(desc_list, div, position):
-    """The correspDesc of a letter: the first of its @decls that names one, else the default,
-    else the only, else by order."""
-    by_id = {d.get(XML_ID): d for d in desc_list}
+def paired(desc_list, by_id, div, position):
+    """The correspDesc of a letter: the first of its @decls that names one (`by_id`: those of
+    every TEI header of the file), else the default of its header, else the only, else by
+    order."""
     for pointer in (div.get("decls") or "").split():
         if pointer.lstrip("#") in by_id:
             return by_id[pointer.lstrip("#")]
@@ -182,13 +185,14 @@ def lxml_letter_dates(path):
     root = etree.parse(path).getroot()
     texts = [root] if root.tag == TEI + "TEI" else root.findall(TEI + "TEI")
     file_year = work_year(texts[0], texts[0].find(TEI + "teiHeader"))
+    by_id = {d.get(XML_ID): d for t in texts for d in t.find(TEI + "teiHeader").iter(TEI + "correspDesc")}
     out = {}
     for text in texts:
         header = text.find(TEI + "teiHeader")
         descs = list(header.iter(TEI + "correspDesc"))
         divs = [d for d in text.iter(TEI + "div") if d.get("type") == "letter"]
         # A file of one letter: its body, with the only correspDesc.
-        units = [(d.get(XML_ID), d, paired(descs, d, i)) for i, d in enumerate(divs)] or \
+        units = [(d.get(XML_ID), d, paired(descs, by_id, d, i)) for i, d in enumerate(divs)] or \
             [(text.get(XML_ID), text.find(TEI + "text"), descs[0])]
         for lid, unit, desc in units:
             sent = [v for a in desc.iter(TEI + "correspAction") if a.get("type") == "sent"
@@ -233,6 +237,16 @@ with tempfile.TemporaryDirectory() as tmp:
         _, tables = storecheck.latest_analysis(store)
         return {row[0] for row in tables["segments"]}
 
+    def analysed_years(store, run_id=None):
+        """{segment: year} of an analysis (the newest by default), as analysis_segments keeps them."""
+        db = storecheck.connect(store)
+        try:
+            if run_id is None:
+                run_id = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
+            return dict(db.execute("SELECT segment, year FROM analysis_segments WHERE run_id = ?", (run_id,)))
+        finally:
+            db.close()
+
     # The segments' years in the store: own, else the file's (segment_list.year).
     store = os.path.join(tmp, "letters.sqlite")
     mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"])
@@ -248,6 +262,9 @@ with tempfile.TemporaryDirectory() as tmp:
     listed = json.loads(mtest.run(["segments", archive, "--unit", "letter", "--format", "json"]).stdout)["segments"]
     listed_dates = {row["segment"]: row["date"] or None for row in listed}
     mtest.check(listed_dates == own_dates, "`segments` prints dates %r, lxml reads %r" % (listed_dates, own_dates))
+    # Pairing by document order is said in the letter's warnings, and only there.
+    by_order = {row["segment"] for row in listed if any("by document order" in w for w in row["warnings"])}
+    mtest.check(by_order == {"order-letters#O1", "order-letters#O2"}, "letters warned of order pairing: %r" % by_order)
 
     # --years over letters, on counts just read and on counts read back.
     for years, low, high in (("1845-1849", 1845, 1849), ("1850-1853", 1850, 1853), ("1854-", 1854, 9999),
@@ -260,16 +277,15 @@ with tempfile.TemporaryDirectory() as tmp:
             mtest.check(proc.returncode == 0, "batch --years %s failed: %s" % (years, proc.stderr))
             mtest.check(analysed(fresh_store) == want, "batch --analyse --years %s took %r, expected %r" % (
                 years, sorted(analysed(fresh_store)), sorted(want)))
+            mtest.check(analysed_years(fresh_store) == {k: expected[k] for k in want},
+                        "batch --analyse: analysis_segments' years %r" % analysed_years(fresh_store))
         proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "10", "--years", years], check=False)
         if len(want) >= 2:
             mtest.check(proc.returncode == 0, "analyse-store --years %s failed: %s" % (years, proc.stderr))
             mtest.check(analysed(store) == want, "analyse-store --years %s took %r, expected %r" % (
                 years, sorted(analysed(store)), sorted(want)))
-            db = storecheck.connect(store)
-            taken = dict(db.execute("SELECT segment, year FROM analysis_segments WHERE run_id = "
-                                    "(SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done')"))
-            db.close()
-            mtest.check(taken == {k: expected[k] for k in want}, "analysis_segments' years %r" % taken)
+            mtest.check(analysed_years(store) == {k: expected[k] for k in want},
+                        "analyse-store: analysis_segments' years %r" % analysed_years(store))
             # The undated file, and the undated letter of a file chosen for a dated one.
             mtest.check("1 file(s) left out by --years for want of a year" in proc.stderr,
                         "--years %s: no note of the undated file: %s" % (years, proc.stderr))
@@ -302,7 +318,9 @@ with tempfile.TemporaryDirectory() as tmp:
     # from this one with SQLite's own ALTER TABLE ... DROP COLUMN.
     old = os.path.join(tmp, "format2.sqlite")
     mtest.run(["batch", archive, "--store", old, "--unit", "letter", "--quiet"])
+    mtest.run(["analyse-store", "--store", old, "--min-tokens", "10"])
     db = sqlite3.connect(old)
+    earlier_analysis = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis'").fetchone()[0]
     fresh_columns = {t: [r[1] for r in db.execute("PRAGMA table_info(%s)" % t)]
                      for t in ("segments", "readings", "analysis_segments")}
     db.executescript("""
@@ -319,6 +337,16 @@ with tempfile.TemporaryDirectory() as tmp:
     before = {t: db.execute("SELECT count(*) FROM %s" % t).fetchone()[0] for t in ("files", "readings", "segments")}
     db.close()
     mtest.run(["analyse-store", "--store", old, "--min-tokens", "10"])
+    # The analysis made before keeps its rows, its segments given their file's year (format
+    # 2 dated files only): lxml's year of each file's work (tests/pylib/tei_dates.py).
+    file_year = {}
+    for name, _, _ in EDITIONS:
+        root = etree.parse(os.path.join(archive, name + ".xml")).getroot()
+        first = root if root.tag == TEI + "TEI" else root.find(TEI + "TEI")
+        file_year[name] = work_year(first, first.find(TEI + "teiHeader"))
+    got = analysed_years(old, earlier_analysis)
+    mtest.check(got == {k: file_year[k.split("#")[0]] for k in got} and len(got) > 0,
+                "the reused analysis' years after the upgrade %r, the files' %r" % (got, file_year))
     db = sqlite3.connect(old)
     mtest.check(db.execute("SELECT value FROM store_info WHERE key = 'format'").fetchone()[0] == "3",
                 "a format-2 store was not brought up to format 3")

@@ -94,7 +94,8 @@ with tempfile.TemporaryDirectory() as tmp:
                 "the analyses took different segments")
 
     # A format-2 store changed by hand so that the upgrade cannot run (it already has a
-    # column the upgrade adds) is refused with the reason and left as it was.
+    # column the upgrade adds) is refused (exit 5: the store could not be written) with
+    # SQLite's reason, and left as it was.
     odd = os.path.join(tmp, "odd.sqlite")
     with gzip.open(FIXTURE) as src, open(odd, "wb") as dst:
         shutil.copyfileobj(src, dst)
@@ -104,9 +105,13 @@ with tempfile.TemporaryDirectory() as tmp:
     db.close()
     odd_before = (rows(odd), shape(odd))
     proc = mtest.run(["analyse-store", "--store", odd, "--min-tokens", "200"], check=False)
-    mtest.check(proc.returncode == 3 and "cannot be brought up to format 3" in proc.stderr
+    mtest.check(proc.returncode == 5 and "cannot be brought up to format 3" in proc.stderr
                 and "duplicate column name: year" in proc.stderr and "left unchanged" in proc.stderr,
                 "a store that cannot be upgraded: exit %d, %s" % (proc.returncode, proc.stderr))
     mtest.check((rows(odd), shape(odd)) == odd_before, "a store that could not be upgraded was changed")
+    db = sqlite3.connect(odd)
+    mtest.check(db.execute("SELECT value FROM store_info WHERE key = 'format'").fetchone()[0] == "2",
+                "a store that could not be upgraded no longer says format 2")
+    db.close()
 
 mtest.done()
