@@ -192,6 +192,22 @@ constexpr const char* kFrom2To3[] = {
     "DROP VIEW IF EXISTS segment_list",
 };
 
+// Brings a store of format 2 up to this format inside the open transaction; on failure
+// (a store changed by hand, say) throws, and the transaction leaves the store as it was.
+void upgrade_from_format_2(Database& db, const std::string& path) {
+  try {
+    for (const char* statement : kFrom2To3) db.exec(statement);
+    db.exec(kSegmentListView);
+  } catch (const Error& e) {
+    std::string reason = e.what();
+    const std::string named = "store " + path + ": ";
+    if (reason.rfind(named, 0) == 0) reason.erase(0, named.size());
+    throw Error(e.kind(), "the store " + path + " has format 2 but cannot be brought up to format " +
+                              std::to_string(kStoreFormat) + " (" + reason + "); it is left unchanged");
+  }
+  db.prepare("UPDATE store_info SET value = ?1 WHERE key = 'format'").run(std::to_string(kStoreFormat));
+}
+
 }  // namespace
 
 std::unique_ptr<Database> open_store(const std::string& path, bool create) {
@@ -237,17 +253,7 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
     std::string found = version.step() ? version.text_at(0) : "";
     version.reset();
     if (found == "2") {
-      try {
-        for (const char* statement : kFrom2To3) db->exec(statement);
-        db->exec(kSegmentListView);
-      } catch (const Error& e) {  // e.g. a store changed by hand; the transaction leaves it as it was
-        std::string reason = e.what();
-        const std::string named = "store " + path + ": ";
-        if (reason.rfind(named, 0) == 0) reason.erase(0, named.size());
-        throw Error(e.kind(), "the store " + path + " has format 2 but cannot be brought up to format " +
-                                  std::to_string(kStoreFormat) + " (" + reason + "); it is left unchanged");
-      }
-      db->prepare("UPDATE store_info SET value = ?1 WHERE key = 'format'").run(std::to_string(kStoreFormat));
+      upgrade_from_format_2(*db, path);
       found = std::to_string(kStoreFormat);
     }
     if (found != std::to_string(kStoreFormat))

@@ -50,7 +50,8 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
   StoredSelection out;
   Statement files = db.prepare(
       "SELECT f.path, f.relative_path, f.sha256, r.status, r.title, r.author, r.date, r.year, r.language, "
-      "r.first_segment_year, r.last_segment_year FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 ORDER BY f.path");
+      "r.first_segment_year, r.last_segment_year "
+      "FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 ORDER BY f.path");
   files.bind(1, settings_id);
   while (files.step()) {
     ++out.files_in_store;

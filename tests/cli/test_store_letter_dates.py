@@ -266,32 +266,30 @@ with tempfile.TemporaryDirectory() as tmp:
     by_order = {row["segment"] for row in listed if any("by document order" in w for w in row["warnings"])}
     mtest.check(by_order == {"order-letters#O1", "order-letters#O2"}, "letters warned of order pairing: %r" % by_order)
 
+    def check_analysis(proc, store, what, want):
+        """The analysis `what` ran and took the segments `want`, each with its year."""
+        mtest.check(proc.returncode == 0, "%s failed: %s" % (what, proc.stderr))
+        mtest.check(analysed(store) == want, "%s took %r, expected %r" % (what, sorted(analysed(store)), sorted(want)))
+        mtest.check(analysed_years(store) == {k: expected[k] for k in want},
+                    "%s: analysis_segments' years %r" % (what, analysed_years(store)))
+
     # --years over letters, on counts just read and on counts read back.
     for years, low, high in (("1845-1849", 1845, 1849), ("1850-1853", 1850, 1853), ("1854-", 1854, 9999),
                              ("-1850", 0, 1850)):
         want = {k for k, y in expected.items() if y is not None and low <= y <= high}
+        mtest.check(len(want) >= 2, "the editions give --years %s fewer than two letters to analyse" % years)
         fresh_store = os.path.join(tmp, "fresh-%s.sqlite" % years)
         proc = mtest.run(["batch", archive, "--store", fresh_store, "--unit", "letter", "--analyse",
                           "--min-tokens", "10", "--years", years, "--quiet"], check=False)
-        if len(want) >= 2:
-            mtest.check(proc.returncode == 0, "batch --years %s failed: %s" % (years, proc.stderr))
-            mtest.check(analysed(fresh_store) == want, "batch --analyse --years %s took %r, expected %r" % (
-                years, sorted(analysed(fresh_store)), sorted(want)))
-            mtest.check(analysed_years(fresh_store) == {k: expected[k] for k in want},
-                        "batch --analyse: analysis_segments' years %r" % analysed_years(fresh_store))
+        check_analysis(proc, fresh_store, "batch --analyse --years " + years, want)
         proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "10", "--years", years], check=False)
-        if len(want) >= 2:
-            mtest.check(proc.returncode == 0, "analyse-store --years %s failed: %s" % (years, proc.stderr))
-            mtest.check(analysed(store) == want, "analyse-store --years %s took %r, expected %r" % (
-                years, sorted(analysed(store)), sorted(want)))
-            mtest.check(analysed_years(store) == {k: expected[k] for k in want},
-                        "analyse-store: analysis_segments' years %r" % analysed_years(store))
-            # The undated file, and the undated letter of a file chosen for a dated one.
-            mtest.check("1 file(s) left out by --years for want of a year" in proc.stderr,
-                        "--years %s: no note of the undated file: %s" % (years, proc.stderr))
-            if low <= 1852 <= high:
-                mtest.check("1 segment(s) left out by --years for want of a year" in proc.stderr,
-                            "--years %s: no note of the undated letter: %s" % (years, proc.stderr))
+        check_analysis(proc, store, "analyse-store --years " + years, want)
+        # The undated file, and the undated letter of a file chosen for a dated one.
+        mtest.check("1 file(s) left out by --years for want of a year" in proc.stderr,
+                    "--years %s: no note of the undated file: %s" % (years, proc.stderr))
+        if low <= 1852 <= high:
+            mtest.check("1 segment(s) left out by --years for want of a year" in proc.stderr,
+                        "--years %s: no note of the undated letter: %s" % (years, proc.stderr))
 
     # Two shards merged hold the same dated segments as the one run (merge copies the dates).
     shards = []

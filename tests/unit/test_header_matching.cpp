@@ -20,7 +20,7 @@
 
 using namespace manicule;
 using manicule::test::read_whole_file;
-using manicule::test::unicode_data_file;
+using manicule::test::read_unicode_data;
 using manicule::test::utf8;
 
 namespace {
@@ -37,10 +37,7 @@ TEST_CASE("caseless_code_points folds each character as CaseFolding.txt's C and 
           "[caseless]") {
   // "<code>; <status>; <mapping>; # <name>": C (common) and S (simple) give the one-to-one
   // folding; F (full) and T (Turkic) lines are not used.
-  const std::string path = unicode_data_file("CaseFolding.txt");
-  bool ok = false;
-  const std::string content = read_whole_file(path, ok);
-  if (!ok) FAIL("cannot read " << path << ": install Debian's unicode-data package");
+  const std::string content = read_unicode_data("CaseFolding.txt");
   std::istringstream lines(content);
   std::size_t checked = 0;
   for (std::string line; std::getline(lines, line);) {

@@ -1,6 +1,7 @@
 // Helpers shared by the tokenizer tests: where Debian's Unicode data lives, UTF-8
 // building, and crude text extraction from TEI files for comparing the two tokenizer paths.
 #pragma once
+#include <catch2/catch.hpp>
 #include <unicode/utf8.h>
 
 #include <cstdlib>
@@ -25,6 +26,19 @@ inline std::string read_whole_file(const std::string& path, bool& ok) {
   std::ostringstream content;
   content << in.rdbuf();
   return content.str();
+}
+
+// The whole of a Unicode Character Database file (unicode_data_file); fails the test
+// case, saying what to install, when it cannot be read.
+inline std::string read_unicode_data(const std::string& relative) {
+  const std::string path = unicode_data_file(relative);
+  bool ok = false;
+  std::string content = read_whole_file(path, ok);
+  if (!ok) {
+    FAIL("cannot read " << path << ": install Debian's unicode-data package "
+                        << "(or point MANICULE_UNICODE_DATA at a Unicode data folder)");
+  }
+  return content;
 }
 
 inline void append_utf8(char32_t c, std::string& out) {

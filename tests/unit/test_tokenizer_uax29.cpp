@@ -19,8 +19,7 @@
 
 using namespace manicule;
 using manicule::test::append_utf8;
-using manicule::test::read_whole_file;
-using manicule::test::unicode_data_file;
+using manicule::test::read_unicode_data;
 
 namespace {
 
@@ -33,13 +32,7 @@ struct BreakTestCase {
 
 // Every test line: "÷ 0061 × 003A ÷" (÷ marks a boundary, × none), then a comment.
 std::vector<BreakTestCase> read_word_break_tests() {
-  const std::string path = unicode_data_file("auxiliary/WordBreakTest.txt");
-  bool ok = false;
-  const std::string content = read_whole_file(path, ok);
-  if (!ok) {
-    FAIL("cannot read " << path << ": install Debian's unicode-data package "
-                        << "(or point MANICULE_UNICODE_DATA at a Unicode data folder)");
-  }
+  const std::string content = read_unicode_data("auxiliary/WordBreakTest.txt");
   // "# WordBreakTest-15.0.0.txt": the divergences below are known for ICU's own Unicode
   // version only (U_UNICODE_VERSION, "15.0" for ICU 72).
   const std::string header = content.substr(0, content.find('\n'));
@@ -143,10 +136,7 @@ TEST_CASE("fast path: word boundaries equal ICU's on every WordBreakTest.txt lin
 
 TEST_CASE("fast path: Word_Break classes match WordBreakProperty.txt",
           "[tokenizer][uax29][fast_path]") {
-  const std::string path = unicode_data_file("auxiliary/WordBreakProperty.txt");
-  bool ok = false;
-  const std::string content = read_whole_file(path, ok);
-  if (!ok) FAIL("cannot read " << path << ": install Debian's unicode-data package");
+  const std::string content = read_unicode_data("auxiliary/WordBreakProperty.txt");
   // "0041..005A    ; ALetter # ..." or "0027          ; Single_Quote # ..."
   std::map<char32_t, std::string> property;
   std::istringstream lines(content);
