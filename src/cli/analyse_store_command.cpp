@@ -8,6 +8,7 @@
 #include "cli/archive_options.h"
 #include "cli/attribution_cli_options.h"
 #include "cli/commands.h"
+#include "cli/progress_display.h"
 #include "cli/store_report.h"
 #include "core/error.h"
 #include "store/store_analysis.h"
@@ -24,7 +25,7 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
   struct Flags {
     std::string store;
     std::int64_t settings = 0;
-    bool pca = false, attribute = false, recompute = false, list = false;
+    bool pca = false, attribute = false, recompute = false, list = false, quiet = false;
   };
   auto flags = std::make_shared<Flags>();
   command->add_option("--store", flags->store, "the SQLite store made by batch")->required();
@@ -37,6 +38,7 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
   command->add_flag("--attribute", flags->attribute,
                     "rank the candidate authors of the questioned segments (docs/attribution.md)");
   command->add_flag("--recompute", flags->recompute, "recompute even if an identical analysis is stored");
+  command->add_flag("--quiet,-q", flags->quiet, "no progress display");
 
   return [=]() -> int {
     auto db = store::open_store(flags->store, false);
@@ -71,8 +73,11 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
       throw Error(ErrorKind::usage, "the store's counts under settings " + std::to_string(settings_id) + " are " +
                                         chosen->settings.features + "; count others with batch --features");
     request.compute_pca = flags->pca;
-    store::StoreAnalysisOptions how{filters->to_filter(), flags->attribute, flags->recompute};
+    ProgressDisplay display(flags->quiet);
+    store::StoreAnalysisOptions how{filters->to_filter(), flags->attribute, flags->recompute,
+                                    [&display](std::string_view step, double share_done) { display.step(step, share_done); }};
     auto result = store::analyse_store(*db, settings_id, request, how);
+    display.clear();
     report_analysis(std::cout, std::cerr, result);
     return 0;
   };

@@ -62,7 +62,7 @@ CommandRunner add_batch_command(CLI::App& app) {
   command->add_flag("--attribute", flags->attribute,
                     "with --analyse: rank the candidate authors of the questioned segments (docs/attribution.md)");
   command->add_flag("--recompute", flags->recompute, "with --analyse: recompute even if an identical analysis is stored");
-  command->add_flag("--quiet,-q", flags->quiet, "no progress display");
+  command->add_flag("--quiet,-q", flags->quiet, "no progress display (of the reading and of the analysis)");
   command->add_flag("--verbose,-v", flags->verbose, "name each file that had to be opened, and what became of it");
 
   return [=]() -> int {
@@ -124,9 +124,11 @@ CommandRunner add_batch_command(CLI::App& app) {
     report_failures(std::cerr, summary);
     if (flags->analyse) {
       if (blas.valid()) blas.get();
-      store::StoreAnalysisOptions how{options.filter, flags->attribute, flags->recompute};
+      store::StoreAnalysisOptions how{options.filter, flags->attribute, flags->recompute,
+                                      [&display](std::string_view step, double share_done) { display.step(step, share_done); }};
       store::StoreAnalysisResult result = store::analyse_store(*db, summary.settings_id, request, how, summary.fresh.get());
       summary.fresh.reset();
+      display.clear();
       report_analysis(std::cout, std::cerr, result);
     }
     return summary.failures.empty() && summary.unlisted.empty() ? kExitOk : kExitSomeFilesFailed;

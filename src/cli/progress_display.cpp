@@ -40,6 +40,31 @@ void ProgressDisplay::update(const store::BatchProgress& p) {
   shown_ = true;
 }
 
+void ProgressDisplay::step(std::string_view name, double share_done) {
+  if (!enabled_) return;
+  auto now = std::chrono::steady_clock::now();
+  if (name != step_) {
+    step_ = name;
+    step_start_ = now;
+  } else if (share_done < 1 && now - last_draw_ < std::chrono::milliseconds(200)) {
+    return;
+  }
+  last_draw_ = now;
+  std::string line = "analysis: " + step_;
+  if (share_done >= 0) {
+    // The rate so far, once the step has run long enough to have one.
+    double elapsed = std::chrono::duration<double>(now - step_start_).count();
+    std::string left = "--:--";
+    if (share_done > 0 && elapsed >= 0.5) left = clock_text(elapsed * (1 - share_done) / share_done);
+    char figures[48];
+    std::snprintf(figures, sizeof figures, "  %.0f%%  %s left", 100 * share_done, left.c_str());
+    line += figures;
+  }
+  std::fprintf(stderr, "\r\033[K%s", line.c_str());
+  std::fflush(stderr);
+  shown_ = true;
+}
+
 void ProgressDisplay::clear() {
   if (!shown_) return;
   std::fprintf(stderr, "\r\033[K");

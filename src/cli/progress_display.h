@@ -1,9 +1,13 @@
-// Progress of a batch run on the terminal: files done of all, MB/s and the time left,
-// redrawn in place on stderr at most a few times a second. Silent when stderr is not a
-// terminal (logs and job outputs stay clean) or when the user asked for --quiet.
+// Progress on the terminal: of a batch run, files done of all, MB/s and the time left; of
+// an analysis, its step and, where the step can tell, the share done and the time left.
+// Redrawn in place on stderr at most a few times a second (a new step at once). Silent
+// when stderr is not a terminal (logs and job outputs stay clean) or when the user asked
+// for --quiet.
 #pragma once
 #include <chrono>
 #include <cstddef>
+#include <string>
+#include <string_view>
 
 #include "store/batch_run.h"
 
@@ -14,6 +18,8 @@ class ProgressDisplay {
   explicit ProgressDisplay(bool quiet);
   ~ProgressDisplay();
   void update(const store::BatchProgress& progress);
+  // An analysis' step (core/analysis_progress.h).
+  void step(std::string_view name, double share_done);
   // Clears the line (before other output, and at the end).
   void clear();
 
@@ -22,6 +28,8 @@ class ProgressDisplay {
   bool shown_ = false;
   std::chrono::steady_clock::time_point start_;
   std::chrono::steady_clock::time_point last_draw_;
+  std::string step_;
+  std::chrono::steady_clock::time_point step_start_;
 };
 
 }  // namespace manicule::cli

@@ -65,13 +65,14 @@ void record_feature_parameters(const Request& request, std::size_t features_used
   params.emplace_back("segments measured", std::to_string(segments_measured));
 }
 
-Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
+Analysis analyse_corpus(const Request& request, const Corpus& corpus, const AnalysisProgress& progress) {
   Analysis analysis;
   analysis.provenance = make_provenance(request, corpus);
   analysis.segments = summarise_segments(corpus);
   if (analysis.segments.empty())
     throw Error(ErrorKind::nothing_selected, "no " + request.unit + " segment found in the input files");
 
+  report_step(progress, "feature table");
   FeatureTable table = build_feature_table(corpus.counts, request.feature_space, request.threads);
   std::vector<std::size_t> rows;
   {
@@ -120,11 +121,15 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
     result.measure = request.measure;
     result.rows = rows;
     if (request.keep_distance_matrix || request.clustering.compute) {
+      report_step(progress, "distances");
       result.values = std::move(distance_matrix(table, request.measure, options).values);
       result.nearest = as_neighbours(nearest_in_matrix(result.values, request.neighbours, request.threads), rows);
     } else {
       NearestOptions nearest;
       nearest.distance = options;
+      // The all-pairs search is the step that grows with the square of the segments.
+      if (progress) nearest.progress = [&](double share_done) { progress("nearest segments", share_done); };
+      report_step(progress, "nearest segments", 0.0);
       result.nearest = as_neighbours(
           nearest_rows(measure_rows(table, request.measure), request.measure, request.neighbours, nearest), rows);
     }
@@ -133,10 +138,12 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus) {
     params.emplace_back("measure", std::string(info.name) + " (" + std::string(info.citation) + ")");
   }
   if (request.clustering.compute) {
+    report_step(progress, "clustering");
     analysis.clustering = cluster_segments(request, corpus.counts, analysis);
     params.emplace_back("clustering", describe_clustering(*analysis.clustering));
   }
   if (request.compute_pca) {
+    report_step(progress, "principal components");
     analysis.pca = principal_components(table, request.pca);
     params.emplace_back("pca input", request.pca.input == PcaInput::z_scores ? "z-scores" : "relative frequencies");
   }

@@ -2,6 +2,7 @@
 // and returns an Analysis; neither face computes anything itself.
 #pragma once
 #include "core/analysis.h"
+#include "core/analysis_progress.h"
 #include "core/corpus.h"
 #include "core/request.h"
 
@@ -17,8 +18,9 @@ Analysis analyse(const Request& request, const ProgressFn& progress = {});
 void check_analysis_options(const Request& request);
 
 // The same from counts already read (e.g. from the archive store): `corpus` supplies the
-// segments and their counts in one order.
-Analysis analyse_corpus(const Request& request, const Corpus& corpus);
+// segments and their counts in one order. `progress` hears of each step as it starts, and
+// of the nearest-segment search's share done after each block of segments.
+Analysis analyse_corpus(const Request& request, const Corpus& corpus, const AnalysisProgress& progress = {});
 
 // Segment summaries of a corpus, without measures (what `segments` lists).
 std::vector<SegmentSummary> summarise_segments(const Corpus& corpus);

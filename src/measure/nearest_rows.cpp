@@ -126,6 +126,10 @@ bool offer_every_pair(std::size_t n, const NearestOptions& options, const Keeper
   keepers.assign(n, empty);
   const std::size_t parts = 2 * resolve_thread_count(threads);
   std::vector<std::vector<Keeper>> offered_to_block(parts);
+  // A block's work is its products, count x rest: the share done is told by that measure.
+  double all_products = 0, products_done = 0;
+  for (std::size_t first = 0; first < n; first += block)
+    all_products += static_cast<double>(std::min(block, n - first)) * static_cast<double>(n - first);
   for (std::size_t first = 0; first < n; first += block) {
     const std::size_t count = std::min(block, n - first);
     const std::size_t rest = n - first;  // rows first .. n - 1, the block's own included
@@ -152,6 +156,8 @@ bool offer_every_pair(std::size_t n, const NearestOptions& options, const Keeper
     for (const auto& to_block : offered_to_block)
       for (std::size_t c = 0; c < to_block.size(); ++c)
         to_block[c].for_each([&](std::size_t row, auto v) { keepers[first + c].offer(row, v); });
+    products_done += static_cast<double>(count) * static_cast<double>(rest);
+    if (options.progress) options.progress(products_done / all_products);
   }
   return true;
 }

@@ -20,6 +20,7 @@
 // to the last bit.
 #pragma once
 #include <cstddef>
+#include <functional>
 #include <vector>
 
 #include "measure/distance_measure.h"
@@ -38,6 +39,9 @@ struct NearestOptions {
   std::size_t block_rows = 0;  // rows a block; 0 = some 4 MiB of dot products a block, 256 rows at least
   // Screen in single precision first (see above); off: every pair in double precision.
   bool screen = true;
+  // Told after each block of rows the share of the pairs measured so far (0-1), on the
+  // calling thread; may be empty.
+  std::function<void(double)> progress;
 };
 
 // For each row, min(k, n - 1) other rows, nearest first; equal distances in row order.

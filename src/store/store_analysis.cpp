@@ -151,7 +151,7 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   // Cosine measures take their Gram matrix from the BLAS: it is opened while the corpus loads.
   std::future<void> blas = open_blas_ahead(request);
   StoredCorpus stored = load_stored_corpus(db, settings_id, request.features, filter, selection,
-                                           request.feature_space.min_segment_tokens, fresh);
+                                           request.feature_space.min_segment_tokens, fresh, options.progress);
   result.files = stored.corpus.files.size();
   result.segments = stored.corpus.segments.size();
   if (stored.corpus.segments.size() < 2) throw too_little_to_analyse(filter, selection, stored, request);
@@ -170,10 +170,14 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   analysis_request.feature_space.keep_relative =
       measure_info(request.measure).input != MeasureInput::z_scores ||
       (request.compute_pca && request.pca.input == PcaInput::relative_frequencies);
-  Analysis analysis = analyse_corpus(analysis_request, stored.corpus);
+  Analysis analysis = analyse_corpus(analysis_request, stored.corpus, options.progress);
   std::vector<std::string> notes;
   std::vector<AttributionRow> attributions;
-  if (options.attribute) attributions = attribution_rows(analysis_request, analysis, notes);
+  if (options.attribute) {
+    report_step(options.progress, "candidate authors");
+    attributions = attribution_rows(analysis_request, analysis, notes);
+  }
+  report_step(options.progress, "storing results");
   checkpoint.get();
   result.run_id = write_analysis(db, settings_id, parameters, key, analysis, stored, attributions);
   result.measured = analysis.table.segment_count();

@@ -10,6 +10,7 @@
 #include <string>
 #include <vector>
 
+#include "core/analysis_progress.h"
 #include "core/request.h"
 #include "store/archive_filter.h"
 #include "store/fresh_counts.h"
@@ -34,6 +35,7 @@ struct StoreAnalysisOptions {
   ArchiveFilter filter;
   bool attribute = false;  // rank candidates for the questioned segments
   bool recompute = false;
+  AnalysisProgress progress;  // each step as it starts, and how far (may be empty)
 };
 
 // Opens, on a thread of its own, the BLAS the analysis of `request` takes its Gram matrix

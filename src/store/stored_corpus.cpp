@@ -95,7 +95,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
 
 StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const FeatureSpec& spec,
                                 const ArchiveFilter& filter, const StoredSelection& selection,
-                                std::size_t min_tokens, FreshCounts* fresh) {
+                                std::size_t min_tokens, FreshCounts* fresh, const AnalysisProgress& progress) {
   StoredCorpus out;
   // Each selected file's segments in ordinal order, from what the batch just stored when
   // it is at hand, else from the store (the index on the segments' key gives that order).
@@ -112,7 +112,10 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
   if (fresh)
     for (const auto& sha256 : selection.sha256) ++uses_left[sha256];
 
-  for (std::size_t f = 0; f < selection.paths.size(); ++f) {
+  const std::size_t files = selection.paths.size();
+  report_step(progress, "stored counts", 0.0);
+  for (std::size_t f = 0; f < files; ++f) {
+    if (f > 0) report_step(progress, "stored counts", static_cast<double>(f) / static_cast<double>(files));
     const std::string& path = selection.paths[f];
     const std::string& file_sha256 = selection.sha256[f];
     bool file_listed = false;

@@ -12,6 +12,7 @@
 #include <string>
 #include <vector>
 
+#include "core/analysis_progress.h"
 #include "core/corpus.h"
 #include "store/archive_filter.h"
 #include "store/fresh_counts.h"
@@ -55,9 +56,11 @@ struct StoredCorpus {
 StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& filter);
 
 // Throws Error(usage) when two files' segment ids clash (a safety net: the prefixes that
-// select_stored_files gives are distinct).
+// select_stored_files gives are distinct). `progress` hears of the share of the selected
+// files loaded (step "stored counts").
 StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const FeatureSpec& spec,
                                 const ArchiveFilter& filter, const StoredSelection& selection,
-                                std::size_t min_tokens, FreshCounts* fresh = nullptr);
+                                std::size_t min_tokens, FreshCounts* fresh = nullptr,
+                                const AnalysisProgress& progress = {});
 
 }  // namespace manicule::store

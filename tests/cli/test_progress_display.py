@@ -1,0 +1,132 @@
+"""The progress display of batch and analyse-store: drawn on a terminal, silent otherwise.
+
+A real pseudo-terminal (Python's pty, POSIX openpty) stands for the user's terminal on
+stderr, while stdout goes to a pipe. Over all GerDraCor plays (../shared/corpora):
+- batch --analyse draws "k/N files  X MB/s  m:ss left" with N the TEI files os.walk
+  finds, k rising to N; then the analysis' steps in their order (stored counts, feature
+  table, nearest segments, storing results), with shares that only rise and a nearest-
+  segment search that ends at 100 %; the line is cleared (ECMA-48 EL, ESC [ K, after a
+  carriage return) before any other message, and stdout holds none of it;
+- analyse-store --recompute draws the same steps;
+- a re-run whose analysis is stored computes nothing and draws no analysis step;
+- with --quiet, or with stderr a pipe rather than a terminal (a log, a job's output),
+  nothing is drawn: no carriage return, no "files", no "analysis:".
+"""
+import os
+import pty
+import re
+import subprocess
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
+import mtest  # noqa: E402
+
+PLAYS = os.path.join(mtest.CORPORA, "gerdracor")
+CLEAR = "\r\x1b[K"  # carriage return, then EL (erase to the end of the line)
+FILES_LINE = re.compile(r"^(\d+)/(\d+) files  (\d+\.\d) MB/s  (\d+:\d\d|--:--) left$")
+STEP_LINE = re.compile(r"^analysis: ([a-z ]+?)(?:  (\d+)%  (\d+:\d\d|--:--) left)?$")
+
+
+def run_on_terminal(args):
+    """(exit code, stdout, what the terminal got on stderr) of manicule ARGS."""
+    controller, terminal = pty.openpty()
+    proc = subprocess.Popen([mtest.BIN] + args, stdout=subprocess.PIPE, stderr=terminal, text=False)
+    os.close(terminal)
+    received = b""
+    while True:
+        try:
+            chunk = os.read(controller, 65536)
+        except OSError:  # EIO: the terminal's other end is closed
+            break
+        if not chunk:
+            break
+        received += chunk
+    out = proc.stdout.read()
+    proc.wait()
+    os.close(controller)
+    # The terminal's output processing turns "\n" into "\r\n" (ONLCR); undo it.
+    return proc.returncode, out.decode(), received.decode().replace("\r\n", "\n")
+
+
+def drawn(stderr):
+    """The progress lines drawn (each after a clear), in order, and the text after the last
+    clear (what the terminal shows when the program is done)."""
+    pieces = stderr.split(CLEAR)
+    return [p for p in pieces[1:] if p and "\n" not in p], pieces[-1]
+
+
+def check_steps(lines, expected_steps, context):
+    steps, shares = [], {}
+    for line in lines:
+        m = STEP_LINE.match(line)
+        if not m:
+            continue
+        if not steps or steps[-1] != m.group(1):
+            steps.append(m.group(1))
+        if m.group(2) is not None:
+            shares.setdefault(m.group(1), []).append(int(m.group(2)))
+    mtest.check(steps == expected_steps, "%s: steps drawn %r, expected %r" % (context, steps, expected_steps))
+    for step, values in shares.items():
+        mtest.check(values == sorted(values) and 0 <= values[0] and values[-1] <= 100,
+                    "%s: the shares of %s only rise, within 0-100: %r" % (context, step, values))
+    mtest.check(shares.get("nearest segments", [None])[-1] == 100,
+                "%s: the nearest-segment search ends at 100 %%: %r" % (context, shares.get("nearest segments")))
+
+
+tei_files = sum(1 for _, _, names in os.walk(PLAYS) for n in names
+                if n.lower().endswith((".xml", ".tei")) and not n.startswith("."))
+mtest.check(tei_files > 700, "the test's own count of the plays: %d" % tei_files)
+
+with tempfile.TemporaryDirectory() as tmp:
+    store = os.path.join(tmp, "plays.sqlite")
+    batch = ["batch", PLAYS, "--store", store, "--unit", "speaker", "--analyse"]
+
+    code, out, err = run_on_terminal(batch)
+    mtest.check(code == 0, "batch --analyse on a terminal exited %d: %s" % (code, err[-2000:]))
+    lines, after = drawn(err)
+    files = [FILES_LINE.match(line) for line in lines if FILES_LINE.match(line)]
+    mtest.check(len(files) >= 2, "batch drew file counts: %r" % lines[:5])
+    done = [int(m.group(1)) for m in files]
+    mtest.check(all(int(m.group(2)) == tei_files for m in files),
+                "each line counts of the %d files os.walk finds: %r" % (tei_files, files[-1].group(0)))
+    mtest.check(done == sorted(done) and done[-1] == tei_files,
+                "files done rise to all %d: %r" % (tei_files, done[-3:]))
+    mtest.check(all(FILES_LINE.match(line) or STEP_LINE.match(line) for line in lines),
+                "every drawn line is a file count or an analysis step: %r"
+                % [line for line in lines if not (FILES_LINE.match(line) or STEP_LINE.match(line))][:3])
+    check_steps(lines, ["stored counts", "feature table", "nearest segments", "storing results"], "batch --analyse")
+    # The file counts come before the analysis, and the last line drawn is cleared before
+    # the notes: what stays on the terminal is messages only.
+    first_step = next(i for i, line in enumerate(lines) if STEP_LINE.match(line))
+    mtest.check(all(FILES_LINE.match(line) for line in lines[:first_step]), "file counts first, then the analysis")
+    mtest.check(not after.strip() or after.lstrip().startswith("manicule: note"),
+                "the terminal is left with messages only: %r" % after[:200])
+    mtest.check("\r" not in out and "files  " not in out and "analysis:" not in out,
+                "stdout (a pipe) holds no progress: %r" % out[:300])
+    mtest.check("batch run 1: %d file(s): %d read" % (tei_files, tei_files) in out, "the summary on stdout: %r" % out)
+
+    code, out, err = run_on_terminal(["analyse-store", "--store", store, "--recompute"])
+    mtest.check(code == 0, "analyse-store on a terminal exited %d: %s" % (code, err[-2000:]))
+    lines, after = drawn(err)
+    check_steps(lines, ["stored counts", "feature table", "nearest segments", "storing results"], "analyse-store")
+    mtest.check(all(STEP_LINE.match(line) for line in lines), "analyse-store draws steps only: %r" % lines[:3])
+
+    # The analysis is stored: a re-run reads nothing and computes nothing.
+    code, out, err = run_on_terminal(batch)
+    mtest.check(code == 0 and "analysis:" not in err, "a re-run draws no analysis step: %r" % err[-500:])
+
+    for args, how in ((batch + ["--recompute", "--quiet"], "batch --quiet on a terminal"),
+                      (["analyse-store", "--store", store, "--recompute", "-q"], "analyse-store -q on a terminal")):
+        code, out, err = run_on_terminal(args)
+        mtest.check(code == 0, "%s exited %d" % (how, code))
+        mtest.check("\r" not in err and "files  " not in err and "analysis:" not in err,
+                    "%s draws nothing: %r" % (how, err[:300]))
+
+    for args, how in ((batch + ["--recompute"], "batch"), (["analyse-store", "--store", store, "--recompute"],
+                                                           "analyse-store")):
+        proc = mtest.run(args)  # stderr a pipe, as in a log or a job's output
+        mtest.check("\r" not in proc.stderr and "files  " not in proc.stderr and "analysis:" not in proc.stderr,
+                    "%s with stderr not a terminal draws nothing: %r" % (how, proc.stderr[:300]))
+
+mtest.done()
