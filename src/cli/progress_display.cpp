@@ -40,7 +40,7 @@ void ProgressDisplay::update(const store::BatchProgress& p) {
   shown_ = true;
 }
 
-void ProgressDisplay::step(std::string_view name, double share_done) {
+void ProgressDisplay::show_step(std::string_view name, double share_done) {
   if (!enabled_) return;
   auto now = std::chrono::steady_clock::now();
   if (name != step_) {
@@ -55,7 +55,8 @@ void ProgressDisplay::step(std::string_view name, double share_done) {
     // The rate so far, once the step has run long enough to have one.
     double elapsed = std::chrono::duration<double>(now - step_start_).count();
     std::string left = "--:--";
-    if (share_done > 0 && elapsed >= 0.5) left = clock_text(elapsed * (1 - share_done) / share_done);
+    if (share_done >= 1) left = clock_text(0);
+    else if (share_done > 0 && elapsed >= 0.5) left = clock_text(elapsed * (1 - share_done) / share_done);
     char figures[48];
     std::snprintf(figures, sizeof figures, "  %.0f%%  %s left", 100 * share_done, left.c_str());
     line += figures;
@@ -66,6 +67,7 @@ void ProgressDisplay::step(std::string_view name, double share_done) {
 }
 
 void ProgressDisplay::clear() {
+  step_.clear();  // a step shown again after a clear is drawn at once
   if (!shown_) return;
   std::fprintf(stderr, "\r\033[K");
   std::fflush(stderr);

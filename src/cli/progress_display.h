@@ -19,7 +19,7 @@ class ProgressDisplay {
   ~ProgressDisplay();
   void update(const store::BatchProgress& progress);
   // An analysis' step (core/analysis_progress.h).
-  void step(std::string_view name, double share_done);
+  void show_step(std::string_view name, double share_done);
   // Clears the line (before other output, and at the end).
   void clear();
 

@@ -121,7 +121,6 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus, const Anal
     result.measure = request.measure;
     result.rows = rows;
     if (request.keep_distance_matrix || request.clustering.compute) {
-      report_step(progress, "distances");
       result.values = std::move(distance_matrix(table, request.measure, options).values);
       result.nearest = as_neighbours(nearest_in_matrix(result.values, request.neighbours, request.threads), rows);
     } else {
@@ -138,7 +137,6 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus, const Anal
     params.emplace_back("measure", std::string(info.name) + " (" + std::string(info.citation) + ")");
   }
   if (request.clustering.compute) {
-    report_step(progress, "clustering");
     analysis.clustering = cluster_segments(request, corpus.counts, analysis);
     params.emplace_back("clustering", describe_clustering(*analysis.clustering));
   }

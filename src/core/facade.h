@@ -18,8 +18,10 @@ Analysis analyse(const Request& request, const ProgressFn& progress = {});
 void check_analysis_options(const Request& request);
 
 // The same from counts already read (e.g. from the archive store): `corpus` supplies the
-// segments and their counts in one order. `progress` hears of each step as it starts, and
-// of the nearest-segment search's share done after each block of segments.
+// segments and their counts in one order. `progress` (unlike analyse's ProgressFn, which
+// counts files read) hears of the analysis' steps as they start: the feature table, the
+// nearest-segment search with its share done (when only each segment's nearest are kept)
+// and the principal components.
 Analysis analyse_corpus(const Request& request, const Corpus& corpus, const AnalysisProgress& progress = {});
 
 // Segment summaries of a corpus, without measures (what `segments` lists).

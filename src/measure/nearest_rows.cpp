@@ -109,7 +109,8 @@ constexpr std::size_t kFewestBlockRows = 256;
 
 // Each pair of n rows once, as the symmetric product does: a block of rows against itself
 // and the rows after it. products(first, count, rest, out) writes block row c . row
-// first + r to out[c + count * r] (false: it cannot); a pair offers value(product, i, j)
+// first + r to out[c + count * r] (false: it cannot, which it must say at its first call,
+// before any share is told to options.progress); a pair offers value(product, i, j)
 // to both rows' keepers. The rows after the block are shared out among the threads, each
 // row's keeper used by one thread, and what the block's rows are offered is gathered per
 // thread and merged after.
@@ -156,8 +157,9 @@ bool offer_every_pair(std::size_t n, const NearestOptions& options, const Keeper
     for (const auto& to_block : offered_to_block)
       for (std::size_t c = 0; c < to_block.size(); ++c)
         to_block[c].for_each([&](std::size_t row, auto v) { keepers[first + c].offer(row, v); });
+    // The last block's share (1) is told by nearest_rows once the whole search is done.
     products_done += static_cast<double>(count) * static_cast<double>(rest);
-    if (options.progress) options.progress(products_done / all_products);
+    if (options.progress && products_done < all_products) options.progress(products_done / all_products);
   }
   return true;
 }
@@ -241,8 +243,10 @@ std::vector<std::vector<NearRow>> nearest_in_matrix(const Eigen::MatrixXd& dista
   return out;
 }
 
-std::vector<std::vector<NearRow>> nearest_rows(const RowMatrix& rows, DistanceMeasure measure, std::size_t k,
-                                               const NearestOptions& options) {
+namespace {
+
+std::vector<std::vector<NearRow>> search_nearest(const RowMatrix& rows, DistanceMeasure measure, std::size_t k,
+                                                 const NearestOptions& options) {
   check_distance_input(rows);
   const auto n = static_cast<std::size_t>(rows.rows());
   const std::size_t keep = std::min(k, n - 1);
@@ -277,6 +281,15 @@ std::vector<std::vector<NearRow>> nearest_rows(const RowMatrix& rows, DistanceMe
       },
       [&](double dot, std::size_t i, std::size_t j) { return cosine_from_dot(dot, lengths, i, j); });
   return BestRows::take_all(best);
+}
+
+}  // namespace
+
+std::vector<std::vector<NearRow>> nearest_rows(const RowMatrix& rows, DistanceMeasure measure, std::size_t k,
+                                               const NearestOptions& options) {
+  std::vector<std::vector<NearRow>> nearest = search_nearest(rows, measure, k, options);
+  if (options.progress) options.progress(1.0);  // the candidates measured in double precision too
+  return nearest;
 }
 
 }  // namespace manicule

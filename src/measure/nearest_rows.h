@@ -39,8 +39,9 @@ struct NearestOptions {
   std::size_t block_rows = 0;  // rows a block; 0 = some 4 MiB of dot products a block, 256 rows at least
   // Screen in single precision first (see above); off: every pair in double precision.
   bool screen = true;
-  // Told after each block of rows the share of the pairs measured so far (0-1), on the
-  // calling thread; may be empty.
+  // Told, on the calling thread, after each block of rows but the last the share of the
+  // search done so far, by the block products computed (a block's count x the rows from
+  // its first on), and 1 when the search is done; may be empty.
   std::function<void(double)> progress;
 };
 

@@ -210,6 +210,8 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     stored_segments.reset();
   }
 
+  report_step(progress, "stored counts", 1.0);
+
   if (fresh && id_bound <= fresh->forms.size()) {
     // The store's vocabulary itself, just handed over: the counts are in its ids already.
     // (Forms no segment here uses have no occurrences and are never selected.)

@@ -6,8 +6,10 @@ stderr, while stdout goes to a pipe. Over all GerDraCor plays (../shared/corpora
   finds, k rising to N; then the analysis' steps in their order (stored counts, feature
   table, nearest segments, storing results), with shares that only rise and a nearest-
   segment search that ends at 100 %; the line is cleared (ECMA-48 EL, ESC [ K, after a
-  carriage return) before any other message, and stdout holds none of it;
-- analyse-store --recompute draws the same steps;
+  carriage return) before any other message (no message follows a drawn line without a
+  clear between), and stdout holds none of it;
+- analyse-store --recompute draws the same steps, with --pca also "principal components",
+  and with --attribute over the invented letters (examples/) "candidate authors";
 - a re-run whose analysis is stored computes nothing and draws no analysis step;
 - with --quiet, or with stderr a pipe rather than a terminal (a log, a job's output),
   nothing is drawn: no carriage return, no "files", no "analysis:".
@@ -24,8 +26,10 @@ import mtest  # noqa: E402
 
 PLAYS = os.path.join(mtest.CORPORA, "gerdracor")
 CLEAR = "\r\x1b[K"  # carriage return, then EL (erase to the end of the line)
-FILES_LINE = re.compile(r"^(\d+)/(\d+) files  (\d+\.\d) MB/s  (\d+:\d\d|--:--) left$")
-STEP_LINE = re.compile(r"^analysis: ([a-z ]+?)(?:  (\d+)%  (\d+:\d\d|--:--) left)?$")
+LEFT = r"((?:\d+:)?\d+:\d\d|--:--) left"  # m:ss, or h:mm:ss past an hour
+FILES_LINE = re.compile(r"^(\d+)/(\d+) files  (\d+\.\d) MB/s  " + LEFT + "$")
+STEP_LINE = re.compile(r"^analysis: ([a-z ]+?)(?:  (\d+)%  " + LEFT + ")?$")
+EXAMPLES = os.path.join(mtest.ROOT, "examples")
 
 
 def run_on_terminal(args):
@@ -35,7 +39,10 @@ def run_on_terminal(args):
     except OSError as e:  # a container without /dev/ptmx: no terminal to draw on
         print("SKIP: no pseudo-terminal: %s" % e)
         sys.exit(77)
-    proc = subprocess.Popen([mtest.BIN] + args, stdout=subprocess.PIPE, stderr=terminal, text=False)
+    # stdout to a file, not a pipe: the terminal is read to its end first, and a full pipe
+    # would stop the program before that end.
+    out_file = tempfile.TemporaryFile()
+    proc = subprocess.Popen([mtest.BIN] + args, stdout=out_file, stderr=terminal)
     os.close(terminal)
     received = b""
     while True:
@@ -46,17 +53,26 @@ def run_on_terminal(args):
         if not chunk:
             break
         received += chunk
-    out = proc.stdout.read()
-    proc.wait()
+    proc.wait(timeout=600)
     os.close(controller)
+    out_file.seek(0)
+    out = out_file.read()
+    out_file.close()
     # The terminal's output processing turns "\n" into "\r\n" (ONLCR); undo it.
     return proc.returncode, out.decode(), received.decode().replace("\r\n", "\n")
 
 
 def drawn(stderr):
     """The progress lines drawn (each after a clear), in order, and the text after the last
-    clear (what the terminal shows when the program is done)."""
+    clear (what the terminal shows when the program is done). A message (a piece with a
+    line end) must not begin with a progress line: it would have been written over the
+    line rather than after a clear."""
     pieces = stderr.split(CLEAR)
+    for piece in pieces:
+        first = piece.split("\n")[0]
+        mtest.check("\n" not in piece or not (FILES_LINE.match(first) or STEP_LINE.match(first) or
+                                              first.startswith(("analysis:", "\r"))),
+                    "a message printed over a progress line: %r" % piece[:200])
     return [p for p in pieces[1:] if p and "\n" not in p], pieces[-1]
 
 
@@ -115,6 +131,19 @@ with tempfile.TemporaryDirectory() as tmp:
     lines, after = drawn(err)
     check_steps(lines, ["stored counts", "feature table", "nearest segments", "storing results"], "analyse-store")
     mtest.check(all(STEP_LINE.match(line) for line in lines), "analyse-store draws steps only: %r" % lines[:3])
+
+    code, out, err = run_on_terminal(["analyse-store", "--store", store, "--pca"])
+    mtest.check(code == 0, "analyse-store --pca on a terminal exited %d: %s" % (code, err[-2000:]))
+    check_steps(drawn(err)[0], ["stored counts", "feature table", "nearest segments", "principal components",
+                                "storing results"], "analyse-store --pca")
+
+    # The invented letters have unsigned ones (docs/attribution.md): their candidates are ranked.
+    letters = os.path.join(tmp, "letters.sqlite")
+    code, out, err = run_on_terminal(["batch", EXAMPLES, "--store", letters, "--unit", "letter", "--analyse",
+                                      "--attribute", "--min-tokens", "50"])
+    mtest.check(code == 0 and "attribution row(s)" in out, "batch --attribute exited %d: %s %s" % (code, out, err))
+    check_steps(drawn(err)[0], ["stored counts", "feature table", "nearest segments", "candidate authors",
+                                "storing results"], "batch --analyse --attribute")
 
     # The analysis is stored: a re-run reads nothing and computes nothing.
     code, out, err = run_on_terminal(batch)
