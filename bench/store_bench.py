@@ -36,29 +36,14 @@ import statistics
 import subprocess
 import sys
 import tempfile
-import time
+
+from child_usage import timed  # bench/, which Python puts first on the path of its scripts
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
 CORPORA = os.environ.get("MANICULE_CORPORA", os.path.join(ROOT, "..", "shared", "corpora"))
 BASELINE = os.path.join(ROOT, "bench", "baseline_archive.py")
 
 
-def timed(args):
-    """(wall s, cpu s, peak MiB) of one command: wall time from a microsecond clock (a
-    re-run takes some 30 ms, where /usr/bin/time's hundredths would be too coarse), CPU
-    time and peak memory from the kernel's rusage of the child (wait4). The kernel counts
-    a child's peak from before it starts its program, when it is still a copy of this
-    script, so a peak at the script's own size (some 12 MiB) means "no more than that"."""
-    with tempfile.TemporaryFile("w+") as errors:
-        start = time.perf_counter()
-        proc = subprocess.Popen(args, stdout=subprocess.DEVNULL, stderr=errors)
-        _, status, usage = os.wait4(proc.pid, 0)
-        wall = time.perf_counter() - start
-        proc.returncode = os.waitstatus_to_exitcode(status)
-        if proc.returncode not in (0, 1):
-            errors.seek(0)
-            sys.exit("failed: %s\n%s" % (" ".join(args), errors.read()[-2000:]))
-    return wall, usage.ru_utime + usage.ru_stime, usage.ru_maxrss / 1024
 
 
 def agreement(store, baseline_tsv):
@@ -142,7 +127,7 @@ def main():
                         for suffix in ("", "-wal", "-shm"):
                             if os.path.exists(store + suffix):
                                 os.remove(store + suffix)
-                    results.setdefault(variant, []).append(timed(args))
+                    results.setdefault(variant, []).append(timed(args, (0, 1)))
             base_tsv = os.path.join(tmp, "base.tsv")
             agreed = None
             if os.path.exists(base_tsv) and os.path.exists(store):

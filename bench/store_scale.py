@@ -26,27 +26,17 @@ import os
 import shutil
 import sqlite3
 import statistics
-import subprocess
 import sys
 import tempfile
 import time
+
+from child_usage import timed  # bench/, which Python puts first on the path of its scripts
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
 CORPORA = os.environ.get("MANICULE_CORPORA", os.path.join(ROOT, "..", "shared", "corpora"))
 PLAYS = os.path.join(CORPORA, "gerdracor")
 
 
-def timed(args):
-    """(wall s, cpu s, peak MiB) of one command (as in bench/store_bench.py)."""
-    with tempfile.TemporaryFile("w+") as errors:
-        start = time.perf_counter()
-        proc = subprocess.Popen(args, stdout=subprocess.DEVNULL, stderr=errors)
-        _, status, usage = os.wait4(proc.pid, 0)
-        wall = time.perf_counter() - start
-        if os.waitstatus_to_exitcode(status) != 0:
-            errors.seek(0)
-            sys.exit("failed: %s\n%s" % (" ".join(args), errors.read()[-2000:]))
-    return wall, usage.ru_utime + usage.ru_stime, usage.ru_maxrss / 1024
 
 
 def make_archive(folder, copies):
