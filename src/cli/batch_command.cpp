@@ -46,7 +46,7 @@ CommandRunner add_batch_command(CLI::App& app) {
     std::string store, shard;
     bool verify = false, analyse = false, pca = false, attribute = false, recompute = false, quiet = false,
          verbose = false;
-    std::size_t commit_every = 64;
+    std::size_t commit_every = store::BatchOptions().commit_files;
   };
   auto flags = std::make_shared<Flags>();
   selection->add_to(*command);
@@ -56,7 +56,9 @@ CommandRunner add_batch_command(CLI::App& app) {
   command->add_option("--shard", flags->shard, "read only share K of N of the files (K/N, e.g. 2/8), for array jobs");
   command->add_flag("--verify-hashes", flags->verify,
                     "hash every file, even when its size and modification time are as stored");
-  command->add_option("--commit-every", flags->commit_every, "files per transaction")->capture_default_str();
+  command->add_option("--commit-every", flags->commit_every,
+                      "files per transaction at most (a transaction also ends every two seconds)")
+      ->capture_default_str();
   command->add_flag("--analyse", flags->analyse, "then analyse the stored counts (distances, nearest neighbours)");
   command->add_flag("--pca", flags->pca, "with --analyse: also principal components");
   command->add_flag("--attribute", flags->attribute,
