@@ -37,13 +37,12 @@ import subprocess
 import sys
 import tempfile
 
+from archive_copies import remove_store  # bench/, as child_usage
 from child_usage import timed  # bench/, which Python puts first on the path of its scripts
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
 CORPORA = os.environ.get("MANICULE_CORPORA", os.path.join(ROOT, "..", "shared", "corpora"))
 BASELINE = os.path.join(ROOT, "bench", "baseline_archive.py")
-
-
 
 
 def agreement(store, baseline_tsv):
@@ -124,9 +123,7 @@ def main():
                     if wanted and variant not in wanted:
                         continue
                     if fresh:
-                        for suffix in ("", "-wal", "-shm"):
-                            if os.path.exists(store + suffix):
-                                os.remove(store + suffix)
+                        remove_store(store)
                     results.setdefault(variant, []).append(timed(args, (0, 1)))
             base_tsv = os.path.join(tmp, "base.tsv")
             agreed = None

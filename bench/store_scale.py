@@ -30,6 +30,7 @@ import sys
 import tempfile
 import time
 
+from archive_copies import as_copy, date_back, remove_store  # bench/, as child_usage
 from child_usage import timed  # bench/, which Python puts first on the path of its scripts
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
@@ -37,29 +38,22 @@ CORPORA = os.environ.get("MANICULE_CORPORA", os.path.join(ROOT, "..", "shared", 
 PLAYS = os.path.join(CORPORA, "gerdracor")
 
 
-
-
 def make_archive(folder, copies):
-    """`copies` copies of the plays under folder/copyNN/, each file with its copy's comment."""
-    os.makedirs(folder)
+    """`copies` copies of the plays under folder/copyNN/ (bench/archive_copies.py)."""
+    targets = [os.path.join(folder, "copy%02d" % k) for k in range(copies)]
+    for target in targets:
+        os.makedirs(target)
     total = 0
     names = sorted(n for n in os.listdir(PLAYS) if n.endswith(".xml"))
-    for k in range(copies):
-        target = os.path.join(folder, "copy%02d" % k)
-        os.makedirs(target)
-        for name in names:
-            with open(os.path.join(PLAYS, name), "rb") as f:
-                data = f.read()
-            at = data.find(b"?>") + 2 if data.startswith(b"<?xml") else 0
-            copy = data[:at] + b"\n<!-- copy %d -->" % k + data[at:]
+    for name in names:
+        with open(os.path.join(PLAYS, name), "rb") as f:
+            data = f.read()
+        for k, target in enumerate(targets):
+            copy = as_copy(data, k)
             with open(os.path.join(target, name), "wb") as f:
                 f.write(copy)
             total += len(copy)
-    # Older than the store's racy-time window, so that a re-run trusts size and time alone.
-    past = time.time() - 60
-    for dirpath, _, files in os.walk(folder):
-        for name in files:
-            os.utime(os.path.join(dirpath, name), (past, past))
+    date_back(folder)
     return len(names) * copies, total
 
 
@@ -89,9 +83,7 @@ def measure(binary, rounds, sizes, work):
         for copies in sizes:
             folder = archives[copies][0]
             store = os.path.join(work, "x%d.sqlite" % copies)
-            for suffix in ("", "-wal", "-shm"):
-                if os.path.exists(store + suffix):
-                    os.remove(store + suffix)
+            remove_store(store)
             batch = [binary, "batch", folder, "--store", store, "--unit", "speaker", "--quiet"]
             times[(copies, "first")].append(timed(batch))
             times[(copies, "rerun")].append(timed(batch))

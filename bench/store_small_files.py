@@ -26,37 +26,27 @@ import sys
 import tempfile
 import time
 
+from archive_copies import as_copy, date_back, remove_store  # bench/, as child_usage
 from child_usage import timed  # bench/, which Python puts first on the path of its scripts
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
 LETTERS = os.path.join(ROOT, "examples", "ferry-letters.xml")
 
 
-
-
 def make_archive(folder, files):
+    """`files` copies of the letters, 200 to a folder (bench/archive_copies.py)."""
     with open(LETTERS, "rb") as f:
         data = f.read()
-    at = data.find(b"?>") + 2
     total = 0
     for k in range(files):
         sub = os.path.join(folder, "%03d" % (k // 200))
         os.makedirs(sub, exist_ok=True)
-        copy = data[:at] + b"\n<!-- %d -->" % k + data[at:]
+        copy = as_copy(data, k)
         with open(os.path.join(sub, "letters-%05d.xml" % k), "wb") as f:
             f.write(copy)
         total += len(copy)
-    past = time.time() - 60  # older than the store's racy-time window
-    for dirpath, _, names in os.walk(folder):
-        for name in names:
-            os.utime(os.path.join(dirpath, name), (past, past))
+    date_back(folder)
     return total
-
-
-def remove_store(store):
-    for suffix in ("", "-wal", "-shm"):
-        if os.path.exists(store + suffix):
-            os.remove(store + suffix)
 
 
 def written_bytes(args):

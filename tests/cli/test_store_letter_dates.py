@@ -198,9 +198,9 @@ def lxml_letter_dates(path):
             sent = [v for a in desc.iter(TEI + "correspAction") if a.get("type") == "sent"
                     for v in (date_value(d) for d in a.iter(TEI + "date")) if v] if desc is not None else []
             in_dateline = own_dateline_dates(unit)
-            own = first_with_year(sent)
-            if year_of(own) is None and year_of(first_with_year(in_dateline)) is not None:
-                own = first_with_year(in_dateline)
+            own, from_dateline = first_with_year(sent), first_with_year(in_dateline)
+            if year_of(own) is None and year_of(from_dateline) is not None:
+                own = from_dateline
             year = year_of(own)
             if year is None and len(texts) > 1:
                 year = work_year(text, header)
@@ -269,9 +269,9 @@ with tempfile.TemporaryDirectory() as tmp:
     def check_analysis(proc, store, what, want):
         """The analysis `what` ran and took the segments `want`, each with its year."""
         mtest.check(proc.returncode == 0, "%s failed: %s" % (what, proc.stderr))
-        mtest.check(analysed(store) == want, "%s took %r, expected %r" % (what, sorted(analysed(store)), sorted(want)))
-        mtest.check(analysed_years(store) == {k: expected[k] for k in want},
-                    "%s: analysis_segments' years %r" % (what, analysed_years(store)))
+        took, years = analysed(store), analysed_years(store)
+        mtest.check(took == want, "%s took %r, expected %r" % (what, sorted(took), sorted(want)))
+        mtest.check(years == {k: expected[k] for k in want}, "%s: analysis_segments' years %r" % (what, years))
 
     # --years over letters, on counts just read and on counts read back.
     for years, low, high in (("1845-1849", 1845, 1849), ("1850-1853", 1850, 1853), ("1854-", 1854, 9999),
@@ -298,10 +298,11 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.run(["batch", archive, "--store", shards[-1], "--unit", "letter", "--shard", "%d/2" % k, "--quiet"])
     merged = os.path.join(tmp, "merged.sqlite")
     mtest.run(["merge", merged] + shards)
-    mtest.check(storecheck.logical_tables(merged) == storecheck.logical_tables(store),
-                "the merged shards differ from the one run: %s" % storecheck.diff_summary(
-                    storecheck.logical_tables(merged), storecheck.logical_tables(store)))
-    mtest.check(segment_years(merged) == stored, "merged segments' years %r" % segment_years(merged))
+    merged_tables, one_run_tables = storecheck.logical_tables(merged), storecheck.logical_tables(store)
+    mtest.check(merged_tables == one_run_tables, "the merged shards differ from the one run: %s"
+                % storecheck.diff_summary(merged_tables, one_run_tables))
+    merged_years = segment_years(merged)
+    mtest.check(merged_years == stored, "merged segments' years %r" % merged_years)
 
     # Spans holding no letter: the message says that the years chose nothing. 1858-1859 lies
     # outside every file's years; 1849 inside the harbour letters' (1848-1855), but none of
@@ -359,11 +360,12 @@ with tempfile.TemporaryDirectory() as tmp:
     # Its counts were read by an earlier revision (another settings key): batch reads every
     # file again once, and the letters are then dated one by one.
     mtest.run(["batch", archive, "--store", old, "--unit", "letter", "--quiet"])
-    mtest.check(storecheck.last_run(old)["files_read"] == len(EDITIONS),
-                "batch after the upgrade read %r files, expected %d" % (storecheck.last_run(old)["files_read"],
-                                                                       len(EDITIONS)))
+    files_read = storecheck.last_run(old)["files_read"]
+    mtest.check(files_read == len(EDITIONS),
+                "batch after the upgrade read %r files, expected %d" % (files_read, len(EDITIONS)))
     mtest.run(["analyse-store", "--store", old, "--min-tokens", "10", "--years", "1850-1853"])
     want = {k for k, y in expected.items() if y is not None and 1850 <= y <= 1853}
-    mtest.check(analysed(old) == want, "the upgraded store's --years 1850-1853 took %r" % sorted(analysed(old)))
+    took = analysed(old)
+    mtest.check(took == want, "the upgraded store's --years 1850-1853 took %r" % sorted(took))
 
 mtest.done()

@@ -198,8 +198,8 @@ with tempfile.TemporaryDirectory() as tmp:
     for path, language in languages.items():
         root = etree.parse(path).getroot()
         # langUsage's language of highest @usage (the first of equals), TEI P5 2.4.2.
-        declared = [l for l in root.iter(TEI + "language") if l.get("ident")]
-        best = max(declared, key=lambda l: int(l.get("usage", "0") or 0), default=None)
+        languages = [l for l in root.iter(TEI + "language") if l.get("ident")]
+        best = max(languages, key=lambda l: int(l.get("usage", "0") or 0), default=None)
         want = best.get("ident") if best is not None else root.get("{http://www.w3.org/XML/1998/namespace}lang")
         mtest.check(language == want, "%s without letters: language %r, lxml reads %r" % (
             os.path.basename(path), language, want))

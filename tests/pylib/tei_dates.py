@@ -21,8 +21,8 @@ def year_of(text):
 
 
 def _earliest(values):
-    dated = [v for v in values if year_of(v) is not None]
-    return min(dated, key=year_of) if dated else (values[0] if values else "")
+    """The value of the earliest year among `values`; "" when none has a year."""
+    return min((v for v in values if year_of(v) is not None), key=year_of, default="")
 
 
 def _bibl_type(date):
@@ -51,8 +51,8 @@ def work_year(root, header):
     first_edition = values(d for d in source_dates if _bibl_type(d) == "firstEdition")
     source = values(d for d in source_dates if not _bibl_type(d).startswith("digital"))
     anywhere = values(header.iter(TEI + "date"))
-    for candidate in (creation[:1], [_earliest(sent)] if sent else [], [_earliest(events)] if events else [],
-                      first_edition[:1], source[:1], anywhere[:1]):
+    for candidate in (creation[:1], [_earliest(sent)], [_earliest(events)], first_edition[:1], source[:1],
+                      anywhere[:1]):
         if candidate and year_of(candidate[0]) is not None:
             return year_of(candidate[0])
     return None
