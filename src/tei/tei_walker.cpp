@@ -454,7 +454,11 @@ struct TeiWalker::State {
   // floatingText, a postscript) are not the letter's; only the formulae around its
   // dateline, left out as text, still date it.
   void note_letter_dateline(Frame& f, const StartTag& tag, bool skipped) {
-    if (f.name == "floatingText" || (skipped && f.name != "opener" && f.name != "closer" && f.name != "dateline")) {
+    // Never a unit's own element (a letter div dropped with --drop div): end() closes the
+    // unit before it would close what the element hides.
+    const bool hides = f.name == "floatingText" ||
+                       (skipped && f.name != "opener" && f.name != "closer" && f.name != "dateline");
+    if (hides && f.unit < 0) {
       f.hides_letter_dates = true;
       ++open_units.back().hidden_depth;
       return;
