@@ -75,7 +75,7 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
     request.compute_pca = flags->pca;
     ProgressDisplay display(flags->quiet);
     store::StoreAnalysisOptions how{filters->to_filter(), flags->attribute, flags->recompute,
-                                    [&display](std::string_view step, double share_done) { display.show_step(step, share_done); }};
+                                    display.analysis_progress()};
     auto result = store::analyse_store(*db, settings_id, request, how);
     display.clear();
     report_analysis(std::cout, std::cerr, result);

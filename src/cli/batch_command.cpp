@@ -127,7 +127,7 @@ CommandRunner add_batch_command(CLI::App& app) {
     if (flags->analyse) {
       if (blas.valid()) blas.get();
       store::StoreAnalysisOptions how{options.filter, flags->attribute, flags->recompute,
-                                      [&display](std::string_view step, double share_done) { display.show_step(step, share_done); }};
+                                      display.analysis_progress()};
       store::StoreAnalysisResult result = store::analyse_store(*db, summary.settings_id, request, how, summary.fresh.get());
       summary.fresh.reset();
       display.clear();

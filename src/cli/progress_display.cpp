@@ -24,32 +24,41 @@ ProgressDisplay::ProgressDisplay(bool quiet)
 
 ProgressDisplay::~ProgressDisplay() { clear(); }
 
+bool ProgressDisplay::due(std::chrono::steady_clock::time_point now, bool at_once) {
+  if (shown_ && !at_once && now - last_draw_ < std::chrono::milliseconds(200)) return false;
+  last_draw_ = now;
+  return true;
+}
+
+void ProgressDisplay::draw(const std::string& line) {
+  std::fprintf(stderr, "\r\033[K%s", line.c_str());
+  std::fflush(stderr);
+  shown_ = true;
+}
+
 void ProgressDisplay::update(const store::BatchProgress& p) {
   if (!enabled_) return;
   auto now = std::chrono::steady_clock::now();
-  bool last = p.files_done == p.files_total;
-  if (shown_ && !last && now - last_draw_ < std::chrono::milliseconds(200)) return;
-  last_draw_ = now;
+  if (!due(now, p.files_done == p.files_total)) return;
   double elapsed = std::chrono::duration<double>(now - start_).count();
   double rate = elapsed > 0 ? static_cast<double>(p.bytes_done) / elapsed : 0;
   std::string left = "--:--";
   if (rate > 0 && p.bytes_done > 0) left = clock_text(static_cast<double>(p.bytes_total - p.bytes_done) / rate);
-  std::fprintf(stderr, "\r\033[K%zu/%zu files  %.1f MB/s  %s left", p.files_done, p.files_total, rate / 1e6,
-               left.c_str());
-  std::fflush(stderr);
-  shown_ = true;
+  char line[96];
+  std::snprintf(line, sizeof line, "%zu/%zu files  %.1f MB/s  %s left", p.files_done, p.files_total, rate / 1e6,
+                left.c_str());
+  draw(line);
 }
 
 void ProgressDisplay::show_step(std::string_view name, double share_done) {
   if (!enabled_) return;
   auto now = std::chrono::steady_clock::now();
-  if (name != step_) {
+  const bool new_step = name != step_;
+  if (new_step) {
     step_ = name;
     step_start_ = now;
-  } else if (share_done < 1 && now - last_draw_ < std::chrono::milliseconds(200)) {
-    return;
   }
-  last_draw_ = now;
+  if (!due(now, new_step || share_done >= 1)) return;
   std::string line = "analysis: " + step_;
   if (share_done >= 0) {
     // The rate so far, once the step has run long enough to have one.
@@ -61,9 +70,11 @@ void ProgressDisplay::show_step(std::string_view name, double share_done) {
     std::snprintf(figures, sizeof figures, "  %.0f%%  %s left", 100 * share_done, left.c_str());
     line += figures;
   }
-  std::fprintf(stderr, "\r\033[K%s", line.c_str());
-  std::fflush(stderr);
-  shown_ = true;
+  draw(line);
+}
+
+AnalysisProgress ProgressDisplay::analysis_progress() {
+  return [this](std::string_view step, double share_done) { show_step(step, share_done); };
 }
 
 void ProgressDisplay::clear() {

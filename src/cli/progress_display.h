@@ -9,6 +9,7 @@
 #include <string>
 #include <string_view>
 
+#include "core/analysis_progress.h"
 #include "store/batch_run.h"
 
 namespace manicule::cli {
@@ -20,10 +21,16 @@ class ProgressDisplay {
   void update(const store::BatchProgress& progress);
   // An analysis' step (core/analysis_progress.h).
   void show_step(std::string_view name, double share_done);
+  // show_step as an analysis' progress function; the display must outlive its use.
+  AnalysisProgress analysis_progress();
   // Clears the line (before other output, and at the end).
   void clear();
 
  private:
+  // Whether to draw now: at once, or 200 ms after the last drawing.
+  bool due(std::chrono::steady_clock::time_point now, bool at_once);
+  void draw(const std::string& line);  // over the line drawn before
+
   bool enabled_;
   bool shown_ = false;
   std::chrono::steady_clock::time_point start_;

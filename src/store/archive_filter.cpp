@@ -66,10 +66,7 @@ std::string ArchiveFilter::describe() const {
   return out;
 }
 
-bool ArchiveFilter::year_matches(int year) const {
-  if (!asks_years()) return true;
-  return year != 0 && (!year_from || year >= year_from) && (!year_to || year <= year_to);
-}
+bool ArchiveFilter::year_matches(int year) const { return years_overlap(year, year); }
 
 bool ArchiveFilter::years_overlap(int first, int last) const {
   if (!asks_years()) return true;

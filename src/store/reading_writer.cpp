@@ -7,6 +7,7 @@
 #include "core/segment_id_prefixes.h"
 #include "core/utf8_text.h"
 #include "store/count_blob.h"
+#include "store/store_schema.h"
 
 namespace manicule::store {
 
@@ -26,14 +27,8 @@ ReadingWriter::ReadingWriter(Database& db, std::int64_t settings_id)
           "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7) ON CONFLICT (path) DO UPDATE SET relative_path = excluded.relative_path, "
           "stem = excluded.stem, size = excluded.size, mtime_ns = excluded.mtime_ns, sha256 = excluded.sha256, "
           "read_error = excluded.read_error")),
-      insert_reading_(db.prepare(
-          "INSERT OR IGNORE INTO readings (settings_id, sha256, bytes, status, error, error_kind, title, author, date, "
-          "year, language, segments, tokens, run_id, first_segment_year, last_segment_year) "
-          "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16)")),
-      insert_segment_(db.prepare(
-          "INSERT INTO segments (settings_id, sha256, ordinal, local_id, unit, label, language, author, authorship, "
-          "pointers, warnings, tokens, types, feature_total, counts, date, year) "
-          "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17)")) {}
+      insert_reading_(db.prepare(kInsertReading)),
+      insert_segment_(db.prepare(kInsertSegment)) {}
 
 void ReadingWriter::write_file(const ArchiveFile& file, const std::string& sha256, const std::string& read_error) {
   upsert_file_.bind(1, file.path).bind(2, file.relative_path).bind(3, file_stem(file.path));

@@ -156,6 +156,12 @@ Statement& Statement::bind_null(int index) {
   return *this;
 }
 
+Statement& Statement::bind_column(int index, const Statement& from, int column) {
+  int rc = sqlite3_bind_value(stmt_, index, sqlite3_column_value(from.stmt_, column));
+  if (rc != SQLITE_OK) db_->fail(rc, "binding");
+  return *this;
+}
+
 bool Statement::step() {
   int rc = sqlite3_step(stmt_);
   if (rc == SQLITE_ROW) return true;

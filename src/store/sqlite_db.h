@@ -34,6 +34,8 @@ class Statement {
   Statement& bind(int index, const char* text) { return bind(index, std::string_view(text)); }
   Statement& bind_blob(int index, std::string_view bytes);
   Statement& bind_null(int index);
+  // The value of `from`'s current row at `column` (0-based), whatever its type, NULL too.
+  Statement& bind_column(int index, const Statement& from, int column);
 
   // Binds the arguments to ?1.. in order, runs the statement to its end and resets it.
   template <typename... Args>

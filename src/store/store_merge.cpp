@@ -5,6 +5,7 @@
 
 #include "core/error.h"
 #include "store/count_blob.h"
+#include "store/store_schema.h"
 #include "store/run_log.h"
 #include "store/store_settings.h"
 #include "store/store_vocabulary.h"
@@ -47,38 +48,15 @@ void merge_settings(Database& out, Database& input, const StoredSettings& in, st
       "SELECT sha256, bytes, status, error, error_kind, title, author, date, year, language, segments, tokens, "
       "first_segment_year, last_segment_year FROM readings WHERE settings_id = ?1 ORDER BY sha256");
   readings.bind(1, in.id);
-  Statement insert_reading = out.prepare(
-      "INSERT OR IGNORE INTO readings (settings_id, sha256, bytes, status, error, error_kind, title, author, date, "
-      "year, language, segments, tokens, run_id, first_segment_year, last_segment_year) "
-      "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16)");
-  Statement segments = input.prepare(
-      "SELECT ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens, types, "
-      "feature_total, counts, date, year FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal");
-  Statement insert_segment = out.prepare(
-      "INSERT INTO segments (settings_id, sha256, ordinal, local_id, unit, label, language, author, authorship, "
-      "pointers, warnings, tokens, types, feature_total, counts, date, year) "
-      "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17)");
-  auto copy_value = [](Statement& from, int column, Statement& to, int index) {
-    if (from.is_null(column)) to.bind_null(index);
-    else to.bind(index, from.text_at(column));
-  };
-  auto copy_integer = [](Statement& from, int column, Statement& to, int index) {
-    if (from.is_null(column)) to.bind_null(index);
-    else to.bind(index, from.int64_at(column));
-  };
+  Statement insert_reading = out.prepare(kInsertReading);
+  Statement segments = input.prepare(kSegmentsOfContent);
+  Statement insert_segment = out.prepare(kInsertSegment);
   while (readings.step()) {
     const std::string sha = readings.text_at(0);
-    insert_reading.bind(1, out_id).bind(2, sha).bind(3, readings.int64_at(1)).bind(4, readings.text_at(2));
-    copy_value(readings, 3, insert_reading, 5);
-    copy_integer(readings, 4, insert_reading, 6);
-    copy_value(readings, 5, insert_reading, 7);
-    copy_value(readings, 6, insert_reading, 8);
-    copy_value(readings, 7, insert_reading, 9);
-    copy_integer(readings, 8, insert_reading, 10);
-    copy_value(readings, 9, insert_reading, 11);
-    insert_reading.bind(12, readings.int64_at(10)).bind(13, readings.int64_at(11)).bind(14, run);
-    copy_integer(readings, 12, insert_reading, 15);
-    copy_integer(readings, 13, insert_reading, 16);
+    // Columns 1-11 of the query are the statement's ?3-?13; then the run; then 12-13.
+    insert_reading.bind(1, out_id).bind(2, sha);
+    for (int c = 1; c <= 11; ++c) insert_reading.bind_column(c + 2, readings, c);
+    insert_reading.bind(14, run).bind_column(15, readings, 12).bind_column(16, readings, 13);
     insert_reading.step_to_end();
     if (out.changes() == 0) continue;  // the output holds this content already
     ++summary.readings_added;
@@ -90,8 +68,7 @@ void merge_settings(Database& out, Database& input, const StoredSettings& in, st
       insert_segment.bind_blob(15, remap_counts(segments.blob_at(12), map, input.path(),
                                                 "segment " + std::to_string(segments.int64_at(0)) +
                                                     " of the content with SHA-256 " + sha));
-      copy_value(segments, 13, insert_segment, 16);
-      copy_integer(segments, 14, insert_segment, 17);
+      insert_segment.bind_column(16, segments, 13).bind_column(17, segments, 14);
       insert_segment.step_to_end();
       ++summary.segments_added;
     }
@@ -114,8 +91,7 @@ void merge_files(Database& out, Database& input, MergeSummary& summary) {
     if (!newer) continue;
     upsert.bind(1, files.text_at(0)).bind(2, files.text_at(1)).bind(3, files.text_at(2));
     upsert.bind(4, files.int64_at(3)).bind(5, files.int64_at(4));
-    if (files.is_null(5)) upsert.bind_null(6); else upsert.bind(6, files.text_at(5));
-    if (files.is_null(6)) upsert.bind_null(7); else upsert.bind(7, files.text_at(6));
+    upsert.bind_column(6, files, 5).bind_column(7, files, 6);
     upsert.step_to_end();
     ++(present ? summary.files_updated : summary.files_added);
   }

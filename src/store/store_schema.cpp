@@ -6,6 +6,18 @@
 
 namespace manicule::store {
 
+const char* const kInsertReading =
+    "INSERT OR IGNORE INTO readings (settings_id, sha256, bytes, status, error, error_kind, title, author, date, "
+    "year, language, segments, tokens, run_id, first_segment_year, last_segment_year) "
+    "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16)";
+const char* const kInsertSegment =
+    "INSERT INTO segments (settings_id, sha256, ordinal, local_id, unit, label, language, author, authorship, "
+    "pointers, warnings, tokens, types, feature_total, counts, date, year) "
+    "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17)";
+const char* const kSegmentsOfContent =
+    "SELECT ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens, types, "
+    "feature_total, counts, date, year FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal";
+
 namespace {
 
 // Keys: a file's content is known by its SHA-256; what was read from it depends on the

@@ -12,6 +12,21 @@
 
 namespace manicule::store {
 
+// Statements that the batch's writer and merge (and, for the last, the loading of an
+// analysis) both run, kept beside the schema so that a new column is added in one place.
+// A content read under a settings: ?1 settings_id, ?2 sha256, ?3 bytes, ?4 status, ?5 error,
+// ?6 error_kind, ?7 title, ?8 author, ?9 date, ?10 year, ?11 language, ?12 segments,
+// ?13 tokens, ?14 run_id, ?15 first_segment_year, ?16 last_segment_year.
+extern const char* const kInsertReading;
+// A segment: ?1 settings_id, ?2 sha256, ?3 ordinal, ?4 local_id, ?5 unit, ?6 label,
+// ?7 language, ?8 author, ?9 authorship, ?10 pointers, ?11 warnings, ?12 tokens, ?13 types,
+// ?14 feature_total, ?15 counts, ?16 date, ?17 year.
+extern const char* const kInsertSegment;
+// The segments of a content (?1 settings_id, ?2 sha256) in document order, columns 0-14:
+// ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens,
+// types, feature_total, counts, date, year.
+extern const char* const kSegmentsOfContent;
+
 // Raised whenever a table changes shape or a table, index or view is added: a store of
 // an earlier format is brought up to this one where open_store knows how (from 2), any
 // other is refused, and an existing store of this format is not given the schema again

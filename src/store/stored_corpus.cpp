@@ -10,6 +10,7 @@
 #include "core/error.h"
 #include "core/segment_id_prefixes.h"
 #include "store/count_blob.h"
+#include "store/store_schema.h"
 #include "store/store_vocabulary.h"
 #include "text/language_tags.h"
 
@@ -99,9 +100,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
   StoredCorpus out;
   // Each selected file's segments in ordinal order, from what the batch just stored when
   // it is at hand, else from the store (the index on the segments' key gives that order).
-  Statement stored_segments = db.prepare(
-      "SELECT ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens, types, "
-      "feature_total, counts, date, year FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal");
+  Statement stored_segments = db.prepare(kSegmentsOfContent);
   CountProfile& profile = out.corpus.counts;
   profile.spec = spec;
   std::unordered_map<std::string, std::string> id_owner;  // segment id -> path

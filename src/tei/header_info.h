@@ -25,7 +25,8 @@ struct HeaderInfo {
   std::string title;                               // first main title in titleStmt
   std::vector<std::string> authors;                // titleStmt/author names
   // Dates as written (@when, else @notBefore, @from, @notAfter or @to, else the text); the
-  // store's file date is the first of these that is known, in this order (work_date).
+  // store's file date is the first of these, in this order, that has a year, else the first
+  // written (work_date).
   std::string creation_date;             // profileDesc/creation (2.4.1): when the text was made
   std::vector<std::string> sent_dates;   // correspAction of type sent (2.4.6): when letters were sent
   std::vector<std::string> event_dates;  // standOff listEvent events of type written, print, premiere

@@ -891,6 +891,12 @@ std::vector<Segment> TeiWalker::finish() {
   // Letters: pair each letter with its correspDesc (2.4.6, 16.3.2): @decls, else the
   // default one, else the only one, else by document order with a warning.
   std::map<int, int> letter_ordinal;
+  // Every correspDesc of the document by xml:id, the first in document order for an id
+  // given twice (xml:ids are unique in a valid document).
+  std::unordered_map<std::string_view, const CorrespRecord*> corresp_by_id;
+  for (const HeaderInfo& header : s.headers)
+    for (const auto& r : header.corresp)
+      if (!r.id.empty()) corresp_by_id.emplace(r.id, &r);
   for (auto& b : s.built) {
     Segment& seg = b.segment;
     // Bound without a conditional expression: `cond ? HeaderInfo{} : headers[i]` is a
@@ -903,12 +909,13 @@ std::vector<Segment> TeiWalker::finish() {
       const CorrespRecord* c = nullptr;
       // @decls may point at several declarations (a source's bibl, a correspDesc, 16.3.2):
       // the first that names a correspDesc pairs the letter, in its own TEI's header or in
-      // another TEI's of the document (xml:ids are unique in the document).
+      // another TEI's of the document.
       for (const std::string& pointer : split_pointers(b.decls)) {
-        for (const HeaderInfo& any : s.headers)
-          for (const auto& r : any.corresp)
-            if (!c && !r.id.empty() && r.id == pointer) c = &r;
-        if (c) break;
+        auto named = corresp_by_id.find(pointer);
+        if (named != corresp_by_id.end()) {
+          c = named->second;
+          break;
+        }
       }
       const bool decls_unmatched = !c && !b.decls.empty();
       if (!c)
