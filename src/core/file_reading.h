@@ -26,7 +26,7 @@ constexpr int kReadingRevision = 3;
 // What the edition's own header says (the first TEI element's teiHeader).
 struct FileMetadata {
   std::string title;
-  std::string author;    // titleStmt authors as written, joined by "; "
+  std::string author;    // titleStmt authors as written, joined by kAuthorSeparator
   std::string date;      // the work's date as written (creation, letters sent, events, editions: work_date)
   int year = 0;          // the first four-digit year in `date`; 0 when there is none
   std::string language;  // langUsage, else the language most of the selected text is in, else TEI/@xml:lang

@@ -13,6 +13,10 @@ struct TextRun {
   std::string language;  // BCP 47 tag inherited from xml:lang; empty if unknown
 };
 
+// Between the authors of one text in a single field ("A; B": the titleStmt's authors of a
+// segment or a file): join_authors writes it, the store's author filter splits on it.
+inline constexpr const char* kAuthorSeparator = "; ";
+
 // Who is known to have written or spoken a segment, as far as the edition says.
 enum class Authorship { known, conjectured, unknown };
 
