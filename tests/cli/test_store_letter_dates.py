@@ -14,12 +14,17 @@ year is given by construction and also read with lxml below, written apart from 
 reader; the store's segments must agree with both, and every --years range must take the
 letters whose year lies in it, in `batch --analyse` (counts just read) and in
 `analyse-store` (counts read back), and two shards merged must hold the same. Last, a
-store of the previous format (2, without these columns, its counts of an earlier reading
-revision) is opened: it is brought up to format 3 with every row kept, and the next batch
-reads its files again and dates their letters.
+store the previous version wrote of the same editions (format 2, without these columns,
+its counts of an earlier reading revision, with an analysis; a fixture) is opened: it is
+brought up to format 3 with every row kept, its analysis keeps its segments with their
+file's year, and the next batch reads its files again and dates their letters. The
+editions themselves are in tests/pylib/dated_letters.py, shared with that fixture.
 """
+import gzip
+import hashlib
 import json
 import os
+import shutil
 import sqlite3
 import subprocess
 import sys
@@ -29,109 +34,10 @@ sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
 from lxml import etree  # noqa: E402
-from tei_dates import TEI, date_value, work_year, year_of  # noqa: E402
+from tei_dates import TEI, date_value, work_date, work_year, year_of  # noqa: E402
+from dated_letters import EDITIONS, write_editions  # noqa: E402
 
-WORDS = " ".join(["the ferry crossed at the turn of the tide and the keeper wrote it down"] * 3)
-HEADER = ('<titleStmt><title>%s</title><author>Tamsin Corbel</author></titleStmt>'
-          '<publicationStmt><p>Invented test data of the manicule project; CC0.</p></publicationStmt>'
-          '<sourceDesc><p>No source: invented.</p></sourceDesc>')
-
-
-def corresp(cd_id, sent_date="", received_date="", default=False):
-    """A correspDesc with a sent action (Tamsin Corbel) holding `sent_date` (a date element)."""
-    received = ('<correspAction type="received"><persName>Ned Quill</persName>%s</correspAction>' % received_date
-                if received_date else "")
-    return ('<correspDesc xml:id="%s"%s><correspAction type="sent"><persName ref="#tc">Tamsin Corbel</persName>%s'
-            '</correspAction>%s</correspDesc>' % (cd_id, ' default="true"' if default else "", sent_date, received))
-
-
-def letter(lid, dateline="", decls=True, after=""):
-    opener = '<opener><dateline>Quillmouth%s</dateline></opener>' % (", " + dateline if dateline else "")
-    pointer = ' decls="%s"' % (decls if isinstance(decls, str) else "#cd-" + lid) if decls else ""
-    return '<div type="letter" xml:id="%s"%s>%s<p>%s</p>%s</div>' % (lid, pointer, opener, WORDS, after)
-
-
-def tei(title, correspondence, body, lang=' xml:lang="en"'):
-    return ('<TEI xmlns="http://www.tei-c.org/ns/1.0"%s><teiHeader><fileDesc>%s</fileDesc>'
-            '<profileDesc>%s<particDesc><listPerson><person xml:id="tc"><persName>Tamsin Corbel</persName>'
-            '</person></listPerson></particDesc></profileDesc></teiHeader><text><body>%s</body></text></TEI>'
-            % (lang, HEADER % title, correspondence, body))
-
-
-XML = '<?xml version="1.0" encoding="UTF-8"?>\n'
 XML_ID = "{http://www.w3.org/XML/1998/namespace}id"
-
-# (file name, text, {segment id: year by construction, None for none})
-EDITIONS = [
-    # Six letters in one file over seven years; the file is dated by its earliest sending (1848).
-    ("harbour-letters", XML + tei(
-        "Letters from the harbour office",
-        corresp("cd-H1", '<date when="1848-04-02"/>', '<date when="1849-01-20"/>')  # received: not the sending
-        + corresp("cd-H2", '<date notBefore="1850-01-01" notAfter="1850-06-30">early 1850</date>')
-        + corresp("cd-H3", "<date>Michaelmas 1851</date>")
-        + corresp("cd-H4")  # no date in its sent action: its dateline dates it
-        + corresp("cd-H5", "<date>Tuesday</date>")  # no year: the dateline's year wins
-        + corresp("cd-H6")  # no date anywhere: the file's
-        + corresp("cd-H7") + corresp("cd-H8"),
-        letter("H1") + letter("H2") + letter("H3")
-        + letter("H4", '<date when="1853-02-11">11 February 1853</date>')
-        + letter("H5", "<date>the 3rd of May, 1855</date>") + letter("H6")
-        # The editor's correction dates it, not the error it corrects (3.5.1).
-        + letter("H7", '<choice><sic><date when="1805-06-01">1 June 1805</date></sic>'
-                       '<corr><date when="1852-06-01">1 June 1852</date></corr></choice>')
-        # A letter it encloses (floatingText, 4.3.2) has its own date; this one's is in its closer.
-        + letter("H8", after='<floatingText><body><opener><dateline><date when="1790-01-01">New Year 1790</date>'
-                             '</dateline></opener><p>%s</p></body></floatingText>'
-                             '<closer><dateline><date when="1852-10-10">10 October 1852</date></dateline></closer>'
-                             % WORDS)),
-     {"H1": 1848, "H2": 1850, "H3": 1851, "H4": 1853, "H5": 1855, "H6": 1848, "H7": 1852, "H8": 1852}),
-    # Letters without @decls take the default correspDesc (2.4.6).
-    ("default-letters", XML + tei(
-        "Letters under one default correspDesc",
-        corresp("cd-X", '<date when="1854-03-01"/>', default=True) + corresp("cd-Y", '<date when="1849-01-01"/>'),
-        letter("X1", decls=False) + letter("X2", decls=False)),
-     {"X1": 1854, "X2": 1854}),
-    # Neither @decls nor a default: letters pair with the correspDescs in document order.
-    ("order-letters", XML + tei(
-        "Letters paired by their order",
-        corresp("cd-O1", '<date when="1847-02-02"/>') + corresp("cd-O2", '<date when="1856-07-07"/>'),
-        letter("O1", decls=False) + letter("O2", decls=False)),
-     {"O1": 1847, "O2": 1856}),
-    # @decls pointing at two declarations, the langUsage first: the correspDesc pairs.
-    ("two-declarations", XML + tei(
-        "A letter declaring its language and its correspondence",
-        '<langUsage xml:id="lu-M"><language ident="en">English</language></langUsage>'
-        + corresp("cd-M0", '<date when="1845-01-01"/>') + corresp("cd-M1", '<date when="1853-05-05"/>'),
-        letter("M1", decls="#lu-M #cd-M1")),
-     {"M1": 1853}),
-    # Letters dated only in their datelines; the file has no year, so the undated one has none.
-    ("dateline-letters", XML + tei(
-        "Letters dated in their openers",
-        corresp("cd-D1") + corresp("cd-D2"),
-        letter("D1", '<date when="1852-08-30">30 August 1852</date>') + letter("D2")),
-     {"D1": 1852, "D2": None}),
-    # One letter, one file: the body is the letter, dated by the file's only correspDesc.
-    ("single-letter", XML + tei(
-        "A single letter", corresp("cd-S", '<date when="1860-12-24"/>'), "<p>%s</p>" % WORDS,
-        ' xml:id="S1" xml:lang="en"'),
-     {"S1": 1860}),
-    # A packet of two letters as a teiCorpus, each TEI with its own header and date.
-    ("packet", XML + '<teiCorpus xmlns="http://www.tei-c.org/ns/1.0" xml:lang="en"><teiHeader><fileDesc>'
-     + HEADER % "A packet of two letters" + '</fileDesc></teiHeader>'
-     + tei("First of the packet", corresp("cd-P1", '<date when="1846-05-01"/>'), "<p>%s</p>" % WORDS,
-           ' xml:id="P1"').replace(' xmlns="http://www.tei-c.org/ns/1.0"', "")
-     + tei("Second of the packet", corresp("cd-P2", '<date when="1857-09-09"/>'), "<p>%s</p>" % WORDS,
-           ' xml:id="P2"').replace(' xmlns="http://www.tei-c.org/ns/1.0"', "")
-     .replace('"tc"', '"tc2"').replace('"#tc"', '"#tc2"')  # ids are unique in the whole file
-     # A third text, without a correspDesc of its own, whose letter points at the second's.
-     + tei("Third of the packet", "", letter("P3a", decls="#cd-P2"), ' xml:id="P3"')
-     .replace(' xmlns="http://www.tei-c.org/ns/1.0"', "").replace('"tc"', '"tc3"')
-     + "</teiCorpus>\n",
-     {"P1": 1846, "P2": 1857, "P3a": 1857}),
-    # No date anywhere: the file is left out by any --years.
-    ("undated-letters", XML + tei("Undated letters", corresp("cd-U1") + corresp("cd-U2"), letter("U1") + letter("U2")),
-     {"U1": None, "U2": None}),
-]
 
 
 def first_with_year(values):
@@ -201,9 +107,10 @@ def lxml_letter_dates(path):
             own, from_dateline = first_with_year(sent), first_with_year(in_dateline)
             if year_of(own) is None and year_of(from_dateline) is not None:
                 own = from_dateline
+            # A text of a teiCorpus: its own header's date, as written, is the letter's.
+            if year_of(own) is None and len(texts) > 1 and year_of(work_date(text, header)) is not None:
+                own = work_date(text, header)
             year = year_of(own)
-            if year is None and len(texts) > 1:
-                year = work_year(text, header)
             out[lid] = (" ".join(own.split()) or None, year if year is not None else file_year)
     return out
 
@@ -213,10 +120,7 @@ with tempfile.TemporaryDirectory() as tmp:
     os.makedirs(archive)
     expected = {}  # segment id -> year
     own_dates = {}  # segment id -> its own date as written, or None
-    for name, text, years in EDITIONS:
-        path = os.path.join(archive, name + ".xml")
-        with open(path, "w", encoding="utf-8") as f:
-            f.write(text)
+    for path, (name, _, years) in zip(write_editions(archive), EDITIONS):
         read = lxml_letter_dates(path)
         mtest.check({lid: y for lid, (_, y) in read.items()} == years,
                     "%s: lxml reads %r, the edition was made for %r" % (name, read, years))
@@ -312,28 +216,31 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check(proc.returncode == 4 and said in proc.stderr,
                     "--years %s (no letter) gave %d: %s" % (years, proc.returncode, proc.stderr))
 
-    # A store of format 2 (as written before letters were dated: no date columns) is
-    # brought up to format 3 when opened, keeping every row. Format 2's shape is made
-    # from this one with SQLite's own ALTER TABLE ... DROP COLUMN.
+    # A store of format 2, as the version before letters were dated wrote it (manicule at
+    # be093e5, over these editions in a folder "archive", with an analysis; kept in
+    # tests/fixtures/stores, see the README there), is brought up to format 3 when opened,
+    # keeping every row.
     old = os.path.join(tmp, "format2.sqlite")
-    mtest.run(["batch", archive, "--store", old, "--unit", "letter", "--quiet"])
-    mtest.run(["analyse-store", "--store", old, "--min-tokens", "10"])
+    with gzip.open(os.path.join(mtest.FIXTURES, "stores", "dated-letters-format2.sqlite.gz")) as src, \
+            open(old, "wb") as dst:
+        shutil.copyfileobj(src, dst)
     db = sqlite3.connect(old)
+    mtest.check(db.execute("SELECT value FROM store_info WHERE key = 'format'").fetchone()[0] == "2",
+                "the fixture is not a store of format 2")
+    # Its files are these editions, under the same relative paths (SHA-256 by hashlib).
+    written = {}
+    for name, _, _ in EDITIONS:
+        with open(os.path.join(archive, name + ".xml"), "rb") as f:
+            written["archive/%s.xml" % name] = hashlib.sha256(f.read()).hexdigest()
+    mtest.check(dict(db.execute("SELECT path, sha256 FROM files")) == written,
+                "the fixture's files are no longer the editions of tests/pylib/dated_letters.py")
     earlier_analysis = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis'").fetchone()[0]
+    mtest.check(earlier_analysis is not None, "the fixture holds no analysis")
+    before = {t: db.execute("SELECT count(*) FROM %s" % t).fetchone()[0] for t in ("files", "readings", "segments")}
+    db.close()
+    db = sqlite3.connect(store)
     fresh_columns = {t: [r[1] for r in db.execute("PRAGMA table_info(%s)" % t)]
                      for t in ("segments", "readings", "analysis_segments")}
-    db.executescript("""
-        DROP VIEW segment_list;
-        ALTER TABLE segments DROP COLUMN date;
-        ALTER TABLE segments DROP COLUMN year;
-        ALTER TABLE readings DROP COLUMN first_segment_year;
-        ALTER TABLE readings DROP COLUMN last_segment_year;
-        ALTER TABLE analysis_segments DROP COLUMN year;
-        CREATE VIEW segment_list AS SELECT s.settings_id, f.path FROM files f JOIN segments s ON s.sha256 = f.sha256;
-        UPDATE store_info SET value = '2' WHERE key = 'format';
-        UPDATE settings SET key = key || '-of-reading-revision-2';
-    """)
-    before = {t: db.execute("SELECT count(*) FROM %s" % t).fetchone()[0] for t in ("files", "readings", "segments")}
     db.close()
     mtest.run(["analyse-store", "--store", old, "--min-tokens", "10"])
     # The analysis made before keeps its rows, its segments given their file's year (format
@@ -359,7 +266,7 @@ with tempfile.TemporaryDirectory() as tmp:
     db.close()
     # Its counts were read by an earlier revision (another settings key): batch reads every
     # file again once, and the letters are then dated one by one.
-    mtest.run(["batch", archive, "--store", old, "--unit", "letter", "--quiet"])
+    mtest.run(["batch", "archive", "--store", old, "--unit", "letter", "--quiet"], cwd=tmp)
     files_read = storecheck.last_run(old)["files_read"]
     mtest.check(files_read == len(EDITIONS),
                 "batch after the upgrade read %r files, expected %d" % (files_read, len(EDITIONS)))

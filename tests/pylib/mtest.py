@@ -18,10 +18,11 @@ FIXTURES = os.path.join(ROOT, "tests", "fixtures")
 _checks = 0
 
 
-def run(args, check=True, input=None, env=None, timeout=600):
-    """Runs the manicule command; returns CompletedProcess with text output."""
+def run(args, check=True, input=None, env=None, timeout=600, cwd=None):
+    """Runs the manicule command (in the folder `cwd` if given); returns CompletedProcess
+    with text output."""
     proc = subprocess.run([BIN] + list(args), capture_output=True, text=True, input=input,
-                          env=env, timeout=timeout)
+                          env=env, timeout=timeout, cwd=cwd)
     if check and proc.returncode != 0:
         fail("manicule %s exited %d\nstdout: %s\nstderr: %s"
              % (" ".join(args), proc.returncode, proc.stdout[-2000:], proc.stderr[-2000:]))

@@ -33,12 +33,17 @@ def _bibl_type(date):
 
 
 def work_year(root, header):
-    """The year of the work as docs/store.md orders the header's dates, the first with a year
-    winning: the first date in a creation element, the earliest date of a correspAction of
+    """The year of work_date(root, header); None when no source has a year."""
+    return year_of(work_date(root, header))
+
+
+def work_date(root, header):
+    """The date of the work as written, as docs/store.md orders the header's dates, the first
+    with a year winning: the first date in a creation element, the earliest date of a correspAction of
     type sent, the earliest event (written, print, premiere) in standOff, the first date in a
     sourceDesc bibl of type firstEdition (the innermost typed bibl decides), the first
     sourceDesc date outside a bibl whose type begins "digital", the header's first date.
-    Dates without a value (an empty <date/>) are passed by. None when no source has a year."""
+    Dates without a value (an empty <date/>) are passed by. "" when no source has a year."""
     def values(elements, text=True):
         return [v for v in (date_value(e, text) for e in elements) if v]
 
@@ -54,5 +59,5 @@ def work_year(root, header):
     for candidate in (creation[:1], [_earliest(sent)], [_earliest(events)], first_edition[:1], source[:1],
                       anywhere[:1]):
         if candidate and year_of(candidate[0]) is not None:
-            return year_of(candidate[0])
-    return None
+            return candidate[0]
+    return ""
