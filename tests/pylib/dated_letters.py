@@ -40,7 +40,7 @@ XML = '<?xml version="1.0" encoding="UTF-8"?>\n'
 
 # (file name, text, {segment id: year by construction, None for none})
 EDITIONS = [
-    # Six letters in one file over seven years; the file is dated by its earliest sending (1848).
+    # Eight letters in one file over seven years; the file is dated by its earliest sending (1848).
     ("harbour-letters", XML + tei(
         "Letters from the harbour office",
         corresp("cd-H1", '<date when="1848-04-02"/>', '<date when="1849-01-20"/>')  # received: not the sending
@@ -98,7 +98,8 @@ EDITIONS = [
         "A single letter", corresp("cd-S", '<date when="1860-12-24"/>'), "<p>%s</p>" % WORDS,
         ' xml:id="S1" xml:lang="en"'),
      {"S1": 1860}),
-    # A packet of two letters as a teiCorpus, each TEI with its own header and date.
+    # A packet of letters as a teiCorpus (its title says two; it holds four texts), each TEI
+    # with its own header.
     ("packet", XML + '<teiCorpus xmlns="http://www.tei-c.org/ns/1.0" xml:lang="en"><teiHeader><fileDesc>'
      + HEADER % "A packet of two letters" + '</fileDesc></teiHeader>'
      + tei("First of the packet", corresp("cd-P1", '<date when="1846-05-01"/>'), "<p>%s</p>" % WORDS,
