@@ -3,6 +3,7 @@
 // and nothing that ties them to XML.
 #pragma once
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace manicule {
@@ -15,7 +16,7 @@ struct TextRun {
 
 // Between the authors of one text in a single field ("A; B": the titleStmt's authors of a
 // segment or a file): join_authors writes it, the store's author filter splits on it.
-inline constexpr const char* kAuthorSeparator = "; ";
+inline constexpr std::string_view kAuthorSeparator = "; ";
 
 // Who is known to have written or spoken a segment, as far as the edition says.
 enum class Authorship { known, conjectured, unknown };

@@ -31,15 +31,15 @@ bool one_author_matches(std::string_view author, const std::string& wanted) {
   return any_word || caseless_contains(author, wanted);
 }
 
-// One of the authors (joined by kAuthorSeparator, join_authors) holds every word: "Anna Schmidt" does not
-// find "Anna Müller; Karl Schmidt".
+// One of the authors (joined by kAuthorSeparator, join_authors) holds every word: "Anna
+// Schmidt" does not find "Anna Müller; Karl Schmidt".
 bool author_matches(const std::string& authors, const std::string& wanted) {
   std::size_t start = 0;
   while (true) {
     const std::size_t end = authors.find(kAuthorSeparator, start);
     if (one_author_matches(std::string_view(authors).substr(start, end - start), wanted)) return true;
     if (end == std::string::npos) return false;
-    start = end + std::char_traits<char>::length(kAuthorSeparator);
+    start = end + kAuthorSeparator.size();
   }
 }
 

@@ -74,7 +74,10 @@ std::string normalise_space(const std::string& text) {
 
 std::string join_authors(const std::vector<std::string>& authors) {
   std::string out;
-  for (const auto& a : authors) out += (out.empty() ? "" : kAuthorSeparator) + a;
+  for (const auto& a : authors) {
+    if (!out.empty()) out += kAuthorSeparator;
+    out += a;
+  }
   return out;
 }
 

@@ -86,8 +86,8 @@ def paired(desc_list, by_id, div, position):
 
 
 def lxml_letter_dates(path):
-    """{local id: (its own date as written or None, its year or its file's)} for each letter
-    of the file, read with lxml by the rule above."""
+    """(the file's year, {local id: (its own date as written or None, its year or its
+    file's)} for each letter of the file), read with lxml by the rule above."""
     root = etree.parse(path).getroot()
     texts = [root] if root.tag == TEI + "TEI" else root.findall(TEI + "TEI")
     file_year = work_year(texts[0], texts[0].find(TEI + "teiHeader"))
@@ -108,11 +108,11 @@ def lxml_letter_dates(path):
             if year_of(own) is None and year_of(from_dateline) is not None:
                 own = from_dateline
             # A text of a teiCorpus: its own header's date, as written, is the letter's.
-            if year_of(own) is None and len(texts) > 1 and year_of(work_date(text, header)) is not None:
-                own = work_date(text, header)
+            if year_of(own) is None and len(texts) > 1:
+                own = work_date(text, header) or own
             year = year_of(own)
             out[lid] = (" ".join(own.split()) or None, year if year is not None else file_year)
-    return out
+    return file_year, out
 
 
 with tempfile.TemporaryDirectory() as tmp:
@@ -120,8 +120,9 @@ with tempfile.TemporaryDirectory() as tmp:
     os.makedirs(archive)
     expected = {}  # segment id -> year
     own_dates = {}  # segment id -> its own date as written, or None
+    file_year = {}  # file name -> the year of its work (tei_dates.work_year), or None
     for path, (name, _, years) in zip(write_editions(archive), EDITIONS):
-        read = lxml_letter_dates(path)
+        file_year[name], read = lxml_letter_dates(path)
         mtest.check({lid: y for lid, (_, y) in read.items()} == years,
                     "%s: lxml reads %r, the edition was made for %r" % (name, read, years))
         for lid, year in years.items():
@@ -245,11 +246,6 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.run(["analyse-store", "--store", old, "--min-tokens", "10"])
     # The analysis made before keeps its rows, its segments given their file's year (format
     # 2 dated files only): lxml's year of each file's work (tests/pylib/tei_dates.py).
-    file_year = {}
-    for name, _, _ in EDITIONS:
-        root = etree.parse(os.path.join(archive, name + ".xml")).getroot()
-        first = root if root.tag == TEI + "TEI" else root.find(TEI + "TEI")
-        file_year[name] = work_year(first, first.find(TEI + "teiHeader"))
     got = analysed_years(old, earlier_analysis)
     mtest.check(got == {k: file_year[k.split("#")[0]] for k in got} and len(got) > 0,
                 "the reused analysis' years after the upgrade %r, the files' %r" % (got, file_year))
