@@ -65,7 +65,12 @@ void record_feature_parameters(const Request& request, std::size_t features_used
   params.emplace_back("segments measured", std::to_string(segments_measured));
 }
 
-Analysis analyse_corpus(const Request& request, const Corpus& corpus, const AnalysisProgress& progress) {
+namespace {
+
+// `counts_to_free`: the corpus' own counts, given back once the table is built; null
+// keeps them.
+Analysis analyse_counts(const Request& request, const Corpus& corpus, const AnalysisProgress& progress,
+                      CountProfile* counts_to_free) {
   Analysis analysis;
   analysis.provenance = make_provenance(request, corpus);
   analysis.segments = summarise_segments(corpus);
@@ -74,6 +79,7 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus, const Anal
 
   report_step(progress, "feature table");
   FeatureTable table = build_feature_table(corpus.counts, request.feature_space, request.threads);
+  if (counts_to_free && !request.clustering.compute) counts_to_free->release_counts();
   std::vector<std::size_t> rows;
   {
     const SegmentIndex segment_index(analysis.segments);  // views into the ids, left as they are
@@ -147,6 +153,16 @@ Analysis analyse_corpus(const Request& request, const Corpus& corpus, const Anal
   }
   analysis.table = std::move(table);
   return analysis;
+}
+
+}  // namespace
+
+Analysis analyse_corpus(const Request& request, const Corpus& corpus, const AnalysisProgress& progress) {
+  return analyse_counts(request, corpus, progress, nullptr);
+}
+
+Analysis analyse_corpus_freeing_counts(const Request& request, Corpus& corpus, const AnalysisProgress& progress) {
+  return analyse_counts(request, corpus, progress, &corpus.counts);
 }
 
 void check_analysis_options(const Request& request) {

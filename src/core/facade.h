@@ -24,6 +24,12 @@ void check_analysis_options(const Request& request);
 // and the principal components.
 Analysis analyse_corpus(const Request& request, const Corpus& corpus, const AnalysisProgress& progress = {});
 
+// analyse_corpus for a caller that needs the corpus' counts no more: they are released
+// (CountProfile::release_counts) once the feature table is built, unless the clustering
+// asked for needs them, so that the search for nearest segments does not carry them. The
+// rest of `corpus` is left as it was.
+Analysis analyse_corpus_freeing_counts(const Request& request, Corpus& corpus, const AnalysisProgress& progress = {});
+
 // Segment summaries of a corpus, without measures (what `segments` lists).
 std::vector<SegmentSummary> summarise_segments(const Corpus& corpus);
 

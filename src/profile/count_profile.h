@@ -4,27 +4,46 @@
 #pragma once
 #include <cstddef>
 #include <cstdint>
+#include <memory>
+#include <memory_resource>
 #include <string>
 #include <utility>
 #include <vector>
 
+#include "profile/count_arena.h"
 #include "profile/feature_spec.h"
 #include "profile/vocabulary.h"
 
 namespace manicule {
+
+// One segment's counts: (feature id, count) pairs. A polymorphic-allocator vector, so
+// that a loader of many segments can cut them all from one CountArena; lists built one
+// by one (ProfileBuilder) use the ordinary heap.
+using CountEntries = std::pmr::vector<std::pair<FeatureId, std::uint32_t>>;
 
 struct SegmentCounts {
   std::string id;
   std::size_t tokens = 0;         // words in the segment (what the minimum size is about)
   std::size_t feature_total = 0;  // occurrences of all features: the denominator of
                                   // relative frequencies (== tokens for word unigrams)
-  std::vector<std::pair<FeatureId, std::uint32_t>> counts;  // sorted by id, counts > 0
+  CountEntries counts;            // sorted by id, counts > 0
 };
 
 struct CountProfile {
   FeatureSpec spec;
   Vocabulary vocabulary;
+  // Where the segments' counts were cut from, when a loader chose one arena for them all
+  // (else null). Declared before `segments`, so that it outlives their lists.
+  std::shared_ptr<CountArena> count_memory;
   std::vector<SegmentCounts> segments;  // in the order they were added
+
+  // Empties every segment's counts and hands their memory back: to the system at once
+  // when they came from count_memory and nothing else holds it, else to the heap. For
+  // an analysis that needs no counts once its feature table is built.
+  void release_counts() {
+    for (SegmentCounts& s : segments) s.counts = CountEntries(s.counts.get_allocator());
+    if (count_memory && count_memory.use_count() == 1) count_memory->release();
+  }
 };
 
 }  // namespace manicule

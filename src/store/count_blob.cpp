@@ -39,9 +39,12 @@ std::string encode_counts(const FeatureCounts& counts) {
   return out;
 }
 
-FeatureCounts decode_counts(std::string_view blob) {
-  FeatureCounts out;
-  out.reserve(blob.size() / 2);  // each feature takes two bytes at least: never regrown
+FeatureCounts decode_counts(std::string_view blob, std::pmr::memory_resource* memory) {
+  FeatureCounts out(memory);
+  // Two varints a feature, each ending in its one byte below 0x80: the list's exact size.
+  std::size_t ends = 0;
+  for (char c : blob) ends += static_cast<unsigned char>(c) < 0x80;
+  out.reserve(ends / 2);
   std::size_t pos = 0;
   std::uint64_t id = 0;
   while (pos < blob.size()) {
@@ -54,9 +57,10 @@ FeatureCounts decode_counts(std::string_view blob) {
   return out;
 }
 
-FeatureCounts decode_stored_counts(std::string_view blob, const std::string& store, const std::string& segment) {
+FeatureCounts decode_stored_counts(std::string_view blob, const std::string& store, const std::string& segment,
+                                   std::pmr::memory_resource* memory) {
   try {
-    return decode_counts(blob);
+    return decode_counts(blob, memory);
   } catch (const Error& e) {
     throw Error(ErrorKind::bad_input,
                 std::string(e.what()) + ", " + segment + ": make the store again with batch, or use a copy", store);

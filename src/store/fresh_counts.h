@@ -9,6 +9,7 @@
 // another 30 ms.
 #pragma once
 #include <cstddef>
+#include <memory>
 #include <string>
 #include <unordered_map>
 #include <vector>
@@ -36,6 +37,8 @@ struct FreshContent {
 
 struct FreshCounts {
   Vocabulary forms;  // every form of the settings, by store id
+  // Where the kept segments' counts are cut from; the analysis takes it over with them.
+  std::shared_ptr<CountArena> count_memory = std::make_shared<CountArena>();
   std::size_t min_tokens = 0;
   std::unordered_map<std::string, FreshContent> by_content;  // by SHA-256
 

@@ -162,7 +162,8 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
       fresh->years.push_back(seg.year);
       fresh->tokens.push_back(record.tokens);
       if (record.tokens >= kept_->min_tokens) {
-        fresh->kept.push_back(FreshSegment{i, record, counts.feature_total, mapped_});
+        fresh->kept.push_back(
+            FreshSegment{i, record, counts.feature_total, FeatureCounts(mapped_, kept_->count_memory.get())});
       }
     }
   }

@@ -170,7 +170,7 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   analysis_request.feature_space.keep_relative =
       measure_info(request.measure).input != MeasureInput::z_scores ||
       (request.compute_pca && request.pca.input == PcaInput::relative_frequencies);
-  Analysis analysis = analyse_corpus(analysis_request, stored.corpus, options.progress);
+  Analysis analysis = analyse_corpus_freeing_counts(analysis_request, stored.corpus, options.progress);
   std::vector<std::string> notes;
   std::vector<AttributionRow> attributions;
   if (options.attribute) {

@@ -103,6 +103,9 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
   Statement stored_segments = db.prepare(kSegmentsOfContent);
   CountProfile& profile = out.corpus.counts;
   profile.spec = spec;
+  // The counts, read from the store or handed over by the batch, are cut from one arena,
+  // so that the analysis can give them back whole once its feature table is built.
+  profile.count_memory = fresh && fresh->count_memory ? fresh->count_memory : std::make_shared<CountArena>();
   std::unordered_map<std::string, std::string> id_owner;  // segment id -> path
   std::size_t id_bound = 0;  // one past the largest store feature id counted
   // Files sharing a content share its fresh segments: each but the last takes a copy.
@@ -153,11 +156,9 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
       if (!new_id)
         throw Error(ErrorKind::usage, "segment id " + seg.id + " occurs in two files (" + owner->second + ", " + path +
                                           "): files of the same name in different folders; narrow the analysis with --folder");
-      SegmentCounts segment_counts;
-      segment_counts.id = seg.id;
-      segment_counts.tokens = record.tokens;
-      segment_counts.feature_total = feature_total;
-      segment_counts.counts = std::move(counts);
+      // Move-constructed, so that the list stays where it was cut from (assigned, it
+      // would be copied to the heap).
+      SegmentCounts segment_counts{seg.id, record.tokens, feature_total, std::move(counts)};
       // Counts are sorted by id: the last is the largest.
       if (!segment_counts.counts.empty())
         id_bound = std::max<std::size_t>(id_bound, segment_counts.counts.back().first + std::size_t{1});
@@ -177,7 +178,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
         if (last_use) {
           add(std::move(segment->record), ordinal, segment->feature_total, std::move(segment->counts));
         } else {
-          add(SegmentRecord(segment->record), ordinal, segment->feature_total, FeatureCounts(segment->counts));
+          add(SegmentRecord(segment->record), ordinal, segment->feature_total, FeatureCounts(segment->counts, profile.count_memory.get()));
         }
       }
       continue;
@@ -204,7 +205,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
       const auto ordinal = static_cast<std::size_t>(stored_segments.int64_at(0));
       add(std::move(record), ordinal, static_cast<std::size_t>(stored_segments.int64_at(11)),
           decode_stored_counts(stored_segments.blob_at(12), db.path(),
-                               "segment " + std::to_string(ordinal) + " of " + path));
+                               "segment " + std::to_string(ordinal) + " of " + path, profile.count_memory.get()));
     }
     stored_segments.reset();
   }

@@ -162,7 +162,7 @@ TEST_CASE("counts come out sorted whether a segment touches few or most known wo
   for (std::size_t i = 0; i < segments.size(); ++i) {
     std::map<FeatureId, std::uint32_t> reference;
     for (const auto& w : segments[i]) ++reference[*p.vocabulary.find(w)];
-    const std::vector<std::pair<FeatureId, std::uint32_t>> expected(reference.begin(), reference.end());
+    const CountEntries expected(reference.begin(), reference.end());
     CHECK(p.segments[i].counts == expected);
   }
 }
