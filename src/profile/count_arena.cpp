@@ -6,7 +6,6 @@
 #include <cstdint>
 #include <new>
 
-
 namespace manicule {
 
 namespace {

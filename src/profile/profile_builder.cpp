@@ -125,6 +125,11 @@ void ProfileBuilder::merge(CountProfile other) {
   // spoken by twenty speakers of a play would otherwise be hashed twenty times).
   constexpr FeatureId kUnmapped = static_cast<FeatureId>(-1);
   std::vector<FeatureId> ours(other.vocabulary.size(), kUnmapped);
+  // Lists cut from `other`'s arena must not outlive it: the arena comes along, or, where
+  // this profile holds another, they are copied to the heap.
+  const bool adopt_arena = other.count_memory && (!profile_.count_memory || profile_.count_memory == other.count_memory);
+  if (adopt_arena) profile_.count_memory = other.count_memory;
+  const bool copy_lists = other.count_memory && !adopt_arena;
   for (SegmentCounts& segment : other.segments) {
     claim_id(segment.id);
     bool ascending = true;
@@ -138,7 +143,11 @@ void ProfileBuilder::merge(CountProfile other) {
       previous = id;
     }
     if (!ascending) std::sort(segment.counts.begin(), segment.counts.end());
-    profile_.segments.push_back(std::move(segment));
+    if (copy_lists)  // a new list (assigned, a list would stay in its arena)
+      profile_.segments.push_back(SegmentCounts{std::move(segment.id), segment.tokens, segment.feature_total,
+                                                CountEntries(segment.counts.begin(), segment.counts.end())});
+    else
+      profile_.segments.push_back(std::move(segment));
   }
 }
 

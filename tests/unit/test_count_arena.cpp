@@ -10,6 +10,7 @@
 
 #include "profile/count_arena.h"
 #include "profile/count_profile.h"
+#include "profile/profile_builder.h"
 #include "store/count_blob.h"
 
 using namespace manicule;
@@ -84,4 +85,31 @@ TEST_CASE("a count blob is decoded into the arena at its exact size", "[store]")
   CHECK(counts.capacity() == 3);
   CHECK(counts.get_allocator().resource() == &arena);
   CHECK(arena.mapped_bytes() > 0);
+}
+
+TEST_CASE("merging a profile whose counts lie in an arena keeps them readable", "[profile]") {
+  // The merged profile must keep the arena alive, or copy the lists out of it: otherwise
+  // reading them after the merged-from profile is gone touches unmapped memory.
+  const auto arena_profile = [](const std::string& id, std::uint32_t count) {
+    CountProfile p;
+    p.count_memory = std::make_shared<CountArena>();
+    p.vocabulary.intern("und");
+    p.vocabulary.intern("der");
+    CountEntries counts(p.count_memory.get());
+    counts.reserve(2);
+    counts.emplace_back(0, count);
+    counts.emplace_back(1, count + 1);
+    p.segments.push_back(SegmentCounts{id, 2 * count + 1, 2 * count + 1, std::move(counts)});
+    return p;
+  };
+  ProfileBuilder builder;
+  builder.merge(arena_profile("first", 3));   // into a profile with no arena: taken along
+  builder.merge(arena_profile("second", 7));  // with another arena held: copied to the heap
+  const CountProfile merged = builder.finish();
+  REQUIRE(merged.segments.size() == 2);
+  const FeatureId und = *merged.vocabulary.find("und");
+  const FeatureId der = *merged.vocabulary.find("der");
+  CHECK(merged.segments[0].counts == CountEntries{{und, 3}, {der, 4}});
+  CHECK(merged.segments[1].counts == CountEntries{{und, 7}, {der, 8}});
+  CHECK(merged.segments[1].counts.get_allocator().resource() == std::pmr::get_default_resource());
 }
