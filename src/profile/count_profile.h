@@ -37,6 +37,26 @@ struct CountProfile {
   std::shared_ptr<CountArena> count_memory;
   std::vector<SegmentCounts> segments;  // in the order they were added
 
+  CountProfile() = default;
+  CountProfile(CountProfile&&) = default;
+  // A copy's lists are on the heap (a pmr list's copy takes the default resource), so it
+  // holds no arena: otherwise the original's release_counts would see a second holder.
+  CountProfile(const CountProfile& other)
+      : spec(other.spec), vocabulary(other.vocabulary), segments(other.segments) {}
+  // The old lists go before the arena they may lie in (member by member, the arena would
+  // be let go first). Keep this in step with the members above.
+  CountProfile& operator=(CountProfile&& other) noexcept {
+    segments.clear();
+    spec = std::move(other.spec);
+    vocabulary = std::move(other.vocabulary);
+    count_memory = std::move(other.count_memory);
+    segments = std::move(other.segments);
+    return *this;
+  }
+  // Assigned element by element, the lists would stay in this profile's arena (pmr
+  // allocators do not follow a copy): not offered.
+  CountProfile& operator=(const CountProfile&) = delete;
+
   // Empties every segment's counts and hands their memory back: to the system at once
   // when they came from count_memory and nothing else holds it, else to the heap. For
   // an analysis that needs no counts once its feature table is built.

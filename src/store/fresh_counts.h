@@ -38,9 +38,22 @@ struct FreshContent {
 struct FreshCounts {
   Vocabulary forms;  // every form of the settings, by store id
   // Where the kept segments' counts are cut from; the analysis takes it over with them.
+  // Declared before `by_content`, so that it outlives their lists.
   std::shared_ptr<CountArena> count_memory = std::make_shared<CountArena>();
   std::size_t min_tokens = 0;
   std::unordered_map<std::string, FreshContent> by_content;  // by SHA-256
+
+  FreshCounts() = default;
+  // Assigned member by member, the arena would be let go before the lists in it: see clear().
+  FreshCounts& operator=(const FreshCounts&) = delete;
+
+  // Empties it, the lists before their arena (what an analysis leaves of it once it has
+  // taken the segments it wants).
+  void clear() {
+    by_content.clear();
+    forms = Vocabulary();
+    count_memory = std::make_shared<CountArena>();
+  }
 
   // The content's segments, or null when they were not read in this run (or when an
   // analysis wants segments shorter than those kept).

@@ -216,10 +216,10 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     // The store's vocabulary itself, just handed over: the counts are in its ids already.
     // (Forms no segment here uses have no occurrences and are never selected.)
     profile.vocabulary = std::move(fresh->forms);
-    *fresh = FreshCounts();  // used up
+    fresh->clear();  // used up
     return out;
   }
-  if (fresh) *fresh = FreshCounts();
+  if (fresh) fresh->clear();
 
   // A compact vocabulary of the features these segments use, in store-id order, so the
   // remapping keeps every segment's counts sorted.

@@ -8,6 +8,7 @@
 #include <fstream>
 #include <string>
 
+#include "core/facade.h"
 #include "profile/count_arena.h"
 #include "profile/count_profile.h"
 #include "profile/profile_builder.h"
@@ -53,9 +54,10 @@ TEST_CASE("counts cut from an arena go back to the system when released", "[prof
   for (const SegmentCounts& s : profile.segments)
     in_arena = in_arena && s.counts.get_allocator().resource() == profile.count_memory.get();
   CHECK(in_arena);
+  // Every value, read after all lists were written: lists that overlapped would show.
   bool values_kept = true;
   for (std::uint32_t s = 0; s < kLists; ++s)
-    for (std::uint32_t f = 0; f < kPairs; f += 97)
+    for (std::uint32_t f = 0; f < kPairs; ++f)
       values_kept = values_kept && profile.segments[s].counts[f] == std::pair<FeatureId, std::uint32_t>(f, s + f);
   CHECK(values_kept);
   const long filled = resident_anonymous_kib();
@@ -103,13 +105,99 @@ TEST_CASE("merging a profile whose counts lie in an arena keeps them readable", 
     return p;
   };
   ProfileBuilder builder;
-  builder.merge(arena_profile("first", 3));   // into a profile with no arena: taken along
+  CountProfile first = arena_profile("first", 3);
+  const CountArena* first_arena = first.count_memory.get();
+  builder.merge(std::move(first));            // into a profile with no arena: taken along
   builder.merge(arena_profile("second", 7));  // with another arena held: copied to the heap
   const CountProfile merged = builder.finish();
+  CHECK(merged.count_memory.get() == first_arena);
+  CHECK(merged.segments[0].counts.get_allocator().resource() == first_arena);
   REQUIRE(merged.segments.size() == 2);
   const FeatureId und = *merged.vocabulary.find("und");
   const FeatureId der = *merged.vocabulary.find("der");
   CHECK(merged.segments[0].counts == CountEntries{{und, 3}, {der, 4}});
   CHECK(merged.segments[1].counts == CountEntries{{und, 7}, {der, 8}});
   CHECK(merged.segments[1].counts.get_allocator().resource() == std::pmr::get_default_resource());
+}
+
+TEST_CASE("an arena another holder shares is not unmapped by one profile's release", "[profile]") {
+  auto arena = std::make_shared<CountArena>();
+  CountEntries elsewhere(arena.get());  // a list the profile does not know of
+  elsewhere.assign({{1, 2}, {3, 4}});
+  CountProfile profile;
+  profile.count_memory = arena;
+  CountEntries counts(arena.get());
+  counts.assign({{5, 6}});
+  profile.segments.push_back(SegmentCounts{"s", 6, 6, std::move(counts)});
+  profile.release_counts();
+  CHECK(profile.segments[0].counts.empty());
+  CHECK(arena->mapped_bytes() > 0);
+  // Read after the release: unmapped, this would be a fault, not a failed check.
+  CHECK(elsewhere == CountEntries{{1, 2}, {3, 4}});
+}
+
+TEST_CASE("a copied profile holds its lists on the heap and no arena", "[profile]") {
+  CountProfile profile;
+  profile.count_memory = std::make_shared<CountArena>();
+  CountEntries counts(profile.count_memory.get());
+  counts.assign({{0, 1}, {2, 3}});
+  profile.segments.push_back(SegmentCounts{"s", 4, 4, std::move(counts)});
+  const CountProfile copy(profile);
+  CHECK(copy.count_memory == nullptr);
+  CHECK(copy.segments[0].counts.get_allocator().resource() == std::pmr::get_default_resource());
+  CHECK(copy.segments[0].counts == profile.segments[0].counts);
+  // The original is still the arena's only holder: its release hands the memory back.
+  profile.release_counts();
+  CHECK(profile.count_memory->mapped_bytes() == 0);
+}
+
+namespace {
+
+// Three segments of 2,000 words over three words, their counts in one arena.
+Corpus three_segments_in_an_arena() {
+  Corpus corpus;
+  corpus.files = {"a.xml"};
+  corpus.file_sha256 = {""};
+  CountProfile& counts = corpus.counts;
+  counts.count_memory = std::make_shared<CountArena>();
+  for (const char* form : {"und", "der", "die"}) counts.vocabulary.intern(form);
+  const std::uint32_t rows[3][3] = {{1000, 600, 400}, {500, 900, 600}, {700, 700, 600}};
+  for (int s = 0; s < 3; ++s) {
+    SegmentRecord record;
+    record.segment.id = "a#s" + std::to_string(s);
+    record.segment.file = "a.xml";
+    record.tokens = 2000;
+    record.types = 3;
+    corpus.segments.push_back(record);
+    CountEntries list(counts.count_memory.get());
+    list.reserve(3);
+    for (FeatureId f = 0; f < 3; ++f) list.emplace_back(f, rows[s][f]);
+    counts.segments.push_back(SegmentCounts{record.segment.id, 2000, 2000, std::move(list)});
+  }
+  return corpus;
+}
+
+}  // namespace
+
+TEST_CASE("an analysis that frees the counts does so after the table, unless clustering needs them", "[profile]") {
+  Request request;
+  request.feature_space.min_segment_tokens = 100;
+  request.neighbours = 1;
+  request.threads = 1;
+  Corpus corpus = three_segments_in_an_arena();
+  const Analysis analysis = analyse_corpus_freeing_counts(request, corpus);
+  CHECK(analysis.table.segment_count() == 3);
+  CHECK(analysis.table.feature_count() == 3);
+  bool all_empty = true;
+  for (const SegmentCounts& s : corpus.counts.segments) all_empty = all_empty && s.counts.empty();
+  CHECK(all_empty);
+  CHECK(corpus.counts.count_memory->mapped_bytes() == 0);
+  CHECK(corpus.segments.size() == 3);  // the rest of the corpus is left as it was
+
+  request.clustering.compute = true;  // the clustering reads the counts after the table
+  Corpus kept = three_segments_in_an_arena();
+  const Analysis clustered = analyse_corpus_freeing_counts(request, kept);
+  CHECK(clustered.clustering.has_value());
+  CHECK(kept.counts.segments[1].counts == CountEntries{{0, 500}, {1, 900}, {2, 600}});
+  CHECK(kept.counts.count_memory->mapped_bytes() > 0);
 }
