@@ -61,12 +61,14 @@ TEST_CASE("counts cut from an arena go back to the system when released", "[prof
       values_kept = values_kept && profile.segments[s].counts[f] == std::pair<FeatureId, std::uint32_t>(f, s + f);
   CHECK(values_kept);
   const long filled = resident_anonymous_kib();
-  // 96,000,000 bytes are 93,750 KiB; allow for pages the kernel accounts late.
-  CHECK(filled - before >= 90'000);
+  // 96,000,000 bytes are 93,750 KiB. Some slack: kernels before 6.2 count a thread's
+  // small-page faults into the process's figure only every 64 faults or so (from memory,
+  // mm's SPLIT_RSS_COUNTING), and a release that kept the blocks would hand back 0.
+  CHECK(filled - before >= 80'000);
 
   profile.release_counts();
   const long released = resident_anonymous_kib();
-  CHECK(filled - released >= 90'000);
+  CHECK(filled - released >= 80'000);
   CHECK(profile.count_memory->mapped_bytes() == 0);
   bool all_empty = true;
   for (const SegmentCounts& s : profile.segments) all_empty = all_empty && s.counts.empty();
