@@ -6,6 +6,8 @@
 #include <cstdint>
 #include <new>
 
+#include "profile/large_matrix.h"
+
 namespace manicule {
 
 namespace {
@@ -28,7 +30,7 @@ char* map_aligned(std::size_t size) {
   if (aligned > start) munmap(data, aligned - start);
   const std::uintptr_t tail = start + size + kHugePage - (aligned + size);
   if (tail > 0) munmap(reinterpret_cast<void*>(aligned + size), tail);
-  madvise(reinterpret_cast<void*>(aligned), size, MADV_HUGEPAGE);  // advice only
+  advise_huge_pages(reinterpret_cast<void*>(aligned), size);  // the whole block: it is aligned
   return reinterpret_cast<char*>(aligned);
 }
 

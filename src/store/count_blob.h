@@ -8,8 +8,6 @@
 #include <memory_resource>
 #include <string>
 #include <string_view>
-#include <utility>
-#include <vector>
 
 #include "profile/count_profile.h"
 #include "profile/vocabulary.h"

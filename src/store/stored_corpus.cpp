@@ -105,7 +105,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
   profile.spec = spec;
   // The counts, read from the store or handed over by the batch, are cut from one arena,
   // so that the analysis can give them back whole once its feature table is built.
-  profile.count_memory = fresh && fresh->count_memory ? fresh->count_memory : std::make_shared<CountArena>();
+  profile.count_memory = fresh ? fresh->count_memory : std::make_shared<CountArena>();
   std::unordered_map<std::string, std::string> id_owner;  // segment id -> path
   std::size_t id_bound = 0;  // one past the largest store feature id counted
   // Files sharing a content share its fresh segments: each but the last takes a copy.
@@ -178,7 +178,8 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
         if (last_use) {
           add(std::move(segment->record), ordinal, segment->feature_total, std::move(segment->counts));
         } else {
-          add(SegmentRecord(segment->record), ordinal, segment->feature_total, FeatureCounts(segment->counts, profile.count_memory.get()));
+          add(SegmentRecord(segment->record), ordinal, segment->feature_total,
+              FeatureCounts(segment->counts, profile.count_memory.get()));
         }
       }
       continue;
