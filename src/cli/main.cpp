@@ -12,12 +12,14 @@
 #include "core/error.h"
 #include "manicule_version.h"
 #include "measure/cosine_gram.h"
+#include "store/sqlite_db.h"
 
 int main(int argc, char** argv) {
   using namespace manicule;
   // Process-wide settings that are the program's to choose, before any thread starts (the
   // library leaves them to a host that embeds it).
   let_blas_threads_sleep_when_idle();
+  store::skip_sqlite_memory_statistics();
   cli::keep_freed_memory_for_reuse();
   cli::back_main_heap_with_huge_pages();
   cli::back_thread_heaps_with_huge_pages();

@@ -94,6 +94,8 @@ Database::~Database() {
   if (db_) sqlite3_close_v2(db_);
 }
 
+bool skip_sqlite_memory_statistics() { return sqlite3_config(SQLITE_CONFIG_MEMSTATUS, 0) == SQLITE_OK; }
+
 void Database::fail(int code, std::string_view doing) const {
   int primary = code & 0xff;
   ErrorKind kind = primary == SQLITE_NOTADB || primary == SQLITE_CORRUPT ? ErrorKind::bad_input : ErrorKind::write_failed;
