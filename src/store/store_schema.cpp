@@ -250,7 +250,7 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
   // Statement journals in memory: an insert of many rows (RowInserter) keeps the pages it
   // changes in one, which SQLite otherwise writes to a file in /var/tmp beyond 64 KiB:
   // 14 MiB for the plays' analysis, whose results are now stored in 13.9 ms rather than
-  // 16.7 (medians of 5 interleaved runs). The plays' first run now opens no temporary file (strace).
+  // 16.7 (medians of 5 interleaved runs); the plays' first run opens no temporary file.
   db->exec("PRAGMA temp_store = MEMORY");
   // Read the store through a memory map rather than a read() call a page: an analysis
   // reads every stored count, a re-run its lists of files and results.
