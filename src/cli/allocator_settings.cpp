@@ -18,7 +18,7 @@ namespace manicule::cli {
 namespace {
 
 constexpr std::size_t kTopPad = std::size_t{16} << 20;
-constexpr std::uintptr_t kHugePage = std::uintptr_t{2} << 20;
+constexpr std::uintptr_t kHugePage = kHugePageBytes;
 
 // advise_huge_pages (profile/large_matrix.h) over [begin, end), given as addresses.
 void advise_range(std::uintptr_t begin, std::uintptr_t end) {

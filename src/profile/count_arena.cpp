@@ -16,7 +16,7 @@ namespace {
 // machines and counts are written once, in order; they start at 4 MiB (of address
 // space: a letter or two touches one page) and double up to 64 MiB, so the counts of
 // 20,000 play segments (some 175 MB) take six blocks.
-constexpr std::size_t kHugePage = std::size_t{2} << 20;
+constexpr std::size_t kHugePage = kHugePageBytes;
 constexpr std::size_t kFirstBlock = std::size_t{4} << 20;
 constexpr std::size_t kLargestBlock = std::size_t{64} << 20;
 
@@ -28,7 +28,7 @@ char* map_aligned(std::size_t size) {
   const auto start = reinterpret_cast<std::uintptr_t>(data);
   const std::uintptr_t aligned = (start + kHugePage - 1) & ~(kHugePage - 1);
   if (aligned > start) munmap(data, aligned - start);
-  const std::uintptr_t tail = start + size + kHugePage - (aligned + size);
+  const std::uintptr_t tail = start + kHugePage - aligned;  // what is mapped beyond aligned + size
   if (tail > 0) munmap(reinterpret_cast<void*>(aligned + size), tail);
   advise_huge_pages(reinterpret_cast<void*>(aligned), size);  // the whole block: it is aligned
   return reinterpret_cast<char*>(aligned);
@@ -42,7 +42,12 @@ void CountArena::release() {
   for (const Block& b : blocks_) munmap(b.data, b.size);
   blocks_.clear();
   used_ = 0;
-  mapped_bytes_ = 0;
+}
+
+std::size_t CountArena::mapped_bytes() const {
+  std::size_t bytes = 0;
+  for (const Block& b : blocks_) bytes += b.size;
+  return bytes;
 }
 
 void* CountArena::do_allocate(std::size_t bytes, std::size_t alignment) {
@@ -60,7 +65,6 @@ void* CountArena::do_allocate(std::size_t bytes, std::size_t alignment) {
   size = std::max(size, (bytes + kHugePage - 1) / kHugePage * kHugePage);
   char* data = map_aligned(size);
   blocks_.push_back(Block{data, size});
-  mapped_bytes_ += size;
   used_ = bytes;  // a block is aligned to 2 MiB, enough for any list
   return data;
 }

@@ -26,7 +26,7 @@ class CountArena final : public std::pmr::memory_resource {
   void release();
 
   // Bytes mapped for lists now (what release() hands back).
-  std::size_t mapped_bytes() const { return mapped_bytes_; }
+  std::size_t mapped_bytes() const;
 
  private:
   void* do_allocate(std::size_t bytes, std::size_t alignment) override;
@@ -39,7 +39,6 @@ class CountArena final : public std::pmr::memory_resource {
   };
   std::vector<Block> blocks_;
   std::size_t used_ = 0;  // bytes handed out from the last block
-  std::size_t mapped_bytes_ = 0;
 };
 
 }  // namespace manicule

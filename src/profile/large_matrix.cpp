@@ -7,7 +7,7 @@
 namespace manicule {
 
 void advise_huge_pages(void* data, std::size_t bytes) {
-  constexpr std::uintptr_t kHuge = std::uintptr_t{2} << 20;
+  constexpr std::uintptr_t kHuge = kHugePageBytes;
   if (bytes < 2 * kHuge) return;
   const auto begin = (reinterpret_cast<std::uintptr_t>(data) + kHuge - 1) & ~(kHuge - 1);
   const auto end = (reinterpret_cast<std::uintptr_t>(data) + bytes) & ~(kHuge - 1);

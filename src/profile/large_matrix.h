@@ -12,6 +12,9 @@
 
 namespace manicule {
 
+// The size (and alignment) of a transparent huge page on x86-64.
+constexpr std::size_t kHugePageBytes = std::size_t{2} << 20;
+
 // Asks for huge pages on the whole 2 MiB blocks inside [data, data + bytes); small
 // ranges are left alone.
 void advise_huge_pages(void* data, std::size_t bytes);

@@ -38,8 +38,7 @@ struct FreshContent {
 struct FreshCounts {
   Vocabulary forms;  // every form of the settings, by store id
   // Where the kept segments' counts are cut from (never null); the analysis takes it over
-  // with them.
-  // Declared before `by_content`, so that it outlives their lists.
+  // with them. Declared before `by_content`, so that it outlives their lists.
   std::shared_ptr<CountArena> count_memory = std::make_shared<CountArena>();
   std::size_t min_tokens = 0;
   std::unordered_map<std::string, FreshContent> by_content;  // by SHA-256
