@@ -35,7 +35,8 @@ struct Corpus {
   std::size_t bytes = 0;                // input bytes read
 };
 
-// Called after each file: (files done, files in all, bytes done).
+// Called after each file: (files done, files in all, bytes done). One call at a time, on
+// one of the reading threads (read_files_streaming).
 using ProgressFn = std::function<void(std::size_t, std::size_t, std::size_t)>;
 
 // A folder below an input that could not be listed (no permission, for one).

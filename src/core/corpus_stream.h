@@ -1,11 +1,13 @@
 // Streaming corpus reading for archive-scale runs. Worker threads (one per core, or
 // Request::threads) take the files in order and read each on its own (read_file); every
-// finished file is handed to `sink` on the calling thread, in the order the files finish,
-// while the workers go on. At most `max_waiting` finished files wait for the sink (workers
-// pause beyond that), so memory is bounded by a few files whatever the archive's size, and
-// the sink (e.g. a database writer) needs no locking of its own. With one thread (one
-// file, or Request::threads 1) there are no workers: each file is read on the calling
-// thread, then handed to the sink, in file order.
+// finished file is handed to `sink` in the order the files finish, while the other workers
+// go on. The sink is called by the workers themselves, one call at a time (so it needs no
+// locking of its own), on whichever worker finds it free; the calling thread waits for
+// them. At most `max_waiting` finished files wait for the sink (a worker that finishes one
+// more waits for the sink and hands them over), so memory is bounded by a few files
+// whatever the archive's size. With one thread (one file, or Request::threads 1) there are
+// no workers: each file is read on the calling thread, then handed to the sink, in file
+// order.
 //
 // Files with `hash_first[i]` set are hashed before parsing, and `known(i, sha256)` is asked
 // (on a worker thread, or with one thread on the caller's: it must be safe to call

@@ -52,7 +52,7 @@ std::unique_ptr<FreshCounts> ReadingWriter::take_fresh_counts() {
 
 void ReadingWriter::rank_file_ids_by_store_id() {
   // A bitmap over the store's ids instead of a sort: a file's few thousand ids are marked
-  // and read back in order, which cost the main thread a tenth of what sorting them did.
+  // and read back in order, which cost the writer a tenth of what sorting them did.
   // The mapping is one to one (the file's forms are distinct), so no id is marked twice.
   std::size_t top = 0;
   for (FeatureId s : to_store_) top = std::max<std::size_t>(top, s + 1);

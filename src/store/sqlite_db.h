@@ -19,7 +19,7 @@ class Database;
 // SQLite then keeps no account of the memory it holds, which takes a lock around each of
 // its allocations and frees (some 300,000 allocations in the plays' first run, heaptrack;
 // 0.3 % of the instructions of a first run over 100 of the plays, callgrind, all of them
-// on the writer's thread). Process-wide, so a library embedded in another program leaves
+// in the store's writer). Process-wide, so a library embedded in another program leaves
 // it to that program. False when SQLite is in use already and nothing changed.
 bool skip_sqlite_memory_statistics();
 

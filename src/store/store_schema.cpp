@@ -241,8 +241,8 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
   }
   db->exec("PRAGMA synchronous = NORMAL");
   // The log is copied into the database every 4,096 pages (64 MiB) rather than SQLite's
-  // 1,000: each copy stops the batch's writer for its two syncs (some 50 ms) while the
-  // readers' queue of finished files fills. The plays and novels now need none before the
+  // 1,000: each copy holds up the batch's writing for its two syncs (some 50 ms) while
+  // finished files wait to be stored. The plays and novels now need none before the
   // analysis, which checkpoints on a thread of its own; first runs of the plays 2-7 %
   // faster, peak memory 109 to 96 MiB.
   db->exec("PRAGMA wal_autocheckpoint = 4096");
