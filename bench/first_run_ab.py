@@ -1,0 +1,73 @@
+"""Two or more builds of the command line against each other (not a test): the first run
+of `batch --analyse` into a new store over one corpus, the builds taking turns round by
+round, so that a busy moment on a shared machine hits each alike. For deciding whether a
+change to the reading, the store or the analysis pays, where the figures of two separate
+benchmark runs would differ by more than the change.
+
+Each round runs every build once, in the order given, 0.3 s apart, each into a new store.
+Printed: per build the medians of wall time, CPU time, system time, peak memory and
+context switches (voluntary and involuntary, from the kernel's rusage of the child); and
+for each build after the first, the median of its wall time over the first build's in the
+same round (with the quartiles) and how many rounds it was the faster in. A ratio from
+paired rounds holds up on a host whose speed drifts, where the medians alone may not.
+
+Usage: /usr/bin/python3 bench/first_run_ab.py ROUNDS CORPUS BUILD/manicule BUILD/manicule...
+  CORPUS is gerdracor (unit speaker) or eltec-eng (unit chapter), under ../shared/corpora
+"""
+import os
+import statistics
+import subprocess
+import sys
+import tempfile
+import time
+
+from archive_copies import remove_store  # bench/
+
+ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
+CORPORA = os.environ.get("MANICULE_CORPORA", os.path.join(ROOT, "..", "shared", "corpora"))
+UNITS = {"gerdracor": "speaker", "eltec-eng": "chapter"}
+
+
+def first_run(binary, folder, unit, store):
+    """Wall s, CPU s, system s, peak MiB and context switches of one first run."""
+    remove_store(store)
+    time.sleep(0.3)
+    start = time.perf_counter()
+    proc = subprocess.Popen([binary, "batch", folder, "--store", store, "--unit", unit, "--analyse", "--quiet"],
+                            stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+    _, status, usage = os.wait4(proc.pid, 0)
+    wall = time.perf_counter() - start
+    if os.waitstatus_to_exitcode(status) != 0:
+        sys.exit("failed: %s (exit %d)" % (binary, os.waitstatus_to_exitcode(status)))
+    return {"wall s": wall, "CPU s": usage.ru_utime + usage.ru_stime, "system s": usage.ru_stime,
+            "peak MiB": usage.ru_maxrss / 1024, "switches": usage.ru_nvcsw + usage.ru_nivcsw}
+
+
+def main():
+    if len(sys.argv) < 5 or sys.argv[2] not in UNITS:
+        sys.exit(__doc__)
+    rounds, corpus, builds = int(sys.argv[1]), sys.argv[2], sys.argv[3:]
+    folder = os.path.join(CORPORA, corpus)
+    runs = {b: [] for b in builds}
+    print("load average before: %.2f %.2f %.2f; %d rounds; %s" % (*os.getloadavg(), rounds, corpus))
+    with tempfile.TemporaryDirectory() as scratch:
+        store = os.path.join(scratch, "ab.sqlite")
+        for _ in range(rounds):
+            for b in builds:
+                runs[b].append(first_run(b, folder, UNITS[corpus], store))
+    print("load average after: %.2f %.2f %.2f\n" % os.getloadavg())
+    keys = list(runs[builds[0]][0])
+    print("| build | " + " | ".join(keys) + " |")
+    print("| --- |" + " ---: |" * len(keys))
+    for b in builds:
+        print("| %s | " % b + " | ".join(("%.3f" if k.endswith(" s") else "%.0f") % statistics.median(r[k] for r in runs[b])
+                                          for k in keys) + " |")
+    for b in builds[1:]:
+        ratios = sorted(x["wall s"] / y["wall s"] for x, y in zip(runs[b], runs[builds[0]]))
+        q = statistics.quantiles(ratios, n=4) if len(ratios) > 1 else ratios * 3
+        print("\n%s / %s, wall time round by round: median %.3f (quartiles %.3f, %.3f); faster in %d of %d rounds"
+              % (b, builds[0], statistics.median(ratios), q[0], q[2], sum(r < 1 for r in ratios), len(ratios)))
+
+
+if __name__ == "__main__":
+    main()
