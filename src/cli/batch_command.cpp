@@ -85,11 +85,15 @@ CommandRunner add_batch_command(CLI::App& app) {
     // after (its loading and thread start took 1-19 ms of the plays' analysis). A re-run
     // that reads nothing, whose analysis is most often stored already, does not load it.
     std::future<void> blas;
+    // A stop signal (Ctrl-C, SIGTERM at a cluster's time limit) is only noted from before the
+    // store is opened until it is closed: the process then never ends by the signal with its
+    // last commits in the log beside the store, which a copy of the store's file alone (the
+    // job-array script's) would miss. Declared before the store, so destroyed after it.
+    std::optional<InterruptRequests> interrupts(std::in_place);
     auto db = store::open_store(flags->store, true);
     ProgressDisplay display(flags->quiet);
     store::BatchSummary summary;
     store::BatchProgress last;
-    std::optional<InterruptRequests> interrupts(std::in_place);
     try {
       summary = store::run_batch(
           *db, request, options, [&](const store::BatchProgress& p, const std::string& path, store::FileOutcome outcome) {
@@ -116,7 +120,9 @@ CommandRunner add_batch_command(CLI::App& app) {
                 << '\n';
       return interrupts->exit_code();
     }
-    interrupts.reset();  // from here on Ctrl-C ends the process at once, as usual
+    // An analysis may take long: from here on Ctrl-C ends it at once, as usual (what the
+    // batch committed is in the store or its log, which SQLite takes in at the next opening).
+    if (flags->analyse) interrupts.reset();
     report_batch(std::cout, flags->store, summary);
     // Most often a mistyped folder; with --shard, a share of a small archive may be empty.
     if (summary.counters.files_found == 0)
@@ -132,6 +138,11 @@ CommandRunner add_batch_command(CLI::App& app) {
       summary.fresh.reset();
       display.clear();
       report_analysis(std::cout, std::cerr, result);
+    }
+    db.reset();  // closed, its log taken in, before a stop noted meanwhile is answered
+    if (interrupts && interrupts->requested()) {
+      std::cerr << "manicule: interrupted after every file was stored\n";
+      return interrupts->exit_code();
     }
     return summary.failures.empty() && summary.unlisted.empty() ? kExitOk : kExitSomeFilesFailed;
   };
