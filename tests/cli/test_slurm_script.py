@@ -4,8 +4,9 @@ manager here) and `manicule` on PATH.
 
 Task 1 gets SIGTERM, sent to its whole process group as Slurm does at a time limit, after
 its first file: the task must fail with 143 and still leave its share's store, with the run
-marked interrupted and every file it reported; submitted again, it must go on from there
-(reading only the rest) and succeed. Task 2 runs through. The two shares merged must hold
+marked interrupted and every file it reported (or, where the signal lands after the share's
+last file, as it can on a loaded machine, marked done with every file); submitted again, it
+must go on from there (reading only the rest) and succeed. Task 2 runs through. The two shares merged must hold
 every play of the archive (counted with os.walk) and the same tables as one batch run over
 it. Outside references: the script itself as printed in the README (compared byte for
 byte with the file), os.walk, SQLite's PRAGMA integrity_check.
@@ -59,8 +60,11 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(code == 143, "task 1 stopped by SIGTERM exited %d, expected 143" % code)
     mtest.check(os.path.exists(share), "the stopped task left no store of its share")
     first = storecheck.last_run(share)
-    mtest.check(first["status"] == "interrupted" and first["files_read"] == reported,
-                "the stopped task's run: %r, %d files reported" % (first, reported))
+    # On a loaded machine the signal can land after the share's last file: the run is then
+    # complete and recorded as done (exit 143 all the same, and the store whole).
+    stopped_early = first["status"] == "interrupted" and first["files_read"] == reported
+    stopped_late = first["status"] == "done" and first["files_read"] == reported == first["files_found"]
+    mtest.check(stopped_early or stopped_late, "the stopped task's run: %r, %d files reported" % (first, reported))
     code, _ = task(1)
     again = storecheck.last_run(share)
     mtest.check(code == 0 and again["status"] == "done" and again["files_unchanged"] == reported,
