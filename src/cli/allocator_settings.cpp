@@ -18,7 +18,6 @@ namespace manicule::cli {
 namespace {
 
 constexpr std::size_t kTopPad = std::size_t{16} << 20;
-constexpr std::uintptr_t kHugePage = kHugePageBytes;
 
 // advise_huge_pages (profile/large_matrix.h) over [begin, end), given as addresses.
 void advise_range(std::uintptr_t begin, std::uintptr_t end) {
@@ -99,7 +98,7 @@ void advise_this_threads_heap() {
   // leave the 2 MiB at its end half writable, which would also give them small pages.
   // (Through volatile pointers: a compiler may drop a block that is never read, and does.)
   const std::uintptr_t filler_at = at + 32;  // the probe's 32-byte block ends at + 16
-  const std::uintptr_t first_huge = heap + kHugePage;
+  const std::uintptr_t first_huge = heap + kHugePageBytes;
   if (at - heap < kFreshArena && first_huge > filler_at + 4096) {
     void* volatile never_freed = std::malloc(first_huge - filler_at - 64);
     (void)never_freed;

@@ -114,11 +114,15 @@ CommandRunner add_batch_command(CLI::App& app) {
       return interrupts->exit_code();
     }
     display.clear();
-    if (interrupts->requested()) {  // after the last file: the run is complete
-      report_batch(std::cout, flags->store, summary);
-      std::cerr << "manicule: interrupted after every file was stored" << (flags->analyse ? "; no analysis made" : "")
+    // A stop that came after the last file: the run is complete, and says so.
+    const auto stopped_after_last_file = [&](bool analysis_dropped) {
+      std::cerr << "manicule: interrupted after every file was stored" << (analysis_dropped ? "; no analysis made" : "")
                 << '\n';
       return interrupts->exit_code();
+    };
+    if (interrupts->requested()) {
+      report_batch(std::cout, flags->store, summary);
+      return stopped_after_last_file(flags->analyse);
     }
     // An analysis may take long: from here on Ctrl-C ends it at once, as usual (what the
     // batch committed is in the store or its log, which SQLite takes in at the next opening).
@@ -140,10 +144,7 @@ CommandRunner add_batch_command(CLI::App& app) {
       report_analysis(std::cout, std::cerr, result);
     }
     db.reset();  // closed, its log taken in, before a stop noted meanwhile is answered
-    if (interrupts && interrupts->requested()) {
-      std::cerr << "manicule: interrupted after every file was stored\n";
-      return interrupts->exit_code();
-    }
+    if (interrupts && interrupts->requested()) return stopped_after_last_file(false);
     return summary.failures.empty() && summary.unlisted.empty() ? kExitOk : kExitSomeFilesFailed;
   };
 }

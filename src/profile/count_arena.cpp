@@ -16,19 +16,18 @@ namespace {
 // machines and counts are written once, in order; they start at 4 MiB (of address
 // space: a letter or two touches one page) and double up to 64 MiB, so the counts of
 // 20,000 play segments (some 175 MB) take six blocks.
-constexpr std::size_t kHugePage = kHugePageBytes;
 constexpr std::size_t kFirstBlock = std::size_t{4} << 20;
 constexpr std::size_t kLargestBlock = std::size_t{64} << 20;
 
-// `size` bytes (a multiple of kHugePage) mapped at a multiple of kHugePage: a larger
-// mapping is cut down to the aligned part.
+// `size` bytes (a multiple of kHugePageBytes) mapped at a multiple of kHugePageBytes: a
+// larger mapping is cut down to the aligned part.
 char* map_aligned(std::size_t size) {
-  void* data = mmap(nullptr, size + kHugePage, PROT_READ | PROT_WRITE, MAP_PRIVATE | MAP_ANONYMOUS, -1, 0);
+  void* data = mmap(nullptr, size + kHugePageBytes, PROT_READ | PROT_WRITE, MAP_PRIVATE | MAP_ANONYMOUS, -1, 0);
   if (data == MAP_FAILED) throw std::bad_alloc();
   const auto start = reinterpret_cast<std::uintptr_t>(data);
-  const std::uintptr_t aligned = (start + kHugePage - 1) & ~(kHugePage - 1);
+  const std::uintptr_t aligned = (start + kHugePageBytes - 1) & ~(kHugePageBytes - 1);
   if (aligned > start) munmap(data, aligned - start);
-  const std::uintptr_t tail = start + kHugePage - aligned;  // what is mapped beyond aligned + size
+  const std::uintptr_t tail = start + kHugePageBytes - aligned;  // what is mapped beyond aligned + size
   if (tail > 0) munmap(reinterpret_cast<void*>(aligned + size), tail);
   advise_huge_pages(reinterpret_cast<void*>(aligned), size);  // the whole block: it is aligned
   return reinterpret_cast<char*>(aligned);
@@ -62,7 +61,7 @@ void* CountArena::do_allocate(std::size_t bytes, std::size_t alignment) {
   // A new block; what was left of the last one stays unused (a few KiB at most but for
   // a list larger than the rest of a block).
   std::size_t size = blocks_.empty() ? kFirstBlock : std::min(blocks_.back().size * 2, kLargestBlock);
-  size = std::max(size, (bytes + kHugePage - 1) / kHugePage * kHugePage);
+  size = std::max(size, (bytes + kHugePageBytes - 1) / kHugePageBytes * kHugePageBytes);
   char* data = map_aligned(size);
   blocks_.push_back(Block{data, size});
   used_ = bytes;  // a block is aligned to 2 MiB, enough for any list
