@@ -16,12 +16,12 @@ Usage: /usr/bin/python3 bench/first_run_ab.py ROUNDS CORPUS BUILD/manicule BUILD
 """
 import os
 import statistics
-import subprocess
 import sys
 import tempfile
 import time
 
-from archive_copies import remove_store  # bench/
+from archive_copies import remove_store  # bench/, as child_usage
+from child_usage import run_with_usage  # bench/, which Python puts first on the path of its scripts
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
 CORPORA = os.environ.get("MANICULE_CORPORA", os.path.join(ROOT, "..", "shared", "corpora"))
@@ -32,13 +32,7 @@ def first_run(binary, folder, unit, store):
     """Wall s, CPU s, system s, peak MiB and context switches of one first run."""
     remove_store(store)
     time.sleep(0.3)
-    start = time.perf_counter()
-    proc = subprocess.Popen([binary, "batch", folder, "--store", store, "--unit", unit, "--analyse", "--quiet"],
-                            stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
-    _, status, usage = os.wait4(proc.pid, 0)
-    wall = time.perf_counter() - start
-    if os.waitstatus_to_exitcode(status) != 0:
-        sys.exit("failed: %s (exit %d)" % (binary, os.waitstatus_to_exitcode(status)))
+    wall, usage = run_with_usage([binary, "batch", folder, "--store", store, "--unit", unit, "--analyse", "--quiet"])
     return {"wall s": wall, "CPU s": usage.ru_utime + usage.ru_stime, "system s": usage.ru_stime,
             "peak MiB": usage.ru_maxrss / 1024, "switches": usage.ru_nvcsw + usage.ru_nivcsw}
 
