@@ -13,7 +13,6 @@ byte with the file), os.walk, SQLite's PRAGMA integrity_check.
 """
 import os
 import signal
-import subprocess
 import sys
 import tempfile
 
@@ -44,16 +43,9 @@ with tempfile.TemporaryDirectory() as tmp:
         # One CPU a task, so one reading thread: the stop lands while files remain.
         env = dict(os.environ, PATH=shims + os.pathsep + os.environ["PATH"], SLURM_ARRAY_TASK_ID=str(k),
                    SLURM_ARRAY_TASK_MIN="1", SLURM_ARRAY_TASK_COUNT="2", SLURM_CPUS_PER_TASK="1", TMPDIR=tmp)
-        proc = subprocess.Popen(["bash", SCRIPT, archive, results, "--verbose"], env=env,
-                                stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True, start_new_session=True)
-        reported = 0
-        for line in proc.stderr:
-            if storecheck.reports_a_file(line):
-                reported += 1
-                if reported == stop_after:
-                    os.killpg(proc.pid, signal.SIGTERM)
-        proc.wait()
-        return proc.returncode, reported
+        code, reported, _ = storecheck.run_stopped(["bash", SCRIPT, archive, results, "--verbose"], stop_after,
+                                                   signal.SIGTERM, env=env, group=True)
+        return code, reported
 
     code, reported = task(1, stop_after=1)
     share = os.path.join(results, "shard-1.sqlite")

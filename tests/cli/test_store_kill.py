@@ -65,20 +65,9 @@ with tempfile.TemporaryDirectory() as tmp:
         db = storecheck.connect(victim)
         stored_before = db.execute("SELECT count(*) FROM files").fetchone()[0]
         db.close()
-        proc = subprocess.Popen([mtest.BIN] + args + ["--store", victim, "--threads", "1"],
-                                stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
-        reported = 0
-        for line in proc.stderr:
-            if storecheck.reports_a_file(line):
-                reported += 1
-                if reported == after:
-                    proc.send_signal(sig)
-                    break
-        rest = proc.stderr.read()
-        proc.wait()
-        reported += sum(1 for line in rest.splitlines() if storecheck.reports_a_file(line))
-        mtest.check(proc.returncode == 128 + sig and "interrupted" in rest,
-                    "%s: exit %d, %s" % (sig.name, proc.returncode, rest))
+        code, reported, rest = storecheck.run_stopped([mtest.BIN] + args + ["--store", victim, "--threads", "1"],
+                                                      after, sig)
+        mtest.check(code == 128 + sig and "interrupted" in rest, "%s: exit %d, %s" % (sig.name, code, rest))
         db = storecheck.connect(victim)
         stored_after = db.execute("SELECT count(*) FROM files").fetchone()[0]
         db.close()

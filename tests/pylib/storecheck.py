@@ -11,6 +11,8 @@ import hashlib
 import os
 import shutil
 import sqlite3
+import subprocess
+import time
 
 import mtest
 
@@ -70,6 +72,32 @@ def reports_a_file(line):
     """Whether a line of `batch --verbose` reports a file finished (read, failed or only
     hashed): the runs table counts these, and the store holds each once it is reported."""
     return line.startswith(("read:", "failed:", "hashed"))
+
+
+def run_stopped(command, after, sig, env=None, group=False, delay=0.0):
+    """Runs `command` (a `batch --verbose`, or a script around one) and sends it `sig`
+    `delay` seconds after it has reported `after` finished files (reports_a_file), to its
+    whole process group with `group` (as a workload manager does); with `after` None, no
+    signal. Reads its messages to the end and waits. Returns (exit code, files reported in
+    all, the messages from the signal on)."""
+    proc = subprocess.Popen(command, env=env, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True,
+                            start_new_session=group)
+    reported, signalled, after_signal = 0, False, []
+    for line in proc.stderr:
+        if signalled:
+            after_signal.append(line)
+        if reports_a_file(line):
+            reported += 1
+            if reported == after:
+                time.sleep(delay)
+                if group:
+                    os.killpg(proc.pid, sig)
+                else:
+                    proc.send_signal(sig)
+                signalled = True
+    proc.wait()
+    proc.stderr.close()
+    return proc.returncode, reported, "".join(after_signal)
 
 
 def connect(path):
