@@ -583,8 +583,10 @@ struct TeiWalker::State {
 
   void render_into(Segment& segment, const TextBuffer& buffer) {
     if (!segment.runs.empty() && !segment.runs.back().text.empty()) segment.runs.back().text.push_back(' ');
-    buffer.render(segment.runs, languages,
-                  rules.preset == Preset::reading ? rules.join_hyphens : std::vector<std::string>{});
+    // Both branches name a list, so neither is copied (a temporary in one branch made the
+    // other a copy too: one allocation and seven strings for every speech).
+    static const std::vector<std::string> kNoHyphens;
+    buffer.render(segment.runs, languages, rules.preset == Preset::reading ? rules.join_hyphens : kNoHyphens);
   }
 
   void close_unit(OpenUnit& u) {
