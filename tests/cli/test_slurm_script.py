@@ -6,9 +6,9 @@ Task 1 gets SIGTERM, sent to its whole process group as Slurm does at a time lim
 its first file: the task must fail with 143 and still leave its share's store, with the run
 marked interrupted and every file it reported (or, where the signal lands after the share's
 last file, as it can on a loaded machine, marked done with every file); submitted again, it
-must go on from there (reading only the rest) and succeed. Task 2 runs through. The two shares merged must hold
-every play of the archive (counted with os.walk) and the same tables as one batch run over
-it. Outside references: the script itself as printed in the README (compared byte for
+must go on from there (reading only the rest) and succeed. Task 2 runs through. The two
+shares merged must hold every play of the archive (counted with os.walk) and the same
+tables as one batch run over it. Outside references: the script itself as printed in the README (compared byte for
 byte with the file), os.walk, SQLite's PRAGMA integrity_check.
 """
 import os

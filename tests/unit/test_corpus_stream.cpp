@@ -8,8 +8,6 @@
 // UAX #29 rules WB3d and WB999 split at each space and nowhere else).
 #include <catch2/catch.hpp>
 
-#include <unistd.h>
-
 #include <atomic>
 #include <chrono>
 #include <cstdlib>
@@ -84,21 +82,25 @@ TEST_CASE("streaming: every file reaches the sink once, read whole", "[corpus_st
 
 TEST_CASE("streaming: the sink is called one file at a time", "[corpus_stream]") {
   const StreamFixture fixture(40);
+  // Atomics throughout: if the sink were entered twice at once, these counters would be
+  // written by two threads, and the checks must still read them soundly.
   std::atomic<int> inside{0};
-  int most_inside = 0;  // written only while inside == 1, so by one thread at a time
+  std::atomic<int> most_inside{0};
   std::atomic<int> overlaps{0};
-  std::size_t handed = 0;
+  std::atomic<std::size_t> handed{0};
   manicule::read_files_streaming(two_threads(), fixture.files, {}, [&](std::size_t, FileReading&&) {
-    if (inside.fetch_add(1) != 0) ++overlaps;
-    most_inside = std::max(most_inside, inside.load());
+    const int now = inside.fetch_add(1) + 1;
+    if (now > 1) ++overlaps;
+    for (int seen = most_inside.load(); now > seen && !most_inside.compare_exchange_weak(seen, now);) {
+    }
     // Long enough that the other worker finishes a file meanwhile, and tries to come in.
     std::this_thread::sleep_for(std::chrono::milliseconds(2));
     ++handed;
     inside.fetch_sub(1);
   });
   CHECK(overlaps.load() == 0);
-  CHECK(most_inside == 1);
-  CHECK(handed == fixture.files.size());
+  CHECK(most_inside.load() == 1);
+  CHECK(handed.load() == fixture.files.size());
 }
 
 TEST_CASE("streaming: a sink that throws stops the reading", "[corpus_stream]") {
