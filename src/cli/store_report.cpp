@@ -6,6 +6,11 @@ namespace manicule::cli {
 
 void report_batch(std::ostream& out, const std::string& store, const store::BatchSummary& s) {
   const store::RunCounters& c = s.counters;
+  if (!s.store_written) {
+    out << "store " << store << ": nothing changed: " << c.files_found << " file(s) as stored, " << c.files_failed
+        << " failing; the store was not written\n";
+    return;
+  }
   out << "store " << store << ": batch run " << s.run_id << ": " << c.files_found << " file(s): " << c.files_read
       << " read, " << c.files_hashed << " hashed and known, " << c.files_unchanged << " unchanged, " << c.files_failed
       << " failing";

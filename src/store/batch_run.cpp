@@ -94,16 +94,24 @@ struct InputScope {
   }
 };
 
+// A stored file that leaves the files table in this run.
+struct VanishedFile {
+  std::string path;
+  bool respelled = false;  // found in this run under another spelling of its path
+};
+
 // Files stored before this run that are no longer under the inputs (within the folder
 // filter and the shard) leave the files table; so does a file found in this run under
-// another spelling of its path, which would otherwise be in the archive twice.
-void remove_vanished(Database& db, const Request& request, const BatchOptions& options,
-                     const std::vector<ArchiveFile>& files, const std::unordered_map<std::string, StoredFile>& stored,
-                     BatchSummary& summary) {
+// another spelling of its path, which would otherwise be in the archive twice. Worked out
+// before anything is written, so that a run can tell whether it has anything to write.
+std::vector<VanishedFile> vanished_files(const Request& request, const BatchOptions& options,
+                                         const std::vector<ArchiveFile>& files,
+                                         const std::unordered_map<std::string, StoredFile>& stored,
+                                         const std::vector<UnlistedFolder>& unlisted) {
   std::unordered_set<std::string> found;
   for (const auto& f : files) found.insert(f.path);
-  const auto under_unlisted = [&summary](const std::string& path) {
-    return std::any_of(summary.unlisted.begin(), summary.unlisted.end(),
+  const auto under_unlisted = [&unlisted](const std::string& path) {
+    return std::any_of(unlisted.begin(), unlisted.end(),
                        [&path](const UnlistedFolder& folder) { return starts_with_folder(path, folder.path); });
   };
   const InputScope scope(request.inputs);
@@ -113,18 +121,29 @@ void remove_vanished(Database& db, const Request& request, const BatchOptions& o
       for (const auto& f : files) found_resolved.insert(resolved_path(f.path));
     return found_resolved.count(resolved_path(path)) != 0;
   };
-  Statement remove = db.prepare("DELETE FROM files WHERE path = ?1");
+  std::vector<VanishedFile> out;
   for (const auto& [path, f] : stored) {
     if (found.count(path)) continue;
-    if (respelled(path)) {
-      remove.run(path);
-      ++summary.files_respelled;
-    } else if (scope.covers(path) && !under_unlisted(path) && in_folder(options.filter, path, f.relative_path) &&
-               in_shard(f.relative_path, options.shard)) {
-      remove.run(path);
-      ++summary.files_removed;
-    }
+    if (respelled(path))
+      out.push_back({path, true});
+    else if (scope.covers(path) && !under_unlisted(path) && in_folder(options.filter, path, f.relative_path) &&
+             in_shard(f.relative_path, options.shard))
+      out.push_back({path, false});
   }
+  return out;
+}
+
+void remove_vanished(Database& db, const std::vector<VanishedFile>& vanished, BatchSummary& summary) {
+  Statement remove = db.prepare("DELETE FROM files WHERE path = ?1");
+  for (const VanishedFile& f : vanished) {
+    remove.run(f.path);
+    ++(f.respelled ? summary.files_respelled : summary.files_removed);
+  }
+}
+
+// Whether a run was left unfinished (killed): the next run that writes marks it.
+bool any_run_unfinished(Database& db) {
+  return db.prepare("SELECT 1 FROM runs WHERE status = 'running' LIMIT 1").step();
 }
 
 nlohmann::json run_parameters(const Request& request, const BatchOptions& options, const ReadingSettings& settings) {
@@ -149,25 +168,13 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
       if (seen.insert(f.path).second) files.push_back(std::move(f));
   }
 
-  {
-    Transaction t(db);
-    mark_interrupted_runs(db);
-    summary.settings_id = ensure_settings(db, settings);
-    nlohmann::json parameters = run_parameters(request, options, settings);
-    for (const auto& folder : summary.unlisted)  // kept with the run, for whoever reads the table later
-      parameters["unlisted_folders"].push_back({{"path", folder.path}, {"reason", folder.reason}});
-    if (summary.left_aside.count || summary.left_aside.hidden)
-      parameters["left_aside"] = {{"files", summary.left_aside.count}, {"first", summary.left_aside.first},
-                                  {"hidden", summary.left_aside.hidden}, {"first_hidden", summary.left_aside.first_hidden}};
-    summary.run_id = begin_run(db, "batch", summary.settings_id, parameters);
-    t.commit();
-  }
+  // Plan, before anything is written: which files need opening. A file whose size and
+  // time are as stored, and whose content was read under these settings, is not opened at
+  // all. (The store's lock is held from its first read on, so nothing changes meanwhile.)
   RunCounters& counters = summary.counters;
   counters.files_found = files.size();
-
-  // Plan: which files need opening. A file whose size and time are as stored, and whose
-  // content was read under these settings, is not opened at all.
-  const auto previous = stored_files(db, summary.settings_id);
+  const std::int64_t known_settings = find_settings(db, settings);  // 0: none stored yet
+  const auto previous = stored_files(db, known_settings);
   std::vector<std::size_t> to_open;
   std::map<std::string, std::string> failing;  // path -> message, reported in path order
   BatchProgress progress;
@@ -184,11 +191,43 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     to_open.push_back(i);
     progress.bytes_total += f.size;
   }
+  const std::vector<VanishedFile> vanished = vanished_files(request, options, files, previous, summary.unlisted);
+  progress.files_done = counters.files_unchanged;
+  const auto report_failing = [&] {
+    for (auto& [path, message] : failing) summary.failures.push_back(BatchFailure{path, message});
+  };
+
+  // Nothing to do: every file as stored, none gone, every folder listed, no run left
+  // unfinished. Nothing is written, so the store keeps its bytes and its time (a backup or
+  // a version control system sees no change), and no run is recorded.
+  if (known_settings && !files.empty() && to_open.empty() && vanished.empty() && summary.unlisted.empty() &&
+      !any_run_unfinished(db)) {
+    summary.settings_id = known_settings;
+    summary.store_written = false;
+    counters.files_failed = failing.size();
+    if (listener) listener(progress, "", FileOutcome::unchanged);
+    report_failing();
+    return summary;
+  }
+
+  {
+    Transaction t(db);
+    mark_interrupted_runs(db);
+    summary.settings_id = ensure_settings(db, settings);
+    nlohmann::json parameters = run_parameters(request, options, settings);
+    for (const auto& folder : summary.unlisted)  // kept with the run, for whoever reads the table later
+      parameters["unlisted_folders"].push_back({{"path", folder.path}, {"reason", folder.reason}});
+    if (summary.left_aside.count || summary.left_aside.hidden)
+      parameters["left_aside"] = {{"files", summary.left_aside.count}, {"first", summary.left_aside.first},
+                                  {"hidden", summary.left_aside.hidden}, {"first_hidden", summary.left_aside.first_hidden}};
+    summary.run_id = begin_run(db, "batch", summary.settings_id, parameters);
+    t.commit();
+  }
+
   // Largest files first: the readers then end together instead of one of them finishing
   // a long novel alone while the other core idles (longest-processing-time-first order).
   std::stable_sort(to_open.begin(), to_open.end(),
                    [&files](std::size_t a, std::size_t b) { return files[a].size > files[b].size; });
-  progress.files_done = counters.files_unchanged;
   if (listener && counters.files_unchanged) listener(progress, "", FileOutcome::unchanged);
 
   // Of the files to open, only one whose size some stored content has can turn out to be
@@ -256,7 +295,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
       if (listener) listener(progress, f.path, outcome);
     });
 
-    remove_vanished(db, request, options, files, previous, summary);
+    remove_vanished(db, vanished, summary);
     counters.files_failed = failing.size();
     update_run(db, summary.run_id, counters);
     finish_run(db, summary.run_id, "done");
@@ -277,7 +316,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     }
     throw;
   }
-  for (auto& [path, message] : failing) summary.failures.push_back(BatchFailure{path, message});
+  report_failing();
   summary.fresh = writer.take_fresh_counts();
   return summary;
 }

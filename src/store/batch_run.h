@@ -13,6 +13,8 @@
 //  - A file that fails is recorded with its error; the run goes on.
 //  - Files that no longer exist under the inputs (inside the folder filter and the shard)
 //    leave the files table; what was read from them stays cached by content.
+//  - A run that finds nothing to do (every file as stored, none gone, every folder listed,
+//    no earlier run left unfinished) writes nothing and records no run.
 #pragma once
 #include <cstdint>
 #include <functional>
@@ -66,7 +68,10 @@ struct BatchFailure {
 };
 
 struct BatchSummary {
-  std::int64_t run_id = 0;
+  std::int64_t run_id = 0;  // 0 when nothing was written
+  // False when the run found nothing to do (every file as stored, none gone): then it wrote
+  // nothing, not even its row in the runs table.
+  bool store_written = true;
   std::int64_t settings_id = 0;
   RunCounters counters;
   std::vector<BatchFailure> failures;  // every file failing now, in path order

@@ -50,11 +50,15 @@ ReadingSettings reading_settings(const Request& request) {
   return s;
 }
 
-std::int64_t ensure_settings(Database& db, const ReadingSettings& s, bool* inserted) {
+std::int64_t find_settings(Database& db, const ReadingSettings& s) {
   Statement find = db.prepare("SELECT settings_id FROM settings WHERE key = ?1");
   find.bind(1, s.key);
+  return find.step() ? find.int64_at(0) : 0;
+}
+
+std::int64_t ensure_settings(Database& db, const ReadingSettings& s, bool* inserted) {
   if (inserted) *inserted = false;
-  if (find.step()) return find.int64_at(0);
+  if (const std::int64_t known = find_settings(db, s)) return known;
   db.prepare("INSERT INTO settings (key, unit, selection, tokenizer, features, request) VALUES (?1, ?2, ?3, ?4, ?5, ?6)")
       .run(s.key, s.unit, s.selection, s.tokenizer, s.features, json_text(s.request));
   if (inserted) *inserted = true;

@@ -34,6 +34,9 @@ struct StoredSettings {
 
 ReadingSettings reading_settings(const Request& request);
 
+// The settings' row id; 0 when the store does not have them.
+std::int64_t find_settings(Database& db, const ReadingSettings& settings);
+
 // The settings' row id, inserting the row when the store does not have it yet (and then
 // setting *inserted, when given).
 std::int64_t ensure_settings(Database& db, const ReadingSettings& settings, bool* inserted = nullptr);
