@@ -8,7 +8,7 @@ void report_batch(std::ostream& out, const std::string& store, const store::Batc
   const store::RunCounters& c = s.counters;
   if (!s.store_written) {
     out << "store " << store << ": nothing changed: " << c.files_found << " file(s) as stored, " << c.files_failed
-        << " failing; the store was not written\n";
+        << " failing; no batch run recorded\n";
     return;
   }
   out << "store " << store << ": batch run " << s.run_id << ": " << c.files_found << " file(s): " << c.files_read

@@ -50,7 +50,7 @@ def unchanged_rerun(store, archive, files, failing, expect=0, threads=None):
     mtest.check(after == before, "a re-run with nothing to do changed the store (SHA-256, time) from %r to %r: %s"
                 % (before, after, proc.stdout))
     mtest.check(not os.path.exists(store + "-wal"), "a re-run with nothing to do left its log behind")
-    expected = "nothing changed: %d file(s) as stored, %d failing; the store was not written" % (files, failing)
+    expected = "nothing changed: %d file(s) as stored, %d failing; no batch run recorded" % (files, failing)
     mtest.check(expected in proc.stdout, "the summary of a re-run with nothing to do: %r" % proc.stdout)
     return proc.stderr
 
