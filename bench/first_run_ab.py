@@ -4,10 +4,8 @@ round, so that a busy moment on a shared machine hits each alike. For deciding w
 change to the reading, the store or the analysis pays, where the figures of two separate
 benchmark runs would differ by more than the change.
 
-Each round runs every build once, 0.3 s apart, each into a new store: in the order given in
-odd rounds and in the reverse order in even ones, so that neither a build's place in the
-round nor a drift of the host's speed over the rounds favours one build (in fixed order,
-two runs of the same pair of builds, minutes apart, gave ratios of 0.939 and 1.034).
+Each round runs every build once, 0.3 s apart, each into a new store, the order turning
+round every other round (bench/build_turns.py says why).
 Printed: per build the medians of wall time, CPU time, system time, peak memory and
 context switches (voluntary and involuntary, from the kernel's rusage of the child); and
 for each build after the first, the median of its wall time over the first build's in the
@@ -18,12 +16,12 @@ Usage: /usr/bin/python3 bench/first_run_ab.py ROUNDS CORPUS BUILD/manicule BUILD
   CORPUS is gerdracor (unit speaker) or eltec-eng (unit chapter), under ../shared/corpora
 """
 import os
-import statistics
 import sys
 import tempfile
 import time
 
 from archive_copies import remove_store  # bench/, as child_usage
+from build_turns import print_medians, print_paired_ratios, turns  # bench/, as child_usage
 from child_usage import run_with_usage  # bench/, which Python puts first on the path of its scripts
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
@@ -49,21 +47,11 @@ def main():
     print("load average before: %.2f %.2f %.2f; %d rounds; %s" % (*os.getloadavg(), rounds, corpus))
     with tempfile.TemporaryDirectory() as scratch:
         store = os.path.join(scratch, "ab.sqlite")
-        for round_number in range(rounds):
-            for b in builds if round_number % 2 == 0 else reversed(builds):
-                runs[b].append(first_run(b, folder, UNITS[corpus], store))
+        for b in turns(builds, rounds):
+            runs[b].append(first_run(b, folder, UNITS[corpus], store))
     print("load average after: %.2f %.2f %.2f\n" % os.getloadavg())
-    keys = list(runs[builds[0]][0])
-    print("| build | " + " | ".join(keys) + " |")
-    print("| --- |" + " ---: |" * len(keys))
-    for b in builds:
-        print("| %s | " % b + " | ".join(("%.3f" if k.endswith(" s") else "%.0f") % statistics.median(r[k] for r in runs[b])
-                                          for k in keys) + " |")
-    for b in builds[1:]:
-        ratios = sorted(x["wall s"] / y["wall s"] for x, y in zip(runs[b], runs[builds[0]]))
-        q = statistics.quantiles(ratios, n=4) if len(ratios) > 1 else ratios * 3
-        print("\n%s / %s, wall time round by round: median %.3f (quartiles %.3f, %.3f); faster in %d of %d rounds"
-              % (b, builds[0], statistics.median(ratios), q[0], q[2], sum(r < 1 for r in ratios), len(ratios)))
+    print_medians(runs, builds, lambda key: "%.3f" if key.endswith(" s") else "%.0f")
+    print_paired_ratios(runs, builds, "wall s")
 
 
 if __name__ == "__main__":

@@ -1,9 +1,8 @@
 """Two or more builds of the command line against each other on a re-run (not a test):
 `batch --analyse` again over an unchanged corpus, whose first run each build made into a
-store of its own beforehand. The builds take turns run by run, in the order given in odd
-rounds and in the reverse order in even ones (as bench/first_run_ab.py does, and for the
-same reason: a busy moment or a drift of the host's speed then hits each alike). A re-run
-takes some 10-20 ms, so many rounds are cheap and tell apart changes of a millisecond.
+store of its own beforehand. The builds take turns run by run, the order turning round
+every other round (bench/build_turns.py says why). A re-run takes some 10-20 ms, so many
+rounds are cheap and tell apart changes of a millisecond.
 
 Printed: per build the medians of wall time, CPU time and system time of the re-run (from
 the kernel's rusage of the child), whether the re-run left its store's bytes as they were
@@ -15,10 +14,10 @@ Usage: /usr/bin/python3 bench/rerun_ab.py ROUNDS CORPUS BUILD/manicule BUILD/man
 """
 import hashlib
 import os
-import statistics
 import sys
 import tempfile
 
+from build_turns import print_medians, print_paired_ratios, turns  # bench/, as child_usage
 from child_usage import run_with_usage  # bench/, which Python puts first on the path of its scripts
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
@@ -46,25 +45,16 @@ def main():
         for b in builds:  # the first runs, then one re-run each to settle the files' times
             for _ in range(2):
                 run_with_usage(command[b])
-        for round_number in range(rounds):
-            for b in builds if round_number % 2 == 0 else reversed(builds):
-                before = sha256_of(stores[b])
-                wall, usage = run_with_usage(command[b])
-                unchanged[b] += sha256_of(stores[b]) == before
-                runs[b].append({"wall ms": 1000 * wall, "CPU ms": 1000 * (usage.ru_utime + usage.ru_stime),
-                                "system ms": 1000 * usage.ru_stime})
+        for b in turns(builds, rounds):
+            before = sha256_of(stores[b])
+            wall, usage = run_with_usage(command[b])
+            unchanged[b] += sha256_of(stores[b]) == before
+            runs[b].append({"wall ms": 1000 * wall, "CPU ms": 1000 * (usage.ru_utime + usage.ru_stime),
+                            "system ms": 1000 * usage.ru_stime})
     print("load average after: %.2f %.2f %.2f\n" % os.getloadavg())
-    keys = list(runs[builds[0]][0])
-    print("| build | " + " | ".join(keys) + " | store's bytes kept |")
-    print("| --- |" + " ---: |" * (len(keys) + 1))
-    for b in builds:
-        print("| %s | " % b + " | ".join("%.2f" % statistics.median(r[k] for r in runs[b]) for k in keys)
-              + " | %d of %d |" % (unchanged[b], rounds))
-    for b in builds[1:]:
-        ratios = sorted(x["wall ms"] / y["wall ms"] for x, y in zip(runs[b], runs[builds[0]]))
-        q = statistics.quantiles(ratios, n=4) if len(ratios) > 1 else ratios * 3
-        print("\n%s / %s, wall time round by round: median %.3f (quartiles %.3f, %.3f); faster in %d of %d rounds"
-              % (b, builds[0], statistics.median(ratios), q[0], q[2], sum(r < 1 for r in ratios), len(ratios)))
+    print_medians(runs, builds, lambda key: "%.2f",
+                  ("store's bytes kept", {b: "%d of %d" % (unchanged[b], rounds) for b in builds}))
+    print_paired_ratios(runs, builds, "wall ms")
 
 
 if __name__ == "__main__":

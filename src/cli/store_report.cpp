@@ -6,7 +6,7 @@ namespace manicule::cli {
 
 void report_batch(std::ostream& out, const std::string& store, const store::BatchSummary& s) {
   const store::RunCounters& c = s.counters;
-  if (!s.store_written) {
+  if (!s.recorded()) {
     out << "store " << store << ": nothing changed: " << c.files_found << " file(s) as stored, " << c.files_failed
         << " failing; no batch run recorded\n";
     return;

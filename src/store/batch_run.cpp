@@ -203,7 +203,6 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   if (known_settings && !files.empty() && to_open.empty() && vanished.empty() && summary.unlisted.empty() &&
       !any_run_unfinished(db)) {
     summary.settings_id = known_settings;
-    summary.store_written = false;
     counters.files_failed = failing.size();
     if (listener) listener(progress, "", FileOutcome::unchanged);
     report_failing();

@@ -68,10 +68,10 @@ struct BatchFailure {
 };
 
 struct BatchSummary {
-  std::int64_t run_id = 0;  // 0 when nothing was written
-  // False when the run found nothing to do (every file as stored, none gone): then it wrote
+  // 0 when the run found nothing to do (every file as stored, none gone): then it wrote
   // nothing, not even its row in the runs table.
-  bool store_written = true;
+  std::int64_t run_id = 0;
+  bool recorded() const { return run_id != 0; }
   std::int64_t settings_id = 0;
   RunCounters counters;
   std::vector<BatchFailure> failures;  // every file failing now, in path order
