@@ -23,7 +23,6 @@ import json
 import os
 import shutil
 import sys
-import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
@@ -38,7 +37,7 @@ LETTERS = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
 CAUTION = "Statistical evidence, not proof"
 BASE = ["--unit", "letter", "--min-tokens", "200"]
 SETTINGS = ["--resamples", "20", "--iterations", "40"]
-tmp = tempfile.mkdtemp()
+tmp = mtest.scratch_folder()
 
 
 def fs_value(fs, name):

@@ -7,7 +7,6 @@ src/cli/exit_codes.h for bad input (3), nothing to compare (4) and bad usage (2)
 import json
 import os
 import sys
-import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
 import mtest  # noqa: E402
@@ -16,7 +15,7 @@ from attribution_reference import letter_senders  # noqa: E402
 LETTERS = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
 BASE = ["--unit", "letter", "--min-tokens", "200", LETTERS]
 CAUTION = "Statistical evidence, not proof"
-tmp = tempfile.mkdtemp()
+tmp = mtest.scratch_folder()
 
 
 def labels(rows):

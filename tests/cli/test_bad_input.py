@@ -12,7 +12,6 @@ import re
 import resource
 import subprocess
 import sys
-import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
 import mtest  # noqa: E402
@@ -23,7 +22,7 @@ HEADER = ('<teiHeader><fileDesc><titleStmt><title>T</title></titleStmt><publicat
           '</publicationStmt><sourceDesc><p>invented</p></sourceDesc></fileDesc></teiHeader>')
 MARKER = "MARKER-9c41-NEVER-SHOWN"
 
-tmp = tempfile.mkdtemp(prefix="manicule-bad-")
+tmp = mtest.scratch_folder("manicule-bad-")
 
 
 def write(name, content, mode="w"):

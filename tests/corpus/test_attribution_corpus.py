@@ -24,7 +24,6 @@ import csv
 import json
 import os
 import sys
-import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
 import mtest  # noqa: E402
@@ -36,7 +35,7 @@ METADATA = os.path.join(mtest.CORPORA, "eltec-eng-metadata.tsv")
 if not (os.path.isdir(NOVELS) and os.path.isdir(PLAYS) and os.path.isfile(METADATA)):
     print("corpora not found at " + mtest.CORPORA)
     sys.exit(77)
-tmp = tempfile.mkdtemp()
+tmp = mtest.scratch_folder()
 def strict_json(text):
     def no_constant(name):
         mtest.fail("JSON holds " + name)

@@ -5,9 +5,12 @@ MANICULE_BIN (the built command), MANICULE_ROOT (project root), MANICULE_BUILD,
 MANICULE_CORPORA (../shared/corpora), MANICULE_SCHEMA (tei_all.rng), MANICULE_PLUGIN.
 A script exits 0 when every check holds, 1 on the first failed check, 77 to skip.
 """
+import atexit
 import os
+import shutil
 import subprocess
 import sys
+import tempfile
 
 BIN = os.environ.get("MANICULE_BIN", "manicule")
 ROOT = os.environ.get("MANICULE_ROOT", os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__)))))
@@ -16,6 +19,16 @@ SCHEMA = os.environ.get("MANICULE_SCHEMA", os.path.join(ROOT, "..", "shared", "s
 FIXTURES = os.path.join(ROOT, "tests", "fixtures")
 
 _checks = 0
+
+
+def scratch_folder(prefix="manicule-test-"):
+    """A new temporary folder, removed when the script exits (whether its checks held or
+    not), so that a test run leaves nothing behind in the system's temporary folder; set
+    MANICULE_KEEP_SCRATCH=1 to keep it for a look after a failure."""
+    folder = tempfile.mkdtemp(prefix=prefix)
+    if not os.environ.get("MANICULE_KEEP_SCRATCH"):
+        atexit.register(shutil.rmtree, folder, True)
+    return folder
 
 
 def run(args, check=True, input=None, env=None, timeout=600, cwd=None):

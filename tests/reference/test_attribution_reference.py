@@ -19,7 +19,6 @@ import json
 import math
 import os
 import sys
-import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
 import mtest  # noqa: E402
@@ -39,7 +38,7 @@ AUTHORS = {"Trollope, Anthony": ["ENG18551_Trollope", "ENG18650_Trollope", "ENG1
 QUESTIONED = {"ENG18660_Eliot", "ENG18651_Yonge"}
 FILES = [os.path.join(NOVELS_DIR, s + ".xml") for a in AUTHORS for s in AUTHORS[a]]
 RANKS = 500
-tmp = tempfile.mkdtemp()
+tmp = mtest.scratch_folder()
 labels_path = os.path.join(tmp, "labels.csv")
 with open(labels_path, "w", newline="") as f:
     w = csv.writer(f)
