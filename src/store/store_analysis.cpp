@@ -1,5 +1,6 @@
 #include "store/store_analysis.h"
 
+#include <algorithm>
 #include <future>
 
 #include "attribution/attribute.h"
@@ -107,6 +108,24 @@ Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& 
   return Error(ErrorKind::nothing_selected, "nothing to analyse, which needs two segments: " + what);
 }
 
+// Said when the segments analysed are in more than one language: the most frequent words
+// are then taken from all of them together, and the nearest segments follow the language
+// before the style. Empty when they share one (segments of unknown language aside).
+std::string mixed_languages_note(const StoredCorpus& stored) {
+  std::vector<std::pair<std::string, std::size_t>> languages(stored.segments_by_language.begin(),
+                                                             stored.segments_by_language.end());
+  const auto known = std::count_if(languages.begin(), languages.end(), [](const auto& l) { return !l.first.empty(); });
+  if (known < 2) return {};
+  std::stable_sort(languages.begin(), languages.end(), [](const auto& a, const auto& b) { return a.second > b.second; });
+  std::string counts;
+  for (const auto& [language, segments] : languages)
+    counts += (counts.empty() ? "" : ", ") + (language.empty() ? std::string("unknown") : language) + " " +
+              std::to_string(segments);
+  return "the segments analysed are in " + std::to_string(known) + " languages (" + counts +
+         "): their most frequent words are taken from all of them together, so the nearest segments follow the "
+         "language before the style; --language LANG analyses one language at a time";
+}
+
 }  // namespace
 
 std::future<void> open_blas_ahead(const Request& request) {
@@ -185,6 +204,7 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   result.attributions = attributions.size();
   result.notes = analysis.notes;
   result.notes.insert(result.notes.end(), notes.begin(), notes.end());
+  if (const std::string note = mixed_languages_note(stored); !note.empty()) result.notes.push_back(note);
   if (stored.segments_too_short)
     result.notes.push_back(std::to_string(stored.segments_too_short) + " segment(s) shorter than " +
                            std::to_string(request.feature_space.min_segment_tokens) + " words left out");

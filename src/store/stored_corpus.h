@@ -9,6 +9,7 @@
 // `fresh` is emptied.
 #pragma once
 #include <cstdint>
+#include <map>
 #include <string>
 #include <vector>
 
@@ -51,6 +52,9 @@ struct StoredCorpus {
   std::size_t segments_other_language = 0;  // outside the filter's language
   std::size_t segments_other_years = 0;     // dated (own year, else the file's) outside the years
   std::size_t segments_undated = 0;         // no year, in a file chosen for its segments' years
+  // The segments used, by language: the primary subtag of each one's own language where its
+  // text says it readably, else its file's ("" when neither does), canonical ("ger" -> "de").
+  std::map<std::string, std::size_t> segments_by_language;
 };
 
 StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& filter);
