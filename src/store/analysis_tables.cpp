@@ -81,10 +81,10 @@ void write_pca(Database& db, std::int64_t run, const PcaResult& pca) {
 
 std::int64_t write_analysis(Database& db, std::int64_t settings_id, const nlohmann::json& parameters,
                             const std::string& key, const Analysis& analysis, const StoredCorpus& stored,
-                            const std::vector<AttributionRow>& attributions) {
+                            const std::vector<std::string>& notes, const std::vector<AttributionRow>& attributions) {
   nlohmann::json recorded = parameters;
   for (const auto& [k, v] : analysis.provenance.parameters) recorded["results"][k] = v;
-  recorded["notes"] = analysis.notes;
+  recorded["notes"] = notes;
   Transaction t(db);
   std::int64_t run = begin_run(db, "analysis", settings_id, recorded);
   db.prepare("UPDATE runs SET analysis_key = ?2 WHERE run_id = ?1").run(run, key);

@@ -38,8 +38,11 @@ std::string analysis_key(const nlohmann::json& parameters, const StoredSelection
 // The finished analysis run with this key, if any.
 std::optional<std::int64_t> find_analysis(Database& db, const std::string& key);
 
+// `notes` are kept with the run's parameters, so that a later run that reuses the analysis
+// says them again.
 std::int64_t write_analysis(Database& db, std::int64_t settings_id, const nlohmann::json& parameters,
                             const std::string& key, const Analysis& analysis, const StoredCorpus& stored,
+                            const std::vector<std::string>& notes,
                             const std::vector<AttributionRow>& attributions = {});
 
 }  // namespace manicule::store

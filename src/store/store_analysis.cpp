@@ -126,6 +126,33 @@ std::string mixed_languages_note(const StoredCorpus& stored) {
          "language before the style; --language LANG analyses one language at a time";
 }
 
+// What the choice of segments left out or mixed, as notes for the user: segments in several
+// languages, too few words, no year for --years, files with no segment long enough.
+void add_selection_notes(const ArchiveFilter& filter, std::size_t min_tokens, const StoredSelection& selection,
+                         const StoredCorpus& stored, std::size_t files_used, std::vector<std::string>& notes) {
+  if (const std::string note = mixed_languages_note(stored); !note.empty()) notes.push_back(note);
+  if (stored.segments_too_short)
+    notes.push_back(std::to_string(stored.segments_too_short) + " segment(s) shorter than " +
+                    std::to_string(min_tokens) + " words left out");
+  if (selection.files_undated)
+    notes.push_back(std::to_string(selection.files_undated) +
+                    " file(s) left out by --years for want of a year in their header (docs/store.md)");
+  if (stored.segments_undated)
+    notes.push_back(std::to_string(stored.segments_undated) +
+                    " segment(s) left out by --years for want of a year, their own or their file's");
+  if (stored.segments_other_years)
+    notes.push_back(std::to_string(stored.segments_other_years) +
+                    " segment(s) of the files chosen left out by --years: dated by their own date "
+                    "(a letter's), else their file's, outside the years");
+  // Said, so that fewer files in the report than in the archive need no guessing.
+  if (selection.paths.size() > files_used)
+    notes.push_back(std::to_string(selection.paths.size() - files_used) + " of the " +
+                    std::to_string(selection.paths.size()) + " file(s) selected hold no segment of " +
+                    std::to_string(min_tokens) + " words or more" +
+                    (filter.language.empty() ? "" : " in the language asked for") +
+                    (filter.asks_years() ? " dated in the years asked" : ""));
+}
+
 }  // namespace
 
 std::future<void> open_blas_ahead(const Request& request) {
@@ -155,7 +182,8 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
           "COALESCE((SELECT CAST(json_extract(parameters, '$.results.\"segments measured\"') AS INTEGER) "
           "FROM runs WHERE run_id = ?1), "
           "(SELECT count(*) FROM analysis_segments WHERE run_id = ?1 AND measured = 1)), "
-          "(SELECT count(*) FROM features WHERE run_id = ?1), (SELECT count(*) FROM attributions WHERE run_id = ?1)");
+          "(SELECT count(*) FROM features WHERE run_id = ?1), (SELECT count(*) FROM attributions WHERE run_id = ?1), "
+          "(SELECT json_extract(parameters, '$.notes') FROM runs WHERE run_id = ?1)");
       count.bind(1, *existing);
       count.step();
       result.files = static_cast<std::size_t>(count.int64_at(0));
@@ -163,6 +191,11 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
       result.measured = static_cast<std::size_t>(count.int64_at(2));
       result.features = static_cast<std::size_t>(count.int64_at(3));
       result.attributions = static_cast<std::size_t>(count.int64_at(4));
+      // Its notes, said again: the same segments give the same cautions.
+      const nlohmann::json notes = nlohmann::json::parse(count.text_at(5), nullptr, false);
+      if (notes.is_array())
+        for (const auto& note : notes)
+          if (note.is_string()) result.notes.push_back(note.get<std::string>());
       return result;
     }
   }
@@ -198,33 +231,13 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   }
   report_step(options.progress, "storing results");
   checkpoint.get();
-  result.run_id = write_analysis(db, settings_id, parameters, key, analysis, stored, attributions);
   result.measured = analysis.table.segment_count();
   result.features = analysis.table.feature_count();
   result.attributions = attributions.size();
   result.notes = analysis.notes;
   result.notes.insert(result.notes.end(), notes.begin(), notes.end());
-  if (const std::string note = mixed_languages_note(stored); !note.empty()) result.notes.push_back(note);
-  if (stored.segments_too_short)
-    result.notes.push_back(std::to_string(stored.segments_too_short) + " segment(s) shorter than " +
-                           std::to_string(request.feature_space.min_segment_tokens) + " words left out");
-  if (selection.files_undated)
-    result.notes.push_back(std::to_string(selection.files_undated) +
-                           " file(s) left out by --years for want of a year in their header (docs/store.md)");
-  if (stored.segments_undated)
-    result.notes.push_back(std::to_string(stored.segments_undated) +
-                           " segment(s) left out by --years for want of a year, their own or their file's");
-  if (stored.segments_other_years)
-    result.notes.push_back(std::to_string(stored.segments_other_years) +
-                           " segment(s) of the files chosen left out by --years: dated by their own date "
-                           "(a letter's), else their file's, outside the years");
-  // Said, so that fewer files in the report than in the archive need no guessing.
-  if (selection.paths.size() > result.files)
-    result.notes.push_back(std::to_string(selection.paths.size() - result.files) + " of the " +
-                           std::to_string(selection.paths.size()) + " file(s) selected hold no segment of " +
-                           std::to_string(request.feature_space.min_segment_tokens) + " words or more" +
-                           (filter.language.empty() ? "" : " in the language asked for") +
-                           (filter.asks_years() ? " dated in the years asked" : ""));
+  add_selection_notes(filter, request.feature_space.min_segment_tokens, selection, stored, result.files, result.notes);
+  result.run_id = write_analysis(db, settings_id, parameters, key, analysis, stored, result.notes, attributions);
   return result;
 }
 

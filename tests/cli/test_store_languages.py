@@ -1,5 +1,6 @@
 """Archive store: an analysis over segments in more than one language says so, with the
-segments of each language, and one over a single language does not.
+segments of each language, and says it again when a later run reuses it; one over a single
+language does not.
 
 Three German plays (gerdracor) and three English novels (eltec-eng), one segment each
 (--unit whole), all well over the 1,500 words an analysis takes by default. Each file's
@@ -47,11 +48,15 @@ for path, tag in zip(plays[1:], ["ger", "de-AT"]):
     respelled.append(copy)
 
 
-def analyse(name, files, *extra):
-    """Runs batch --analyse over `files` into a new store; returns its notes' language
-    counts ({} when it gives none) and the number of segments measured."""
+def analyse(name, files, *extra, reused=False):
+    """Runs batch --analyse over `files` into the store `name` (new, unless `reused`, when
+    the analysis must come back unchanged from it); returns its notes' language counts ({}
+    when it gives none) and the number of segments measured."""
     store = os.path.join(tmp, name + ".sqlite")
+    mtest.check(os.path.exists(store) == reused, "%s: the store %s" % (name, "is missing" if reused else "exists"))
     proc = mtest.run(["batch"] + files + ["--store", store, "--unit", "whole", "--analyse", "--quiet"] + list(extra))
+    mtest.check(("(unchanged, reused)" in proc.stdout) == reused,
+                "%s: reused %s expected, got %r" % (name, reused, proc.stdout))
     measured = re.search(r"(\d+) segment\(s\) measured", proc.stdout + proc.stderr)
     mtest.check(measured is not None, "%s: no analysis line in %r" % (name, proc.stdout + proc.stderr))
     notes = NOTE.findall(proc.stderr)
@@ -71,6 +76,10 @@ def analyse(name, files, *extra):
 languages, measured = analyse("mixed", plays[:1] + novels[:2])
 mtest.check(measured == 3, "mixed: %d segments measured, expected 3" % measured)
 mtest.check(languages == {"en": 2, "de": 1}, "mixed: languages %r, expected en 2, de 1" % languages)
+# Run again over the same files, the stored analysis is reused and says the same.
+languages, measured = analyse("mixed", plays[:1] + novels[:2], reused=True)
+mtest.check(measured == 3 and languages == {"en": 2, "de": 1},
+            "mixed, reused: %d measured, languages %r; expected 3, en 2, de 1" % (measured, languages))
 
 # Three spellings of German count as one language.
 languages, measured = analyse("respelled", plays[:1] + respelled + novels)
