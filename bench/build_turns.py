@@ -1,12 +1,34 @@
-"""What the A/B scripts (first_run_ab.py, rerun_ab.py) share: builds taking turns round by
-round, and their figures printed as medians per build and as paired ratios to the first.
+"""What the A/B scripts (first_run_ab.py, rerun_ab.py) share: their command line (ROUNDS
+CORPUS BUILD...), builds taking turns round by round, and their figures printed as medians
+per build and as paired ratios to the first.
 
 The order turns round every other round: in the order given in odd rounds, reversed in
 even ones, so that neither a build's place in the round nor a drift of the host's speed
 over the rounds favours one build (in fixed order, two runs of the same pair of builds,
 minutes apart, gave ratios of 0.939 and 1.034; bench/RESULTS.md).
 """
+import os
 import statistics
+import sys
+
+ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
+CORPORA = os.environ.get("MANICULE_CORPORA", os.path.join(ROOT, "..", "shared", "corpora"))
+UNITS = {"gerdracor": "speaker", "eltec-eng": "chapter"}
+
+
+def ab_arguments(usage):
+    """ROUNDS CORPUS BUILD/manicule BUILD/manicule... from the command line (else exits
+    with `usage`): the rounds, the corpus's folder, its unit and the builds. Prints the
+    load average before the runs."""
+    if len(sys.argv) < 5 or sys.argv[2] not in UNITS:
+        sys.exit(usage)
+    rounds, corpus, builds = int(sys.argv[1]), sys.argv[2], sys.argv[3:]
+    print("load average before: %.2f %.2f %.2f; %d rounds; %s" % (*os.getloadavg(), rounds, corpus))
+    return rounds, os.path.join(CORPORA, corpus), UNITS[corpus], builds
+
+
+def print_load_after():
+    print("load average after: %.2f %.2f %.2f\n" % os.getloadavg())
 
 
 def turns(builds, rounds):

@@ -16,17 +16,12 @@ Usage: /usr/bin/python3 bench/first_run_ab.py ROUNDS CORPUS BUILD/manicule BUILD
   CORPUS is gerdracor (unit speaker) or eltec-eng (unit chapter), under ../shared/corpora
 """
 import os
-import sys
 import tempfile
 import time
 
 from archive_copies import remove_store  # bench/, as child_usage
-from build_turns import print_medians, print_paired_ratios, turns  # bench/, as child_usage
+from build_turns import ab_arguments, print_load_after, print_medians, print_paired_ratios, turns  # bench/
 from child_usage import run_with_usage  # bench/, which Python puts first on the path of its scripts
-
-ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
-CORPORA = os.environ.get("MANICULE_CORPORA", os.path.join(ROOT, "..", "shared", "corpora"))
-UNITS = {"gerdracor": "speaker", "eltec-eng": "chapter"}
 
 
 def first_run(binary, folder, unit, store):
@@ -39,17 +34,13 @@ def first_run(binary, folder, unit, store):
 
 
 def main():
-    if len(sys.argv) < 5 or sys.argv[2] not in UNITS:
-        sys.exit(__doc__)
-    rounds, corpus, builds = int(sys.argv[1]), sys.argv[2], sys.argv[3:]
-    folder = os.path.join(CORPORA, corpus)
+    rounds, folder, unit, builds = ab_arguments(__doc__)
     runs = {b: [] for b in builds}
-    print("load average before: %.2f %.2f %.2f; %d rounds; %s" % (*os.getloadavg(), rounds, corpus))
     with tempfile.TemporaryDirectory() as scratch:
         store = os.path.join(scratch, "ab.sqlite")
         for b in turns(builds, rounds):
-            runs[b].append(first_run(b, folder, UNITS[corpus], store))
-    print("load average after: %.2f %.2f %.2f\n" % os.getloadavg())
+            runs[b].append(first_run(b, folder, unit, store))
+    print_load_after()
     print_medians(runs, builds, lambda key: "%.3f" if key.endswith(" s") else "%.0f")
     print_paired_ratios(runs, builds, "wall s")
 

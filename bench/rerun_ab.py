@@ -14,15 +14,10 @@ Usage: /usr/bin/python3 bench/rerun_ab.py ROUNDS CORPUS BUILD/manicule BUILD/man
 """
 import hashlib
 import os
-import sys
 import tempfile
 
-from build_turns import print_medians, print_paired_ratios, turns  # bench/, as child_usage
+from build_turns import ab_arguments, print_load_after, print_medians, print_paired_ratios, turns  # bench/
 from child_usage import run_with_usage  # bench/, which Python puts first on the path of its scripts
-
-ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
-CORPORA = os.environ.get("MANICULE_CORPORA", os.path.join(ROOT, "..", "shared", "corpora"))
-UNITS = {"gerdracor": "speaker", "eltec-eng": "chapter"}
 
 
 def sha256_of(path):
@@ -31,16 +26,12 @@ def sha256_of(path):
 
 
 def main():
-    if len(sys.argv) < 5 or sys.argv[2] not in UNITS:
-        sys.exit(__doc__)
-    rounds, corpus, builds = int(sys.argv[1]), sys.argv[2], sys.argv[3:]
-    folder = os.path.join(CORPORA, corpus)
+    rounds, folder, unit, builds = ab_arguments(__doc__)
     runs = {b: [] for b in builds}
     unchanged = {b: 0 for b in builds}
-    print("load average before: %.2f %.2f %.2f; %d rounds; %s" % (*os.getloadavg(), rounds, corpus))
     with tempfile.TemporaryDirectory() as scratch:
         stores = {b: os.path.join(scratch, "build%d.sqlite" % k) for k, b in enumerate(builds)}
-        command = {b: [b, "batch", folder, "--store", stores[b], "--unit", UNITS[corpus], "--analyse", "--quiet"]
+        command = {b: [b, "batch", folder, "--store", stores[b], "--unit", unit, "--analyse", "--quiet"]
                    for b in builds}
         for b in builds:  # the first runs, then one re-run each to settle the files' times
             for _ in range(2):
@@ -51,7 +42,7 @@ def main():
             unchanged[b] += sha256_of(stores[b]) == before
             runs[b].append({"wall ms": 1000 * wall, "CPU ms": 1000 * (usage.ru_utime + usage.ru_stime),
                             "system ms": 1000 * usage.ru_stime})
-    print("load average after: %.2f %.2f %.2f\n" % os.getloadavg())
+    print_load_after()
     print_medians(runs, builds, lambda key: "%.2f",
                   ("store's bytes kept", {b: "%d of %d" % (unchanged[b], rounds) for b in builds}))
     print_paired_ratios(runs, builds, "wall ms")

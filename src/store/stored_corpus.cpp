@@ -111,15 +111,6 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
   // Files sharing a content share its fresh segments: each but the last takes a copy.
   std::unordered_map<std::string, std::size_t> uses_left;
   const LanguageRange language(filter.language);
-  std::unordered_map<std::string, std::string> primary_of_tag;  // tag as stored -> canonical primary subtag
-  const auto primary_language = [&](const std::string& tag) -> const std::string& {
-    auto [it, fresh_tag] = primary_of_tag.try_emplace(tag);
-    if (fresh_tag) {
-      const std::string canonical = canonical_language_tag(tag);
-      it->second = canonical.substr(0, canonical.find('-'));
-    }
-    return it->second;
-  };
   if (fresh)
     for (const auto& sha256 : selection.sha256) ++uses_left[sha256];
 
@@ -159,8 +150,9 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
         file_listed = true;
       }
       Segment& seg = record.segment;
-      const std::string& own_language = primary_language(seg.language);
-      ++out.segments_by_language[own_language.empty() ? primary_language(selection.languages[f]) : own_language];
+      const std::string& own_language = language.canonical(seg.language);
+      ++out.segments_by_language[std::string(
+          primary_subtag(own_language.empty() ? language.canonical(selection.languages[f]) : own_language))];
       seg.id = selection.stems[f] + "#" + seg.local_id;
       seg.file = path;
       auto [owner, new_id] = id_owner.emplace(seg.id, path);

@@ -18,26 +18,28 @@ std::string canonical_language_tag(std::string_view tag) {
   return out;
 }
 
+std::string_view primary_subtag(std::string_view canonical_tag) {
+  return canonical_tag.substr(0, canonical_tag.find('-'));
+}
+
 bool is_language_code(std::string_view tag) {
-  const std::string canonical = canonical_language_tag(tag);
-  const std::size_t primary = canonical.find('-');
-  const std::size_t length = primary == std::string::npos ? canonical.size() : primary;
+  const std::size_t length = primary_subtag(canonical_language_tag(tag)).size();
   return length == 2 || length == 3;
 }
 
 LanguageRange::LanguageRange(std::string_view range) : canonical_(canonical_language_tag(range)) {}
 
-const std::string& LanguageRange::canonical_of(std::string_view tag) const {
+const std::string& LanguageRange::canonical(std::string_view tag) const {
   auto [it, fresh] = canonical_tags_.try_emplace(std::string(tag));
   if (fresh) it->second = canonical_language_tag(tag);
   return it->second;
 }
 
-bool LanguageRange::readable(std::string_view tag) const { return !tag.empty() && !canonical_of(tag).empty(); }
+bool LanguageRange::readable(std::string_view tag) const { return !tag.empty() && !canonical(tag).empty(); }
 
 bool LanguageRange::holds(std::string_view tag) const {
   if (canonical_.empty() || tag.empty()) return false;
-  const std::string& t = canonical_of(tag);
+  const std::string& t = canonical(tag);
   return t == canonical_ ||
          (t.size() > canonical_.size() && t.compare(0, canonical_.size(), canonical_) == 0 && t[canonical_.size()] == '-');
 }

@@ -14,6 +14,9 @@ namespace manicule {
 // undetermined tag ("und"), or one ICU cannot read ("de_AT").
 std::string canonical_language_tag(std::string_view tag);
 
+// The primary language subtag of a canonical tag: "de" of "de-at"; "" of "".
+std::string_view primary_subtag(std::string_view canonical_tag);
+
 // Whether `tag` names a language by an ISO 639 code of two or three letters, with or without
 // further subtags: "de", "ger", "en-GB", not "german" (well-formed BCP 47, but no code).
 bool is_language_code(std::string_view tag);
@@ -28,9 +31,10 @@ class LanguageRange {
   bool holds(std::string_view tag) const;
   // Whether `tag` can be read as a language at all (canonical_language_tag is not empty).
   bool readable(std::string_view tag) const;
+  // canonical_language_tag(tag), worked out once per distinct tag.
+  const std::string& canonical(std::string_view tag) const;
 
  private:
-  const std::string& canonical_of(std::string_view tag) const;
   std::string canonical_;
   mutable std::unordered_map<std::string, std::string> canonical_tags_;  // tags seen so far (a handful)
 };
