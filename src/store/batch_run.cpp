@@ -141,11 +141,6 @@ void remove_vanished(Database& db, const std::vector<VanishedFile>& vanished, Ba
   }
 }
 
-// Whether a run was left unfinished (killed): the next run that writes marks it.
-bool any_run_unfinished(Database& db) {
-  return db.prepare("SELECT 1 FROM runs WHERE status = 'running' LIMIT 1").step();
-}
-
 nlohmann::json run_parameters(const Request& request, const BatchOptions& options, const ReadingSettings& settings) {
   return {{"inputs", request.inputs},      {"settings_key", settings.key},  {"unit", settings.unit},
           {"selection", settings.selection}, {"tokenizer", settings.tokenizer}, {"features", settings.features},

@@ -29,6 +29,10 @@ void finish_run(Database& db, std::int64_t run_id, const std::string& status) {
   db.prepare("UPDATE runs SET status = ?2, finished = ?3 WHERE run_id = ?1").run(run_id, status, current_time_iso8601());
 }
 
+bool any_run_unfinished(Database& db) {
+  return db.prepare("SELECT 1 FROM runs WHERE status = 'running' LIMIT 1").step();
+}
+
 void mark_interrupted_runs(Database& db) {
   db.exec("UPDATE runs SET status = 'interrupted' WHERE status = 'running'");
 }

@@ -26,6 +26,9 @@ std::int64_t begin_run(Database& db, const std::string& kind, std::int64_t setti
                        const nlohmann::json& parameters);
 void update_run(Database& db, std::int64_t run_id, const RunCounters& counters);
 void finish_run(Database& db, std::int64_t run_id, const std::string& status);
+// Whether a run was left unfinished (killed); the next run that writes marks it with
+// mark_interrupted_runs.
+bool any_run_unfinished(Database& db);
 void mark_interrupted_runs(Database& db);
 
 }  // namespace manicule::store

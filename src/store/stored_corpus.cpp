@@ -124,10 +124,13 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     // A segment's year as --years takes it: its own where the edition dates it (a letter),
     // else its file's.
     const auto year_of = [&](int own_year) { return own_year ? own_year : selection.years[f]; };
+    // A segment's language as --language and the count by language take it: its own where
+    // its text says it readably (xml:lang), else its file's.
+    const auto language_of = [&](const std::string& own_language) -> const std::string& {
+      return language.readable(own_language) ? own_language : selection.languages[f];
+    };
     const auto passes = [&](const std::string& segment_language, int segment_year, std::size_t tokens) {
-      // A segment's own language where its text says it readably (xml:lang), else its file's.
-      if (!filter.language.empty() &&
-          !language.holds(language.readable(segment_language) ? segment_language : selection.languages[f])) {
+      if (!filter.language.empty() && !language.holds(language_of(segment_language))) {
         ++out.segments_other_language;
         return false;
       }
@@ -150,9 +153,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
         file_listed = true;
       }
       Segment& seg = record.segment;
-      const std::string& own_language = language.canonical(seg.language);
-      ++out.segments_by_language[std::string(
-          primary_subtag(own_language.empty() ? language.canonical(selection.languages[f]) : own_language))];
+      ++out.segments_by_language[std::string(primary_subtag(language.canonical(language_of(seg.language))))];
       seg.id = selection.stems[f] + "#" + seg.local_id;
       seg.file = path;
       auto [owner, new_id] = id_owner.emplace(seg.id, path);
