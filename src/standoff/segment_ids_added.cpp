@@ -1,5 +1,7 @@
 #include "standoff/segment_ids_added.h"
 
+#include <unordered_map>
+
 #include "core/error.h"
 
 namespace manicule {
@@ -32,6 +34,9 @@ AddedIds give_segments_ids(Analysis& analysis, const std::vector<std::size_t>& s
                            IdRegistry& ids, const std::string& file) {
   AddedIds added;
   bool checked = false;
+  // Ids given in this call, by element: a joint speech (who="#a #b") is a speech of each of
+  // its speakers, and must get one id, not one from each.
+  std::unordered_map<int, std::string> given;
   for (std::size_t index : segments) {
     SegmentSummary& s = analysis.segments[index];
     // A speaker's segment is keyed by who speaks, not by an element: its speeches get
@@ -53,10 +58,13 @@ AddedIds give_segments_ids(Analysis& analysis, const std::vector<std::size_t>& s
       std::string id;
       if (const std::string* existing = e.attribute("xml:id")) {
         id = *existing;
+      } else if (auto earlier = given.find(element); earlier != given.end()) {
+        id = earlier->second;
       } else {
         id = ids.claim(wanted_id(speeches ? s.local_id + "-" + std::to_string(k + 1) : s.local_id));
         added.insertions.push_back(id_insertion(doc, element, id));
         added.ids.push_back(id);
+        given.emplace(element, id);
       }
       pointer = "#" + id;
       if (!speeches && s.pointers.size() == 1) rename_segment(analysis, index, id);

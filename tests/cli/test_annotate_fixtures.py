@@ -118,6 +118,26 @@ try:
     ids = id_targets(tree)
     for t in targets:
         check(t.lstrip("#") in ids, "annotation target %s does not resolve" % t)
+    # A joint speech (who="#wirt #toller") is a speech of each speaker: --add-ids must give
+    # it one xml:id, not one per speaker (two would be the same attribute twice, not
+    # well-formed XML: XML 1.0, well-formedness constraint "Unique Att Spec"), and both
+    # speakers' joins must point at it. lxml reads the written file.
+    joint_original = os.path.join(OWN, "joint-speech-no-ids.xml")
+    joint = copy(joint_original, "joint")
+    annotated(joint, ["--unit", "speaker", "--min-tokens", "1", "--add-ids"], allow_ids=True, original=joint_original)
+    tree = etree.parse(joint, PARSER).getroot()
+    both = tree.xpath("//tei:sp[@who='#wirt #toller']", namespaces=NS)
+    joint_id = both[0].get("{http://www.w3.org/XML/1998/namespace}id") if len(both) == 1 else None
+    check(joint_id is not None, "the joint speech got no xml:id")
+    joins = tree.xpath("//tei:standOff[@type='stylometry']//tei:join", namespaces=NS)
+    check(len(joins) == 2, "%d joins, expected one for each speaker's two speeches" % len(joins))
+    ids = id_targets(tree)
+    for join in joins:
+        parts = join.get("target").split()
+        check(len(parts) == 2 and "#" + joint_id in parts, "join %s leaves out the joint speech #%s" % (parts, joint_id))
+        for part in parts:
+            check(part.startswith("#") and part[1:] in ids and ids[part[1:]].tag == "{%s}sp" % NS["tei"],
+                  "join part %s does not resolve to a speech" % part)
 
     # 3. Encodings and namespaces.
     latin1 = copy(os.path.join(OWN, "latin1.xml"), "enc")
