@@ -20,7 +20,7 @@ import tempfile
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 from attribution_reference import z_from_relative  # noqa: E402
 from mtest import FIXTURES, ROOT, SCHEMA, check, done, read_tsv, run  # noqa: E402
-from standoff_check import (NS, PARSER, check_insertions, id_targets, inserted_chunks,  # noqa: E402
+from standoff_check import (NS, PARSER, XML_ID, check_insertions, id_targets, inserted_chunks,  # noqa: E402
                             jing_errors, resolve_tei_xpath)
 from lxml import etree  # noqa: E402
 import numpy as np  # noqa: E402
@@ -112,7 +112,7 @@ try:
     annotated(chapters, ["--unit", "chapter", "--min-tokens", "1", "--add-ids"], allow_ids=True, original=original)
     tree = etree.parse(chapters, PARSER).getroot()
     divs = tree.xpath("//tei:div[@type='chapter']", namespaces=NS)
-    check(all(d.get("{http://www.w3.org/XML/1998/namespace}id") for d in divs), "a chapter has no xml:id")
+    check(all(d.get(XML_ID) for d in divs), "a chapter has no xml:id")
     targets = tree.xpath("//tei:standOff[@type='stylometry']//tei:annotation/@target", namespaces=NS)
     check(not [t for t in targets if "xpath(" in t], "xpath() pointers left after --add-ids: %s" % targets)
     ids = id_targets(tree)
@@ -127,7 +127,7 @@ try:
     annotated(joint, ["--unit", "speaker", "--min-tokens", "1", "--add-ids"], allow_ids=True, original=joint_original)
     tree = etree.parse(joint, PARSER).getroot()
     both = tree.xpath("//tei:sp[@who='#wirt #toller']", namespaces=NS)
-    joint_id = both[0].get("{http://www.w3.org/XML/1998/namespace}id") if len(both) == 1 else None
+    joint_id = both[0].get(XML_ID) if len(both) == 1 else None
     check(joint_id is not None, "the joint speech got no xml:id")
     joins = tree.xpath("//tei:standOff[@type='stylometry']//tei:join", namespaces=NS)
     check(len(joins) == 2, "%d joins, expected one for each speaker's two speeches" % len(joins))

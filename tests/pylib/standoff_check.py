@@ -15,6 +15,7 @@ from lxml import etree
 
 TEI = "http://www.tei-c.org/ns/1.0"
 NS = {"tei": TEI}
+XML_ID = "{http://www.w3.org/XML/1998/namespace}id"
 PARSER = etree.XMLParser(resolve_entities=False, no_network=True, huge_tree=True, load_dtd=False)
 
 # What write-back may add, and where (TEI P5 4.12.0: standOff is a model.resource child of
@@ -169,8 +170,7 @@ def jing_errors(schema, paths):
 
 
 def id_targets(tree):
-    return {el.get("{http://www.w3.org/XML/1998/namespace}id"): el for el in tree.iter()
-            if isinstance(el.tag, str) and el.get("{http://www.w3.org/XML/1998/namespace}id")}
+    return {el.get(XML_ID): el for el in tree.iter() if isinstance(el.tag, str) and el.get(XML_ID)}
 
 
 def resolve_tei_xpath(tree, path):
