@@ -1,12 +1,14 @@
 #include "core/corpus.h"
 
 #include <algorithm>
+#include <cerrno>
 #include <filesystem>
 #include <map>
 
 #include "core/corpus_stream.h"
 #include "core/error.h"
 #include "core/file_reading.h"
+#include "core/open_failure.h"
 #include "core/segment_id_prefixes.h"
 #include "profile/profile_builder.h"
 
@@ -30,7 +32,7 @@ void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::v
   std::error_code ec;
   std::vector<fs::path> subfolders;
   for (fs::directory_iterator it(folder, ec); !ec && it != fs::directory_iterator(); it.increment(ec)) {
-    std::error_code type_ec;  // a dangling link is no folder, nor a file to read
+    std::error_code type_ec;  // set for a link to nothing or a loop of links
     const fs::path& path = it->path();
     const std::string name = path.filename().string();
     // Hidden by their names (.git, a Mac's ._letter.xml beside letter.xml): not the archive's.
@@ -46,12 +48,12 @@ void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::v
       if (left_aside && it->is_regular_file(type_ec)) tally(path, left_aside->count, left_aside->first);
       continue;
     }
+    // Taken: regular files, and entries whose type cannot be told (a link to nothing, a loop
+    // of links), which are the archive's files that cannot be read: reading them says why,
+    // and a batch records that and goes on, instead of stopping or leaving them out unseen.
+    // Passed by: named pipes and devices, which reading could wait on for ever.
     const bool regular = it->is_regular_file(type_ec);
-    if (type_ec && type_ec != std::errc::no_such_file_or_directory) {  // a loop of links, say
-      throw Error(ErrorKind::bad_input, std::string("cannot tell what the file is: ").append(type_ec.message()),
-                  path.string());
-    }
-    if (regular) found.push_back(path.string());
+    if (regular || type_ec) found.push_back(path.string());
   }
   if (ec) {
     if (!unlisted) {
@@ -84,7 +86,15 @@ std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs, s
   for (const auto& input : inputs) {
     std::error_code ec;
     auto status = fs::status(input, ec);
-    if (ec || !fs::exists(status)) throw Error(ErrorKind::bad_input, "no such file or folder", input);
+    if (ec && ec != std::errc::no_such_file_or_directory) {  // a loop of links, say: reading it tells why
+      files.push_back(input);
+      continue;
+    }
+    if (ec || !fs::exists(status)) {
+      std::error_code link_ec;
+      const bool link = fs::is_symlink(fs::symlink_status(input, link_ec));
+      throw Error(ErrorKind::bad_input, link ? open_failure_reason(input, ENOENT) : "no such file or folder", input);
+    }
     if (fs::is_directory(status)) {
       std::vector<std::string> found;
       walk_folder(input, found, unlisted, left_aside);

@@ -13,6 +13,7 @@
 #include <thread>
 
 #include "core/error.h"
+#include "core/open_failure.h"
 #include "core/sha256.h"
 
 namespace manicule {
@@ -123,7 +124,10 @@ FileSnapshot take_snapshot(const std::string& path) {
   FileSnapshot s;
   s.path = path;
   int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
-  if (fd < 0) throw Error(ErrorKind::bad_input, std::string("cannot read the file: ") + std::strerror(errno), path);
+  if (fd < 0) {
+    const int error_number = errno;
+    throw Error(ErrorKind::bad_input, "cannot read the file: " + open_failure_reason(path, error_number), path);
+  }
   struct stat st {};
   if (::fstat(fd, &st) != 0) {
     ::close(fd);

@@ -14,6 +14,7 @@
 #include <vector>
 
 #include "core/error.h"
+#include "core/open_failure.h"
 #include "core/sha256.h"
 
 namespace manicule {
@@ -251,7 +252,8 @@ class ChunkReader {
     if (!source.data) {
       file_ = std::fopen(source.name.c_str(), "rb");
       if (!file_) {
-        throw Error(ErrorKind::bad_input, std::string("cannot read the file: ") + std::strerror(errno),
+        const int error_number = errno;
+        throw Error(ErrorKind::bad_input, "cannot read the file: " + open_failure_reason(source.name, error_number),
                     source.name);
       }
     }

@@ -2,7 +2,8 @@
 (LETTER01.XML from an older system), passing by hidden files and folders (a Mac's
 ._letter.xml beside letter.xml, a .git folder), and saying how many other files it left
 aside. Before, only a lower-case .xml was taken, so B.XML and c.tei were left out without
-a word, and ._a.xml was read and failed.
+a word, and ._a.xml was read and failed. Links under a TEI name that lead to no file are
+taken, and fail with the reason; named pipes are passed by.
 
 The expected files are listed with os.walk by that rule, and also given by construction;
 batch must store exactly those, note the others' number with the first of them in path
@@ -66,5 +67,54 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["segments", archive, "--unit", "letter", "--format", "json"])
     files = {s["file"] for s in json.loads(proc.stdout)["segments"]}
     mtest.check(files == set(taken), "segments read %r" % sorted(files))
+
+# Links under a TEI name that lead to no file (the target moved away, or two links pointing
+# at each other) are files of the archive that cannot be read: a batch records each with the
+# system's reason and goes on with the rest (exit 1); before, a loop of links stopped the
+# whole batch (exit 3, nothing stored) and a link to nothing was left out without a word.
+# A named pipe is passed by: reading it would wait for a writer. The reasons expected are
+# what os.stat says of each link (the system's own words, POSIX ENOENT and ELOOP).
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    os.makedirs(archive)
+    shutil.copy(LETTERS, os.path.join(archive, "kept.xml"))
+    os.symlink(os.path.join("..", "moved", "letter9.xml"), os.path.join(archive, "moved.xml"))
+    os.symlink("loop-b.xml", os.path.join(archive, "loop-a.xml"))
+    os.symlink("loop-a.xml", os.path.join(archive, "loop-b.xml"))
+    os.mkfifo(os.path.join(archive, "pipe.xml"))
+    reasons = {}
+    for name in ("moved.xml", "loop-a.xml", "loop-b.xml"):
+        try:
+            os.stat(os.path.join(archive, name))
+            mtest.fail("os.stat followed %s" % name)
+        except OSError as e:
+            reasons[name] = os.strerror(e.errno)
+    mtest.check(reasons["moved.xml"] != reasons["loop-a.xml"], "two different reasons: %r" % reasons)
+
+    store = os.path.join(tmp, "store.sqlite")
+    proc = mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"], check=False, timeout=60)
+    mtest.check(proc.returncode == 1, "batch with broken links: exit 1 (some files failed): %d %s"
+                % (proc.returncode, proc.stderr))
+    db = storecheck.connect(store)
+    rows = {rel: (error, sha) for rel, error, sha in db.execute("SELECT relative_path, read_error, sha256 FROM files")}
+    db.close()
+    mtest.check(set(rows) == {"kept.xml", "moved.xml", "loop-a.xml", "loop-b.xml"},
+                "stored: the readable file and the three links, not the pipe: %r" % sorted(rows))
+    mtest.check(rows["kept.xml"][0] is None and rows["kept.xml"][1], "kept.xml read and hashed: %r" % (rows["kept.xml"],))
+    for name in ("loop-a.xml", "loop-b.xml"):
+        mtest.check(rows[name][0] is not None and reasons[name] in rows[name][0],
+                    "%s recorded with the system's reason %r: %r" % (name, reasons[name], rows[name][0]))
+    # For a link whose target is missing the message names the target, since "No such file
+    # or directory" alone reads as if the listed file itself were missing.
+    moved = rows["moved.xml"][0] or ""
+    mtest.check("symbolic link to ../moved/letter9.xml" in moved and "does not exist" in moved,
+                "moved.xml recorded as a link to a missing target: %r" % moved)
+    for name in ("moved.xml", "loop-a.xml"):
+        mtest.check(name in proc.stderr, "%s named among the failures on stderr: %r" % (name, proc.stderr))
+
+    # Named on the command line, the link to nothing gets the same words.
+    proc = mtest.run(["segments", os.path.join(archive, "moved.xml"), "--unit", "letter"], check=False)
+    mtest.check(proc.returncode == 3 and "moved.xml" in proc.stderr and "../moved/letter9.xml" in proc.stderr,
+                "segments on a link to nothing: exit 3 naming it and its target: %d %s" % (proc.returncode, proc.stderr))
 
 mtest.done()
