@@ -73,23 +73,38 @@ std::unordered_map<std::string, StoredReading> stored_readings(Database& db, std
 }
 
 // What a batch over `inputs` finds: the files named, and what lies below the folders named
-// (each folder as a prefix ending in '/'). Worked out once, not for every stored file.
+// (each folder as a prefix ending in '/'), as spelled and as resolved (absolute and
+// normal), so that a file stored under another spelling of its folder (`archive/` then
+// `./archive`) is still known to be in scope when it is gone. Worked out once, not for
+// every stored file.
 struct InputScope {
   std::unordered_set<std::string> files;
   std::vector<std::string> folder_prefixes;
+  std::vector<std::string> resolved_folder_prefixes;
 
   explicit InputScope(const std::vector<std::string>& inputs) {
+    const auto as_prefix = [](const std::string& folder) {
+      return folder.empty() || folder.back() == '/' ? folder : folder + "/";
+    };
     for (const auto& input : inputs) {
       files.insert(input);
+      files.insert(resolved_path(input));
       std::error_code ec;
-      if (std::filesystem::is_directory(input, ec))
-        folder_prefixes.push_back(input.empty() || input.back() == '/' ? input : input + "/");
+      if (std::filesystem::is_directory(input, ec)) {
+        folder_prefixes.push_back(as_prefix(input));
+        resolved_folder_prefixes.push_back(as_prefix(resolved_path(input)));
+      }
     }
   }
+  // Called for stored files not found in this run alone: resolving costs a few microseconds.
   bool covers(const std::string& path) const {
     if (files.count(path)) return true;
     for (const auto& prefix : folder_prefixes)
       if (path.rfind(prefix, 0) == 0) return true;
+    const std::string resolved = resolved_path(path);
+    if (files.count(resolved)) return true;
+    for (const auto& prefix : resolved_folder_prefixes)
+      if (resolved.rfind(prefix, 0) == 0) return true;
     return false;
   }
 };

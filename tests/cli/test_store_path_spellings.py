@@ -1,8 +1,8 @@
 """One archive batched under several spellings of its folder (archive, ./archive, its
 absolute path, as a curator does from another working directory or a script) stays one
 archive in the store: the latest spelling replaces the earlier rows of the same files, and
-no content is read again; and a store that already holds a file twice so is analysed with
-the file once. Before, each spelling added its own rows, so the store held every
+no content is read again; a file deleted meanwhile leaves the store whatever the spelling;
+and a store that already holds a file twice so is analysed with the file once. Before, each spelling added its own rows, so the store held every
 file two or three times and an analysis found each segment nearest to its own copy, at
 distance 0.
 
@@ -77,5 +77,35 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(proc.returncode == 0 and zero == 0 and files_in_analysis == 1,
                 "an analysis over a file stored twice: exit %d, %d neighbours at distance 0, %d file(s) (%s)"
                 % (proc.returncode, zero, files_in_analysis, proc.stderr))
+
+# A file deleted between two runs that spell the folder differently (`archive`, then
+# `./archive`) leaves the store all the same, and the analysis with it. Before, the gone
+# file's row was kept, as its path did not begin with the new spelling, and the next
+# analysis still measured the deleted file. What is on disk is what os.path.exists says.
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    os.makedirs(archive)
+    for name in ("ferry-letters.xml", "ferry-play.xml"):
+        shutil.copy(os.path.join(mtest.ROOT, "examples", name), archive)
+    store = os.path.join(tmp, "archive.sqlite")
+
+    def run_batch(spelling):
+        return subprocess.run([os.path.abspath(mtest.BIN), "batch", spelling, "--store", store, "--unit", "letter",
+                               "--min-tokens", "200", "--analyse"], capture_output=True, text=True, cwd=tmp)
+
+    first = run_batch("archive")
+    os.remove(os.path.join(archive, "ferry-play.xml"))
+    proc = run_batch("./archive")
+    db = sqlite3.connect(store)
+    stored = [r[0] for r in db.execute("SELECT path FROM files")]
+    run = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
+    analysed = {r[0] for r in db.execute("SELECT DISTINCT path FROM analysis_segments WHERE run_id = ?", (run,))}
+    db.close()
+    mtest.check(first.returncode == 0 and proc.returncode == 0, "the two runs: exit %d and %d, %s"
+                % (first.returncode, proc.returncode, proc.stderr))
+    gone = [p for p in stored + sorted(analysed) if not os.path.exists(os.path.join(tmp, p))]
+    mtest.check(not gone and len(stored) == 1, "after deleting a file and respelling the folder the store "
+                "holds %r, the analysis %r; gone from disk: %r" % (stored, sorted(analysed), gone))
+    mtest.check("1 no longer found" in proc.stdout, "the report names the file gone: " + proc.stdout)
 
 mtest.done()
