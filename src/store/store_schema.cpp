@@ -171,8 +171,14 @@ CREATE TABLE IF NOT EXISTS attributions (
 CREATE VIEW IF NOT EXISTS vocabulary AS
   SELECT b.settings_id, b.first_feature_id + j.key AS feature_id, j.value AS form
   FROM vocabulary_blocks b, json_each(b.forms) j;
-CREATE VIEW IF NOT EXISTS file_list AS
-  SELECT f.path, r.settings_id, r.status, COALESCE(f.read_error, r.error) AS error, r.title, r.author,
+)sql";
+
+// A file that could not be opened has no reading (no content, so no settings_id) and its
+// error in `files`; it is 'failed' all the same, so that `WHERE status = 'failed'` lists it.
+constexpr const char* kFileListView = R"sql(
+CREATE VIEW file_list AS
+  SELECT f.path, r.settings_id, COALESCE(r.status, CASE WHEN f.read_error IS NOT NULL THEN 'failed' END) AS status,
+         COALESCE(f.read_error, r.error) AS error, r.title, r.author,
          r.date, r.year, r.language, r.segments, r.tokens, f.size, f.sha256
   FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256;
 )sql";
@@ -218,6 +224,21 @@ void upgrade_from_format_2(Database& db, const std::string& path) {
                               std::to_string(kStoreFormat) + " (" + reason + "); it is left unchanged");
   }
   db.prepare("UPDATE store_info SET value = ?1 WHERE key = 'format'").run(std::to_string(kStoreFormat));
+}
+
+// A store made before file_list called a file that could not be opened 'failed' gets the
+// view as it is now, once: the view holds no data, so nothing else changes. A store with
+// the view as it is now is not written to (an unchanged archive's re-run writes nothing).
+void refresh_file_list_view(Database& db) {
+  Statement view = db.prepare("SELECT sql FROM sqlite_master WHERE type = 'view' AND name = 'file_list'");
+  const std::string current = view.step() ? view.text_at(0) : "";
+  view.reset();
+  std::string wanted = kFileListView;
+  wanted = wanted.substr(wanted.find_first_not_of('\n'));
+  wanted = wanted.substr(0, wanted.find_last_not_of(";\n") + 1);  // as sqlite_master keeps it
+  if (current == wanted) return;
+  db.exec("DROP VIEW IF EXISTS file_list");
+  db.exec(kFileListView);
 }
 
 }  // namespace
@@ -277,11 +298,13 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
       throw Error(ErrorKind::bad_input, "the store " + path + " has format " + (found.empty() ? "?" : found) +
                                             "; this manicule reads format " + std::to_string(kStoreFormat) +
                                             " (and brings a store of format 2 up to it)");
+    refresh_file_list_view(*db);
   }
   if (!has_tables) {
     // A store of this format has the whole schema (it is created in one transaction), so
     // only a new store needs it: an unchanged archive's re-run spends no time parsing it.
     db->exec(kSchema);
+    db->exec(kFileListView);
     db->exec(kSegmentListView);
     db->prepare("INSERT INTO store_info (key, value) VALUES ('format', ?1)").run(std::to_string(kStoreFormat));
   }
