@@ -31,7 +31,7 @@ void require_candidates(const SegmentRoles& roles, std::size_t needed, const std
   for (const auto& w : roles.warnings) why += "; " + w;
   throw Error(ErrorKind::nothing_selected,
               task + " needs at least " + std::to_string(needed) + " candidates with a measured segment; found " +
-                  found + why + " (label known segments in the edition or with --labels, or lower --min-tokens)");
+                  found + why + " (" + roles.how_to_label_known() + ")");
 }
 
 std::vector<AttributionResult> attribute_questioned(const Analysis& analysis, const SegmentRoles& roles,

@@ -35,6 +35,9 @@ struct AttributionOptions {
   std::vector<LabelOverride> labels;
   // Files whose segments serve only as impostors (verification), never as candidates.
   std::vector<std::string> impostor_files;
+  // Whether the front end reads a labels file (--labels): messages on missing candidates or
+  // questioned segments suggest it only then (the archive store takes the edition's word).
+  bool labels_option = true;
 
   CandidateRule rule = CandidateRule::weighted_centroid;
   double weight_spread = 0.2;

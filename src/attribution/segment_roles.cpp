@@ -29,6 +29,7 @@ std::vector<std::size_t> SegmentRoles::with_role(SegmentRole r) const {
 SegmentRoles assign_roles(const Analysis& analysis, const AttributionOptions& options) {
   const std::size_t n = analysis.segments.size();
   SegmentRoles roles;
+  roles.labels_option = options.labels_option;
   roles.role.assign(n, SegmentRole::unmeasured);
   roles.label.assign(n, "");
   roles.conjecture.assign(n, "");
@@ -117,8 +118,16 @@ void require_questioned(const SegmentRoles& roles) {
                     " questioned segment(s), all shorter than the minimum size (the largest has " +
                     std::to_string(roles.largest_too_short) + " words; lower it with --min-tokens)");
   throw Error(ErrorKind::nothing_selected,
-              "no questioned segment: every measured segment has a known author (give a segment an empty "
-              "label in --labels, e.g. 'file#id,', to question it)");
+              std::string("no questioned segment: every measured segment has a known author ") +
+                  (roles.labels_option ? "(give a segment an empty label in --labels, e.g. 'file#id,', to question it)"
+                                       : "(a segment is questioned where the edition names no author for it, or "
+                                         "only a conjectured one)"));
+}
+
+std::string SegmentRoles::how_to_label_known() const {
+  return labels_option ? "label known segments in the edition or with --labels, or lower --min-tokens"
+                       : "candidates are the authors the edition names for its segments; lower --min-tokens to "
+                         "measure shorter ones";
 }
 
 std::size_t CandidateSet::index_of(const std::string& name) const {

@@ -33,6 +33,10 @@ struct SegmentRoles {
   std::vector<std::string> warnings;    // candidates left out and why
   std::size_t questioned_too_short = 0;  // questioned segments below the minimum size
   std::size_t largest_too_short = 0;     // words of the largest of them
+  bool labels_option = true;             // AttributionOptions::labels_option, for messages
+
+  // How a user labels segments, for the end of a message saying none is labelled.
+  std::string how_to_label_known() const;
 
   std::vector<std::size_t> with_role(SegmentRole r) const;
 };

@@ -42,8 +42,8 @@ VerificationRun verify_questioned(const Analysis& analysis, const SegmentRoles& 
   require_questioned(roles);
   if (roles.candidates.empty()) {
     throw Error(ErrorKind::nothing_selected,
-                "verification needs a candidate with a measured segment; none is labelled (label known segments "
-                "in the edition or with --labels, or lower --min-tokens)");
+                "verification needs a candidate with a measured segment; none is labelled (" +
+                    roles.how_to_label_known() + ")");
   }
   if (roles.candidates.size() < 2 && roles.with_role(SegmentRole::impostor).empty()) {
     throw Error(ErrorKind::nothing_selected,

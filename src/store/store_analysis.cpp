@@ -47,11 +47,13 @@ nlohmann::json analysis_parameters(Database& db, std::int64_t settings_id, const
 // The attribution layer's ranking of candidates for every questioned segment, as rows.
 std::vector<AttributionRow> attribution_rows(const Request& request, Analysis& analysis,
                                              std::vector<std::string>& notes) {
-  SegmentRoles roles = assign_roles(analysis, request.attribution);
+  AttributionOptions options = request.attribution;
+  options.labels_option = false;  // the store's analyses take the edition's labels alone
+  SegmentRoles roles = assign_roles(analysis, options);
   notes.insert(notes.end(), roles.warnings.begin(), roles.warnings.end());
   try {
     analysis.attributions =
-        attribute_questioned(analysis, roles, request.measure, request.attribution, request.threads);
+        attribute_questioned(analysis, roles, request.measure, options, request.threads);
   } catch (const Error& e) {
     if (e.kind() != ErrorKind::nothing_selected) throw;
     notes.push_back(std::string("no attribution: ") + e.what());

@@ -111,4 +111,17 @@ with tempfile.TemporaryDirectory() as tmp:
                                                   ((a[3], b[3]), (a[5], b[5]), (a[6], b[6]), (a[7], b[7])))
         for a, b in zip(fresh_rows, rows)), "batch --analyse --attribute: %r, checked above: %r" % (fresh_rows, rows))
 
+    # A store whose segments all have known authors (the play's speakers, each its own
+    # label) gets a note that no attribution was made, with advice the store's commands can
+    # follow: it named --labels, an option of the attribute command that analyse-store and
+    # batch do not have (their own --help is the reference).
+    play = os.path.join(mtest.ROOT, "examples", "ferry-play.xml")
+    speakers = os.path.join(tmp, "speakers.sqlite")
+    proc = mtest.run(["batch", play, "--store", speakers, "--unit", "speaker", "--quiet", "--analyse", "--attribute",
+                      "--min-tokens", "300"])
+    offered = mtest.run(["analyse-store", "--help"]).stdout + mtest.run(["batch", "--help"]).stdout
+    mtest.check("no attribution: no questioned segment" in proc.stderr, "the note: %r" % proc.stderr)
+    mtest.check("--labels" not in offered and "--labels" not in proc.stderr,
+                "the note advises only what the store's commands offer: %r" % proc.stderr)
+
 mtest.done()
