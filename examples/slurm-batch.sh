@@ -5,17 +5,20 @@
 #SBATCH --mem=1G
 #SBATCH --time=02:00:00
 #SBATCH --output=manicule-batch-%A_%a.log
-# Usage:
-#   job=$(sbatch --parsable examples/slurm-batch.sh ARCHIVE RESULTS)
+# Usage (the batch options name the unit; every task must be given the same):
+#   job=$(sbatch --parsable examples/slurm-batch.sh ARCHIVE RESULTS --unit letter)
 #   sbatch --dependency=afterok:$job --wrap "manicule merge RESULTS/archive.sqlite RESULTS/shard-*.sqlite"
 set -euo pipefail
-archive=${1:?usage: slurm-batch.sh ARCHIVE RESULTS [batch options]}
-results=${2:?usage: slurm-batch.sh ARCHIVE RESULTS [batch options]}
+usage="usage: slurm-batch.sh ARCHIVE RESULTS --unit UNIT [other batch options]"
+archive=${1:?$usage}
+results=${2:?$usage}
 shift 2
 k=$((SLURM_ARRAY_TASK_ID - SLURM_ARRAY_TASK_MIN + 1))   # works for --array=0-7 too
 n=$SLURM_ARRAY_TASK_COUNT
 mkdir -p "$results"
-local_store=$(mktemp -d)/manicule-shard-$k.sqlite    # node-local scratch
+scratch=$(mktemp -d)                                  # node-local, removed however the task ends
+trap 'rm -rf "$scratch"' EXIT
+local_store=$scratch/manicule-shard-$k.sqlite
 # Start from this share's previous store, if any: a re-run reads only what changed.
 if [ -f "$results/shard-$k.sqlite" ]; then cp "$results/shard-$k.sqlite" "$local_store"; fi
 save() { cp "$local_store" "$results/shard-$k.sqlite.part" && mv "$results/shard-$k.sqlite.part" "$results/shard-$k.sqlite"; }
@@ -24,11 +27,10 @@ save() { cp "$local_store" "$results/shard-$k.sqlite.part" && mv "$results/shard
 trap 'true' TERM
 status=0
 manicule batch "$archive" --store "$local_store" --shard "$k/$n" \
-  --threads "${SLURM_CPUS_PER_TASK:-1}" --quiet --unit speaker "$@" || status=$?
+  --threads "${SLURM_CPUS_PER_TASK:-1}" --quiet "$@" || status=$?
 # Stopped by the time limit (143) or a cancel (130): keep what was read, so that submitting
 # the job again goes on from there; the task still fails, so the merge waits.
-if [ "$status" -eq 143 ] || [ "$status" -eq 130 ]; then save; rm -rf "$(dirname "$local_store")"; exit "$status"; fi
+if [ "$status" -eq 143 ] || [ "$status" -eq 130 ]; then save; exit "$status"; fi
 # Exit code 1 means some files failed: they are recorded in the store, the share is usable.
 if [ "$status" -gt 1 ]; then exit "$status"; fi
 save
-rm -rf "$(dirname "$local_store")"

@@ -6,13 +6,15 @@ Task 1 gets SIGTERM, sent to its whole process group as Slurm does at a time lim
 its first file: the task must fail with 143 and still leave its share's store, with the run
 marked interrupted and every file it reported (or, where the signal lands after the share's
 last file, as it can on a loaded machine, marked done with every file); submitted again, it
-must go on from there (reading only the rest) and succeed. Task 2 runs through. The two
+must go on from there (reading only the rest) and succeed. Task 2 runs through. A task
+given an option batch refuses fails with exit 2 and leaves nothing behind. The two
 shares merged must hold every play of the archive (counted with os.walk) and the same
 tables as one batch run over it. Outside references: the script itself as printed in the README (compared byte for
 byte with the file), os.walk, SQLite's PRAGMA integrity_check.
 """
 import os
 import signal
+import subprocess
 import sys
 import tempfile
 
@@ -43,9 +45,19 @@ with tempfile.TemporaryDirectory() as tmp:
         # One CPU a task, so one reading thread: the stop lands while files remain.
         env = dict(os.environ, PATH=shims + os.pathsep + os.environ["PATH"], SLURM_ARRAY_TASK_ID=str(k),
                    SLURM_ARRAY_TASK_MIN="1", SLURM_ARRAY_TASK_COUNT="2", SLURM_CPUS_PER_TASK="1", TMPDIR=tmp)
-        code, reported, _ = storecheck.run_stopped(["bash", SCRIPT, archive, results, "--verbose"], stop_after,
-                                                   signal.SIGTERM, env=env, group=True)
+        code, reported, _ = storecheck.run_stopped(["bash", SCRIPT, archive, results, "--unit", "speaker", "--verbose"],
+                                                   stop_after, signal.SIGTERM, env=env, group=True)
         return code, reported
+
+    # A task whose batch refuses its options (here an option no command has) fails with the
+    # batch's exit code 2 and, like every task, leaves no scratch folder behind (it did).
+    env = dict(os.environ, PATH=shims + os.pathsep + os.environ["PATH"], SLURM_ARRAY_TASK_ID="1",
+               SLURM_ARRAY_TASK_MIN="1", SLURM_ARRAY_TASK_COUNT="2", TMPDIR=tmp)
+    refused = subprocess.run(["bash", SCRIPT, archive, results, "--unit", "speaker", "--no-such-option"],
+                             capture_output=True, text=True, env=env)
+    mtest.check(refused.returncode == 2, "a task with a bad option: exit %d, %s" % (refused.returncode, refused.stderr))
+    mtest.check(not [n for n in os.listdir(tmp) if n.startswith("tmp")], "the refused task left its scratch folder")
+    mtest.check(not os.path.exists(os.path.join(results, "shard-1.sqlite")), "the refused task saved a store")
 
     code, reported = task(1, stop_after=1)
     share = os.path.join(results, "shard-1.sqlite")
