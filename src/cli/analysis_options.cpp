@@ -1,5 +1,8 @@
 #include "cli/analysis_options.h"
 
+#include <charconv>
+#include <string_view>
+
 #include "core/error.h"
 #include "profile/stop_list.h"
 
@@ -31,14 +34,17 @@ void AnalysisOptions::apply_to(Request& request) const {
   request.features.kind = parse_feature_kind(features);
   request.features.n = request.features.kind == FeatureKind::word ? 1 : n;
   validate(request.features);
-  auto dash = ranks.find('-');
-  try {
-    if (dash == std::string::npos) throw std::invalid_argument("no dash");
-    request.feature_space.rank_first = std::stoul(ranks.substr(0, dash));
-    request.feature_space.rank_last = std::stoul(ranks.substr(dash + 1));
-  } catch (const std::exception&) {
+  // Digits only on each side: std::stoul would take "1000x" as 1000 and " 5" as 5.
+  const auto number = [](std::string_view digits, std::size_t& out) {
+    const char* end = digits.data() + digits.size();
+    const auto [stop, ec] = std::from_chars(digits.data(), end, out);
+    return !digits.empty() && ec == std::errc() && stop == end;
+  };
+  const std::string_view spec = ranks;
+  const std::size_t dash = spec.find('-');
+  if (dash == std::string_view::npos || !number(spec.substr(0, dash), request.feature_space.rank_first) ||
+      !number(spec.substr(dash + 1), request.feature_space.rank_last))
     throw Error(ErrorKind::usage, "--ranks takes FIRST-LAST, e.g. 1-1000; got '" + ranks + "'");
-  }
   request.feature_space.culling_percent = culling;
   request.feature_space.min_segment_tokens = min_tokens;
   if (!stop_words_file.empty()) request.feature_space.stop_words = load_stop_list(stop_words_file);

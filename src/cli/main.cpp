@@ -9,6 +9,7 @@
 #include "cli/allocator_settings.h"
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
+#include "cli/unsigned_options.h"
 #include "core/error.h"
 #include "manicule_version.h"
 #include "measure/cosine_gram.h"
@@ -43,6 +44,7 @@ int main(int argc, char** argv) {
       return static_cast<int>(ErrorKind::internal);
     }
   }
+  cli::refuse_signs_on_unsigned_options(app);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {

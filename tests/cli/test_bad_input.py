@@ -180,8 +180,9 @@ mtest.check(p.returncode == 3 and "trailing.xml:2" in p.stderr
             and "Extra content at the end of the document" in p.stderr,
             "text after the root: libxml2's message with the line: " + p.stderr)
 
-# 11. A link that points at itself, named like a TEI file, in a folder walked for *.xml: the
-# walk stops with a message naming it (exit 3), not an internal error. What the system says
+# 11. A link that points at itself, named like a TEI file, in a folder walked for *.xml: it
+# is taken as a file, whose reading fails with a message naming it (exit 3), not an internal
+# error. What the system says
 # of the link is taken from os.stat (POSIX: ELOOP) and must be what the message says.
 looped = os.path.join(tmp, "linked")
 os.makedirs(looped)
@@ -228,5 +229,20 @@ for args in (["distances", "--unit", "whole", "--ranks", "10-5", refused],
                 "%s with an impossible option: exit 2 before reading: %d %s" % (args[0], p.returncode, p.stderr))
 mtest.check(not os.path.exists(os.path.join(tmp, "refused.sqlite")) and not os.path.exists(os.path.join(tmp, "out")),
             "a refused command left a store or an output behind")
+
+# 14. A sign before a count, or anything after the digits of --ranks, is a bad value (exit 2,
+# README's table, naming the option). CLI11 read "-3" into an unsigned option as 2^64 - 3:
+# `attribute --resamples -3` stopped with an internal error (exit 70), `--min-tokens -5`
+# asked for more words than any text has, and `--ranks 1-150x` was taken as 1-150.
+letters = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
+for args, option in ((["attribute", "--resamples", "-3"], "--resamples"),
+                     (["distances", "--min-tokens", "-5"], "--min-tokens"),
+                     (["verify", "--seed", "-1"], "--seed"),
+                     (["distances", "--neighbours", "+2"], "--neighbours"),
+                     (["distances", "--ranks", "1-150x"], "--ranks"),
+                     (["distances", "--ranks", " 1-150"], "--ranks")):
+    p = subprocess.run([mtest.BIN] + args + ["--unit", "letter", letters], capture_output=True, text=True, timeout=120)
+    mtest.check(p.returncode == 2 and option in p.stderr and "internal" not in p.stderr,
+                "%s: exit 2 naming %s: %d %s" % (" ".join(args), option, p.returncode, p.stderr))
 
 mtest.done()
