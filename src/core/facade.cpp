@@ -115,10 +115,16 @@ Analysis analyse_counts(const Request& request, const Corpus& corpus, const Anal
   }
   const bool compares = request.compute_distances || request.compute_pca || request.clustering.compute;
   if (compares && table.segment_count() < 2) {
+    // Lowering --min-tokens helps only where segments were left out for their size.
+    const std::size_t short_ones = table.report.excluded_segments.size();
     throw Error(ErrorKind::nothing_selected,
-                "comparing needs at least two segments of at least " +
-                    std::to_string(request.feature_space.min_segment_tokens) + " words; " +
-                    std::to_string(table.segment_count()) + " found (lower it with --min-tokens)");
+                short_ones == 0
+                    ? "comparing needs at least two segments; the selection found " +
+                          std::to_string(table.segment_count()) + " (choose a unit with more, or add files)"
+                    : "comparing needs at least two segments of at least " +
+                          std::to_string(request.feature_space.min_segment_tokens) + " words; " +
+                          std::to_string(table.segment_count()) + " found, " + std::to_string(short_ones) +
+                          " shorter (lower it with --min-tokens)");
   }
   if (request.compute_distances) {
     DistanceOptions options;

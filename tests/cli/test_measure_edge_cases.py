@@ -99,7 +99,19 @@ with tempfile.TemporaryDirectory() as tmp:
         proc = mtest.run([command, one, "--unit", "letter", "--min-tokens", "50"], check=False)
         mtest.check(proc.returncode == 4, "%s on one segment exits 4 (nothing to compare), got %d" % (command, proc.returncode))
         mtest.check("at least two segments" in proc.stderr, "%s explains: %s" % (command, proc.stderr.strip()))
+        # No segment was left out for its size, so lowering the minimum cannot help: the
+        # message does not advise it (it did, even at --min-tokens 1).
+        mtest.check("found 1" in proc.stderr and "--min-tokens" not in proc.stderr,
+                    "%s on one segment, none left out: %s" % (command, proc.stderr.strip()))
         mtest.check(proc.stdout == "", "%s writes nothing on standard output" % command)
+    # Where segments were left out for their size it says how many and advises the option:
+    # one letter of the two kept (the first of `letters`, of 150 words or more by
+    # construction, beside one of three words).
+    short = (letters[1][0], letters[1][1], letters[1][2], ["short", "and", "sweet"])
+    two = invented_letters.write_letters(tmp, "two.xml", letters[:1] + [short])
+    proc = mtest.run(["distances", two, "--unit", "letter", "--min-tokens", "50"], check=False)
+    mtest.check(proc.returncode == 4 and "1 found, 1 shorter (lower it with --min-tokens)" in proc.stderr,
+                "one of two letters too short: %d %s" % (proc.returncode, proc.stderr.strip()))
     params, features, rows = read_profile(mtest.run(["profile", "--values", "z", one, "--unit", "letter",
                                                      "--min-tokens", "50"]).stdout)
     mtest.check(len(rows) == 1 and all(v == 0.0 for v in rows["one#L01"]), "profile of one segment: z = 0")
