@@ -66,6 +66,12 @@ mtest.check(len(doc["verifications"]) == 9, "three questioned letters against th
 mtest.check(all(v["decision"] in ("same author", "different author", "undecided") for v in doc["verifications"]),
             "unknown decision")
 mtest.check("not calibrated" in doc["band"]["method"], "nine known problems a side cannot calibrate the band")
+# Each verification warns of it once, with the counts (the band's own wording said "not
+# calibrated" twice over: "... is not calibrated: not calibrated: 9 same-author ...").
+for v in doc["verifications"]:
+    said = [w for w in v["warnings"] if "band is not calibrated" in w]
+    mtest.check(len(said) == 1 and "9 same-author and 9 different-author" in said[0]
+                and said[0].count("not calibrated") == 1, "the band warning of a verification: %r" % said)
 
 # A labels file naming a segment the run does not have: bad input, with file and line.
 path = labels(["ferry-letters#L01,#p-pellow", "ferry-letters#L99,#p-pellow"])
