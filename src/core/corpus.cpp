@@ -131,6 +131,12 @@ Corpus read_corpus(const Request& request, const std::vector<std::string>& files
   // is merged into the run's counts, in file order, as soon as it and every file before it
   // have arrived, and its own vocabulary freed: memory holds the merged counts and the few
   // files still waiting, not every file's vocabulary at once.
+  if (files.empty()) {  // folders named, none holding a TEI file: say so, not "no segment"
+    std::string named;
+    for (const auto& input : request.inputs) named += (named.empty() ? "" : ", ") + input;
+    throw Error(ErrorKind::nothing_selected, "no TEI file (*.xml, *.tei) found under " +
+                                                 (named.empty() ? std::string("the inputs") : named));
+  }
   Corpus corpus;
   corpus.files = files;
   ProfileBuilder merged(request.features);

@@ -75,7 +75,7 @@ std::string resolved_path(const std::string& path);
 
 // Reads `files` (already expanded). A file that fails is recorded in `failures`; the
 // others are still read. Throws only for a bad request, such as one file named twice
-// (under one spelling of its path or two).
+// (under one spelling of its path or two), or no file at all (nothing_selected).
 Corpus read_corpus(const Request& request, const std::vector<std::string>& files,
                    const ProgressFn& progress = {});
 

@@ -136,4 +136,20 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(proc.returncode == 3 and "moved.xml" in proc.stderr and "../moved/letter9.xml" in proc.stderr,
                 "segments on a link to nothing: exit 3 naming it and its target: %d %s" % (proc.returncode, proc.stderr))
 
+# A folder holding no TEI file (os.walk finds only a facsimile): the commands that read TEI
+# say that no file was found, naming the folder, with README's exit code 4 (nothing
+# selected); they said "no whole segment found in 0 file(s)", as if the unit were wrong.
+with tempfile.TemporaryDirectory() as tmp:
+    empty = os.path.join(tmp, "scans")
+    os.makedirs(empty)
+    with open(os.path.join(empty, "p001.jpg"), "wb") as f:
+        f.write(b"\xff\xd8\xff")
+    tei = [n for _, _, names in os.walk(empty) for n in names if n.lower().endswith((".xml", ".tei"))]
+    mtest.check(tei == [], "the test's own listing: %r" % tei)
+    for command in (["segments"], ["distances"], ["annotate", "--output", os.path.join(tmp, "out.xml")]):
+        proc = mtest.run(command + ["--unit", "whole", empty], check=False)
+        mtest.check(proc.returncode == 4 and "no TEI file (*.xml, *.tei) found under " + empty in proc.stderr,
+                    "%s over a folder without TEI: exit %d, %s" % (command[0], proc.returncode, proc.stderr))
+    mtest.check(not os.path.exists(os.path.join(tmp, "out.xml")), "annotate wrote an output")
+
 mtest.done()
