@@ -61,7 +61,8 @@ CommandRunner add_annotate_command(CLI::App& app) {
   command->add_flag("--add-ids", settings->add_ids,
                     "give xml:ids to segment elements that have none, so results point at #id (the only change "
                     "inside <text>)");
-  command->add_flag("--backup", settings->backup, "keep the edition as it was in FILE.bak (with --in-place)");
+  command->add_flag("--backup", settings->backup, "keep the edition as it was in FILE.bak (with --in-place)")
+      ->needs(in_place_flag);
   command->add_flag("--all-pairs", settings->standoff.all_pairs,
                     "write a distance link for every pair of segments (default: each segment's nearest, see "
                     "--neighbours)");
@@ -75,12 +76,13 @@ CommandRunner add_annotate_command(CLI::App& app) {
   command->add_flag("--attribute", *attribute,
                     "also rank the candidate authors of each questioned segment (as the attribute command does; "
                     "features default to ranks " + std::string(kAttributionRanks) + ")");
-  command->add_flag("--verify", *verify,
-                    "also verify each questioned segment against the candidates by General Impostors (as the "
-                    "verify command does)");
+  auto* verify_flag = command->add_flag("--verify", *verify,
+                                        "also verify each questioned segment against the candidates by General "
+                                        "Impostors (as the verify command does)");
   attribution->add_settings(*command, true, true);
   command->add_option("--candidate", attribution->settings.verify_candidate,
-                      "--verify: against this candidate only (default: each)");
+                      "--verify: against this candidate only (default: each)")
+      ->needs(verify_flag);
   return [=]() -> int {
     if (!*in_place && output->empty() && standoff_file->empty())
       throw Error(ErrorKind::usage, "say where the results go: --in-place, --output FILE or --standoff-file FILE");

@@ -91,6 +91,10 @@ void AttributionCommandOptions::add_settings(CLI::App& command, bool stability, 
 }
 
 Request AttributionCommandOptions::to_request() const {
+  // Refused before any file is read: the table would be empty, with exit code 0.
+  if (table == "verification" && !with_verification)
+    throw Error(ErrorKind::usage, "--table verification needs --verification (the verification figures are computed "
+                                  "only then)");
   Request request = measuring.to_request();
   request.compute_distances = false;
   apply_settings(request);

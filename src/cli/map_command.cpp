@@ -111,7 +111,14 @@ CommandRunner add_map_command(CLI::App& app) {
   auto axes = std::make_shared<std::string>("1,2");
   auto title = std::make_shared<std::string>();
   options->add_to(*command, {"tsv", "json", "svg"}, false);
-  command->add_option("--components", *components, "principal components computed")->capture_default_str();
+  command->add_option("--components", *components, "principal components computed (1 or more)")
+      ->check(CLI::Validator(
+          [](std::string& value) {  // all zeros: 0 ("0", "00")
+            return !value.empty() && value.find_first_not_of('0') == std::string::npos ? std::string("must be 1 or more")
+                                                                                        : std::string();
+          },
+          ""))
+      ->capture_default_str();
   command->add_option("--top", *top, "features listed per pole of each component")->capture_default_str();
   command->add_option("--pca-input", *input, "z (z-scores) or relative (relative frequencies)")
       ->check(CLI::IsMember({"z", "relative"}))

@@ -245,4 +245,20 @@ for args, option in ((["attribute", "--resamples", "-3"], "--resamples"),
     mtest.check(p.returncode == 2 and option in p.stderr and "internal" not in p.stderr,
                 "%s: exit 2 naming %s: %d %s" % (" ".join(args), option, p.returncode, p.stderr))
 
+# 15. Options that would do nothing in the company they are given are refused (exit 2,
+# naming both), not passed by in silence: --backup without --in-place (the edition is not
+# overwritten, so nothing is backed up), annotate's --candidate without --verify, map
+# --components 0 (two were computed all the same), evaluate --table verification without
+# --verification (an empty table, exit 0). Nothing is written.
+out = os.path.join(tmp, "never-written.xml")
+for args, named in ((["annotate", "--output", out, "--backup"], ("--backup", "--in-place")),
+                    (["annotate", "--output", out, "--candidate", "#p-pellow"], ("--candidate", "--verify")),
+                    (["map", "--components", "0"], ("--components",)),
+                    (["evaluate", "--table", "verification"], ("--table", "--verification"))):
+    p = subprocess.run([mtest.BIN] + args + ["--unit", "letter", "--min-tokens", "200", letters],
+                       capture_output=True, text=True, timeout=120)
+    mtest.check(p.returncode == 2 and all(n in p.stderr for n in named) and p.stdout == "",
+                "%s: exit 2 naming %s: %d %s" % (" ".join(args), named, p.returncode, p.stderr))
+mtest.check(not os.path.exists(out), "a refused annotate wrote its output")
+
 mtest.done()
