@@ -1,5 +1,7 @@
 #include "cli/selection_options.h"
 
+#include <iostream>
+
 #include "core/error.h"
 
 namespace manicule::cli {
@@ -45,6 +47,13 @@ Request SelectionOptions::to_request() const {
   r.tokenizer.apostrophes = !no_apostrophes;
   r.threads = threads;
   r.selection_rules();  // validates unit and element names early
+  // --keep of an element the preset reads anyway (a typing slip such as --keep notes, or
+  // --keep corr) changes nothing: said, so that nobody takes it for kept text.
+  const SelectionRules preset_rules = SelectionRules::make(r.unit, r.preset);
+  for (const auto& name : keep)
+    if (!preset_rules.skips(name))
+      std::cerr << "manicule: note: --keep " << name << " changes nothing: <" << name << "> is not left out by the "
+                << (r.preset == Preset::diplomatic ? "diplomatic" : "reading") << " preset\n";
   return r;
 }
 

@@ -261,4 +261,18 @@ for args, named in ((["annotate", "--output", out, "--backup"], ("--backup", "--
                 "%s: exit 2 naming %s: %d %s" % (" ".join(args), named, p.returncode, p.stderr))
 mtest.check(not os.path.exists(out), "a refused annotate wrote its output")
 
+# 16. --keep of an element the preset reads anyway (README lists what each leaves out:
+# `note` is, `notes` and, under the reading preset, `corr` are not) is said to change
+# nothing, and the segments are those of the run without it; a real --keep says nothing.
+plain = subprocess.run([mtest.BIN, "segments", "--unit", "letter", letters], capture_output=True, text=True)
+for element in ("notes", "corr"):
+    p = subprocess.run([mtest.BIN, "segments", "--unit", "letter", "--keep", element, letters],
+                       capture_output=True, text=True)
+    body = [l for l in p.stdout.splitlines() if not l.startswith("#")]
+    mtest.check(p.returncode == 0 and "--keep %s changes nothing" % element in p.stderr
+                and body == [l for l in plain.stdout.splitlines() if not l.startswith("#")],
+                "--keep %s: %d %s" % (element, p.returncode, p.stderr))
+p = subprocess.run([mtest.BIN, "segments", "--unit", "letter", "--keep", "note", letters], capture_output=True, text=True)
+mtest.check(p.returncode == 0 and "changes nothing" not in p.stderr, "--keep note: %s" % p.stderr)
+
 mtest.done()
