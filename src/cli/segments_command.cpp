@@ -16,11 +16,23 @@ namespace manicule::cli {
 
 namespace {
 
+// A segment's text on one TSV line: each run of XML white space (the edition's line breaks
+// and indentation) as one space, none at either end, as XPath's normalize-space() does.
+// The words are those counted; the JSON output keeps the text as the edition has it.
 std::string joined_text(const Segment& segment) {
   std::string text;
+  bool space = false;
   for (const auto& run : segment.runs) {
-    if (!text.empty() && text.back() != ' ') text += ' ';
-    text += run.text;
+    space = true;  // runs are separate pieces of text
+    for (const char c : run.text) {
+      if (c == ' ' || c == '\t' || c == '\n' || c == '\r') {
+        space = true;
+        continue;
+      }
+      if (space && !text.empty()) text += ' ';
+      space = false;
+      text += c;
+    }
   }
   return text;
 }
@@ -44,7 +56,8 @@ CommandRunner add_segments_command(CLI::App& app) {
   auto show_text = std::make_shared<bool>(false);
   options->add_to(*command);
   command->add_option("--format", *format, "tsv or json")->check(CLI::IsMember({"tsv", "json"}))->capture_default_str();
-  command->add_flag("--show-text", *show_text, "also print the selected text of each segment");
+  command->add_flag("--show-text", *show_text, "also print the selected text of each segment (TSV: on one line, white space runs as one "
+                    "space; JSON: as the edition has it)");
   return [=]() -> int {
     Request request = options->to_request();
     request.keep_text = *show_text;
