@@ -114,7 +114,9 @@ nlohmann::json verifications_json(const Analysis& analysis) {
                     {"feature_share", v.feature_share},
                     {"impostors_per_iteration", v.impostors_per_iteration},
                     {"impostor_pool", v.impostor_pool},
-                    {"seed", v.seed},
+                    // Not --seed (which the provenance records): the problem's own, drawn from it
+                    // with the segment and candidate, so that adding a candidate changes no score.
+                    {"problem_seed", v.seed},
                     {"warnings", v.warnings},
                     {"caution", kAttributionCaution}});
   }

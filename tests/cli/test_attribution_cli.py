@@ -66,6 +66,15 @@ mtest.check(len(doc["verifications"]) == 9, "three questioned letters against th
 mtest.check(all(v["decision"] in ("same author", "different author", "undecided") for v in doc["verifications"]),
             "unknown decision")
 mtest.check("not calibrated" in doc["band"]["method"], "nine known problems a side cannot calibrate the band")
+# A problem's seed depends on --seed, its segment and its candidate alone (docs/attribution.md):
+# verified against one candidate only, each letter keeps the seed and score it had among
+# three. The JSON names it problem_seed: it is not --seed, and was given as "seed".
+alone = strict_json(mtest.run(["verify", "--format", "json", "--candidate", "#p-pellow"] + BASE).stdout)
+among = {(v["segment"], v["candidate"]): (v["problem_seed"], v["score"]) for v in doc["verifications"]}
+mtest.check(len(alone["verifications"]) == 3 and all(
+    among[(v["segment"], v["candidate"])] == (v["problem_seed"], v["score"]) for v in alone["verifications"]),
+            "one candidate against three: %r, %r" % (alone["verifications"], among))
+mtest.check(all("seed" not in v for v in doc["verifications"]), "a verification still has a 'seed' key")
 # Each verification warns of it once, with the counts (the band's own wording said "not
 # calibrated" twice over: "... is not calibrated: not calibrated: 9 same-author ...").
 for v in doc["verifications"]:
