@@ -70,7 +70,8 @@ struct VerificationResult {
   std::size_t iterations = 0;
   double feature_share = 0;
   std::size_t impostors_per_iteration = 0;
-  std::size_t impostor_pool = 0;  // segments the impostors were drawn from
+  std::size_t impostor_pool = 0;      // impostors drawn from: other authors or impostor files
+  std::size_t impostor_segments = 0;  // their segments, all of them
   std::uint64_t seed = 0;
   std::vector<std::string> warnings;
 };

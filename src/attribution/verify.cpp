@@ -99,7 +99,8 @@ VerificationRun verify_questioned(const Analysis& analysis, const SegmentRoles& 
     r.iterations = settings.iterations;
     r.feature_share = settings.feature_share;
     r.impostors_per_iteration = settings.per_iteration;
-    r.impostor_pool = p.impostor_rows;
+    r.impostor_pool = p.impostors.size();
+    r.impostor_segments = p.impostor_rows;
     r.seed = p.seed;
     std::vector<std::size_t> candidate_words;
     const std::size_t c = candidates.index_of(p.candidate);

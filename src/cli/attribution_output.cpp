@@ -114,6 +114,7 @@ nlohmann::json verifications_json(const Analysis& analysis) {
                     {"feature_share", v.feature_share},
                     {"impostors_per_iteration", v.impostors_per_iteration},
                     {"impostor_pool", v.impostor_pool},
+                    {"impostor_segments", v.impostor_segments},
                     // Not --seed (which the provenance records): the problem's own, drawn from it
                     // with the segment and candidate, so that adding a candidate changes no score.
                     {"problem_seed", v.seed},
@@ -132,11 +133,12 @@ void write_verifications_tsv(std::ostream& out, const Analysis& analysis) {
                                {"band calibration", b.method}});
   }
   write_tsv_row(out, {"segment", "words", "candidate", "score", "calibrated_score", "decision", "impostor_pool",
-                      "warnings"});
+                      "impostor_segments", "warnings"});
   for (const auto& v : analysis.verifications) {
     const SegmentSummary& s = analysis.segments[v.segment];
     write_tsv_row(out, {s.id, std::to_string(s.tokens), v.candidate, fixed(v.score, 2), fixed(v.calibrated_score, 4),
-                        v.decision, std::to_string(v.impostor_pool), joined(v.warnings)});
+                        v.decision, std::to_string(v.impostor_pool), std::to_string(v.impostor_segments),
+                        joined(v.warnings)});
   }
 }
 

@@ -109,6 +109,7 @@ void StandoffBuilder::add_verifications(Parts& parts) const {
     add_feature(fs, "featureShare").add(numeric(r.feature_share));
     add_feature(fs, "impostorsPerIteration").add(count(r.impostors_per_iteration));
     add_feature(fs, "impostorPool").add(count(r.impostor_pool));
+    add_feature(fs, "impostorSegments").add(count(r.impostor_segments));
     add_feature(fs, "problemSeed").add(numeric(std::to_string(r.seed)));  // from --seed, segment, candidate
     add_strings(fs, "warnings", r.warnings);
     add_feature(fs, "caution").add_text_element("string", kAttributionCaution);

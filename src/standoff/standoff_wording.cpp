@@ -1,5 +1,6 @@
 #include "standoff/standoff_wording.h"
 
+#include <algorithm>
 #include <cstdio>
 
 #include "profile/feature_spec.h"
@@ -142,8 +143,11 @@ std::string verification_note(const Analysis& analysis, const VerificationResult
                      (s.unit == "whole" ? std::string("text") : s.unit) + " " + label + " against " +
                      result.candidate + ": score " + rounded(result.score, "%.2f") + " (share of " +
                      std::to_string(result.iterations) + " rounds in which " + result.candidate +
-                     " was nearer than every impostor, " + std::to_string(result.impostors_per_iteration) +
-                     " drawn each round from " + std::to_string(result.impostor_pool) + "); " + result.decision;
+                     " was nearer than every impostor, " +
+                     std::to_string(std::min(result.impostors_per_iteration, result.impostor_pool)) +
+                     " drawn each round from " + std::to_string(result.impostor_pool) + " impostor(s), other authors " +
+                     "or impostor files, with " + std::to_string(result.impostor_segments) + " segment(s)); " +
+                     result.decision;
   if (analysis.verification_band && analysis.verification_band->calibrated)
     note += " under the undecided band " + rounded(analysis.verification_band->low, "%.2f") + "-" +
             rounded(analysis.verification_band->high, "%.2f") + " calibrated on this run's labelled segments";

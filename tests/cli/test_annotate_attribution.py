@@ -157,8 +157,15 @@ mtest.check(hashlib.sha256(open(letters_copy, "rb").read()).hexdigest() == lette
 res = etree.parse(results_file, PARSER)
 profiled = [f.find("tei:f[@name='segment']/tei:string", NS).text for f in res.iterfind(".//tei:fs[@type='styleProfile']", NS)]
 mtest.check(profiled and all(p.startswith("letters#") for p in profiled), "profiles written for %s" % profiled)
-pools = [fs_value(f, "impostorPool") for f in res.iterfind(".//tei:fs[@type='verificationResult']", NS)]
-mtest.check(pools and all(p > 12 for p in pools), "impostor pools %s do not include the impostor file's letters" % pools)
+# An impostor is another author (with all their letters) or an impostor file (docs/attribution.md):
+# against each of the three sure senders, the two others and the one file, that is 3; their
+# segments include the impostor file's 12 letters.
+results = list(res.iterfind(".//tei:fs[@type='verificationResult']", NS))
+pools = [fs_value(f, "impostorPool") for f in results]
+segments = [fs_value(f, "impostorSegments") for f in results]
+mtest.check(pools and all(p == 3 for p in pools), "impostor pools %s: two other senders and the impostor file" % pools)
+mtest.check(segments and all(n > 12 for n in segments), "impostor segments %s do not include the impostor file's letters"
+            % segments)
 errors = jing_errors(mtest.SCHEMA, [results_file])
 mtest.check(not any(errors.values()), "tei_all (jing) rejects the results file: %s" % errors)
 
