@@ -7,6 +7,7 @@
 
 #include "attribution/candidate_ranking.h"
 #include "attribution/label_file.h"
+#include "cli/number_checks.h"
 #include "core/error.h"
 #include "core/facade.h"
 
@@ -50,10 +51,10 @@ void AttributionCommandOptions::add_settings(CLI::App& command, bool stability, 
       ->capture_default_str();
   command.add_option("--weight-spread", s.weight_spread,
                      "weighted-centroid: a segment this share farther than the candidate's nearest counts e^-1")
-      ->check(CLI::PositiveNumber)
+      ->check(above_zero())
       ->capture_default_str();
   command.add_option("--z-limit", s.z_limit, "limit z-scores to +-this before measuring (0: no limit)")
-      ->check(CLI::NonNegativeNumber)
+      ->check(zero_or_more())
       ->capture_default_str();
   command.add_option("--seed", s.seed, "seed of every random draw (recorded in the output)")->capture_default_str();
   command.add_option("--min-words-warning", s.reliable_words,
