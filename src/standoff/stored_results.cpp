@@ -34,7 +34,18 @@ class ResultsCollector : public XmlEventHandler {
  public:
   std::vector<std::unique_ptr<Node>> standoffs, applications;
 
+  explicit ResultsCollector(std::string file) : file_(std::move(file)) {}
+
   void start(const StartTag& tag) override {
+    // Said before "no results": a file that is not TEI at all was most likely named by mistake.
+    if (depth_ == 0 && !(tag.in_tei_namespace && (tag.local == "TEI" || tag.local == "teiCorpus"))) {
+      std::string got = tag.ns.empty() ? "<" + std::string(tag.local) + "> in no namespace"
+                                       : "<" + std::string(tag.local) + "> in namespace " + std::string(tag.ns);
+      throw Error(ErrorKind::bad_input,
+                  "not a TEI document: the root element is " + got +
+                      "; manicule's results are kept in a TEI edition or a TEI results file",
+                  file_, tag.line);
+    }
     auto node = std::make_unique<Node>();
     node->name = tag.in_tei_namespace ? std::string(tag.local) : "{" + std::string(tag.ns) + "}" + std::string(tag.local);
     for (int i = 0; i < tag.attribute_count; ++i) {
@@ -73,6 +84,7 @@ class ResultsCollector : public XmlEventHandler {
   }
 
  private:
+  std::string file_;
   std::vector<Node*> open_;
   int depth_ = 0;
 };
@@ -158,7 +170,7 @@ void collect(const Node& n, StoredResults& out) {
 }  // namespace
 
 StoredResults read_stored_results(const std::string& path) {
-  ResultsCollector collector;
+  ResultsCollector collector(path);
   parse_xml(XmlSource::file(path), collector);
   if (collector.standoffs.empty())
     throw Error(ErrorKind::bad_input, "no results of manicule in this file (no <standOff type=\"stylometry\">); "

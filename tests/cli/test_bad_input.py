@@ -52,6 +52,11 @@ p = run_segments(html)
 mtest.check(p.returncode == 3, "non-TEI root: exit 3, got %d" % p.returncode)
 mtest.check("page.xml:1" in p.stderr and "not a TEI document" in p.stderr and "<html>" in p.stderr,
             "non-TEI root: clear message: " + p.stderr)
+# show and export, which read stored results, say the same rather than "no results of manicule".
+for command in (["show"], ["export", "--format", "webanno"]):
+    p = subprocess.run([mtest.BIN] + command + [html], capture_output=True, text=True)
+    mtest.check(p.returncode == 3 and "page.xml:1" in p.stderr and "not a TEI document" in p.stderr,
+                "%s on a non-TEI file: %d %s" % (command[0], p.returncode, p.stderr))
 # TEI element name but the wrong namespace is not TEI either (TEI P5 1.2: the TEI namespace).
 wrong_ns = write("wrong-ns.xml", '<TEI xmlns="http://example.org/other"><text><body><p>x</p></body></text></TEI>')
 p = run_segments(wrong_ns)
