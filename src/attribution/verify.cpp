@@ -109,13 +109,8 @@ VerificationRun verify_questioned(const Analysis& analysis, const SegmentRoles& 
     std::string little = candidate_size_warning(p.candidate, candidates.words[c], candidates.segments[c].size(),
                                                 options.reliable_words);
     if (!little.empty()) r.warnings.push_back(little);
-    if (!run.band.calibrated) {
-      // The method of an uncalibrated band begins by saying so; said once here.
-      const std::string said = "not calibrated: ";
-      const std::string& why = run.band.method;
-      r.warnings.push_back("the undecided band is not calibrated: " +
-                           (why.rfind(said, 0) == 0 ? why.substr(said.size()) : why));
-    }
+    // An uncalibrated band's method begins "not calibrated: ", with the counts that fell short.
+    if (!run.band.calibrated) r.warnings.push_back("the undecided band is " + run.band.method);
     run.results.push_back(std::move(r));
   }
   return run;

@@ -1,8 +1,8 @@
 #include "cli/analysis_options.h"
 
-#include <charconv>
 #include <string_view>
 
+#include "cli/number_checks.h"
 #include "core/error.h"
 #include "profile/stop_list.h"
 
@@ -34,16 +34,10 @@ void AnalysisOptions::apply_to(Request& request) const {
   request.features.kind = parse_feature_kind(features);
   request.features.n = request.features.kind == FeatureKind::word ? 1 : n;
   validate(request.features);
-  // Digits only on each side: std::stoul would take "1000x" as 1000 and " 5" as 5.
-  const auto number = [](std::string_view digits, std::size_t& out) {
-    const char* end = digits.data() + digits.size();
-    const auto [stop, ec] = std::from_chars(digits.data(), end, out);
-    return !digits.empty() && ec == std::errc() && stop == end;
-  };
   const std::string_view spec = ranks;
   const std::size_t dash = spec.find('-');
-  if (dash == std::string_view::npos || !number(spec.substr(0, dash), request.feature_space.rank_first) ||
-      !number(spec.substr(dash + 1), request.feature_space.rank_last))
+  if (dash == std::string_view::npos || !parse_digits(spec.substr(0, dash), request.feature_space.rank_first) ||
+      !parse_digits(spec.substr(dash + 1), request.feature_space.rank_last))
     throw Error(ErrorKind::usage, "--ranks takes FIRST-LAST, e.g. 1-1000; got '" + ranks + "'");
   request.feature_space.culling_percent = culling;
   request.feature_space.min_segment_tokens = min_tokens;

@@ -1,9 +1,8 @@
 #include "cli/archive_options.h"
 
-#include <charconv>
 #include <string_view>
-#include <system_error>
 
+#include "cli/number_checks.h"
 #include "core/error.h"
 #include "text/language_tags.h"
 
@@ -59,17 +58,11 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
 }
 
 store::Shard parse_shard(const std::string& text) {
-  // Digits only: std::stoul would take " 2" and "-1", the latter as 2^64 - 1.
-  const auto number = [](std::string_view digits, unsigned& out) {
-    const char* end = digits.data() + digits.size();
-    const auto [stop, ec] = std::from_chars(digits.data(), end, out);
-    return !digits.empty() && ec == std::errc() && stop == end;
-  };
   store::Shard s;
   const std::string_view whole = text;
   const std::size_t slash = whole.find('/');
-  if (slash == std::string_view::npos || !number(whole.substr(0, slash), s.index) ||
-      !number(whole.substr(slash + 1), s.count))
+  if (slash == std::string_view::npos || !parse_digits(whole.substr(0, slash), s.index) ||
+      !parse_digits(whole.substr(slash + 1), s.count))
     throw Error(ErrorKind::usage, "--shard takes K/N, e.g. 2/8 (share K of N, counted from 1); got '" + text + "'");
   if (s.count < 1) throw Error(ErrorKind::usage, "--shard " + text + ": N, the number of shares, must be 1 or more");
   if (s.index < 1 || s.index > s.count)

@@ -9,7 +9,7 @@
 #include "cli/allocator_settings.h"
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
-#include "cli/unsigned_options.h"
+#include "cli/number_checks.h"
 #include "core/error.h"
 #include "manicule_version.h"
 #include "measure/cosine_gram.h"

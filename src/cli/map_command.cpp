@@ -6,6 +6,7 @@
 
 #include "cli/commands.h"
 #include "cli/measure_output.h"
+#include "cli/number_checks.h"
 #include "cli/table_output.h"
 #include "core/error.h"
 #include "core/utf8_text.h"
@@ -112,12 +113,7 @@ CommandRunner add_map_command(CLI::App& app) {
   auto title = std::make_shared<std::string>();
   options->add_to(*command, {"tsv", "json", "svg"}, false);
   command->add_option("--components", *components, "principal components computed (1 or more)")
-      ->check(CLI::Validator(
-          [](std::string& value) {  // all zeros: 0 ("0", "00")
-            return !value.empty() && value.find_first_not_of('0') == std::string::npos ? std::string("must be 1 or more")
-                                                                                        : std::string();
-          },
-          ""))
+      ->check(at_least_one())
       ->capture_default_str();
   command->add_option("--top", *top, "features listed per pole of each component")->capture_default_str();
   command->add_option("--pca-input", *input, "z (z-scores) or relative (relative frequencies)")

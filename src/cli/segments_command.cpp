@@ -21,9 +21,8 @@ namespace {
 // The words are those counted; the JSON output keeps the text as the edition has it.
 std::string joined_text(const Segment& segment) {
   std::string text;
-  bool space = false;
   for (const auto& run : segment.runs) {
-    space = true;  // runs are separate pieces of text
+    bool space = true;  // runs are separate pieces of text
     for (const char c : run.text) {
       if (c == ' ' || c == '\t' || c == '\n' || c == '\r') {
         space = true;
@@ -56,8 +55,9 @@ CommandRunner add_segments_command(CLI::App& app) {
   auto show_text = std::make_shared<bool>(false);
   options->add_to(*command);
   command->add_option("--format", *format, "tsv or json")->check(CLI::IsMember({"tsv", "json"}))->capture_default_str();
-  command->add_flag("--show-text", *show_text, "also print the selected text of each segment (TSV: on one line, white space runs as one "
-                    "space; JSON: as the edition has it)");
+  command->add_flag("--show-text", *show_text,
+                    "also print the selected text of each segment (TSV: on one line, white space runs as one space; "
+                    "JSON: as the edition has it)");
   return [=]() -> int {
     Request request = options->to_request();
     request.keep_text = *show_text;

@@ -5,6 +5,7 @@
 
 #include "core/error.h"
 #include "standoff/edition_splice.h"
+#include "tei/tei_root.h"
 #include "tei/xml_events.h"
 
 namespace manicule {
@@ -38,14 +39,8 @@ class ResultsCollector : public XmlEventHandler {
 
   void start(const StartTag& tag) override {
     // Said before "no results": a file that is not TEI at all was most likely named by mistake.
-    if (depth_ == 0 && !(tag.in_tei_namespace && (tag.local == "TEI" || tag.local == "teiCorpus"))) {
-      std::string got = tag.ns.empty() ? "<" + std::string(tag.local) + "> in no namespace"
-                                       : "<" + std::string(tag.local) + "> in namespace " + std::string(tag.ns);
-      throw Error(ErrorKind::bad_input,
-                  "not a TEI document: the root element is " + got +
-                      "; manicule's results are kept in a TEI edition or a TEI results file",
-                  file_, tag.line);
-    }
+    if (depth_ == 0)
+      require_tei_root(tag, file_, "; manicule's results are kept in a TEI edition or a TEI results file");
     auto node = std::make_unique<Node>();
     node->name = tag.in_tei_namespace ? std::string(tag.local) : "{" + std::string(tag.ns) + "}" + std::string(tag.local);
     for (int i = 0; i < tag.attribute_count; ++i) {

@@ -175,13 +175,13 @@ CREATE VIEW IF NOT EXISTS vocabulary AS
 
 // A file that could not be opened has no reading (no content, so no settings_id) and its
 // error in `files`; it is 'failed' all the same, so that `WHERE status = 'failed'` lists it.
-constexpr const char* kFileListView = R"sql(
-CREATE VIEW file_list AS
+// Written as sqlite_master keeps it (no leading line break, no semicolon), so that an
+// existing store's view is compared with it as it stands.
+constexpr const char* kFileListView = R"sql(CREATE VIEW file_list AS
   SELECT f.path, r.settings_id, COALESCE(r.status, CASE WHEN f.read_error IS NOT NULL THEN 'failed' END) AS status,
          COALESCE(f.read_error, r.error) AS error, r.title, r.author,
          r.date, r.year, r.language, r.segments, r.tokens, f.size, f.sha256
-  FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256;
-)sql";
+  FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256)sql";
 
 // A segment's year is its own where the edition dates it (a letter), else its file's.
 constexpr const char* kSegmentListView = R"sql(
@@ -233,10 +233,7 @@ void refresh_file_list_view(Database& db) {
   Statement view = db.prepare("SELECT sql FROM sqlite_master WHERE type = 'view' AND name = 'file_list'");
   const std::string current = view.step() ? view.text_at(0) : "";
   view.reset();
-  std::string wanted = kFileListView;
-  wanted = wanted.substr(wanted.find_first_not_of('\n'));
-  wanted = wanted.substr(0, wanted.find_last_not_of(";\n") + 1);  // as sqlite_master keeps it
-  if (current == wanted) return;
+  if (current == kFileListView) return;
   db.exec("DROP VIEW IF EXISTS file_list");
   db.exec(kFileListView);
 }

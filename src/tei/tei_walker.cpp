@@ -11,6 +11,7 @@
 
 #include "core/error.h"
 #include "tei/header_info.h"
+#include "tei/tei_root.h"
 #include "tei/text_buffer.h"
 
 namespace manicule {
@@ -653,14 +654,7 @@ void TeiWalker::start(const StartTag& tag) {
   State& s = *s_;
   if (!s.root_seen) {
     s.root_seen = true;
-    if (!(tag.in_tei_namespace && (tag.local == "TEI" || tag.local == "teiCorpus"))) {
-      std::string got = tag.ns.empty() ? "<" + std::string(tag.local) + "> in no namespace"
-                                       : "<" + std::string(tag.local) + "> in namespace " + std::string(tag.ns);
-      throw Error(ErrorKind::bad_input,
-                  "not a TEI document: the root element is " + got +
-                      "; expected <TEI> or <teiCorpus> in http://www.tei-c.org/ns/1.0",
-                  s.file, tag.line);
-    }
+    require_tei_root(tag, s.file, "; expected <TEI> or <teiCorpus> in http://www.tei-c.org/ns/1.0");
   }
   State::Frame f;
   f.name = tag.local;
