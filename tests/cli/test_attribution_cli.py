@@ -76,10 +76,14 @@ mtest.check(len(alone["verifications"]) == 3 and all(
             "one candidate against three: %r, %r" % (alone["verifications"], among))
 mtest.check(all("seed" not in v for v in doc["verifications"]), "a verification still has a 'seed' key")
 # Each verification warns of it once, with the counts (the band's own wording said "not
-# calibrated" twice over: "... is not calibrated: not calibrated: 9 same-author ...").
+# calibrated" twice over: "... is not calibrated: not calibrated: 9 same-author ..."). One
+# known problem a side per letter with a sure sender (lxml: letter_senders), each against
+# its own sender and against the nearest other one (docs/attribution.md).
+known = sum(1 for who in letter_senders(LETTERS, "ferry-letters").values() if who)
+counts = "%d same-author and %d different-author" % (known, known)
 for v in doc["verifications"]:
     said = [w for w in v["warnings"] if "band is not calibrated" in w]
-    mtest.check(len(said) == 1 and "9 same-author and 9 different-author" in said[0]
+    mtest.check(len(said) == 1 and counts in said[0]
                 and said[0].count("not calibrated") == 1, "the band warning of a verification: %r" % said)
 
 # A labels file naming a segment the run does not have: bad input, with file and line.
