@@ -14,26 +14,49 @@ const char* const kPalette[] = {"#0072B2", "#D55E00", "#009E73", "#CC79A7", "#E6
 constexpr std::size_t kPaletteSize = sizeof kPalette / sizeof kPalette[0];
 const char* const kUnknownColour = "#8C8C8C";
 
+// A letter's label is its sender, who may have written other letters of the plot or none:
+// the point or leaf stands for the letter, so its id always goes with the name ("Ann Lee
+// (L10)"), and the whole segment id ("letters-1870#L10") where two letters of different
+// editions share sender and id.
+bool label_names_sender(const SegmentSummary& s) {
+  return s.unit == "letter" && !s.label.empty() && s.label != s.local_id;
+}
+
+// A segment whose author the edition only conjectures is coloured as that author's, so
+// its label says so: a plot must not show a conjecture as a fact.
+std::string with_conjecture(const SegmentSummary& s, std::string label, const std::string& tell) {
+  const bool conjectured = s.authorship == Authorship::conjectured;
+  if (tell.empty()) return conjectured ? label + " (author conjectured)" : label;
+  return label + " (" + tell + (conjectured ? ", conjectured)" : ")");
+}
+
 std::vector<std::string> distinct_labels(const Analysis& analysis, const std::vector<std::size_t>& plotted) {
   std::vector<std::string> labels;
-  std::map<std::string, std::vector<std::size_t>> by_label;  // label -> positions in plotted
+  std::map<std::string, std::vector<std::size_t>> by_label;  // label without conjecture -> positions
   for (std::size_t p = 0; p < plotted.size(); ++p) {
     const SegmentSummary& s = analysis.segments[plotted[p]];
-    labels.push_back(s.label.empty() ? s.local_id : s.label);
+    labels.push_back(label_names_sender(s) ? s.label + " (" + s.local_id + ")"
+                     : s.label.empty()     ? s.local_id
+                                           : s.label);
     by_label[labels.back()].push_back(p);
   }
+  std::vector<std::string> shown(labels.size());
   for (const auto& [label, positions] : by_label) {
-    if (positions.size() < 2) continue;
     std::set<std::string> local_ids;
     for (std::size_t p : positions) local_ids.insert(analysis.segments[plotted[p]].local_id);
     const bool ids_differ = local_ids.size() == positions.size();
     for (std::size_t p : positions) {
       const SegmentSummary& s = analysis.segments[plotted[p]];
-      const std::string& tell = ids_differ && s.local_id != label ? s.local_id : file_stem(s.file);
-      if (tell != label) labels[p] = label + " (" + tell + ")";
+      if (label_names_sender(s)) {
+        shown[p] = with_conjecture(s, s.label, positions.size() < 2 ? s.local_id : s.id);
+        continue;
+      }
+      std::string tell;
+      if (positions.size() >= 2) tell = ids_differ && s.local_id != label ? s.local_id : file_stem(s.file);
+      shown[p] = with_conjecture(s, label, tell == label ? std::string() : tell);
     }
   }
-  return labels;
+  return shown;
 }
 
 // The name people know an author by: the label most of the author's segments carry.

@@ -1,7 +1,9 @@
 // How the plots name and colour segments.
-//  - Label: the segment's label (speaker's name, letter's sender, title), else its local
+//  - Label: the segment's label (speaker's name, chapter's heading, title), else its local
 //    id. Labels that would appear twice get what tells them apart: "(L04)" when their
-//    local ids differ, else the edition's file stem.
+//    local ids differ, else the edition's file stem. A letter is its sender's name with
+//    the letter's id, always ("Ann Lee (L10)"): the sender is not the letter. A segment
+//    whose author the edition conjectures says so ("Ann Lee (L12, conjectured)").
 //  - Group (the colour): the author, when at least two of the plotted segments share one
 //    (segments without an author form the group "unknown"); otherwise the edition, when
 //    they come from more than one file; otherwise one group and no legend.

@@ -6,6 +6,13 @@
     the same z-scores ("PC1 (23.4 %)"), and beside each axis the features with the
     strongest loadings at either end (sklearn's components_)
   - a legend with one entry per sender when letters share senders
+  - a letter is named by sender and letter id even when its sender wrote no other
+    letter plotted, and by the whole segment id ("FILE#ID") when two editions hold a
+    letter of the same sender and id (the names and ids are those written into the
+    invented editions here)
+  - a letter whose sender the edition only conjectures (TEI P5 att.global.responsibility:
+    @cert on the sender's persName, here "low") is labelled as conjectured; lxml reads
+    which letters those are from the invented example edition
   - the dendrogram: one leaf label per segment; the consensus: one support figure per
     group, equal to the Newick support labels
   - --output writes the same document to a file
@@ -108,5 +115,47 @@ with tempfile.TemporaryDirectory() as tmp:
     newick = mtest.run(["tree", "--bootstrap", ranges] + args).stdout
     newick_supports = sorted(int(s) for s in re.findall(r"\)(\d+)", re.sub(r"\[[^\]]*\]", "", newick)))
     mtest.check(supports and supports == newick_supports, "support figures equal Newick's: %s" % supports)
+
+    # --- letters named apart from their senders -----------------------------------------
+    # The last letter given to a sender of its own: a lone sender's name alone would not
+    # say which letter the point is.
+    lone_id = letters[-1][0]
+    lone = letters[:-1] + [(lone_id, "p-dove", "Di Dove", letters[-1][3])]
+    lone_path = invented_letters.write_letters(tmp, "lone.xml", lone)
+    lone_args = [lone_path, "--unit", "letter", "--min-tokens", "100", "--ranks", "1-60"]
+    for command, css in (("map", "point-label"), ("tree", "leaf-label")):
+        shown = [t.text for t in texts(parse_svg(mtest.run([command, "--format", "svg"] + lone_args).stdout,
+                                                 command + " SVG, lone sender"), css)]
+        mtest.check("Di Dove (%s)" % lone_id in shown, "%s: the lone sender's letter named with its id: %s"
+                    % (command, shown))
+    # The same letters in two editions: sender and letter id alike, the file tells them apart.
+    twin_path = invented_letters.write_letters(tmp, "twin.xml", lone)
+    shown = [t.text for t in texts(parse_svg(mtest.run(["map", "--format", "svg", lone_path, twin_path, "--unit",
+                                                        "letter", "--min-tokens", "100", "--ranks", "1-60"]).stdout,
+                                             "map SVG, two editions"), "point-label")]
+    expected = sorted("%s (%s#%s)" % (name, stem, lid) for stem in ("lone", "twin") for lid, _, name, _ in lone)
+    mtest.check(sorted(shown) == expected, "letters of two editions named by segment id: %s" % shown)
+
+# --- a conjectured sender, from the invented example edition ------------------------------
+example = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
+TEI = "{http://www.tei-c.org/ns/1.0}"
+XML_ID = "{http://www.w3.org/XML/1998/namespace}id"
+edition = etree.parse(example)
+conjectured = set()
+for desc in edition.iter(TEI + "correspDesc"):
+    for sender in desc.iterfind(TEI + "correspAction[@type='sent']/" + TEI + "persName"):
+        if sender.get("cert") not in (None, "high"):
+            conjectured.add((desc.get(XML_ID), sender.text))
+letter_ids = {div.get("decls").lstrip("#"): div.get(XML_ID) for div in edition.iter(TEI + "div")
+              if div.get("type") == "letter" and div.get("decls")}
+mtest.check(conjectured, "the example edition has a conjectured sender")
+shown = [t.text for t in texts(parse_svg(mtest.run(["tree", "--format", "svg", example, "--unit", "letter",
+                                                    "--min-tokens", "200"]).stdout, "tree SVG, example"),
+                                 "leaf-label")]
+for desc_id, name in conjectured:
+    label = "%s (%s, conjectured)" % (name, letter_ids[desc_id])
+    mtest.check(label in shown, "conjectured sender labelled %r: %s" % (label, shown))
+mtest.check(sum("conjectured" in label for label in shown) == len(conjectured),
+            "only the conjectured letters say so: %s" % shown)
 
 mtest.done()
