@@ -104,9 +104,10 @@ Analysis analyse_counts(const Request& request, const Corpus& corpus, const Anal
   auto& params = analysis.provenance.parameters;
 
   if (table.report.fewer_than_asked) {
+    // Worded for the default ranks as well as for --ranks: a user who gave none asked for nothing.
     analysis.notes.push_back("ranks " + std::to_string(request.feature_space.rank_first) + "-" +
-                             std::to_string(request.feature_space.rank_last) + " were asked for, but only " +
-                             std::to_string(table.report.candidates) + " features exist: " +
+                             std::to_string(request.feature_space.rank_last) + " reach past the " +
+                             std::to_string(table.report.candidates) + " features found: " +
                              std::to_string(table.feature_count()) + " used");
   }
   if (table.report.zero_variance > 0) {

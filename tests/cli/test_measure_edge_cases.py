@@ -54,9 +54,9 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["profile", "--ranks", "1-100000"] + args)
     params, features, rows = read_profile(proc.stdout)
     mtest.check(sorted(features) == sorted(vocabulary), "every distinct word is a feature (%d)" % len(vocabulary))
-    mtest.check(any("only %d features exist" % len(vocabulary) in n for n in params.get("note", [])),
+    mtest.check(any("the %d features found" % len(vocabulary) in n for n in params.get("note", [])),
                 "the header notes that fewer features exist: %s" % params.get("note"))
-    mtest.check("only %d features exist" % len(vocabulary) in proc.stderr, "stderr notes it too")
+    mtest.check("the %d features found" % len(vocabulary) in proc.stderr, "stderr notes it too")
 
     # The empty letter: left out and reported everywhere.
     mtest.check("letters#L91" not in rows, "the empty letter has no row")
