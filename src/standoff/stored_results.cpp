@@ -1,5 +1,7 @@
 #include "standoff/stored_results.h"
 
+#include <charconv>
+#include <cstdint>
 #include <cstdlib>
 #include <memory>
 
@@ -115,7 +117,16 @@ nlohmann::json fs_json(const Node& fs) {
 nlohmann::json value_of(const Node& v) {
   if (v.name == "numeric") {
     const std::string& n = v.attr("value");
-    if (n.find_first_of(".eEnN") == std::string::npos) return std::strtoll(n.c_str(), nullptr, 10);
+    if (n.find_first_of(".eEnN") == std::string::npos) {
+      // Whole numbers exactly: a verification's seed fills 64 unsigned bits, which a signed
+      // reading clamped (and a double would round), so the run could not be repeated.
+      const char* end = n.data() + n.size();
+      std::int64_t whole = 0;
+      if (auto [at, ec] = std::from_chars(n.data(), end, whole); ec == std::errc() && at == end) return whole;
+      std::uint64_t large = 0;
+      if (auto [at, ec] = std::from_chars(n.data(), end, large); ec == std::errc() && at == end) return large;
+      return n;  // beyond 64 bits: the digits as the file has them
+    }
     return std::strtod(n.c_str(), nullptr);
   }
   if (v.name == "symbol") return v.attr("value");

@@ -126,6 +126,13 @@ for fs in tree.iterfind(".//tei:fs[@type='attributionResult']", NS):
 by_show = {a["segment"]: [(c["candidate"], c["distance"]) for c in a["candidates"]] for a in shown["attributions"]}
 mtest.check(by_show == by_lxml, "show lists %s, lxml reads %s" % (by_show, by_lxml))
 mtest.check(len(shown.get("verifications", [])) == len(questioned) * len(candidates), "show lists the verifications")
+# Each verification's seed, a 64-bit unsigned number, comes back to the digit: with it the
+# run can be repeated. lxml reads the digits; Python's int holds them exactly.
+seeds_lxml = sorted(int(fs.find("tei:f[@name='problemSeed']/tei:numeric", NS).get("value"))
+                    for fs in tree.iterfind(".//tei:fs[@type='verificationResult']", NS))
+mtest.check(any(s >= 2 ** 63 for s in seeds_lxml), "a seed above 2^63 to check against: %s" % seeds_lxml)
+seeds_show = sorted(v["problemSeed"] for v in shown["verifications"])
+mtest.check(seeds_show == seeds_lxml, "show's seeds %s, lxml reads %s" % (seeds_show, seeds_lxml))
 verified = [a for a in annotations if "verif" in (a.get(XML_ID) or "")]
 mtest.check(len(verified) == len(questioned) * len(candidates),
             "%d verification annotations, expected one per questioned letter and candidate" % len(verified))
@@ -138,6 +145,9 @@ mtest.check(len(results) == len(questioned) * (1 + len(candidates)), "%d results
 for a in results:
     mtest.check(any(b.get("purpose") == "commenting" and b.get("value", "").startswith(CAUTION) for b in a["body"]),
                 "exported %s lacks the caution body" % a["id"])
+seeds_export = sorted(json.loads(b["value"])["problemSeed"] for a in results if "-verif-" in a["id"]
+                      for b in a["body"] if b.get("format") == "application/json")
+mtest.check(seeds_export == seeds_lxml, "exported seeds %s, lxml reads %s" % (seeds_export, seeds_lxml))
 
 # --- impostors, separate results file -----------------------------------------------------------
 impostor = os.path.join(tmp, "impostor-letters.xml")
