@@ -54,9 +54,10 @@ struct VerificationBand {
   std::size_t different_problems = 0;
   double auc = 0, c_at_1 = 0, f05u = 0;  // on those problems (in-sample)
   std::string method;                   // how the band was chosen, in words
-  // As for VerificationEvaluation: AUC needs problems of both answers, c@1 and F0.5u any.
-  bool auc_defined() const { return same_problems > 0 && different_problems > 0; }
-  bool rates_defined() const { return same_problems + different_problems > 0; }
+  // As for VerificationEvaluation: AUC needs problems of both answers, c@1 and F0.5u any;
+  // and all three are computed only for a band that was calibrated.
+  bool auc_defined() const { return calibrated && same_problems > 0 && different_problems > 0; }
+  bool rates_defined() const { return calibrated && same_problems + different_problems > 0; }
 };
 
 // `verify`: General Impostors (Koppel & Winter 2014) for one questioned segment and one

@@ -30,6 +30,12 @@ void write_head(std::ostream& out, const Analysis& analysis) {
 nlohmann::json figure(double value, bool defined) { return defined ? nlohmann::json(value) : nlohmann::json(); }
 std::string figure_text(double value, bool defined) { return defined ? fixed(value) : "n/a"; }
 
+// Without a calibrated band a "calibrated score" would be the score itself under another
+// name: none is given.
+bool band_calibrated(const Analysis& analysis) {
+  return analysis.verification_band && analysis.verification_band->calibrated;
+}
+
 nlohmann::json band_json(const VerificationBand& b) {
   return {{"low", b.low},           {"high", b.high},
           {"calibrated", b.calibrated}, {"method", b.method},
@@ -101,6 +107,7 @@ nlohmann::json verifications_json(const Analysis& analysis) {
   nlohmann::json doc = analysis_json_head(analysis);
   doc["caution"] = kAttributionCaution;
   if (analysis.verification_band) doc["band"] = band_json(*analysis.verification_band);
+  const bool calibrated = band_calibrated(analysis);
   nlohmann::json list = nlohmann::json::array();
   for (const auto& v : analysis.verifications) {
     const SegmentSummary& s = analysis.segments[v.segment];
@@ -108,7 +115,7 @@ nlohmann::json verifications_json(const Analysis& analysis) {
                     {"words", s.tokens},
                     {"candidate", v.candidate},
                     {"score", v.score},
-                    {"calibrated_score", v.calibrated_score},
+                    {"calibrated_score", figure(v.calibrated_score, calibrated)},
                     {"decision", v.decision},
                     {"iterations", v.iterations},
                     {"feature_share", v.feature_share},
@@ -134,9 +141,11 @@ void write_verifications_tsv(std::ostream& out, const Analysis& analysis) {
   }
   write_tsv_row(out, {"segment", "words", "candidate", "score", "calibrated_score", "decision", "impostor_pool",
                       "impostor_segments", "warnings"});
+  const bool calibrated = band_calibrated(analysis);
   for (const auto& v : analysis.verifications) {
     const SegmentSummary& s = analysis.segments[v.segment];
-    write_tsv_row(out, {s.id, std::to_string(s.tokens), v.candidate, fixed(v.score, 2), fixed(v.calibrated_score, 4),
+    write_tsv_row(out, {s.id, std::to_string(s.tokens), v.candidate, fixed(v.score, 2),
+                        calibrated ? fixed(v.calibrated_score, 4) : "n/a",
                         v.decision, std::to_string(v.impostor_pool), std::to_string(v.impostor_segments),
                         joined(v.warnings)});
   }

@@ -97,7 +97,9 @@ void StandoffBuilder::add_verifications(Parts& parts) const {
     add_feature(fs, "measure").add(symbol(run_measure_word(analysis_)));
     add_feature(fs, "candidate").add_text_element("string", r.candidate);
     add_feature(fs, "score").add(numeric(r.score));
-    add_feature(fs, "calibratedScore").add(numeric(r.calibrated_score));
+    // Without a calibrated band it would be the score again under another name.
+    if (analysis_.verification_band && analysis_.verification_band->calibrated)
+      add_feature(fs, "calibratedScore").add(numeric(r.calibrated_score));
     add_feature(fs, "decision").add(symbol(r.decision));
     if (analysis_.verification_band) {
       const VerificationBand& band = *analysis_.verification_band;

@@ -109,6 +109,10 @@ for ann in annotations:
     else:
         mtest.check(fs.get("type") == "verificationResult", "unexpected result fs %s" % fs.get("type"))
         decision = fs_value(fs, "decision")
+        # A score read against an uncalibrated band is not a calibrated one: none is written.
+        calibrated = fs.find("tei:f[@name='bandCalibrated']/tei:binary", NS).get("value") == "true"
+        mtest.check(calibrated or fs_value(fs, "calibratedScore") is None,
+                    "%s: a calibratedScore without a calibrated band" % fs.get(XML_ID))
         score = fs_value(fs, "score")
         mtest.check(0 <= score <= 1, "verification score %r outside [0, 1]" % score)
         expected = "assessing" if decision == "undecided" else "classifying"

@@ -66,6 +66,15 @@ mtest.check(len(doc["verifications"]) == 9, "three questioned letters against th
 mtest.check(all(v["decision"] in ("same author", "different author", "undecided") for v in doc["verifications"]),
             "unknown decision")
 mtest.check("not calibrated" in doc["band"]["method"], "nine known problems a side cannot calibrate the band")
+# An uncalibrated band has no figures of its own, and a score read against it is no
+# "calibrated score": null, never a number (0.0 read as an AUC would mean "always wrong").
+mtest.check(doc["band"]["calibrated"] is False and all(doc["band"][k] is None for k in ("auc", "c_at_1", "f05u")),
+            "figures of an uncalibrated band: %r" % doc["band"])
+mtest.check(all(v["calibrated_score"] is None for v in doc["verifications"]),
+            "calibrated scores without calibration: %r" % [v["calibrated_score"] for v in doc["verifications"]])
+tsv_rows = mtest.read_tsv(mtest.run(["verify"] + BASE).stdout)
+mtest.check(len(tsv_rows) == 9 and all(r["calibrated_score"] == "n/a" for r in tsv_rows),
+            "TSV calibrated_score without calibration: %r" % [r["calibrated_score"] for r in tsv_rows])
 # A problem's seed depends on --seed, its segment and its candidate alone (docs/attribution.md):
 # verified against one candidate only, each letter keeps the seed and score it had among
 # three. The JSON names it problem_seed: it is not --seed, and was given as "seed".
