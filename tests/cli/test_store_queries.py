@@ -137,6 +137,38 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(got == per_year, "letters per year and sender %r, lxml reads %r" % (got, per_year))
     db.close()
 
+    # README's second query: whose writing the files in unsigned/ resemble. The archive gets
+    # unsigned/anon.xml, the letters with every sender struck out (lxml), so each of its
+    # letters is unsigned; each of their neighbours outside unsigned/ counts for its own
+    # sure sender (lxml, as above), never for the file's authors or a conjectured one.
+    unsigned_archive = os.path.join(tmp, "with-unsigned")
+    os.makedirs(os.path.join(unsigned_archive, "unsigned"))
+    shutil.copy(letters, unsigned_archive)
+    anon = etree.parse(letters)
+    for action in anon.iter(TEI + "correspAction"):
+        if action.get("type") == "sent":
+            for name in action.findall(TEI + "persName"):
+                action.remove(name)
+    for author in anon.iter(TEI + "author"):
+        author.getparent().remove(author)
+    anon.write(os.path.join(unsigned_archive, "unsigned", "anon.xml"), encoding="UTF-8", xml_declaration=True)
+    store2 = os.path.join(tmp, "unsigned.sqlite")
+    mtest.run(["batch", unsigned_archive, "--store", store2, "--unit", "letter", "--quiet"])
+    mtest.run(["analyse-store", "--store", store2, "--min-tokens", "200", "--neighbours", "8"])
+    db = sqlite3.connect(store2)
+    query = sql_blocks(os.path.join(mtest.ROOT, "README.md"))[1][0]
+    cursor = db.execute(query)
+    columns = [c[0] for c in cursor.description]
+    got = {row[columns.index("author")]: row[columns.index("nearest_links")] for row in cursor}
+    run2 = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
+    expected = {}
+    for segment, neighbour in db.execute("SELECT segment, neighbour FROM neighbours WHERE run_id = ?", (run2,)):
+        if segment.startswith("anon#") and neighbour.startswith("ferry-letters#") and sure_sender[neighbour]:
+            expected[sure_sender[neighbour]] = expected.get(sure_sender[neighbour], 0) + 1
+    mtest.check(expected and got == expected, "README: links per author %r, from the neighbours and lxml %r"
+                % (got, expected))
+    db.close()
+
     # Nothing to analyse: the message says which reason holds (exit code 4, README). The
     # letters, counted with lxml, are 12 in 2 files, each far under 1,500 words even split
     # at white space; no file's header author contains "Nobody".
