@@ -10,6 +10,7 @@
 #include <unordered_set>
 
 #include "core/corpus_stream.h"
+#include "core/error.h"
 #include "store/reading_writer.h"
 #include "store/store_settings.h"
 
@@ -202,6 +203,17 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     progress.bytes_total += f.size;
   }
   const std::vector<VanishedFile> vanished = vanished_files(request, options, files, previous, summary.unlisted);
+  // A --folder with no file on disk and none in the store is most often a slip of the
+  // keyboard, which a job script would otherwise take for success. (A folder removed from
+  // the archive still has stored files, and the run removes them; a share of a small
+  // archive may be empty.)
+  if (!options.filter.folder.empty() && files.empty() && vanished.empty() && summary.unlisted.empty() &&
+      options.shard.count <= 1) {
+    throw Error(ErrorKind::nothing_selected,
+                "--folder " + options.filter.folder + ": no TEI file under the inputs lies in that folder, and the " +
+                    "store holds none from it; nothing read or recorded (is the folder spelled as below the input " +
+                    "folder, e.g. 1850/letters?)");
+  }
   progress.files_done = counters.files_unchanged;
   const auto report_failing = [&] {
     for (auto& [path, message] : failing) summary.failures.push_back(BatchFailure{path, message});

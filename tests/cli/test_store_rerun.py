@@ -18,6 +18,7 @@ for the paths relative to the folder named.
 """
 import os
 import re
+import shutil
 import subprocess
 import sys
 import tempfile
@@ -199,6 +200,28 @@ with tempfile.TemporaryDirectory() as tmp:
             expected = os.path.relpath(path, spelling).replace(os.sep, "/")
             mtest.check(relative == expected, "folder spelled %r: %s stored as %r, os.path.relpath has %r"
                         % (spelling, path, relative, expected))
+
+    # A --folder that names nothing on disk and nothing stored: exit 4 (README: nothing
+    # selected), the folder named, and the store's bytes as they were (SHA-256): no run.
+    folder_store = os.path.join(tmp, "folder.sqlite")
+    mtest.run(["batch", nested, "--store", folder_store, "--unit", "speaker", "--quiet"])
+    before = storecheck.sha256_of(folder_store)
+    proc = mtest.run(["batch", nested, "--store", folder_store, "--unit", "speaker", "--quiet", "--folder",
+                      "no-such-folder"], check=False)
+    mtest.check(proc.returncode == 4 and "--folder no-such-folder" in proc.stderr,
+                "a --folder naming nothing: exit %d, %s" % (proc.returncode, proc.stderr))
+    mtest.check(storecheck.sha256_of(folder_store) == before, "a --folder naming nothing changed the store")
+    # A folder removed from the archive, with files stored from it: the run removes them (exit 0).
+    sub = sorted(d for d in os.listdir(nested) if os.path.isdir(os.path.join(nested, d)))[0]
+    in_sub = len([f for f in os.listdir(os.path.join(nested, sub)) if f.endswith(".xml")])
+    moved = os.path.join(tmp, "moved-away")
+    shutil.move(os.path.join(nested, sub), moved)
+    proc = mtest.run(["batch", nested, "--store", folder_store, "--unit", "speaker", "--quiet", "--folder", sub],
+                     check=False)
+    rows = storecheck.logical_tables(folder_store)["files"]
+    mtest.check(proc.returncode == 0 and in_sub > 0 and len(rows) == 3 - in_sub,
+                "a removed folder's %d file(s) left the store: exit %d, %d rows" % (in_sub, proc.returncode, len(rows)))
+    shutil.move(moved, os.path.join(nested, sub))
 
     # --list-settings: each settings the store holds, the files read under it (counted here
     # with SQL), and whether this manicule would reuse its counts. Counts keyed otherwise
