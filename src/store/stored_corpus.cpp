@@ -57,12 +57,20 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
   while (files.step()) {
     ++out.files_in_store;
     std::string path = files.text_at(0);
-    if (files.is_null(3)) {
+    // The folder first: a file outside it is no concern of this analysis, read or not,
+    // failed or not (its counts would otherwise be reported as missing from a sub-corpus
+    // it was never part of).
+    if (!in_folder(filter, path, files.text_at(1))) {
+      ++out.files_filtered_out;
+      continue;
+    }
+    if (files.is_null(3)) {  // not read with these settings: its header may yet pass
       ++out.files_not_read;
       continue;
     }
     if (files.text_at(3) == "failed") {
-      ++out.files_failed;
+      // A file that failed has no header, so no author, title, year or language to pass.
+      ++(filter.selects_by_header() ? out.files_filtered_out : out.files_failed);
       continue;
     }
     FileMetadata m{files.text_at(4), files.text_at(5), files.text_at(6), static_cast<int>(files.int64_at(7)),
@@ -70,7 +78,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     // Language and years are tested per segment (a letter may be in another language than
     // its file, or dated apart from it); here a file is passed by when none of its
     // segments can be in the years asked: neither the file's year nor any of its own.
-    bool chosen = in_folder(filter, path, files.text_at(1)) && header_matches(filter, m);
+    bool chosen = header_matches(filter, m);
     if (chosen && !filter.year_matches(m.year)) {
       const int first_own = static_cast<int>(files.int64_at(9)), last_own = static_cast<int>(files.int64_at(10));
       if (!filter.years_overlap(first_own, last_own)) {

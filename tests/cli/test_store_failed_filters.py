@@ -1,0 +1,73 @@
+"""Archive store: files stored as failed, and the sub-corpus filters of analyse-store.
+
+An archive of the invented ferry letters in a/, beside a malformed file and an XHTML file
+in b/. Which files fail is decided here by lxml (a file that does not parse, or whose root
+is not TEI P5's <TEI> or <teiCorpus>, TEI P5 ch. 4 and 15.1); which files a folder holds,
+by os.walk. A failed file has no header, so it can pass no author, title, year or language
+filter, and lies in one folder only: analyse-store counts it as left out only where the
+sub-corpus could have held it, and when nothing passes says so instead of advising to run
+batch again.
+"""
+import os
+import shutil
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+from lxml import etree  # noqa: E402
+
+TEI_ROOTS = {"{http://www.tei-c.org/ns/1.0}TEI", "{http://www.tei-c.org/ns/1.0}teiCorpus"}
+
+
+def fails_by_lxml(path):
+    try:
+        return etree.parse(path).getroot().tag not in TEI_ROOTS
+    except etree.XMLSyntaxError:
+        return True
+
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    os.makedirs(os.path.join(archive, "a"))
+    os.makedirs(os.path.join(archive, "b"))
+    shutil.copy(os.path.join(mtest.ROOT, "examples", "ferry-letters.xml"), os.path.join(archive, "a"))
+    with open(os.path.join(mtest.ROOT, "examples", "ferry-letters.xml"), encoding="utf-8") as f:
+        text = f.read()
+    with open(os.path.join(archive, "b", "broken.xml"), "w", encoding="utf-8") as f:
+        f.write(text[: len(text) // 2])  # cut in the middle of the body
+    with open(os.path.join(archive, "b", "notes.xml"), "w", encoding="utf-8") as f:
+        f.write('<html xmlns="http://www.w3.org/1999/xhtml"><body><p>Shelf list</p></body></html>\n')
+
+    on_disk = sorted(os.path.join(d, n) for d, _, names in os.walk(archive) for n in names if n.endswith(".xml"))
+    failing = [p for p in on_disk if fails_by_lxml(p)]
+    failing_in = {folder: sum(1 for p in failing if os.path.basename(os.path.dirname(p)) == folder)
+                  for folder in ("a", "b")}
+    mtest.check(len(on_disk) == 3 and failing_in == {"a": 0, "b": 2}, "lxml: %r fail of %r" % (failing, on_disk))
+
+    store = os.path.join(tmp, "store.sqlite")
+    proc = mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"], check=False)
+    mtest.check(proc.returncode == 1, "batch with failing files exited %d (1 expected)" % proc.returncode)
+
+    def analyse(*extra):
+        return mtest.run(["analyse-store", "--store", store, "--min-tokens", "200", "--quiet"] + list(extra),
+                         check=False)
+
+    # The whole archive: both failing files are left out, and said to be.
+    proc = analyse()
+    mtest.check(proc.returncode == 0 and "%d file(s) stored as failed" % len(failing) in proc.stderr,
+                "whole archive: exit %d, %s" % (proc.returncode, proc.stderr))
+    # A folder without failing files: none is said to be left out of it.
+    proc = analyse("--folder", "a")
+    mtest.check(proc.returncode == 0 and failing_in["a"] == 0 and "stored as failed" not in proc.stderr,
+                "--folder a: exit %d, %s" % (proc.returncode, proc.stderr))
+    # Filters that nothing passes: exit 4 (nothing selected), the filter named, no advice
+    # to read the files again (they were read).
+    for extra in (["--folder", "no-such-folder"], ["--author", "Nobody Here"], ["--title", "No such title"],
+                  ["--years", "1500-1501"]):
+        proc = analyse(*extra)
+        expected = "none of the %d stored file(s) passes the filter" % len(on_disk)
+        mtest.check(proc.returncode == 4 and expected in proc.stderr and "run batch" not in proc.stderr,
+                    "%s: exit %d, %s" % (" ".join(extra), proc.returncode, proc.stderr))
+
+mtest.done()
