@@ -3,6 +3,8 @@
 #include <filesystem>
 #include <iostream>
 #include <memory>
+#include <set>
+#include <string>
 
 #include "cli/commands.h"
 #include "cli/store_report.h"
@@ -26,10 +28,13 @@ CommandRunner add_merge_command(CLI::App& app) {
     for (const auto& in : *inputs) store::open_store(in, false);
     const bool created = !std::filesystem::exists(*out);
     auto target = store::open_store(*out, true);
+    std::set<std::string> held_before;  // OUT's files before the merge
+    if (!created) held_before = store::stored_file_paths(*target);
     try {
       for (const auto& in : *inputs) {
         auto source = store::open_store(in, false);
         report_merge(std::cout, in, store::merge_store(*target, *source));
+        for (const auto& path : store::stored_file_paths(*source)) held_before.erase(path);
       }
     } catch (...) {
       // Each input is merged in one transaction, so an existing output keeps what it had
@@ -40,6 +45,13 @@ CommandRunner add_merge_command(CLI::App& app) {
       }
       throw;
     }
+    // A file deleted or renamed since an earlier merge is gone from the shares but not
+    // from OUT: merge adds and updates, it never removes, so the curator is told.
+    if (!held_before.empty())
+      std::cerr << "manicule: note: " << *out << " holds " << held_before.size()
+                << " file(s) that none of the merged stores has, such as " << *held_before.begin()
+                << ": merge adds and updates files but never removes one; to hold just what the inputs hold, "
+                   "merge them into a new store (docs/store.md)\n";
     return 0;
   };
 }

@@ -115,4 +115,11 @@ MergeSummary merge_store(Database& out, Database& input) {
   return summary;
 }
 
+std::set<std::string> stored_file_paths(Database& db) {
+  std::set<std::string> paths;
+  Statement files = db.prepare("SELECT path FROM files");
+  while (files.step()) paths.insert(files.text_at(0));
+  return paths;
+}
+
 }  // namespace manicule::store

@@ -7,6 +7,7 @@
 // simply be run again.
 #pragma once
 #include <cstddef>
+#include <set>
 #include <string>
 
 #include "store/sqlite_db.h"
@@ -23,5 +24,9 @@ struct MergeSummary {
 
 // Merges the store at `input_path` into `out` (both opened with open_store).
 MergeSummary merge_store(Database& out, Database& input);
+
+// The paths of the files a store holds: merge never removes one, so the command line
+// names those of OUT that no input holds (left from an earlier merge of other shares).
+std::set<std::string> stored_file_paths(Database& db);
 
 }  // namespace manicule::store

@@ -146,6 +146,37 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check(proc.returncode == 2 and says in proc.stderr and not os.path.exists(refused),
                     "--shard %r: exit %d, %s" % (bad, proc.returncode, proc.stderr))
 
+    # A play deleted from the archive after a merge: each share's batch drops it, but a
+    # second merge into the same OUT keeps it (merge never removes) and names it on stderr;
+    # merged into a new store, as the job script does, the shares give what one run over
+    # the archive now gives (os.walk says which files are left).
+    before_delete = os.path.join(tmp, "before-delete")
+    shutil.copytree(archive, before_delete)
+    second = sorted(os.path.join(d, n) for d, _, names in os.walk(before_delete) for n in names)[0]
+    shares = []
+    for k in (1, 2, 3):
+        shard = os.path.join(tmp, "bd-shard%d.sqlite" % k)
+        mtest.run(["batch", before_delete, "--store", shard, "--shard", "%d/3" % k] + common)
+        shares.append(shard)
+    target = os.path.join(tmp, "target.sqlite")
+    mtest.run(["merge", target] + shares)
+    os.remove(second)
+    for k in (1, 2, 3):
+        mtest.run(["batch", before_delete, "--store", shares[k - 1], "--shard", "%d/3" % k] + common)
+    proc = mtest.run(["merge", target] + shares)
+    mtest.check("holds 1 file(s) that none of the merged stores has, such as %s" % second in proc.stderr,
+                "a merge keeping a deleted file does not say so: %s" % proc.stderr)
+    fresh_merge = os.path.join(tmp, "fresh-merge.sqlite")
+    proc = mtest.run(["merge", fresh_merge] + shares)
+    single = os.path.join(tmp, "single.sqlite")
+    mtest.run(["batch", before_delete, "--store", single] + common)
+    a, b = storecheck.logical_tables(single), storecheck.logical_tables(fresh_merge)
+    left = sorted(os.path.join(d, n) for d, _, names in os.walk(before_delete) for n in names)
+    # (The contents read stay in the shares, as in any store: docs/store.md; files are compared.)
+    mtest.check(sorted(r[0] for r in b["files"]) == left and a["files"] == b["files"]
+                and "none of the merged" not in proc.stderr,
+                "shares merged into a new store after a deletion: %r against %r" % (b["files"], left))
+
     # A store that cannot be opened says why (exit 5, the output could not be written).
     missing_folder = os.path.join(tmp, "no-such-folder")
     mtest.check(not os.path.exists(missing_folder), "the missing folder exists")
