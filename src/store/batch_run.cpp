@@ -13,6 +13,7 @@
 #include "core/error.h"
 #include "store/reading_writer.h"
 #include "store/store_settings.h"
+#include "store/stored_failure.h"
 
 namespace manicule::store {
 
@@ -196,7 +197,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     if (!options.verify_hashes && p != previous.end() && p->second.size == f.size &&
         p->second.mtime_ns == f.mtime_ns && p->second.read) {
       ++counters.files_unchanged;
-      if (p->second.failed) failing[f.path] = p->second.error;
+      if (p->second.failed) failing[f.path] = failure_for(p->second.error, f.path);
       continue;
     }
     to_open.push_back(i);
@@ -294,7 +295,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
         writer.write_file(f, reading.sha256, "");
         ++counters.files_hashed;
         auto r = readings.find(reading.sha256);
-        if (r != readings.end() && r->second.failed) failing[f.path] = r->second.error;
+        if (r != readings.end() && r->second.failed) failing[f.path] = failure_for(r->second.error, f.path);
         outcome = FileOutcome::hashed;
       } else {
         ++counters.files_read;

@@ -8,6 +8,7 @@
 #include "core/utf8_text.h"
 #include "store/count_blob.h"
 #include "store/store_schema.h"
+#include "store/stored_failure.h"
 
 namespace manicule::store {
 
@@ -91,7 +92,8 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
   }
   auto& q = insert_reading_;
   q.bind(1, settings_id_).bind(2, r.sha256).bind(3, r.bytes).bind(4, r.failed ? "failed" : "ok");
-  if (r.failed) q.bind(5, r.failure.message).bind(6, r.failure.kind); else q.bind_null(5).bind_null(6);
+  if (r.failed) q.bind(5, failure_to_store(r.failure.message, r.file)).bind(6, r.failure.kind);
+  else q.bind_null(5).bind_null(6);
   q.bind(7, r.metadata.title).bind(8, r.metadata.author).bind(9, r.metadata.date);
   if (r.metadata.year) q.bind(10, r.metadata.year); else q.bind_null(10);
   q.bind(11, r.metadata.language).bind(12, r.failed ? 0 : r.segments.size()).bind(13, r.failed ? 0 : tokens);

@@ -175,11 +175,14 @@ CREATE VIEW IF NOT EXISTS vocabulary AS
 
 // A file that could not be opened has no reading (no content, so no settings_id) and its
 // error in `files`; it is 'failed' all the same, so that `WHERE status = 'failed'` lists it.
+// A reading's error is kept without the path it was first read under (stored_failure.h):
+// each file gets its own path back here.
 // Written as sqlite_master keeps it (no leading line break, no semicolon), so that an
 // existing store's view is compared with it as it stands.
 constexpr const char* kFileListView = R"sql(CREATE VIEW file_list AS
   SELECT f.path, r.settings_id, COALESCE(r.status, CASE WHEN f.read_error IS NOT NULL THEN 'failed' END) AS status,
-         COALESCE(f.read_error, r.error) AS error, r.title, r.author,
+         COALESCE(f.read_error, CASE WHEN substr(r.error, 1, 1) = ':' THEN f.path || r.error ELSE r.error END) AS error,
+         r.title, r.author,
          r.date, r.year, r.language, r.segments, r.tokens, f.size, f.sha256
   FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256)sql";
 

@@ -1,7 +1,8 @@
 """Archive store: files stored as failed, and the sub-corpus filters of analyse-store.
 
 An archive of the invented ferry letters in a/, beside a malformed file and an XHTML file
-in b/. Which files fail is decided here by lxml (a file that does not parse, or whose root
+in b/. A failing file is named by its own path wherever it is reported, also when its
+content was first read under another path (a copy, a rename). Which files fail is decided here by lxml (a file that does not parse, or whose root
 is not TEI P5's <TEI> or <teiCorpus>, TEI P5 ch. 4 and 15.1); which files a folder holds,
 by os.walk. A failed file has no header, so it can pass no author, title, year or language
 filter, and lies in one folder only: analyse-store counts it as left out only where the
@@ -10,6 +11,7 @@ batch again.
 """
 import os
 import shutil
+import sqlite3
 import sys
 import tempfile
 
@@ -49,6 +51,27 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"], check=False)
     mtest.check(proc.returncode == 1, "batch with failing files exited %d (1 expected)" % proc.returncode)
 
+    # The malformed file copied into a/, the XHTML file renamed: the same contents, known to
+    # the store, under paths it has not seen. Each failing file is reported under its own
+    # path on stderr and in the file_list view (the paths on disk: os.walk).
+    shutil.copy(os.path.join(archive, "b", "broken.xml"), os.path.join(archive, "a", "broken-copy.xml"))
+    os.rename(os.path.join(archive, "b", "notes.xml"), os.path.join(archive, "b", "notes-renamed.xml"))
+    proc = mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"], check=False)
+    on_disk_now = sorted(os.path.join(d, n) for d, _, names in os.walk(archive) for n in names if n.endswith(".xml"))
+    failing_now = [p for p in on_disk_now if fails_by_lxml(p)]
+    reported = [line[len("manicule: failed: "):] for line in proc.stderr.splitlines()
+                if line.startswith("manicule: failed: ")]
+    named = sorted(next((p for p in failing_now if line.startswith(p + ":")), line) for line in reported)
+    mtest.check(proc.returncode == 1 and named == failing_now,
+                "failing files as reported: %r, lxml finds %r" % (reported, failing_now))
+    db = sqlite3.connect(store)
+    rows = db.execute("SELECT path, error FROM file_list WHERE error IS NOT NULL ORDER BY path").fetchall()
+    db.close()
+    mtest.check(sorted(p for p, _ in rows) == failing_now and all(e.startswith(p + ":") for p, e in rows),
+                "file_list's errors: %r" % rows)
+    failing = failing_now
+    on_disk = on_disk_now
+
     def analyse(*extra):
         return mtest.run(["analyse-store", "--store", store, "--min-tokens", "200", "--quiet"] + list(extra),
                          check=False)
@@ -57,9 +80,10 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = analyse()
     mtest.check(proc.returncode == 0 and "%d file(s) stored as failed" % len(failing) in proc.stderr,
                 "whole archive: exit %d, %s" % (proc.returncode, proc.stderr))
-    # A folder without failing files: none is said to be left out of it.
+    # A folder with one failing file (the copy): that one is said to be left out.
     proc = analyse("--folder", "a")
-    mtest.check(proc.returncode == 0 and failing_in["a"] == 0 and "stored as failed" not in proc.stderr,
+    in_a = sum(1 for p in failing if os.path.basename(os.path.dirname(p)) == "a")
+    mtest.check(proc.returncode == 0 and in_a == 1 and "%d file(s) stored as failed" % in_a in proc.stderr,
                 "--folder a: exit %d, %s" % (proc.returncode, proc.stderr))
     # Filters that nothing passes: exit 4 (nothing selected), the filter named, no advice
     # to read the files again (they were read).
