@@ -11,6 +11,7 @@
 
 #include "core/corpus_stream.h"
 #include "core/error.h"
+#include "store/file_stems.h"
 #include "store/reading_writer.h"
 #include "store/store_settings.h"
 #include "store/stored_failure.h"
@@ -318,11 +319,13 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     });
 
     remove_vanished(db, vanished, summary);
+    refresh_file_stems(db);
     counters.files_failed = failing.size();
     update_run(db, summary.run_id, counters);
     finish_run(db, summary.run_id, "done");
     transaction->commit();
   } catch (const BatchInterrupted&) {
+    refresh_file_stems(db);
     counters.files_failed = failing.size();
     update_run(db, summary.run_id, counters);
     finish_run(db, summary.run_id, "interrupted");

@@ -5,6 +5,7 @@
 
 #include "core/error.h"
 #include "store/count_blob.h"
+#include "store/file_stems.h"
 #include "store/store_schema.h"
 #include "store/run_log.h"
 #include "store/store_settings.h"
@@ -106,6 +107,7 @@ MergeSummary merge_store(Database& out, Database& input) {
   std::int64_t run = begin_run(out, "merge", 0, {{"input", input.path()}});
   for (const auto& settings : list_settings(input)) merge_settings(out, input, settings, run, summary);
   merge_files(out, input, summary);
+  refresh_file_stems(out);
   RunCounters counters;
   counters.files_found = summary.files_added + summary.files_updated;
   counters.files_read = 0;

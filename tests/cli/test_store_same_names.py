@@ -49,6 +49,10 @@ with tempfile.TemporaryDirectory() as tmp:
                       (run,)).fetchall()
     nearest = dict(db.execute("SELECT segment, neighbour FROM neighbours WHERE run_id = ? AND rank = 1", (run,)))
     neighbour_rows = db.execute("SELECT count(*) FROM neighbours WHERE run_id = ?", (run,)).fetchone()[0]
+    # The segment_list view names each stored segment as the analysis does, so the two join.
+    listed = db.execute("SELECT segment, path FROM segment_list").fetchall()
+    joined = db.execute("SELECT count(*) FROM segment_list s JOIN neighbours n ON n.segment = s.segment "
+                        "WHERE n.run_id = ?", (run,)).fetchone()[0]
     db.close()
 
     def expected_prefix(path):
@@ -60,6 +64,10 @@ with tempfile.TemporaryDirectory() as tmp:
     for segment, path in rows:
         mtest.check(segment.startswith(expected_prefix(path) + "#"), "segment %s of %s" % (segment, path))
     mtest.check(len({s for s, _ in rows}) == len(rows), "segment ids are not distinct")
+    for segment, path in listed:
+        mtest.check(segment.startswith(expected_prefix(path) + "#"), "segment_list: %s of %s" % (segment, path))
+    mtest.check(len({s for s, _ in listed}) == len(listed), "segment_list's ids are not distinct")
+    mtest.check(joined == neighbour_rows, "segment_list joins %d of the %d neighbour rows" % (joined, neighbour_rows))
     mtest.check(neighbour_rows == 5 * len(rows), "neighbour rows %d for %d segments" % (neighbour_rows, len(rows)))
     for segment, _ in rows:
         if segment.startswith("1850/letters#"):
