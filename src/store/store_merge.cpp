@@ -108,8 +108,15 @@ MergeSummary merge_store(Database& out, Database& input) {
   for (const auto& settings : list_settings(input)) merge_settings(out, input, settings, run, summary);
   merge_files(out, input, summary);
   refresh_file_stems(out);
+  // As a batch counts them: the files the input holds, and those among them that failed.
   RunCounters counters;
-  counters.files_found = summary.files_added + summary.files_updated;
+  Statement held = input.prepare(
+      "SELECT count(DISTINCT f.path), count(DISTINCT CASE WHEN f.read_error IS NOT NULL OR r.status = 'failed' THEN f.path END) "
+      "FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256");
+  if (held.step()) {
+    counters.files_found = static_cast<std::size_t>(held.int64_at(0));
+    counters.files_failed = static_cast<std::size_t>(held.int64_at(1));
+  }
   counters.files_read = 0;
   update_run(out, run, counters);
   finish_run(out, run, "done");

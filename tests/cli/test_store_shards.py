@@ -168,6 +168,17 @@ with tempfile.TemporaryDirectory() as tmp:
                 "a merge keeping a deleted file does not say so: %s" % proc.stderr)
     fresh_merge = os.path.join(tmp, "fresh-merge.sqlite")
     proc = mtest.run(["merge", fresh_merge] + shares)
+    # Each merge run counts the files its input holds (read with Python's sqlite3), as docs/store.md says.
+    # (The second merge into the same OUT, which adds almost nothing, is the telling one.)
+    db = sqlite3.connect(target)
+    counted = [r[0] for r in db.execute("SELECT files_found FROM runs WHERE kind = 'merge' ORDER BY run_id")][-3:]
+    db.close()
+    held = []
+    for share in shares:
+        db = sqlite3.connect(share)
+        held.append(db.execute("SELECT count(*) FROM files").fetchone()[0])
+        db.close()
+    mtest.check(counted == held, "merge runs count %r files, the inputs hold %r" % (counted, held))
     single = os.path.join(tmp, "single.sqlite")
     mtest.run(["batch", before_delete, "--store", single] + common)
     a, b = storecheck.logical_tables(single), storecheck.logical_tables(fresh_merge)
