@@ -8,7 +8,7 @@
 
 namespace manicule::cli {
 
-void AnalysisOptions::add_to(CLI::App& command, bool with_measure) {
+void AnalysisOptions::add_to(CLI::App& command, bool with_measure, bool with_neighbours) {
   command.add_option("--features", features, "what to count: word, word-ngram or char-ngram")
       ->check(CLI::IsMember({"word", "word-ngram", "char-ngram"}))
       ->capture_default_str();
@@ -26,8 +26,9 @@ void AnalysisOptions::add_to(CLI::App& command, bool with_measure) {
     std::vector<std::string> names;
     for (const auto& info : all_distance_measures()) names.emplace_back(info.name);
     command.add_option("--measure", measure, "distance measure")->check(CLI::IsMember(names))->capture_default_str();
-    command.add_option("--neighbours", neighbours, "nearest segments listed per segment")->capture_default_str();
   }
+  if (with_measure && with_neighbours)
+    command.add_option("--neighbours", neighbours, "nearest segments listed per segment")->capture_default_str();
 }
 
 void AnalysisOptions::apply_to(Request& request) const {

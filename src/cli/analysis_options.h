@@ -20,7 +20,9 @@ struct AnalysisOptions {
   std::string measure = "cosine-delta";
   std::size_t neighbours = 5;
 
-  void add_to(CLI::App& command, bool with_measure = true);
+  // --neighbours only for commands whose output lists nearest segments (an option that
+  // changes nothing would mislead).
+  void add_to(CLI::App& command, bool with_measure = true, bool with_neighbours = true);
   // Sets the analysis fields of `request`; throws Error(usage) for bad values.
   void apply_to(Request& request) const;
 };

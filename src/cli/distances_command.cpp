@@ -40,7 +40,7 @@ nlohmann::json distances_json(const Analysis& analysis) {
 CommandRunner add_distances_command(CLI::App& app) {
   auto* command = app.add_subcommand("distances", "Measure the distance between every two segments");
   auto options = std::make_shared<MeasureCommandOptions>();
-  options->add_to(*command, {"tsv", "json"}, true);
+  options->add_to(*command, {"tsv", "json"}, true, true);
   return [=]() -> int {
     Request request = options->to_request();
     request.compute_distances = true;

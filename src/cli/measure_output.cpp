@@ -10,9 +10,10 @@
 
 namespace manicule::cli {
 
-void MeasureCommandOptions::add_to(CLI::App& command, const std::vector<std::string>& formats, bool with_measure) {
+void MeasureCommandOptions::add_to(CLI::App& command, const std::vector<std::string>& formats, bool with_measure,
+                                   bool with_neighbours) {
   selection.add_to(command);
-  analysis.add_to(command, with_measure);
+  analysis.add_to(command, with_measure, with_neighbours);
   format = formats.front();
   std::string names;
   for (const auto& f : formats) names += (names.empty() ? "" : ", ") + f;

@@ -26,8 +26,9 @@ struct MeasureCommandOptions {
   std::string output;  // "" or "-": standard output
 
   // Adds the selection and analysis options, --format (first of `formats` is the
-  // default) and --output.
-  void add_to(CLI::App& command, const std::vector<std::string>& formats, bool with_measure);
+  // default) and --output; --neighbours only where the output lists nearest segments.
+  void add_to(CLI::App& command, const std::vector<std::string>& formats, bool with_measure,
+              bool with_neighbours = false);
   Request to_request() const;
 };
 

@@ -257,12 +257,18 @@ for args, option in ((["attribute", "--resamples", "-3"], "--resamples"),
 # naming both), not passed by in silence: --backup without --in-place (the edition is not
 # overwritten, so nothing is backed up), annotate's --candidate without --verify, map
 # --components 0 (two were computed all the same), evaluate --table verification without
-# --verification (an empty table, exit 0). Nothing is written.
+# --verification (an empty table, exit 0), --neighbours where no nearest segments are
+# listed (attribute, verify, evaluate, tree). Nothing is written.
 out = os.path.join(tmp, "never-written.xml")
 for args, named in ((["annotate", "--output", out, "--backup"], ("--backup", "--in-place")),
                     (["annotate", "--output", out, "--candidate", "#p-pellow"], ("--candidate", "--verify")),
                     (["map", "--components", "0"], ("--components",)),
-                    (["evaluate", "--table", "verification"], ("--table", "--verification"))):
+                    (["evaluate", "--table", "verification"], ("--table", "--verification")),
+                    # --neighbours where no nearest segments are listed (it was offered, and did nothing)
+                    (["attribute", "--neighbours", "1"], ("--neighbours",)),
+                    (["verify", "--neighbours", "1"], ("--neighbours",)),
+                    (["evaluate", "--neighbours", "1"], ("--neighbours",)),
+                    (["tree", "--neighbours", "1"], ("--neighbours",))):
     p = subprocess.run([mtest.BIN] + args + ["--unit", "letter", "--min-tokens", "200", letters],
                        capture_output=True, text=True, timeout=120)
     mtest.check(p.returncode == 2 and all(n in p.stderr for n in named) and p.stdout == "",
