@@ -90,6 +90,14 @@ mtest.check(all("seed" not in v for v in doc["verifications"]), "a verification 
 # its own sender and against the nearest other one (docs/attribution.md).
 known = sum(1 for who in letter_senders(LETTERS, "ferry-letters").values() if who)
 counts = "%d same-author and %d different-author" % (known, known)
+# Each problem's impostors are the other sure senders (lxml): 2, fewer than the 10 a round
+# (README, verify --help), so every verification warns that its rivals are few.
+senders = set(who for who in letter_senders(LETTERS, "ferry-letters").values() if who)
+for v in doc["verifications"]:
+    rivals = len(senders - {v["candidate"]})
+    mtest.check(v["impostor_pool"] == rivals and rivals < 10, "impostor pool %r, lxml %d" % (v["impostor_pool"], rivals))
+    mtest.check(any(w.startswith("only %d impostor(s) to draw from" % rivals) for w in v["warnings"]),
+                "few impostors not warned about: %r" % v["warnings"])
 for v in doc["verifications"]:
     said = [w for w in v["warnings"] if "band is not calibrated" in w]
     mtest.check(len(said) == 1 and counts in said[0]
