@@ -1,6 +1,7 @@
 #include "attribution/evaluation.h"
 
 #include <map>
+#include <set>
 
 #include "attribution/attribute.h"
 #include "attribution/candidate_ranking.h"
@@ -83,8 +84,21 @@ VerificationEvaluation cross_fitted(const std::vector<ImpostorProblem>& problems
     return b.calibrated ? "[" + std::to_string(b.low).substr(0, 4) + ", " + std::to_string(b.high).substr(0, 4) + "]"
                         : std::string("not calibrated (0.5)");
   };
-  e.calibration = "two halves of the files drawn at random; each half read with the band calibrated on the other (" +
-                  band_text(bands[0]) + " and " + band_text(bands[1]) + ")";
+  // Said as it happened: with one file, or too few problems, there is one half or no band.
+  if (problems.empty()) {
+    e.calibration = "no problems to cross-fit";
+  } else if (halves[0].empty() || halves[1].empty()) {
+    std::set<std::size_t> files;
+    for (const auto& p : problems) files.insert(p.group);
+    e.calibration = "not cross-fitted: the halves are drawn by file, and the problems' " + std::to_string(files.size()) +
+                    " file(s) all fell into one; scores read against 0.5";
+  }
+  else if (!bands[0].calibrated && !bands[1].calibrated)
+    e.calibration = "not calibrated: neither random half of the files had enough known problems for a band; "
+                    "scores read against 0.5";
+  else
+    e.calibration = "two halves of the files drawn at random; each half read with the band calibrated on the other (" +
+                    band_text(bands[0]) + " and " + band_text(bands[1]) + ")";
   return e;
 }
 

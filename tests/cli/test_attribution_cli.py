@@ -147,6 +147,12 @@ pairs = [v for v in doc["evaluation"]["verification"] if v["problems"] == "segme
 mtest.check(pairs["same"] + pairs["different"] == 0 and pairs["auc"] is None and pairs["raw_auc"] is None,
             "AUC over no pairs must be null: %r" % {k: pairs[k] for k in ("same", "different", "auc")})
 mtest.check(any("AUC needs both" in w for w in doc["evaluation"]["warnings"]), "no warning for undefined AUC")
+# The halves of the cross-fitting are drawn by file: one edition gives one half, and the
+# description says that nothing was cross-fitted or calibrated (it described two bands).
+doc = strict_json(mtest.run(["evaluate", "--format", "json", "--verification"] + BASE).stdout)
+held_out = [v for v in doc["evaluation"]["verification"] if v["problems"] != "segment pairs"][0]
+mtest.check(held_out["calibration"].startswith("not cross-fitted") and "1 file(s)" in held_out["calibration"],
+            "one edition's cross-fitting described as: %r" % held_out["calibration"])
 # The band's known problems hold out a whole file when every candidate has known texts in
 # two files (docs/attribution.md, "The undecided band"): one edition holds each sender's
 # letters in one file, so single letters are held out; add a second edition of the same
