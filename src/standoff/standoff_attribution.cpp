@@ -73,7 +73,7 @@ void StandoffBuilder::add_attributions(Parts& parts) const {
     parts.values.add(std::move(fs));
 
     XmlNode a = annotation(ids_.claim(prefix + "ann-attr-" + key), target_.reference(r.segment), "assessing",
-                           attribution_note(analysis_, r, label_from_here(r.segment)));
+                           attribution_note(analysis_, r, label_from_here(r.segment), candidate_names_));
     a.add_text_element("note", kAttributionCaution, {{"type", "caution"}, {"xml:lang", "en"}});
     if (!r.candidates.empty()) {
       const CandidateDistance& first = r.candidates.front();
@@ -121,7 +121,7 @@ void StandoffBuilder::add_verifications(Parts& parts) const {
     // assesses (tei-conventions.md section 6).
     const char* motivation = r.decision == "undecided" ? "assessing" : "classifying";
     XmlNode a = annotation(ids_.claim(prefix + "ann-verif-" + key), target_.reference(r.segment), motivation,
-                           verification_note(analysis_, r, label_from_here(r.segment)));
+                           verification_note(analysis_, r, label_from_here(r.segment), candidate_names_));
     a.add_text_element("note", kAttributionCaution, {{"type", "caution"}, {"xml:lang", "en"}});
     a.add(XmlNode::element("ptr", {{"type", "result"}, {"target", "#" + value_id}}));
     parts.annotations.add(std::move(a));

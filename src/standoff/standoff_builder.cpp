@@ -30,6 +30,7 @@ StandoffBuilder::StandoffBuilder(const Analysis& analysis, const StandoffTarget&
   pca_summary_id_ = ids_.claim(p + "pca");
   for (const SegmentSummary& s : analysis.segments) ++label_count_[s.label.empty() ? s.local_id : s.label];
   for (std::size_t m : target.members) member_files_.insert(analysis.segments[m].file);
+  candidate_names_ = candidate_names(analysis);
   member_set_.insert(target.members.begin(), target.members.end());
   row_of_.assign(analysis.segments.size(), -1);
   if (analysis.distances)
@@ -62,12 +63,14 @@ XmlNode StandoffBuilder::annotation(const std::string& id, const std::string& ta
   return a;
 }
 
-// The segment's label; with its local id where several segments share the label (the
-// letters of one sender), and with its file where it lies in another edition.
+// The segment's label; with its file where it lies in another edition. A letter always
+// with its id and whether its sender is only conjectured (letter_word); another segment
+// with its local id where several segments share the label.
 std::string StandoffBuilder::label_from_here(std::size_t segment) const {
   const SegmentSummary& s = analysis_.segments[segment];
   std::string label = s.label.empty() ? s.local_id : s.label;
-  if (label_count_.at(label) > 1 && label != s.local_id) label = s.local_id + " (" + label + ")";
+  if (s.unit == "letter") label = letter_word(s);
+  else if (label_count_.at(label) > 1 && label != s.local_id) label = s.local_id + " (" + label + ")";
   return member_files_.count(s.file) ? label : label + " in " + s.id.substr(0, s.id.find('#'));
 }
 

@@ -95,6 +95,7 @@ class StandoffBuilder {
   std::vector<long> row_of_;  // segment -> row in the distance matrix, -1 if not measured
   std::vector<long> pca_row_of_;
   std::map<std::string, int> label_count_;  // how many segments bear each label
+  std::map<std::string, std::string> candidate_names_;  // candidate_names(): "#p-pellow" -> its name
   std::set<std::string> member_files_;
   std::set<std::size_t> member_set_;
   std::string standoff_id_, application_id_, annotations_id_, joins_id_, links_id_, values_id_;

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cstdio>
+#include <map>
 
 #include "profile/feature_spec.h"
 
@@ -22,7 +23,71 @@ std::string k_nearest(const Analysis& analysis) {
   return std::to_string(k);
 }
 
+// A result's warnings come from attribution/size_warnings.cpp, which quotes a candidate by
+// its label ("candidate '#p-pellow' has little text"); the note names it as the rest of
+// the note does. The fs keeps the warnings as they were computed.
+std::string warning_naming(std::string warning, const CandidateNames& names, const std::string& candidate) {
+  const std::string quoted = "candidate '" + candidate + "'";
+  const std::string named = candidate_word(names, candidate);
+  if (named == candidate) return warning;
+  for (std::size_t at = warning.find(quoted); at != std::string::npos; at = warning.find(quoted, at + 1))
+    warning.replace(at, quoted.size(), "candidate " + named);
+  return warning;
+}
+
+std::string warnings_sentences(std::vector<std::string> warnings, const CandidateNames& names,
+                               const std::vector<std::string>& candidates) {
+  std::string out;
+  for (auto& w : warnings) {
+    for (const auto& c : candidates) w = warning_naming(w, names, c);
+    out += " Warning: " + w + (w.empty() || w.back() == '.' ? "" : ".");
+  }
+  return out;
+}
+
 }  // namespace
+
+// A letter's label is its sender, who may have written other letters or none (or be a
+// placeholder such as "Unknown"): its id always goes with the name so that an editor can
+// find the letter, and a sender the edition only conjectures (TEI P5 @cert below high,
+// att.global.responsibility) is marked so, never shown as known. The rule of the plots
+// (export/segment_groups.cpp).
+std::string letter_word(const SegmentSummary& s) {
+  const bool conjectured = s.authorship == Authorship::conjectured;
+  if (s.label.empty() || s.label == s.local_id) return s.local_id + (conjectured ? " (sender conjectured)" : "");
+  return s.label + " (" + s.local_id + (conjectured ? ", conjectured)" : ")");
+}
+
+// Only pointers get a name: any other candidate label (an author's name from a titleStmt,
+// a speaker "play#anna", a labels file's word) already is what people call it. The name
+// most of the author's letters of sure sender give, else of any sender.
+CandidateNames candidate_names(const Analysis& analysis) {
+  std::map<std::string, std::map<std::string, std::size_t>> sure, any;
+  for (const SegmentSummary& s : analysis.segments) {
+    if (s.author.size() < 2 || s.author[0] != '#' || s.unit == "speaker") continue;
+    if (s.label.empty() || s.label == s.local_id || s.label == s.author) continue;
+    ++any[s.author][s.label];
+    if (s.authorship == Authorship::known) ++sure[s.author][s.label];
+  }
+  CandidateNames names;
+  for (const auto& [author, votes] : any) {
+    auto known = sure.find(author);
+    const auto& counted = known != sure.end() ? known->second : votes;
+    std::string best;
+    std::size_t most = 0;
+    for (const auto& [label, count] : counted)
+      if (count > most) best = label, most = count;
+    names[author] = best;
+  }
+  return names;
+}
+
+// The pointer stays beside the name, at every mention: it is what the fs and the candidate
+// ptr carry, and a bare name would read like a letter's sender.
+std::string candidate_word(const CandidateNames& names, const std::string& candidate) {
+  auto it = names.find(candidate);
+  return it == names.end() || it->second.empty() ? candidate : it->second + " (" + candidate + ")";
+}
 
 std::string authorship_word(Authorship a) {
   return a == Authorship::known ? "known" : a == Authorship::conjectured ? "conjectured" : "unknown";
@@ -118,31 +183,41 @@ std::string run_measure_word(const Analysis& analysis) {
   return m.substr(0, m.find(" ("));
 }
 
-std::string attribution_note(const Analysis& analysis, const AttributionResult& result, const std::string& label) {
+std::string attribution_note(const Analysis& analysis, const AttributionResult& result, const std::string& label,
+                             const CandidateNames& names) {
   const SegmentSummary& s = analysis.segments[result.segment];
+  // "(301 words)" straight after "Kit Dunnock (L12, conjectured)" would read as a second
+  // name; other units' notes stay as they were.
+  const std::string words = std::to_string(s.tokens) + " words";
+  const bool bracketed = s.unit == "letter" && !label.empty() && label.back() == ')';
   std::string note = "Candidates for the " + (s.unit == "whole" ? std::string("text") : s.unit) + " " + label +
-                     " (" + std::to_string(s.tokens) + " words), nearest first by " + run_measure_word(analysis) +
-                     " (" + result.rule + "):";
-  for (std::size_t i = 0; i < result.candidates.size(); ++i)
-    note += (i ? ", " : " ") + result.candidates[i].candidate + " " + rounded(result.candidates[i].distance);
+                     (bracketed ? ", " + words : " (" + words + ")") + ", nearest first by " +
+                     run_measure_word(analysis) + " (" + result.rule + "):";
+  std::vector<std::string> candidates;
+  for (std::size_t i = 0; i < result.candidates.size(); ++i) {
+    candidates.push_back(result.candidates[i].candidate);
+    note += (i ? ", " : " ") + candidate_word(names, result.candidates[i].candidate) + " " +
+            rounded(result.candidates[i].distance);
+  }
   note += ".";
   if (result.candidates.size() > 1) note += " Margin between the first two: " + rounded(result.margin) + ".";
   if (result.resamples > 0 && !result.candidates.empty())
-    note += " " + result.candidates.front().candidate + " first in " + rounded(100 * result.stability, "%.0f") +
-            "% of " + std::to_string(result.resamples) + " random subsets of " +
-            rounded(100 * result.resample_share, "%.0f") + "% of the features.";
+    note += " " + candidate_word(names, result.candidates.front().candidate) + " first in " +
+            rounded(100 * result.stability, "%.0f") + "% of " + std::to_string(result.resamples) +
+            " random subsets of " + rounded(100 * result.resample_share, "%.0f") + "% of the features.";
   if (!result.edition_conjecture.empty())
-    note += " The edition conjectures " + result.edition_conjecture + ".";
-  for (const auto& w : result.warnings) note += " Warning: " + w + (w.empty() || w.back() == '.' ? "" : ".");
-  return note;
+    note += " The edition conjectures " + candidate_word(names, result.edition_conjecture) + ".";
+  return note + warnings_sentences(result.warnings, names, candidates);
 }
 
-std::string verification_note(const Analysis& analysis, const VerificationResult& result, const std::string& label) {
+std::string verification_note(const Analysis& analysis, const VerificationResult& result, const std::string& label,
+                              const CandidateNames& names) {
   const SegmentSummary& s = analysis.segments[result.segment];
   std::string note = "General Impostors verification (Koppel & Winter 2014) of the " +
                      (s.unit == "whole" ? std::string("text") : s.unit) + " " + label + " against " +
-                     result.candidate + ": score " + rounded(result.score, "%.2f") + " (share of " +
-                     std::to_string(result.iterations) + " rounds in which " + result.candidate +
+                     candidate_word(names, result.candidate) + ": score " + rounded(result.score, "%.2f") +
+                     " (share of " + std::to_string(result.iterations) + " rounds in which " +
+                     candidate_word(names, result.candidate) +
                      " was nearer than every impostor, " +
                      std::to_string(std::min(result.impostors_per_iteration, result.impostor_pool)) +
                      " drawn each round from " + std::to_string(result.impostor_pool) + " impostor(s), other authors " +
@@ -154,8 +229,7 @@ std::string verification_note(const Analysis& analysis, const VerificationResult
   else if (analysis.verification_band)
     note += " read against 0.5 (too few labelled segments to calibrate an undecided band)";
   note += ".";
-  for (const auto& w : result.warnings) note += " Warning: " + w + (w.empty() || w.back() == '.' ? "" : ".");
-  return note;
+  return note + warnings_sentences(result.warnings, names, {result.candidate});
 }
 
 }  // namespace manicule

@@ -3,6 +3,7 @@
 // the exact values).
 #pragma once
 #include <cstddef>
+#include <map>
 #include <string>
 #include <utility>
 #include <vector>
@@ -12,6 +13,16 @@
 namespace manicule {
 
 std::string authorship_word(Authorship a);  // known | conjectured | unknown
+
+// How a note names a letter: "Ambrose Pellow (L01)", "Kit Dunnock (L12, conjectured)", "L07".
+std::string letter_word(const SegmentSummary& letter);
+
+// The names the edition gives the candidates that are pointers ("#p-pellow" -> "Ambrose
+// Pellow"), from the labels of the segments with that author.
+using CandidateNames = std::map<std::string, std::string>;
+CandidateNames candidate_names(const Analysis& analysis);
+// "Ambrose Pellow (#p-pellow)", or the candidate as it is where no name is known.
+std::string candidate_word(const CandidateNames& names, const std::string& candidate);
 
 // "Style profile of Dietrich (speaker): 4812 words, 1203 different. Nearest in style by
 // cosine-delta: Erich 0.831, ..." or why the segment was not measured.
@@ -24,14 +35,17 @@ std::string distances_note(const Analysis& analysis, bool all_pairs, std::size_t
 // The components and how much of the variance each explains.
 std::string pca_note(const Analysis& analysis);
 
-// "Candidates for the letter L12, nearest first by cosine-delta (weighted centroid): Dunnock
-// 0.612, Pellow 0.701, ...; margin 0.089; Dunnock first in 93% of 100 resampled feature
-// sets." plus the size warnings.
-std::string attribution_note(const Analysis& analysis, const AttributionResult& result, const std::string& label);
+// "Candidates for the letter Kit Dunnock (L12, conjectured), 301 words, nearest first by
+// cosine-delta (weighted centroid): Kit Dunnock (#p-dunnock) 0.866, Ambrose Pellow
+// (#p-pellow) 1.223, ... Margin ...; Kit Dunnock first in 100% of 100 random subsets ..."
+// plus the size warnings.
+std::string attribution_note(const Analysis& analysis, const AttributionResult& result, const std::string& label,
+                             const CandidateNames& names);
 
-// "General Impostors: Dunnock against 11 impostors, score 0.97 (undecided band 0.40-0.90):
-// same author." plus the warnings.
-std::string verification_note(const Analysis& analysis, const VerificationResult& result, const std::string& label);
+// "General Impostors verification ... of the letter Unknown (L10) against Cornelius
+// Abthorpe (#p-abthorpe): score 1.00 ...; same author ..." plus the warnings.
+std::string verification_note(const Analysis& analysis, const VerificationResult& result, const std::string& label,
+                              const CandidateNames& names);
 
 // The measure's user name from the run's parameters ("cosine-delta"), with or without
 // a distance matrix.
