@@ -191,11 +191,17 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
       return relative_uri(document, e.document_path) + "#" + segment_ids[s].join;
     };
   };
-  auto inputs_from = [&](const std::string& document) {
+  // Each edition the results point into, as seen from `document`; the edition written
+  // (`self`, an index into `open`) is "this document": its results point at its own ids,
+  // and a path to its source (another file when --output copies it) would name the wrong one.
+  constexpr std::size_t kNone = static_cast<std::size_t>(-1);
+  auto inputs_from = [&](const std::string& document, std::size_t self) {
     std::vector<std::string> out;
-    for (const Edition& e : open)
-      out.push_back(relative_uri(document, e.snapshot->path) + " (SHA-256 " + e.source_sha256 +
-                    (separate ? "" : ", without manicule's additions") + ")");
+    for (std::size_t k = 0; k < open.size(); ++k) {
+      const Edition& e = open[k];
+      out.push_back((k == self ? std::string("this document") : relative_uri(document, e.snapshot->path)) +
+                    " (SHA-256 " + e.source_sha256 + (separate ? "" : ", without manicule's additions") + ")");
+    }
     return out;
   };
 
@@ -207,7 +213,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     target.pointers = pointers_from(settings.output);
     target.reference = reference_from(settings.output);
     target.segment_ids = segment_ids;
-    target.inputs = inputs_from(settings.output);
+    target.inputs = inputs_from(settings.output, kNone);
     StandoffBuilder builder(analysis, target, results_ids, settings.standoff);
     PreparedOutput out;
     out.path = settings.output;
@@ -224,7 +230,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     target.pointers = pointers_from(e.document_path);
     target.reference = reference_from(e.document_path);
     target.segment_ids = segment_ids;
-    target.inputs = inputs_from(e.document_path);
+    target.inputs = inputs_from(e.document_path, k);
     StandoffBuilder builder(analysis, target, e.ids, settings.standoff);
     SpliceFragments fragments{builder.standoff(), builder.application(), builder.change(),
                               e.ids.claim(std::string(kOurIdPrefix) + "encodingDesc"),

@@ -62,6 +62,11 @@ mtest.check(not any(errors.values()), "tei_all (jing) rejects the annotated edit
 
 tree = etree.fromstring(after, PARSER)
 ids = id_targets(tree)
+# The application's description says which text the results point into: this document, by
+# the SHA-256 of its bytes before the run (hashlib), not a path to where it was read from.
+desc = "".join(tree.find(".//tei:appInfo/tei:application/tei:desc", NS).itertext())
+mtest.check("Results point into: this document (SHA-256 %s" % hashlib.sha256(before).hexdigest() in desc,
+            "the application's desc: %r" % desc[-300:])
 who = {k.split("#")[1]: v for k, v in letter_senders(LETTERS, "ferry-letters").items()}
 questioned = sorted(k for k, v in who.items() if not v)
 candidates = sorted(set(v for v in who.values() if v))
