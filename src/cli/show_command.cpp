@@ -84,6 +84,19 @@ nlohmann::json results_json(const StoredResults& r) {
   return out;
 }
 
+
+// A result's warnings, a row each ("warning"): the short-text and few-impostor warnings
+// belong beside the figures they qualify.
+void write_warnings(const char* kind, const std::string& segment, const std::string& other, const nlohmann::json& result) {
+  if (!result.contains("warnings")) return;
+  const nlohmann::json& warnings = result["warnings"];
+  if (warnings.is_array()) {
+    for (const auto& w : warnings) write_tsv_row(std::cout, {kind, segment, other, "warning", cell(w)});
+  } else if (warnings.is_string() && !warnings.get<std::string>().empty()) {
+    write_tsv_row(std::cout, {kind, segment, other, "warning", cell(warnings)});
+  }
+}
+
 void print_tsv(const nlohmann::json& doc) {
   std::vector<std::pair<std::string, std::string>> head{
       {"file", doc["file"].get<std::string>()},
@@ -119,12 +132,16 @@ void print_tsv(const nlohmann::json& doc) {
                                 cell(c.value("distance", none))});
     for (const char* key : {"margin", "stability"})
       if (a.contains(key)) write_tsv_row(std::cout, {"attribution", seg, "", key, cell(a[key])});
+    write_warnings("attribution", seg, "", a);
   }
-  for (const auto& v : doc.value("verifications", nlohmann::json::array()))
-    for (const char* key : {"score", "decision"})
-      if (v.contains(key))
-        write_tsv_row(std::cout, {"verification", cell(v.value("segment", none)), cell(v.value("candidate", none)), key,
-                                  cell(v[key])});
+  // With the score, what it may be read against: whether the band was calibrated, how
+  // many impostors there were, and each warning, as the TEI and JSON give them.
+  for (const auto& v : doc.value("verifications", nlohmann::json::array())) {
+    const std::string seg = cell(v.value("segment", none)), candidate = cell(v.value("candidate", none));
+    for (const char* key : {"score", "calibratedScore", "decision", "bandCalibrated", "impostorPool"})
+      if (v.contains(key)) write_tsv_row(std::cout, {"verification", seg, candidate, key, cell(v[key])});
+    write_warnings("verification", seg, candidate, v);
+  }
 }
 
 }  // namespace

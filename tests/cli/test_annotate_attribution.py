@@ -142,6 +142,22 @@ seeds_lxml = sorted(int(fs.find("tei:f[@name='problemSeed']/tei:numeric", NS).ge
 mtest.check(any(s >= 2 ** 63 for s in seeds_lxml), "a seed above 2^63 to check against: %s" % seeds_lxml)
 seeds_show = sorted(v["problemSeed"] for v in shown["verifications"])
 mtest.check(seeds_show == seeds_lxml, "show's seeds %s, lxml reads %s" % (seeds_show, seeds_lxml))
+# `show` as TSV keeps each result's warnings beside it, and a verification's band status:
+# every warning string lxml reads in a result fs is a "warning" row of that result.
+rows = [line.split("\t") for line in mtest.run(["show", edition]).stdout.splitlines() if not line.startswith("#")]
+for fs in tree.iterfind(".//tei:fs", NS):
+    kind = {"attributionResult": "attribution", "verificationResult": "verification"}.get(fs.get("type"))
+    if not kind:
+        continue
+    segment = fs_value(fs, "segment")
+    other = fs_value(fs, "candidate") if kind == "verification" else ""
+    wanted = sorted(s.text for s in fs.findall("tei:f[@name='warnings']//tei:string", NS))
+    shown_rows = sorted(r[4] for r in rows if r[:4] == [kind, segment, other, "warning"])
+    mtest.check(wanted and shown_rows == wanted, "show's warnings of %s %s %s: %r, lxml %r"
+                % (kind, segment, other, shown_rows, wanted))
+    if kind == "verification":
+        band = fs.find("tei:f[@name='bandCalibrated']/tei:binary", NS).get("value")
+        mtest.check([kind, segment, other, "bandCalibrated", band] in rows, "show lacks bandCalibrated %s" % band)
 verified = [a for a in annotations if "verif" in (a.get(XML_ID) or "")]
 mtest.check(len(verified) == len(questioned) * len(candidates),
             "%d verification annotations, expected one per questioned letter and candidate" % len(verified))
