@@ -266,6 +266,7 @@ struct TeiWalker::State {
     std::string decls;
     std::string dateline_date;
     bool body_letter = false;
+    int speeches_by_label = 0;  // speeches without @who credited by their <speaker> label
   };
   std::vector<Built> built;
   std::unordered_map<std::string, std::size_t> speaker_index;  // speaker key -> built index
@@ -613,7 +614,8 @@ struct TeiWalker::State {
   void close_speech(OpenUnit& u, const TextBuffer& text) {
     std::vector<std::string>& keys = u.who;  // the unit is closing: its list can take the key below
     const HeaderInfo& h = headers[static_cast<std::size_t>(u.tei_index)];
-    if (keys.empty()) {
+    const bool by_label = keys.empty();
+    if (by_label) {
       // No @who: match the speaker label against person and role names (section 2).
       std::string spoken = speaker_key_text(u.speaker_text);
       std::string key = spoken.empty() ? "unknown" : "speaker:" + spoken;
@@ -632,6 +634,7 @@ struct TeiWalker::State {
         new_built(key, u.tei_index);
         it = speaker_index.emplace(key, built.size() - 1).first;
       }
+      if (by_label && key != "unknown") ++built[it->second].speeches_by_label;
       Segment& seg = built[it->second].segment;
       if (h.person_names.count(key)) {
         if (seg.pointers.empty()) seg.pointers.push_back("#" + key);
@@ -937,6 +940,11 @@ std::vector<Segment> TeiWalker::finish() {
       seg.date = c ? c->sent_date : std::string();
       if (better_date(seg.date, b.dateline_date)) seg.date = b.dateline_date;
     } else if (s.rules.unit == UnitKind::speaker) {
+      // The edition did not say who speaks these: the label was read as a name, which an
+      // editor should check (a "VOICE" or a misprint becomes a speaker of its own).
+      if (b.speeches_by_label)
+        seg.warnings.push_back(std::to_string(b.speeches_by_label) +
+                               " speech(es) without @who credited by their <speaker> label");
       auto it = h.person_names.find(seg.local_id);
       if (it != h.person_names.end()) seg.label = it->second;
       seg.author = seg.local_id == "unknown" ? "" : seg.local_id;

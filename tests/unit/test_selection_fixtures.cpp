@@ -100,6 +100,12 @@ TEST_CASE("a speech without @who falls back to its speaker label matched against
   CHECK(words(speakers["speaker:stranger"]) == split("Gone downriver at noon"));
   CHECK(words(speakers["ben"]) == split("It left early"));
   CHECK(speakers["anna"].pointers == std::vector<std::string>{"#anna"});
+  // Each speaker credited by label says so, with the count of such speeches: in the
+  // fixture two <sp> without @who are Anna's (ANNA., Anna), one the stranger's, none Ben's.
+  CHECK(speakers["anna"].warnings == std::vector<std::string>{"2 speech(es) without @who credited by their <speaker> label"});
+  CHECK(speakers["speaker:stranger"].warnings ==
+        std::vector<std::string>{"1 speech(es) without @who credited by their <speaker> label"});
+  CHECK(speakers["ben"].warnings.empty());
 }
 
 TEST_CASE("one letter per file: the body is the letter, formulae skipped, sender from correspDesc (2.4.6, 4.2.2)") {
