@@ -56,6 +56,7 @@ constexpr int kDirections[8][2] = {{1, 0}, {-1, 0}, {0, -1}, {0, 1}, {1, -1}, {1
 constexpr double kGaps[] = {2, 8, 16, 26, 38, 52, 70, 92};
 constexpr double kLeaderBeyond = 12;  // gaps above this get a leader line
 constexpr double kClearance = 5;      // another point must be this much further from a label than its own
+constexpr double kCrowdedWithin = 24;  // px between two points below which each label gets a leader line
 
 }  // namespace
 
@@ -72,17 +73,22 @@ Placement best_place(std::size_t i, const std::vector<LabelRequest>& labels, con
                      const std::vector<Placement>& placed, const Box& bounds, double point_radius) {
   const LabelRequest& label = labels[i];
   const std::size_t n = labels.size();
+  // A point with another close by gets a leader line wherever its label goes: beside two
+  // close points of one colour a label reads as either's.
+  bool crowded = false;
+  for (std::size_t p = 0; p < n && !crowded; ++p)
+    crowded = p != i && std::hypot(labels[p].x - label.x, labels[p].y - label.y) < kCrowdedWithin;
   Placement best;
   double best_cost = INFINITY;
   for (double gap : kGaps) {
     for (const auto& d : kDirections) {
       const double reach = point_radius + (d[0] != 0 && d[1] != 0 ? gap * 0.7 : gap);
       const Box box = candidate_box(label, d[0], d[1], reach);
-      const bool leader = gap > kLeaderBeyond;
+      const double own = distance_to_box(label.x, label.y, box);
+      const bool leader = crowded || gap > kLeaderBeyond;
       const std::array<double, 4> line{label.x, label.y, std::clamp(label.x, box.left, box.right),
                                        std::clamp(label.y, box.top, box.bottom)};
       double cost = 50 * outside_area(box, bounds);
-      const double own = distance_to_box(label.x, label.y, box);
       for (std::size_t p = 0; p < n; ++p) {
         cost += 2 * overlap_area(box, points[p]);
         if (p == i) continue;

@@ -112,7 +112,7 @@ void draw_points(SvgCanvas& canvas, const Frame& f, const ScatterPlot& plot) {
     if (!placed[i].leader) continue;
     const Box& b = placed[i].box;
     const double tx = std::clamp(requests[i].x, b.left, b.right), ty = std::clamp(requests[i].y, b.top, b.bottom);
-    canvas.line(requests[i].x, requests[i].y, tx, ty, {{"stroke", "#9a9a9a"}, {"stroke-width", "0.8"}});
+    canvas.line(requests[i].x, requests[i].y, tx, ty, {{"stroke", "#7a7a7a"}, {"stroke-width", "1"}});
   }
   canvas.end_group();
   canvas.begin_group({{"class", "points"}});

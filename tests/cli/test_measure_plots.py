@@ -136,6 +136,26 @@ with tempfile.TemporaryDirectory() as tmp:
     expected = sorted("%s (%s#%s)" % (name, stem, lid) for stem in ("lone", "twin") for lid, _, name, _ in lone)
     mtest.check(sorted(shown) == expected, "letters of two editions named by segment id: %s" % shown)
 
+# --- leader lines between close points --------------------------------------------------
+# Where two points lie within 24 px of each other (a rule of thumb of this project, no
+# published source), a label set beside both reads as either's: each such point gets a
+# leader line from its centre to its label. The distances are plain geometry on the
+# circles the SVG draws (the example letters: L05 and L12, L06 and L11 lie that close).
+def crowded_points_without_leaders(root):
+    centres = [(float(c.get("cx")), float(c.get("cy"))) for g in root.iter(SVG + "g") if g.get("class") == "points"
+               for c in g.iter(SVG + "circle")]
+    starts = {(float(l.get("x1")), float(l.get("y1"))) for g in root.iter(SVG + "g") if g.get("class") == "leaders"
+              for l in g.iter(SVG + "line")}
+    crowded = [a for a in centres if any(a != b and ((a[0] - b[0]) ** 2 + (a[1] - b[1]) ** 2) ** 0.5 < 24 for b in centres)]
+    return crowded, [a for a in crowded if a not in starts]
+
+
+example_letters = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
+map_root = parse_svg(mtest.run(["map", "--format", "svg", example_letters, "--unit", "letter", "--min-tokens",
+                                "200"]).stdout, "map SVG, example letters")
+crowded, without = crowded_points_without_leaders(map_root)
+mtest.check(crowded and not without, "close points %r, of which without a leader line %r" % (crowded, without))
+
 # --- a conjectured sender, from the invented example edition ------------------------------
 example = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
 TEI = "{http://www.tei-c.org/ns/1.0}"
