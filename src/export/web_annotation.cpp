@@ -115,7 +115,8 @@ nlohmann::ordered_json web_annotations(const StoredResults& results, const std::
   nlohmann::ordered_json items = nlohmann::ordered_json::array();
   for (const StoredAnnotation& a : results.annotations) {
     if (!results.link_group_id.empty() && a.target == "#" + results.link_group_id) {
-      // One assessment per pair, targeting its link.
+      // One assessment per pair, targeting the pair's two segments (what the TEI link
+      // points at), so that a viewer shows it on both texts; its id is the link's.
       for (const StoredLink& link : results.links) {
         std::string fs_id = link.ana.empty() ? "" : link.ana.substr(1);
         std::string note;
@@ -126,7 +127,7 @@ nlohmann::ordered_json web_annotations(const StoredResults& results, const std::
                  s[0].get<std::string>() + " and " + s[1].get<std::string>() + ": " + json_text(v->second["value"]) +
                  " (smaller means more alike).";
         }
-        items.push_back(annotation_json(a, doc, doc + "#" + a.id + "/" + link.id, doc + "#" + link.id, note,
+        items.push_back(annotation_json(a, doc, doc + "#" + link.id, target_of(results, doc, link.target), note,
                                         values_body(results, doc, fs_id), generator, generated));
       }
       continue;

@@ -111,8 +111,16 @@ try:
     tree = etree.parse(os.path.join(work, "ferry-letters.xml"), PARSER).getroot()
     links = tree.xpath("//tei:standOff[@type='stylometry']//tei:link", namespaces=NS)
     check(len(distances) == len(links) > 0, "one assessing annotation per link expected")
+    # Each distance targets the two segments its TEI link points at (lxml reads the link's
+    # @target), so that a viewer shows it on both texts; its id is the link's own.
+    by_id = {l.get("{http://www.w3.org/XML/1998/namespace}id"): l for l in links}
     for a in distances:
-        check(element_of(a["target"]).tag == "{%s}link" % NS["tei"], "a distance does not target its link")
+        link = by_id.get(a["id"].split("#", 1)[1])
+        check(link is not None, "distance annotation %s is not named by its link" % a["id"])
+        ends = [element_of(t) for t in (a["target"] if isinstance(a["target"], list) else [a["target"]])]
+        wanted = [element_of(BASE + "ferry-letters.xml" + p) for p in link.get("target").split()]
+        check(len(ends) == 2 and ends == wanted and all(e is not None for e in ends),
+              "%s targets %r, its link points at %r" % (a["id"], a["target"], link.get("target")))
     play = check_export("ferry-play.xml")
     check(sum(1 for a in play if a["motivation"] == "assessing") == 10, "all 10 pairs of 5 speakers expected")
     joined = check_export("no-ids.xml")
