@@ -147,10 +147,16 @@ void add_selection_notes(const ArchiveFilter& filter, std::size_t min_tokens, co
                     " segment(s) of the files chosen left out by --years: dated by their own date "
                     "(a letter's), else their file's, outside the years");
   // Said, so that fewer files in the report than in the archive need no guessing.
-  if (selection.paths.size() > files_used)
-    notes.push_back(std::to_string(selection.paths.size() - files_used) + " of the " +
-                    std::to_string(selection.paths.size()) + " file(s) selected hold no segment of " +
-                    std::to_string(min_tokens) + " words or more" +
+  // Files without any segment of the unit (a play in a letter archive) are told apart from
+  // those whose segments are too short or outside the filter: the remedies differ.
+  const std::size_t unused = selection.paths.size() > files_used ? selection.paths.size() - files_used : 0;
+  const std::size_t empty = std::min(unused, selection.files_without_segments);
+  if (empty)
+    notes.push_back(std::to_string(empty) + " of the " + std::to_string(selection.paths.size()) +
+                    " file(s) selected hold no segment of this unit at all");
+  if (unused > empty)
+    notes.push_back(std::to_string(unused - empty) + " of the " + std::to_string(selection.paths.size()) +
+                    " file(s) selected hold no segment of " + std::to_string(min_tokens) + " words or more" +
                     (filter.language.empty() ? "" : " in the language asked for") +
                     (filter.asks_years() ? " dated in the years asked" : ""));
 }

@@ -51,7 +51,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
   StoredSelection out;
   Statement files = db.prepare(
       "SELECT f.path, f.relative_path, f.sha256, r.status, r.title, r.author, r.date, r.year, r.language, "
-      "r.first_segment_year, r.last_segment_year "
+      "r.first_segment_year, r.last_segment_year, r.segments "
       "FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 ORDER BY f.path");
   files.bind(1, settings_id);
   while (files.step()) {
@@ -90,6 +90,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
       ++out.files_filtered_out;
       continue;
     }
+    if (files.int64_at(11) == 0) ++out.files_without_segments;
     out.paths.push_back(path);
     out.sha256.push_back(files.text_at(2));
     out.languages.push_back(std::move(m.language));

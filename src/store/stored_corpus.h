@@ -41,6 +41,7 @@ struct StoredSelection {
   std::size_t files_not_read = 0;       // no reading under these settings (run batch)
   std::size_t files_failed = 0;         // stored as failed under these settings
   std::size_t files_filtered_out = 0;   // outside the filter
+  std::size_t files_without_segments = 0;  // chosen, but holding no segment of the unit at all
   std::size_t files_undated = 0;        // of those, passing but for a year range: no year known,
                                         // neither the file's nor any of its segments'
 };

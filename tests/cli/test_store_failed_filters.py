@@ -19,7 +19,8 @@ sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."
 import mtest  # noqa: E402
 from lxml import etree  # noqa: E402
 
-TEI_ROOTS = {"{http://www.tei-c.org/ns/1.0}TEI", "{http://www.tei-c.org/ns/1.0}teiCorpus"}
+TEI = "http://www.tei-c.org/ns/1.0"
+TEI_ROOTS = {"{%s}TEI" % TEI, "{%s}teiCorpus" % TEI}
 
 
 def fails_by_lxml(path):
@@ -85,6 +86,21 @@ with tempfile.TemporaryDirectory() as tmp:
     in_a = sum(1 for p in failing if os.path.basename(os.path.dirname(p)) == "a")
     mtest.check(proc.returncode == 0 and in_a == 1 and "%d file(s) stored as failed" % in_a in proc.stderr,
                 "--folder a: exit %d, %s" % (proc.returncode, proc.stderr))
+    # A file read well but holding no letter (lxml: no div[@type='letter']) is said to hold
+    # no segment of the unit at all, not none long enough. The example play joins a/.
+    shutil.copy(os.path.join(mtest.ROOT, "examples", "ferry-play.xml"), os.path.join(archive, "a"))
+    play = os.path.join(archive, "a", "ferry-play.xml")
+    mtest.check(not etree.parse(play).xpath("//tei:div[@type='letter']", namespaces={"tei": TEI}),
+                "the example play holds a letter")
+    mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"], check=False)
+    in_a = [os.path.join(archive, "a", n) for n in os.listdir(os.path.join(archive, "a")) if n.endswith(".xml")]
+    selected = sum(1 for p in in_a if not fails_by_lxml(p))  # failed files are left out, not selected
+    proc = analyse("--folder", "a")
+    mtest.check("1 of the %d file(s) selected hold no segment of this unit at all" % selected in proc.stderr
+                and "words or more" not in proc.stderr, "a file without letters: %s" % proc.stderr)
+    os.remove(play)
+    mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"], check=False)
+
     # Filters that nothing passes: exit 4 (nothing selected), the filter named, no advice
     # to read the files again (they were read).
     for extra in (["--folder", "no-such-folder"], ["--author", "Nobody Here"], ["--title", "No such title"],
