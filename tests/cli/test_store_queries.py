@@ -93,6 +93,13 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check([r["author"] for r in rows] == [sender[r["neighbour"]] for r in rows],
                     "%s: senders %r, lxml reads %r" % (doc, [r["author"] for r in rows],
                                                        [sender[r["neighbour"]] for r in rows]))
+        # Authorship as TEI P5 gives it (lxml, letter_senders with sure_only): a sender with
+        # @cert below high is a conjecture, shown as such beside the sender it names.
+        sure = letter_senders(letters, "ferry-letters", sure_only=True)
+        expected_authorship = ["known" if sure[r["neighbour"]] else "conjectured" if sender[r["neighbour"]] else "unknown"
+                               for r in rows]
+        mtest.check([r["authorship"] for r in rows] == expected_authorship,
+                    "%s: authorship %r, lxml reads %r" % (doc, [r["authorship"] for r in rows], expected_authorship))
         mtest.check([r["year"] for r in rows] == [sent_year[r["neighbour"]] for r in rows],
                     "%s: years %r, lxml reads %r" % (doc, [r["year"] for r in rows],
                                                      [sent_year[r["neighbour"]] for r in rows]))
