@@ -306,10 +306,14 @@ struct TeiWalker::State {
     path += ')';
   }
 
-  std::vector<int> ordinal_path() const {
+  // The element `frame`'s path, called while its start tag is read: `frames` then holds
+  // its ancestors only, and the frame itself is put at the end (without it, the children of
+  // a matched element were taken for it).
+  std::vector<int> ordinal_path_of(const Frame& frame) const {
     std::vector<int> path;
-    path.reserve(frames.size());
+    path.reserve(frames.size() + 1);
     for (const Frame& f : frames) path.push_back(f.ordinal);
+    path.push_back(frame.ordinal);
     return path;
   }
 
@@ -352,7 +356,7 @@ struct TeiWalker::State {
         return is_div(frame.name) && rules.chapter_types.count(std::string(tag.attribute("type")));
       case UnitKind::whole:
         return frame.name == "text" && !frames.empty() && frames.back().tei_element;
-      case UnitKind::xpath: return xpath_targets && xpath_targets->count(ordinal_path());
+      case UnitKind::xpath: return xpath_targets && xpath_targets->count(ordinal_path_of(frame));
     }
     return false;
   }
