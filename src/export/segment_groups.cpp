@@ -42,9 +42,15 @@ std::vector<std::string> distinct_labels(const Analysis& analysis, const std::ve
   }
   std::vector<std::string> shown(labels.size());
   for (const auto& [label, positions] : by_label) {
-    std::set<std::string> local_ids;
-    for (std::size_t p : positions) local_ids.insert(analysis.segments[plotted[p]].local_id);
+    // What tells the segments of one label apart: their local ids, else their files, else
+    // both (two "CHAPTER IV." of one novel's two volumes, and another novel's too).
+    std::set<std::string> local_ids, stems;
+    for (std::size_t p : positions) {
+      local_ids.insert(analysis.segments[plotted[p]].local_id);
+      stems.insert(file_stem(analysis.segments[plotted[p]].file));
+    }
     const bool ids_differ = local_ids.size() == positions.size();
+    const bool files_differ = stems.size() == positions.size();
     for (std::size_t p : positions) {
       const SegmentSummary& s = analysis.segments[plotted[p]];
       if (label_names_sender(s)) {
@@ -52,7 +58,8 @@ std::vector<std::string> distinct_labels(const Analysis& analysis, const std::ve
         continue;
       }
       std::string tell;
-      if (positions.size() >= 2) tell = ids_differ && s.local_id != label ? s.local_id : file_stem(s.file);
+      if (positions.size() >= 2)
+        tell = ids_differ && s.local_id != label ? s.local_id : files_differ ? file_stem(s.file) : s.id;
       shown[p] = with_conjecture(s, label, tell == label ? std::string() : tell);
     }
   }
@@ -61,10 +68,14 @@ std::vector<std::string> distinct_labels(const Analysis& analysis, const std::ve
 
 // The name people know an author by: the label most of the author's segments carry.
 std::string author_name(const Analysis& analysis, const std::vector<std::size_t>& plotted, const std::string& key) {
+  // Only a letter's label (its sender) or a speaker's (its name) names the author; a
+  // chapter's is its heading and a whole text's its title, which would make the legend
+  // read "CHAPTER I." for a novelist.
   std::map<std::string, std::size_t> votes;
   for (std::size_t index : plotted) {
     const SegmentSummary& s = analysis.segments[index];
-    if (s.author == key && !s.label.empty()) ++votes[s.label];
+    const bool label_names_author = s.unit == "letter" || s.unit == "speaker";
+    if (s.author == key && label_names_author && !s.label.empty() && s.label != s.local_id) ++votes[s.label];
   }
   std::string best;
   std::size_t most = 0;

@@ -1,7 +1,7 @@
 // How the plots name and colour segments.
 //  - Label: the segment's label (speaker's name, chapter's heading, title), else its local
 //    id. Labels that would appear twice get what tells them apart: "(L04)" when their
-//    local ids differ, else the edition's file stem. A letter is its sender's name with
+//    local ids differ, else the edition's file stem, else the whole segment id. A letter is its sender's name with
 //    the letter's id, always ("Ann Lee (L10)"): the sender is not the letter. A segment
 //    whose author the edition conjectures says so ("Ann Lee (L12, conjectured)").
 //  - Group (the colour): the author, when at least two of the plotted segments share one

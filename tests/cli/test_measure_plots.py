@@ -136,6 +136,45 @@ with tempfile.TemporaryDirectory() as tmp:
     expected = sorted("%s (%s#%s)" % (name, stem, lid) for stem in ("lone", "twin") for lid, _, name, _ in lone)
     mtest.check(sorted(shown) == expected, "letters of two editions named by segment id: %s" % shown)
 
+# --- chapters: the legend names authors, every label is distinct --------------------------
+# Two invented novels by two invented authors (titleStmt/author, read back with lxml); the
+# first in two volumes whose chapters are headed alike ("CHAPTER I." twice), the second
+# with a "CHAPTER I." of its own. The legend must name the authors, never a heading, and no
+# two plotted labels may read alike.
+import random  # noqa: E402
+chapter_rng = random.Random(7)
+chapter_words = "the of and a to in was he she it that his her with had for on at by".split()
+
+
+def novel(path, author, volumes):
+    divs = ""
+    for v, headings in enumerate(volumes, start=1):
+        inner = "".join('<div type="chapter"><head>%s</head><p>%s</p></div>'
+                        % (h, " ".join(chapter_rng.choice(chapter_words) for _ in range(120))) for h in headings)
+        divs += '<div type="volume" n="%d">%s</div>' % (v, inner)
+    with open(path, "w", encoding="utf-8") as f:
+        f.write('<TEI xmlns="http://www.tei-c.org/ns/1.0"><teiHeader><fileDesc><titleStmt><title>An invented novel'
+                '</title><author>%s</author></titleStmt><publicationStmt><p>Invented test data; CC0.</p>'
+                '</publicationStmt><sourceDesc><p>Invented.</p></sourceDesc></fileDesc></teiHeader><text><body>%s'
+                '</body></text></TEI>' % (author, divs))
+
+
+with tempfile.TemporaryDirectory() as tmp:
+    novels = [os.path.join(tmp, "harbour.xml"), os.path.join(tmp, "lantern.xml")]
+    novel(novels[0], "Quill, Ada (1801-1860)", [["CHAPTER I.", "CHAPTER II."], ["CHAPTER I.", "CHAPTER II."]])
+    novel(novels[1], "Marsh, Eben (1810-1870)", [["CHAPTER I.", "THE LANTERN."]])
+    authors = sorted(etree.parse(n).findtext(".//{http://www.tei-c.org/ns/1.0}author") for n in novels)
+    chapters = sum(len(etree.parse(n).xpath("//*[local-name()='div'][@type='chapter']")) for n in novels)
+    for command, css in (("map", "point-label"), ("tree", "leaf-label")):
+        root = parse_svg(mtest.run([command, "--format", "svg", "--unit", "chapter", "--min-tokens", "20"] + novels).stdout,
+                         command + " SVG, chapters")
+        shown = [t.text for t in texts(root, css)]
+        mtest.check(len(shown) == chapters and len(set(shown)) == len(shown),
+                    "%s: %d chapters (lxml), labels %r" % (command, chapters, shown))
+        legend = texts_in_group(root, "legend")
+        mtest.check(legend[:1] == ["author"] and sorted(legend[1:]) == authors,
+                    "%s: legend %r, the headers name %r" % (command, legend, authors))
+
 # --- leader lines between close points --------------------------------------------------
 # Where two points lie within 24 px of each other (a rule of thumb of this project, no
 # published source), a label set beside both reads as either's: each such point gets a
