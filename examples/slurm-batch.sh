@@ -7,7 +7,7 @@
 #SBATCH --output=manicule-batch-%A_%a.log
 # Usage (the batch options name the unit; every task must be given the same):
 #   job=$(sbatch --parsable examples/slurm-batch.sh ARCHIVE RESULTS --unit letter)
-#   sbatch --dependency=afterok:$job --wrap "rm -f RESULTS/new.sqlite && manicule merge RESULTS/new.sqlite RESULTS/shard-*.sqlite && mv RESULTS/new.sqlite RESULTS/archive.sqlite"
+#   sbatch --dependency=afterok:$job --wrap "cd RESULTS && rm -f new.sqlite* && manicule merge new.sqlite shard-*.sqlite && rm -f archive.sqlite-wal archive.sqlite-shm && mv new.sqlite archive.sqlite"
 set -euo pipefail
 usage="usage: slurm-batch.sh ARCHIVE RESULTS --unit UNIT [other batch options]"
 archive=${1:?$usage}

@@ -109,14 +109,14 @@ VerificationRun verify_questioned(const Analysis& analysis, const SegmentRoles& 
     std::string little = candidate_size_warning(p.candidate, candidates.words[c], candidates.segments[c].size(),
                                                 options.reliable_words);
     if (!little.empty()) r.warnings.push_back(little);
-    // Fewer rivals than a round draws: every round then draws them all, and beating two or
+    // No more rivals than a round draws: every round then draws them all, and beating two or
     // three texts says little (General Impostors relies on many; common practice, no fixed
     // number published).
-    if (r.impostor_pool < settings.per_iteration)
-      r.warnings.push_back("only " + std::to_string(r.impostor_pool) + " impostor(s) to draw from, fewer than the " +
+    if (r.impostor_pool <= settings.per_iteration)
+      r.warnings.push_back("only " + std::to_string(r.impostor_pool) + " impostor(s) to draw from, no more than the " +
                            std::to_string(settings.per_iteration) +
-                           " a round (--impostors-per-round): a score against so few rivals says little; "
-                           "--impostors FOLDER adds other texts as impostors");
+                           " a round (--impostors-per-round), so every round draws them all: a score against so few "
+                           "rivals says little; --impostors FOLDER adds other texts as impostors");
     // An uncalibrated band's method begins "not calibrated: ", with the counts that fell short.
     if (!run.band.calibrated) r.warnings.push_back("the undecided band is " + run.band.method);
     run.results.push_back(std::move(r));

@@ -20,8 +20,10 @@ struct SelectionRules;
 // files stored before are read again. 2: the date is the work's or the letters' (work_date),
 // not the file's, and a file without segments of the unit has its TEI element's language.
 // 3: segments dated apart from their file (Segment::date: letters, texts of a teiCorpus),
-// and a letter paired with the correspDesc among several @decls pointers.
-constexpr int kReadingRevision = 3;
+// and a letter paired with the correspDesc among several @decls pointers. 4: --unit xpath:
+// selects the matched elements (not their children); a speaker credited by <speaker>
+// labels warns of it.
+constexpr int kReadingRevision = 4;
 
 // What the edition's own header says (the first TEI element's teiHeader).
 struct FileMetadata {

@@ -91,13 +91,17 @@ mtest.check(all("seed" not in v for v in doc["verifications"]), "a verification 
 known = sum(1 for who in letter_senders(LETTERS, "ferry-letters").values() if who)
 counts = "%d same-author and %d different-author" % (known, known)
 # Each problem's impostors are the other sure senders (lxml): 2, fewer than the 10 a round
-# (README, verify --help), so every verification warns that its rivals are few.
+# (README, verify --help), so every verification warns that its rivals are few; so it does
+# when a round draws exactly as many as there are (--impostors-per-round 2: all, each round).
 senders = set(who for who in letter_senders(LETTERS, "ferry-letters").values() if who)
 for v in doc["verifications"]:
     rivals = len(senders - {v["candidate"]})
     mtest.check(v["impostor_pool"] == rivals and rivals < 10, "impostor pool %r, lxml %d" % (v["impostor_pool"], rivals))
     mtest.check(any(w.startswith("only %d impostor(s) to draw from" % rivals) for w in v["warnings"]),
                 "few impostors not warned about: %r" % v["warnings"])
+exact = strict_json(mtest.run(["verify", "--format", "json", "--impostors-per-round", "2"] + BASE).stdout)
+mtest.check(all(any(w.startswith("only 2 impostor(s) to draw from") for w in v["warnings"])
+                for v in exact["verifications"]), "a round drawing all 2 impostors is not warned about")
 for v in doc["verifications"]:
     said = [w for w in v["warnings"] if "band is not calibrated" in w]
     mtest.check(len(said) == 1 and counts in said[0]
