@@ -129,6 +129,10 @@ CommandRunner add_annotate_command(CLI::App& app) {
     for (const PreparedOutput& out : outputs)
       if (out.replacing) require_unchanged(*out.replacing);
     for (const PreparedOutput& out : outputs) {
+      if (out.left_as_it_was) {
+        for (const auto& note : out.notes) std::cerr << "manicule: note: " << out.path << ": " << note << '\n';
+        continue;
+      }
       write_prepared(out, *settings);
       for (const auto& note : out.notes) std::cerr << "manicule: " << out.path << ": " << note << '\n';
       std::cerr << "manicule: wrote " << out.path;

@@ -199,6 +199,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     std::vector<std::string> out;
     for (std::size_t k = 0; k < open.size(); ++k) {
       const Edition& e = open[k];
+      if (std::find(edition_of.begin(), edition_of.end(), k) == edition_of.end()) continue;  // nothing of it selected
       out.push_back((k == self ? std::string("this document") : relative_uri(document, e.snapshot->path)) +
                     " (SHA-256 " + e.source_sha256 + (separate ? "" : ", without manicule's additions") + ")");
     }
@@ -227,6 +228,16 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     StandoffTarget target;
     for (std::size_t s = 0; s < edition_of.size(); ++s)
       if (edition_of[s] == k) target.members.push_back(s);
+    if (target.members.empty()) {
+      // Nothing of it was selected (a play among letters): an empty listAnnotation would
+      // not even be valid TEI, and there is nothing to say about this edition.
+      PreparedOutput out;
+      out.path = e.document_path;
+      out.left_as_it_was = true;
+      out.notes.push_back("no segment of this unit in it: left as it was");
+      outputs.push_back(std::move(out));
+      continue;
+    }
     target.pointers = pointers_from(e.document_path);
     target.reference = reference_from(e.document_path);
     target.segment_ids = segment_ids;

@@ -38,6 +38,7 @@ struct PreparedOutput {
   std::string bytes;                  // the whole new file
   const FileSnapshot* replacing = nullptr;  // in-place: the edition as read
   std::vector<std::string> notes;     // for the user (header entries left out, ...)
+  bool left_as_it_was = false;        // an edition without segments of the run: not written
   std::size_t ids_added = 0;
 };
 
