@@ -335,6 +335,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     transaction.reset();  // rolls back the open batch; what was committed stays
     try {
       Transaction t(db);
+      refresh_file_stems(db);  // for the files committed before the failure
       finish_run(db, summary.run_id, "failed");
       t.commit();
     } catch (...) {

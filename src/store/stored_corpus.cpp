@@ -54,9 +54,11 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
       "r.first_segment_year, r.last_segment_year, r.segments "
       "FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 ORDER BY f.path");
   files.bind(1, settings_id);
+  std::vector<std::string> every_path;  // of the whole store, for the segment id prefixes
   while (files.step()) {
     ++out.files_in_store;
     std::string path = files.text_at(0);
+    every_path.push_back(path);
     // The folder first: a file outside it is no concern of this analysis, read or not,
     // failed or not (its counts would otherwise be reported as missing from a sub-corpus
     // it was never part of).
@@ -98,8 +100,14 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
   }
   drop_respelled(out);
   // An archive often holds files of one name in several folders (1850/letters.xml,
-  // 1851/letters.xml): theirs get longer prefixes than the stored stem.
-  out.stems = segment_id_prefixes(out.paths);
+  // 1851/letters.xml): theirs get longer prefixes than the bare name. Worked out over every
+  // file of the store, as files.stem is (file_stems.h), so that a segment has one id in all
+  // analyses of the store, whatever the sub-corpus, and in the segment_list view.
+  const std::vector<std::string> prefixes = segment_id_prefixes(every_path);
+  std::unordered_map<std::string, std::string> prefix_of;
+  for (std::size_t i = 0; i < every_path.size(); ++i) prefix_of.emplace(every_path[i], prefixes[i]);
+  out.stems.clear();
+  for (const auto& path : out.paths) out.stems.push_back(prefix_of.at(path));
   return out;
 }
 

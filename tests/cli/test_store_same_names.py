@@ -55,6 +55,27 @@ with tempfile.TemporaryDirectory() as tmp:
                         "WHERE n.run_id = ?", (run,)).fetchone()[0]
     db.close()
 
+    # A failing file of the name stray.xml in another folder, and an analysis of one folder
+    # only: ids are worked out over every stored file, so stray's become misc/stray#... in
+    # the view and in an analysis alike, and an analysis of 1850/ alone still names its
+    # letters 1850/letters#... (os.path.relpath gives the expected prefixes).
+    broken = os.path.join(archive, "broken", "stray.xml")
+    os.makedirs(os.path.dirname(broken))
+    with open(broken, "w", encoding="utf-8") as f:
+        f.write(letters[: len(letters) // 3])
+    mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"], check=False)
+    for extra in ([], ["--folder", "1850"]):
+        mtest.run(["analyse-store", "--store", store, "--min-tokens", "200", "--quiet", "--recompute"] + extra)
+        db = sqlite3.connect(store)
+        last = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
+        analysed = db.execute("SELECT segment, path FROM analysis_segments WHERE run_id = ?", (last,)).fetchall()
+        view = set(db.execute("SELECT segment FROM segment_list").fetchall())
+        db.close()
+        for segment, path in analysed:
+            rel = os.path.splitext(os.path.relpath(path, archive))[0]
+            mtest.check(segment.startswith(rel + "#"), "%s: %s of %s, expected %s#..." % (extra, segment, path, rel))
+            mtest.check((segment,) in view, "%s: %s is not in segment_list" % (extra, segment))
+
     def expected_prefix(path):
         if os.path.basename(path) == "stray.xml":  # the one name found once
             return "stray"
