@@ -1,6 +1,7 @@
 // `manicule batch`: brings an archive store up to date with the TEI files under the given
 // folders (reading only what changed, on all cores), and with --analyse runs an analysis
 // over the stored counts. Exit code 1 when some files failed (each is named on stderr).
+#include <filesystem>
 #include <future>
 #include <iostream>
 #include <memory>
@@ -11,6 +12,7 @@
 #include "cli/attribution_cli_options.h"
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
+#include "core/error.h"
 #include "cli/interrupt_requests.h"
 #include "cli/progress_display.h"
 #include "cli/selection_options.h"
@@ -90,6 +92,7 @@ CommandRunner add_batch_command(CLI::App& app) {
     // last commits in the log beside the store, which a copy of the store's file alone (the
     // job-array script's) would miss. Declared before the store, so destroyed after it.
     std::optional<InterruptRequests> interrupts(std::in_place);
+    const bool store_is_new = !std::filesystem::exists(flags->store);
     auto db = store::open_store(flags->store, true);
     ProgressDisplay display(flags->quiet);
     store::BatchSummary summary;
@@ -107,6 +110,14 @@ CommandRunner add_batch_command(CLI::App& app) {
             last = p;
             if (interrupts->requested()) throw store::BatchInterrupted();
           });
+    } catch (const Error& e) {
+      // Refused before anything was read (a --folder naming nothing): a store this run
+      // created holds nothing, and goes again.
+      if (store_is_new && e.kind() == ErrorKind::nothing_selected) {
+        db.reset();
+        store::remove_store_files(flags->store);
+      }
+      throw;
     } catch (const store::BatchInterrupted&) {
       display.clear();
       std::cerr << "manicule: interrupted: " << last.files_done << " of " << last.files_total

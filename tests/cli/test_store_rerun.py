@@ -211,6 +211,11 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(proc.returncode == 4 and "--folder no-such-folder" in proc.stderr,
                 "a --folder naming nothing: exit %d, %s" % (proc.returncode, proc.stderr))
     mtest.check(storecheck.sha256_of(folder_store) == before, "a --folder naming nothing changed the store")
+    never = os.path.join(tmp, "never-made.sqlite")
+    proc = mtest.run(["batch", nested, "--store", never, "--unit", "speaker", "--quiet", "--folder", "no-such-folder"],
+                     check=False)
+    mtest.check(proc.returncode == 4 and not [n for n in os.listdir(tmp) if n.startswith("never-made")],
+                "a --folder naming nothing left a new store behind: exit %d, %r" % (proc.returncode, os.listdir(tmp)))
     # A folder removed from the archive, with files stored from it: the run removes them (exit 0).
     sub = sorted(d for d in os.listdir(nested) if os.path.isdir(os.path.join(nested, d)))[0]
     in_sub = len([f for f in os.listdir(os.path.join(nested, sub)) if f.endswith(".xml")])
