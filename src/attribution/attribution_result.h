@@ -54,8 +54,9 @@ struct VerificationBand {
   std::size_t different_problems = 0;
   double auc = 0, c_at_1 = 0, f05u = 0;  // on those problems (in-sample)
   std::string method;                   // how the band was chosen, in words
-  // As for VerificationEvaluation: AUC needs problems of both answers, c@1 and F0.5u any;
-  // and all three are computed only for a band that was calibrated.
+  // AUC needs problems of both answers, c@1 and F0.5u any (as for VerificationEvaluation);
+  // and, unlike there, all three are computed only for a band that was calibrated: they
+  // describe the band, and an uncalibrated one has none to describe.
   bool auc_defined() const { return calibrated && same_problems > 0 && different_problems > 0; }
   bool rates_defined() const { return calibrated && same_problems + different_problems > 0; }
 };
@@ -108,6 +109,7 @@ struct VerificationProblemScore {
   bool same = false;           // the true answer
   double score = 0;            // General Impostors score
   double calibrated_score = 0; // on the PAN scale, band from the other half of the files
+  bool band_calibrated = false;  // false: that band could not be calibrated; the score is read against 0.5
 };
 
 struct VerificationEvaluation {
@@ -117,7 +119,9 @@ struct VerificationEvaluation {
   // fields then hold 0 and the writers print null / n/a.
   bool auc_defined() const { return same > 0 && different > 0; }
   bool rates_defined() const { return same + different > 0; }
-  double auc = 0, c_at_1 = 0, f05u = 0;  // PAN definitions, on calibrated scores
+  // PAN definitions, on calibrated scores; where a half's band could not be calibrated,
+  // on its scores read against 0.5, as verify reads them then (`calibration` says so).
+  double auc = 0, c_at_1 = 0, f05u = 0;
   double raw_auc = 0;                    // AUC of the scores themselves (no band)
   std::string calibration;               // how the bands were chosen without the answers
   std::vector<VerificationProblemScore> scores;  // every problem, for checking and plotting

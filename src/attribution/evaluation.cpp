@@ -72,7 +72,7 @@ VerificationEvaluation cross_fitted(const std::vector<ImpostorProblem>& problems
     calibrated.push_back(calibrated_score(scores[i], bands[fold[i]]));
     same.push_back(problems[i].same);
     e.scores.push_back({problems[i].segment, problems[i].candidate, problems[i].known_segment, problems[i].same,
-                        scores[i], calibrated.back()});
+                        scores[i], calibrated.back(), bands[fold[i]].calibrated});
     (problems[i].same ? e.same : e.different) += 1;
     if (calibrated.back() == 0.5) ++e.undecided;
   }
@@ -92,8 +92,7 @@ VerificationEvaluation cross_fitted(const std::vector<ImpostorProblem>& problems
     for (const auto& p : problems) files.insert(p.group);
     e.calibration = "not cross-fitted: the halves are drawn by file, and the problems' " + std::to_string(files.size()) +
                     " file(s) all fell into one; scores read against 0.5";
-  }
-  else if (!bands[0].calibrated && !bands[1].calibrated)
+  } else if (!bands[0].calibrated && !bands[1].calibrated)
     e.calibration = "not calibrated: neither random half of the files had enough known problems for a band; "
                     "scores read against 0.5";
   else

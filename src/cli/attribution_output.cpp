@@ -180,7 +180,8 @@ nlohmann::json evaluation_json(const Analysis& analysis) {
                         {"known_segment", analysis.segments[p.known_segment].id},
                         {"same", p.same},
                         {"score", p.score},
-                        {"calibrated_score", p.calibrated_score}});
+                        // the score itself where its band was not calibrated: none then
+                        {"calibrated_score", figure(p.calibrated_score, p.band_calibrated)}});
     verification.push_back({{"problems", v.problems}, {"same", v.same}, {"different", v.different},
                             {"undecided", v.undecided}, {"auc", figure(v.auc, v.auc_defined())},
                             {"raw_auc", figure(v.raw_auc, v.auc_defined())}, {"c_at_1", figure(v.c_at_1, v.rates_defined())},

@@ -84,7 +84,6 @@ nlohmann::json results_json(const StoredResults& r) {
   return out;
 }
 
-
 // A result's warnings, a row each ("warning"): the short-text and few-impostor warnings
 // belong beside the figures they qualify.
 void write_warnings(const char* kind, const std::string& segment, const std::string& other, const nlohmann::json& result) {

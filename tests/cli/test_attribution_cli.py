@@ -157,6 +157,8 @@ doc = strict_json(mtest.run(["evaluate", "--format", "json", "--verification"] +
 held_out = [v for v in doc["evaluation"]["verification"] if v["problems"] != "segment pairs"][0]
 mtest.check(held_out["calibration"].startswith("not cross-fitted") and "1 file(s)" in held_out["calibration"],
             "one edition's cross-fitting described as: %r" % held_out["calibration"])
+mtest.check(all(p["calibrated_score"] is None for p in held_out["scores"]),
+            "calibrated scores without a calibrated band: %r" % [p["calibrated_score"] for p in held_out["scores"]][:5])
 # The band's known problems hold out a whole file when every candidate has known texts in
 # two files (docs/attribution.md, "The undecided band"): one edition holds each sender's
 # letters in one file, so single letters are held out; add a second edition of the same
