@@ -4,6 +4,7 @@
 #include <map>
 #include <set>
 
+#include "core/letter_names.h"
 #include "core/segment_id_prefixes.h"
 
 namespace manicule {
@@ -13,14 +14,6 @@ namespace {
 const char* const kPalette[] = {"#0072B2", "#D55E00", "#009E73", "#CC79A7", "#E69F00", "#56B4E9", "#000000"};
 constexpr std::size_t kPaletteSize = sizeof kPalette / sizeof kPalette[0];
 const char* const kUnknownColour = "#8C8C8C";
-
-// A letter's label is its sender, who may have written other letters of the plot or none:
-// the point or leaf stands for the letter, so its id always goes with the name ("Ann Lee
-// (L10)"), and the whole segment id ("letters-1870#L10") where two letters of different
-// editions share sender and id.
-bool label_names_sender(const SegmentSummary& s) {
-  return s.unit == "letter" && !s.label.empty() && s.label != s.local_id;
-}
 
 // A segment whose author the edition only conjectures is coloured as that author's, so
 // its label says so: a plot must not show a conjecture as a fact.
@@ -35,9 +28,7 @@ std::vector<std::string> distinct_labels(const Analysis& analysis, const std::ve
   std::map<std::string, std::vector<std::size_t>> by_label;  // label without conjecture -> positions
   for (std::size_t p = 0; p < plotted.size(); ++p) {
     const SegmentSummary& s = analysis.segments[plotted[p]];
-    labels.push_back(label_names_sender(s) ? s.label + " (" + s.local_id + ")"
-                     : s.label.empty()     ? s.local_id
-                                           : s.label);
+    labels.push_back(s.unit == "letter" ? letter_name(s) : s.label.empty() ? s.local_id : s.label);
     by_label[labels.back()].push_back(p);
   }
   std::vector<std::string> shown(labels.size());
@@ -53,8 +44,8 @@ std::vector<std::string> distinct_labels(const Analysis& analysis, const std::ve
     const bool files_differ = stems.size() == positions.size();
     for (std::size_t p : positions) {
       const SegmentSummary& s = analysis.segments[plotted[p]];
-      if (label_names_sender(s)) {
-        shown[p] = with_conjecture(s, s.label, positions.size() < 2 ? s.local_id : s.id);
+      if (s.unit == "letter") {  // core/letter_names.h; the whole id where local ids repeat
+        shown[p] = letter_name(s, positions.size() < 2 ? s.local_id : s.id);
         continue;
       }
       std::string tell;

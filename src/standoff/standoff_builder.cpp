@@ -3,6 +3,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "core/letter_names.h"
 #include "measure/newick.h"
 #include "standoff/edition_splice.h"
 #include "standoff/feature_values.h"
@@ -64,12 +65,12 @@ XmlNode StandoffBuilder::annotation(const std::string& id, const std::string& ta
 }
 
 // The segment's label; with its file where it lies in another edition. A letter always
-// with its id and whether its sender is only conjectured (letter_word); another segment
+// with its id and whether its sender is only conjectured (core/letter_names.h); another segment
 // with its local id where several segments share the label.
 std::string StandoffBuilder::label_from_here(std::size_t segment) const {
   const SegmentSummary& s = analysis_.segments[segment];
   std::string label = s.label.empty() ? s.local_id : s.label;
-  if (s.unit == "letter") label = letter_word(s);
+  if (s.unit == "letter") label = letter_name(s);
   else if (label_count_.at(label) > 1 && label != s.local_id) label = s.local_id + " (" + label + ")";
   return member_files_.count(s.file) ? label : label + " in " + s.id.substr(0, s.id.find('#'));
 }

@@ -47,16 +47,6 @@ std::string warnings_sentences(std::vector<std::string> warnings, const Candidat
 
 }  // namespace
 
-// A letter's label is its sender, who may have written other letters or none (or be a
-// placeholder such as "Unknown"): its id always goes with the name so that an editor can
-// find the letter, and a sender the edition only conjectures (TEI P5 @cert below high,
-// att.global.responsibility) is marked so, never shown as known. The rule of the plots
-// (export/segment_groups.cpp).
-std::string letter_word(const SegmentSummary& s) {
-  const bool conjectured = s.authorship == Authorship::conjectured;
-  if (s.label.empty() || s.label == s.local_id) return s.local_id + (conjectured ? " (sender conjectured)" : "");
-  return s.label + " (" + s.local_id + (conjectured ? ", conjectured)" : ")");
-}
 
 // Only pointers get a name: any other candidate label (an author's name from a titleStmt,
 // a speaker "play#anna", a labels file's word) already is what people call it. The name

@@ -14,8 +14,6 @@ namespace manicule {
 
 std::string authorship_word(Authorship a);  // known | conjectured | unknown
 
-// How a note names a letter: "Ambrose Pellow (L01)", "Kit Dunnock (L12, conjectured)", "L07".
-std::string letter_word(const SegmentSummary& letter);
 
 // The names the edition gives the candidates that are pointers ("#p-pellow" -> "Ambrose
 // Pellow"), from the labels of the segments with that author.
