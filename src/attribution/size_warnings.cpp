@@ -35,10 +35,12 @@ std::vector<std::string> questioned_size_warnings(std::size_t questioned_words,
   return out;
 }
 
+std::string quoted_candidate(const std::string& candidate) { return "candidate '" + candidate + "'"; }
+
 std::string candidate_size_warning(const std::string& candidate, std::size_t words, std::size_t segments,
                                    std::size_t reliable_words) {
   if (words >= reliable_words) return {};
-  return "candidate '" + candidate + "' has little text: " + with_thousands(words) + " words in " +
+  return quoted_candidate(candidate) + " has little text: " + with_thousands(words) + " words in " +
          std::to_string(segments) + " segment(s), fewer than the about " + with_thousands(reliable_words) +
          " Eder (2015, DSH 30(2)) found needed";
 }

@@ -19,6 +19,10 @@ std::vector<std::string> questioned_size_warnings(std::size_t questioned_words,
                                                   const std::vector<std::size_t>& candidate_segment_words,
                                                   std::size_t reliable_words);
 
+// How a warning quotes a candidate ("candidate '#p-pellow'"): one definition, so that the
+// notes written into an edition can put the candidate's name in its place.
+std::string quoted_candidate(const std::string& candidate);
+
 std::string candidate_size_warning(const std::string& candidate, std::size_t words, std::size_t segments,
                                    std::size_t reliable_words);  // "" when large enough
 

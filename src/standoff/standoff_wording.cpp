@@ -4,6 +4,7 @@
 #include <cstdio>
 #include <map>
 
+#include "attribution/size_warnings.h"
 #include "profile/feature_spec.h"
 
 namespace manicule {
@@ -23,11 +24,11 @@ std::string k_nearest(const Analysis& analysis) {
   return std::to_string(k);
 }
 
-// A result's warnings come from attribution/size_warnings.cpp, which quotes a candidate by
-// its label ("candidate '#p-pellow' has little text"); the note names it as the rest of
-// the note does. The fs keeps the warnings as they were computed.
+// A result's warnings quote a candidate by its label (attribution/size_warnings.h:
+// "candidate '#p-pellow' has little text"); the note names it as the rest of the note does.
+// The fs keeps the warnings as they were computed.
 std::string warning_naming(std::string warning, const CandidateNames& names, const std::string& candidate) {
-  const std::string quoted = "candidate '" + candidate + "'";
+  const std::string quoted = quoted_candidate(candidate);
   const std::string named = candidate_word(names, candidate);
   if (named == candidate) return warning;
   for (std::size_t at = warning.find(quoted); at != std::string::npos; at = warning.find(quoted, at + 1))
