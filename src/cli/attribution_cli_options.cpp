@@ -68,8 +68,12 @@ void AttributionCommandOptions::add_settings(CLI::App& command, bool stability, 
         ->capture_default_str();
   }
   if (impostors) {
+    // One a time (repeatable): a vector option would take the inputs after it as impostors.
     command.add_option("--impostors", impostor_inputs,
-                       "TEI files or folders whose texts serve only as impostors (repeatable)");
+                       "TEI files or folders whose texts serve only as impostors (repeatable)")
+        ->expected(1)
+        ->allow_extra_args(false)
+        ->multi_option_policy(CLI::MultiOptionPolicy::TakeAll);
     command.add_option("--iterations", s.impostor_iterations, "General Impostors: rounds per problem")
         ->check(CLI::Range(std::size_t{1}, std::size_t{1000000}))
         ->capture_default_str();

@@ -13,8 +13,16 @@ void SelectionOptions::add_to(CLI::App& command, const std::string& default_unit
                      "what makes a segment: speaker, letter, chapter, whole, or xpath:EXPR "
                      "(prefix TEI elements with tei:)")
       ->capture_default_str();
-  command.add_option("--keep", keep, "keep an element left out by default (repeatable), e.g. --keep note");
-  command.add_option("--drop", drop, "also leave out an element (repeatable), e.g. --drop quote");
+  // One element a time, repeated for more: a vector option would otherwise take the file
+  // names after it as elements too ("--keep note a.xml b.xml" read no file).
+  command.add_option("--keep", keep, "keep an element left out by default (repeatable), e.g. --keep note")
+      ->expected(1)
+      ->allow_extra_args(false)
+      ->multi_option_policy(CLI::MultiOptionPolicy::TakeAll);
+  command.add_option("--drop", drop, "also leave out an element (repeatable), e.g. --drop quote")
+      ->expected(1)
+      ->allow_extra_args(false)
+      ->multi_option_policy(CLI::MultiOptionPolicy::TakeAll);
   command.add_option("--preset", preset, "reading (the editor's corrected text) or diplomatic (what the source shows)")
       ->check(CLI::IsMember({"reading", "diplomatic"}))
       ->capture_default_str();

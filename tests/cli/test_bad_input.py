@@ -289,4 +289,17 @@ for element in ("notes", "corr"):
 p = subprocess.run([mtest.BIN, "segments", "--unit", "letter", "--keep", "note", letters], capture_output=True, text=True)
 mtest.check(p.returncode == 0 and "changes nothing" not in p.stderr, "--keep note: %s" % p.stderr)
 
+# 17. A repeatable option takes one value each time: the inputs after `--keep note` or
+# `--drop quote` are inputs, not more elements (they were taken as elements, so a run over
+# two editions read none or one). `--unit whole` gives one segment per <text> (lxml counts
+# them in the two example editions).
+play = os.path.join(mtest.ROOT, "examples", "ferry-play.xml")
+texts = sum(len(etree.parse(p).findall(".//{http://www.tei-c.org/ns/1.0}text")) for p in (letters, play))
+for option in (["--keep", "note"], ["--drop", "quote"], ["--keep", "note", "--drop", "quote"]):
+    p = subprocess.run([mtest.BIN, "segments", "--unit", "whole"] + option + [letters, play], capture_output=True, text=True)
+    body = [l for l in p.stdout.splitlines() if l and not l.startswith("#")][1:]
+    mtest.check(p.returncode == 0 and len(body) == texts and "changes nothing" not in p.stderr,
+                "%s before two editions: exit %d, %d segments (lxml: %d texts), %s"
+                % (" ".join(option), p.returncode, len(body), texts, p.stderr))
+
 mtest.done()
