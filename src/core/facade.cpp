@@ -1,6 +1,7 @@
 #include "core/facade.h"
 
 #include <algorithm>
+#include <set>
 #include <sstream>
 
 #include "core/error.h"
@@ -56,8 +57,24 @@ void record_feature_parameters(const Request& request, std::size_t features_used
                                Provenance& provenance) {
   const FeatureSpaceOptions& f = request.feature_space;
   auto& params = provenance.parameters;
-  params.emplace_back("feature ranks", std::to_string(f.rank_first) + "-" + std::to_string(f.rank_last));
-  params.emplace_back("features used", std::to_string(features_used));
+  const auto& ranges = request.clustering.consensus_ranges;
+  if (ranges.empty()) {
+    params.emplace_back("feature ranks", std::to_string(f.rank_first) + "-" + std::to_string(f.rank_last));
+    params.emplace_back("features used", std::to_string(features_used));
+  } else {
+    // A consensus: its table spans the ranges, but each tree takes one range; the ranges are
+    // said as they are, and the features used are those some range takes (disjoint ranges
+    // leave gaps that "1-400" would hide).
+    std::string listed;
+    std::set<std::size_t> used;
+    const std::size_t beyond = f.rank_first + features_used;  // the first rank the table lacks
+    for (const auto& [first, last] : ranges) {
+      listed += (listed.empty() ? "" : ", ") + std::to_string(first) + "-" + std::to_string(last);
+      for (std::size_t r = first; r <= last && r < beyond; ++r) used.insert(r);
+    }
+    params.emplace_back("feature ranks", listed + " (a tree each)");
+    params.emplace_back("features used", std::to_string(used.size()));
+  }
   std::ostringstream culling;  // "0%", "12.5%" rather than to_string's "0.000000%"
   culling << f.culling_percent << "%";
   params.emplace_back("culling", culling.str());

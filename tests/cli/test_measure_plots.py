@@ -195,6 +195,22 @@ map_root = parse_svg(mtest.run(["map", "--format", "svg", example_letters, "--un
 crowded, without = crowded_points_without_leaders(map_root)
 mtest.check(crowded and not without, "close points %r, of which without a leader line %r" % (crowded, without))
 
+# --- a consensus over disjoint ranges says which ranks it used ---------------------------
+# Three trees over 300-400, 1-50 and 100-200: the header lists the ranges (it said "1-400")
+# and counts the ranks some range takes, up to the number of distinct words (the profile's
+# columns; Python's set for the union).
+ranges = [(300, 400), (1, 50), (100, 200)]
+bootstrap = ",".join("%d-%d" % r for r in ranges)
+head = json.loads(mtest.run(["tree", "--format", "json", "--unit", "letter", "--min-tokens", "200", "--bootstrap",
+                             bootstrap, example_letters]).stdout)["provenance"]["parameters"]
+_, all_features, _ = read_profile(mtest.run(["profile", "--unit", "letter", "--min-tokens", "200", "--ranks",
+                                             "1-100000", example_letters]).stdout)
+union = {r for a, b in ranges for r in range(a, b + 1) if r <= len(all_features)}
+mtest.check(head.get("feature ranks", "").startswith("300-400, 1-50, 100-200")
+            and head.get("features used") == str(len(union)),
+            "consensus header: ranks %r, features used %r (expected %d)"
+            % (head.get("feature ranks"), head.get("features used"), len(union)))
+
 # --- a conjectured sender, from the invented example edition ------------------------------
 example = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
 TEI = "{http://www.tei-c.org/ns/1.0}"
