@@ -4,6 +4,7 @@
 
 #include "cli/number_checks.h"
 #include "core/error.h"
+#include "core/sha256.h"
 #include "profile/stop_list.h"
 
 namespace manicule::cli {
@@ -42,7 +43,13 @@ void AnalysisOptions::apply_to(Request& request) const {
     throw Error(ErrorKind::usage, "--ranks takes FIRST-LAST, e.g. 1-1000; got '" + ranks + "'");
   request.feature_space.culling_percent = culling;
   request.feature_space.min_segment_tokens = min_tokens;
-  if (!stop_words_file.empty()) request.feature_space.stop_words = load_stop_list(stop_words_file);
+  if (!stop_words_file.empty()) {
+    request.feature_space.stop_words = load_stop_list(stop_words_file);
+    // Recorded with the results: the same list under the same name is known by its digest.
+    request.feature_space.stop_words_source = stop_words_file + " (" +
+                                              std::to_string(request.feature_space.stop_words.size()) +
+                                              " words, SHA-256 " + sha256_file(stop_words_file) + ")";
+  }
   request.measure = parse_distance_measure(measure);
   request.neighbours = neighbours;
 }

@@ -78,6 +78,7 @@ void record_feature_parameters(const Request& request, std::size_t features_used
   std::ostringstream culling;  // "0%", "12.5%" rather than to_string's "0.000000%"
   culling << f.culling_percent << "%";
   params.emplace_back("culling", culling.str());
+  if (!f.stop_words_source.empty()) params.emplace_back("stop words", f.stop_words_source);
   params.emplace_back("minimum segment size", std::to_string(f.min_segment_tokens) + " words");
   params.emplace_back("segments measured", std::to_string(segments_measured));
 }

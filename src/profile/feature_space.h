@@ -33,6 +33,7 @@ struct FeatureSpaceOptions {
   std::size_t rank_last = 1000;
   double culling_percent = 0.0;  // 0..100
   std::vector<std::string> stop_words;
+  std::string stop_words_source;  // where they came from, for the record ("names.txt, SHA-256 ...")
   std::size_t min_segment_tokens = kDefaultMinSegmentTokens;
   // false: the z-scores are computed in the relative frequencies' place and
   // FeatureTable::relative is left empty: one table's memory less (20 MiB for the novels'

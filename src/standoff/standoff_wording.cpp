@@ -143,6 +143,8 @@ std::string settings_description(const Analysis& analysis, bool all_pairs, const
                   " used), culling " + analysis.provenance.parameter("culling") + ", minimum segment size " +
                   analysis.provenance.parameter("minimum segment size") + "; " + analysis.provenance.parameter("segments measured") +
                   " segments measured.";
+  if (const std::string stop = analysis.provenance.parameter("stop words"); !stop.empty())
+    d += " Stop words left out: " + stop + ".";
   if (analysis.distances) {
     d += " Measure: " + analysis.provenance.parameter("measure") + "; pairs written: " +
          (all_pairs ? std::string("all") : "each segment's " + k_nearest(analysis) + " nearest") + ".";

@@ -120,4 +120,28 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["distances", path, "--unit", "letter"], check=False)  # default minimum 1500 words
     mtest.check(proc.returncode == 4 and "1500" in proc.stderr, "too small for the default minimum: %s" % proc.stderr)
 
+# A stop list leaves its words out of the features, and the run says which list it was:
+# its file, its word count and its SHA-256 (hashlib), in the TSV header, the JSON
+# provenance and the description annotate writes into an edition.
+import hashlib  # noqa: E402
+with tempfile.TemporaryDirectory() as stop_tmp:
+    stop_file = os.path.join(stop_tmp, "names.txt")
+    with open(stop_file, "w", encoding="utf-8") as f:
+        f.write("# invented stop list\nthe\nand\n")
+    with open(stop_file, "rb") as f:
+        digest = hashlib.sha256(f.read()).hexdigest()
+    said = "%s (2 words, SHA-256 %s)" % (stop_file, digest)
+    example = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
+    base = ["--unit", "letter", "--min-tokens", "200", "--stop-words", stop_file, example]
+    params, features, _ = read_profile(mtest.run(["profile"] + base).stdout)
+    mtest.check("the" not in features and "and" not in features, "stop words among the features")
+    mtest.check(params.get("stop words") in (said, [said]), "profile header: %r" % params.get("stop words"))
+    doc = json.loads(mtest.run(["distances", "--format", "json"] + base).stdout)
+    mtest.check(doc["provenance"]["parameters"].get("stop words") == said,
+                "distances JSON: %r" % doc["provenance"]["parameters"].get("stop words"))
+    copy = os.path.join(stop_tmp, "annotated.xml")
+    mtest.run(["annotate", "--output", copy] + base)
+    mtest.check("Stop words left out: " + said in open(copy, encoding="utf-8").read(),
+                "annotate's description lacks the stop list")
+
 mtest.done()
