@@ -1,5 +1,6 @@
 #include "cli/selection_options.h"
 
+#include <cctype>
 #include <iostream>
 
 #include "core/error.h"
@@ -39,13 +40,30 @@ void SelectionOptions::add_to(CLI::App& command, const std::string& default_unit
   command.add_option("--threads", threads, "files read at once (default: one per core)");
 }
 
+namespace {
+
+// An element named as --keep and --drop take it: a TEI element's local name. "tei:hi", as
+// an xpath unit spells it, means hi (it was shown in the selection and matched nothing);
+// anything else with a prefix or outside a name's characters is refused.
+std::string element_name(const std::string& option, const std::string& given) {
+  std::string name = given.rfind("tei:", 0) == 0 ? given.substr(4) : given;
+  const bool plain = !name.empty() && name.find_first_not_of("abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ"
+                                                             "0123456789._-") == std::string::npos &&
+                     !std::isdigit(static_cast<unsigned char>(name[0])) && name[0] != '-' && name[0] != '.';
+  if (!plain)
+    throw Error(ErrorKind::usage, option + " " + given + ": give a TEI element's name, e.g. " + option + " note");
+  return name;
+}
+
+}  // namespace
+
 Request SelectionOptions::to_request() const {
   Request r;
   r.inputs = inputs;
   r.unit = unit;
   r.preset = preset == "diplomatic" ? Preset::diplomatic : Preset::reading;
-  r.keep = keep;
-  r.drop = drop;
+  for (const auto& name : keep) r.keep.push_back(element_name("--keep", name));
+  for (const auto& name : drop) r.drop.push_back(element_name("--drop", name));
   r.joint = joint == "drop" ? JointSpeech::drop : JointSpeech::each;
   r.tokenizer.case_fold = !no_fold;
   r.tokenizer.keep_numbers = keep_numbers;
@@ -58,7 +76,7 @@ Request SelectionOptions::to_request() const {
   // --keep of an element the preset reads anyway (a typing slip such as --keep notes, or
   // --keep corr) changes nothing: said, so that nobody takes it for kept text.
   const SelectionRules preset_rules = SelectionRules::make(r.unit, r.preset);
-  for (const auto& name : keep)
+  for (const auto& name : r.keep)
     if (!preset_rules.skips(name))
       std::cerr << "manicule: note: --keep " << name << " changes nothing: <" << name << "> is not left out by the "
                 << (r.preset == Preset::diplomatic ? "diplomatic" : "reading") << " preset\n";
