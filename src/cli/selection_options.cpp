@@ -24,7 +24,8 @@ void SelectionOptions::add_to(CLI::App& command, const std::string& default_unit
       ->expected(1)
       ->allow_extra_args(false)
       ->multi_option_policy(CLI::MultiOptionPolicy::TakeAll);
-  command.add_option("--preset", preset, "reading (the editor's corrected text) or diplomatic (what the source shows)")
+  command.add_option("--preset", preset,
+                     "reading (the editor's corrected text) or diplomatic (the source's text as first written)")
       ->check(CLI::IsMember({"reading", "diplomatic"}))
       ->capture_default_str();
   command.add_option("--joint-speech", joint,

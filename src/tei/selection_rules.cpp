@@ -60,7 +60,8 @@ SelectionRules SelectionRules::make(const std::string& unit_spec, Preset preset)
   if (preset == Preset::reading) {
     rules.skipped.insert({"del", "surplus"});  // struck-out and redundant source text
   } else {
-    // Diplomatic: what the source shows (3.5.1-3.5.3, 12.3.1.4-5).
+    // Diplomatic: the source's text as first written (3.5.1-3.5.3, 12.3.1.4-5): its errors,
+    // spellings, abbreviations and deletions, not what an editor or a later hand added.
     for (const char* name : {"sic", "orig", "abbr"}) rules.skipped.erase(name);
     rules.skipped.insert({"corr", "reg", "expan", "add", "supplied"});
   }
