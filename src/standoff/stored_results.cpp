@@ -125,7 +125,13 @@ nlohmann::json value_of(const Node& v) {
       if (auto [at, ec] = std::from_chars(n.data(), end, whole); ec == std::errc() && at == end) return whole;
       std::uint64_t large = 0;
       if (auto [at, ec] = std::from_chars(n.data(), end, large); ec == std::errc() && at == end) return large;
-      return n;  // beyond 64 bits: the digits as the file has them
+      // beyond 64 bits, the digits as the file has them; "+5" or " 5" (by hand) as a number
+      char* end_of_number = nullptr;
+      const double value = std::strtod(n.c_str(), &end_of_number);
+      const bool whole_text = end_of_number && *end_of_number == '\0' && end_of_number != n.c_str();
+      return whole_text && n.find_first_not_of(" +-0123456789") == std::string::npos && n.size() < 20
+                 ? nlohmann::json(value)
+                 : nlohmann::json(n);
     }
     return std::strtod(n.c_str(), nullptr);
   }
