@@ -21,7 +21,7 @@ echo
 echo "== The letters nearest each other (Cosine Delta on the 150 most frequent words;"
 echo "   the letters are short, so the minimum size is lowered to 200 words for the demo)"
 $m distances --unit letter --min-tokens 200 --ranks 1-150 --neighbours 3 --format tsv examples/ferry-letters.xml \
-  | grep -v '^#' | sort -t$'\t' -k3 -g | head -n 8
+  | grep -v '^#' | sort -t$'\t' -k3 -g | sed -n '1,8p'  # sed reads to the end: no broken pipe under pipefail
 
 echo
 echo "== A map of the speakers (PCA on z-scores) as SVG: $out/play-speakers.svg"
@@ -36,4 +36,4 @@ echo
 echo "== The results written back into a copy of the edition as TEI standoff: $out/ferry-letters.xml"
 echo "   (profiles, distances, PCA, the attribution and its verification, with the caution)"
 $m annotate --unit letter --min-tokens 200 --attribute --verify --output "$out/ferry-letters.xml" examples/ferry-letters.xml
-$m show "$out/ferry-letters.xml" | grep -E '^(# caution|kind|candidate|verification)' | head -n 16
+$m show "$out/ferry-letters.xml" | grep -E '^(# caution|kind|candidate|verification)' | sed -n '1,16p'
