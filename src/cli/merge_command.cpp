@@ -33,8 +33,9 @@ CommandRunner add_merge_command(CLI::App& app) {
     try {
       for (const auto& in : *inputs) {
         auto source = store::open_store(in, false);
-        report_merge(std::cout, in, store::merge_store(*target, *source));
-        for (const auto& path : store::stored_file_paths(*source)) held_before.erase(path);
+        const store::MergeSummary merged = store::merge_store(*target, *source);
+        report_merge(std::cout, in, merged);
+        for (const auto& path : merged.input_files) held_before.erase(path);
       }
     } catch (...) {
       // Each input is merged in one transaction, so an existing output keeps what it had

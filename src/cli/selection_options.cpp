@@ -1,9 +1,9 @@
 #include "cli/selection_options.h"
 
-#include <cctype>
 #include <iostream>
 
 #include "core/error.h"
+#include "tei/selection_rules.h"
 
 namespace manicule::cli {
 
@@ -43,17 +43,10 @@ void SelectionOptions::add_to(CLI::App& command, const std::string& default_unit
 
 namespace {
 
-// An element named as --keep and --drop take it: a TEI element's local name. "tei:hi", as
-// an xpath unit spells it, means hi (it was shown in the selection and matched nothing);
-// anything else with a prefix or outside a name's characters is refused.
+// The element an option names (tei/selection_rules.h), or a usage error naming the option.
 std::string element_name(const std::string& option, const std::string& given) {
-  std::string name = given.rfind("tei:", 0) == 0 ? given.substr(4) : given;
-  const bool plain = !name.empty() && name.find_first_not_of("abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ"
-                                                             "0123456789._-") == std::string::npos &&
-                     !std::isdigit(static_cast<unsigned char>(name[0])) && name[0] != '-' && name[0] != '.';
-  if (!plain)
-    throw Error(ErrorKind::usage, option + " " + given + ": give a TEI element's name, e.g. " + option + " note");
-  return name;
+  if (auto name = element_local_name(given)) return *name;
+  throw Error(ErrorKind::usage, option + " " + given + ": give a TEI element's name, e.g. " + option + " note");
 }
 
 }  // namespace

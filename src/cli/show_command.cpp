@@ -87,13 +87,9 @@ nlohmann::json results_json(const StoredResults& r) {
 // A result's warnings, a row each ("warning"): the short-text and few-impostor warnings
 // belong beside the figures they qualify.
 void write_warnings(const char* kind, const std::string& segment, const std::string& other, const nlohmann::json& result) {
-  if (!result.contains("warnings")) return;
-  const nlohmann::json& warnings = result["warnings"];
-  if (warnings.is_array()) {
-    for (const auto& w : warnings) write_tsv_row(std::cout, {kind, segment, other, "warning", cell(w)});
-  } else if (warnings.is_string() && !warnings.get<std::string>().empty()) {
-    write_tsv_row(std::cout, {kind, segment, other, "warning", cell(warnings)});
-  }
+  // Written as a vColl of strings (standoff/feature_values.h), read back as a list.
+  if (!result.contains("warnings") || !result["warnings"].is_array()) return;
+  for (const auto& w : result["warnings"]) write_tsv_row(std::cout, {kind, segment, other, "warning", cell(w)});
 }
 
 void print_tsv(const nlohmann::json& doc) {

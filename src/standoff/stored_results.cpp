@@ -1,5 +1,6 @@
 #include "standoff/stored_results.h"
 
+#include <cerrno>
 #include <charconv>
 #include <cstdint>
 #include <cstdlib>
@@ -125,13 +126,13 @@ nlohmann::json value_of(const Node& v) {
       if (auto [at, ec] = std::from_chars(n.data(), end, whole); ec == std::errc() && at == end) return whole;
       std::uint64_t large = 0;
       if (auto [at, ec] = std::from_chars(n.data(), end, large); ec == std::errc() && at == end) return large;
-      // beyond 64 bits, the digits as the file has them; "+5" or " 5" (by hand) as a number
-      char* end_of_number = nullptr;
-      const double value = std::strtod(n.c_str(), &end_of_number);
-      const bool whole_text = end_of_number && *end_of_number == '\0' && end_of_number != n.c_str();
-      return whole_text && n.find_first_not_of(" +-0123456789") == std::string::npos && n.size() < 20
-                 ? nlohmann::json(value)
-                 : nlohmann::json(n);
+      // "+5" or " 5", written by hand, as strtoll reads them; beyond 64 bits, the digits as
+      // the file has them (a double would round them)
+      errno = 0;
+      char* rest = nullptr;
+      const long long by_hand = std::strtoll(n.c_str(), &rest, 10);
+      if (errno == 0 && rest != n.c_str() && *rest == '\0') return by_hand;
+      return n;
     }
     return std::strtod(n.c_str(), nullptr);
   }

@@ -85,6 +85,7 @@ void merge_files(Database& out, Database& input, MergeSummary& summary) {
       "INSERT OR REPLACE INTO files (path, relative_path, stem, size, mtime_ns, sha256, read_error) "
       "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)");
   while (files.step()) {
+    summary.input_files.insert(files.text_at(0));
     existing.bind(1, files.text_at(0));
     bool present = existing.step();
     bool newer = !present || files.int64_at(4) > existing.int64_at(0);

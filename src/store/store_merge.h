@@ -20,6 +20,7 @@ struct MergeSummary {
   std::size_t segments_added = 0;
   std::size_t files_added = 0;
   std::size_t files_updated = 0;
+  std::set<std::string> input_files;  // every path the input holds (read once, while merging)
 };
 
 // Merges the store at `input_path` into `out` (both opened with open_store).

@@ -1,5 +1,7 @@
 #include "tei/selection_rules.h"
 
+#include <cctype>
+
 #include "core/error.h"
 
 namespace manicule {
@@ -39,6 +41,16 @@ std::string unit_name(UnitKind kind) {
     case UnitKind::xpath: return "xpath";
   }
   return "whole";
+}
+
+std::optional<std::string> element_local_name(const std::string& given) {
+  std::string name = given.rfind("tei:", 0) == 0 ? given.substr(4) : given;
+  const bool plain = !name.empty() &&
+                     name.find_first_not_of("abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ0123456789._-") ==
+                         std::string::npos &&
+                     !std::isdigit(static_cast<unsigned char>(name[0])) && name[0] != '-' && name[0] != '.';
+  if (!plain) return std::nullopt;
+  return name;
 }
 
 SelectionRules SelectionRules::make(const std::string& unit_spec, Preset preset) {

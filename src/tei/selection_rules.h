@@ -3,6 +3,7 @@
 // plain sets; the reader consults them per element without evaluating XPath.
 // Sources: ../shared/docs/tei-conventions.md section 1 (TEI P5 4.12.0 chapters cited there).
 #pragma once
+#include <optional>
 #include <set>
 #include <string>
 #include <vector>
@@ -15,6 +16,11 @@ enum class Preset { reading, diplomatic };
 
 // What happens to a speech whose @who names several speakers.
 enum class JointSpeech { each, drop };
+
+// An element as --keep and --drop name it: its local name. "tei:hi", as an xpath unit spells
+// TEI elements, is hi (the walker compares local names, so the prefixed form matched
+// nothing); nullopt for anything else with a prefix or outside a name's characters.
+std::optional<std::string> element_local_name(const std::string& given);
 
 struct SelectionRules {
   UnitKind unit = UnitKind::whole;
