@@ -7,7 +7,10 @@
 #SBATCH --output=manicule-batch-%A_%a.log
 # Usage (the batch options name the unit; every task must be given the same):
 #   job=$(sbatch --parsable examples/slurm-batch.sh ARCHIVE RESULTS --unit letter)
-#   sbatch --dependency=afterok:$job --wrap "cd RESULTS && rm -f new.sqlite* && manicule merge new.sqlite shard-*.sqlite && rm -f archive.sqlite-wal archive.sqlite-shm && mv new.sqlite archive.sqlite"
+#   sbatch --dependency=afterok:$job --wrap "cd RESULTS && manicule merge --exact archive.sqlite shard-*-of-8.sqlite"
+# (8, the number of tasks in --array: shares saved by an earlier array of another size are
+# left out. The merge is one transaction under the store's lock, so an analysis of
+# archive.sqlite running meanwhile makes it wait or refuse, never lose its results.)
 set -euo pipefail
 usage="usage: slurm-batch.sh ARCHIVE RESULTS --unit UNIT [other batch options]"
 archive=${1:?$usage}
@@ -16,12 +19,15 @@ shift 2
 k=$((SLURM_ARRAY_TASK_ID - SLURM_ARRAY_TASK_MIN + 1))   # works for --array=0-7 too
 n=$SLURM_ARRAY_TASK_COUNT
 mkdir -p "$results"
-scratch=$(mktemp -d)                                  # node-local, removed however the task ends
+scratch=$(mktemp -d)                                  # node-local, removed when the task ends (not if it is killed outright)
 trap 'rm -rf "$scratch"' EXIT
-local_store=$scratch/manicule-shard-$k.sqlite
+share=$results/shard-$k-of-$n.sqlite
+local_store=$scratch/manicule-shard-$k-of-$n.sqlite
 # Start from this share's previous store, if any: a re-run reads only what changed.
-if [ -f "$results/shard-$k.sqlite" ]; then cp "$results/shard-$k.sqlite" "$local_store"; fi
-save() { cp "$local_store" "$results/shard-$k.sqlite.part" && mv "$results/shard-$k.sqlite.part" "$results/shard-$k.sqlite"; }
+if [ -f "$share" ]; then cp "$share" "$local_store"; fi
+# Copied under a name of its own (two tasks of one share, after a double submission, must
+# not write into one file), then renamed into place at once.
+save() { local part; part=$(mktemp "$results/.shard-$k-of-$n.XXXXXX") && cp "$local_store" "$part" && mv "$part" "$share"; }
 # At the time limit Slurm sends SIGTERM to every process of the task: manicule then commits
 # what it has read and exits with 143; this trap keeps the script alive to save that.
 trap 'true' TERM

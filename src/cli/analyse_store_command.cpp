@@ -9,6 +9,7 @@
 #include "cli/attribution_cli_options.h"
 #include "cli/commands.h"
 #include "cli/progress_display.h"
+#include "cli/stop_notice.h"
 #include "cli/store_report.h"
 #include "core/error.h"
 #include "store/store_analysis.h"
@@ -73,7 +74,9 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
       throw Error(ErrorKind::usage, "the store's counts under settings " + std::to_string(settings_id) + " are " +
                                         chosen->settings.features + "; count others with batch --features");
     request.compute_pca = flags->pca;
+    report_unfinished_work(std::cerr, *db, settings_id);
     ProgressDisplay display(flags->quiet);
+    StopNotice notice("manicule: interrupted: no analysis stored; the store is as it was\n", display.enabled());
     store::StoreAnalysisOptions how{filters->to_filter(), flags->attribute, flags->recompute,
                                     display.analysis_progress()};
     auto result = store::analyse_store(*db, settings_id, request, how);

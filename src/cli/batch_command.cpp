@@ -15,6 +15,7 @@
 #include "core/error.h"
 #include "cli/interrupt_requests.h"
 #include "cli/progress_display.h"
+#include "cli/stop_notice.h"
 #include "cli/selection_options.h"
 #include "cli/store_report.h"
 #include "core/facade.h"
@@ -120,8 +121,9 @@ CommandRunner add_batch_command(CLI::App& app) {
       throw;
     } catch (const store::BatchInterrupted&) {
       display.clear();
-      std::cerr << "manicule: interrupted: " << last.files_done << " of " << last.files_total
-                << " file(s) are in the store, the rest is not; run the same command again to go on\n";
+      std::cerr << "manicule: interrupted: this run stored " << last.files_done << " of " << last.files_total
+                << " file(s); the others keep what the store held for them before, if anything; run the same "
+                   "command again to go on\n";
       return interrupts->exit_code();
     }
     display.clear();
@@ -146,6 +148,9 @@ CommandRunner add_batch_command(CLI::App& app) {
     report_left_aside(std::cerr, summary);
     report_failures(std::cerr, summary);
     if (flags->analyse) {
+      report_unfinished_work(std::cerr, *db, summary.settings_id);
+      StopNotice notice("manicule: interrupted during the analysis: every file is stored, no analysis\n",
+                        display.enabled());
       if (blas.valid()) blas.get();
       store::StoreAnalysisOptions how{options.filter, flags->attribute, flags->recompute,
                                       display.analysis_progress()};

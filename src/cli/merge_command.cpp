@@ -1,28 +1,49 @@
 // `manicule merge OUT IN...`: folds stores (e.g. the shard stores of an array job) into
-// one; OUT is created when missing. Contents held by several stores are kept once.
+// one; OUT is created when missing. Contents held by several stores are kept once. The
+// whole merge is one transaction on OUT, under OUT's lock: a merge stopped or failing part
+// way leaves OUT as it was, and no other run can use OUT meanwhile.
 #include <filesystem>
 #include <iostream>
 #include <memory>
 #include <set>
 #include <string>
+#include <utility>
+#include <vector>
 
 #include "cli/commands.h"
+#include "cli/stop_notice.h"
 #include "cli/store_report.h"
 #include "core/error.h"
+#include "store/run_log.h"
 #include "store/store_merge.h"
 #include "store/store_schema.h"
 
 namespace manicule::cli {
 
+namespace {
+
+// Whether two spellings name one file ("a.sqlite" and "./a.sqlite", a link): merging a
+// store into itself would wait on its own lock.
+bool same_file(const std::string& a, const std::string& b) {
+  std::error_code ec;
+  return a == b || std::filesystem::equivalent(a, b, ec);
+}
+
+}  // namespace
+
 CommandRunner add_merge_command(CLI::App& app) {
   auto* command = app.add_subcommand("merge", "Merge archive stores (e.g. the shards of an array job) into one");
   auto out = std::make_shared<std::string>();
   auto inputs = std::make_shared<std::vector<std::string>>();
+  auto exact = std::make_shared<bool>(false);
   command->add_option("output", *out, "the store to merge into (created if missing)")->required();
   command->add_option("inputs", *inputs, "stores to merge in")->required();
+  command->add_flag("--exact", *exact,
+                    "OUT ends holding just the files the inputs hold: files of OUT that no input has (deleted or "
+                    "renamed since an earlier merge) are removed, as batch removes vanished files");
   return [=]() -> int {
     for (const auto& in : *inputs)
-      if (in == *out) throw Error(ErrorKind::usage, "cannot merge " + in + " into itself");
+      if (same_file(in, *out)) throw Error(ErrorKind::usage, "cannot merge " + in + " into itself");
     // Every input is checked to be a store before the output is created, so that a
     // mistyped input does not leave a new, empty store behind.
     for (const auto& in : *inputs) store::open_store(in, false);
@@ -30,29 +51,44 @@ CommandRunner add_merge_command(CLI::App& app) {
     auto target = store::open_store(*out, true);
     std::set<std::string> held_before;  // OUT's files before the merge
     if (!created) held_before = store::stored_file_paths(*target);
+    std::vector<std::pair<std::string, store::MergeSummary>> merged;
+    std::size_t removed = 0;
     try {
+      StopNotice notice(created ? "manicule: interrupted: nothing merged; " + *out + " is an empty store\n"
+                                : "manicule: interrupted: " + *out + " is left as it was before this merge\n",
+                        false);
+      store::Transaction t(*target);
+      store::mark_interrupted_runs(*target);
+      std::set<std::string> input_files;
       for (const auto& in : *inputs) {
         auto source = store::open_store(in, false);
-        const store::MergeSummary merged = store::merge_store(*target, *source);
-        report_merge(std::cout, in, merged);
-        for (const auto& path : merged.input_files) held_before.erase(path);
+        merged.emplace_back(in, store::merge_store(*target, *source));
+        input_files.insert(merged.back().second.input_files.begin(), merged.back().second.input_files.end());
       }
+      if (*exact) removed = store::remove_files_except(*target, input_files);
+      for (const auto& path : input_files) held_before.erase(path);
+      t.commit();
     } catch (...) {
-      // Each input is merged in one transaction, so an existing output keeps what it had
-      // and the inputs reported merged; an output this merge created goes again.
+      // Nothing was committed: an existing output is as it was; one this merge created goes.
       if (created) {
         target.reset();
         store::remove_store_files(*out);
       }
       throw;
     }
+    for (const auto& [in, summary] : merged) {
+      report_merge(std::cout, in, summary);
+      for (const auto& note : summary.input_unfinished)
+        std::cerr << "manicule: note: " << in << ": " << note
+                  << "; the merged store lacks what that run did not bring in\n";
+    }
+    if (removed) std::cout << "removed " << removed << " file(s) that no input holds\n";
     // A file deleted or renamed since an earlier merge is gone from the shares but not
-    // from OUT: merge adds and updates, it never removes, so the curator is told.
-    if (!held_before.empty())
+    // from OUT: without --exact merge adds and updates, it never removes, so the curator is told.
+    if (!*exact && !held_before.empty())
       std::cerr << "manicule: note: " << *out << " holds " << held_before.size()
                 << " file(s) that none of the merged stores has, such as " << *held_before.begin()
-                << ": merge adds and updates files but never removes one; to hold just what the inputs hold, "
-                   "merge them into a new store (docs/store.md)\n";
+                << ": merge adds and updates files but never removes one unless given --exact (docs/store.md)\n";
     return 0;
   };
 }

@@ -25,6 +25,8 @@ class ProgressDisplay {
   AnalysisProgress analysis_progress();
   // Clears the line (before other output, and at the end).
   void clear();
+  // Whether it draws at all (a terminal, not --quiet).
+  bool enabled() const { return enabled_; }
 
  private:
   // Whether to draw now: at once, or 200 ms after the last drawing.

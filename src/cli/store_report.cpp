@@ -1,5 +1,7 @@
 #include "cli/store_report.h"
 
+#include "store/unfinished_work.h"
+
 #include "attribution/attribution_result.h"
 
 namespace manicule::cli {
@@ -51,6 +53,11 @@ void report_analysis(std::ostream& out, std::ostream& err, const store::StoreAna
 void report_merge(std::ostream& out, const std::string& input, const store::MergeSummary& s) {
   out << "merged " << input << ": " << s.readings_added << " content(s), " << s.segments_added << " segment(s), "
       << s.files_added << " file(s) added, " << s.files_updated << " updated\n";
+}
+
+void report_unfinished_work(std::ostream& err, store::Database& db, std::int64_t settings_id) {
+  for (const std::string& note : store::unfinished_work(db, settings_id))
+    err << "manicule: note: " << db.path() << ": " << note << "; the analysis measures what the store holds now\n";
 }
 
 }  // namespace manicule::cli

@@ -18,5 +18,8 @@ void report_failures(std::ostream& err, const store::BatchSummary& summary);
 void report_left_aside(std::ostream& err, const store::BatchSummary& summary);
 void report_analysis(std::ostream& out, std::ostream& err, const store::StoreAnalysisResult& result);
 void report_merge(std::ostream& out, const std::string& input, const store::MergeSummary& summary);
+// Before an analysis: the store's unfinished work under these settings (unfinished_work.h),
+// a note each, for the analysis then measures part of the archive.
+void report_unfinished_work(std::ostream& err, store::Database& db, std::int64_t settings_id);
 
 }  // namespace manicule::cli

@@ -15,8 +15,9 @@ namespace {
 std::string message_for(int code, const std::string& path, std::string_view doing, sqlite3* db) {
   int primary = code & 0xff;
   if (primary == SQLITE_BUSY || primary == SQLITE_LOCKED)
-    return "the store " + path + " is in use by another manicule run (batch, analyse-store or merge); " +
-           "wait for it to finish, or use another --store";
+    return "the store " + path + " is in use by another program (a manicule batch, analyse-store or merge, or " +
+           "an SQLite client such as the sqlite3 shell holding it open); wait for it to finish or close it, or use "
+           "another store";
   std::string detail = db ? sqlite3_errmsg(db) : sqlite3_errstr(code);
   if (primary == SQLITE_NOTADB || primary == SQLITE_CORRUPT)
     return path + " is not a manicule store (or is damaged): " + detail;

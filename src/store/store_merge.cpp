@@ -10,6 +10,7 @@
 #include "store/run_log.h"
 #include "store/store_settings.h"
 #include "store/store_vocabulary.h"
+#include "store/unfinished_work.h"
 
 namespace manicule::store {
 
@@ -103,9 +104,10 @@ void merge_files(Database& out, Database& input, MergeSummary& summary) {
 
 MergeSummary merge_store(Database& out, Database& input) {
   MergeSummary summary;
-  Transaction t(out);
-  mark_interrupted_runs(out);
-  std::int64_t run = begin_run(out, "merge", 0, {{"input", input.path()}});
+  summary.input_unfinished = unfinished_work(input);
+  nlohmann::json parameters = {{"input", input.path()}};
+  if (!summary.input_unfinished.empty()) parameters["input_unfinished"] = summary.input_unfinished;
+  std::int64_t run = begin_run(out, "merge", 0, parameters);
   for (const auto& settings : list_settings(input)) merge_settings(out, input, settings, run, summary);
   merge_files(out, input, summary);
   refresh_file_stems(out);
@@ -121,8 +123,19 @@ MergeSummary merge_store(Database& out, Database& input) {
   counters.files_read = 0;
   update_run(out, run, counters);
   finish_run(out, run, "done");
-  t.commit();
   return summary;
+}
+
+std::size_t remove_files_except(Database& out, const std::set<std::string>& kept) {
+  std::size_t removed = 0;
+  Statement remove = out.prepare("DELETE FROM files WHERE path = ?1");
+  for (const std::string& path : stored_file_paths(out)) {
+    if (kept.count(path)) continue;
+    remove.run(path);
+    ++removed;
+  }
+  if (removed) refresh_file_stems(out);
+  return removed;
 }
 
 std::set<std::string> stored_file_paths(Database& db) {

@@ -13,6 +13,8 @@ tables as one batch run over it. Outside references: the script itself as printe
 byte with the file), os.walk, SQLite's PRAGMA integrity_check.
 """
 import os
+import re
+import shutil
 import signal
 import subprocess
 import sys
@@ -57,10 +59,10 @@ with tempfile.TemporaryDirectory() as tmp:
                              capture_output=True, text=True, env=env)
     mtest.check(refused.returncode == 2, "a task with a bad option: exit %d, %s" % (refused.returncode, refused.stderr))
     mtest.check(not [n for n in os.listdir(tmp) if n.startswith("tmp")], "the refused task left its scratch folder")
-    mtest.check(not os.path.exists(os.path.join(results, "shard-1.sqlite")), "the refused task saved a store")
+    mtest.check(not os.path.exists(os.path.join(results, "shard-1-of-2.sqlite")), "the refused task saved a store")
 
     code, reported = task(1, stop_after=1)
-    share = os.path.join(results, "shard-1.sqlite")
+    share = os.path.join(results, "shard-1-of-2.sqlite")
     mtest.check(code == 143, "task 1 stopped by SIGTERM exited %d, expected 143" % code)
     mtest.check(os.path.exists(share), "the stopped task left no store of its share")
     first = storecheck.last_run(share)
@@ -80,8 +82,17 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(code == 0, "task 2 exited %d" % code)
     mtest.check(not [n for n in os.listdir(tmp) if n.startswith("tmp")], "a task left its scratch folder behind")
 
-    merged = os.path.join(tmp, "merged.sqlite")
-    mtest.run(["merge", merged, share, os.path.join(results, "shard-2.sqlite")])
+    mtest.check(sorted(os.listdir(results)) == ["shard-1-of-2.sqlite", "shard-2-of-2.sqlite"],
+                "the results folder holds %r" % sorted(os.listdir(results)))
+    # The merge job as the script's usage line writes it, for an array of 2 tasks instead of 8;
+    # a share left by an earlier array of 3 tasks is not taken in.
+    wrapped = re.search(r'--wrap "([^"]+)"', script_text).group(1)
+    mtest.check("-of-8.sqlite" in wrapped, "the merge line names no share of 8: " + wrapped)
+    shutil.copy(share, os.path.join(results, "shard-3-of-3.sqlite"))
+    merge_job = subprocess.run(["bash", "-c", wrapped.replace("RESULTS", results).replace("-of-8", "-of-2")],
+                               capture_output=True, text=True, env=dict(os.environ, PATH=shims + os.pathsep + os.environ["PATH"]))
+    mtest.check(merge_job.returncode == 0, "the merge job: exit %d, %s" % (merge_job.returncode, merge_job.stderr))
+    merged = os.path.join(results, "archive.sqlite")
     one = os.path.join(tmp, "one.sqlite")
     mtest.run(["batch", archive, "--store", one, "--unit", "speaker", "--quiet"])
     a, b = storecheck.logical_tables(one), storecheck.logical_tables(merged)

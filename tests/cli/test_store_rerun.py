@@ -164,7 +164,7 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--quiet"], check=False)
     holder.rollback()
     holder.close()
-    mtest.check(proc.returncode == 5 and "in use by another manicule run" in proc.stderr,
+    mtest.check(proc.returncode == 5 and "in use by another program" in proc.stderr,
                 "a held store: exit %d, %s" % (proc.returncode, proc.stderr))
 
     # Two runs at once on a fresh store: each finishes or refuses cleanly.

@@ -124,6 +124,15 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["merge", kept, damaged], check=False)
     mtest.check(proc.returncode == 3 and storecheck.logical_tables(kept) == kept_before,
                 "a failed merge changed the existing store: exit %d" % proc.returncode)
+    # A good input ahead of the damaged one: the merge is one transaction, so that input is
+    # not kept either (an OUT half-merged would look whole to the next analysis).
+    proc = mtest.run(["merge", kept, shards[2], damaged], check=False)
+    mtest.check(proc.returncode == 3 and storecheck.logical_tables(kept) == kept_before and "merged" not in proc.stdout,
+                "a merge failing at its second input kept the first: exit %d, %s" % (proc.returncode, proc.stdout))
+    # The same store under another spelling is still itself.
+    proc = mtest.run(["merge", kept, "." + os.sep + os.path.relpath(kept)], check=False)
+    mtest.check(proc.returncode == 2 and "into itself" in proc.stderr,
+                "a store merged into itself by another spelling: exit %d, %s" % (proc.returncode, proc.stderr))
 
     # A share with no file of the archive in it (more shares than files: the first such
     # share of 1,000 by the documented rule) is not an error, but says so.
@@ -166,6 +175,17 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["merge", target] + shares)
     mtest.check("holds 1 file(s) that none of the merged stores has, such as %s" % second in proc.stderr,
                 "a merge keeping a deleted file does not say so: %s" % proc.stderr)
+    # With --exact the same OUT follows the shares: the deleted play goes (os.walk says
+    # which are left), in place, under the store's lock (the job script's merge).
+    exact_target = os.path.join(tmp, "exact-target.sqlite")
+    shutil.copy(target, exact_target)
+    proc = mtest.run(["merge", "--exact", exact_target] + shares)
+    still_there = sorted(os.path.join(d, n) for d, _, names in os.walk(before_delete) for n in names)
+    exact_files = sorted(r[0] for r in storecheck.logical_tables(exact_target)["files"])
+    mtest.check(exact_files == still_there and "removed 1 file(s) that no input holds" in proc.stdout
+                and "none of the merged" not in proc.stderr,
+                "merge --exact after a deletion: %d files against %d, %s %s" %
+                (len(exact_files), len(still_there), proc.stdout, proc.stderr))
     fresh_merge = os.path.join(tmp, "fresh-merge.sqlite")
     proc = mtest.run(["merge", fresh_merge] + shares)
     # Each merge run counts the files its input holds (read with Python's sqlite3), as docs/store.md says.

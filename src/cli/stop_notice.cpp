@@ -1,0 +1,51 @@
+#include "cli/stop_notice.h"
+
+#include <unistd.h>
+
+#include <algorithm>
+#include <cstring>
+
+namespace manicule::cli {
+
+namespace {
+
+// Written by the handler with write(2) alone, which is safe in a signal handler; set before
+// the handler is installed and not changed while it is.
+char notice_text[1024];
+std::size_t notice_length = 0;
+
+extern "C" void on_stop(int signal_number) {
+  if (notice_length) {
+    ssize_t ignored = ::write(STDERR_FILENO, notice_text, notice_length);
+    (void)ignored;
+  }
+  // End as the signal would have ended the process: the shell sees 130 or 143.
+  struct sigaction plain {};
+  plain.sa_handler = SIG_DFL;
+  sigemptyset(&plain.sa_mask);
+  sigaction(signal_number, &plain, nullptr);
+  raise(signal_number);
+}
+
+}  // namespace
+
+StopNotice::StopNotice(const std::string& message, bool clear_line) {
+  const std::string text = (clear_line ? "\r\033[K" : "") + message;
+  notice_length = std::min(text.size(), sizeof notice_text);
+  std::memcpy(notice_text, text.data(), notice_length);
+  struct sigaction handler {};
+  handler.sa_handler = on_stop;
+  sigemptyset(&handler.sa_mask);
+  sigaction(SIGINT, nullptr, &previous_interrupt_);
+  sigaction(SIGTERM, nullptr, &previous_terminate_);
+  // A signal ignored when the program started stays ignored (see InterruptRequests).
+  if (previous_interrupt_.sa_handler != SIG_IGN) sigaction(SIGINT, &handler, nullptr);
+  if (previous_terminate_.sa_handler != SIG_IGN) sigaction(SIGTERM, &handler, nullptr);
+}
+
+StopNotice::~StopNotice() {
+  sigaction(SIGINT, &previous_interrupt_, nullptr);
+  sigaction(SIGTERM, &previous_terminate_, nullptr);
+}
+
+}  // namespace manicule::cli

@@ -1,0 +1,26 @@
+// Ctrl-C (SIGINT) and SIGTERM where a run cannot stop half-way and keep its work (an
+// analysis, a merge: each commits in one transaction): the process ends at once as it
+// would anyway, but first clears a progress line left on the terminal and says what the
+// stop left, so that a user or a job log is not left guessing. Outside the object's
+// lifetime the signals keep their usual effect.
+#pragma once
+#include <csignal>
+#include <string>
+
+namespace manicule::cli {
+
+class StopNotice {
+ public:
+  // `message` is written to stderr as it stands (one line, with its newline); with
+  // `clear_line`, a progress line is cleared first.
+  StopNotice(const std::string& message, bool clear_line);
+  ~StopNotice();  // puts back what was there before
+  StopNotice(const StopNotice&) = delete;
+  StopNotice& operator=(const StopNotice&) = delete;
+
+ private:
+  struct sigaction previous_interrupt_ {};
+  struct sigaction previous_terminate_ {};
+};
+
+}  // namespace manicule::cli

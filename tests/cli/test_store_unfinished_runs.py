@@ -1,0 +1,108 @@
+"""Archive store: partial work is named before it is analysed, and a stop during an analysis
+says what it left.
+
+1. A shard's batch stopped by SIGINT after one file (its run 'interrupted' in the runs
+   table, read with Python's sqlite3 module, the SQLite library itself): `analyse-store` on
+   the shard names that run and its counters as the table holds them; `merge` names the
+   shard's unfinished run on stderr and records it in the merge run's parameters (JSON read
+   by Python's json module); `analyse-store` on the merged store names the merge. Once the
+   shard's batch has been run again to the end and merged again, neither store has a note.
+2. Ctrl-C during `analyse-store` on a terminal (a pseudo-terminal from Python's pty module,
+   so that the progress display draws): ended by SIGINT (130 in a shell), the progress line cleared (ECMA-48 EL,
+   ESC [ K, after a carriage return) and the stop named; the runs table gains no analysis.
+Before these were written, both analyses ran in silence on the partial store, and the stop
+left the progress line standing with no message (a review found both).
+"""
+import json
+import os
+import pty
+import select
+import signal
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+
+
+def runs_of(store):
+    db = storecheck.connect(store)
+    try:
+        return db.execute("SELECT run_id, kind, status, files_found, files_read, parameters FROM runs ORDER BY run_id").fetchall()
+    finally:
+        db.close()
+
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    storecheck.copy_plays(storecheck.pick_plays(16, min_size=60000, max_size=160000), archive)
+    shard = os.path.join(tmp, "shard-1-of-2.sqlite")
+    batch = ["batch", archive, "--store", shard, "--shard", "1/2", "--unit", "speaker", "--threads", "1"]
+    code, reported, _ = storecheck.run_stopped([mtest.BIN] + batch + ["--verbose"], 1, signal.SIGINT)
+    runs = runs_of(shard)
+    mtest.check(code == 130 and runs[-1][2] == "interrupted",
+                "the shard's batch stopped after one file: exit %d, runs %r" % (code, runs))
+    run_id, _, _, found, read, _ = runs[-1]
+    said = "batch run %d" % run_id
+    proc = mtest.run(["analyse-store", "--store", shard, "--min-tokens", "100"], check=False)
+    mtest.check(said in proc.stderr and "interrupted after %d of %d file(s)" % (read, found) in proc.stderr,
+                "analyse-store on the stopped shard (run %d: %d of %d files): %s" % (run_id, read, found, proc.stderr))
+
+    merged = os.path.join(tmp, "archive.sqlite")
+    proc = mtest.run(["merge", merged, shard])
+    mtest.check(shard in proc.stderr and said in proc.stderr, "merge of the stopped shard says nothing: " + proc.stderr)
+    merge_runs = [r for r in runs_of(merged) if r[1] == "merge"]
+    parameters = json.loads(merge_runs[-1][5])
+    mtest.check(len(parameters.get("input_unfinished", [])) == 1 and said in parameters["input_unfinished"][0],
+                "the merge run's parameters: %r" % parameters)
+    proc = mtest.run(["analyse-store", "--store", merged, "--min-tokens", "100"], check=False)
+    mtest.check("merge run %d" % merge_runs[-1][0] in proc.stderr and shard in proc.stderr,
+                "analyse-store on the merged store says nothing of the stopped shard: " + proc.stderr)
+
+    # Completed and merged again: nothing left to say.
+    mtest.run(batch + ["--quiet"])
+    mtest.check(runs_of(shard)[-1][2] == "done", "the shard's batch again: %r" % (runs_of(shard)[-1],))
+    proc = mtest.run(["analyse-store", "--store", shard, "--min-tokens", "100"])
+    mtest.check(said not in proc.stderr, "a completed shard still noted: " + proc.stderr)
+    proc = mtest.run(["merge", merged, shard])
+    mtest.check(said not in proc.stderr, "merging the completed shard still notes: " + proc.stderr)
+    proc = mtest.run(["analyse-store", "--store", merged, "--min-tokens", "100"])
+    mtest.check("unfinished" not in proc.stderr and said not in proc.stderr,
+                "the merged store still noted after the shard was completed: " + proc.stderr)
+
+    # Ctrl-C while analyse-store draws its progress on a terminal.
+    whole = os.path.join(tmp, "whole.sqlite")
+    mtest.run(["batch", archive, "--store", whole, "--unit", "speaker", "--quiet"])
+    analyses_before = [r for r in runs_of(whole) if r[1] == "analysis"]
+    pid, fd = pty.fork()
+    if pid == 0:
+        os.execv(mtest.BIN, [mtest.BIN, "analyse-store", "--store", whole, "--min-tokens", "1", "--neighbours", "50",
+                             "--ranks", "1-5000", "--pca", "--recompute"])
+    seen, sent = b"", False
+    while True:
+        ready, _, _ = select.select([fd], [], [], 60)
+        if not ready:
+            break
+        try:
+            data = os.read(fd, 4096)
+        except OSError:  # the child has ended and closed the terminal
+            break
+        if not data:
+            break
+        seen += data
+        if not sent and b"analysis" in seen:
+            os.kill(pid, signal.SIGINT)
+            sent = True
+    _, status = os.waitpid(pid, 0)
+    os.close(fd)
+    text = seen.decode("utf-8", "replace")
+    mtest.check(sent and os.WIFEXITED(status) is False and os.WTERMSIG(status) == signal.SIGINT,
+                "analyse-store stopped by Ctrl-C: status %r, output %r" % (status, text[-300:]))
+    mtest.check("\r\x1b[Kmanicule: interrupted: no analysis stored" in text,
+                "the stop left no message after a cleared line: %r" % text[-300:])
+    mtest.check([r for r in runs_of(whole) if r[1] == "analysis"] == analyses_before,
+                "a stopped analysis left a run behind")
+    mtest.check(storecheck.integrity(whole) == "ok", "PRAGMA integrity_check fails after the stop")
+
+mtest.done()
