@@ -249,6 +249,15 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
   // below and kept, and WAL then needs no shared-memory file.
   db->exec("PRAGMA locking_mode = EXCLUSIVE");
   db->exec("PRAGMA busy_timeout = 1500");
+  // Whether it is a store is asked before anything is written: switching another
+  // application's SQLite file to WAL (below) would change that file for good.
+  {
+    Statement tables = db->prepare(
+        "SELECT count(*), count(CASE WHEN name = 'store_info' THEN 1 END) FROM sqlite_master WHERE type = 'table'");
+    tables.step();
+    if (tables.int64_at(0) > 0 && tables.int64_at(1) == 0)
+      throw Error(ErrorKind::bad_input, path + " is an SQLite file but not a manicule store (left as it was)");
+  }
   // 16 KiB pages for a new store (an existing one keeps its own): most of what is stored
   // is count blobs of a few KiB each, which 4 KiB pages split over chains of overflow
   // pages. First runs took 5 % (plays) to 10 % (novels) less time and CPU than with 4 KiB;

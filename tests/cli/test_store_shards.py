@@ -96,6 +96,23 @@ with tempfile.TemporaryDirectory() as tmp:
                     "merging a TEI file: exit %d, %s" % (proc.returncode, proc.stderr))
     mtest.check(not os.path.exists(fresh), "a refused merge left a new store behind")
     mtest.check(storecheck.logical_tables(merged) == before, "a refused merge changed the store")
+    # Another application's SQLite file (made by Python's sqlite3 module, rollback journal)
+    # is refused by every command that opens a store, and keeps every byte (hashlib): it was
+    # once switched to WAL mode before the refusal.
+    foreign = os.path.join(tmp, "contacts.sqlite")
+    db = sqlite3.connect(foreign)
+    db.execute("PRAGMA journal_mode = DELETE")
+    db.execute("CREATE TABLE contacts (name TEXT)")
+    db.execute("INSERT INTO contacts VALUES ('Ada')")
+    db.commit()
+    db.close()
+    foreign_sha = storecheck.sha256_of(foreign)
+    for args in (["analyse-store", "--store", foreign, "--list-settings"], ["batch", archive, "--store", foreign] + common,
+                 ["merge", foreign, shards[0]], ["merge", fresh, foreign]):
+        proc = mtest.run(args, check=False)
+        mtest.check(proc.returncode == 3 and "not a manicule store" in proc.stderr and storecheck.sha256_of(foreign) == foreign_sha,
+                    "%s on another application's SQLite file: exit %d, %s" % (args[0], proc.returncode, proc.stderr))
+    mtest.check(not os.path.exists(fresh), "a merge of a foreign file left a new store behind")
 
     # A store with one segment's counts damaged: its blob cut to the byte 0xff, a varint
     # that never ends (the format in docs/store.md). The segment is the largest, so that an
