@@ -5,6 +5,7 @@
 #include <sstream>
 
 #include "core/error.h"
+#include "core/regular_file.h"
 
 namespace manicule {
 
@@ -96,6 +97,7 @@ std::vector<LabelOverride> parse_label_file(std::string_view text, const std::st
 }
 
 std::vector<LabelOverride> load_label_file(const std::string& path) {
+  std::fclose(open_regular_file(path, "the labels file"));  // a pipe or a folder is refused, not read as nothing
   std::ifstream in(path, std::ios::binary);
   if (!in) throw Error(ErrorKind::bad_input, "cannot read the labels file", path);
   std::ostringstream text;

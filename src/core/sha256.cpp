@@ -7,7 +7,7 @@
 #include <cstring>
 
 #include "core/error.h"
-#include "core/open_failure.h"
+#include "core/regular_file.h"
 
 namespace manicule {
 
@@ -44,11 +44,7 @@ std::string sha256_hex(std::string_view bytes) {
 }
 
 std::string sha256_file(const std::string& path) {
-  std::FILE* f = std::fopen(path.c_str(), "rb");
-  if (!f) {
-    const int error_number = errno;
-    throw Error(ErrorKind::bad_input, "cannot read the file: " + open_failure_reason(path, error_number), path);
-  }
+  std::FILE* f = open_regular_file(path);
   Sha256 h;
   char buf[1 << 16];
   std::size_t n;

@@ -4,6 +4,7 @@
 #include <sstream>
 
 #include "core/error.h"
+#include "core/regular_file.h"
 
 namespace manicule {
 
@@ -25,6 +26,7 @@ std::vector<std::string> parse_stop_list(std::string_view text) {
 }
 
 std::vector<std::string> load_stop_list(const std::string& path) {
+  std::fclose(open_regular_file(path, "the stop list"));  // a pipe or a folder is refused, not read as nothing
   std::ifstream in(path, std::ios::binary);
   if (!in) throw Error(ErrorKind::bad_input, "cannot read the stop list", path);
   std::ostringstream text;

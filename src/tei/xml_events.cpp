@@ -14,7 +14,7 @@
 #include <vector>
 
 #include "core/error.h"
-#include "core/open_failure.h"
+#include "core/regular_file.h"
 #include "core/sha256.h"
 
 namespace manicule {
@@ -250,12 +250,7 @@ class ChunkReader {
  public:
   explicit ChunkReader(const XmlSource& source) : source_(source) {
     if (!source.data) {
-      file_ = std::fopen(source.name.c_str(), "rb");
-      if (!file_) {
-        const int error_number = errno;
-        throw Error(ErrorKind::bad_input, "cannot read the file: " + open_failure_reason(source.name, error_number),
-                    source.name);
-      }
+      file_ = open_regular_file(source.name);
     }
   }
   ~ChunkReader() {

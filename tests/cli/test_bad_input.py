@@ -320,4 +320,25 @@ mtest.check(kept.returncode == 0 and stage_words > 0 and tokens(kept) > tokens(p
 p = subprocess.run([mtest.BIN, "segments", "--unit", "whole", "--drop", "x:hi", play], capture_output=True, text=True)
 mtest.check(p.returncode == 2 and "--drop x:hi" in p.stderr, "--drop x:hi: exit %d, %s" % (p.returncode, p.stderr))
 
+# 19. What is not a regular file, named as an input or met again in a re-run, is refused
+# with its kind and the run goes on (os.mkfifo makes a named pipe, POSIX; /dev/zero is a
+# device without end): a pipe blocked the open for ever, /dev/zero was read without end.
+# A folder given as the stop list was taken for an empty list.
+pipe = os.path.join(tmp, "pipe.xml")
+os.mkfifo(pipe)
+endless = os.path.join(tmp, "endless.xml")
+os.symlink("/dev/zero", endless)
+store = os.path.join(tmp, "special.sqlite")
+p = subprocess.run([mtest.BIN, "batch", pipe, endless, play, "--store", store, "--unit", "whole", "--quiet"],
+                   capture_output=True, text=True, timeout=120)
+mtest.check(p.returncode == 1 and pipe + ": cannot read the file: it is a named pipe" in p.stderr
+            and endless + ": cannot read the file: it is a device" in p.stderr,
+            "batch over a pipe and a device: exit %d, %s" % (p.returncode, p.stderr))
+p = subprocess.run([mtest.BIN, "segments", "--unit", "whole", pipe], capture_output=True, text=True, timeout=120)
+mtest.check(p.returncode == 3 and "it is a named pipe" in p.stderr, "segments of a pipe: exit %d, %s" % (p.returncode, p.stderr))
+p = subprocess.run([mtest.BIN, "distances", "--unit", "whole", "--stop-words", tmp, play, play],
+                   capture_output=True, text=True, timeout=120)
+mtest.check(p.returncode == 3 and "cannot read the stop list: it is a folder" in p.stderr,
+            "a folder as the stop list: exit %d, %s" % (p.returncode, p.stderr))
+
 mtest.done()
