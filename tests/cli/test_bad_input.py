@@ -73,6 +73,28 @@ mtest.check(p.returncode == 3, "entity bomb: exit 3 expected, got %d (%s)" % (p.
 mtest.check("bomb.xml" in p.stderr, "entity bomb: message names the file: " + p.stderr)
 mtest.check(peak_kb < 100 * 1024, "entity bomb: peak memory %d KiB, limit 100 MiB" % peak_kb)
 
+# 3b. One internal entity of 9.6 KB used 20,000 times: no nesting, so libxml2's own checks
+# pass it, but it brings 192 MB of text out of a 100 KB file (a review took 1 GB of memory
+# and 7.7 s with it). Refused, naming the file and the line of the reference that went too
+# far, in bounded memory. A document using a short entity a few times still reads, and
+# counts the entity's words as lxml (which expands internal entities) finds them.
+phrase = "lorem ipsum " * 800
+wide = write("wide-entity.xml", '<?xml version="1.0"?>\n<!DOCTYPE TEI [\n<!ENTITY s "%s">\n]>\n' % phrase + TEI_OPEN +
+             HEADER + "<text><body>\n<p>" + "&s; " * 20000 + "</p></body></text></TEI>\n")
+p = run_segments(wide)
+peak_kb = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss
+mtest.check(p.returncode == 3 and "wide-entity.xml:" in p.stderr and "entities expand too far" in p.stderr,
+            "a wide entity used 20,000 times: exit %d, %s" % (p.returncode, p.stderr[:300]))
+mtest.check(peak_kb < 200 * 1024, "a wide entity: peak memory %d KiB, limit 200 MiB" % peak_kb)
+modest = write("modest-entity.xml", '<?xml version="1.0"?>\n<!DOCTYPE TEI [\n<!ENTITY ed "edited by the ferry clerk">\n]>\n' +
+               TEI_OPEN + HEADER + "<text><body><p>" + "Notes &ed; and more. " * 5 + "</p></body></text></TEI>\n")
+p = subprocess.run([mtest.BIN, "segments", "--unit", "whole", modest], capture_output=True, text=True, timeout=120)
+lxml_words = len(re.findall(r"[^\W\d_]+", "".join(etree.parse(modest).getroot().find(
+    "{http://www.tei-c.org/ns/1.0}text").itertext())))
+rows = [l for l in p.stdout.splitlines() if l and not l.startswith("#")]
+mtest.check(p.returncode == 0 and int(rows[1].split("\t")[2]) == lxml_words,
+            "a short entity used 5 times: exit %d, %s against lxml's %d words" % (p.returncode, rows[1:], lxml_words))
+
 # 4. External entity pointing at a local file: refused; the file's content never appears.
 secret = write("secret.txt", MARKER + "\n")
 xxe = write("xxe.xml", '<?xml version="1.0"?>\n<!DOCTYPE TEI [\n<!ENTITY secret SYSTEM "%s">\n]>\n' % secret +
