@@ -45,6 +45,10 @@ int main(int argc, char** argv) {
     }
   }
   cli::refuse_signs_on_unsigned_options(app);
+  // Usage errors begin like every other message, so that a log line says whose it is.
+  app.failure_message([](const CLI::App*, const CLI::Error& e) {
+    return "manicule: " + std::string(e.what()) + "\nRun with --help for more information.\n";
+  });
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {

@@ -38,7 +38,10 @@ void SelectionOptions::add_to(CLI::App& command, const std::string& default_unit
   command.add_flag("--long-s", long_s, "read long s (ſ) as s");
   command.add_flag("--ligatures", ligatures, "read ligatures (ﬁ, ﬂ, ...) as their letters");
   command.add_flag("--no-apostrophe-fold", no_apostrophes, "keep apostrophe variants (’ ʼ) apart from '");
-  command.add_option("--threads", threads, "files read at once (default: one per core)");
+  // More readers than files or cores gain nothing; 256 keeps a typing slip ("--threads
+  // 100000") from asking the system for a hundred thousand threads.
+  command.add_option("--threads", threads, "files read at once, 1-256 (default: one per core)")
+      ->check(CLI::Range(1u, 256u));
 }
 
 namespace {

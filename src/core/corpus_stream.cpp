@@ -6,8 +6,10 @@
 #include <exception>
 #include <filesystem>
 #include <mutex>
+#include <system_error>
 #include <thread>
 
+#include "core/error.h"
 #include "core/parallel_items.h"
 #include "core/sha256.h"
 #include "core/worker_start.h"
@@ -149,7 +151,16 @@ void read_files_streaming(const Request& request, const std::vector<std::string>
     finished.hand_over_all();
   };
   std::vector<std::thread> pool;
-  for (unsigned t = 0; t < workers; ++t) pool.emplace_back(work);
+  for (unsigned t = 0; t < workers; ++t) {
+    // A system that grants fewer threads than asked (a process limit) gets the work done by
+    // those it granted, or by this thread when it grants none, rather than an abort.
+    try {
+      pool.emplace_back(work);
+    } catch (const std::system_error&) {
+      break;
+    }
+  }
+  if (pool.empty()) work();
   for (auto& t : pool) t.join();
   if (finished.failure()) std::rethrow_exception(finished.failure());
 }

@@ -4,6 +4,7 @@
 #include <atomic>
 #include <exception>
 #include <mutex>
+#include <system_error>
 #include <thread>
 #include <vector>
 
@@ -36,11 +37,16 @@ void parallel_items(std::size_t count, unsigned threads,
   };
   std::vector<std::thread> pool;
   pool.reserve(helpers);
-  for (std::size_t t = 0; t < helpers; ++t)
-    pool.emplace_back([&] {
-      on_worker_start();
-      run();
-    });
+  for (std::size_t t = 0; t < helpers; ++t) {
+    try {
+      pool.emplace_back([&] {
+        on_worker_start();
+        run();
+      });
+    } catch (const std::system_error&) {
+      break;  // the system grants no more threads: the ones running, and this one, do the work
+    }
+  }
   run();
   for (std::thread& thread : pool) thread.join();
   if (first_error) std::rethrow_exception(first_error);

@@ -8,6 +8,7 @@
 #include "attribution/segment_roles.h"
 #include "core/error.h"
 #include "core/facade.h"
+#include "core/side_task.h"
 #include "core/utf8_text.h"
 #include "measure/cosine_gram.h"
 #include "measure/pairwise_distances.h"
@@ -165,7 +166,7 @@ void add_selection_notes(const ArchiveFilter& filter, std::size_t min_tokens, co
 
 std::future<void> open_blas_ahead(const Request& request) {
   if (!uses_gram_matrix(request.measure)) return {};
-  return std::async(std::launch::async, open_blas);
+  return start_side_task(open_blas);
 }
 
 StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const Request& request,
@@ -221,7 +222,7 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   // closing would otherwise spend after everything else. It is done now, on another
   // thread, while the analysis computes; nothing below uses the store (whose connection
   // has no mutex) until the results are written, and an error waits for it too.
-  std::future<void> checkpoint = std::async(std::launch::async, [&db] { db.checkpoint(); });
+  std::future<void> checkpoint = start_side_task([&db] { db.checkpoint(); });
   Request analysis_request = request;
   analysis_request.compute_distances = true;
   analysis_request.keep_distance_matrix = false;  // the store keeps each segment's nearest only
