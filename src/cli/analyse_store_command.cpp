@@ -10,6 +10,7 @@
 #include "cli/commands.h"
 #include "cli/progress_display.h"
 #include "cli/stop_notice.h"
+#include "cli/text_checks.h"
 #include "cli/store_report.h"
 #include "core/error.h"
 #include "store/store_analysis.h"
@@ -29,7 +30,7 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
     bool pca = false, attribute = false, recompute = false, list = false, quiet = false;
   };
   auto flags = std::make_shared<Flags>();
-  command->add_option("--store", flags->store, "the SQLite store made by batch")->required();
+  command->add_option("--store", flags->store, "the SQLite store made by batch")->required()->check(not_blank());
   command->add_option("--settings", flags->settings,
                       "which reading settings' counts (see --list-settings; default: those of the latest batch run)");
   command->add_flag("--list-settings", flags->list, "list the reading settings the store holds, and stop");

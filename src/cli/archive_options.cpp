@@ -3,6 +3,7 @@
 #include <string_view>
 
 #include "cli/number_checks.h"
+#include "cli/text_checks.h"
 #include "core/error.h"
 #include "text/language_tags.h"
 
@@ -22,14 +23,19 @@ int parse_year(const std::string& text, const std::string& whole) {
 
 void ArchiveFilterOptions::add_to(CLI::App& command) {
   command.add_option("--folder", folder, "only files inside this folder (below an input folder, or a path)")
+      ->check(not_blank())
       ->group("Sub-corpus");
   command.add_option("--author", author, "only files whose header authors hold each word of this text (any order, letter case ignored)")
+      ->check(not_blank())
       ->group("Sub-corpus");
   command.add_option("--years", years, "only segments dated in FROM-TO (1800-1850, 1800-, -1850): a letter by its own date, else by its file's (the work's; docs/store.md)")
+      ->check(not_blank())
       ->group("Sub-corpus");
   command.add_option("--language", language, "only segments in this language, their own or else their file's (de, en, eng, en-GB)")
+      ->check(not_blank())
       ->group("Sub-corpus");
   command.add_option("--title", title, "only files whose header title matches this pattern (* and ?, case ignored)")
+      ->check(not_blank())
       ->group("Sub-corpus");
 }
 

@@ -16,6 +16,7 @@
 #include "cli/interrupt_requests.h"
 #include "cli/progress_display.h"
 #include "cli/stop_notice.h"
+#include "cli/text_checks.h"
 #include "cli/selection_options.h"
 #include "cli/store_report.h"
 #include "core/facade.h"
@@ -55,8 +56,11 @@ CommandRunner add_batch_command(CLI::App& app) {
   selection->add_to(*command);
   analysis->add_to(*command);
   filters->add_to(*command);
-  command->add_option("--store", flags->store, "the SQLite store to bring up to date (created if missing)")->required();
-  command->add_option("--shard", flags->shard, "read only share K of N of the files (K/N, e.g. 2/8), for array jobs");
+  command->add_option("--store", flags->store, "the SQLite store to bring up to date (created if missing)")
+      ->required()
+      ->check(not_blank());
+  command->add_option("--shard", flags->shard, "read only share K of N of the files (K/N, e.g. 2/8), for array jobs")
+      ->check(not_blank());
   command->add_flag("--verify-hashes", flags->verify,
                     "hash every file, even when its size and modification time are as stored");
   command->add_option("--commit-every", flags->commit_every,
