@@ -39,17 +39,11 @@ std::vector<int> ordinal_path(xmlNodePtr node) {
   return {path.rbegin(), path.rend()};
 }
 
-// Evaluates the editor's XPath on a tree parsed without entity substitution or any
-// loading (safe), with the prefix "tei" bound to the TEI namespace.
-std::set<std::vector<int>> evaluate_xpath(const XmlSource& source, const std::string& expression) {
-  const int options = XML_PARSE_NONET | XML_PARSE_NOWARNING | XML_PARSE_NOERROR | XML_PARSE_NOCDATA;
-  std::unique_ptr<xmlDoc, void (*)(xmlDocPtr)> doc(
-      source.data ? xmlReadMemory(source.data, static_cast<int>(source.size), source.name.c_str(), nullptr, options)
-                  : xmlReadFile(source.name.c_str(), nullptr, options),
-      xmlFreeDoc);
-  if (!doc) throw Error(ErrorKind::bad_input, "could not parse the file for the XPath selection", source.name);
-  std::unique_ptr<xmlXPathContext, void (*)(xmlXPathContextPtr)> ctx(xmlXPathNewContext(doc.get()),
-                                                                      xmlXPathFreeContext);
+// The editor's XPath evaluated on `doc`, with the prefix "tei" bound to the TEI namespace:
+// the ordinal paths of the elements it selects. Error(usage) if it does not compile or
+// selects something other than nodes.
+std::set<std::vector<int>> select_elements(xmlDocPtr doc, const std::string& expression) {
+  std::unique_ptr<xmlXPathContext, void (*)(xmlXPathContextPtr)> ctx(xmlXPathNewContext(doc), xmlXPathFreeContext);
   XPathErrors errors;
   ctx->error = on_xpath_error;
   ctx->userData = &errors;
@@ -62,18 +56,39 @@ std::set<std::vector<int>> evaluate_xpath(const XmlSource& source, const std::st
                                       " (TEI elements need the prefix tei:, e.g. //tei:div[@type='poem'])");
   }
   std::set<std::vector<int>> targets;
-  if (result->type == XPATH_NODESET && result->nodesetval) {
-    for (int i = 0; i < result->nodesetval->nodeNr; ++i) {
-      xmlNodePtr node = result->nodesetval->nodeTab[i];
-      if (node->type == XML_ELEMENT_NODE) targets.insert(ordinal_path(node));
-    }
+  if (result->type == XPATH_NODESET) {
+    if (result->nodesetval)
+      for (int i = 0; i < result->nodesetval->nodeNr; ++i) {
+        xmlNodePtr node = result->nodesetval->nodeTab[i];
+        if (node->type == XML_ELEMENT_NODE) targets.insert(ordinal_path(node));
+      }
   } else {
     throw Error(ErrorKind::usage, "the XPath '" + expression + "' does not select elements");
   }
   return targets;
 }
 
+// Evaluates the editor's XPath on a tree parsed without entity substitution or any
+// loading (safe).
+std::set<std::vector<int>> evaluate_xpath(const XmlSource& source, const std::string& expression) {
+  const int options = XML_PARSE_NONET | XML_PARSE_NOWARNING | XML_PARSE_NOERROR | XML_PARSE_NOCDATA;
+  std::unique_ptr<xmlDoc, void (*)(xmlDocPtr)> doc(
+      source.data ? xmlReadMemory(source.data, static_cast<int>(source.size), source.name.c_str(), nullptr, options)
+                  : xmlReadFile(source.name.c_str(), nullptr, options),
+      xmlFreeDoc);
+  if (!doc) throw Error(ErrorKind::bad_input, "could not parse the file for the XPath selection", source.name);
+  return select_elements(doc.get(), expression);
+}
+
 }  // namespace
+
+void check_xpath_unit(const std::string& expression) {
+  static const char kEmptyTei[] = "<TEI xmlns=\"http://www.tei-c.org/ns/1.0\"/>";
+  std::unique_ptr<xmlDoc, void (*)(xmlDocPtr)> doc(
+      xmlReadMemory(kEmptyTei, sizeof kEmptyTei - 1, "unit.xml", nullptr, XML_PARSE_NONET), xmlFreeDoc);
+  if (!doc) throw Error(ErrorKind::internal, "could not make the document that checks an XPath");
+  select_elements(doc.get(), expression);
+}
 
 std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules& rules, SourceDigest* digest,
                                    HeaderInfo* header) {

@@ -3,6 +3,7 @@
 #include <cctype>
 
 #include "core/error.h"
+#include "tei/reader.h"
 
 namespace manicule {
 
@@ -62,6 +63,7 @@ SelectionRules SelectionRules::make(const std::string& unit_spec, Preset preset)
   else if (unit_spec.rfind("xpath:", 0) == 0 && unit_spec.size() > 6) {
     rules.unit = UnitKind::xpath;
     rules.xpath = unit_spec.substr(6);
+    check_xpath_unit(rules.xpath);
   } else {
     throw Error(ErrorKind::usage, "unknown unit '" + unit_spec +
                                       "': use speaker, letter, chapter, whole or xpath:EXPR");

@@ -70,4 +70,18 @@ for r in rows:
     words = sum(len(re.findall(r"\w+", "".join(p.itertext()))) for p in div.iter("{%s}p" % TEI))
     mtest.check(int(r["tokens"]) > 0 and words > 0, "%s: %s tokens, lxml finds %d words in its paragraphs"
                 % (r["segment"], r["tokens"], words))
+# An XPath that cannot select elements in any file is a usage error before anything is read
+# (lxml agrees it is no element selection: it raises, or returns a number); a batch once
+# recorded every file as failing under it, and its settings then became the store's latest.
+store_dir = mtest.scratch_folder("manicule-xpath-store-")
+for expression in ("//[", "count(//tei:p)", "//foo:p"):
+    try:
+        value = etree.parse(path).xpath(expression, namespaces={"tei": TEI})
+        selects_elements = isinstance(value, list)
+    except etree.XPathError:
+        selects_elements = False
+    store = os.path.join(store_dir, "refused.sqlite")
+    p = mtest.run(["batch", path, "--store", store, "--unit", "xpath:" + expression], check=False)
+    mtest.check(not selects_elements and p.returncode == 2 and "the XPath '%s'" % expression in p.stderr
+                and not os.path.exists(store), "xpath:%s: exit %d, %s" % (expression, p.returncode, p.stderr))
 mtest.done()
