@@ -271,6 +271,7 @@ struct TeiWalker::State {
   std::vector<Built> built;
   std::unordered_map<std::string, std::size_t> speaker_index;  // speaker key -> built index
   std::map<std::string, int> unit_counter;          // for generated ids
+  std::map<std::string, long, std::less<>> unit_id_lines;  // a unit's xml:id -> its line
   std::vector<int> letters_per_tei;
 
   State(const SelectionRules& r, std::string f, std::string st, const std::set<std::vector<int>>* x)
@@ -326,6 +327,17 @@ struct TeiWalker::State {
       if (u.who.empty() && !sp_grp_who.empty()) split_pointers_into(sp_grp_who.back(), u.who);
     }
     if (!frame.xml_id.empty()) {
+      // Two units of one xml:id would be one segment id for two texts (and a pointer to
+      // either is ambiguous): the document breaks the rule that an xml:id is unique.
+      if (rules.unit != UnitKind::speaker) {
+        auto [seen, fresh] = unit_id_lines.emplace(frame.xml_id, tag.line);
+        if (!fresh)
+          throw Error(ErrorKind::bad_input,
+                      "xml:id \"" + seen->first + "\" is given to two " + unit_name(rules.unit) + " units (lines " +
+                          std::to_string(seen->second) + " and " + std::to_string(tag.line) +
+                          "); an xml:id must be unique in its document (W3C xml:id 1.0)",
+                      file, tag.line);
+      }
       u.local_id.assign(frame.xml_id);
       u.pointer.assign("#").append(frame.xml_id);
     } else if (!speech_of_listed_persons(u)) {

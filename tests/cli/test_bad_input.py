@@ -363,4 +363,22 @@ p = subprocess.run([mtest.BIN, "distances", "--unit", "whole", "--stop-words", t
 mtest.check(p.returncode == 3 and "cannot read the stop list: it is a folder" in p.stderr,
             "a folder as the stop list: exit %d, %s" % (p.returncode, p.stderr))
 
+# 20. Two letters given one xml:id (xml:id 1.0 says an xml:id is unique in its document):
+# refused with exit 3, naming the file and both lines as lxml reads them; it was refused as a
+# usage error (exit 2) with no file ("segment id ... occurs twice in one profile").
+letters_text = open(os.path.join(mtest.ROOT, "examples", "ferry-letters.xml"), encoding="utf-8").read()
+twice = write("same-id.xml", letters_text.replace('xml:id="L02"', 'xml:id="L01"', 1))
+try:  # libxml2 under lxml refuses it too
+    etree.parse(twice)
+    lxml_refuses = False
+except etree.XMLSyntaxError as e:
+    lxml_refuses = "ID L01 already defined" in str(e)
+mtest.check(lxml_refuses, "lxml reads two elements of one xml:id without a word")
+lines = [d.sourceline for d in etree.parse(twice, etree.XMLParser(recover=True)).iter("{http://www.tei-c.org/ns/1.0}div")
+         if d.get("{http://www.w3.org/XML/1998/namespace}id") == "L01"]
+p = subprocess.run([mtest.BIN, "segments", "--unit", "letter", twice], capture_output=True, text=True, timeout=120)
+mtest.check(len(lines) == 2 and p.returncode == 3 and "same-id.xml:%d:" % lines[1] in p.stderr
+            and "lines %d and %d" % tuple(lines) in p.stderr,
+            "two letters of one xml:id (lxml: lines %r): exit %d, %s" % (lines, p.returncode, p.stderr))
+
 mtest.done()
