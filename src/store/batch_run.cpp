@@ -216,6 +216,16 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
                     "store holds none from it; nothing read or recorded (is the folder spelled as below the input " +
                     "folder, e.g. 1850/letters?)");
   }
+  // Inputs that hold no TEI file at all where the store holds files from them: most often
+  // an archive not mounted (an empty mount point), which would otherwise empty the store,
+  // and a job array's merge after it. (A --folder removed from the archive, above, is
+  // taken at its word.)
+  if (files.empty() && !vanished.empty() && options.filter.folder.empty() && summary.unlisted.empty()) {
+    throw Error(ErrorKind::nothing_selected,
+                "no TEI file (*.xml, *.tei) found under the inputs, where the store holds " +
+                    std::to_string(vanished.size()) + " file(s) from them, such as " + vanished.front().path +
+                    ": is the archive mounted? Nothing read or removed; to empty the store, delete it");
+  }
   progress.files_done = counters.files_unchanged;
   const auto report_failing = [&] {
     for (auto& [path, message] : failing) summary.failures.push_back(BatchFailure{path, message});

@@ -1,0 +1,64 @@
+"""Archive store: inputs that hold no TEI file at all, where the store holds files from
+them (an archive whose mount failed leaves an empty mount point), are refused with exit 4
+and the store kept byte for byte (SHA-256 by Python's hashlib): the run removed every stored
+file, and a job array's merge then emptied the merged store too. The files back in place,
+the next run reads none of them again (its report: each is unchanged or hashed and known)
+and the files table (read with Python's sqlite3) holds what os.walk finds. A
+--folder removed from the archive is still taken at its word: its files are removed (the
+files table against os.walk).
+"""
+import hashlib
+import os
+import shutil
+import sqlite3
+import sys
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+
+tmp = mtest.scratch_folder("manicule-empty-archive-")
+archive = os.path.join(tmp, "archive")
+os.makedirs(os.path.join(archive, "sea"))
+shutil.copy(os.path.join(mtest.ROOT, "examples", "ferry-letters.xml"), archive)
+shutil.copy(os.path.join(mtest.ROOT, "examples", "ferry-play.xml"), os.path.join(archive, "sea"))
+store = os.path.join(tmp, "archive.sqlite")
+common = ["--store", store, "--unit", "letter", "--quiet"]
+mtest.run(["batch", archive] + common)
+
+
+def sha(path):
+    with open(path, "rb") as f:
+        return hashlib.sha256(f.read()).hexdigest()
+
+
+def stored(path):
+    db = sqlite3.connect(path)
+    try:
+        return sorted(r[0] for r in db.execute("SELECT path FROM files"))
+    finally:
+        db.close()
+
+
+on_disk = sorted(os.path.join(d, n) for d, _, names in os.walk(archive) for n in names)
+away = os.path.join(tmp, "away")
+shutil.move(archive, away)
+os.makedirs(archive)  # the empty mount point
+before = sha(store)
+p = mtest.run(["batch", archive] + common, check=False)
+mtest.check(p.returncode == 4 and "is the archive mounted?" in p.stderr and "holds 2 file(s)" in p.stderr
+            and sha(store) == before, "an empty archive folder: exit %d, %s" % (p.returncode, p.stderr))
+os.rmdir(archive)
+shutil.move(away, archive)
+p = mtest.run(["batch", archive] + common)
+paths = stored(store)
+mtest.check(paths == on_disk and "2 file(s): 0 read," in p.stdout,
+            "back in place: %r, %s" % (paths, p.stdout))
+
+# A sub-folder removed, named by --folder: its file goes from the store.
+shutil.rmtree(os.path.join(archive, "sea"))
+p = mtest.run(["batch", archive, "--folder", "sea"] + common)
+paths = stored(store)
+left = sorted(os.path.join(d, n) for d, _, names in os.walk(archive) for n in names)
+mtest.check(paths == left, "after removing the folder sea: the store holds %r, os.walk finds %r" % (paths, left))
+
+mtest.done()
