@@ -21,6 +21,7 @@
 #include "cli/store_report.h"
 #include "core/facade.h"
 #include "store/batch_run.h"
+#include "store/run_log.h"
 #include "store/store_analysis.h"
 #include "store/store_schema.h"
 
@@ -115,10 +116,16 @@ CommandRunner add_batch_command(CLI::App& app) {
             last = p;
             if (interrupts->requested()) throw store::BatchInterrupted();
           });
-    } catch (const Error& e) {
-      // Refused before anything was read (a --folder naming nothing): a store this run
-      // created holds nothing, and goes again.
-      if (store_is_new && e.kind() == ErrorKind::nothing_selected) {
+    } catch (const Error&) {
+      // Refused before any run was recorded (a --folder naming nothing, an input that does
+      // not exist): a store this run created holds nothing, and goes again. One that holds
+      // a run keeps it, so that the next run goes on from its commits.
+      bool holds_nothing = false;
+      try {
+        holds_nothing = store_is_new && !store::any_run_recorded(*db);
+      } catch (const Error&) {  // a store that cannot even say so is kept; the first error is the one told
+      }
+      if (holds_nothing) {
         db.reset();
         store::remove_store_files(flags->store);
       }

@@ -33,6 +33,8 @@ bool any_run_unfinished(Database& db) {
   return db.prepare("SELECT 1 FROM runs WHERE status = 'running' LIMIT 1").step();
 }
 
+bool any_run_recorded(Database& db) { return db.prepare("SELECT 1 FROM runs LIMIT 1").step(); }
+
 void mark_interrupted_runs(Database& db) {
   db.exec("UPDATE runs SET status = 'interrupted' WHERE status = 'running'");
 }

@@ -29,6 +29,8 @@ void finish_run(Database& db, std::int64_t run_id, const std::string& status);
 // Whether a run was left unfinished (killed); the next run that writes marks it with
 // mark_interrupted_runs.
 bool any_run_unfinished(Database& db);
+// Whether the store records any run at all (a store just made holds none).
+bool any_run_recorded(Database& db);
 void mark_interrupted_runs(Database& db);
 
 }  // namespace manicule::store

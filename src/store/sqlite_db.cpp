@@ -66,6 +66,15 @@ std::string why_not_writable(const std::string& path) {
 Database::Database(const std::string& path, bool create) : path_(path) {
   if (!create && !std::filesystem::exists(path))
     throw Error(ErrorKind::bad_input, "no such store: " + path + " (make one with manicule batch --store)");
+  {
+    // A device or a pipe (/dev/null) opens as an empty database and fails at the first
+    // write as "disk I/O error"; a folder is said below, with the other reasons.
+    std::error_code ec;
+    const auto status = std::filesystem::status(path, ec);
+    if (!ec && std::filesystem::exists(status) && !std::filesystem::is_regular_file(status) &&
+        !std::filesystem::is_directory(status))
+      throw Error(ErrorKind::bad_input, path + " is not a file (a device or a pipe), so it cannot be a store");
+  }
   int flags = SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOMUTEX | (create ? SQLITE_OPEN_CREATE : 0);
   int rc = sqlite3_open_v2(path.c_str(), &db_, flags, nullptr);
   if (rc != SQLITE_OK) {

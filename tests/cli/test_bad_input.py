@@ -10,6 +10,7 @@ import errno
 import os
 import re
 import resource
+import sqlite3
 import subprocess
 import sys
 
@@ -380,5 +381,37 @@ p = subprocess.run([mtest.BIN, "segments", "--unit", "letter", twice], capture_o
 mtest.check(len(lines) == 2 and p.returncode == 3 and "same-id.xml:%d:" % lines[1] in p.stderr
             and "lines %d and %d" % tuple(lines) in p.stderr,
             "two letters of one xml:id (lxml: lines %r): exit %d, %s" % (lines, p.returncode, p.stderr))
+
+# 21. Bytes that are not UTF-8 in a document that declares none: refused (lxml refuses them
+# too) with one line naming the file, also as a batch stores it (file_list.error, read with
+# Python's sqlite3): libxml2 puts the offending bytes on a line of their own.
+latin = write("latin1-undeclared.xml", (TEI_OPEN + HEADER + "<text><body><p>caf\u00e9 au lait</p></body></text></TEI>\n")
+              .encode("latin-1"), mode="wb")
+try:
+    etree.parse(latin)
+    lxml_refuses = False
+except etree.XMLSyntaxError:
+    lxml_refuses = True
+p = subprocess.run([mtest.BIN, "segments", "--unit", "whole", latin], capture_output=True, text=True, timeout=120)
+mtest.check(lxml_refuses and p.returncode == 3 and p.stderr.count("\n") == 1 and "latin1-undeclared.xml:1" in p.stderr,
+            "undeclared Latin-1: exit %d, %r" % (p.returncode, p.stderr))
+store = os.path.join(tmp, "latin.sqlite")
+p = subprocess.run([mtest.BIN, "batch", latin, "--store", store, "--unit", "whole", "--quiet"], capture_output=True, text=True)
+db = sqlite3.connect(store)
+errors = [r[0] for r in db.execute("SELECT error FROM file_list WHERE error IS NOT NULL")]
+db.close()
+mtest.check(p.returncode == 1 and len(errors) == 1 and "\n" not in errors[0], "the stored error: %r" % errors)
+
+# 22. A store that cannot be one: a device (/dev/null opened as an empty database and failed
+# at its first write, "disk I/O error", exit 5), and an input that does not exist, which
+# left a new, empty store behind.
+for args in (["analyse-store", "--store", "/dev/null"], ["merge", os.path.join(tmp, "m.sqlite"), "/dev/null"]):
+    p = subprocess.run([mtest.BIN] + args, capture_output=True, text=True)
+    mtest.check(p.returncode == 3 and "/dev/null is not a file" in p.stderr, "%r: exit %d, %s" % (args, p.returncode, p.stderr))
+fresh = os.path.join(tmp, "never.sqlite")
+p = subprocess.run([mtest.BIN, "batch", os.path.join(tmp, "no-such-folder"), "--store", fresh, "--unit", "letter"],
+                   capture_output=True, text=True)
+mtest.check(p.returncode == 3 and not any(os.path.exists(fresh + x) for x in ("", "-wal", "-shm")),
+            "batch of a missing input: exit %d, store left: %s" % (p.returncode, os.path.exists(fresh)))
 
 mtest.done()
