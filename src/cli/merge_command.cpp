@@ -17,6 +17,7 @@
 #include "store/run_log.h"
 #include "store/store_merge.h"
 #include "store/store_schema.h"
+#include "store/store_settings.h"
 
 namespace manicule::cli {
 
@@ -52,6 +53,7 @@ CommandRunner add_merge_command(CLI::App& app) {
     std::set<std::string> held_before;  // OUT's files before the merge
     if (!created) held_before = store::stored_file_paths(*target);
     std::vector<std::pair<std::string, store::MergeSummary>> merged;
+    std::set<std::string> input_settings;  // the reading settings' keys the inputs hold
     std::size_t removed = 0;
     try {
       StopNotice notice(created ? "manicule: interrupted: nothing merged; " + *out + " is an empty store\n"
@@ -62,6 +64,7 @@ CommandRunner add_merge_command(CLI::App& app) {
       std::set<std::string> input_files;
       for (const auto& in : *inputs) {
         auto source = store::open_store(in, false);
+        for (const auto& settings : store::list_settings(*source)) input_settings.insert(settings.settings.key);
         merged.emplace_back(in, store::merge_store(*target, *source));
         input_files.insert(merged.back().second.input_files.begin(), merged.back().second.input_files.end());
       }
@@ -83,6 +86,12 @@ CommandRunner add_merge_command(CLI::App& app) {
                   << "; the merged store lacks what that run did not bring in\n";
     }
     if (removed) std::cout << "removed " << removed << " file(s) that no input holds\n";
+    // Shares read with different options (one task given --no-fold) hold counts that no
+    // analysis takes together: each analysis takes one settings' counts.
+    if (input_settings.size() > 1)
+      std::cerr << "manicule: note: the merged stores hold counts read under " << input_settings.size()
+                << " different reading settings, and an analysis takes the counts of one (see analyse-store "
+                   "--list-settings and --settings)\n";
     // A file deleted or renamed since an earlier merge is gone from the shares but not
     // from OUT: without --exact merge adds and updates, it never removes, so the curator is told.
     if (!*exact && !held_before.empty())

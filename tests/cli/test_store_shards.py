@@ -50,7 +50,8 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check(len(stored) > 0, "shard %d/3 is empty" % k)
 
     merged = os.path.join(tmp, "merged.sqlite")
-    mtest.run(["merge", merged] + shards)
+    proc = mtest.run(["merge", merged] + shards)
+    mtest.check("different reading settings" not in proc.stderr, "shards read alike said to differ: " + proc.stderr)
 
     a, b = storecheck.logical_tables(one), storecheck.logical_tables(merged)
     mtest.check(a == b, "one run and merged shards differ: " + storecheck.diff_summary(a, b))
@@ -84,6 +85,13 @@ with tempfile.TemporaryDirectory() as tmp:
     before = storecheck.logical_tables(merged)
     mtest.run(["merge", merged, shards[0]])
     mtest.check(storecheck.logical_tables(merged) == before, "merging a shard twice changed the store")
+
+    # A share read with other options (--no-fold) is merged, and said to hold other settings:
+    # an analysis takes one settings' counts, so its files would be left out silently.
+    unfolded = os.path.join(tmp, "unfolded.sqlite")
+    mtest.run(["batch", archive, "--store", unfolded, "--shard", "1/3", "--no-fold"] + common)
+    proc = mtest.run(["merge", os.path.join(tmp, "mixed.sqlite"), shards[1], unfolded])
+    mtest.check("under 2 different reading settings" in proc.stderr, "a share read with --no-fold merged silently: " + proc.stderr)
 
     # An input that is not a store (here a TEI file, as sqlite3 itself would refuse it) is
     # refused with exit code 3 (bad input) and its name, before the output is created, and
