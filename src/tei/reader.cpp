@@ -68,15 +68,44 @@ std::set<std::vector<int>> select_elements(xmlDocPtr doc, const std::string& exp
   return targets;
 }
 
+// The first error of the tree's parse, kept rather than printed by libxml2.
+struct TreeErrors {
+  std::string message;
+  long line = 0;
+};
+
+void on_tree_error(void* user, xmlErrorPtr error) {
+  auto ctxt = static_cast<xmlParserCtxtPtr>(user);
+  auto errors = static_cast<TreeErrors*>(ctxt->_private);
+  if (!errors || !error || error->level < XML_ERR_ERROR || !errors->message.empty()) return;
+  errors->message = error->message ? error->message : "malformed XML";
+  while (!errors->message.empty() && (errors->message.back() == '\n' || errors->message.back() == ' '))
+    errors->message.pop_back();
+  for (auto at = errors->message.find('\n'); at != std::string::npos; at = errors->message.find('\n', at))
+    errors->message.replace(at, 1, "; ");
+  errors->line = error->line;
+}
+
 // Evaluates the editor's XPath on a tree parsed without entity substitution or any
-// loading (safe).
+// loading (safe), within libxml2's limits for trees.
 std::set<std::vector<int>> evaluate_xpath(const XmlSource& source, const std::string& expression) {
   const int options = XML_PARSE_NONET | XML_PARSE_NOWARNING | XML_PARSE_NOERROR | XML_PARSE_NOCDATA;
+  std::unique_ptr<xmlParserCtxt, void (*)(xmlParserCtxtPtr)> ctxt(xmlNewParserCtxt(), xmlFreeParserCtxt);
+  if (!ctxt) throw Error(ErrorKind::internal, "could not create an XML parser", source.name);
+  TreeErrors errors;
+  ctxt->_private = &errors;
+  ctxt->sax->serror = on_tree_error;
   std::unique_ptr<xmlDoc, void (*)(xmlDocPtr)> doc(
-      source.data ? xmlReadMemory(source.data, static_cast<int>(source.size), source.name.c_str(), nullptr, options)
-                  : xmlReadFile(source.name.c_str(), nullptr, options),
+      source.data ? xmlCtxtReadMemory(ctxt.get(), source.data, static_cast<int>(source.size), source.name.c_str(),
+                                      nullptr, options)
+                  : xmlCtxtReadFile(ctxt.get(), source.name.c_str(), nullptr, options),
       xmlFreeDoc);
-  if (!doc) throw Error(ErrorKind::bad_input, "could not parse the file for the XPath selection", source.name);
+  if (!doc)
+    throw Error(ErrorKind::bad_input,
+                (errors.message.empty() ? std::string("malformed XML") : errors.message) +
+                    " (an xpath: unit reads the document as a tree first, within libxml2's limits for trees: "
+                    "256 levels of elements, 10 MB a text node)",
+                source.name, errors.line);
   return select_elements(doc.get(), expression);
 }
 
@@ -93,7 +122,18 @@ void check_xpath_unit(const std::string& expression) {
 std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules& rules, SourceDigest* digest,
                                    HeaderInfo* header) {
   std::set<std::vector<int>> targets;
-  if (rules.unit == UnitKind::xpath) targets = evaluate_xpath(source, rules.xpath);
+  if (rules.unit == UnitKind::xpath) {
+    try {
+      targets = evaluate_xpath(source, rules.xpath);
+    } catch (const Error& e) {
+      if (e.kind() != ErrorKind::bad_input) throw;
+      // A malformed document is told in the streaming reader's words (a file cut short, with
+      // the line its open element began on); only a tree's own limits are told as above.
+      TeiWalker probe(rules, source.name, file_stem(source.name), &targets);
+      parse_xml(source, probe);
+      throw;
+    }
+  }
   TeiWalker walker(rules, source.name, file_stem(source.name), &targets);
   SourceDigest d = parse_xml(source, walker);
   if (digest) *digest = d;

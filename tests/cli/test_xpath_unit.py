@@ -84,4 +84,28 @@ for expression in ("//[", "count(//tei:p)", "//foo:p"):
     p = mtest.run(["batch", path, "--store", store, "--unit", "xpath:" + expression], check=False)
     mtest.check(not selects_elements and p.returncode == 2 and "the XPath '%s'" % expression in p.stderr
                 and not os.path.exists(store), "xpath:%s: exit %d, %s" % (expression, p.returncode, p.stderr))
+# A document the xpath: unit cannot take: one cut short is told as the streaming reader tells
+# it for any unit (the line its open element began on), not as "could not parse the file for
+# the XPath selection"; one nested deeper than libxml2's 256 levels for trees (lxml, on the
+# same libxml2, refuses it too) says so on one line, with no message of libxml2's own.
+cut = os.path.join(store_dir, "cut.xml")
+with open(path, encoding="utf-8") as f:
+    whole_text = f.read()
+with open(cut, "w", encoding="utf-8") as f:
+    f.write(whole_text[:len(whole_text) // 2])
+by_xpath = mtest.run(["segments", "--unit", "xpath://tei:div", cut], check=False)
+by_letter = mtest.run(["segments", "--unit", "letter", cut], check=False)
+mtest.check(by_xpath.returncode == 3 and by_xpath.stderr == by_letter.stderr and "cut.xml:" in by_xpath.stderr,
+            "a file cut short: xpath unit says %r, letter unit %r" % (by_xpath.stderr, by_letter.stderr))
+deep = os.path.join(store_dir, "deep.xml")
+with open(deep, "w", encoding="utf-8") as f:
+    f.write('<TEI xmlns="%s"><text><body>' % TEI + "<div>" * 300 + "<p>deep</p>" + "</div>" * 300 + "</body></text></TEI>")
+try:
+    etree.parse(deep)
+    lxml_refuses = False
+except etree.XMLSyntaxError as e:
+    lxml_refuses = "depth" in str(e).lower()
+p = mtest.run(["segments", "--unit", "xpath://tei:p", deep], check=False)
+mtest.check(lxml_refuses and p.returncode == 3 and "256 levels of elements" in p.stderr and p.stderr.count("\n") == 1,
+            "300 levels deep: lxml refuses %s; exit %d, %r" % (lxml_refuses, p.returncode, p.stderr))
 mtest.done()
