@@ -71,6 +71,10 @@ struct ParseState {
 // edition seen comes near (a rule of thumb, no source).
 std::size_t entity_allowance(const ParseState& st) { return (std::size_t{8} << 20) + 8 * st.source_bytes; }
 
+// Far beyond any edition (TEI's deepest structures, nested apparatus within verse within
+// speeches, stay under a hundred): a rule of thumb, no source.
+constexpr std::size_t kMaxElementDepth = 10000;
+
 ParseState* state_of(void* ctx) {
   auto ctxt = static_cast<xmlParserCtxtPtr>(ctx);
   return static_cast<ParseState*>(ctxt->_private);
@@ -96,6 +100,17 @@ void on_start(void* ctx, const xmlChar* local, const xmlChar*, const xmlChar* ur
   tag.ns = st->last_ns;
   tag.in_tei_namespace = st->last_ns_is_tei;
   tag.line = xmlSAX2GetLineNumber(ctx);
+  if (st->open_lines.size() >= kMaxElementDepth) {
+    // libxml2's push parser sets no depth limit of its own; each open element costs the
+    // reader memory, so a document of a million nested elements grew to 213 MB.
+    if (st->first_error.empty()) {
+      st->first_error = "elements nested more than " + std::to_string(kMaxElementDepth) + " levels deep; refused";
+      st->error_line = tag.line;
+    }
+    st->stopped = true;
+    xmlStopParser(st->ctxt);
+    return;
+  }
   st->open_lines.push_back(tag.line);
   tag.attributes = attributes;
   tag.attribute_count = nb_attributes;

@@ -1,7 +1,8 @@
 // Hardened, streaming XML input: libxml2's SAX2 push parser fed in chunks, so memory does
 // not grow with file size. Security: no network (XML_PARSE_NONET), no external DTD, no
 // external entity is ever loaded (refused with an error), internal entities are expanded
-// under libxml2's amplification limits (no XML_PARSE_HUGE), element depth is bounded.
+// under libxml2's amplification limits (no XML_PARSE_HUGE) and an allowance of our own for
+// their replacement text, and elements nest at most 10,000 deep (the push parser has no limit).
 // UTF-8 and UTF-16 (with byte-order mark or declaration) are accepted.
 #pragma once
 #include <libxml/xmlstring.h>

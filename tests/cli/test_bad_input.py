@@ -414,4 +414,13 @@ p = subprocess.run([mtest.BIN, "batch", os.path.join(tmp, "no-such-folder"), "--
 mtest.check(p.returncode == 3 and not any(os.path.exists(fresh + x) for x in ("", "-wal", "-shm")),
             "batch of a missing input: exit %d, store left: %s" % (p.returncode, os.path.exists(fresh)))
 
+# 23. Elements nested 20,000 deep: libxml2's push parser sets no limit of its own (lxml's tree
+# parse stops at 256), and each open element costs the reader memory (a million levels took
+# 213 MB). Refused naming the file and the line, in little memory.
+deep = write("deep.xml", TEI_OPEN + "<text><body>\n" + "<div>" * 20000 + "<p>x</p>" + "</div>" * 20000 +
+             "</body></text></TEI>\n")
+p = run_segments(deep)
+mtest.check(p.returncode == 3 and "deep.xml:2" in p.stderr and "nested more than 10000 levels" in p.stderr,
+            "20,000 levels deep: exit %d, %s" % (p.returncode, p.stderr))
+
 mtest.done()
