@@ -25,21 +25,10 @@ extern "C" void on_stop_signal(int signal_number) {
 
 InterruptRequests::InterruptRequests() {
   stop_signal.store(0);
-  struct sigaction handler {};
-  handler.sa_handler = on_stop_signal;
-  sigemptyset(&handler.sa_mask);
-  sigaction(SIGINT, nullptr, &previous_interrupt_);
-  sigaction(SIGTERM, nullptr, &previous_terminate_);
-  // A signal ignored when the program started (a background job of a shell without job
-  // control ignores SIGINT) stays ignored.
-  if (previous_interrupt_.sa_handler != SIG_IGN) sigaction(SIGINT, &handler, nullptr);
-  if (previous_terminate_.sa_handler != SIG_IGN) sigaction(SIGTERM, &handler, nullptr);
+  saved_ = install_stop_handler(on_stop_signal);
 }
 
-InterruptRequests::~InterruptRequests() {
-  sigaction(SIGINT, &previous_interrupt_, nullptr);
-  sigaction(SIGTERM, &previous_terminate_, nullptr);
-}
+InterruptRequests::~InterruptRequests() { restore_stop_handlers(saved_); }
 
 bool InterruptRequests::requested() const { return stop_signal.load() != 0; }
 

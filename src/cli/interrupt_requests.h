@@ -3,7 +3,7 @@
 // recorded as interrupted; a second one ends the process at once, as it would without this. Outside
 // the object's lifetime the signals keep their usual effect.
 #pragma once
-#include <csignal>
+#include "cli/stop_signals.h"
 
 namespace manicule::cli {
 
@@ -19,8 +19,7 @@ class InterruptRequests {
   int exit_code() const;
 
  private:
-  struct sigaction previous_interrupt_ {};
-  struct sigaction previous_terminate_ {};
+  SavedStopHandlers saved_;
 };
 
 }  // namespace manicule::cli

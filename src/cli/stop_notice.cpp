@@ -33,19 +33,9 @@ StopNotice::StopNotice(const std::string& message, bool clear_line) {
   const std::string text = (clear_line ? "\r\033[K" : "") + message;
   notice_length = std::min(text.size(), sizeof notice_text);
   std::memcpy(notice_text, text.data(), notice_length);
-  struct sigaction handler {};
-  handler.sa_handler = on_stop;
-  sigemptyset(&handler.sa_mask);
-  sigaction(SIGINT, nullptr, &previous_interrupt_);
-  sigaction(SIGTERM, nullptr, &previous_terminate_);
-  // A signal ignored when the program started stays ignored (see InterruptRequests).
-  if (previous_interrupt_.sa_handler != SIG_IGN) sigaction(SIGINT, &handler, nullptr);
-  if (previous_terminate_.sa_handler != SIG_IGN) sigaction(SIGTERM, &handler, nullptr);
+  saved_ = install_stop_handler(on_stop);
 }
 
-StopNotice::~StopNotice() {
-  sigaction(SIGINT, &previous_interrupt_, nullptr);
-  sigaction(SIGTERM, &previous_terminate_, nullptr);
-}
+StopNotice::~StopNotice() { restore_stop_handlers(saved_); }
 
 }  // namespace manicule::cli

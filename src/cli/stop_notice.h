@@ -4,8 +4,9 @@
 // stop left, so that a user or a job log is not left guessing. Outside the object's
 // lifetime the signals keep their usual effect.
 #pragma once
-#include <csignal>
 #include <string>
+
+#include "cli/stop_signals.h"
 
 namespace manicule::cli {
 
@@ -19,8 +20,7 @@ class StopNotice {
   StopNotice& operator=(const StopNotice&) = delete;
 
  private:
-  struct sigaction previous_interrupt_ {};
-  struct sigaction previous_terminate_ {};
+  SavedStopHandlers saved_;
 };
 
 }  // namespace manicule::cli
