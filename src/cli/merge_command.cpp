@@ -66,6 +66,13 @@ CommandRunner add_merge_command(CLI::App& app) {
         auto source = store::open_store(in, false);
         for (const auto& settings : store::list_settings(*source)) input_settings.insert(settings.settings.key);
         merged.emplace_back(in, store::merge_store(*target, *source));
+        // --exact removes what no input holds; an input that has not read all of its share
+        // yet would take the rest of the share out of OUT with it.
+        if (*exact && !merged.back().second.input_unfinished.empty())
+          throw Error(ErrorKind::nothing_selected,
+                      in + ": " + merged.back().second.input_unfinished.front() +
+                          "; merge --exact would remove from " + *out +
+                          " the files that run has not reached: complete it first, or merge without --exact");
         input_files.insert(merged.back().second.input_files.begin(), merged.back().second.input_files.end());
       }
       if (*exact) removed = store::remove_files_except(*target, input_files);

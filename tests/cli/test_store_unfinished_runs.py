@@ -5,7 +5,8 @@ says what it left.
    table, read with Python's sqlite3 module, the SQLite library itself): `analyse-store` on
    the shard names that run and its counters as the table holds them; `merge` names the
    shard's unfinished run on stderr and records it in the merge run's parameters (JSON read
-   by Python's json module); `analyse-store` on the merged store names the merge. Once the
+   by Python's json module); `analyse-store` on the merged store names the merge, and
+   `merge --exact` refuses the shard (it would remove the files the shard has not read). Once the
    shard's batch has been run again to the end and merged again, neither store has a note.
 2. Ctrl-C during `analyse-store` on a terminal (a pseudo-terminal from Python's pty module,
    so that the progress display draws): ended by SIGINT (130 in a shell), the progress line cleared (ECMA-48 EL,
@@ -56,6 +57,12 @@ with tempfile.TemporaryDirectory() as tmp:
     parameters = json.loads(merge_runs[-1][5])
     mtest.check(len(parameters.get("input_unfinished", [])) == 1 and said in parameters["input_unfinished"][0],
                 "the merge run's parameters: %r" % parameters)
+    # --exact removes what no input holds: with an input that has not read its whole share,
+    # that would be the rest of the share. Refused (exit 4), OUT as it was (hashlib).
+    kept_sha = storecheck.sha256_of(merged)
+    proc = mtest.run(["merge", "--exact", merged, shard], check=False)
+    mtest.check(proc.returncode == 4 and "--exact would remove" in proc.stderr and storecheck.sha256_of(merged) == kept_sha,
+                "merge --exact of an unfinished shard: exit %d, %s" % (proc.returncode, proc.stderr))
     proc = mtest.run(["analyse-store", "--store", merged, "--min-tokens", "100"], check=False)
     mtest.check("merge run %d" % merge_runs[-1][0] in proc.stderr and shard in proc.stderr,
                 "analyse-store on the merged store says nothing of the stopped shard: " + proc.stderr)
