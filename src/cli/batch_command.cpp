@@ -135,6 +135,7 @@ CommandRunner add_batch_command(CLI::App& app) {
       std::cerr << "manicule: interrupted: this run stored " << last.files_done << " of " << last.files_total
                 << " file(s); the others keep what the store held for them before, if anything; run the same "
                    "command again to go on\n";
+      db->close();
       return interrupts->exit_code();
     }
     display.clear();
@@ -146,6 +147,7 @@ CommandRunner add_batch_command(CLI::App& app) {
     };
     if (interrupts->requested()) {
       report_batch(std::cout, flags->store, summary);
+      db->close();
       return stopped_after_last_file(flags->analyse);
     }
     // An analysis may take long: from here on Ctrl-C ends it at once, as usual (what the
@@ -170,7 +172,7 @@ CommandRunner add_batch_command(CLI::App& app) {
       display.clear();
       report_analysis(std::cout, std::cerr, result);
     }
-    db.reset();  // closed, its log taken in, before a stop noted meanwhile is answered
+    db->close();  // its log taken in (or an error), before a stop noted meanwhile is answered
     if (interrupts && interrupts->requested()) return stopped_after_last_file(false);
     return summary.failures.empty() && summary.unlisted.empty() ? kExitOk : kExitSomeFilesFailed;
   };

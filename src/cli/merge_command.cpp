@@ -78,6 +78,7 @@ CommandRunner add_merge_command(CLI::App& app) {
       if (*exact) removed = store::remove_files_except(*target, input_files);
       for (const auto& path : input_files) held_before.erase(path);
       t.commit();
+      target->close();  // OUT whole in its one file, or an error (a full disk)
     } catch (...) {
       // Nothing was committed: an existing output is as it was; one this merge created goes.
       if (created) {

@@ -123,6 +123,22 @@ void Database::checkpoint() {
   if (rc != SQLITE_OK) fail(rc, "checkpoint");
 }
 
+void Database::close() {
+  if (!db_) return;
+  int log_frames = -1, copied_frames = -1;
+  int rc = sqlite3_wal_checkpoint_v2(db_, nullptr, SQLITE_CHECKPOINT_PASSIVE, &log_frames, &copied_frames);
+  if (rc == SQLITE_OK && log_frames != copied_frames) rc = SQLITE_BUSY;
+  if (rc != SQLITE_OK) {
+    const std::string reason = (rc & 0xff) == SQLITE_BUSY ? "part of it is still in use" : sqlite3_errmsg(db_);
+    throw Error(ErrorKind::write_failed,
+                "store " + path_ + ": its log (" + path_ + "-wal) could not be copied into it (" + reason +
+                    "): the store is whole only with that log beside it, so keep the two files together, "
+                    "make room, and run the command again");
+  }
+  sqlite3_close_v2(db_);  // the log is in: what is left to do cannot fail the store
+  db_ = nullptr;
+}
+
 std::int64_t Database::last_insert_id() const { return sqlite3_last_insert_rowid(db_); }
 int Database::changes() const { return sqlite3_changes(db_); }
 

@@ -81,6 +81,10 @@ class Database {
   // Copies what the write-ahead log holds into the database file and syncs it. Not while
   // another thread uses this connection (it is opened without SQLite's mutex).
   void checkpoint();
+  // Closes the store as one whole file: its log copied in (all of it) and removed. A log that
+  // cannot be copied (a full disk) is an Error, for the store is then whole only with its
+  // log beside it, and a copy of the file alone (a job script's) would be damaged.
+  void close();
   Statement prepare(std::string_view sql) { return Statement(*this, sql); }
   std::int64_t last_insert_id() const;
   int changes() const;

@@ -1,0 +1,68 @@
+"""Archive store on a full disk: whenever `batch` exits 0, the store file alone is whole
+(a copy of the file without its log passes SQLite's PRAGMA integrity_check, run by Python's
+sqlite3 module, and holds every file of the archive, os.walk), because the job script saves
+that file alone; when the log cannot be copied into the store at the end (the disk full
+then), `batch` exits 5 and says to keep the two files together. A review found exit 0 with
+a store file that, copied alone, was "database disk image is malformed".
+
+The disk is a small tmpfs (mount(8), as root), tried at sizes from 1.5 to 8 MiB, so that the
+disk fills at every stage of a run: while files are committed, at the last commit, and
+while the log is copied in at the end. Run only where root may mount a tmpfs; elsewhere it
+is reported skipped.
+"""
+import os
+import shutil
+import sqlite3
+import subprocess
+import sys
+import tempfile
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+
+if os.geteuid() != 0:
+    print("SKIP: not root, so no small file system can be mounted")
+    raise SystemExit(77)
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    storecheck.copy_plays(storecheck.pick_plays(60, min_size=30000, max_size=120000), archive)
+    plays = sorted(os.path.join(d, n) for d, _, names in os.walk(archive) for n in names)
+    disk = os.path.join(tmp, "disk")
+    os.makedirs(disk)
+    outcomes = []
+    for size_kib in range(1536, 8193, 512):
+        if subprocess.run(["mount", "-t", "tmpfs", "-o", "size=%dk" % size_kib, "tmpfs", disk]).returncode != 0:
+            print("SKIP: a tmpfs cannot be mounted here (a container without the right?)")
+            raise SystemExit(77)
+        try:
+            store = os.path.join(disk, "share.sqlite")
+            p = mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--threads", "1", "--quiet"],
+                          check=False)
+            if p.returncode == 0:
+                alone = os.path.join(tmp, "alone.sqlite")
+                shutil.copy(store, alone)
+                db = sqlite3.connect(alone)
+                check = db.execute("PRAGMA integrity_check").fetchone()[0]
+                held = sorted(r[0] for r in db.execute("SELECT path FROM files"))
+                db.close()
+                os.remove(alone)
+                mtest.check(check == "ok" and held == plays and not os.path.exists(store + "-wal"),
+                            "%d KiB, exit 0: the store alone says %r and holds %d of %d plays"
+                            % (size_kib, check, len(held), len(plays)))
+                outcomes.append("whole")
+            else:
+                mtest.check(p.returncode == 5 and ("disk is full" in p.stderr or "database or disk is full" in p.stderr),
+                            "%d KiB: exit %d, %s" % (size_kib, p.returncode, p.stderr))
+                if "could not be copied into it" in p.stderr:
+                    mtest.check("keep the two files together" in p.stderr, "%d KiB: %s" % (size_kib, p.stderr))
+                    outcomes.append("log kept")
+                else:
+                    outcomes.append("full while reading")
+        finally:
+            subprocess.run(["umount", disk])
+    print("outcomes by size:", outcomes)
+    mtest.check("whole" in outcomes, "no size was large enough for the archive: %r" % outcomes)
+
+mtest.done()
