@@ -8,6 +8,7 @@
 #include <set>
 
 #include "core/error.h"
+#include "core/regular_file.h"
 #include "core/segment_id_prefixes.h"
 #include "tei/tei_walker.h"
 
@@ -123,6 +124,8 @@ std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules
                                    HeaderInfo* header) {
   std::set<std::vector<int>> targets;
   if (rules.unit == UnitKind::xpath) {
+    // libxml2 opens the file itself for the tree: a named pipe would block it for ever.
+    if (!source.data) std::fclose(open_regular_file(source.name));
     try {
       targets = evaluate_xpath(source, rules.xpath);
     } catch (const Error& e) {

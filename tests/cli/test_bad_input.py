@@ -357,8 +357,10 @@ p = subprocess.run([mtest.BIN, "batch", pipe, endless, play, "--store", store, "
 mtest.check(p.returncode == 1 and pipe + ": cannot read the file: it is a named pipe" in p.stderr
             and endless + ": cannot read the file: it is a device" in p.stderr,
             "batch over a pipe and a device: exit %d, %s" % (p.returncode, p.stderr))
-p = subprocess.run([mtest.BIN, "segments", "--unit", "whole", pipe], capture_output=True, text=True, timeout=120)
-mtest.check(p.returncode == 3 and "it is a named pipe" in p.stderr, "segments of a pipe: exit %d, %s" % (p.returncode, p.stderr))
+for unit in ("whole", "xpath://tei:p"):  # an xpath: unit reads the file as a tree first
+    p = subprocess.run([mtest.BIN, "segments", "--unit", unit, pipe], capture_output=True, text=True, timeout=120)
+    mtest.check(p.returncode == 3 and "it is a named pipe" in p.stderr,
+                "segments --unit %s of a pipe: exit %d, %s" % (unit, p.returncode, p.stderr))
 p = subprocess.run([mtest.BIN, "distances", "--unit", "whole", "--stop-words", tmp, play, play],
                    capture_output=True, text=True, timeout=120)
 mtest.check(p.returncode == 3 and "cannot read the stop list: it is a folder" in p.stderr,
