@@ -15,6 +15,7 @@
 #include "store/reading_writer.h"
 #include "store/store_settings.h"
 #include "store/stored_failure.h"
+#include "store/unfinished_work.h"
 
 namespace manicule::store {
 
@@ -234,8 +235,10 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   // Nothing to do: every file as stored, none gone, every folder listed, no run left
   // unfinished. Nothing is written, so the store keeps its bytes and its time (a backup or
   // a version control system sees no change), and no run is recorded.
+  // (A run left unfinished before, noted by unfinished_work, is settled only by a run
+  // recorded as complete: then this one is recorded, though it reads nothing.)
   if (known_settings && !files.empty() && to_open.empty() && vanished.empty() && summary.unlisted.empty() &&
-      !any_run_unfinished(db)) {
+      !any_run_unfinished(db) && unfinished_work(db, known_settings).empty()) {
     summary.settings_id = known_settings;
     counters.files_failed = failing.size();
     if (listener) listener(progress, "", FileOutcome::unchanged);

@@ -1,6 +1,6 @@
 // Work a store records as begun and not finished: a batch run that was interrupted or failed
-// and that no complete run of the same command (inputs, settings, folder, share) has
-// followed, and a merge that took in a store holding such work. An analysis of the store
+// and that no complete run covering it has followed (the same reading settings, the same
+// inputs or folders around them, no narrower --folder or --shard), and a merge that took in a store holding such work. An analysis of the store
 // then measures part of the archive; the commands say so rather than analyse it in silence.
 #pragma once
 #include <cstdint>

@@ -78,6 +78,28 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check("unfinished" not in proc.stderr and said not in proc.stderr,
                 "the merged store still noted after the shard was completed: " + proc.stderr)
 
+    # A share's run interrupted, then the whole archive read to the end: that run covers the
+    # share's (the same settings and inputs, no narrower share), so nothing is left to say.
+    wide = os.path.join(tmp, "wide.sqlite")
+    code, _, _ = storecheck.run_stopped([mtest.BIN, "batch", archive, "--store", wide, "--shard", "1/2", "--unit",
+                                         "speaker", "--threads", "1", "--verbose"], 1, signal.SIGINT)
+    mtest.check(code == 130 and runs_of(wide)[-1][2] == "interrupted", "the share's run: %r" % (runs_of(wide)[-1],))
+    mtest.run(["batch", archive, "--store", wide, "--unit", "speaker", "--quiet"])
+    proc = mtest.run(["analyse-store", "--store", wide, "--min-tokens", "100"])
+    mtest.check("was interrupted" not in proc.stderr, "a share's run covered by a whole run still noted: " + proc.stderr)
+    # A run that found nothing to read records nothing, unless it settles an unfinished one:
+    # every file stored, a --verify-hashes run interrupted, then the plain command, which
+    # reads nothing, is recorded complete and the note goes (it once stayed for good).
+    code, _, _ = storecheck.run_stopped([mtest.BIN, "batch", archive, "--store", wide, "--unit", "speaker",
+                                         "--threads", "1", "--verify-hashes", "--verbose"], 1, signal.SIGINT)
+    mtest.check(code == 130 and runs_of(wide)[-1][2] == "interrupted", "the hashing run: %r" % (runs_of(wide)[-1],))
+    runs_before = len(runs_of(wide))
+    proc = mtest.run(["batch", archive, "--store", wide, "--unit", "speaker", "--quiet"])
+    last = runs_of(wide)[-1]
+    proc = mtest.run(["analyse-store", "--store", wide, "--min-tokens", "100"])
+    mtest.check(len(runs_of(wide)) > runs_before and last[1:3] == ("batch", "done") and "was interrupted" not in proc.stderr,
+                "after the plain re-run: runs %r, %s" % (runs_of(wide)[runs_before - 1:], proc.stderr))
+
     # Ctrl-C while analyse-store draws its progress on a terminal.
     whole = os.path.join(tmp, "whole.sqlite")
     mtest.run(["batch", archive, "--store", whole, "--unit", "speaker", "--quiet"])
