@@ -221,11 +221,22 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   // an archive not mounted (an empty mount point), which would otherwise empty the store,
   // and a job array's merge after it. (A --folder removed from the archive, above, is
   // taken at its word.)
-  if (files.empty() && !vanished.empty() && options.filter.folder.empty() && summary.unlisted.empty()) {
-    throw Error(ErrorKind::nothing_selected,
-                "no TEI file (*.xml, *.tei) found under the inputs, where the store holds " +
-                    std::to_string(vanished.size()) + " file(s) from them, such as " + vanished.front().path +
-                    ": is the archive mounted? Nothing read or removed; to empty the store, delete it");
+  if (options.filter.folder.empty() && summary.unlisted.empty() && !vanished.empty()) {
+    for (const std::string& input : request.inputs) {
+      const std::string prefix = !input.empty() && input.back() == '/' ? input : input + "/";
+      const auto under = [&](const std::string& path) { return path == input || path.rfind(prefix, 0) == 0; };
+      if (std::any_of(files.begin(), files.end(), [&](const ArchiveFile& f) { return under(f.path); })) continue;
+      const auto gone = std::find_if(vanished.begin(), vanished.end(),
+                                     [&](const VanishedFile& v) { return !v.respelled && under(v.path); });
+      if (gone == vanished.end()) continue;
+      const auto count = std::count_if(vanished.begin(), vanished.end(),
+                                       [&](const VanishedFile& v) { return !v.respelled && under(v.path); });
+      throw Error(ErrorKind::nothing_selected,
+                  "no TEI file (*.xml, *.tei) found under " + input + ", where the store holds " +
+                      std::to_string(count) + " file(s) from it, such as " + gone->path +
+                      ": is the archive mounted? Nothing read or removed; to drop them from the store, batch "
+                      "with --folder naming that folder, or delete the store");
+    }
   }
   progress.files_done = counters.files_unchanged;
   const auto report_failing = [&] {

@@ -1,5 +1,5 @@
-"""Archive store: inputs that hold no TEI file at all, where the store holds files from
-them (an archive whose mount failed leaves an empty mount point), are refused with exit 4
+"""Archive store: an input that holds no TEI file at all, where the store holds files from
+it (an archive whose mount failed leaves an empty mount point), is refused with exit 4
 and the store kept byte for byte (SHA-256 by Python's hashlib): the run removed every stored
 file, and a job array's merge then emptied the merged store too. The files back in place,
 the next run reads none of them again (its report: each is unchanged or hashed and known)
@@ -53,6 +53,21 @@ p = mtest.run(["batch", archive] + common)
 paths = stored(store)
 mtest.check(paths == on_disk and "2 file(s): 0 read," in p.stdout,
             "back in place: %r, %s" % (paths, p.stdout))
+
+# Two inputs, one of them emptied (its mount failed, the other fine): refused the same way,
+# naming the empty one; the store as it was.
+second = os.path.join(tmp, "second")
+os.makedirs(second)
+shutil.copy(os.path.join(mtest.ROOT, "examples", "ferry-play.xml"), second)
+two = os.path.join(tmp, "two.sqlite")
+mtest.run(["batch", archive, second, "--store", two, "--unit", "letter", "--quiet"])
+kept = os.path.join(tmp, "kept")
+shutil.move(second, kept)
+os.makedirs(second)
+before = sha(two)
+p = mtest.run(["batch", archive, second, "--store", two, "--unit", "letter", "--quiet"], check=False)
+mtest.check(p.returncode == 4 and "found under %s, where the store holds 1 file(s)" % second in p.stderr
+            and sha(two) == before, "one of two inputs empty: exit %d, %s" % (p.returncode, p.stderr))
 
 # A sub-folder removed, named by --folder: its file goes from the store.
 shutil.rmtree(os.path.join(archive, "sea"))
