@@ -2,12 +2,43 @@
 
 #include <dlfcn.h>
 
+#include <algorithm>
+#include <cstdlib>
 #include <initializer_list>
+#include <system_error>
+#include <thread>
+#include <vector>
 
 namespace manicule {
 
+namespace {
+
+// OpenBLAS starts a thread per core when it is loaded and, when the system refuses one (a
+// limit on a user's threads, as on a shared login node), raises SIGINT: the run then ended
+// as if the user had pressed Ctrl-C. Where this process cannot start as many threads as
+// there are cores, OpenBLAS is asked for one (OPENBLAS_NUM_THREADS, read as it loads),
+// unless the user has chosen a number.
+void ask_one_blas_thread_if_threads_are_refused() {
+  if (std::getenv("OPENBLAS_NUM_THREADS")) return;
+  const unsigned cores = std::max(1u, std::thread::hardware_concurrency());
+  std::vector<std::thread> probes;
+  bool refused = false;
+  for (unsigned i = 1; i < cores && !refused; ++i) {
+    try {
+      probes.emplace_back([] {});
+    } catch (const std::system_error&) {
+      refused = true;
+    }
+  }
+  for (std::thread& probe : probes) probe.join();
+  if (refused) setenv("OPENBLAS_NUM_THREADS", "1", 0);
+}
+
+}  // namespace
+
 const BlasFunctions& blas_functions() {
   static const BlasFunctions found = []() -> BlasFunctions {
+    ask_one_blas_thread_if_threads_are_refused();
     for (const char* name : {"libopenblas.so.0", "libblas.so.3", "libcblas.so.3"}) {
       void* library = dlopen(name, RTLD_NOW | RTLD_LOCAL);
       if (!library) continue;

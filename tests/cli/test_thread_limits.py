@@ -7,7 +7,9 @@
    is exempt, so the run is made as the user nobody, 65534), a batch asking for 8 readers
    and an analysis gets fewer threads, and must finish all the same: exit 0, every TEI
    file of the folder in the store (os.walk against the files table, read with Python's
-   sqlite3 module), the run 'done'. Run only as root, which may change user.
+   sqlite3 module), the run 'done'; and an analysis granted no thread beyond its own
+   stores its result (OpenBLAS, which raises SIGINT when it cannot start its threads, is
+   asked for one). Run only as root, which may change user.
 """
 import os
 import resource
@@ -75,5 +77,16 @@ else:
     mtest.check(p.returncode == 0 and stored == on_disk and status == ("done",),
                 "a batch under a limit of %d threads: exit %d, stored %r of %r, run %r, %s"
                 % (limit, p.returncode, stored, on_disk, status, p.stderr))
+
+    # No thread beyond the process' own: the analysis' BLAS (OpenBLAS, which raises SIGINT
+    # when it cannot start its threads) is asked for one, and the analysis is stored.
+    limit = tasks_of(NOBODY) + 1
+    p = subprocess.run([program, "analyse-store", "--store", store, "--min-tokens", "50", "--recompute", "--quiet"],
+                       capture_output=True, text=True, preexec_fn=as_nobody_with_few_threads, timeout=300)
+    db = sqlite3.connect(store)
+    analyses = db.execute("SELECT count(*) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
+    db.close()
+    mtest.check(p.returncode == 0 and analyses == 2 and "interrupted" not in p.stderr,
+                "analyse-store with no thread to spare: exit %d, %d analyses, %s" % (p.returncode, analyses, p.stderr))
 
 mtest.done()
