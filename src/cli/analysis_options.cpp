@@ -3,6 +3,7 @@
 #include <string_view>
 
 #include "cli/number_checks.h"
+#include "cli/text_checks.h"
 #include "core/error.h"
 #include "core/sha256.h"
 #include "profile/stop_list.h"
@@ -18,7 +19,8 @@ void AnalysisOptions::add_to(CLI::App& command, bool with_measure, bool with_nei
       ->capture_default_str();
   command.add_option("--culling", culling, "keep only features found in at least this % of segments (0-100)")
       ->capture_default_str();
-  command.add_option("--stop-words", stop_words_file, "file of words to leave out, one per line ('#' comments)");
+  command.add_option("--stop-words", stop_words_file, "file of words to leave out, one per line ('#' comments)")
+      ->check(not_blank());
   command.add_option("--min-tokens", min_tokens,
                      "leave out segments with fewer words (default 1500: Burrows 2002 found Delta fairly "
                      "reliable above about 1,500 words)")

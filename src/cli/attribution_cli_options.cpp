@@ -8,6 +8,7 @@
 #include "attribution/candidate_ranking.h"
 #include "attribution/label_file.h"
 #include "cli/number_checks.h"
+#include "cli/text_checks.h"
 #include "core/error.h"
 #include "core/facade.h"
 
@@ -43,7 +44,8 @@ void AttributionCommandOptions::add_settings(CLI::App& command, bool stability, 
   AttributionOptions& s = settings;
   command.add_option("--labels", labels_file,
                      "CSV file 'segment,label' naming who wrote which segment (overrides the edition; an empty "
-                     "label questions the segment)");
+                     "label questions the segment)")
+      ->check(not_blank());
   command.add_option("--rule", rule,
                      "how a candidate's segments make its profile: weighted-centroid (nearer segments count more), "
                      "centroid, nearest (its single nearest segment)")

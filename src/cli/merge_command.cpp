@@ -13,6 +13,7 @@
 #include "cli/commands.h"
 #include "cli/stop_notice.h"
 #include "cli/store_report.h"
+#include "cli/text_checks.h"
 #include "core/error.h"
 #include "store/run_log.h"
 #include "store/store_merge.h"
@@ -37,8 +38,8 @@ CommandRunner add_merge_command(CLI::App& app) {
   auto out = std::make_shared<std::string>();
   auto inputs = std::make_shared<std::vector<std::string>>();
   auto exact = std::make_shared<bool>(false);
-  command->add_option("output", *out, "the store to merge into (created if missing)")->required();
-  command->add_option("inputs", *inputs, "stores to merge in")->required();
+  command->add_option("output", *out, "the store to merge into (created if missing)")->required()->check(not_blank());
+  command->add_option("inputs", *inputs, "stores to merge in")->required()->check(not_blank());
   command->add_flag("--exact", *exact,
                     "OUT ends holding just the files the inputs hold: files of OUT that no input has (deleted or "
                     "renamed since an earlier merge) are removed, as batch removes vanished files");

@@ -36,5 +36,13 @@ for args in (["--store", fresh, "--shard", ""], ["--store", fresh, "--folder", "
     p = mtest.run(["batch", archive, "--unit", "letter"] + args, check=False)
     mtest.check(p.returncode == 2 and "an empty value" in p.stderr and not os.path.exists(fresh),
                 "batch %r: exit %d, %s" % (args, p.returncode, p.stderr))
+p = mtest.run(["merge", "", store], check=False)
+mtest.check(p.returncode == 2 and "manicule: output: an empty value" in p.stderr and sha(store) == before,
+            "merge into '': exit %d, %s" % (p.returncode, p.stderr))
+letters = os.path.join(archive, "ferry-letters.xml")
+for option in ("--stop-words", "--labels"):
+    p = mtest.run(["attribute", letters, "--unit", "letter", option, ""], check=False)
+    mtest.check(p.returncode == 2 and "manicule: " + option + ": an empty value" in p.stderr,
+                "attribute %s '': exit %d, %s" % (option, p.returncode, p.stderr))
 
 mtest.done()
