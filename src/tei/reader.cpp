@@ -58,11 +58,17 @@ std::set<std::vector<int>> select_elements(xmlDocPtr doc, const std::string& exp
   }
   std::set<std::vector<int>> targets;
   if (result->type == XPATH_NODESET) {
+    int others = 0;  // attributes, text, the document node: nothing a segment can be
     if (result->nodesetval)
       for (int i = 0; i < result->nodesetval->nodeNr; ++i) {
         xmlNodePtr node = result->nodesetval->nodeTab[i];
         if (node->type == XML_ELEMENT_NODE) targets.insert(ordinal_path(node));
+        else ++others;
       }
+    if (targets.empty() && others > 0)
+      throw Error(ErrorKind::usage, "the XPath '" + expression +
+                                        "' selects attributes, text or the document, not elements (e.g. //tei:sp "
+                                        "rather than //tei:sp/@who)");
   } else {
     throw Error(ErrorKind::usage, "the XPath '" + expression + "' does not select elements");
   }

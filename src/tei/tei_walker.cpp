@@ -18,6 +18,14 @@ namespace manicule {
 
 namespace {
 
+// An attribute value without the XML white space around it (xml:id 1.0, section 4: an
+// xml:id processor normalises the value as an ID, so " L01 " is L01).
+std::string_view trim_xml_space(std::string_view value) {
+  const auto first = value.find_first_not_of(" \t\r\n");
+  if (first == std::string_view::npos) return {};
+  return value.substr(first, value.find_last_not_of(" \t\r\n") - first + 1);
+}
+
 // Elements whose start and end separate words (tei-conventions.md section 1, "Token
 // boundaries": block ends and milestones; tags in general are not whitespace, 3.2.2).
 const std::unordered_set<std::string_view>& block_elements() {
@@ -678,7 +686,7 @@ void TeiWalker::start(const StartTag& tag) {
   State::Frame f;
   f.name = tag.local;
   f.tei = tag.in_tei_namespace;
-  f.xml_id = tag.attribute("id", kXmlNamespace);
+  f.xml_id = trim_xml_space(tag.attribute("id", kXmlNamespace));  // xml:id 1.0 normalises the value
   const std::size_t depth = s.frames.size();
   if (s.child_name_counts.size() <= depth) s.child_name_counts.resize(depth + 1);
   s.child_name_counts[depth].clear();  // this element's own children: none yet

@@ -384,6 +384,14 @@ mtest.check(len(lines) == 2 and p.returncode == 3 and "same-id.xml:%d:" % lines[
             and "lines %d and %d" % tuple(lines) in p.stderr,
             "two letters of one xml:id (lxml: lines %r): exit %d, %s" % (lines, p.returncode, p.stderr))
 
+# An xml:id written with spaces around it is the same id (xml:id 1.0, section 4: the value
+# is normalised as an ID): the segment is L03, not " L03 ".
+spaced = write("spaced-id.xml", letters_text.replace('xml:id="L03"', 'xml:id=" L03 "', 1))
+p = subprocess.run([mtest.BIN, "segments", "--unit", "letter", spaced], capture_output=True, text=True, timeout=120)
+ids = [l.split("\t")[0] for l in p.stdout.splitlines() if l and not l.startswith("#")][1:]
+mtest.check(p.returncode == 0 and "spaced-id#L03" in ids and not any(" " in i for i in ids),
+            "an xml:id with spaces around it: %r" % ids)
+
 # 21. Bytes that are not UTF-8 in a document that declares none: refused (lxml refuses them
 # too) with one line naming the file, also as a batch stores it (file_list.error, read with
 # Python's sqlite3): libxml2 puts the offending bytes on a line of their own.

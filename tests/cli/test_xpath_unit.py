@@ -74,10 +74,10 @@ for r in rows:
 # (lxml agrees it is no element selection: it raises, or returns a number); a batch once
 # recorded every file as failing under it, and its settings then became the store's latest.
 store_dir = mtest.scratch_folder("manicule-xpath-store-")
-for expression in ("//[", "count(//tei:p)", "//foo:p"):
+for expression in ("//[", "count(//tei:p)", "//foo:p", "/"):
     try:
         value = etree.parse(path).xpath(expression, namespaces={"tei": TEI})
-        selects_elements = isinstance(value, list)
+        selects_elements = isinstance(value, list) and any(isinstance(v, etree._Element) for v in value)
     except etree.XPathError:
         selects_elements = False
     store = os.path.join(store_dir, "refused.sqlite")
@@ -108,4 +108,12 @@ except etree.XMLSyntaxError as e:
 p = mtest.run(["segments", "--unit", "xpath://tei:p", deep], check=False)
 mtest.check(lxml_refuses and p.returncode == 3 and "256 levels of elements" in p.stderr and p.stderr.count("\n") == 1,
             "300 levels deep: lxml refuses %s; exit %d, %r" % (lxml_refuses, p.returncode, p.stderr))
+
+# Attributes are no segments: a unit selecting them read every file and found nothing, with
+# exit 0 in a batch. lxml says what the expression selects on the invented play.
+play = os.path.join(mtest.ROOT, "examples", "ferry-play.xml")
+chosen = etree.parse(play).xpath("//tei:sp/@who", namespaces={"tei": TEI})
+p = mtest.run(["segments", "--unit", "xpath://tei:sp/@who", play], check=False)
+mtest.check(chosen and all(isinstance(v, str) for v in chosen) and p.returncode == 2 and "not elements" in p.stderr,
+            "xpath://tei:sp/@who (lxml: %d attribute values): exit %d, %s" % (len(chosen), p.returncode, p.stderr))
 mtest.done()
