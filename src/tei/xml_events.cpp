@@ -173,7 +173,8 @@ xmlEntityPtr on_get_entity(void* ctx, const xmlChar* name) {
     refuse_external(ctx, name);
     return nullptr;
   }
-  if (entity && entity->etype == XML_INTERNAL_GENERAL_ENTITY && ctxt->inSubset == 0) {
+  // (In the DTD too: an attribute's default value expands its references there.)
+  if (entity && entity->etype == XML_INTERNAL_GENERAL_ENTITY) {
     ParseState* st = state_of(ctx);
     st->entity_bytes += static_cast<std::size_t>(std::max(entity->length, 0));
     if (st->entity_bytes > entity_allowance(*st)) {
