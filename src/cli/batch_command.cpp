@@ -159,6 +159,13 @@ CommandRunner add_batch_command(CLI::App& app) {
       std::cerr << "manicule: note: no TEI file (*.xml, *.tei) found under the inputs"
                 << (flags->shard.empty() ? "" : " in share " + flags->shard) << '\n';
     report_left_aside(std::cerr, summary);
+    if (summary.files_maybe_twice)
+      std::cerr << "manicule: note: " << summary.files_maybe_twice
+                << " file(s) new to the store match stored ones by name, size and time under another path, such as "
+                << summary.maybe_twice_new << " and " << summary.maybe_twice_stored
+                << ": if they are the same files given another way (another working folder, a relative path "
+                   "against an absolute one), the store now holds them twice, for it keeps files by their path "
+                   "as given; give the inputs as before, or always as absolute paths\n";
     report_failures(std::cerr, summary);
     if (flags->analyse) {
       report_unfinished_work(std::cerr, *db, summary.settings_id);

@@ -152,6 +152,32 @@ std::vector<VanishedFile> vanished_files(const Request& request, const BatchOpti
   return out;
 }
 
+// Files new to the store that look like stored ones under another path (same name below
+// their input, same size and time to the nanosecond, the stored path not found by this run).
+// The store keys files by the path as given, so "arch" from one working folder and
+// "/data/arch" from another make two rows of each file; the command line says so.
+void note_files_maybe_stored_twice(const std::vector<ArchiveFile>& files,
+                                   const std::unordered_map<std::string, StoredFile>& previous,
+                                   BatchSummary& summary) {
+  std::unordered_set<std::string> found;
+  for (const ArchiveFile& f : files) found.insert(f.path);
+  std::unordered_map<std::string, const std::string*> unfound_by_name;  // relative path -> stored path
+  for (const auto& [path, stored] : previous)
+    if (!found.count(path)) unfound_by_name.emplace(stored.relative_path, &path);
+  if (unfound_by_name.empty()) return;
+  for (const ArchiveFile& f : files) {
+    if (previous.count(f.path)) continue;
+    auto match = unfound_by_name.find(f.relative_path);
+    if (match == unfound_by_name.end()) continue;
+    const StoredFile& stored = previous.at(*match->second);
+    if (stored.size != f.size || stored.mtime_ns != f.mtime_ns) continue;
+    if (summary.files_maybe_twice++ == 0) {
+      summary.maybe_twice_new = f.path;
+      summary.maybe_twice_stored = *match->second;
+    }
+  }
+}
+
 void remove_vanished(Database& db, const std::vector<VanishedFile>& vanished, BatchSummary& summary) {
   Statement remove = db.prepare("DELETE FROM files WHERE path = ?1");
   for (const VanishedFile& f : vanished) {
@@ -206,6 +232,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     progress.bytes_total += f.size;
   }
   const std::vector<VanishedFile> vanished = vanished_files(request, options, files, previous, summary.unlisted);
+  note_files_maybe_stored_twice(files, previous, summary);
   // A --folder with no file on disk and none in the store is most often a slip of the
   // keyboard, which a job script would otherwise take for success. (A folder removed from
   // the archive still has stored files, and the run removes them; a share of a small

@@ -77,6 +77,11 @@ struct BatchSummary {
   std::vector<BatchFailure> failures;  // every file failing now, in path order
   std::size_t files_removed = 0;       // rows of files no longer found
   std::size_t files_respelled = 0;     // rows of files found under another spelling of their path
+  // Files new to the store whose name below their input, size and time match a stored file
+  // this run did not find (an archive given as a relative path from another working folder,
+  // or as an absolute one): most likely the same files, then stored twice. One example each.
+  std::size_t files_maybe_twice = 0;
+  std::string maybe_twice_new, maybe_twice_stored;
   // Folders below the inputs that could not be listed: their files were not looked at, and
   // those stored from them before stay in the store.
   std::vector<UnlistedFolder> unlisted;
