@@ -38,7 +38,9 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(digest(letters) != digest(os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")),
                 "the letters were not annotated")
     desc = "".join(etree.parse(letters).find(".//{%s}appInfo/{%s}application/{%s}desc" % (TEI, TEI, TEI)).itertext())
-    mtest.check("ferry-play.xml" not in desc, "the letters' results said to point into the play: %r" % desc[-200:])
+    mtest.check("ferry-play.xml" not in desc and "Results point into: this document (SHA-256 %s" %
+                digest(os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")) in desc,
+                "the letters' results said to point into the play: %r" % desc[-200:])
     errors = jing_errors(mtest.SCHEMA, [letters])
     mtest.check(not any(errors.values()), "tei_all (jing) rejects the annotated letters: %s" % errors)
 mtest.done()

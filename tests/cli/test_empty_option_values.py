@@ -2,15 +2,15 @@
 --author ""`, as a script's unset variable gives, analysed the whole store under the
 sub-corpus' name with exit 0; `batch --shard ""` read every file). Each is a usage error
 (exit 2) naming the option, and the store is left byte for byte as it was (SHA-256 by
-Python's hashlib) or not made at all.
+Python's hashlib, storecheck.sha256_of) or not made at all.
 """
-import hashlib
 import os
 import shutil
 import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
+import storecheck  # noqa: E402
 
 tmp = mtest.scratch_folder("manicule-empty-values-")
 archive = os.path.join(tmp, "archive")
@@ -20,16 +20,12 @@ store = os.path.join(tmp, "letters.sqlite")
 mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"])
 
 
-def sha(path):
-    with open(path, "rb") as f:
-        return hashlib.sha256(f.read()).hexdigest()
 
-
-before = sha(store)
+before = storecheck.sha256_of(store)
 for option in ("--author", "--title", "--language", "--folder", "--years"):
     for value in ("", "  "):
         p = mtest.run(["analyse-store", "--store", store, "--min-tokens", "50", option, value], check=False)
-        mtest.check(p.returncode == 2 and "manicule: " + option + ": an empty value" in p.stderr and sha(store) == before,
+        mtest.check(p.returncode == 2 and "manicule: " + option + ": an empty value" in p.stderr and storecheck.sha256_of(store) == before,
                     "analyse-store %s %r: exit %d, %s" % (option, value, p.returncode, p.stderr))
 fresh = os.path.join(tmp, "fresh.sqlite")
 for args in (["--store", fresh, "--shard", ""], ["--store", fresh, "--folder", ""], ["--store", ""]):
@@ -37,7 +33,7 @@ for args in (["--store", fresh, "--shard", ""], ["--store", fresh, "--folder", "
     mtest.check(p.returncode == 2 and "an empty value" in p.stderr and not os.path.exists(fresh),
                 "batch %r: exit %d, %s" % (args, p.returncode, p.stderr))
 p = mtest.run(["merge", "", store], check=False)
-mtest.check(p.returncode == 2 and "manicule: output: an empty value" in p.stderr and sha(store) == before,
+mtest.check(p.returncode == 2 and "manicule: output: an empty value" in p.stderr and storecheck.sha256_of(store) == before,
             "merge into '': exit %d, %s" % (p.returncode, p.stderr))
 letters = os.path.join(archive, "ferry-letters.xml")
 for option in ("--stop-words", "--labels"):

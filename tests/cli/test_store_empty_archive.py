@@ -1,13 +1,12 @@
 """Archive store: an input that holds no TEI file at all, where the store holds files from
 it (an archive whose mount failed leaves an empty mount point), is refused with exit 4
-and the store kept byte for byte (SHA-256 by Python's hashlib): the run removed every stored
+and the store kept byte for byte (SHA-256 by Python's hashlib, storecheck.sha256_of): the run removed every stored
 file, and a job array's merge then emptied the merged store too. The files back in place,
 the next run reads none of them again (its report: each is unchanged or hashed and known)
 and the files table (read with Python's sqlite3) holds what os.walk finds. A
 --folder removed from the archive is still taken at its word: its files are removed (the
 files table against os.walk).
 """
-import hashlib
 import os
 import shutil
 import sqlite3
@@ -15,6 +14,7 @@ import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
+import storecheck  # noqa: E402
 
 tmp = mtest.scratch_folder("manicule-empty-archive-")
 archive = os.path.join(tmp, "archive")
@@ -25,10 +25,6 @@ store = os.path.join(tmp, "archive.sqlite")
 common = ["--store", store, "--unit", "letter", "--quiet"]
 mtest.run(["batch", archive] + common)
 
-
-def sha(path):
-    with open(path, "rb") as f:
-        return hashlib.sha256(f.read()).hexdigest()
 
 
 def stored(path):
@@ -43,10 +39,10 @@ on_disk = sorted(os.path.join(d, n) for d, _, names in os.walk(archive) for n in
 away = os.path.join(tmp, "away")
 shutil.move(archive, away)
 os.makedirs(archive)  # the empty mount point
-before = sha(store)
+before = storecheck.sha256_of(store)
 p = mtest.run(["batch", archive] + common, check=False)
 mtest.check(p.returncode == 4 and "is the archive mounted?" in p.stderr and "holds 2 file(s)" in p.stderr
-            and sha(store) == before, "an empty archive folder: exit %d, %s" % (p.returncode, p.stderr))
+            and storecheck.sha256_of(store) == before, "an empty archive folder: exit %d, %s" % (p.returncode, p.stderr))
 os.rmdir(archive)
 shutil.move(away, archive)
 p = mtest.run(["batch", archive] + common)
@@ -64,10 +60,10 @@ mtest.run(["batch", archive, second, "--store", two, "--unit", "letter", "--quie
 kept = os.path.join(tmp, "kept")
 shutil.move(second, kept)
 os.makedirs(second)
-before = sha(two)
+before = storecheck.sha256_of(two)
 p = mtest.run(["batch", archive, second, "--store", two, "--unit", "letter", "--quiet"], check=False)
 mtest.check(p.returncode == 4 and "found under %s, where the store holds 1 file(s)" % second in p.stderr
-            and sha(two) == before, "one of two inputs empty: exit %d, %s" % (p.returncode, p.stderr))
+            and storecheck.sha256_of(two) == before, "one of two inputs empty: exit %d, %s" % (p.returncode, p.stderr))
 
 # A sub-folder removed, named by --folder: its file goes from the store.
 shutil.rmtree(os.path.join(archive, "sea"))

@@ -166,6 +166,10 @@ def jing_errors(schema, paths):
         m = re.match(r"(.*?):(\d+):(\d+): (.*)", line)
         if m:
             errors.setdefault(os.path.abspath(m.group(1)), set()).add(m.group(4))
+    # jing failing without a located error (a schema not found, a crash) is no pass.
+    if proc.returncode != 0 and not any(errors.values()):
+        for path in errors:
+            errors[path].add("jing exited %d: %s" % (proc.returncode, (proc.stdout + proc.stderr).strip()[:200]))
     return errors
 
 
