@@ -1,8 +1,6 @@
 #include "attribution/label_file.h"
 
-#include <fstream>
 #include <map>
-#include <sstream>
 
 #include "core/error.h"
 #include "core/regular_file.h"
@@ -97,13 +95,7 @@ std::vector<LabelOverride> parse_label_file(std::string_view text, const std::st
 }
 
 std::vector<LabelOverride> load_label_file(const std::string& path) {
-  std::fclose(open_regular_file(path, "the labels file"));  // a pipe or a folder is refused, not read as nothing
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw Error(ErrorKind::bad_input, "cannot read the labels file", path);
-  std::ostringstream text;
-  text << in.rdbuf();
-  if (in.bad()) throw Error(ErrorKind::bad_input, "cannot read the labels file", path);
-  return parse_label_file(text.str(), path);
+  return parse_label_file(read_regular_file(path, "the labels file"), path);  // a pipe or a folder is refused
 }
 
 }  // namespace manicule

@@ -5,6 +5,7 @@
 #include "cli/number_checks.h"
 #include "cli/text_checks.h"
 #include "core/error.h"
+#include "core/regular_file.h"
 #include "core/sha256.h"
 #include "profile/stop_list.h"
 
@@ -46,11 +47,12 @@ void AnalysisOptions::apply_to(Request& request) const {
   request.feature_space.culling_percent = culling;
   request.feature_space.min_segment_tokens = min_tokens;
   if (!stop_words_file.empty()) {
-    request.feature_space.stop_words = load_stop_list(stop_words_file);
+    const std::string text = read_regular_file(stop_words_file, "the stop list");  // read once: words and digest
+    request.feature_space.stop_words = parse_stop_list(text);
     // Recorded with the results: the same list under the same name is known by its digest.
     request.feature_space.stop_words_source = stop_words_file + " (" +
                                               std::to_string(request.feature_space.stop_words.size()) +
-                                              " words, SHA-256 " + sha256_file(stop_words_file) + ")";
+                                              " words, SHA-256 " + sha256_hex(text) + ")";
   }
   request.measure = parse_distance_measure(measure);
   request.neighbours = neighbours;

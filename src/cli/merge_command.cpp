@@ -5,9 +5,7 @@
 #include <filesystem>
 #include <iostream>
 #include <memory>
-#include <set>
 #include <string>
-#include <utility>
 #include <vector>
 
 #include "cli/commands.h"
@@ -15,10 +13,8 @@
 #include "cli/store_report.h"
 #include "cli/text_checks.h"
 #include "core/error.h"
-#include "store/run_log.h"
 #include "store/store_merge.h"
 #include "store/store_schema.h"
-#include "store/store_settings.h"
 
 namespace manicule::cli {
 
@@ -51,34 +47,12 @@ CommandRunner add_merge_command(CLI::App& app) {
     for (const auto& in : *inputs) store::open_store(in, false);
     const bool created = !std::filesystem::exists(*out);
     auto target = store::open_store(*out, true);
-    std::set<std::string> held_before;  // OUT's files before the merge
-    if (!created) held_before = store::stored_file_paths(*target);
-    std::vector<std::pair<std::string, store::MergeSummary>> merged;
-    std::set<std::string> input_settings;  // the reading settings' keys the inputs hold
-    std::size_t removed = 0;
+    store::MergeOutcome merged;
     try {
       StopNotice notice(created ? "manicule: interrupted: nothing merged; " + *out + " is an empty store\n"
                                 : "manicule: interrupted: " + *out + " is left as it was before this merge\n",
                         false);
-      store::Transaction t(*target);
-      store::mark_interrupted_runs(*target);
-      std::set<std::string> input_files;
-      for (const auto& in : *inputs) {
-        auto source = store::open_store(in, false);
-        for (const auto& settings : store::list_settings(*source)) input_settings.insert(settings.settings.key);
-        merged.emplace_back(in, store::merge_store(*target, *source));
-        // --exact removes what no input holds; an input that has not read all of its share
-        // yet would take the rest of the share out of OUT with it.
-        if (*exact && !merged.back().second.input_unfinished.empty())
-          throw Error(ErrorKind::nothing_selected,
-                      in + ": " + merged.back().second.input_unfinished.front() +
-                          "; merge --exact would remove from " + *out +
-                          " the files that run has not reached: complete it first, or merge without --exact");
-        input_files.insert(merged.back().second.input_files.begin(), merged.back().second.input_files.end());
-      }
-      if (*exact) removed = store::remove_files_except(*target, input_files);
-      for (const auto& path : input_files) held_before.erase(path);
-      t.commit();
+      merged = store::merge_stores(*target, *inputs, *exact);
       target->close();  // OUT whole in its one file, or an error (a full disk)
     } catch (...) {
       // Nothing was committed: an existing output is as it was; one this merge created goes.
@@ -88,24 +62,24 @@ CommandRunner add_merge_command(CLI::App& app) {
       }
       throw;
     }
-    for (const auto& [in, summary] : merged) {
+    for (const auto& [in, summary] : merged.inputs) {
       report_merge(std::cout, in, summary);
       for (const auto& note : summary.input_unfinished)
         std::cerr << "manicule: note: " << in << ": " << note
                   << "; the merged store lacks what that run did not bring in\n";
     }
-    if (removed) std::cout << "removed " << removed << " file(s) that no input holds\n";
+    if (merged.files_removed) std::cout << "removed " << merged.files_removed << " file(s) that no input holds\n";
     // Shares read with different options (one task given --no-fold) hold counts that no
     // analysis takes together: each analysis takes one settings' counts.
-    if (input_settings.size() > 1)
-      std::cerr << "manicule: note: the merged stores hold counts read under " << input_settings.size()
+    if (merged.settings_keys.size() > 1)
+      std::cerr << "manicule: note: the merged stores hold counts read under " << merged.settings_keys.size()
                 << " different reading settings, and an analysis takes the counts of one (see analyse-store "
                    "--list-settings and --settings)\n";
     // A file deleted or renamed since an earlier merge is gone from the shares but not
     // from OUT: without --exact merge adds and updates, it never removes, so the curator is told.
-    if (!*exact && !held_before.empty())
-      std::cerr << "manicule: note: " << *out << " holds " << held_before.size()
-                << " file(s) that none of the merged stores has, such as " << *held_before.begin()
+    if (!merged.held_by_no_input.empty())
+      std::cerr << "manicule: note: " << *out << " holds " << merged.held_by_no_input.size()
+                << " file(s) that none of the merged stores has, such as " << *merged.held_by_no_input.begin()
                 << ": merge adds and updates files but never removes one unless given --exact (docs/store.md)\n";
     return 0;
   };

@@ -9,7 +9,6 @@
 #include <system_error>
 #include <thread>
 
-#include "core/error.h"
 #include "core/parallel_items.h"
 #include "core/sha256.h"
 #include "core/worker_start.h"

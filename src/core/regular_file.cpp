@@ -46,4 +46,16 @@ std::FILE* open_regular_file(const std::string& path, const std::string& what) {
   return stream;
 }
 
+std::string read_regular_file(const std::string& path, const std::string& what) {
+  std::FILE* stream = open_regular_file(path, what);
+  std::string text;
+  char buffer[1 << 16];
+  std::size_t n;
+  while ((n = std::fread(buffer, 1, sizeof buffer, stream)) > 0) text.append(buffer, n);
+  const bool failed = std::ferror(stream) != 0;
+  std::fclose(stream);
+  if (failed) throw Error(ErrorKind::bad_input, "cannot read " + what, path);
+  return text;
+}
+
 }  // namespace manicule

@@ -12,4 +12,8 @@ namespace manicule {
 // `what` ("the file", "the stop list") in the message.
 std::FILE* open_regular_file(const std::string& path, const std::string& what = "the file");
 
+// The whole of such a file, read through open_regular_file; Error(bad_input) "cannot read "
+// + `what` on a read error.
+std::string read_regular_file(const std::string& path, const std::string& what);
+
 }  // namespace manicule

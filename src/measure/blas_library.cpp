@@ -17,7 +17,9 @@ namespace {
 // limit on a user's threads, as on a shared login node), raises SIGINT: the run then ended
 // as if the user had pressed Ctrl-C. Where this process cannot start as many threads as
 // there are cores, OpenBLAS is asked for one (OPENBLAS_NUM_THREADS, read as it loads),
-// unless the user has chosen a number.
+// unless the user has chosen a number. The variable is the whole process's, on purpose: a
+// host program embedding manicule that cannot start threads could not use OpenBLAS's pool
+// either.
 void ask_one_blas_thread_if_threads_are_refused() {
   if (std::getenv("OPENBLAS_NUM_THREADS")) return;
   const unsigned cores = std::max(1u, std::thread::hardware_concurrency());

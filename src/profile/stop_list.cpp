@@ -1,7 +1,5 @@
 #include "profile/stop_list.h"
 
-#include <fstream>
-#include <sstream>
 
 #include "core/error.h"
 #include "core/regular_file.h"
@@ -26,13 +24,7 @@ std::vector<std::string> parse_stop_list(std::string_view text) {
 }
 
 std::vector<std::string> load_stop_list(const std::string& path) {
-  std::fclose(open_regular_file(path, "the stop list"));  // a pipe or a folder is refused, not read as nothing
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw Error(ErrorKind::bad_input, "cannot read the stop list", path);
-  std::ostringstream text;
-  text << in.rdbuf();
-  if (in.bad()) throw Error(ErrorKind::bad_input, "cannot read the stop list", path);
-  return parse_stop_list(text.str());
+  return parse_stop_list(read_regular_file(path, "the stop list"));  // a pipe or a folder is refused
 }
 
 }  // namespace manicule

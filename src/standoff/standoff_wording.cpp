@@ -48,7 +48,6 @@ std::string warnings_sentences(std::vector<std::string> warnings, const Candidat
 
 }  // namespace
 
-
 // Only pointers get a name: any other candidate label (an author's name from a titleStmt,
 // a speaker "play#anna", a labels file's word) already is what people call it. The name
 // most of the author's letters of sure sender give, else of any sender.

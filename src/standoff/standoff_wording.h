@@ -14,7 +14,6 @@ namespace manicule {
 
 std::string authorship_word(Authorship a);  // known | conjectured | unknown
 
-
 // The names the edition gives the candidates that are pointers ("#p-pellow" -> "Ambrose
 // Pellow"), from the labels of the segments with that author.
 using CandidateNames = std::map<std::string, std::string>;

@@ -6,11 +6,13 @@
 #include <map>
 #include <memory>
 #include <optional>
+#include <set>
 #include <unordered_map>
 #include <unordered_set>
 
 #include "core/corpus_stream.h"
 #include "core/error.h"
+#include "store/file_rows.h"
 #include "store/file_stems.h"
 #include "store/reading_writer.h"
 #include "store/store_settings.h"
@@ -125,10 +127,9 @@ struct VanishedFile {
 // before anything is written, so that a run can tell whether it has anything to write.
 std::vector<VanishedFile> vanished_files(const Request& request, const BatchOptions& options,
                                          const std::vector<ArchiveFile>& files,
+                                         const std::unordered_set<std::string>& found,
                                          const std::unordered_map<std::string, StoredFile>& stored,
                                          const std::vector<UnlistedFolder>& unlisted) {
-  std::unordered_set<std::string> found;
-  for (const auto& f : files) found.insert(f.path);
   const auto under_unlisted = [&unlisted](const std::string& path) {
     return std::any_of(unlisted.begin(), unlisted.end(),
                        [&path](const UnlistedFolder& folder) { return starts_with_folder(path, folder.path); });
@@ -156,11 +157,9 @@ std::vector<VanishedFile> vanished_files(const Request& request, const BatchOpti
 // their input, same size and time to the nanosecond, the stored path not found by this run).
 // The store keys files by the path as given, so "arch" from one working folder and
 // "/data/arch" from another make two rows of each file; the command line says so.
-void note_files_maybe_stored_twice(const std::vector<ArchiveFile>& files,
+void note_files_maybe_stored_twice(const std::vector<ArchiveFile>& files, const std::unordered_set<std::string>& found,
                                    const std::unordered_map<std::string, StoredFile>& previous,
                                    BatchSummary& summary) {
-  std::unordered_set<std::string> found;
-  for (const ArchiveFile& f : files) found.insert(f.path);
   std::unordered_map<std::string, const std::string*> unfound_by_name;  // relative path -> stored path
   for (const auto& [path, stored] : previous)
     if (!found.count(path)) unfound_by_name.emplace(stored.relative_path, &path);
@@ -179,11 +178,12 @@ void note_files_maybe_stored_twice(const std::vector<ArchiveFile>& files,
 }
 
 void remove_vanished(Database& db, const std::vector<VanishedFile>& vanished, BatchSummary& summary) {
-  Statement remove = db.prepare("DELETE FROM files WHERE path = ?1");
+  std::set<std::string> paths;
   for (const VanishedFile& f : vanished) {
-    remove.run(f.path);
+    paths.insert(f.path);
     ++(f.respelled ? summary.files_respelled : summary.files_removed);
   }
+  remove_files(db, paths);
 }
 
 nlohmann::json run_parameters(const Request& request, const BatchOptions& options, const ReadingSettings& settings) {
@@ -231,8 +231,10 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     to_open.push_back(i);
     progress.bytes_total += f.size;
   }
-  const std::vector<VanishedFile> vanished = vanished_files(request, options, files, previous, summary.unlisted);
-  note_files_maybe_stored_twice(files, previous, summary);
+  std::unordered_set<std::string> found;  // the paths this run lists
+  for (const ArchiveFile& f : files) found.insert(f.path);
+  const std::vector<VanishedFile> vanished = vanished_files(request, options, files, found, previous, summary.unlisted);
+  note_files_maybe_stored_twice(files, found, previous, summary);
   // A --folder with no file on disk and none in the store is most often a slip of the
   // keyboard, which a job script would otherwise take for success. (A folder removed from
   // the archive still has stored files, and the run removes them; a share of a small
@@ -250,17 +252,15 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   // taken at its word.)
   if (options.filter.folder.empty() && summary.unlisted.empty() && !vanished.empty()) {
     for (const std::string& input : request.inputs) {
-      const std::string prefix = !input.empty() && input.back() == '/' ? input : input + "/";
-      const auto under = [&](const std::string& path) { return path == input || path.rfind(prefix, 0) == 0; };
+      const auto under = [&](const std::string& path) { return path == input || starts_with_folder(path, input); };
       if (std::any_of(files.begin(), files.end(), [&](const ArchiveFile& f) { return under(f.path); })) continue;
-      const auto gone = std::find_if(vanished.begin(), vanished.end(),
-                                     [&](const VanishedFile& v) { return !v.respelled && under(v.path); });
-      if (gone == vanished.end()) continue;
-      const auto count = std::count_if(vanished.begin(), vanished.end(),
-                                       [&](const VanishedFile& v) { return !v.respelled && under(v.path); });
+      std::vector<const VanishedFile*> gone;
+      for (const VanishedFile& v : vanished)
+        if (!v.respelled && under(v.path)) gone.push_back(&v);
+      if (gone.empty()) continue;
       throw Error(ErrorKind::nothing_selected,
                   "no TEI file (*.xml, *.tei) found under " + input + ", where the store holds " +
-                      std::to_string(count) + " file(s) from it, such as " + gone->path +
+                      std::to_string(gone.size()) + " file(s) from it, such as " + gone.front()->path +
                       ": is the archive mounted? Nothing read or removed; to drop them from the store, batch "
                       "with --folder naming that folder, or delete the store");
     }

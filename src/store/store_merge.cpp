@@ -1,10 +1,12 @@
 #include "store/store_merge.h"
 
 #include <algorithm>
+#include <iterator>
 #include <unordered_map>
 
 #include "core/error.h"
 #include "store/count_blob.h"
+#include "store/file_rows.h"
 #include "store/file_stems.h"
 #include "store/store_schema.h"
 #include "store/run_log.h"
@@ -102,15 +104,20 @@ void merge_files(Database& out, Database& input, MergeSummary& summary) {
 
 }  // namespace
 
-MergeSummary merge_store(Database& out, Database& input) {
+namespace {
+
+// Merges one input, within the caller's transaction, recording a merge run for it.
+MergeSummary merge_one(Database& out, Database& input) {
   MergeSummary summary;
   summary.input_unfinished = unfinished_work(input);
   nlohmann::json parameters = {{"input", input.path()}};
   if (!summary.input_unfinished.empty()) parameters["input_unfinished"] = summary.input_unfinished;
   std::int64_t run = begin_run(out, "merge", 0, parameters);
-  for (const auto& settings : list_settings(input)) merge_settings(out, input, settings, run, summary);
+  for (const auto& settings : list_settings(input)) {
+    summary.settings_keys.insert(settings.settings.key);
+    merge_settings(out, input, settings, run, summary);
+  }
   merge_files(out, input, summary);
-  refresh_file_stems(out);
   // As a batch counts them: the files the input holds, and those among them that failed.
   RunCounters counters;
   Statement held = input.prepare(
@@ -126,23 +133,37 @@ MergeSummary merge_store(Database& out, Database& input) {
   return summary;
 }
 
-std::size_t remove_files_except(Database& out, const std::set<std::string>& kept) {
-  std::size_t removed = 0;
-  Statement remove = out.prepare("DELETE FROM files WHERE path = ?1");
-  for (const std::string& path : stored_file_paths(out)) {
-    if (kept.count(path)) continue;
-    remove.run(path);
-    ++removed;
-  }
-  if (removed) refresh_file_stems(out);
-  return removed;
-}
+}  // namespace
 
-std::set<std::string> stored_file_paths(Database& db) {
-  std::set<std::string> paths;
-  Statement files = db.prepare("SELECT path FROM files");
-  while (files.step()) paths.insert(files.text_at(0));
-  return paths;
+MergeOutcome merge_stores(Database& out, const std::vector<std::string>& inputs, bool exact) {
+  MergeOutcome outcome;
+  const std::set<std::string> held_before = stored_file_paths(out);
+  std::set<std::string> input_files;
+  Transaction t(out);
+  mark_interrupted_runs(out);
+  for (const std::string& path : inputs) {
+    auto input = open_store(path, false);
+    MergeSummary summary = merge_one(out, *input);
+    // --exact removes what no input holds; an input that has not read all of its share
+    // yet would take the rest of the share out of OUT with it.
+    if (exact && !summary.input_unfinished.empty())
+      throw Error(ErrorKind::nothing_selected,
+                  path + ": " + summary.input_unfinished.front() + "; merge --exact would remove from " + out.path() +
+                      " the files that run has not reached: complete it first, or merge without --exact");
+    input_files.insert(summary.input_files.begin(), summary.input_files.end());
+    outcome.settings_keys.insert(summary.settings_keys.begin(), summary.settings_keys.end());
+    outcome.inputs.emplace_back(path, std::move(summary));
+  }
+  std::set_difference(held_before.begin(), held_before.end(), input_files.begin(), input_files.end(),
+                      std::inserter(outcome.held_by_no_input, outcome.held_by_no_input.end()));
+  if (exact) {
+    remove_files(out, outcome.held_by_no_input);
+    outcome.files_removed = outcome.held_by_no_input.size();
+    outcome.held_by_no_input.clear();
+  }
+  refresh_file_stems(out);  // once, over the paths the merge leaves
+  t.commit();
+  return outcome;
 }
 
 }  // namespace manicule::store

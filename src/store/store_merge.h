@@ -3,12 +3,13 @@
 // readings and their segments by (settings key, SHA-256): a content held by several stores
 // is kept once. Files are matched by path; where two stores disagree about a path, the row
 // with the later modification time wins. Analysis runs are not copied: analyse the merged
-// store. The caller holds one transaction around the whole merge (every input, and the
-// removal of files no input has), so an interrupted merge leaves OUT as it was.
+// store. The whole merge (every input, and with --exact the removal of files no input has)
+// is one transaction, so an interrupted merge leaves OUT as it was.
 #pragma once
 #include <cstddef>
 #include <set>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "store/sqlite_db.h"
@@ -21,20 +22,22 @@ struct MergeSummary {
   std::size_t segments_added = 0;
   std::size_t files_added = 0;
   std::size_t files_updated = 0;
-  std::set<std::string> input_files;  // every path the input holds (read once, while merging)
+  std::set<std::string> input_files;          // every path the input holds (read once, while merging)
+  std::set<std::string> settings_keys;        // the reading settings the input holds
   std::vector<std::string> input_unfinished;  // the input's unfinished work (unfinished_work.h)
 };
 
-// Merges `input` into `out` (both opened with open_store), in the caller's transaction on
-// `out`; records a merge run for it.
-MergeSummary merge_store(Database& out, Database& input);
+struct MergeOutcome {
+  std::vector<std::pair<std::string, MergeSummary>> inputs;  // in the order given
+  std::set<std::string> settings_keys;     // of every input: several mean analyses take part of them
+  std::set<std::string> held_by_no_input;  // OUT's files that no input holds, kept (without exact)
+  std::size_t files_removed = 0;           // those removed (with exact)
+};
 
-// Removes from `out` every file whose path is not in `kept`, as a batch removes vanished
-// files (the contents stay, keyed by hash, for a file that comes back); returns how many.
-std::size_t remove_files_except(Database& out, const std::set<std::string>& kept);
-
-// The paths of the files a store holds: merge never removes one, so the command line
-// names those of OUT that no input holds (left from an earlier merge of other shares).
-std::set<std::string> stored_file_paths(Database& db);
+// Merges the stores at `inputs` into `out` (opened with open_store) in one transaction on
+// `out`, a merge run recorded for each input. With `exact`, OUT's files that no input holds
+// are removed; an input holding unfinished work is then refused (Error nothing_selected),
+// for its share's unread files would go. Any error leaves `out` as it was.
+MergeOutcome merge_stores(Database& out, const std::vector<std::string>& inputs, bool exact);
 
 }  // namespace manicule::store

@@ -5,6 +5,8 @@
 
 #include <nlohmann/json.hpp>
 
+#include "store/archive_filter.h"
+
 namespace manicule::store {
 
 namespace {
@@ -33,10 +35,8 @@ bool covers(const BatchScope& later, const BatchScope& earlier) {
   if (!later.shard.empty() && later.shard != "1/1" && later.shard != earlier.shard) return false;
   for (const std::string& e : earlier.inputs) {
     bool found = false;
-    for (const std::string& l : later.inputs) {
-      const std::string prefix = !l.empty() && l.back() == '/' ? l : l + "/";
-      if (e == l || e.rfind(prefix, 0) == 0) found = true;
-    }
+    for (const std::string& l : later.inputs)
+      if (e == l || (!l.empty() && starts_with_folder(e, l))) found = true;
     if (!found) return false;
   }
   return true;

@@ -11,6 +11,7 @@
 #include "core/regular_file.h"
 #include "core/segment_id_prefixes.h"
 #include "tei/tei_walker.h"
+#include "tei/xml_error_text.h"
 
 namespace manicule {
 
@@ -85,11 +86,7 @@ void on_tree_error(void* user, xmlErrorPtr error) {
   auto ctxt = static_cast<xmlParserCtxtPtr>(user);
   auto errors = static_cast<TreeErrors*>(ctxt->_private);
   if (!errors || !error || error->level < XML_ERR_ERROR || !errors->message.empty()) return;
-  errors->message = error->message ? error->message : "malformed XML";
-  while (!errors->message.empty() && (errors->message.back() == '\n' || errors->message.back() == ' '))
-    errors->message.pop_back();
-  for (auto at = errors->message.find('\n'); at != std::string::npos; at = errors->message.find('\n', at))
-    errors->message.replace(at, 1, "; ");
+  errors->message = one_line_message(error->message);
   errors->line = error->line;
 }
 
@@ -102,11 +99,16 @@ std::set<std::vector<int>> evaluate_xpath(const XmlSource& source, const std::st
   TreeErrors errors;
   ctxt->_private = &errors;
   ctxt->sax->serror = on_tree_error;
-  std::unique_ptr<xmlDoc, void (*)(xmlDocPtr)> doc(
-      source.data ? xmlCtxtReadMemory(ctxt.get(), source.data, static_cast<int>(source.size), source.name.c_str(),
-                                      nullptr, options)
-                  : xmlCtxtReadFile(ctxt.get(), source.name.c_str(), nullptr, options),
-      xmlFreeDoc);
+  std::unique_ptr<xmlDoc, void (*)(xmlDocPtr)> doc(nullptr, xmlFreeDoc);
+  if (source.data) {
+    doc.reset(xmlCtxtReadMemory(ctxt.get(), source.data, static_cast<int>(source.size), source.name.c_str(), nullptr,
+                                options));
+  } else {
+    // Opened as the streaming reader opens it (a named pipe, which would block for ever, is
+    // refused), and handed to libxml2 open.
+    std::unique_ptr<std::FILE, int (*)(std::FILE*)> file(open_regular_file(source.name), std::fclose);
+    doc.reset(xmlCtxtReadFd(ctxt.get(), fileno(file.get()), source.name.c_str(), nullptr, options));
+  }
   if (!doc)
     throw Error(ErrorKind::bad_input,
                 (errors.message.empty() ? std::string("malformed XML") : errors.message) +
@@ -130,8 +132,6 @@ std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules
                                    HeaderInfo* header) {
   std::set<std::vector<int>> targets;
   if (rules.unit == UnitKind::xpath) {
-    // libxml2 opens the file itself for the tree: a named pipe would block it for ever.
-    if (!source.data) std::fclose(open_regular_file(source.name));
     try {
       targets = evaluate_xpath(source, rules.xpath);
     } catch (const Error& e) {

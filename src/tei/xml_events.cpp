@@ -15,6 +15,7 @@
 
 #include "core/error.h"
 #include "core/regular_file.h"
+#include "tei/xml_error_text.h"
 #include "core/sha256.h"
 
 namespace manicule {
@@ -263,11 +264,7 @@ std::string undeclared_entity_hint(xmlParserCtxtPtr ctxt) {
 void on_structured_error(void* user, xmlErrorPtr error) {
   auto st = static_cast<ParseState*>(static_cast<xmlParserCtxtPtr>(user)->_private);
   if (!error || error->level < XML_ERR_ERROR || !st->first_error.empty()) return;
-  std::string msg = error->message ? error->message : "malformed XML";
-  while (!msg.empty() && (msg.back() == '\n' || msg.back() == ' ')) msg.pop_back();
-  // One line: libxml2 puts some details on a line of their own ("...indicate encoding !\nBytes:
-  // 0xE9 0x20"), which would split a log line and a stored error.
-  for (std::size_t at = msg.find('\n'); at != std::string::npos; at = msg.find('\n', at)) msg.replace(at, 1, "; ");
+  std::string msg = one_line_message(error->message);
   if (error->code == XML_ERR_DOCUMENT_EMPTY) msg = no_document_message(st->ctxt);
   if (error->code == XML_ERR_DOCUMENT_END) msg = unfinished_document_message(*st, msg);
   if ((error->code == XML_ERR_UNDECLARED_ENTITY || error->code == XML_WAR_UNDECLARED_ENTITY) && st->ctxt &&
