@@ -20,9 +20,4 @@ namespace manicule {
 std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules& rules,
                                    SourceDigest* digest = nullptr, HeaderInfo* header = nullptr);
 
-// Error(usage) for an xpath: unit that cannot select elements in any file (it does not
-// compile, uses a prefix other than tei:, or gives a number or a string), found before any
-// file is read: a batch would otherwise record every file as failing.
-void check_xpath_unit(const std::string& expression);
-
 }  // namespace manicule

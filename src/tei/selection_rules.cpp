@@ -3,7 +3,7 @@
 #include <cctype>
 
 #include "core/error.h"
-#include "tei/reader.h"
+#include "tei/xpath_units.h"
 
 namespace manicule {
 

@@ -1,0 +1,84 @@
+#include "tei/xpath_units.h"
+
+#include <libxml/parser.h>
+#include <libxml/xpath.h>
+#include <libxml/xpathInternals.h>
+
+#include <memory>
+
+#include "core/error.h"
+
+namespace manicule {
+
+namespace {
+
+struct XPathErrors {
+  std::string message;
+};
+
+void on_xpath_error(void* user, xmlErrorPtr error) {
+  auto errors = static_cast<XPathErrors*>(user);
+  if (errors->message.empty() && error && error->message) {
+    errors->message = error->message;
+    while (!errors->message.empty() && errors->message.back() == '\n') errors->message.pop_back();
+  }
+}
+
+// Element ordinal path (1-based position among element siblings, from the root).
+std::vector<int> ordinal_path(xmlNodePtr node) {
+  std::vector<int> path;
+  for (xmlNodePtr n = node; n && n->type == XML_ELEMENT_NODE; n = n->parent) {
+    int position = 1;
+    for (xmlNodePtr p = n->prev; p; p = p->prev)
+      if (p->type == XML_ELEMENT_NODE) ++position;
+    path.push_back(position);
+  }
+  return {path.rbegin(), path.rend()};
+}
+
+}  // namespace
+
+// The editor's XPath evaluated on `doc`, with the prefix "tei" bound to the TEI namespace:
+// the ordinal paths of the elements it selects. Error(usage) if it does not compile or
+// selects something other than nodes.
+std::set<std::vector<int>> select_elements(xmlDocPtr doc, const std::string& expression) {
+  std::unique_ptr<xmlXPathContext, void (*)(xmlXPathContextPtr)> ctx(xmlXPathNewContext(doc), xmlXPathFreeContext);
+  XPathErrors errors;
+  ctx->error = on_xpath_error;
+  ctx->userData = &errors;
+  xmlXPathRegisterNs(ctx.get(), BAD_CAST "tei", BAD_CAST "http://www.tei-c.org/ns/1.0");
+  std::unique_ptr<xmlXPathObject, void (*)(xmlXPathObjectPtr)> result(
+      xmlXPathEvalExpression(BAD_CAST expression.c_str(), ctx.get()), xmlXPathFreeObject);
+  if (!result) {
+    throw Error(ErrorKind::usage, "the XPath '" + expression + "' does not compile" +
+                                      (errors.message.empty() ? "" : ": " + errors.message) +
+                                      " (TEI elements need the prefix tei:, e.g. //tei:div[@type='poem'])");
+  }
+  std::set<std::vector<int>> targets;
+  if (result->type == XPATH_NODESET) {
+    int others = 0;  // attributes, text, the document node: nothing a segment can be
+    if (result->nodesetval)
+      for (int i = 0; i < result->nodesetval->nodeNr; ++i) {
+        xmlNodePtr node = result->nodesetval->nodeTab[i];
+        if (node->type == XML_ELEMENT_NODE) targets.insert(ordinal_path(node));
+        else ++others;
+      }
+    if (targets.empty() && others > 0)
+      throw Error(ErrorKind::usage, "the XPath '" + expression +
+                                        "' selects attributes, text or the document, not elements (e.g. //tei:sp "
+                                        "rather than //tei:sp/@who)");
+  } else {
+    throw Error(ErrorKind::usage, "the XPath '" + expression + "' does not select elements");
+  }
+  return targets;
+}
+
+void check_xpath_unit(const std::string& expression) {
+  static const char kEmptyTei[] = "<TEI xmlns=\"http://www.tei-c.org/ns/1.0\"/>";
+  std::unique_ptr<xmlDoc, void (*)(xmlDocPtr)> doc(
+      xmlReadMemory(kEmptyTei, sizeof kEmptyTei - 1, "unit.xml", nullptr, XML_PARSE_NONET), xmlFreeDoc);
+  if (!doc) throw Error(ErrorKind::internal, "could not make the document that checks an XPath");
+  select_elements(doc.get(), expression);
+}
+
+}  // namespace manicule

@@ -1,0 +1,23 @@
+// Units given as an XPath (--unit xpath:EXPR): the expression evaluated on a document's
+// tree, with the prefix "tei" bound to the TEI namespace, gives the elements that make
+// segments, as ordinal paths the streaming reader recognises (1-based position among
+// element siblings, from the root).
+#pragma once
+#include <libxml/tree.h>
+
+#include <set>
+#include <string>
+#include <vector>
+
+namespace manicule {
+
+// The ordinal paths of the elements `expression` selects in `doc`. Error(usage) if it does
+// not compile, or selects something other than elements.
+std::set<std::vector<int>> select_elements(xmlDocPtr doc, const std::string& expression);
+
+// Error(usage) for an xpath: unit that cannot select elements in any file (it does not
+// compile, uses a prefix other than tei:, or gives a number or a string), found before any
+// file is read: a batch would otherwise record every file as failing.
+void check_xpath_unit(const std::string& expression);
+
+}  // namespace manicule
