@@ -13,6 +13,7 @@
 #include "cli/store_report.h"
 #include "cli/text_checks.h"
 #include "core/error.h"
+#include "store/run_log.h"
 #include "store/store_merge.h"
 #include "store/store_schema.h"
 
@@ -45,8 +46,11 @@ CommandRunner add_merge_command(CLI::App& app) {
     // Every input is checked to be a store before the output is created, so that a
     // mistyped input does not leave a new, empty store behind.
     for (const auto& in : *inputs) store::open_store(in, false);
-    const bool created = !std::filesystem::exists(*out);
+    const bool was_missing = !std::filesystem::exists(*out);
     auto target = store::open_store(*out, true);
+    // Asked again under OUT's lock: another merge started at the same moment may have
+    // created OUT and merged into it first, and what it merged must not go with this one.
+    const bool created = was_missing && !store::any_run_recorded(*target);
     store::MergeOutcome merged;
     try {
       StopNotice notice(created ? "manicule: interrupted: nothing merged; " + *out + " is an empty store\n"

@@ -108,6 +108,8 @@ bool skip_sqlite_memory_statistics() { return sqlite3_config(SQLITE_CONFIG_MEMST
 
 void Database::fail(int code, std::string_view doing) const {
   int primary = code & 0xff;
+  if (primary == SQLITE_BUSY || primary == SQLITE_LOCKED)
+    throw StoreInUse(ErrorKind::write_failed, message_for(code, path_, doing, db_));
   ErrorKind kind = primary == SQLITE_NOTADB || primary == SQLITE_CORRUPT ? ErrorKind::bad_input : ErrorKind::write_failed;
   throw Error(kind, message_for(code, path_, doing, db_));
 }

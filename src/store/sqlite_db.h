@@ -8,12 +8,21 @@
 #include <string>
 #include <string_view>
 
+#include "core/error.h"
+
 struct sqlite3;
 struct sqlite3_stmt;
 
 namespace manicule::store {
 
 class Database;
+
+// SQLITE_BUSY or SQLITE_LOCKED: another connection holds the store. Apart from the other
+// errors because opening a store tries again on it (open_store).
+class StoreInUse : public Error {
+ public:
+  using Error::Error;
+};
 
 // For a program that owns its process (the command line), before any store is opened:
 // SQLite then keeps no account of the memory it holds, which takes a lock around each of

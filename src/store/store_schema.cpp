@@ -1,6 +1,11 @@
 #include "store/store_schema.h"
 
+#include <unistd.h>
+
+#include <chrono>
 #include <filesystem>
+#include <random>
+#include <thread>
 
 #include "core/error.h"
 
@@ -243,12 +248,16 @@ void refresh_file_list_view(Database& db) {
 
 }  // namespace
 
-std::unique_ptr<Database> open_store(const std::string& path, bool create) {
+namespace {
+
+std::unique_ptr<Database> open_store_once(const std::string& path, bool create) {
   auto db = std::make_unique<Database>(path, create);
   // Exclusive locking before the first access: the lock is taken by the first statement
   // below and kept, and WAL then needs no shared-memory file.
   db->exec("PRAGMA locking_mode = EXCLUSIVE");
-  db->exec("PRAGMA busy_timeout = 1500");
+  // No waiting inside SQLite while the lock is taken: open_store waits, between attempts
+  // that each let go of what they hold (see there).
+  db->exec("PRAGMA busy_timeout = 0");
   // Whether it is a store is asked before anything is written: switching another
   // application's SQLite file to WAL (below) would change that file for good.
   {
@@ -318,7 +327,31 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
     db->prepare("INSERT INTO store_info (key, value) VALUES ('format', ?1)").run(std::to_string(kStoreFormat));
   }
   t.commit();
+  db->exec("PRAGMA busy_timeout = 1500");
   return db;
+}
+
+}  // namespace
+
+std::unique_ptr<Database> open_store(const std::string& path, bool create) {
+  // Two processes opening one store at the same moment can each hold the shared lock that
+  // the other's exclusive lock waits for: with SQLite's busy_timeout both waited it out and
+  // both refused (2 of 20 pairs of runs started together here). So each attempt gives up at
+  // once and lets go of its shared lock, and the open is tried again after a pause that
+  // differs between processes, until one of them has the store; the other goes on trying
+  // for 1.5 s, as long as busy_timeout had it wait, before it refuses.
+  using Clock = std::chrono::steady_clock;
+  const auto give_up = Clock::now() + std::chrono::milliseconds(1500);
+  std::minstd_rand pauses(static_cast<std::uint32_t>(::getpid()) ^
+                          static_cast<std::uint32_t>(Clock::now().time_since_epoch().count()));
+  for (;;) {
+    try {
+      return open_store_once(path, create);
+    } catch (const StoreInUse&) {
+      if (Clock::now() >= give_up) throw;
+    }
+    std::this_thread::sleep_for(std::chrono::milliseconds(5 + pauses() % 26));
+  }
 }
 
 void remove_store_files(const std::string& path) {
