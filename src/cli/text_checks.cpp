@@ -10,7 +10,8 @@ CLI::Validator not_blank() {
         if (value.find_first_not_of(" \t\r\n") == std::string::npos) return "an empty value is not allowed";
         return {};
       },
-      "TEXT");
+      // No description of its own: CLI11 would show it after the type, as "TEXT:TEXT".
+      "");
 }
 
 }  // namespace manicule::cli
