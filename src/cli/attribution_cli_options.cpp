@@ -8,6 +8,7 @@
 #include "attribution/candidate_ranking.h"
 #include "attribution/label_file.h"
 #include "cli/number_checks.h"
+#include "cli/repeatable_option.h"
 #include "cli/text_checks.h"
 #include "core/error.h"
 #include "core/facade.h"
@@ -70,12 +71,8 @@ void AttributionCommandOptions::add_settings(CLI::App& command, bool stability, 
         ->capture_default_str();
   }
   if (impostors) {
-    // One a time (repeatable): a vector option would take the inputs after it as impostors.
-    command.add_option("--impostors", impostor_inputs,
-                       "TEI files or folders whose texts serve only as impostors (repeatable)")
-        ->expected(1)
-        ->allow_extra_args(false)
-        ->multi_option_policy(CLI::MultiOptionPolicy::TakeAll);
+    one_value_each_time(command.add_option("--impostors", impostor_inputs,
+                                           "TEI files or folders whose texts serve only as impostors (repeatable)"));
     command.add_option("--iterations", s.impostor_iterations, "General Impostors: rounds per problem")
         ->check(CLI::Range(std::size_t{1}, std::size_t{1000000}))
         ->capture_default_str();

@@ -2,6 +2,7 @@
 
 #include <iostream>
 
+#include "cli/repeatable_option.h"
 #include "core/error.h"
 #include "tei/selection_rules.h"
 
@@ -14,16 +15,9 @@ void SelectionOptions::add_to(CLI::App& command, const std::string& default_unit
                      "what makes a segment: speaker, letter, chapter, whole, or xpath:EXPR "
                      "(prefix TEI elements with tei:)")
       ->capture_default_str();
-  // One element a time, repeated for more: a vector option would otherwise take the file
-  // names after it as elements too ("--keep note a.xml b.xml" read no file).
-  command.add_option("--keep", keep, "keep an element left out by default (repeatable), e.g. --keep note")
-      ->expected(1)
-      ->allow_extra_args(false)
-      ->multi_option_policy(CLI::MultiOptionPolicy::TakeAll);
-  command.add_option("--drop", drop, "also leave out an element (repeatable), e.g. --drop quote")
-      ->expected(1)
-      ->allow_extra_args(false)
-      ->multi_option_policy(CLI::MultiOptionPolicy::TakeAll);
+  one_value_each_time(
+      command.add_option("--keep", keep, "keep an element left out by default (repeatable), e.g. --keep note"));
+  one_value_each_time(command.add_option("--drop", drop, "also leave out an element (repeatable), e.g. --drop quote"));
   command.add_option("--preset", preset,
                      "reading (the editor's corrected text) or diplomatic (the source's text as first written)")
       ->check(CLI::IsMember({"reading", "diplomatic"}))
