@@ -141,13 +141,15 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     auto it = edition_of_file.find(analysis.segments[s].file);
     if (it != edition_of_file.end()) edition_of[s] = it->second;
   }
+  // Each edition's segments, in the analysis' order (listed once: over an archive of
+  // editions, a scan of every segment for each edition grew with the square of their number).
+  std::vector<std::vector<std::size_t>> members_of(open.size());
+  for (std::size_t s = 0; s < edition_of.size(); ++s)
+    if (edition_of[s] != kNoEdition) members_of[edition_of[s]].push_back(s);
 
   if (settings.add_ids) {
     for (std::size_t k = 0; k < open.size(); ++k) {
-      std::vector<std::size_t> members;
-      for (std::size_t s = 0; s < edition_of.size(); ++s)
-        if (edition_of[s] == k) members.push_back(s);
-      AddedIds given = give_segments_ids(analysis, members, open[k].scan, open[k].ids, open[k].snapshot->path);
+      AddedIds given = give_segments_ids(analysis, members_of[k], open[k].scan, open[k].ids, open[k].snapshot->path);
       open[k].id_insertions = std::move(given.insertions);
       open[k].added_ids = std::move(given.ids);
     }
@@ -199,7 +201,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     std::vector<std::string> out;
     for (std::size_t k = 0; k < open.size(); ++k) {
       const Edition& e = open[k];
-      if (std::find(edition_of.begin(), edition_of.end(), k) == edition_of.end()) continue;  // nothing of it selected
+      if (members_of[k].empty()) continue;  // nothing of it selected
       out.push_back((k == self ? std::string("this document") : relative_uri(document, e.snapshot->path)) +
                     " (SHA-256 " + e.source_sha256 + (separate ? "" : ", without manicule's additions") + ")");
     }
@@ -226,8 +228,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
   for (std::size_t k = 0; k < open.size(); ++k) {
     Edition& e = open[k];
     StandoffTarget target;
-    for (std::size_t s = 0; s < edition_of.size(); ++s)
-      if (edition_of[s] == k) target.members.push_back(s);
+    target.members = members_of[k];
     if (target.members.empty()) {
       // Nothing of it was selected (a play among letters): an empty listAnnotation would
       // not even be valid TEI, and there is nothing to say about this edition.
