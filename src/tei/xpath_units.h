@@ -16,8 +16,8 @@ namespace manicule {
 std::set<std::vector<int>> select_elements(xmlDocPtr doc, const std::string& expression);
 
 // Error(usage) for an xpath: unit that cannot select elements in any file (it does not
-// compile, uses a prefix other than tei:, or gives a number or a string), found before any
-// file is read: a batch would otherwise record every file as failing.
+// compile, uses a prefix other than tei:, gives a number or a string, or ends on attributes
+// or text in every branch of a union, as //tei:sp/@who), found before any file is read: a batch would otherwise record every file as failing.
 void check_xpath_unit(const std::string& expression);
 
 }  // namespace manicule

@@ -11,6 +11,7 @@ targets and so took the children of each element for it: twelve letters gave 77 
 """
 import os
 import re
+import shutil
 import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
@@ -123,4 +124,30 @@ chosen = etree.parse(play).xpath("//tei:sp/@who", namespaces={"tei": TEI})
 p = mtest.run(["segments", "--unit", "xpath://tei:sp/@who", play], check=False)
 mtest.check(chosen and all(isinstance(v, str) for v in chosen) and p.returncode == 2 and "not elements" in p.stderr,
             "xpath://tei:sp/@who (lxml: %d attribute values): exit %d, %s" % (len(chosen), p.returncode, p.stderr))
+
+# A batch is refused before any file is read when the unit's every branch ends on
+# attributes, text or comments (an empty document, which the unit is tried on first, gives
+# no attribute to see); a unit that lxml finds selecting elements on the play is taken.
+# lxml tells which is which on the invented play.
+tree = etree.parse(play)
+archive_dir = os.path.join(store_dir, "one-play")
+os.makedirs(archive_dir)
+shutil.copy(play, archive_dir)
+for i, expression in enumerate(["//tei:sp/@who", "//tei:sp/attribute::who", "//tei:speaker/text()",
+                                "//tei:sp/@who | //tei:speaker/text()", "//tei:sp[@who='#a|b' or @who]/@who",
+                                "//tei:sp | //tei:sp/@who", "(//tei:sp)[2]", "//tei:sp[@who]",
+                                "//tei:sp[contains(@who, '/@')] | //tei:div/tei:sp"]):
+    found = tree.xpath(expression, namespaces={"tei": TEI})
+    with_elements = any(isinstance(v, etree._Element) for v in found)
+    mtest.check(found, "lxml finds nothing for %s on the play" % expression)
+    store = os.path.join(store_dir, "unit-%d.sqlite" % i)
+    p = mtest.run(["batch", archive_dir, "--store", store, "--unit", "xpath:" + expression, "--quiet",
+                   "--min-tokens", "1"], check=False)
+    if with_elements:
+        mtest.check(p.returncode == 0, "xpath:%s selects elements (lxml) but batch exited %d: %s"
+                    % (expression, p.returncode, p.stderr))
+    else:
+        mtest.check(p.returncode == 2 and "not elements" in p.stderr and not os.path.exists(store),
+                    "xpath:%s selects no element (lxml) but batch exited %d, store left %s: %s"
+                    % (expression, p.returncode, os.path.exists(store), p.stderr))
 mtest.done()
