@@ -45,11 +45,13 @@ std::string relative_to_folder(const std::string& path, const std::string& folde
 
 std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inputs, const ArchiveFilter& filter,
                                             const Shard& shard, std::vector<UnlistedFolder>& unlisted,
-                                            LeftAside& left_aside) {
+                                            LeftAside& left_aside, std::vector<std::string>& empty_inputs) {
   std::vector<ArchiveFile> out;
   for (const auto& input : inputs) {
     const bool folder = fs::is_directory(input);
-    for (const auto& path : expand_inputs({input}, &unlisted, &left_aside)) {
+    const std::vector<std::string> found = expand_inputs({input}, &unlisted, &left_aside);
+    if (found.empty()) empty_inputs.push_back(input);
+    for (const auto& path : found) {
       ArchiveFile f;
       f.path = path;
       f.relative_path = folder ? relative_to_folder(path, input) : fs::path(path).filename().string();

@@ -31,10 +31,12 @@ bool in_shard(const std::string& relative_path, const Shard& shard);
 // The files under `inputs` inside `filter`'s folder and in `shard`, sorted by path within
 // each input. Throws Error(bad_input) for an input that does not exist; a folder below an
 // input that cannot be listed goes to `unlisted`, and other files below the input folders
-// are counted in `left_aside` (see expand_inputs).
+// are counted in `left_aside` (see expand_inputs). `empty_inputs` gets the inputs under
+// which no TEI file was found at all, whatever the folder and the share (an archive not
+// mounted, rather than a share or a folder that happens to hold none).
 std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inputs, const ArchiveFilter& filter,
                                             const Shard& shard, std::vector<UnlistedFolder>& unlisted,
-                                            LeftAside& left_aside);
+                                            LeftAside& left_aside, std::vector<std::string>& empty_inputs);
 
 // Size and modification time now; false when the file cannot be examined.
 bool stat_file(const std::string& path, std::uint64_t& size, std::int64_t& mtime_ns);

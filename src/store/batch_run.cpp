@@ -199,8 +199,9 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
                        const BatchListener& listener) {
   const ReadingSettings settings = reading_settings(request);
   BatchSummary summary;
-  std::vector<ArchiveFile> listed =
-      list_archive_files(request.inputs, options.filter, options.shard, summary.unlisted, summary.left_aside);
+  std::vector<std::string> empty_inputs;  // no TEI file under them at all
+  std::vector<ArchiveFile> listed = list_archive_files(request.inputs, options.filter, options.shard, summary.unlisted,
+                                                       summary.left_aside, empty_inputs);
   std::vector<ArchiveFile> files;
   {
     std::unordered_set<std::string> seen;
@@ -249,11 +250,11 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   // Inputs that hold no TEI file at all where the store holds files from them: most often
   // an archive not mounted (an empty mount point), which would otherwise empty the store,
   // and a job array's merge after it. (A --folder removed from the archive, above, is
-  // taken at its word.)
+  // taken at its word; a share whose last file was deleted, under an input that holds
+  // others, is not an archive missing.)
   if (options.filter.folder.empty() && summary.unlisted.empty() && !vanished.empty()) {
-    for (const std::string& input : request.inputs) {
+    for (const std::string& input : empty_inputs) {
       const auto under = [&](const std::string& path) { return path == input || starts_with_folder(path, input); };
-      if (std::any_of(files.begin(), files.end(), [&](const ArchiveFile& f) { return under(f.path); })) continue;
       std::vector<const VanishedFile*> gone;
       for (const VanishedFile& v : vanished)
         if (!v.respelled && under(v.path)) gone.push_back(&v);

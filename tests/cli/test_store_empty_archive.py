@@ -5,8 +5,10 @@ file, and a job array's merge then emptied the merged store too. The files back 
 the next run reads none of them again (its report: each is unchanged or hashed and known)
 and the files table (read with Python's sqlite3) holds what os.walk finds. A
 --folder removed from the archive is still taken at its word: its files are removed (the
-files table against os.walk).
+files table against os.walk). A --shard whose last file was deleted, under an input that holds
+other files, loses that file (it was refused as an archive not mounted).
 """
+import hashlib
 import os
 import shutil
 import sqlite3
@@ -71,5 +73,29 @@ p = mtest.run(["batch", archive, "--folder", "sea"] + common)
 paths = stored(store)
 left = sorted(os.path.join(d, n) for d, _, names in os.walk(archive) for n in names)
 mtest.check(paths == left, "after removing the folder sea: the store holds %r, os.walk finds %r" % (paths, left))
+
+# A share whose last file was deleted, under an input that still holds other shares' files,
+# is no archive missing: the file goes from the share's store. Which file lies in which
+# share is worked out here by the documented rule, 1 + (first 8 bytes of SHA-256 of the
+# path below the input, big-endian) mod N, with hashlib.
+shared = os.path.join(tmp, "shared")
+os.makedirs(shared)
+share_of = {}
+for i in range(12):
+    name = "letters-%02d.xml" % i
+    shutil.copy(os.path.join(mtest.ROOT, "examples", "ferry-letters.xml"), os.path.join(shared, name))
+    share_of[name] = 1 + int(hashlib.sha256(name.encode()).hexdigest()[:16], 16) % 12
+alone = sorted(n for n in share_of if list(share_of.values()).count(share_of[n]) == 1)
+mtest.check(alone and len(set(share_of.values())) < 12, "no share of 12 holds exactly one of the files: %r" % share_of)
+lonely = alone[0]
+share = "%d/12" % share_of[lonely]
+share_store = os.path.join(tmp, "share.sqlite")
+mtest.run(["batch", shared, "--store", share_store, "--unit", "letter", "--quiet", "--shard", share])
+mtest.check(stored(share_store) == [os.path.join(shared, lonely)], "share %s holds %r" % (share, stored(share_store)))
+os.remove(os.path.join(shared, lonely))
+p = mtest.run(["batch", shared, "--store", share_store, "--unit", "letter", "--quiet", "--shard", share], check=False)
+mtest.check(p.returncode == 0 and stored(share_store) == [],
+            "the share's last file deleted, 11 others left: exit %d, store holds %r, %s"
+            % (p.returncode, stored(share_store), p.stderr))
 
 mtest.done()
