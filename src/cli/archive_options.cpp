@@ -25,10 +25,10 @@ void ArchiveFilterOptions::add_to(CLI::App& command) {
   command.add_option("--folder", folder, "only files inside this folder (below an input folder, or a path)")
       ->check(not_blank())
       ->group("Sub-corpus");
-  command.add_option("--author", author, "only files whose header authors hold each word of this text (any order, letter case ignored)")
+  command.add_option("--author", author, "only files one of whose header authors holds each word of this text, as a whole word (any order, letter case ignored)")
       ->check(not_blank())
       ->group("Sub-corpus");
-  command.add_option("--years", years, "only segments dated in FROM-TO (1800-1850, 1800-, -1850): a letter by its own date, else by its file's (the work's; docs/store.md)")
+  command.add_option("--years", years, "only segments dated in FROM-TO (1800-1850, 1800-, -1850, or one year: 1850): a letter by its own date, else by its file's (the work's; docs/store.md)")
       ->check(not_blank())
       ->group("Sub-corpus");
   command.add_option("--language", language, "only segments in this language, their own or else their file's (de, en, eng, en-GB)")
@@ -43,6 +43,8 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
   store::ArchiveFilter f;
   f.folder = folder;
   f.author = author;
+  if (!author.empty() && author.find_first_not_of(store::kAuthorWordSeparators) == std::string::npos)
+    throw Error(ErrorKind::usage, "--author '" + author + "': give a name, or a word of one (e.g. --author Eliot)");
   f.language = language;
   if (!language.empty() && !is_language_code(language))
     throw Error(ErrorKind::usage, "--language " + language +
@@ -51,6 +53,9 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
   f.title = title;
   if (!years.empty()) {
     auto dash = years.find('-');
+    if (years.find_first_not_of("- ") == std::string::npos)
+      throw Error(ErrorKind::usage, "--years takes FROM-TO, FROM- or -TO in four-digit years, or one year, e.g. "
+                                    "1800-1850; got '" + years + "'");
     if (dash == std::string::npos) {
       f.year_from = f.year_to = parse_year(years, years);
     } else {

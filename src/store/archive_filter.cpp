@@ -14,21 +14,22 @@ std::string tidy_folder(std::string f) {
   return f;
 }
 
-// Each word of `wanted` (split at spaces, commas and semicolons) occurs in `author`, in any
-// order: "George Eliot" finds "Eliot, George [pseud.]", as catalogues invert names.
+// Each word of `wanted` (split at spaces, commas and semicolons) is a whole word of
+// `author`, in any order: "George Eliot" finds "Eliot, George [pseud.]", as catalogues
+// invert names, and "Kind" does not find "Wedekind". (to_filter refuses a text without a word.)
 bool one_author_matches(std::string_view author, const std::string& wanted) {
   std::size_t start = 0;
   bool any_word = false;
   while (start < wanted.size()) {
-    std::size_t end = wanted.find_first_of(" ,;", start);
+    std::size_t end = wanted.find_first_of(kAuthorWordSeparators, start);
     if (end == std::string::npos) end = wanted.size();
     if (end > start) {
       any_word = true;
-      if (!caseless_contains(author, std::string_view(wanted).substr(start, end - start))) return false;
+      if (!caseless_contains_word(author, std::string_view(wanted).substr(start, end - start))) return false;
     }
     start = end + 1;
   }
-  return any_word || caseless_contains(author, wanted);
+  return any_word;
 }
 
 // One of the authors (joined by kAuthorSeparator, join_authors) holds every word: "Anna

@@ -10,9 +10,12 @@
 
 namespace manicule::store {
 
+// What separates the words of --author's text ("Eliot, George").
+inline constexpr const char* kAuthorWordSeparators = " \t,;";
+
 struct ArchiveFilter {
   std::string folder;    // only files inside this folder (relative to an input folder, or as a path)
-  std::string author;    // the header's authors hold each word of this text, in any order
+  std::string author;    // one of the header's authors holds each word of this text as a whole word, in any order
   // Years: a segment's own where the edition dates it apart from its file (a letter), else
   // its file's (the work's date from the header); segments without either are left out.
   int year_from = 0;     // the year is at least this (0 = no lower bound)

@@ -26,6 +26,30 @@ bool caseless_contains(std::string_view text, std::string_view part) {
   return caseless_code_points(text).find(caseless_code_points(part)) != std::u32string::npos;
 }
 
+namespace {
+
+bool continues_word(char32_t c) {
+  const auto kind = u_charType(static_cast<UChar32>(c));
+  return u_hasBinaryProperty(static_cast<UChar32>(c), UCHAR_ALPHABETIC) || u_isdigit(static_cast<UChar32>(c)) ||
+         kind == U_NON_SPACING_MARK || kind == U_COMBINING_SPACING_MARK;
+}
+
+}  // namespace
+
+bool caseless_contains_word(std::string_view text_utf8, std::string_view word_utf8) {
+  const std::u32string text = caseless_code_points(text_utf8);
+  const std::u32string word = caseless_code_points(word_utf8);
+  if (word.empty()) return false;
+  for (std::size_t at = text.find(word); at != std::u32string::npos; at = text.find(word, at + 1)) {
+    const std::size_t end = at + word.size();
+    // A word that itself begins or ends with a non-letter ("F.") needs no boundary there.
+    const bool starts_clean = at == 0 || !continues_word(word.front()) || !continues_word(text[at - 1]);
+    const bool ends_clean = end == text.size() || !continues_word(word.back()) || !continues_word(text[end]);
+    if (starts_clean && ends_clean) return true;
+  }
+  return false;
+}
+
 bool caseless_pattern_match(std::string_view pattern_utf8, std::string_view text_utf8) {
   const std::u32string pattern = caseless_code_points(pattern_utf8);
   const std::u32string text = caseless_code_points(text_utf8);

@@ -14,6 +14,11 @@ std::u32string caseless_code_points(std::string_view utf8);
 // Whether `part` occurs in `text`, letter case ignored.
 bool caseless_contains(std::string_view text, std::string_view part);
 
+// Whether `word` occurs in `text` as a whole word, letter case ignored: neither side of it
+// continues with a letter, a digit or a combining mark, so that "Kind" finds "Anna Kind"
+// and "Kind, Anna" but not "Wedekind".
+bool caseless_contains_word(std::string_view text, std::string_view word);
+
 // Whether all of `text` matches the shell pattern: '*' stands for any run of characters,
 // '?' for one character; every other character stands for itself, letter case ignored.
 bool caseless_pattern_match(std::string_view pattern, std::string_view text);

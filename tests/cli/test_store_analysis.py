@@ -165,15 +165,18 @@ with tempfile.TemporaryDirectory() as tmp:
         chosen = {p for p in paths if keep(p)} & with_long
         return chosen if len(chosen) >= 1 else set()
 
-    author = "von"
+    # --author takes whole words (docs/store.md); a word is a run of \w, as Python's re has it.
+    def by_author(p):
+        return re.search(r"(?<!\w)von(?!\w)", facts[p][1], re.IGNORECASE) is not None
+
     cases = [
-        (["--author", "VON"], lambda p: author in facts[p][1].lower()),
+        (["--author", "VON"], by_author),
         (["--years", "1780-1850"], lambda p: facts[p][2] is not None and 1780 <= facts[p][2] <= 1850),
         (["--title", "*der*"], lambda p: "der" in facts[p][0].lower()),
         (["--folder", "more"], lambda p: os.path.basename(os.path.dirname(p)) == "more"),
         (["--language", "de"], lambda p: True),
         (["--language", "en"], lambda p: False),
-        (["--author", "von", "--years", "1800-"], lambda p: author in facts[p][1].lower()
+        (["--author", "von", "--years", "1800-"], lambda p: by_author(p)
          and facts[p][2] is not None and facts[p][2] >= 1800),
     ]
     for args, keep in cases:

@@ -1,0 +1,81 @@
+"""Sub-corpora by author: `--author TEXT` takes the files one of whose header authors holds
+each word of TEXT as a whole word, in any order, letter case ignored (docs/store.md).
+
+It matched parts of words: "Kind" took every "Wedekind", "Ward" every "Edward", and a text
+of commas alone took every inverted name. Invented editions here carry invented authors
+chosen so that the two readings differ; which files each query should take is worked out
+with Python's re (a word is a run of \\w, Unicode-aware, Python's documented definition)
+from the authors that lxml reads in each header, then compared with the files the
+analysis took in (analysis_segments, read with Python's sqlite3). A text without a word is
+a usage error, and so is a --years of dashes alone.
+"""
+import os
+import re
+import sys
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+from lxml import etree  # noqa: E402
+
+TEI = "http://www.tei-c.org/ns/1.0"
+AUTHORS = [
+    ["Oskar Kind"], ["Lotte Wendekind"], ["Kind, Oskar"], ["Hanne Kindler"], ["Edda Ward"],
+    ["Edward Lune"], ["Ilse Ward-Pell"], ["F. Marlow"], ["Mira Sand", "Oskar Kind"], ["ÖDÖN KIND"],
+]
+WORDS = ("harbour lantern ferry rope tide gull plank mast sail river dock wave night morning "
+         "letter island shore bell crew cargo").split()
+
+tmp = mtest.scratch_folder("manicule-author-words-")
+archive = os.path.join(tmp, "archive")
+os.makedirs(archive)
+for i, names in enumerate(AUTHORS):
+    body = " ".join(WORDS[(i * 7 + k * k) % len(WORDS)] for k in range(260))
+    authors = "".join("<author>%s</author>" % n for n in names)
+    with open(os.path.join(archive, "work-%02d.xml" % i), "w", encoding="utf-8") as f:
+        f.write('<TEI xmlns="%s"><teiHeader><fileDesc><titleStmt><title>Work %d</title>%s</titleStmt>'
+                '<publicationStmt><p>invented</p></publicationStmt><sourceDesc><p>invented</p></sourceDesc>'
+                '</fileDesc></teiHeader><text><body><div><p>%s</p></div></body></text></TEI>'
+                % (TEI, i, authors, body))
+
+# The header authors as lxml reads them.
+header_authors = {}
+for name in sorted(os.listdir(archive)):
+    root = etree.parse(os.path.join(archive, name)).getroot()
+    header_authors[name] = ["".join(a.itertext()) for a in root.iter("{%s}author" % TEI)]
+
+
+def expected(text):
+    words = [w for w in re.split(r"[\s,;]+", text) if w]
+
+    def holds(author, word):
+        return re.search(r"(?<!\w)" + re.escape(word) + r"(?!\w)", author, re.IGNORECASE) is not None
+
+    return {n for n, authors in header_authors.items() if any(all(holds(a, w) for w in words) for a in authors)}
+
+
+store = os.path.join(tmp, "works.sqlite")
+mtest.run(["batch", archive, "--store", store, "--unit", "whole", "--quiet"])
+
+for text in ["Kind", "kind oskar", "Ward", "Edward", "Pell", "Ward-Pell", "F.", "Marlow F", "Sand Kind", "Lune Kind",
+             "Ödön"]:
+    want = expected(text)
+    proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "100", "--author", text], check=False)
+    if len(want) < 2:
+        # An analysis needs two segments; fewer is "nothing to compare" (exit 4).
+        mtest.check(proc.returncode == 4, "--author %r: Python expects %r, manicule exited %d: %s"
+                    % (text, sorted(want), proc.returncode, proc.stderr))
+        continue
+    mtest.check(proc.returncode == 0, "--author %r exited %d: %s" % (text, proc.returncode, proc.stderr))
+    _, tables = storecheck.latest_analysis(store)
+    got = {os.path.basename(row[1]) for row in tables["segments"]}
+    mtest.check(got == want, "--author %r took %r, whole words give %r" % (text, sorted(got), sorted(want)))
+mtest.check(expected("Kind") == {"work-00.xml", "work-02.xml", "work-08.xml", "work-09.xml"},
+            "the invented authors do not tell the readings apart: %r" % sorted(expected("Kind")))
+
+for args in (["--author", ","], ["--author", " ; "], ["--years", "-"], ["--years", "--"]):
+    proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "100"] + args, check=False)
+    mtest.check(proc.returncode == 2 and proc.stderr.startswith("manicule:"),
+                "%r: exit %d, %s" % (args, proc.returncode, proc.stderr))
+
+mtest.done()
