@@ -1,5 +1,7 @@
 #include "store/archive_filter.h"
 
+#include <filesystem>
+
 #include "core/segment.h"
 #include "text/caseless_match.h"
 
@@ -44,6 +46,17 @@ bool author_matches(const std::string& authors, const std::string& wanted) {
   }
 }
 
+// `path` absolute against the working folder (taken once: a run does not change it) and
+// lexically normal: "a/./b/../c" gives "/work/a/c".
+std::string absolute_spelling(const std::string& path) {
+  static const std::filesystem::path working_folder = std::filesystem::current_path();
+  std::filesystem::path p(path);
+  if (p.is_relative()) p = working_folder / p;
+  std::string out = p.lexically_normal().string();
+  while (out.size() > 1 && out.back() == '/') out.pop_back();
+  return out;
+}
+
 }  // namespace
 
 bool starts_with_folder(const std::string& path, const std::string& folder) {
@@ -80,7 +93,10 @@ bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::
   std::string folder = tidy_folder(filter.folder);
   std::string tidy_path = path;
   while (tidy_path.rfind("./", 0) == 0) tidy_path.erase(0, 2);
-  return starts_with_folder(relative_path, folder) || starts_with_folder(tidy_path, folder);
+  if (starts_with_folder(relative_path, folder) || starts_with_folder(tidy_path, folder)) return true;
+  // A path spelled otherwise than the inputs were ("/data/arch/de" for "arch/de", "arch/x/../de"):
+  // both made absolute against the working folder and tidied, without reading the disk.
+  return starts_with_folder(absolute_spelling(path), absolute_spelling(folder));
 }
 
 bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {

@@ -1,0 +1,63 @@
+"""Sub-corpora by folder: `--folder DIR` names "a folder below an input folder, or a path"
+(docs/store.md), and a path may be spelled otherwise than the inputs were: relative where
+the batch was given an absolute input, absolute where it was given a relative one, with
+"./" or "x/../". Such spellings selected nothing ("widen it", or exit 4 in batch).
+
+Which files a spelling names is worked out with Python's os.path (abspath, normpath) over
+the files os.walk finds; the analysis must take exactly those (analysis_segments, read
+with Python's sqlite3), and batch --folder must read exactly those (its runs row). Folders
+whose names begin alike ("de", "de_1") must stay apart.
+"""
+import os
+import shutil
+import sys
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+
+tmp = mtest.scratch_folder("manicule-folder-spellings-")
+letters = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
+for folder, count in (("de", 3), ("de_1", 2), ("en", 2)):
+    os.makedirs(os.path.join(tmp, "archive", folder))
+    for i in range(count):
+        shutil.copy(letters, os.path.join(tmp, "archive", folder, "letters-%d.xml" % i))
+files = sorted(os.path.abspath(os.path.join(d, n)) for d, _, names in os.walk(os.path.join(tmp, "archive"))
+               for n in names)
+
+
+def named_by(spelling):
+    """The files below `spelling`, a path taken from the working folder tmp (Python's os.path)."""
+    folder = os.path.normpath(os.path.join(tmp, spelling))
+    return {f for f in files if f.startswith(folder + os.sep)}
+
+
+spellings = ["archive/de", "./archive/de", os.path.join(tmp, "archive", "de"), "archive/de_1/../de",
+             "archive/de/", os.path.join(tmp, "archive", "en", "..", "de_1")]
+for input_spelling in ("archive", os.path.join(tmp, "archive")):
+    store = os.path.join(tmp, "store-%d.sqlite" % len(input_spelling))
+    mtest.run(["batch", input_spelling, "--store", store, "--unit", "letter", "--quiet"], cwd=tmp)
+    for spelling in spellings:
+        want = named_by(spelling)
+        mtest.check(len(want) in (2, 3), "%s names %d files" % (spelling, len(want)))
+        proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "200", "--folder", spelling], check=False,
+                         cwd=tmp)
+        mtest.check(proc.returncode == 0, "input %s, --folder %s: exit %d, %s"
+                    % (input_spelling, spelling, proc.returncode, proc.stderr))
+        _, tables = storecheck.latest_analysis(store)
+        got = {os.path.abspath(os.path.join(tmp, row[1])) for row in tables["segments"]}
+        mtest.check(got == want, "input %s, --folder %s: analysed %r, os.path gives %r"
+                    % (input_spelling, spelling, sorted(got), sorted(want)))
+
+        # batch --folder reads just those files, into a store of its own.
+        part = os.path.join(tmp, "part.sqlite")
+        for suffix in ("", "-wal"):
+            if os.path.exists(part + suffix):
+                os.remove(part + suffix)
+        mtest.run(["batch", input_spelling, "--store", part, "--unit", "letter", "--quiet", "--folder", spelling],
+                  cwd=tmp)
+        run = storecheck.last_run(part)
+        mtest.check(run["files_read"] == len(want), "batch input %s --folder %s read %d files, os.path gives %d"
+                    % (input_spelling, spelling, run["files_read"], len(want)))
+
+mtest.done()
