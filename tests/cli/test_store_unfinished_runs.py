@@ -18,6 +18,7 @@ import json
 import os
 import pty
 import select
+import shutil
 import signal
 import sys
 import tempfile
@@ -90,15 +91,27 @@ with tempfile.TemporaryDirectory() as tmp:
     # A run that found nothing to read records nothing, unless it settles an unfinished one:
     # every file stored, a --verify-hashes run interrupted, then the plain command, which
     # reads nothing, is recorded complete and the note goes (it once stayed for good).
-    code, _, _ = storecheck.run_stopped([mtest.BIN, "batch", archive, "--store", wide, "--unit", "speaker",
-                                         "--threads", "1", "--verify-hashes", "--verbose"], 1, signal.SIGINT)
-    mtest.check(code == 130 and runs_of(wide)[-1][2] == "interrupted", "the hashing run: %r" % (runs_of(wide)[-1],))
-    runs_before = len(runs_of(wide))
-    proc = mtest.run(["batch", archive, "--store", wide, "--unit", "speaker", "--quiet"])
-    last = runs_of(wide)[-1]
-    proc = mtest.run(["analyse-store", "--store", wide, "--min-tokens", "100"])
-    mtest.check(len(runs_of(wide)) > runs_before and last[1:3] == ("batch", "done") and "was interrupted" not in proc.stderr,
-                "after the plain re-run: runs %r, %s" % (runs_of(wide)[runs_before - 1:], proc.stderr))
+    # Hashing known files is quick, so the stop is made certain to come part way: the run's
+    # messages (80 files' worth) go into a small pipe that is not read until it is full.
+    many = os.path.join(tmp, "many")
+    for copy in range(5):
+        for name in os.listdir(archive):
+            os.makedirs(os.path.join(many, "copy-%d" % copy), exist_ok=True)
+            shutil.copy(os.path.join(archive, name), os.path.join(many, "copy-%d" % copy, name))
+    hashing = os.path.join(tmp, "hashing.sqlite")
+    mtest.run(["batch", many, "--store", hashing, "--unit", "speaker", "--quiet"])
+    code, filled, messages = storecheck.run_stopped_when_blocked(
+        [mtest.BIN, "batch", many, "--store", hashing, "--unit", "speaker", "--threads", "1", "--verify-hashes",
+         "--verbose"], signal.SIGINT)
+    mtest.check(filled and code == 130 and runs_of(hashing)[-1][2] == "interrupted",
+                "the hashing run: pipe filled %s, exit %d, %r" % (filled, code, runs_of(hashing)[-1]))
+    runs_before = len(runs_of(hashing))
+    proc = mtest.run(["batch", many, "--store", hashing, "--unit", "speaker", "--quiet"])
+    last = runs_of(hashing)[-1]
+    proc = mtest.run(["analyse-store", "--store", hashing, "--min-tokens", "100"])
+    mtest.check(len(runs_of(hashing)) > runs_before and last[1:3] == ("batch", "done") and last[4] == 0
+                and "was interrupted" not in proc.stderr,
+                "after the plain re-run: runs %r, %s" % (runs_of(hashing)[runs_before - 1:], proc.stderr))
 
     # Ctrl-C while analyse-store draws its progress on a terminal.
     whole = os.path.join(tmp, "whole.sqlite")

@@ -7,11 +7,14 @@ exactly when they hold the same data.
 The counts blob format (docs/store.md): unsigned LEB128 varints, per feature in ascending
 id order the gap to the previous id (the first: the id itself), then the count.
 """
+import array
+import fcntl
 import hashlib
 import os
 import shutil
 import sqlite3
 import subprocess
+import termios
 import time
 
 import mtest
@@ -98,6 +101,31 @@ def run_stopped(command, after, sig, env=None, group=False, delay=0.0):
     proc.wait()
     proc.stderr.close()
     return proc.returncode, reported, "".join(after_signal)
+
+
+def run_stopped_when_blocked(command, sig, pipe_bytes=4096):
+    """Runs `command` (a `batch --verbose` with more to report than `pipe_bytes`) with its
+    messages going into a pipe of `pipe_bytes` (F_SETPIPE_SZ, Linux fcntl(2)) that nobody
+    reads, waits until the pipe is full (FIONREAD: within 512 bytes of it, less than one
+    message, as a write up to PIPE_BUF waits whole), so that the command is held in the
+    middle of its work, and sends it `sig`. Unlike run_stopped, which races a command that
+    may finish its few remaining files before the signal arrives, the stop then always
+    comes part way. Returns (exit code, whether the pipe filled, all the messages)."""
+    proc = subprocess.Popen(command, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE)
+    fcntl.fcntl(proc.stderr.fileno(), 1031, pipe_bytes)  # F_SETPIPE_SZ
+    filled = False
+    while proc.poll() is None:
+        waiting = array.array("i", [0])
+        fcntl.ioctl(proc.stderr.fileno(), termios.FIONREAD, waiting)
+        if waiting[0] > pipe_bytes - 512:  # full: what is left is less than a message
+            filled = True
+            proc.send_signal(sig)
+            break
+        time.sleep(0.01)
+    messages = proc.stderr.read().decode("utf-8", "replace")
+    proc.wait()
+    proc.stderr.close()
+    return proc.returncode, filled, messages
 
 
 def connect(path):
