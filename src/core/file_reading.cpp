@@ -79,9 +79,11 @@ FileReading read_file(const std::string& file, const Request& request, const Sel
     result.metadata.author = join_authors(header.authors);
     result.metadata.date = work_date(header);
     result.metadata.year = first_year(result.metadata.date);
-    result.metadata.language = header.language.empty() ? main_language(result.segments) : header.language;
-    // A file without segments of this unit still says its language on its TEI element.
+    // The language of its text (tei-conventions 4): its segments' (each run's xml:lang,
+    // else langUsage), else the TEI element's xml:lang, and langUsage only after that.
+    result.metadata.language = main_language(result.segments);
     if (result.metadata.language.empty()) result.metadata.language = header.tei_language;
+    if (result.metadata.language.empty()) result.metadata.language = header.language;
   } catch (const Error& e) {
     result.failed = true;
     result.failure = FileFailure{file, e.what(), static_cast<int>(e.kind())};

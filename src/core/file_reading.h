@@ -22,8 +22,11 @@ struct SelectionRules;
 // 3: segments dated apart from their file (Segment::date: letters, texts of a teiCorpus),
 // and a letter paired with the correspDesc among several @decls pointers. 4: --unit xpath:
 // selects the matched elements (not their children); a speaker credited by <speaker>
-// labels warns of it.
-constexpr int kReadingRevision = 4;
+// labels warns of it. 5: a segment's language is that of most of its words (not bytes);
+// a file's, that of its text before langUsage; the title of type main preferred; notes
+// left out of titles and names, line breaks and name parts parting their words; several
+// names of one author bracketed; a year written "-0400" is before the common era.
+constexpr int kReadingRevision = 5;
 
 // What the edition's own header says (the first TEI element's teiHeader).
 struct FileMetadata {

@@ -14,7 +14,8 @@ int first_year(const std::string& date) {
     }
     std::size_t j = i;
     while (j < date.size() && std::isdigit(static_cast<unsigned char>(date[j]))) ++j;
-    if (j - i == 4) return std::stoi(date.substr(i, 4));
+    // ISO 8601 and XML Schema write a year before the common era with a minus: "-0400".
+    if (j - i == 4) return (i == 1 && date[0] == '-' ? -1 : 1) * std::stoi(date.substr(i, 4));
     i = j;
   }
   return 0;

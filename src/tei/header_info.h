@@ -22,7 +22,8 @@ struct CorrespRecord {
 
 struct HeaderInfo {
   std::string tei_id;                              // xml:id of the TEI element
-  std::string title;                               // first main title in titleStmt
+  std::string title;                               // titleStmt's title of type main, else its first not a subtitle
+  bool title_is_main = false;                      // title came from a title of type main
   std::vector<std::string> authors;                // titleStmt/author names
   // Dates as written (@when, else @notBefore, @from, @notAfter or @to, else the text); the
   // store's file date is the first of these, in this order, that has a year, else the first

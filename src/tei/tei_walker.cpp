@@ -38,6 +38,14 @@ const std::unordered_set<std::string_view>& block_elements() {
   return names;
 }
 
+// "Maler Müller ( Friedrich Müller )", as the names' own spaces leave it, without the
+// spaces inside the brackets.
+std::string tidy_brackets(std::string text) {
+  for (std::size_t at; (at = text.find("( ")) != std::string::npos;) text.erase(at + 1, 1);
+  for (std::size_t at; (at = text.find(" )")) != std::string::npos;) text.erase(at, 1);
+  return text;
+}
+
 const std::unordered_set<std::string_view>& milestone_elements() {
   static const std::unordered_set<std::string_view> names{"lb", "pb", "cb", "gb", "milestone"};
   return names;
@@ -141,7 +149,10 @@ struct TeiWalker::State {
     bool person = false, cast_list = false, sp_grp = false, tei_element = false;
     bool dateline = false;
     bool hides_letter_dates = false;  // text the reader leaves out, inside a letter
-    bool muted = false;        // an idno inside it: an identifier, not part of the name
+    bool muted = false;        // an idno or a note inside a capture: no part of the name or title
+    bool parts_words = false;  // a line break or name part inside a capture: a space each side
+    bool main_title = false;   // a titleStmt title of type main, preferred to any other
+    bool author_name = false;  // a persName directly inside a titleStmt author
     // The element's xml:id, a view into the start tag: set while the start tag is handled
     // and cleared before the frame is kept (frames hold no strings, so they copy cheaply).
     std::string_view xml_id;
@@ -260,6 +271,8 @@ struct TeiWalker::State {
   std::vector<std::string> person_stack;
   int header_depth = 0, text_depth = 0, skip_depth = 0, cast_depth = 0, source_desc_depth = 0;
   int author_depth = 0, muted_depth = 0;  // open author captures, open idno inside them
+  int author_name_depth = 0;  // open persNames directly inside an author
+  int author_names = 0;       // persNames begun in the open author so far
   int creation_depth = 0, standoff_depth = 0, dateline_depth = 0;
   std::vector<std::string> source_bibl_types;  // @type of each open bibl in sourceDesc ("" if none)
   int corresp_index = -1;                // corresp record being read
@@ -420,17 +433,27 @@ struct TeiWalker::State {
     } else if (source_desc_depth > 0 && (f.name == "bibl" || f.name == "biblStruct" || f.name == "biblFull")) {
       f.source_bibl = true;
       source_bibl_types.emplace_back(tag.attribute("type"));
-    } else if (f.name == "title" && in_title_stmt && h.title.empty() && tag.attribute("type") != "sub") {
+    } else if (f.name == "title" && in_title_stmt && tag.attribute("type") != "sub" &&
+               (h.title.empty() || (!h.title_is_main && tag.attribute("type") == "main"))) {
+      // The first title that is not a subtitle, unless a later one is marked as the main one.
       f.capture = Capture::title;
+      f.main_title = tag.attribute("type") == "main";
     } else if (f.name == "author" && in_title_stmt) {
       f.capture = Capture::author;
       ++author_depth;
+      author_names = 0;
     } else if (f.name == "idno" && author_depth > 0) {
       // <author><persName>..</persName><idno type="wikidata">Q..</idno></author>: the name
       // is the author's label; the identifier would make "(Anonym) Q4233718" of an
       // anonymous author (then not recognised as anonymous).
       f.muted = true;
       ++muted_depth;
+    } else if (f.name == "persName" && author_depth > 0 && author_name_depth == 0 && !capture_text.empty()) {
+      // Several names of one author (a pseudonym and the civil name): the first, then the
+      // others in brackets, "Maler Müller (Friedrich Müller)", not run together.
+      f.author_name = true;
+      ++author_name_depth;
+      if (author_names++ > 0) capture_text.back() += " (";
     } else if ((f.name == "person" || f.name == "personGrp") && !f.xml_id.empty()) {
       person_stack.emplace_back(f.xml_id);
       f.person = true;
@@ -556,6 +579,21 @@ struct TeiWalker::State {
     if (slots.source) h.source_date = value;
   }
 
+  // An element inside a captured name, title or heading, before its own capture opens: a
+  // note (an editor's, most often) is no part of it, and a line break (not marked
+  // break="no") or a name part parts words, so that "<forename>Karl</forename><surname>Kraus</surname>" is "Karl Kraus" and
+  // "Die<lb/>Räuber" is "Die Räuber" (tei-conventions: lb, pb and cb are boundaries).
+  void note_inside_capture(Frame& f, bool line_break) {
+    if (f.name == "note" && !f.muted) {
+      f.muted = true;
+      ++muted_depth;
+    } else if (line_break || f.name == "forename" || f.name == "surname" || f.name == "roleName" ||
+               f.name == "addName" || f.name == "genName" || f.name == "nameLink" || f.name == "persName") {
+      f.parts_words = true;
+      for (std::string& c : capture_text) c += ' ';
+    }
+  }
+
   void finish_capture(Frame& f, std::string text) {
     if (f.capture == Capture::speaker) {  // kept raw: close_speech makes the key of it
       if (!open_units.empty()) open_units.back().speaker_text += text;
@@ -564,8 +602,15 @@ struct TeiWalker::State {
     std::string value = normalise_space(text);
     HeaderInfo* h = tei_stack.empty() ? nullptr : &header();
     switch (f.capture) {
-      case Capture::title: if (h && h->title.empty()) h->title = value; break;
-      case Capture::author: if (h && !value.empty()) h->authors.push_back(value); break;
+      case Capture::title:
+        if (h && (h->title.empty() || (f.main_title && !h->title_is_main))) {
+          h->title = value;
+          h->title_is_main = f.main_title;
+        }
+        break;
+      case Capture::author:
+        if (h && !value.empty()) h->authors.push_back(tidy_brackets(value));
+        break;
       case Capture::person_name:
       case Capture::role_name:
         if (h && !person_stack.empty() && !value.empty()) h->person_names.emplace(person_stack.back(), value);
@@ -767,6 +812,8 @@ void TeiWalker::start(const StartTag& tag) {
     s.sp_grp_who.emplace_back(tag.attribute("who"));
     f.sp_grp = true;
   }
+  if (!s.capture_text.empty() && f.tei)
+    s.note_inside_capture(f, name_class.milestone && tag.attribute("break") != "no");
   if (f.capture != Capture::none) s.capture_text.emplace_back();
 
   if (s.collecting()) {
@@ -795,6 +842,12 @@ void TeiWalker::end() {
     std::string text = std::move(s.capture_text.back());
     s.capture_text.pop_back();
     s.finish_capture(f, std::move(text));
+  }
+  if (f.parts_words)
+    for (std::string& c : s.capture_text) c += ' ';
+  if (f.author_name) {
+    --s.author_name_depth;
+    if (s.author_names > 1 && !s.capture_text.empty()) s.capture_text.back() += ')';
   }
   if (f.block && s.collecting()) s.sink().add_boundary();
 
@@ -882,16 +935,37 @@ namespace manicule {
 
 namespace {
 
-// The language with the most text decides the segment's main language.
+// Words in `text`, roughly: runs of letters and digits (any byte beyond ASCII counts as
+// one), the rest (spaces, the indentation between elements, punctuation) parts them.
+std::size_t rough_word_count(std::string_view text) {
+  std::size_t words = 0;
+  bool in_word = false;
+  for (unsigned char c : text) {
+    const bool word_byte = c >= 0x80 || (c >= '0' && c <= '9') || ((c | 0x20) >= 'a' && (c | 0x20) <= 'z');
+    if (word_byte && !in_word) ++words;
+    in_word = word_byte;
+  }
+  return words;
+}
+
+// The language of most of the segment's words. Counted in words, not bytes: the layout
+// between elements (newlines, indentation) takes the enclosing language, and by bytes a
+// speaker of 103 French words and 15 German ones was German. A tie goes to the language
+// that comes first in tag order; a segment without words takes its first run's language.
 std::string main_language(const Segment& segment) {
-  std::map<std::string, std::size_t> sizes;
-  for (const auto& run : segment.runs) sizes[run.language] += run.text.size();
-  std::string best;
-  std::size_t best_size = 0;
-  for (const auto& [tag, size] : sizes) {
-    if (size > best_size) {
+  if (segment.runs.empty()) return "";
+  const std::string& first = segment.runs.front().language;
+  const bool one_language = std::all_of(segment.runs.begin(), segment.runs.end(),
+                                        [&](const TextRun& run) { return run.language == first; });
+  if (one_language) return first;  // most segments: nothing to count
+  std::map<std::string, std::size_t> words;
+  for (const auto& run : segment.runs) words[run.language] += rough_word_count(run.text);
+  std::string best = first;
+  std::size_t best_words = 0;
+  for (const auto& [tag, count] : words) {
+    if (count > best_words) {
       best = tag;
-      best_size = size;
+      best_words = count;
     }
   }
   return best;

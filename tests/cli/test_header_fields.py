@@ -1,0 +1,158 @@
+"""Header fields as an editor reads them, and a segment's language by its words.
+
+Invented editions, each with one thing the header reader once got wrong, read into a store
+and compared (file_list and segment_list, read with Python's sqlite3) with what lxml gives
+under the rules written down here, each from TEI P5 or tei-conventions.md:
+  - the title: titleStmt's title of @type "main", else its first one that is not a
+    subtitle (TEI P5 2.2.1: title/@type main and sub);
+  - no note in a title or a name (tei-conventions.md section 2: notes are commentary);
+  - lb, pb and cb part words unless @break="no" (tei-conventions.md, token boundaries), and
+    so do the parts of a personal name (TEI P5 13.2.1: forename, surname ... are parts of one
+    name, which the source writes with spaces between);
+  - several persNames of one author (a pseudonym, the civil name): the first, then the
+    others in brackets;
+  - a year written "-0400" (XML Schema's gYear, as TEI's att.datable.w3c uses it) is before
+    the common era, so year -400;
+  - a segment's language is that of most of its words (docs/store.md), words counted here
+    as Python's re finds runs of letters; the layout between elements (newlines,
+    indentation) takes the language around it and must not outweigh the words;
+  - a file's language is that of most of its text's words (xml:lang, inherited), before
+    langUsage (tei-conventions.md section 4).
+"""
+import os
+import re
+import sys
+from collections import Counter
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+from lxml import etree  # noqa: E402
+
+TEI = "http://www.tei-c.org/ns/1.0"
+NS = {"t": TEI}
+XML_LANG = "{http://www.w3.org/XML/1998/namespace}lang"
+
+
+def edition(title_stmt, body, lang="de", profile="", date=""):
+    return ('<TEI xmlns="%s" xml:lang="%s"><teiHeader><fileDesc><titleStmt>%s</titleStmt>'
+            '<publicationStmt><p>invented</p></publicationStmt><sourceDesc><p>invented%s</p></sourceDesc>'
+            '</fileDesc>%s</teiHeader><text><body>%s</body></text></TEI>'
+            % (TEI, lang, title_stmt, date, profile, body))
+
+
+PROSE = "<div><p>" + " ".join(["lantern harbour tide rope"] * 20) + "</p></div>"
+# A speaker whose French words outnumber the German ones, with deep indentation between
+# elements (German, the play's language), which outweighs the French by bytes.
+indent = "\n" + " " * 120
+SPEECHES = ("<div>" + indent + '<sp who="#graf">' + indent + "<speaker>Graf</speaker>" +
+            "".join(indent + '<p xml:lang="fr">oui non merci</p>' for _ in range(6)) + indent + "<p>Ja gut.</p>" +
+            indent + "</sp>" + indent + '<sp who="#magd">' + indent + "<p>Ja, ja, ich komme gleich herunter.</p>" +
+            indent + '<p xml:lang="fr">merci</p>' + indent + "</sp>" + indent + "</div>")
+FILES = {
+    "alt-then-main.xml": edition('<title type="alt">Nebentitel</title><title type="main">Haupttitel</title>'
+                                 "<author>Lore Brink</author>", PROSE),
+    "untyped-then-main.xml": edition('<title>Reihe der Fähren</title><title type="sub">Ein Spiel</title>'
+                                     '<title type="main">Die Überfahrt</title><author>Lore Brink</author>', PROSE),
+    "line-break.xml": edition('<title>Die<lb/>Fähre <lb break="no"/>leute</title><author>Lore Brink</author>', PROSE),
+    "note-in-title.xml": edition('<title>Kaimauer<note>Titel nach der Handschrift.</note></title>'
+                                 "<author>Lore<note>Vorname unsicher</note> Brink</author>", PROSE),
+    "name-parts.xml": edition("<title>T</title><author><persName><forename>Karl</forename><forename>Jens</forename>"
+                              "<surname>Möwe</surname></persName></author>", PROSE),
+    "pseudonym.xml": edition('<title>T</title><author><persName type="pseudo">Kapitän Tau</persName>'
+                             "<persName><forename>Jonas</forename><surname>Reling</surname></persName>"
+                             '<idno type="local">X1</idno></author>', PROSE),
+    "before-common-era.xml": edition("<title>T</title><author>Lore Brink</author>", PROSE,
+                                     date='<date when="-0400"/>'),
+    "text-language.xml": edition("<title>T</title><author>Lore Brink</author>", PROSE, lang="fr",
+                                 profile='<profileDesc><langUsage><language ident="deu">Deutsch</language>'
+                                         "</langUsage></profileDesc>"),
+    "speeches.xml": edition("<title>Hafen</title><author>Lore Brink</author>", SPEECHES),
+}
+
+
+def words_of(element):
+    return re.sub(r"\s+", " ", "".join(element.xpath(".//text()[not(ancestor::t:note) and not(ancestor::t:idno)]",
+                                                     namespaces=NS)))
+
+
+def expected_title(root):
+    titles = root.findall("t:teiHeader/t:fileDesc/t:titleStmt/t:title", NS)
+    main = [t for t in titles if t.get("type") == "main"]
+    chosen = main[0] if main else [t for t in titles if t.get("type") != "sub"][0]
+    return text_with_breaks(chosen)
+
+
+def text_with_breaks(element):
+    """The element's text without notes, with a space for each lb/pb/cb not marked
+    break="no" and around each name part."""
+    parts = [element.text or ""]
+    for child in element:
+        name = etree.QName(child).localname
+        if name in ("lb", "pb", "cb"):
+            parts.append("" if child.get("break") == "no" else " ")
+        elif name in ("note", "idno"):
+            pass
+        elif name in ("forename", "surname", "persName", "roleName", "addName", "genName", "nameLink"):
+            parts.append(" " + text_with_breaks(child) + " ")
+        else:
+            parts.append(text_with_breaks(child))
+        parts.append(child.tail or "")
+    return " ".join("".join(parts).split())
+
+
+def expected_author(root):
+    authors = []
+    for author in root.findall("t:teiHeader/t:fileDesc/t:titleStmt/t:author", NS):
+        names = author.findall("t:persName", NS)
+        if len(names) > 1:
+            authors.append(text_with_breaks(names[0]) + "".join(" (%s)" % text_with_breaks(n) for n in names[1:]))
+        else:
+            authors.append(text_with_breaks(author))
+    return "; ".join(authors)
+
+
+tmp = mtest.scratch_folder("manicule-header-fields-")
+archive = os.path.join(tmp, "archive")
+os.makedirs(archive)
+for name, text in FILES.items():
+    with open(os.path.join(archive, name), "w", encoding="utf-8") as f:
+        f.write(text)
+store = os.path.join(tmp, "fields.sqlite")
+mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--quiet"], check=False)
+db = storecheck.connect(store)
+stored = {os.path.basename(r[0]): r[1:] for r in db.execute("SELECT path, title, author, year, language FROM file_list")}
+languages = dict(db.execute("SELECT author, language FROM segment_list WHERE path LIKE '%speeches.xml'"))
+db.close()
+
+for name in FILES:
+    root = etree.parse(os.path.join(archive, name)).getroot()
+    title, author, year, language = stored[name]
+    mtest.check(title == expected_title(root), "%s: title %r, lxml by the rule %r" % (name, title, expected_title(root)))
+    mtest.check(author == expected_author(root), "%s: author %r, lxml by the rule %r"
+                % (name, author, expected_author(root)))
+    body_words = Counter()
+    for p in root.iter("{%s}p" % TEI):
+        lang = p.xpath("string(ancestor-or-self::*[@xml:lang][1]/@xml:lang)")
+        body_words[lang] += len(re.findall(r"[^\W\d_]+", "".join(p.itertext())))
+    mtest.check(language == body_words.most_common(1)[0][0], "%s: language %r, most of its words are in %r"
+                % (name, language, body_words.most_common(1)[0][0]))
+    when = root.xpath("string(//t:sourceDesc//t:date/@when)", namespaces=NS)
+    if when:
+        mtest.check(year == int(when[:5]), "%s: year %r for %r" % (name, year, when))
+
+# Each speaker's language: the one most of its words are in, lxml and re counting them (the
+# speaker label is not running text).
+root = etree.parse(os.path.join(archive, "speeches.xml")).getroot()
+for sp in root.iter("{%s}sp" % TEI):
+    words = Counter()
+    for p in sp.iter("{%s}p" % TEI):
+        lang = p.xpath("string(ancestor-or-self::*[@xml:lang][1]/@xml:lang)")
+        words[lang] += len(re.findall(r"[^\W\d_]+", "".join(p.itertext())))
+    want = words.most_common(1)[0][0]
+    who = sp.get("who").lstrip("#")
+    mtest.check(languages.get(who) == want, "speaker %s: language %r, most of its words (%r) are %r"
+                % (who, languages.get(who), dict(words), want))
+mtest.check(set(languages.values()) == {"fr", "de"}, "the speakers' languages do not differ: %r" % languages)
+
+mtest.done()
