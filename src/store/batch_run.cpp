@@ -157,12 +157,17 @@ std::vector<VanishedFile> vanished_files(const Request& request, const BatchOpti
 // their input, same size and time to the nanosecond, the stored path not found by this run).
 // The store keys files by the path as given, so "arch" from one working folder and
 // "/data/arch" from another make two rows of each file; the command line says so.
+// (A stored path that this run found under another spelling, "./examples" for "examples",
+// is no such case: its row goes, see vanished_files.)
 void note_files_maybe_stored_twice(const std::vector<ArchiveFile>& files, const std::unordered_set<std::string>& found,
                                    const std::unordered_map<std::string, StoredFile>& previous,
-                                   BatchSummary& summary) {
+                                   const std::vector<VanishedFile>& vanished, BatchSummary& summary) {
+  std::unordered_set<std::string> respelled;
+  for (const VanishedFile& v : vanished)
+    if (v.respelled) respelled.insert(v.path);
   std::unordered_map<std::string, const std::string*> unfound_by_name;  // relative path -> stored path
   for (const auto& [path, stored] : previous)
-    if (!found.count(path)) unfound_by_name.emplace(stored.relative_path, &path);
+    if (!found.count(path) && !respelled.count(path)) unfound_by_name.emplace(stored.relative_path, &path);
   if (unfound_by_name.empty()) return;
   for (const ArchiveFile& f : files) {
     if (previous.count(f.path)) continue;
@@ -235,7 +240,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   std::unordered_set<std::string> found;  // the paths this run lists
   for (const ArchiveFile& f : files) found.insert(f.path);
   const std::vector<VanishedFile> vanished = vanished_files(request, options, files, found, previous, summary.unlisted);
-  note_files_maybe_stored_twice(files, found, previous, summary);
+  note_files_maybe_stored_twice(files, found, previous, vanished, summary);
   // A --folder with no file on disk and none in the store is most often a slip of the
   // keyboard, which a job script would otherwise take for success. (A folder removed from
   // the archive still has stored files, and the run removes them; a share of a small

@@ -55,6 +55,20 @@ with tempfile.TemporaryDirectory() as tmp:
     proc, _, _, _ = batch("./archive")
     mtest.check("%d now under another spelling of their path" % on_disk in proc.stdout,
                 "the report of a respelled run: " + proc.stdout)
+    # ... and does not also say that the store now holds the files twice (it said both, for
+    # files older than the run's two seconds of racy cleanness, made so here with os.utime).
+    older = os.path.join(tmp, "older")
+    shutil.copytree(archive, older)
+    an_hour_ago = os.stat(older).st_mtime - 3600
+    for name in os.listdir(older):
+        os.utime(os.path.join(older, name), (an_hour_ago, an_hour_ago))
+    older_store = os.path.join(tmp, "older.sqlite")
+    for spelling in ("older", "./older"):
+        proc = subprocess.run([os.path.abspath(mtest.BIN), "batch", spelling, "--store", older_store, "--unit",
+                               "letter"], capture_output=True, text=True, cwd=tmp)
+    mtest.check(proc.returncode == 0 and "%d now under another spelling of their path" % on_disk in proc.stdout
+                and "twice" not in proc.stderr, "a respelled run of older files: exit %d, %s %s"
+                % (proc.returncode, proc.stdout, proc.stderr))
 
     # A store that already holds one file under two spellings, as runs before this rule
     # left it (made here by copying a row with sqlite3): an analysis takes the file once.
