@@ -76,6 +76,16 @@ CommandRunner add_batch_command(CLI::App& app) {
   command->add_flag("--verbose,-v", flags->verbose, "name each file that had to be opened, and what became of it");
 
   return [=]() -> int {
+    // Options that only the analysis reads were taken without --analyse and did nothing.
+    if (!flags->analyse)
+      for (const char* name : {"--pca", "--attribute", "--recompute", "--ranks", "--culling", "--stop-words",
+                               "--min-tokens", "--measure", "--neighbours", "--author", "--years", "--language",
+                               "--title"})
+        if (command->count(name) > 0)
+          throw Error(ErrorKind::usage, std::string(name) +
+                                            " serves the analysis alone: add --analyse, or give it to analyse-store "
+                                            "later (batch itself reads and stores every file of the inputs, or of "
+                                            "--folder)");
     Request request = selection->to_request();
     // With --attribute the features default to those of the attribute command.
     apply_measuring_options(*analysis, *command, flags->attribute, request);

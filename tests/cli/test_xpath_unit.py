@@ -141,8 +141,7 @@ for i, expression in enumerate(["//tei:sp/@who", "//tei:sp/attribute::who", "//t
     with_elements = any(isinstance(v, etree._Element) for v in found)
     mtest.check(found, "lxml finds nothing for %s on the play" % expression)
     store = os.path.join(store_dir, "unit-%d.sqlite" % i)
-    p = mtest.run(["batch", archive_dir, "--store", store, "--unit", "xpath:" + expression, "--quiet",
-                   "--min-tokens", "1"], check=False)
+    p = mtest.run(["batch", archive_dir, "--store", store, "--unit", "xpath:" + expression, "--quiet"], check=False)
     if with_elements:
         mtest.check(p.returncode == 0, "xpath:%s selects elements (lxml) but batch exited %d: %s"
                     % (expression, p.returncode, p.stderr))
