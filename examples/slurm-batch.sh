@@ -16,6 +16,8 @@ usage="usage: slurm-batch.sh ARCHIVE RESULTS --unit UNIT [other batch options]"
 archive=${1:?$usage}
 results=${2:?$usage}
 shift 2
+# Without --unit a task would read with the default unit (whole), a settings of its own.
+case " $* " in *" --unit "* | *" --unit="* | *" -u "*) ;; *) echo "$usage" >&2; exit 2 ;; esac
 k=$((SLURM_ARRAY_TASK_ID - SLURM_ARRAY_TASK_MIN + 1))   # works for --array=0-7 too
 n=$SLURM_ARRAY_TASK_COUNT
 mkdir -p "$results"
@@ -27,7 +29,12 @@ local_store=$scratch/manicule-shard-$k-of-$n.sqlite
 if [ -f "$share" ]; then cp "$share" "$local_store"; fi
 # Copied under a name of its own (two tasks of one share, after a double submission, must
 # not write into one file), then renamed into place at once.
-save() { local part; part=$(mktemp "$results/.shard-$k-of-$n.XXXXXX") && cp "$local_store" "$part" && mv "$part" "$share"; }
+# (mktemp makes it readable by its owner alone; it gets what the umask grants, as cp would.)
+save() {
+  local part
+  part=$(mktemp "$results/.shard-$k-of-$n.XXXXXX") && cp "$local_store" "$part" &&
+    chmod "$(printf '%04o' $((0666 & ~$(umask))))" "$part" && mv "$part" "$share"
+}
 # At the time limit Slurm sends SIGTERM to every process of the task: manicule then commits
 # what it has read and exits with 143; this trap keeps the script alive to save that.
 trap 'true' TERM

@@ -7,7 +7,8 @@ its first file: the task must fail with 143 and still leave its share's store, w
 marked interrupted and every file it reported (or, where the signal lands after the share's
 last file, as it can on a loaded machine, marked done with every file); submitted again, it
 must go on from there (reading only the rest) and succeed. Task 2 runs through. A task
-given an option batch refuses fails with exit 2 and leaves nothing behind. The two
+given an option batch refuses, or no --unit, fails with exit 2 and leaves nothing behind;
+saved shares get the mode the umask grants a new file. The two
 shares merged must hold every play of the archive (counted with os.walk) and the same
 tables as one batch run over it. Outside references: the script itself as printed in the README (compared byte for
 byte with the file), os.walk, SQLite's PRAGMA integrity_check.
@@ -61,6 +62,13 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(not [n for n in os.listdir(tmp) if n.startswith("tmp")], "the refused task left its scratch folder")
     mtest.check(not os.path.exists(os.path.join(results, "shard-1-of-2.sqlite")), "the refused task saved a store")
 
+    # Without --unit a task would read under the default unit, a settings of its own: the
+    # script refuses with its usage line (exit 2) and saves nothing.
+    no_unit = subprocess.run(["bash", SCRIPT, archive, results, "--verbose"], capture_output=True, text=True, env=env)
+    mtest.check(no_unit.returncode == 2 and "usage: slurm-batch.sh" in no_unit.stderr
+                and not os.path.exists(os.path.join(results, "shard-1-of-2.sqlite")),
+                "a task without --unit: exit %d, %s" % (no_unit.returncode, no_unit.stderr))
+
     code, reported = task(1, stop_after=1)
     share = os.path.join(results, "shard-1-of-2.sqlite")
     mtest.check(code == 143, "task 1 stopped by SIGTERM exited %d, expected 143" % code)
@@ -84,6 +92,14 @@ with tempfile.TemporaryDirectory() as tmp:
 
     mtest.check(sorted(os.listdir(results)) == ["shard-1-of-2.sqlite", "shard-2-of-2.sqlite"],
                 "the results folder holds %r" % sorted(os.listdir(results)))
+    # Saved shares are as readable as the umask allows a new file (cp's rule, 0666 less the
+    # umask, here the test's own), not mktemp's owner-only 0600, so that the merge job and
+    # colleagues of the project can read them.
+    mask = os.umask(0)
+    os.umask(mask)
+    for name in os.listdir(results):
+        mode = os.stat(os.path.join(results, name)).st_mode & 0o777
+        mtest.check(mode == 0o666 & ~mask, "%s has mode %o, umask %03o gives %o" % (name, mode, mask, 0o666 & ~mask))
     # The merge job as the script's usage line writes it, for an array of 2 tasks instead of 8;
     # a share left by an earlier array of 3 tasks is not taken in.
     wrapped = re.search(r'--wrap "([^"]+)"', script_text).group(1)
