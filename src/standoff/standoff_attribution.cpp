@@ -117,9 +117,10 @@ void StandoffBuilder::add_verifications(Parts& parts) const {
     add_feature(fs, "caution").add_text_element("string", kAttributionCaution);
     parts.values.add(std::move(fs));
 
-    // A thresholded decision commits to a label (classifying); an undecided score only
-    // assesses (tei-conventions.md section 6).
-    const char* motivation = r.decision == "undecided" ? "assessing" : "classifying";
+    // A decision of a calibrated band commits to a label (classifying); an undecided score,
+    // or one only read against 0.5 for want of known problems to calibrate on, assesses.
+    const bool calibrated = analysis_.verification_band && analysis_.verification_band->calibrated;
+    const char* motivation = r.decision != "undecided" && calibrated ? "classifying" : "assessing";
     XmlNode a = annotation(ids_.claim(prefix + "ann-verif-" + key), target_.reference(r.segment), motivation,
                            verification_note(analysis_, r, label_from_here(r.segment), candidate_names_));
     a.add_text_element("note", kAttributionCaution, {{"type", "caution"}, {"xml:lang", "en"}});

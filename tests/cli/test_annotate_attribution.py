@@ -6,8 +6,8 @@ edition examples/ferry-letters.xml as TEI standoff, checked without our own code
 - which letters are questioned and who the candidates are is read with lxml from
   correspDesc/correspAction[@type='sent']/persName (tests/pylib/attribution_reference.py:
   a sender with @ref, not conjectured, is known), and each questioned letter has one
-  annotation with motivation "assessing" and each verification "classifying" when it
-  decides and "assessing" when undecided
+  annotation with motivation "assessing" and each verification "classifying" when its
+  calibrated band decides and "assessing" when undecided or the band is not calibrated
   (tei-conventions.md section 6, after W3C Web Annotation motivations);
 - the candidate distances in the fs are recomputed with numpy from `profile --values
   counts` (tests/pylib/attribution_reference.py: z-scores over the run, limited to +-2,
@@ -83,6 +83,7 @@ Z = z_scores(counts, words, seg_ids, 2.0)
 
 annotations = tree.findall(".//tei:standOff[@type='stylometry']//tei:annotation", NS)
 attribution_targets = []
+uncalibrated_decisions = 0
 for ann in annotations:
     result = ann.find("tei:ptr[@type='result']", NS)
     if result is None:
@@ -120,10 +121,13 @@ for ann in annotations:
                     "%s: a calibratedScore without a calibrated band" % fs.get(XML_ID))
         score = fs_value(fs, "score")
         mtest.check(0 <= score <= 1, "verification score %r outside [0, 1]" % score)
-        expected = "assessing" if decision == "undecided" else "classifying"
+        # docs/write-back.md: classifying when the calibrated band decides, else assessing.
+        expected = "classifying" if decision != "undecided" and calibrated else "assessing"
+        uncalibrated_decisions += decision != "undecided" and not calibrated
         mtest.check(ann.get("motivation") == expected, "verification %s: motivation %s for decision %s"
                     % (ann.get(XML_ID), ann.get("motivation"), decision))
 mtest.check(sorted(attribution_targets) == questioned, "attributions written for %s" % attribution_targets)
+mtest.check(uncalibrated_decisions > 0, "no decision of an uncalibrated band was written: the rule went untried")
 
 # `show --format json` reads back what lxml reads in the file, with the caution.
 shown = json.loads(mtest.run(["show", "--format", "json", edition]).stdout)
