@@ -207,7 +207,10 @@ void write_evaluation_tsv(std::ostream& out, const Analysis& analysis, const std
                          "AUC " + figure_text(v.auc, v.auc_defined()) + " (scores before the band: " +
                              figure_text(v.raw_auc, v.auc_defined()) + "), c@1 " +
                              figure_text(v.c_at_1, v.rates_defined()) + ", F0.5u " +
-                             figure_text(v.f05u, v.rates_defined()));
+                             figure_text(v.f05u, v.rates_defined()) +
+                             // How the bands came about, so that figures read against 0.5
+                             // for want of a calibrated band are not taken for cross-fitted.
+                             "; bands: " + v.calibration);
   for (const auto& w : e.warnings) summary.emplace_back("warning", w);
   write_tsv_parameters(out, summary);
   if (table == "candidates") {

@@ -158,6 +158,11 @@ doc = strict_json(mtest.run(["evaluate", "--format", "json", "--verification"] +
 held_out = [v for v in doc["evaluation"]["verification"] if v["problems"] != "segment pairs"][0]
 mtest.check(held_out["calibration"].startswith("not cross-fitted") and "1 file(s)" in held_out["calibration"],
             "one edition's cross-fitting described as: %r" % held_out["calibration"])
+# ... and the default TSV, which prints the figures, says it on their line too (it did not).
+tsv = mtest.run(["evaluate", "--verification"] + BASE).stdout
+figures = [l for l in tsv.splitlines() if l.startswith("# verification, ")]
+mtest.check(figures and all("not cross-fitted" in l and "read against 0.5" in l for l in figures),
+            "the TSV figures without their caveat: %r" % figures)
 mtest.check(held_out["scores"] and all(p["calibrated_score"] is None for p in held_out["scores"]),
             "calibrated scores without a calibrated band: %r" % [p["calibrated_score"] for p in held_out["scores"]][:5])
 # The band's known problems hold out a whole file when every candidate has known texts in
