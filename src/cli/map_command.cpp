@@ -115,7 +115,7 @@ CommandRunner add_map_command(CLI::App& app) {
   command->add_option("--components", *components, "principal components computed (1 or more)")
       ->check(at_least_one())
       ->capture_default_str();
-  command->add_option("--top", *top, "features listed per pole of each component")->capture_default_str();
+  command->add_option("--top", *top, "features listed per pole of each component (the SVG plot names up to 6 beside each axis)")->capture_default_str();
   command->add_option("--pca-input", *input, "z (z-scores) or relative (relative frequencies)")
       ->check(CLI::IsMember({"z", "relative"}))
       ->capture_default_str();
