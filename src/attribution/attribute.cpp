@@ -62,7 +62,7 @@ std::vector<AttributionResult> attribute_questioned(const Analysis& analysis, co
     AttributionResult& r = results[k];
     r.segment = seg;
     r.edition_conjecture = roles.conjecture[seg];
-    r.rule = rule_name(options.rule);
+    r.rule = rule_option_name(options.rule);  // as the option and the runs' parameters spell it
     std::vector<std::size_t> by_nearest(ranked.size());
     for (std::size_t i = 0; i < ranked.size(); ++i) by_nearest[i] = i;
     std::stable_sort(by_nearest.begin(), by_nearest.end(), [&](std::size_t a, std::size_t b) {

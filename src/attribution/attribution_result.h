@@ -68,7 +68,7 @@ struct VerificationResult {
   std::string candidate;
   double score = 0;             // share of iterations in which the candidate beat every impostor
   double calibrated_score = 0;  // band mapped to 0.5, below to [0, 0.5), above to (0.5, 1]
-  std::string decision;         // "same author", "different author" or "undecided"
+  std::string decision;         // "same-author", "different-author" or "undecided"
   std::size_t iterations = 0;
   double feature_share = 0;
   std::size_t impostors_per_iteration = 0;

@@ -133,7 +133,7 @@ EvaluationResult evaluate_labelled(const Analysis& analysis, const SegmentRoles&
     if (kRules[k] == options.rule) chosen = k;
   const std::size_t n = candidates.names.size();
   result.confusion.assign(n, std::vector<std::size_t>(n, 0));
-  for (CandidateRule rule : kRules) result.rules.push_back({rule_name(rule), 0, known.size()});
+  for (CandidateRule rule : kRules) result.rules.push_back({rule_option_name(rule), 0, known.size()});
   for (std::size_t k = 0; k < known.size(); ++k) {
     const std::size_t truth = candidates.index_of(roles.label[known[k]]);
     for (std::size_t r = 0; r < std::size(kRules); ++r)

@@ -13,8 +13,8 @@ double calibrated_score(double score, const VerificationBand& band) {
 }
 
 std::string verification_decision(double score, const VerificationBand& band) {
-  if (score < band.low) return "different author";
-  if (score > band.high) return "same author";
+  if (score < band.low) return "different-author";
+  if (score > band.high) return "same-author";
   return "undecided";
 }
 

@@ -26,7 +26,8 @@ VerificationBand calibrate_band(const std::vector<KnownProblem>& problems, std::
 // over [0, 0.5), scores above `high` over (0.5, 1].
 double calibrated_score(double score, const VerificationBand& band);
 
-// "same author", "different author" or "undecided".
+// "same-author", "different-author" or "undecided" (one spelling in every output: TSV,
+// JSON, TEI's symbol values, show).
 std::string verification_decision(double score, const VerificationBand& band);
 
 }  // namespace manicule

@@ -214,7 +214,9 @@ std::string verification_note(const Analysis& analysis, const VerificationResult
                      std::to_string(std::min(result.impostors_per_iteration, result.impostor_pool)) +
                      " drawn each round from " + std::to_string(result.impostor_pool) + " impostor(s), other authors " +
                      "or impostor files, with " + std::to_string(result.impostor_segments) + " segment(s)); " +
-                     result.decision;
+                     (result.decision == "same-author"        ? std::string("same author")
+                      : result.decision == "different-author" ? std::string("different author")
+                                                              : result.decision);
   if (analysis.verification_band && analysis.verification_band->calibrated)
     note += " under the undecided band " + rounded(analysis.verification_band->low, "%.2f") + "-" +
             rounded(analysis.verification_band->high, "%.2f") + " calibrated on this run's labelled segments";

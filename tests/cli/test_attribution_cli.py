@@ -63,7 +63,7 @@ for a in doc["attributions"]:
     mtest.check(any("little text" in w for w in a["warnings"]), "candidates of about 1,000 words must be warned about")
 doc = json_of["verify"]
 mtest.check(len(doc["verifications"]) == 9, "three questioned letters against three candidates")
-mtest.check(all(v["decision"] in ("same author", "different author", "undecided") for v in doc["verifications"]),
+mtest.check(all(v["decision"] in ("same-author", "different-author", "undecided") for v in doc["verifications"]),
             "unknown decision")
 mtest.check("not calibrated" in doc["band"]["method"], "nine known problems a side cannot calibrate the band")
 # An uncalibrated band has no figures of its own, and a score read against it is no

@@ -124,10 +124,10 @@ for a in doc["attributions"]:
 Z = z_scores(counts, words, ids, 2.0)
 doc = json.loads(mtest.run(["evaluate", "--format", "json", "--ranks", "1-%d" % RANKS] + args).stdout)
 known = [i for i in ids if label_of[i]]
-mtest.check(sorted(r["rule"] for r in doc["evaluation"]["rules"]) == ["centroid", "nearest segment", "weighted centroid"],
+mtest.check(sorted(r["rule"] for r in doc["evaluation"]["rules"]) == ["centroid", "nearest", "weighted-centroid"],
             "evaluate reports the three rules")
 for r in doc["evaluation"]["rules"]:
-    rule = {"weighted centroid": "weighted", "centroid": "centroid", "nearest segment": "nearest"}[r["rule"]]
+    rule = {"weighted-centroid": "weighted", "centroid": "centroid", "nearest": "nearest"}[r["rule"]]
     correct = 0
     for i in known:
         q = Z[ids.index(i)]

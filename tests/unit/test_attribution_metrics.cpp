@@ -59,9 +59,9 @@ TEST_CASE("calibrated scores put the band at 0.5 and keep the order", "[attribut
   CHECK(calibrated_score(0.8, band) == 0.5);
   CHECK(calibrated_score(0.9, band) == Approx(0.75));  // 0.5 + 0.5 * 0.1 / 0.2
   CHECK(calibrated_score(1.0, band) == Approx(1.0));
-  CHECK(verification_decision(0.39, band) == "different author");
+  CHECK(verification_decision(0.39, band) == "different-author");
   CHECK(verification_decision(0.6, band) == "undecided");
-  CHECK(verification_decision(0.81, band) == "same author");
+  CHECK(verification_decision(0.81, band) == "same-author");
   band.low = 0.0;
   CHECK(calibrated_score(0.0, band) == 0.5);  // the band reaches 0: no division by zero
 }
