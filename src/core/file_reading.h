@@ -25,7 +25,8 @@ struct SelectionRules;
 // labels warns of it. 5: a segment's language is that of most of its words (not bytes);
 // a file's, that of its text before langUsage; the title of type main preferred; notes
 // left out of titles and names, line breaks and name parts parting their words; several
-// names of one author bracketed; a year written "-0400" is before the common era.
+// names of one author bracketed, one named twice given once; a year written "-0400" is
+// before the common era.
 constexpr int kReadingRevision = 5;
 
 // What the edition's own header says (the first TEI element's teiHeader).

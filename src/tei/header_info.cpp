@@ -1,5 +1,6 @@
 #include "tei/header_info.h"
 
+#include <algorithm>
 #include <cctype>
 
 #include <unicode/unistr.h>
@@ -75,7 +76,11 @@ std::string normalise_space(const std::string& text) {
 
 std::string join_authors(const std::vector<std::string>& authors) {
   std::string out;
+  std::vector<const std::string*> given;
   for (const auto& a : authors) {
+    // One author named twice in a header (a copy of the same <author>) is one author.
+    if (std::any_of(given.begin(), given.end(), [&](const std::string* g) { return *g == a; })) continue;
+    given.push_back(&a);
     if (!out.empty()) out += kAuthorSeparator;
     out += a;
   }

@@ -44,7 +44,8 @@ struct HeaderInfo {
 // (tei-conventions.md section 3, "Anonymous letters"; the list is common practice).
 bool is_placeholder_name(const std::string& name);
 
-// The titleStmt authors as one text, "A; B" (the segments' author and the store's metadata).
+// The titleStmt authors as one text, "A; B" (the segments' author and the store's metadata),
+// each once.
 std::string join_authors(const std::vector<std::string>& authors);
 
 // "1842", "c. 1799/1800" -> 1842, 1799; 0 when no run of exactly four digits occurs.
