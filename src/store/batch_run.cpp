@@ -259,10 +259,11 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   // others, is not an archive missing.)
   if (options.filter.folder.empty() && summary.unlisted.empty() && !vanished.empty()) {
     for (const std::string& input : empty_inputs) {
-      const auto under = [&](const std::string& path) { return path == input || starts_with_folder(path, input); };
+      // In any spelling: files stored from "arch" are under "./arch" or "/data/arch" too.
+      const InputScope scope({input});
       std::vector<const VanishedFile*> gone;
       for (const VanishedFile& v : vanished)
-        if (!v.respelled && under(v.path)) gone.push_back(&v);
+        if (!v.respelled && scope.covers(v.path)) gone.push_back(&v);
       if (gone.empty()) continue;
       throw Error(ErrorKind::nothing_selected,
                   "no TEI file (*.xml, *.tei) found under " + input + ", where the store holds " +

@@ -5,7 +5,8 @@ file, and a job array's merge then emptied the merged store too. The files back 
 the next run reads none of them again (its report: each is unchanged or hashed and known)
 and the files table (read with Python's sqlite3) holds what os.walk finds. A
 --folder removed from the archive is still taken at its word: its files are removed (the
-files table against os.walk). A --shard whose last file was deleted, under an input that holds
+files table against os.walk). The empty folder given in another spelling than the
+stored paths' is refused alike. A --shard whose last file was deleted, under an input that holds
 other files, loses that file (it was refused as an archive not mounted).
 """
 import hashlib
@@ -45,6 +46,12 @@ before = storecheck.sha256_of(store)
 p = mtest.run(["batch", archive] + common, check=False)
 mtest.check(p.returncode == 4 and "is the archive mounted?" in p.stderr and "holds 2 file(s)" in p.stderr
             and storecheck.sha256_of(store) == before, "an empty archive folder: exit %d, %s" % (p.returncode, p.stderr))
+# The same archive given in another spelling (the store holds absolute paths): refused alike.
+# The guard compared the spelling as given, and the run emptied the store.
+for spelling in ("archive", "./archive", "archive/"):
+    p = mtest.run(["batch", spelling] + common, check=False, cwd=tmp)
+    mtest.check(p.returncode == 4 and "is the archive mounted?" in p.stderr and storecheck.sha256_of(store) == before,
+                "an empty archive folder spelled %s: exit %d, %s" % (spelling, p.returncode, p.stderr))
 os.rmdir(archive)
 shutil.move(away, archive)
 p = mtest.run(["batch", archive] + common)
