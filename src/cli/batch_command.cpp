@@ -135,10 +135,7 @@ CommandRunner add_batch_command(CLI::App& app) {
         holds_nothing = store_is_new && !store::any_run_recorded(*db);
       } catch (const Error&) {  // a store that cannot even say so is kept; the first error is the one told
       }
-      if (holds_nothing) {
-        db.reset();
-        store::remove_store_files(flags->store);
-      }
+      if (holds_nothing) store::discard_new_store(std::move(db));
       throw;
     } catch (const store::BatchInterrupted&) {
       display.clear();

@@ -60,10 +60,7 @@ CommandRunner add_merge_command(CLI::App& app) {
       target->close();  // OUT whole in its one file, or an error (a full disk)
     } catch (...) {
       // Nothing was committed: an existing output is as it was; one this merge created goes.
-      if (created) {
-        target.reset();
-        store::remove_store_files(*out);
-      }
+      if (created) store::discard_new_store(std::move(target));
       throw;
     }
     for (const auto& [in, summary] : merged.inputs) {

@@ -14,7 +14,7 @@ namespace {
 
 std::string message_for(int code, const std::string& path, std::string_view doing, sqlite3* db) {
   int primary = code & 0xff;
-  if (primary == SQLITE_BUSY || primary == SQLITE_LOCKED)
+  if (primary == SQLITE_BUSY)
     return "the store " + path + " is in use by another program (a manicule batch, analyse-store or merge, or " +
            "an SQLite client such as the sqlite3 shell holding it open); wait for it to finish or close it, or use "
            "another store";
@@ -108,7 +108,7 @@ bool skip_sqlite_memory_statistics() { return sqlite3_config(SQLITE_CONFIG_MEMST
 
 void Database::fail(int code, std::string_view doing) const {
   int primary = code & 0xff;
-  if (primary == SQLITE_BUSY || primary == SQLITE_LOCKED)
+  if (primary == SQLITE_BUSY)  // (SQLITE_LOCKED is a conflict within this connection: a bug, not a wait)
     throw StoreInUse(ErrorKind::write_failed, message_for(code, path_, doing, db_));
   ErrorKind kind = primary == SQLITE_NOTADB || primary == SQLITE_CORRUPT ? ErrorKind::bad_input : ErrorKind::write_failed;
   throw Error(kind, message_for(code, path_, doing, db_));
@@ -139,6 +139,11 @@ void Database::close() {
   }
   sqlite3_close_v2(db_);  // the log is in: what is left to do cannot fail the store
   db_ = nullptr;
+}
+
+void Database::keep_log_file_on_close() {
+  int persist = 1;
+  sqlite3_file_control(db_, "main", SQLITE_FCNTL_PERSIST_WAL, &persist);
 }
 
 std::int64_t Database::last_insert_id() const { return sqlite3_last_insert_rowid(db_); }

@@ -17,7 +17,7 @@ namespace manicule::store {
 
 class Database;
 
-// SQLITE_BUSY or SQLITE_LOCKED: another connection holds the store. Apart from the other
+// SQLITE_BUSY: another connection holds the store. Apart from the other
 // errors because opening a store tries again on it (open_store).
 class StoreInUse : public Error {
  public:
@@ -94,6 +94,9 @@ class Database {
   // cannot be copied (a full disk) is an Error, for the store is then whole only with its
   // log beside it, and a copy of the file alone (a job script's) would be damaged.
   void close();
+  // Closing then leaves FILE-wal where it is (SQLite removes it otherwise): for a store
+  // whose files were unlinked while open (discard_new_store).
+  void keep_log_file_on_close();
   Statement prepare(std::string_view sql) { return Statement(*this, sql); }
   std::int64_t last_insert_id() const;
   int changes() const;

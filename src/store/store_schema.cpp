@@ -354,6 +354,13 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
   }
 }
 
+void discard_new_store(std::unique_ptr<Database> db) {
+  const std::string path = db->path();
+  db->keep_log_file_on_close();
+  remove_store_files(path);
+  db.reset();
+}
+
 void remove_store_files(const std::string& path) {
   // Called while another error is on its way: a file that cannot go stays, unsaid.
   std::error_code ec;
