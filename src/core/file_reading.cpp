@@ -14,7 +14,7 @@ namespace manicule {
 
 namespace {
 
-// The language holding the most tokens, for editions without langUsage.
+// The language holding the most tokens of the file's segments: the file's language.
 std::string main_language(const std::vector<SegmentRecord>& segments) {
   std::map<std::string, std::size_t> tokens;
   for (const auto& r : segments)

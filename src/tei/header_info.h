@@ -22,7 +22,7 @@ struct CorrespRecord {
 
 struct HeaderInfo {
   std::string tei_id;                              // xml:id of the TEI element
-  std::string title;                               // titleStmt's title of type main, else its first not a subtitle
+  std::string title;  // fileDesc/titleStmt's title of type main, else its first not a subtitle
   bool title_is_main = false;                      // title came from a title of type main
   std::vector<std::string> authors;                // titleStmt/author names
   // Dates as written (@when, else @notBefore, @from, @notAfter or @to, else the text); the
@@ -48,7 +48,8 @@ bool is_placeholder_name(const std::string& name);
 // each once.
 std::string join_authors(const std::vector<std::string>& authors);
 
-// "1842", "c. 1799/1800" -> 1842, 1799; 0 when no run of exactly four digits occurs.
+// "1842", "c. 1799/1800" -> 1842, 1799; "-0400" (a value beginning with a minus, XML
+// Schema's year before the common era) -> -400; 0 when no run of exactly four digits occurs.
 int first_year(const std::string& date);
 
 // Whether `candidate` should take the place of `kept` as one thing's date: the first date

@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <array>
+#include <cctype>
 #include <charconv>
 #include <map>
 #include <unordered_map>
@@ -150,9 +151,9 @@ struct TeiWalker::State {
     bool dateline = false;
     bool hides_letter_dates = false;  // text the reader leaves out, inside a letter
     bool muted = false;        // an idno or a note inside a capture: no part of the name or title
-    bool parts_words = false;  // a line break or name part inside a capture: a space each side
     bool main_title = false;   // a titleStmt title of type main, preferred to any other
     bool author_name = false;  // a persName directly inside a titleStmt author
+    bool bracketed_name = false;  // ... a later one, put in brackets after the first
     // The element's xml:id, a view into the start tag: set while the start tag is handled
     // and cleared before the frame is kept (frames hold no strings, so they copy cheaply).
     std::string_view xml_id;
@@ -270,7 +271,8 @@ struct TeiWalker::State {
   std::vector<std::string> sp_grp_who;
   std::vector<std::string> person_stack;
   int header_depth = 0, text_depth = 0, skip_depth = 0, cast_depth = 0, source_desc_depth = 0;
-  int author_depth = 0, muted_depth = 0;  // open author captures, open idno inside them
+  int author_depth = 0;  // open author captures
+  int muted_depth = 0;   // open elements whose text no capture takes: an author's idno, a note
   int author_name_depth = 0;  // open persNames directly inside an author
   int author_names = 0;       // persNames begun in the open author so far
   int creation_depth = 0, standoff_depth = 0, dateline_depth = 0;
@@ -421,7 +423,8 @@ struct TeiWalker::State {
     }
     if (header_depth == 0 || tei_stack.empty()) return;
     HeaderInfo& h = header();
-    if (f.name == "titleStmt") {
+    if (f.name == "titleStmt" && !frames.empty() && frames.back().name == "fileDesc") {
+      // The edition's own (TEI P5 2.2.1), not a source's titleStmt inside sourceDesc/biblFull.
       f.title_stmt = true;
       in_title_stmt = true;
     } else if (f.name == "sourceDesc") {
@@ -448,12 +451,19 @@ struct TeiWalker::State {
       // anonymous author (then not recognised as anonymous).
       f.muted = true;
       ++muted_depth;
-    } else if (f.name == "persName" && author_depth > 0 && author_name_depth == 0 && !capture_text.empty()) {
+    } else if (f.name == "persName" && author_depth > 0 && author_name_depth == 0 && muted_depth == 0 &&
+               !capture_text.empty()) {
       // Several names of one author (a pseudonym and the civil name): the first, then the
-      // others in brackets, "Maler Müller (Friedrich Müller)", not run together.
+      // others in brackets, "Maler Müller (Friedrich Müller)", not run together; unless the
+      // header puts a bracket before it itself.
       f.author_name = true;
       ++author_name_depth;
-      if (author_names++ > 0) capture_text.back() += " (";
+      std::string& text = capture_text.back();
+      const auto last = text.find_last_not_of(" \t\r\n");
+      if (author_names++ > 0 && (last == std::string::npos || text[last] != '(')) {
+        text += " (";
+        f.bracketed_name = true;
+      }
     } else if ((f.name == "person" || f.name == "personGrp") && !f.xml_id.empty()) {
       person_stack.emplace_back(f.xml_id);
       f.person = true;
@@ -579,18 +589,29 @@ struct TeiWalker::State {
     if (slots.source) h.source_date = value;
   }
 
-  // An element inside a captured name, title or heading, before its own capture opens: a
-  // note (an editor's, most often) is no part of it, and a line break (not marked
-  // break="no") or a name part parts words, so that "<forename>Karl</forename><surname>Kraus</surname>" is "Karl Kraus" and
-  // "Die<lb/>Räuber" is "Die Räuber" (tei-conventions: lb, pb and cb are boundaries).
-  void note_inside_capture(Frame& f, bool line_break) {
-    if (f.name == "note" && !f.muted) {
-      f.muted = true;
-      ++muted_depth;
-    } else if (line_break || f.name == "forename" || f.name == "surname" || f.name == "roleName" ||
-               f.name == "addName" || f.name == "genName" || f.name == "nameLink" || f.name == "persName") {
-      f.parts_words = true;
-      for (std::string& c : capture_text) c += ' ';
+  // What an element inside a captured name, title or heading does to the captured text,
+  // before its own capture opens: a note (an editor's, most often) is no part of it; a line
+  // break (not marked break="no") parts words, "Die<lb/>Räuber" being "Die Räuber"
+  // (tei-conventions: lb, pb and cb are boundaries); and a name part begun right after a
+  // word is parted from it, "<forename>Karl</forename><surname>Kraus</surname>" being
+  // "Karl Kraus", while "<surname>Kraus</surname>, <forename>Karl</forename>" stays
+  // "Kraus, Karl".
+  void shape_capture_around(Frame& f, bool line_break) {
+    if (f.name == "note") {
+      if (!f.muted) {
+        f.muted = true;
+        ++muted_depth;
+      }
+      return;
+    }
+    const bool name_part = f.name == "forename" || f.name == "surname" || f.name == "roleName" ||
+                           f.name == "addName" || f.name == "genName" || f.name == "nameLink" || f.name == "persName";
+    if (!line_break && !name_part) return;
+    for (std::string& c : capture_text) {
+      if (c.empty()) continue;
+      const unsigned char last = static_cast<unsigned char>(c.back());
+      const bool after_word = last >= 0x80 || std::isalnum(last);
+      if (line_break || after_word) c += ' ';
     }
   }
 
@@ -813,7 +834,7 @@ void TeiWalker::start(const StartTag& tag) {
     f.sp_grp = true;
   }
   if (!s.capture_text.empty() && f.tei)
-    s.note_inside_capture(f, name_class.milestone && tag.attribute("break") != "no");
+    s.shape_capture_around(f, name_class.milestone && tag.attribute("break") != "no");
   if (f.capture != Capture::none) s.capture_text.emplace_back();
 
   if (s.collecting()) {
@@ -843,12 +864,8 @@ void TeiWalker::end() {
     s.capture_text.pop_back();
     s.finish_capture(f, std::move(text));
   }
-  if (f.parts_words)
-    for (std::string& c : s.capture_text) c += ' ';
-  if (f.author_name) {
-    --s.author_name_depth;
-    if (s.author_names > 1 && !s.capture_text.empty()) s.capture_text.back() += ')';
-  }
+  if (f.author_name) --s.author_name_depth;
+  if (f.bracketed_name && !s.capture_text.empty()) s.capture_text.back() += ')';
   if (f.block && s.collecting()) s.sink().add_boundary();
 
   if (f.alternation) {
@@ -935,12 +952,21 @@ namespace manicule {
 
 namespace {
 
-// Words in `text`, roughly: runs of letters and digits (any byte beyond ASCII counts as
-// one), the rest (spaces, the indentation between elements, punctuation) parts them.
+// Words in `text`, roughly: runs of letters and digits (a character beyond ASCII counts as
+// a letter), parted by the rest (spaces, the indentation between elements, ASCII
+// punctuation); but a character of U+3000-U+9FFF (CJK punctuation, kana, Han), scripts
+// written without spaces, counts as a word of its own.
 std::size_t rough_word_count(std::string_view text) {
   std::size_t words = 0;
   bool in_word = false;
-  for (unsigned char c : text) {
+  for (std::size_t i = 0; i < text.size(); ++i) {
+    const auto c = static_cast<unsigned char>(text[i]);
+    if (c >= 0xE3 && c <= 0xE9) {  // the lead byte of U+3000-U+9FFF
+      ++words;
+      in_word = false;
+      i += 2;
+      continue;
+    }
     const bool word_byte = c >= 0x80 || (c >= '0' && c <= '9') || ((c | 0x20) >= 'a' && (c | 0x20) <= 'z');
     if (word_byte && !in_word) ++words;
     in_word = word_byte;
@@ -950,8 +976,8 @@ std::size_t rough_word_count(std::string_view text) {
 
 // The language of most of the segment's words. Counted in words, not bytes: the layout
 // between elements (newlines, indentation) takes the enclosing language, and by bytes a
-// speaker of 103 French words and 15 German ones was German. A tie goes to the language
-// that comes first in tag order; a segment without words takes its first run's language.
+// speaker of 103 French words and 15 German ones was German. A tie goes to the tag first in
+// byte order ("de" before "fr"); a segment without words takes its first run's language.
 std::string main_language(const Segment& segment) {
   if (segment.runs.empty()) return "";
   const std::string& first = segment.runs.front().language;

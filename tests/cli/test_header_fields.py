@@ -62,6 +62,12 @@ FILES = {
     "pseudonym.xml": edition('<title>T</title><author><persName type="pseudo">Kapitän Tau</persName>'
                              "<persName><forename>Jonas</forename><surname>Reling</surname></persName>"
                              '<idno type="local">X1</idno></author>', PROSE),
+    "inverted-name.xml": edition("<title>T</title><author><persName><surname>Reling</surname>, "
+                                 "<forename>Jonas</forename></persName></author>", PROSE),
+    "source-title-stmt.xml": edition('<title>Die Mole</title><author>Lore Brink</author>', PROSE,
+                                     date='<biblFull><titleStmt><title type="main">Quellentitel</title>'
+                                          "<author>Quellenautor</author></titleStmt><publicationStmt><p>p</p>"
+                                          "</publicationStmt><sourceDesc><p>s</p></sourceDesc></biblFull>"),
     "named-twice.xml": edition("<title>T</title><author>Brink, Lore</author><author>Brink, Lore</author>"
                                "<author>Jonas Reling</author>", PROSE),
     "before-common-era.xml": edition("<title>T</title><author>Lore Brink</author>", PROSE,
@@ -82,25 +88,30 @@ def expected_title(root):
     titles = root.findall("t:teiHeader/t:fileDesc/t:titleStmt/t:title", NS)
     main = [t for t in titles if t.get("type") == "main"]
     chosen = main[0] if main else [t for t in titles if t.get("type") != "sub"][0]
-    return text_with_breaks(chosen)
+    return whole(chosen)
 
 
-def text_with_breaks(element):
+def text_with_breaks(element, before=""):
     """The element's text without notes, with a space for each lb/pb/cb not marked
-    break="no" and around each name part."""
-    parts = [element.text or ""]
+    break="no", and before a name part that follows a letter or digit directly (so that
+    "Karl" "Kraus" are two words, and "Kraus, Karl" keeps its comma where it is)."""
+    text = before + (element.text or "")
     for child in element:
         name = etree.QName(child).localname
         if name in ("lb", "pb", "cb"):
-            parts.append("" if child.get("break") == "no" else " ")
+            text += "" if child.get("break") == "no" else " "
         elif name in ("note", "idno"):
             pass
         elif name in ("forename", "surname", "persName", "roleName", "addName", "genName", "nameLink"):
-            parts.append(" " + text_with_breaks(child) + " ")
+            text = text_with_breaks(child, text + (" " if re.search(r"[^\W_]$", text) else ""))
         else:
-            parts.append(text_with_breaks(child))
-        parts.append(child.tail or "")
-    return " ".join("".join(parts).split())
+            text = text_with_breaks(child, text)
+        text += child.tail or ""
+    return text if before else " ".join(text.split())
+
+
+def whole(element):
+    return " ".join(text_with_breaks(element).split())
 
 
 def expected_author(root):
@@ -108,9 +119,9 @@ def expected_author(root):
     for author in root.findall("t:teiHeader/t:fileDesc/t:titleStmt/t:author", NS):
         names = author.findall("t:persName", NS)
         if len(names) > 1:
-            authors.append(text_with_breaks(names[0]) + "".join(" (%s)" % text_with_breaks(n) for n in names[1:]))
+            authors.append(whole(names[0]) + "".join(" (%s)" % whole(n) for n in names[1:]))
         else:
-            authors.append(text_with_breaks(author))
+            authors.append(whole(author))
     # One author named twice (a copied <author>) is one author, as an editor counts them.
     return "; ".join(dict.fromkeys(authors))
 
