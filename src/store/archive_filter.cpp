@@ -1,5 +1,6 @@
 #include "store/archive_filter.h"
 
+#include <cstdlib>
 #include <filesystem>
 
 #include "core/segment.h"
@@ -46,10 +47,19 @@ bool author_matches(const std::string& authors, const std::string& wanted) {
   }
 }
 
+// The working folder as the shell spells it ($PWD, which keeps the links it was reached
+// through) when that names the working folder, else as the system resolves it.
+std::filesystem::path working_folder_as_spelled() {
+  std::error_code ec;
+  const char* pwd = std::getenv("PWD");
+  if (pwd && *pwd == '/' && std::filesystem::equivalent(pwd, ".", ec)) return pwd;
+  return std::filesystem::current_path();
+}
+
 // `path` absolute against the working folder (taken once: a run does not change it) and
 // lexically normal: "a/./b/../c" gives "/work/a/c".
 std::string absolute_spelling(const std::string& path) {
-  static const std::filesystem::path working_folder = std::filesystem::current_path();
+  static const std::filesystem::path working_folder = working_folder_as_spelled();
   std::filesystem::path p(path);
   if (p.is_relative()) p = working_folder / p;
   std::string out = p.lexically_normal().string();
@@ -95,8 +105,12 @@ bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::
   while (tidy_path.rfind("./", 0) == 0) tidy_path.erase(0, 2);
   if (starts_with_folder(relative_path, folder) || starts_with_folder(tidy_path, folder)) return true;
   // A path spelled otherwise than the inputs were ("/data/arch/de" for "arch/de", "arch/x/../de"):
-  // both made absolute against the working folder and tidied, without reading the disk.
-  return starts_with_folder(absolute_spelling(path), absolute_spelling(folder));
+  // both made absolute against the working folder and tidied, without reading the disk. Only
+  // for a folder written as a path (with a '/', or "." or ".."): a bare name ("x") means the
+  // folder below an input, and must not also take a folder x that lies below the working one.
+  const std::string& given = filter.folder;
+  const bool written_as_path = given.find('/') != std::string::npos || given == "." || given == "..";
+  return written_as_path && starts_with_folder(absolute_spelling(path), absolute_spelling(folder));
 }
 
 bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {

@@ -6,7 +6,8 @@ the batch was given an absolute input, absolute where it was given a relative on
 Which files a spelling names is worked out with Python's os.path (abspath, normpath) over
 the files os.walk finds; the analysis must take exactly those (analysis_segments, read
 with Python's sqlite3), and batch --folder must read exactly those (its runs row). Folders
-whose names begin alike ("de", "de_1") must stay apart.
+whose names begin alike ("de", "de_1") must stay apart, and a bare name ("x") means the
+folder below an input alone, even when run from a folder that holds an x of its own.
 """
 import os
 import shutil
@@ -59,5 +60,23 @@ for input_spelling in ("archive", os.path.join(tmp, "archive")):
         run = storecheck.last_run(part)
         mtest.check(run["files_read"] == len(want), "batch input %s --folder %s read %d files, os.path gives %d"
                     % (input_spelling, spelling, run["files_read"], len(want)))
+
+# A bare name is a folder below an input, and only that: run from inside the archive
+# (archive/de, which holds a folder x of its own), --folder x must not also take de/x; a
+# name written as a path ("." here) is taken from the working folder.
+for target in (os.path.join(tmp, "archive", "x"), os.path.join(tmp, "archive", "de", "x")):
+    os.makedirs(target)
+    shutil.copy(letters, os.path.join(target, "letters-x.xml"))
+inside = os.path.join(tmp, "archive", "de")
+for spelling, folder in (("x", os.path.join(tmp, "archive", "x")), (".", inside)):
+    part = os.path.join(tmp, "inside-%d.sqlite" % len(folder))
+    mtest.run(["batch", os.path.join(tmp, "archive"), "--store", part, "--unit", "letter", "--quiet", "--folder",
+               spelling], cwd=inside)
+    db = storecheck.connect(part)
+    got = {r[0] for r in db.execute("SELECT path FROM files")}
+    db.close()
+    want = {os.path.join(d, n) for d, _, names in os.walk(folder) for n in names}
+    mtest.check(got == want, "from archive/de, --folder %s read %r, os.walk of %s gives %r"
+                % (spelling, sorted(got), folder, sorted(want)))
 
 mtest.done()
