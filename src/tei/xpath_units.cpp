@@ -69,16 +69,16 @@ std::vector<std::string> last_steps(const std::string& expression) {
     }
   }
   steps.push_back(step);
-  for (std::string& s : steps) {
-    const auto first = s.find_first_not_of(" \t\r\n");
-    s = first == std::string::npos ? "" : s.substr(first);
-  }
+  for (std::string& s : steps)  // "attribute :: who" as "attribute::who"
+    s.erase(std::remove_if(s.begin(), s.end(), [](char c) { return c == ' ' || c == '\t' || c == '\r' || c == '\n'; }),
+            s.end());
   return steps;
 }
 
 // Whether a location step can only give attributes, text, comments, processing
-// instructions or namespaces, never an element.
+// instructions or namespaces, never an element; or, empty, the document itself ("/").
 bool selects_no_element(const std::string& step) {
+  if (step.empty()) return true;
   for (const char* start : {"@", "attribute::", "namespace::", "text(", "comment(", "processing-instruction("})
     if (step.rfind(start, 0) == 0) return true;
   return false;
@@ -88,7 +88,7 @@ bool selects_no_element(const std::string& step) {
 
 // The editor's XPath evaluated on `doc`, with the prefix "tei" bound to the TEI namespace:
 // the ordinal paths of the elements it selects. Error(usage) if it does not compile or
-// selects something other than nodes.
+// gives something other than nodes.
 std::set<std::vector<int>> select_elements(xmlDocPtr doc, const std::string& expression) {
   std::unique_ptr<xmlXPathContext, void (*)(xmlXPathContextPtr)> ctx(xmlXPathNewContext(doc), xmlXPathFreeContext);
   XPathErrors errors;
@@ -104,15 +104,14 @@ std::set<std::vector<int>> select_elements(xmlDocPtr doc, const std::string& exp
   }
   std::set<std::vector<int>> targets;
   if (result->type == XPATH_NODESET) {
-    int others = 0;  // attributes, text, the document node: nothing a segment can be
+    // Attributes, text, the document node: nothing a segment can be, so passed by. (A unit
+    // that can select nothing else is refused before any file is read, check_xpath_unit; a
+    // union may select elements in one file and attributes alone in another.)
     if (result->nodesetval)
       for (int i = 0; i < result->nodesetval->nodeNr; ++i) {
         xmlNodePtr node = result->nodesetval->nodeTab[i];
         if (node->type == XML_ELEMENT_NODE) targets.insert(ordinal_path(node));
-        else ++others;
       }
-    if (targets.empty() && others > 0)
-      throw Error(ErrorKind::usage, not_elements_message(expression));
   } else {
     throw Error(ErrorKind::usage, "the XPath '" + expression + "' does not select elements");
   }
@@ -128,7 +127,9 @@ void check_xpath_unit(const std::string& expression) {
   // An empty document selects nothing, attributes neither: what a path ends on is read
   // from the expression itself, so that a batch does not record every file as failing.
   const std::vector<std::string> steps = last_steps(expression);
-  if (std::all_of(steps.begin(), steps.end(), selects_no_element))
+  const bool document_alone = steps.size() == 1 && steps.front() == "." &&
+                              expression.find('/') == std::string::npos;  // "." from the root
+  if (document_alone || std::all_of(steps.begin(), steps.end(), selects_no_element))
     throw Error(ErrorKind::usage, not_elements_message(expression));
 }
 

@@ -12,7 +12,8 @@
 namespace manicule {
 
 // The ordinal paths of the elements `expression` selects in `doc`. Error(usage) if it does
-// not compile, or selects something other than elements.
+// not compile, or gives a number or a string rather than nodes; attributes and text among
+// the nodes are passed by (a union may give them alone in one file and elements in another).
 std::set<std::vector<int>> select_elements(xmlDocPtr doc, const std::string& expression);
 
 // Error(usage) for an xpath: unit that cannot select elements in any file (it does not

@@ -9,6 +9,7 @@ inside matter the reading preset leaves out (checked here against the README's l
 so all of them are selected. Before, the walker compared its ancestors' path with the
 targets and so took the children of each element for it: twelve letters gave 77 segments.
 """
+import json
 import os
 import re
 import shutil
@@ -133,10 +134,10 @@ tree = etree.parse(play)
 archive_dir = os.path.join(store_dir, "one-play")
 os.makedirs(archive_dir)
 shutil.copy(play, archive_dir)
-for i, expression in enumerate(["//tei:sp/@who", "//tei:sp/attribute::who", "//tei:speaker/text()",
+for i, expression in enumerate(["//tei:sp/@who", "//tei:sp/attribute :: who", "//tei:speaker/text()",
                                 "//tei:sp/@who | //tei:speaker/text()", "//tei:sp[@who='#a|b' or @who]/@who",
                                 "//tei:sp | //tei:sp/@who", "(//tei:sp)[2]", "//tei:sp[@who]",
-                                "//tei:sp[contains(@who, '/@')] | //tei:div/tei:sp"]):
+                                "//tei:sp[contains(@who, '/@')] | //tei:div/tei:sp", "//tei:sp/.", "(//tei:sp)[1]/.."]):
     found = tree.xpath(expression, namespaces={"tei": TEI})
     with_elements = any(isinstance(v, etree._Element) for v in found)
     mtest.check(found, "lxml finds nothing for %s on the play" % expression)
@@ -149,4 +150,16 @@ for i, expression in enumerate(["//tei:sp/@who", "//tei:sp/attribute::who", "//t
         mtest.check(p.returncode == 2 and "not elements" in p.stderr and not os.path.exists(store),
                     "xpath:%s selects no element (lxml) but batch exited %d, store left %s: %s"
                     % (expression, p.returncode, os.path.exists(store), p.stderr))
+
+# A union that gives attributes alone in one file and elements in another: the elements are
+# the segments, as lxml finds them in each file; the other file gives none (it refused the
+# whole command).
+union = "//tei:sp/@who | //tei:div[@type='letter']"
+letters_file = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
+by_lxml = sum(1 for f in (play, letters_file) for v in etree.parse(f).xpath(union, namespaces={"tei": TEI})
+              if isinstance(v, etree._Element))
+p = mtest.run(["segments", "--unit", "xpath:" + union, "--format", "json", play, letters_file], check=False)
+got = len(json.loads(p.stdout)["segments"]) if p.returncode == 0 else -1
+mtest.check(by_lxml > 0 and got == by_lxml, "the union over both files: exit %d, %d segments, lxml %d elements: %s"
+            % (p.returncode, got, by_lxml, p.stderr))
 mtest.done()
