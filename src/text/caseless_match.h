@@ -8,7 +8,8 @@
 
 namespace manicule {
 
-// The code points of `utf8` (ill-formed bytes read as U+FFFD), in NFC, simply case-folded.
+// The code points of `utf8` (ill-formed bytes read as U+FFFD), in NFC, simply case-folded,
+// with the apostrophe's variants (’ ʼ ‘) read as the apostrophe.
 std::u32string caseless_code_points(std::string_view utf8);
 
 // Whether `part` occurs in `text`, letter case ignored.
@@ -16,7 +17,8 @@ bool caseless_contains(std::string_view text, std::string_view part);
 
 // Whether `word` occurs in `text` as a whole word, letter case ignored: neither side of it
 // continues with a letter, a digit or a combining mark, so that "Kind" finds "Anna Kind"
-// and "Kind, Anna" but not "Wedekind".
+// and "Kind, Anna" but not "Wedekind" (in scripts written without spaces, Han, kana, Thai
+// and the like, any run of letters is found: "漱石" in "夏目漱石").
 bool caseless_contains_word(std::string_view text, std::string_view word);
 
 // Whether all of `text` matches the shell pattern: '*' stands for any run of characters,
