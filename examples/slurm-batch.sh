@@ -17,7 +17,7 @@ archive=${1:?$usage}
 results=${2:?$usage}
 shift 2
 # Without --unit a task would read with the default unit (whole), a settings of its own.
-case " $* " in *" --unit "* | *" --unit="* | *" -u "*) ;; *) echo "$usage" >&2; exit 2 ;; esac
+case " $* " in *" --unit "* | *" --unit="* | *" -u"*) ;; *) echo "$usage" >&2; exit 2 ;; esac
 k=$((SLURM_ARRAY_TASK_ID - SLURM_ARRAY_TASK_MIN + 1))   # works for --array=0-7 too
 n=$SLURM_ARRAY_TASK_COUNT
 mkdir -p "$results"
@@ -29,7 +29,7 @@ local_store=$scratch/manicule-shard-$k-of-$n.sqlite
 if [ -f "$share" ]; then cp "$share" "$local_store"; fi
 # Copied under a name of its own (two tasks of one share, after a double submission, must
 # not write into one file), then renamed into place at once.
-# (mktemp makes it readable by its owner alone; it gets what the umask grants, as cp would.)
+# (mktemp makes it readable by its owner alone; it gets what the umask grants a new file.)
 save() {
   local part
   part=$(mktemp "$results/.shard-$k-of-$n.XXXXXX") && cp "$local_store" "$part" &&

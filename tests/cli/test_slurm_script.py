@@ -64,10 +64,18 @@ with tempfile.TemporaryDirectory() as tmp:
 
     # Without --unit a task would read under the default unit, a settings of its own: the
     # script refuses with its usage line (exit 2) and saves nothing.
-    no_unit = subprocess.run(["bash", SCRIPT, archive, results, "--verbose"], capture_output=True, text=True, env=env)
+    no_unit = subprocess.run(["bash", SCRIPT, archive, results, "--verbose", "--quiet"], capture_output=True, text=True,
+                             env=env)
     mtest.check(no_unit.returncode == 2 and "usage: slurm-batch.sh" in no_unit.stderr
                 and not os.path.exists(os.path.join(results, "shard-1-of-2.sqlite")),
                 "a task without --unit: exit %d, %s" % (no_unit.returncode, no_unit.stderr))
+
+    # The unit given in CLI11's joined short form passes the script's check (batch then
+    # refuses the other option, with its own message, not the script's usage line).
+    joined = subprocess.run(["bash", SCRIPT, archive, results, "-uspeaker", "--no-such-option"], capture_output=True,
+                            text=True, env=env)
+    mtest.check(joined.returncode == 2 and "usage: slurm-batch.sh" not in joined.stderr,
+                "-uspeaker: exit %d, %s" % (joined.returncode, joined.stderr))
 
     code, reported = task(1, stop_after=1)
     share = os.path.join(results, "shard-1-of-2.sqlite")
@@ -92,9 +100,9 @@ with tempfile.TemporaryDirectory() as tmp:
 
     mtest.check(sorted(os.listdir(results)) == ["shard-1-of-2.sqlite", "shard-2-of-2.sqlite"],
                 "the results folder holds %r" % sorted(os.listdir(results)))
-    # Saved shares are as readable as the umask allows a new file (cp's rule, 0666 less the
-    # umask, here the test's own), not mktemp's owner-only 0600, so that the merge job and
-    # colleagues of the project can read them.
+    # Saved shares are as readable as the umask allows a new file (POSIX open(2) with mode
+    # 0666, less the umask, here the test's own), not mktemp's owner-only 0600, so that the
+    # merge job and colleagues of the project can read them.
     mask = os.umask(0)
     os.umask(mask)
     for name in os.listdir(results):
