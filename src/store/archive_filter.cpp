@@ -2,6 +2,7 @@
 
 #include <cstdlib>
 #include <filesystem>
+#include <vector>
 
 #include "core/segment.h"
 #include "text/caseless_match.h"
@@ -47,19 +48,25 @@ bool author_matches(const std::string& authors, const std::string& wanted) {
   }
 }
 
-// The working folder as the shell spells it ($PWD, which keeps the links it was reached
-// through) when that names the working folder, else as the system resolves it.
-std::filesystem::path working_folder_as_spelled() {
-  std::error_code ec;
-  const char* pwd = std::getenv("PWD");
-  if (pwd && *pwd == '/' && std::filesystem::equivalent(pwd, ".", ec)) return pwd;
-  return std::filesystem::current_path();
+// The working folder's spellings (taken once: a run does not change it): as the system
+// resolves it, and as the shell spells it ($PWD, which keeps the links it was reached
+// through) where that names the same folder otherwise.
+const std::vector<std::filesystem::path>& working_folder_spellings() {
+  static const std::vector<std::filesystem::path> spellings = [] {
+    std::vector<std::filesystem::path> out{std::filesystem::current_path()};
+    std::error_code ec;
+    const char* pwd = std::getenv("PWD");
+    if (pwd && *pwd == '/' && std::filesystem::path(pwd) != out.front() &&
+        std::filesystem::equivalent(pwd, ".", ec))
+      out.emplace_back(pwd);
+    return out;
+  }();
+  return spellings;
 }
 
-// `path` absolute against the working folder (taken once: a run does not change it) and
-// lexically normal: "a/./b/../c" gives "/work/a/c".
-std::string absolute_spelling(const std::string& path) {
-  static const std::filesystem::path working_folder = working_folder_as_spelled();
+// `path` made absolute against `working_folder` and lexically normal: "a/./b/../c" gives
+// "/work/a/c".
+std::string absolute_spelling(const std::string& path, const std::filesystem::path& working_folder) {
   std::filesystem::path p(path);
   if (p.is_relative()) p = working_folder / p;
   std::string out = p.lexically_normal().string();
@@ -100,17 +107,28 @@ bool ArchiveFilter::years_overlap(int first, int last) const {
 
 bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::string& relative_path) {
   if (filter.folder.empty()) return true;
-  std::string folder = tidy_folder(filter.folder);
+  const std::string& given = filter.folder;
+  const std::string folder = tidy_folder(given);
+  // Three ways to name a folder. A bare name ("de") is a folder below an input, or an input
+  // given by that very name; not also a folder de that happens to lie below the working
+  // folder. A path from the working folder ("./x", "../arch/de", "/data/arch/de", "." or
+  // "..") is that folder, not also one below an input. Anything else with a '/' ("arch/de",
+  // "1850/letters") may be either: below an input, or a path, in the stored spelling or another.
+  const bool from_working_folder = given == "." || given == ".." || given.rfind("./", 0) == 0 ||
+                                   given.rfind("../", 0) == 0 || given.front() == '/';
+  const bool bare_name = !from_working_folder && given.find('/') == std::string::npos;
   std::string tidy_path = path;
   while (tidy_path.rfind("./", 0) == 0) tidy_path.erase(0, 2);
-  if (starts_with_folder(relative_path, folder) || starts_with_folder(tidy_path, folder)) return true;
-  // A path spelled otherwise than the inputs were ("/data/arch/de" for "arch/de", "arch/x/../de"):
-  // both made absolute against the working folder and tidied, without reading the disk. Only
-  // for a folder written as a path (with a '/', or "." or ".."): a bare name ("x") means the
-  // folder below an input, and must not also take a folder x that lies below the working one.
-  const std::string& given = filter.folder;
-  const bool written_as_path = given.find('/') != std::string::npos || given == "." || given == "..";
-  return written_as_path && starts_with_folder(absolute_spelling(path), absolute_spelling(folder));
+  if (!from_working_folder && (starts_with_folder(relative_path, folder) || starts_with_folder(tidy_path, folder)))
+    return true;
+  if (bare_name) return false;
+  // Both made absolute against the working folder (in each of its spellings) and tidied,
+  // without reading the disk: "/data/arch/de" for "arch/de", "arch/x/../de", a folder
+  // reached through a link.
+  for (const auto& working_folder : working_folder_spellings())
+    if (starts_with_folder(absolute_spelling(path, working_folder), absolute_spelling(given, working_folder)))
+      return true;
+  return false;
 }
 
 bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {

@@ -61,15 +61,29 @@ for input_spelling in ("archive", os.path.join(tmp, "archive")):
         mtest.check(run["files_read"] == len(want), "batch input %s --folder %s read %d files, os.path gives %d"
                     % (input_spelling, spelling, run["files_read"], len(want)))
 
+# Run from a folder reached through a link, as the shell spells it ($PWD, POSIX sh): a
+# relative path names the same files either way (os.path.realpath).
+link = os.path.join(tmp, "through-link")
+os.symlink(tmp, link)
+physical_store = os.path.join(tmp, "store-%d.sqlite" % len(os.path.join(tmp, "archive")))
+proc = mtest.run(["analyse-store", "--store", physical_store, "--min-tokens", "200", "--folder", "archive/de",
+                  "--recompute"],
+                 check=False, cwd=link, env=dict(os.environ, PWD=link))
+_, tables = storecheck.latest_analysis(physical_store)
+got = {os.path.realpath(row[1]) for row in tables["segments"]}
+mtest.check(proc.returncode == 0 and got == {os.path.realpath(f) for f in named_by("archive/de")},
+            "through a link, --folder archive/de: exit %d, %r, %s" % (proc.returncode, sorted(got), proc.stderr))
+
 # A bare name is a folder below an input, and only that: run from inside the archive
 # (archive/de, which holds a folder x of its own), --folder x must not also take de/x; a
-# name written as a path ("." here) is taken from the working folder.
+# name written as a path from the working folder (".", "./x") is that folder alone, not
+# also the x below the input.
 for target in (os.path.join(tmp, "archive", "x"), os.path.join(tmp, "archive", "de", "x")):
     os.makedirs(target)
     shutil.copy(letters, os.path.join(target, "letters-x.xml"))
 inside = os.path.join(tmp, "archive", "de")
-for spelling, folder in (("x", os.path.join(tmp, "archive", "x")), (".", inside)):
-    part = os.path.join(tmp, "inside-%d.sqlite" % len(folder))
+for spelling, folder in (("x", os.path.join(tmp, "archive", "x")), (".", inside), ("./x", os.path.join(inside, "x"))):
+    part = os.path.join(tmp, "inside-%d.sqlite" % len(spelling + folder))
     mtest.run(["batch", os.path.join(tmp, "archive"), "--store", part, "--unit", "letter", "--quiet", "--folder",
                spelling], cwd=inside)
     db = storecheck.connect(part)
