@@ -12,6 +12,7 @@
 
 #include "core/error.h"
 #include "tei/header_info.h"
+#include "text/word_characters.h"
 #include "tei/tei_root.h"
 #include "tei/text_buffer.h"
 
@@ -423,8 +424,10 @@ struct TeiWalker::State {
     }
     if (header_depth == 0 || tei_stack.empty()) return;
     HeaderInfo& h = header();
-    if (f.name == "titleStmt" && !frames.empty() && frames.back().name == "fileDesc") {
-      // The edition's own (TEI P5 2.2.1), not a source's titleStmt inside sourceDesc/biblFull.
+    if (f.name == "titleStmt" && frames.size() >= 2 && frames.back().name == "fileDesc" &&
+        frames[frames.size() - 2].name == "teiHeader") {
+      // The edition's own, teiHeader/fileDesc/titleStmt (TEI P5 2.2.1), not a source's
+      // inside sourceDesc/biblFull (itself a fileDesc, or a titleStmt of its own).
       f.title_stmt = true;
       in_title_stmt = true;
     } else if (f.name == "sourceDesc") {
@@ -455,12 +458,12 @@ struct TeiWalker::State {
                !capture_text.empty()) {
       // Several names of one author (a pseudonym and the civil name): the first, then the
       // others in brackets, "Maler Müller (Friedrich Müller)", not run together; unless the
-      // header puts a bracket before it itself.
+      // header puts a bracket, round or square, before it itself.
       f.author_name = true;
       ++author_name_depth;
       std::string& text = capture_text.back();
       const auto last = text.find_last_not_of(" \t\r\n");
-      if (author_names++ > 0 && (last == std::string::npos || text[last] != '(')) {
+      if (author_names++ > 0 && (last == std::string::npos || (text[last] != '(' && text[last] != '['))) {
         text += " (";
         f.bracketed_name = true;
       }
@@ -609,9 +612,8 @@ struct TeiWalker::State {
     if (!line_break && !name_part) return;
     for (std::string& c : capture_text) {
       if (c.empty()) continue;
-      const unsigned char last = static_cast<unsigned char>(c.back());
-      const bool after_word = last >= 0x80 || std::isalnum(last);
-      if (line_break || after_word) c += ' ';
+      // Not after Han or kana either: "<surname>夏目</surname><forename>漱石</forename>".
+      if (line_break || ends_in_spaced_word_character(c)) c += ' ';
     }
   }
 
@@ -951,28 +953,6 @@ void TeiWalker::text(std::string_view chars) {
 namespace manicule {
 
 namespace {
-
-// Words in `text`, roughly: runs of letters and digits (a character beyond ASCII counts as
-// a letter), parted by the rest (spaces, the indentation between elements, ASCII
-// punctuation); but a character of U+3000-U+9FFF (CJK punctuation, kana, Han), scripts
-// written without spaces, counts as a word of its own.
-std::size_t rough_word_count(std::string_view text) {
-  std::size_t words = 0;
-  bool in_word = false;
-  for (std::size_t i = 0; i < text.size(); ++i) {
-    const auto c = static_cast<unsigned char>(text[i]);
-    if (c >= 0xE3 && c <= 0xE9) {  // the lead byte of U+3000-U+9FFF
-      ++words;
-      in_word = false;
-      i += 2;
-      continue;
-    }
-    const bool word_byte = c >= 0x80 || (c >= '0' && c <= '9') || ((c | 0x20) >= 'a' && (c | 0x20) <= 'z');
-    if (word_byte && !in_word) ++words;
-    in_word = word_byte;
-  }
-  return words;
-}
 
 // The language of most of the segment's words. Counted in words, not bytes: the layout
 // between elements (newlines, indentation) takes the enclosing language, and by bytes a

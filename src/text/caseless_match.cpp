@@ -2,8 +2,9 @@
 
 #include <unicode/normalizer2.h>
 #include <unicode/uchar.h>
-#include <unicode/uscript.h>
 #include <unicode/unistr.h>
+
+#include "text/word_characters.h"
 
 namespace manicule {
 
@@ -21,7 +22,7 @@ std::u32string caseless_code_points(std::string_view utf8) {
   for (int32_t i = 0; i < text.length(); i = text.moveIndex32(i, 1)) {
     UChar32 c = text.char32At(i);
     // Apostrophes typed and typeset alike, as the tokenizer folds them: "O'Neill", "O’Neill".
-    if (c == 0x2019 || c == 0x02BC || c == 0x2018 || c == 0xFF07) c = '\'';
+    if (c == 0x2019 || c == 0x02BC || c == 0xFF07) c = '\'';
     out.push_back(static_cast<char32_t>(u_foldCase(c, U_FOLD_CASE_DEFAULT)));
   }
   return out;
@@ -33,22 +34,10 @@ bool caseless_contains(std::string_view text, std::string_view part) {
 
 namespace {
 
-// Whether a word goes on through `c`. Not in scripts written without spaces between words
+// Whether a word goes on through `c`: not in scripts written without spaces between words
 // (Han, kana, Thai and its neighbours), where a name is found inside a longer run of
 // letters: "漱石" in "夏目漱石".
-bool continues_word(char32_t c) {
-  UErrorCode status = U_ZERO_ERROR;
-  switch (uscript_getScript(static_cast<UChar32>(c), &status)) {
-    case USCRIPT_HAN: case USCRIPT_HIRAGANA: case USCRIPT_KATAKANA: case USCRIPT_THAI: case USCRIPT_LAO:
-    case USCRIPT_KHMER: case USCRIPT_MYANMAR:
-      return false;
-    default:
-      break;
-  }
-  const auto kind = u_charType(static_cast<UChar32>(c));
-  return u_hasBinaryProperty(static_cast<UChar32>(c), UCHAR_ALPHABETIC) || u_isdigit(static_cast<UChar32>(c)) ||
-         kind == U_NON_SPACING_MARK || kind == U_COMBINING_SPACING_MARK;
-}
+bool continues_word(char32_t c) { return is_word_character(c) && !is_written_without_spaces(c); }
 
 }  // namespace
 

@@ -9,7 +9,7 @@
 namespace manicule {
 
 // The code points of `utf8` (ill-formed bytes read as U+FFFD), in NFC, simply case-folded,
-// with the apostrophe's variants (’ ʼ ‘) read as the apostrophe.
+// with the apostrophe's typeset forms (’ ʼ) read as the apostrophe.
 std::u32string caseless_code_points(std::string_view utf8);
 
 // Whether `part` occurs in `text`, letter case ignored.

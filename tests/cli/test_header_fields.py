@@ -10,7 +10,11 @@ under the rules written down here, each from TEI P5 or tei-conventions.md:
     so do the parts of a personal name (TEI P5 13.2.1: forename, surname ... are parts of one
     name, which the source writes with spaces between);
   - several persNames of one author (a pseudonym, the civil name): the first, then the
-    others in brackets; an author named twice over is one author;
+    others in brackets (unless the header brackets them itself); an author named twice
+    over is one author; a name part is parted by a space from a letter or digit right
+    before it, not from punctuation (d’Aubrac, „Ebbe“) nor within Han (夏目漱石);
+  - the title and author are those of teiHeader/fileDesc/titleStmt, not of a source's
+    titleStmt in sourceDesc/biblFull;
   - a year written "-0400" (XML Schema's gYear, as TEI's att.datable.w3c uses it) is before
     the common era, so year -400;
   - a segment's language is that of most of its words (docs/store.md), words counted here
@@ -22,6 +26,7 @@ under the rules written down here, each from TEI P5 or tei-conventions.md:
 import os
 import re
 import sys
+import unicodedata
 from collections import Counter
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
@@ -48,7 +53,9 @@ indent = "\n" + " " * 120
 SPEECHES = ("<div>" + indent + '<sp who="#graf">' + indent + "<speaker>Graf</speaker>" +
             "".join(indent + '<p xml:lang="fr">oui non merci</p>' for _ in range(6)) + indent + "<p>Ja gut.</p>" +
             indent + "</sp>" + indent + '<sp who="#magd">' + indent + "<p>Ja, ja, ich komme gleich herunter.</p>" +
-            indent + '<p xml:lang="fr">merci</p>' + indent + "</sp>" + indent + "</div>")
+            indent + '<p xml:lang="fr">merci</p>' + indent + "</sp>" + indent + '<sp who="#lotse">' + indent +
+            '<p xml:lang="fr">— Oui — … » « —</p>' + indent +
+            "<p>Ja, so ist es.</p>" + indent + "</sp>" + indent + "</div>")
 FILES = {
     "alt-then-main.xml": edition('<title type="alt">Nebentitel</title><title type="main">Haupttitel</title>'
                                  "<author>Lore Brink</author>", PROSE),
@@ -68,6 +75,16 @@ FILES = {
                                      date='<biblFull><titleStmt><title type="main">Quellentitel</title>'
                                           "<author>Quellenautor</author></titleStmt><publicationStmt><p>p</p>"
                                           "</publicationStmt><sourceDesc><p>s</p></sourceDesc></biblFull>"),
+    "source-file-desc.xml": edition('<title>Die Mole</title><author>Lore Brink</author>', PROSE,
+                                    date='<biblFull><fileDesc><titleStmt><title type="main">Quellentitel</title>'
+                                         "<author>Quellenautor</author></titleStmt></fileDesc></biblFull>"),
+    "name-punctuation.xml": edition("<title>An „<persName>Ebbe</persName>“</title><author><persName>Jean d’"
+                                    "<surname>Aubrac</surname></persName></author><author><persName><surname>Tide"
+                                    "</surname>—<forename>Mara</forename></persName></author>", PROSE),
+    "han-name.xml": edition("<title>T</title><author><persName><surname>夏目</surname><forename>漱石"
+                            "</forename></persName></author>", PROSE),
+    "square-bracket.xml": edition('<title>T</title><author><persName type="pseudo">Kapitän Tau</persName> '
+                                  "[<persName>Jonas Reling</persName>]</author>", PROSE),
     "named-twice.xml": edition("<title>T</title><author>Brink, Lore</author><author>Brink, Lore</author>"
                                "<author>Jonas Reling</author>", PROSE),
     "before-common-era.xml": edition("<title>T</title><author>Lore Brink</author>", PROSE,
@@ -91,6 +108,11 @@ def expected_title(root):
     return whole(chosen)
 
 
+def spaceless(c):
+    """Han and kana, written without spaces (Unicode's character names, Python's unicodedata)."""
+    return unicodedata.name(c, "").startswith(("CJK UNIFIED IDEOGRAPH", "HIRAGANA", "KATAKANA"))
+
+
 def text_with_breaks(element, before=""):
     """The element's text without notes, with a space for each lb/pb/cb not marked
     break="no", and before a name part that follows a letter or digit directly (so that
@@ -103,7 +125,8 @@ def text_with_breaks(element, before=""):
         elif name in ("note", "idno"):
             pass
         elif name in ("forename", "surname", "persName", "roleName", "addName", "genName", "nameLink"):
-            text = text_with_breaks(child, text + (" " if re.search(r"[^\W_]$", text) else ""))
+            text = text_with_breaks(child, text + (" " if re.search(r"[^\W_]$", text) and not spaceless(text[-1])
+                                                   else ""))
         else:
             text = text_with_breaks(child, text)
         text += child.tail or ""
@@ -118,7 +141,9 @@ def expected_author(root):
     authors = []
     for author in root.findall("t:teiHeader/t:fileDesc/t:titleStmt/t:author", NS):
         names = author.findall("t:persName", NS)
-        if len(names) > 1:
+        if len(names) > 1 and "[" in (names[0].tail or ""):  # the header brackets the second name itself
+            authors.append(whole(author))
+        elif len(names) > 1:
             authors.append(whole(names[0]) + "".join(" (%s)" % whole(n) for n in names[1:]))
         else:
             authors.append(whole(author))

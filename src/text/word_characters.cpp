@@ -1,0 +1,57 @@
+#include "text/word_characters.h"
+
+#include <unicode/uchar.h>
+#include <unicode/uscript.h>
+#include <unicode/utf8.h>
+
+namespace manicule {
+
+bool is_word_character(char32_t c) {
+  const auto code = static_cast<UChar32>(c);
+  const auto kind = u_charType(code);
+  return u_hasBinaryProperty(code, UCHAR_ALPHABETIC) || u_isdigit(code) || kind == U_NON_SPACING_MARK ||
+         kind == U_COMBINING_SPACING_MARK;
+}
+
+bool is_written_without_spaces(char32_t c) {
+  UErrorCode status = U_ZERO_ERROR;
+  switch (uscript_getScript(static_cast<UChar32>(c), &status)) {
+    case USCRIPT_HAN: case USCRIPT_HIRAGANA: case USCRIPT_KATAKANA: case USCRIPT_THAI: case USCRIPT_LAO:
+    case USCRIPT_KHMER: case USCRIPT_MYANMAR:
+      return true;
+    default:
+      return false;
+  }
+}
+
+std::size_t rough_word_count(std::string_view utf8) {
+  std::size_t words = 0;
+  bool in_word = false;
+  const auto* bytes = reinterpret_cast<const uint8_t*>(utf8.data());
+  const auto length = static_cast<int32_t>(utf8.size());
+  for (int32_t i = 0; i < length;) {
+    UChar32 c;
+    U8_NEXT(bytes, i, length, c);
+    if (c < 0 || !is_word_character(static_cast<char32_t>(c))) {
+      in_word = false;
+    } else if (is_written_without_spaces(static_cast<char32_t>(c))) {
+      ++words;
+      in_word = false;
+    } else {
+      if (!in_word) ++words;
+      in_word = true;
+    }
+  }
+  return words;
+}
+
+bool ends_in_spaced_word_character(std::string_view utf8) {
+  if (utf8.empty()) return false;
+  const auto* bytes = reinterpret_cast<const uint8_t*>(utf8.data());
+  int32_t i = static_cast<int32_t>(utf8.size());
+  UChar32 c;
+  U8_PREV(bytes, 0, i, c);
+  return c >= 0 && is_word_character(static_cast<char32_t>(c)) && !is_written_without_spaces(static_cast<char32_t>(c));
+}
+
+}  // namespace manicule
