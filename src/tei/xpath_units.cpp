@@ -75,12 +75,38 @@ std::vector<std::string> last_steps(const std::string& expression) {
   return steps;
 }
 
+bool selects_no_element(const std::string& step);
+
+// Whether every branch of `expression` ends on a step that gives no element.
+bool no_branch_selects_elements(const std::string& expression) {
+  const std::vector<std::string> steps = last_steps(expression);
+  return std::all_of(steps.begin(), steps.end(), selects_no_element);
+}
+
 // Whether a location step can only give attributes, text, comments, processing
-// instructions or namespaces, never an element; or, empty, the document itself ("/").
+// instructions or namespaces, never an element: "@who", "attribute::who", "child::text()",
+// "(//tei:sp/@who)[1]" (a bracketed expression, read inside its brackets); or, empty, the
+// document itself ("/").
 bool selects_no_element(const std::string& step) {
   if (step.empty()) return true;
-  for (const char* start : {"@", "attribute::", "namespace::", "text(", "comment(", "processing-instruction("})
-    if (step.rfind(start, 0) == 0) return true;
+  if (step.front() == '(') {
+    int depth = 0;
+    for (std::size_t i = 0; i < step.size(); ++i) {
+      if (step[i] == '(') ++depth;
+      if (step[i] == ')' && --depth == 0) return no_branch_selects_elements(step.substr(1, i - 1));
+    }
+    return false;
+  }
+  if (step.front() == '@') return true;
+  std::string test = step;
+  const std::size_t axis_end = step.find("::");
+  if (axis_end != std::string::npos && step.find_first_of("[(") > axis_end) {
+    const std::string axis = step.substr(0, axis_end);
+    if (axis == "attribute" || axis == "namespace") return true;
+    test = step.substr(axis_end + 2);
+  }
+  for (const char* start : {"text(", "comment(", "processing-instruction("})
+    if (test.rfind(start, 0) == 0) return true;
   return false;
 }
 
@@ -95,6 +121,9 @@ std::set<std::vector<int>> select_elements(xmlDocPtr doc, const std::string& exp
   ctx->error = on_xpath_error;
   ctx->userData = &errors;
   xmlXPathRegisterNs(ctx.get(), BAD_CAST "tei", BAD_CAST "http://www.tei-c.org/ns/1.0");
+  // Relative paths (".//tei:sp", "*") from the root element, as lxml's tree.xpath() and
+  // most XPath tools take them; libxml2 leaves the context node unset, so they found nothing.
+  ctx->node = xmlDocGetRootElement(doc);
   std::unique_ptr<xmlXPathObject, void (*)(xmlXPathObjectPtr)> result(
       xmlXPathEvalExpression(BAD_CAST expression.c_str(), ctx.get()), xmlXPathFreeObject);
   if (!result) {
@@ -126,11 +155,7 @@ void check_xpath_unit(const std::string& expression) {
   select_elements(doc.get(), expression);
   // An empty document selects nothing, attributes neither: what a path ends on is read
   // from the expression itself, so that a batch does not record every file as failing.
-  const std::vector<std::string> steps = last_steps(expression);
-  const bool document_alone = steps.size() == 1 && steps.front() == "." &&
-                              expression.find('/') == std::string::npos;  // "." from the root
-  if (document_alone || std::all_of(steps.begin(), steps.end(), selects_no_element))
-    throw Error(ErrorKind::usage, not_elements_message(expression));
+  if (no_branch_selects_elements(expression)) throw Error(ErrorKind::usage, not_elements_message(expression));
 }
 
 }  // namespace manicule

@@ -49,7 +49,11 @@ def expected_pointer(element):
 cases = [("ferry-letters.xml", "//tei:div[@type='letter']"),
          ("ferry-letters.xml", "//tei:body//tei:p"),
          ("ferry-play.xml", "//tei:sp[@who='#primm']"),
-         ("ferry-play.xml", "//tei:div")]
+         ("ferry-play.xml", "//tei:div"),
+         # relative, from the root element as lxml's tree.xpath() takes it (libxml2's own
+         # context node was unset, and relative paths found nothing)
+         ("ferry-play.xml", ".//tei:sp[@who='#primm']"),
+         ("ferry-letters.xml", "tei:text//tei:div[@type='letter']")]
 for name, expression in cases:
     path = os.path.join(mtest.ROOT, "examples", name)
     matched = etree.parse(path).xpath(expression, namespaces={"tei": TEI})
@@ -137,7 +141,8 @@ shutil.copy(play, archive_dir)
 for i, expression in enumerate(["//tei:sp/@who", "//tei:sp/attribute :: who", "//tei:speaker/text()",
                                 "//tei:sp/@who | //tei:speaker/text()", "//tei:sp[@who='#a|b' or @who]/@who",
                                 "//tei:sp | //tei:sp/@who", "(//tei:sp)[2]", "//tei:sp[@who]",
-                                "//tei:sp[contains(@who, '/@')] | //tei:div/tei:sp", "//tei:sp/.", "(//tei:sp)[1]/.."]):
+                                "//tei:sp[contains(@who, '/@')] | //tei:div/tei:sp", "//tei:sp/.", "(//tei:sp)[1]/..", ".//tei:sp", "(//tei:sp/@who)[1]",
+                                "//tei:sp/child::text()"]):
     found = tree.xpath(expression, namespaces={"tei": TEI})
     with_elements = any(isinstance(v, etree._Element) for v in found)
     mtest.check(found, "lxml finds nothing for %s on the play" % expression)
