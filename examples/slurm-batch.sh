@@ -17,7 +17,10 @@ archive=${1:?$usage}
 results=${2:?$usage}
 shift 2
 # Without --unit a task would read with the default unit (whole), a settings of its own.
-case " $* " in *" --unit "* | *" --unit="* | *" -u"*) ;; *) echo "$usage" >&2; exit 2 ;; esac
+# (-u may come joined to its value or among other short flags: -uletter, -qu letter.)
+unit_given=no
+for arg in "$@"; do case $arg in --unit | --unit=*) unit_given=yes ;; --*) ;; -*u*) unit_given=yes ;; esac; done
+if [ "$unit_given" = no ]; then echo "$usage" >&2; exit 2; fi
 k=$((SLURM_ARRAY_TASK_ID - SLURM_ARRAY_TASK_MIN + 1))   # works for --array=0-7 too
 n=$SLURM_ARRAY_TASK_COUNT
 mkdir -p "$results"

@@ -64,18 +64,19 @@ with tempfile.TemporaryDirectory() as tmp:
 
     # Without --unit a task would read under the default unit, a settings of its own: the
     # script refuses with its usage line (exit 2) and saves nothing.
-    no_unit = subprocess.run(["bash", SCRIPT, archive, results, "--verbose", "--quiet"], capture_output=True, text=True,
-                             env=env)
+    no_unit = subprocess.run(["bash", SCRIPT, archive, results, "--verbose", "--quiet", "--folder", "a -unit"],
+                             capture_output=True, text=True, env=env)
     mtest.check(no_unit.returncode == 2 and "usage: slurm-batch.sh" in no_unit.stderr
                 and not os.path.exists(os.path.join(results, "shard-1-of-2.sqlite")),
                 "a task without --unit: exit %d, %s" % (no_unit.returncode, no_unit.stderr))
 
     # The unit given in CLI11's joined short form passes the script's check (batch then
     # refuses the other option, with its own message, not the script's usage line).
-    joined = subprocess.run(["bash", SCRIPT, archive, results, "-uspeaker", "--no-such-option"], capture_output=True,
-                            text=True, env=env)
-    mtest.check(joined.returncode == 2 and "usage: slurm-batch.sh" not in joined.stderr,
-                "-uspeaker: exit %d, %s" % (joined.returncode, joined.stderr))
+    for short_form in (["-uspeaker"], ["-qu", "speaker"]):
+        joined = subprocess.run(["bash", SCRIPT, archive, results] + short_form + ["--no-such-option"],
+                                capture_output=True, text=True, env=env)
+        mtest.check(joined.returncode == 2 and "usage: slurm-batch.sh" not in joined.stderr,
+                    "%r: exit %d, %s" % (short_form, joined.returncode, joined.stderr))
 
     code, reported = task(1, stop_after=1)
     share = os.path.join(results, "shard-1-of-2.sqlite")
