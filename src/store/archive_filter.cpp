@@ -109,17 +109,20 @@ bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::
   if (filter.folder.empty()) return true;
   const std::string& given = filter.folder;
   const std::string folder = tidy_folder(given);
-  // Three ways to name a folder. A bare name ("de") is a folder below an input, or an input
-  // given by that very name; not also a folder de that happens to lie below the working
-  // folder. A path from the working folder ("./x", "../arch/de", "/data/arch/de", "." or
-  // "..") is that folder, not also one below an input. Anything else with a '/' ("arch/de",
-  // "1850/letters") may be either: below an input, or a path, in the stored spelling or another.
+  // A bare name ("de", "de/") is a folder below an input, or an input given in that very
+  // spelling; not also a folder de that happens to lie below the working folder. A path
+  // from the working folder ("./x", "../arch/de", "/data/arch/de", "." or "..") is that
+  // folder; it is also read as below an input where the stored path is relative, for such a
+  // path is relative to where batch ran, which a later command does not know. Anything else
+  // with a '/' ("arch/de", "1850/letters") may be below an input, or a path in any spelling.
   const bool from_working_folder = given == "." || given == ".." || given.rfind("./", 0) == 0 ||
                                    given.rfind("../", 0) == 0 || given.front() == '/';
-  const bool bare_name = !from_working_folder && given.find('/') == std::string::npos;
+  const bool bare_name = !from_working_folder && folder.find('/') == std::string::npos;
   std::string tidy_path = path;
   while (tidy_path.rfind("./", 0) == 0) tidy_path.erase(0, 2);
-  if (!from_working_folder && (starts_with_folder(relative_path, folder) || starts_with_folder(tidy_path, folder)))
+  const bool stored_relative = path.empty() || path.front() != '/';
+  if ((!from_working_folder || stored_relative) &&
+      (starts_with_folder(relative_path, folder) || starts_with_folder(tidy_path, folder)))
     return true;
   if (bare_name) return false;
   // Both made absolute against the working folder (in each of its spellings) and tidied,

@@ -50,9 +50,8 @@ std::vector<std::string> last_steps(const std::string& expression) {
   int depth = 0;
   char quote = 0;
   for (char c : expression) {
-    if (quote) {
+    if (quote) {  // inside a string literal, whatever its characters
       if (c == quote) quote = 0;
-      if (depth > 0) continue;
       step += c;
       continue;
     }

@@ -21,7 +21,8 @@ std::u32string caseless_code_points(std::string_view utf8) {
   out.reserve(static_cast<std::size_t>(text.length()));
   for (int32_t i = 0; i < text.length(); i = text.moveIndex32(i, 1)) {
     UChar32 c = text.char32At(i);
-    // Apostrophes typed and typeset alike, as the tokenizer folds them: "O'Neill", "O’Neill".
+    // The apostrophe typed and typeset alike (’ ʼ ＇): "O'Neill", "O’Neill". (Not ‘, an
+    // opening quotation mark in titles.)
     if (c == 0x2019 || c == 0x02BC || c == 0xFF07) c = '\'';
     out.push_back(static_cast<char32_t>(u_foldCase(c, U_FOLD_CASE_DEFAULT)));
   }

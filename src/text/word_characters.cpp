@@ -14,14 +14,12 @@ bool is_word_character(char32_t c) {
 }
 
 bool is_written_without_spaces(char32_t c) {
-  UErrorCode status = U_ZERO_ERROR;
-  switch (uscript_getScript(static_cast<UChar32>(c), &status)) {
-    case USCRIPT_HAN: case USCRIPT_HIRAGANA: case USCRIPT_KATAKANA: case USCRIPT_THAI: case USCRIPT_LAO:
-    case USCRIPT_KHMER: case USCRIPT_MYANMAR:
-      return true;
-    default:
-      return false;
-  }
+  // By Script_Extensions, so that characters the scripts share count too: the prolonged
+  // sound mark ー (U+30FC, script Common, used by hiragana and katakana).
+  for (UScriptCode script : {USCRIPT_HAN, USCRIPT_HIRAGANA, USCRIPT_KATAKANA, USCRIPT_THAI, USCRIPT_LAO,
+                             USCRIPT_KHMER, USCRIPT_MYANMAR})
+    if (uscript_hasScript(static_cast<UChar32>(c), script)) return true;
+  return false;
 }
 
 std::size_t rough_word_count(std::string_view utf8) {

@@ -83,6 +83,8 @@ FILES = {
                                     "</surname>—<forename>Mara</forename></persName></author>", PROSE),
     "han-name.xml": edition("<title>T</title><author><persName><surname>夏目</surname><forename>漱石"
                             "</forename></persName></author>", PROSE),
+    "katakana-name.xml": edition("<title>T</title><author><persName><surname>\u30d6\u30eb\u30fc</surname>"
+                                 "<forename>\u30bf\u30ed\u30a6</forename></persName></author>", PROSE),
     "square-bracket.xml": edition('<title>T</title><author><persName type="pseudo">Kapitän Tau</persName> '
                                   "[<persName>Jonas Reling</persName>]</author>", PROSE),
     "named-twice.xml": edition("<title>T</title><author>Brink, Lore</author><author>Brink, Lore</author>"

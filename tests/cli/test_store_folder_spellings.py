@@ -61,6 +61,17 @@ for input_spelling in ("archive", os.path.join(tmp, "archive")):
         mtest.check(run["files_read"] == len(want), "batch input %s --folder %s read %d files, os.path gives %d"
                     % (input_spelling, spelling, run["files_read"], len(want)))
 
+# Stored paths relative to where batch ran (the store from the input "archive"), asked from
+# inside the archive as "./de": the folder de below the input, which it is.
+relative_store = os.path.join(tmp, "store-%d.sqlite" % len("archive"))
+proc = mtest.run(["analyse-store", "--store", relative_store, "--min-tokens", "200", "--folder", "./de", "--recompute"],
+                 check=False, cwd=os.path.join(tmp, "archive"))
+_, tables = storecheck.latest_analysis(relative_store)
+got = {os.path.abspath(os.path.join(tmp, row[1])) for row in tables["segments"]}
+mtest.check(proc.returncode == 0 and got == named_by("archive/de"),
+            "from inside the archive, ./de over relative stored paths: exit %d, %r, %s"
+            % (proc.returncode, sorted(got), proc.stderr))
+
 # Run from a folder reached through a link, as the shell spells it ($PWD, POSIX sh): a
 # relative path names the same files either way (os.path.realpath).
 link = os.path.join(tmp, "through-link")
@@ -82,8 +93,9 @@ for target in (os.path.join(tmp, "archive", "x"), os.path.join(tmp, "archive", "
     os.makedirs(target)
     shutil.copy(letters, os.path.join(target, "letters-x.xml"))
 inside = os.path.join(tmp, "archive", "de")
-for spelling, folder in (("x", os.path.join(tmp, "archive", "x")), (".", inside), ("./x", os.path.join(inside, "x"))):
-    part = os.path.join(tmp, "inside-%d.sqlite" % len(spelling + folder))
+for i, (spelling, folder) in enumerate((("x", os.path.join(tmp, "archive", "x")), ("x/", os.path.join(tmp, "archive", "x")),
+                                        (".", inside), ("./x", os.path.join(inside, "x")))):
+    part = os.path.join(tmp, "inside-%d.sqlite" % i)
     mtest.run(["batch", os.path.join(tmp, "archive"), "--store", part, "--unit", "letter", "--quiet", "--folder",
                spelling], cwd=inside)
     db = storecheck.connect(part)
