@@ -112,25 +112,26 @@ bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::
   // A bare name ("de", "de/") is a folder below an input, or an input given in that very
   // spelling; not also a folder de that happens to lie below the working folder. A path
   // from the working folder ("./x", "../arch/de", "/data/arch/de", "." or "..") is that
-  // folder; it is also read as below an input where the stored path is relative, for such a
-  // path is relative to where batch ran, which a later command does not know. Anything else
-  // with a '/' ("arch/de", "1850/letters") may be below an input, or a path in any spelling.
+  // folder alone. Anything else with a '/' ("arch/de", "1850/letters") may be below an
+  // input, or a path in any spelling.
   const bool from_working_folder = given == "." || given == ".." || given.rfind("./", 0) == 0 ||
                                    given.rfind("../", 0) == 0 || given.front() == '/';
   const bool bare_name = !from_working_folder && folder.find('/') == std::string::npos;
   std::string tidy_path = path;
   while (tidy_path.rfind("./", 0) == 0) tidy_path.erase(0, 2);
-  const bool stored_relative = path.empty() || path.front() != '/';
-  if ((!from_working_folder || stored_relative) &&
-      (starts_with_folder(relative_path, folder) || starts_with_folder(tidy_path, folder)))
+  if (!from_working_folder && (starts_with_folder(relative_path, folder) || starts_with_folder(tidy_path, folder)))
     return true;
   if (bare_name) return false;
   // Both made absolute against the working folder (in each of its spellings) and tidied,
   // without reading the disk: "/data/arch/de" for "arch/de", "arch/x/../de", a folder
   // reached through a link.
-  for (const auto& working_folder : working_folder_spellings())
-    if (starts_with_folder(absolute_spelling(path, working_folder), absolute_spelling(given, working_folder)))
-      return true;
+  // A relative stored path is relative to where batch ran (stored_paths_base), the folder
+  // asked to the working folder.
+  for (const auto& working_folder : working_folder_spellings()) {
+    const std::filesystem::path& base =
+        filter.stored_paths_base.empty() ? working_folder : std::filesystem::path(filter.stored_paths_base);
+    if (starts_with_folder(absolute_spelling(path, base), absolute_spelling(given, working_folder))) return true;
+  }
   return false;
 }
 

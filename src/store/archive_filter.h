@@ -22,6 +22,10 @@ struct ArchiveFilter {
   int year_to = 0;       // ... at most this (0 = no upper bound)
   std::string language;  // the segment's language, else its file's, lies in this range (de, en, eng, en-GB)
   std::string title;     // the header's title matches this shell pattern (* and ?), e.g. "*Brief*"
+  // The folder that relative stored paths are relative to (where batch ran, recorded with
+  // its run); empty: the working folder, as in batch itself. --folder is always taken from
+  // the working folder.
+  std::string stored_paths_base;
 
   bool selects_by_header() const;
   bool asks_years() const { return year_from || year_to; }

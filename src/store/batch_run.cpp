@@ -195,7 +195,9 @@ nlohmann::json run_parameters(const Request& request, const BatchOptions& option
   return {{"inputs", request.inputs},      {"settings_key", settings.key},  {"unit", settings.unit},
           {"selection", settings.selection}, {"tokenizer", settings.tokenizer}, {"features", settings.features},
           {"folder", options.filter.folder}, {"shard", options.shard.describe()},
-          {"verify_hashes", options.verify_hashes}};
+          {"verify_hashes", options.verify_hashes},
+          // what relative paths in the files table are relative to (--folder in analyse-store)
+          {"working_folder", std::filesystem::current_path().string()}};
 }
 
 }  // namespace

@@ -47,7 +47,16 @@ void drop_respelled(StoredSelection& s) {
 
 }  // namespace
 
-StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& filter) {
+StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& asked) {
+  // Relative stored paths are relative to where batch ran: the latest batch run's folder
+  // (a merged store, whose files come from other machines, has none: the working folder).
+  ArchiveFilter filter = asked;
+  if (!filter.folder.empty() && filter.stored_paths_base.empty()) {
+    Statement base = db.prepare(
+        "SELECT json_extract(parameters, '$.working_folder') FROM runs WHERE kind = 'batch' AND "
+        "json_extract(parameters, '$.working_folder') IS NOT NULL ORDER BY run_id DESC LIMIT 1");
+    if (base.step()) filter.stored_paths_base = base.text_at(0);
+  }
   StoredSelection out;
   Statement files = db.prepare(
       "SELECT f.path, f.relative_path, f.sha256, r.status, r.title, r.author, r.date, r.year, r.language, "

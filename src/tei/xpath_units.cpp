@@ -90,9 +90,17 @@ bool selects_no_element(const std::string& step) {
   if (step.empty()) return true;
   if (step.front() == '(') {
     int depth = 0;
+    char quote = 0;
     for (std::size_t i = 0; i < step.size(); ++i) {
-      if (step[i] == '(') ++depth;
-      if (step[i] == ')' && --depth == 0) return no_branch_selects_elements(step.substr(1, i - 1));
+      if (quote) {  // a bracket inside a string literal is text
+        if (step[i] == quote) quote = 0;
+      } else if (step[i] == '\'' || step[i] == '"') {
+        quote = step[i];
+      } else if (step[i] == '(') {
+        ++depth;
+      } else if (step[i] == ')' && --depth == 0) {
+        return no_branch_selects_elements(step.substr(1, i - 1));
+      }
     }
     return false;
   }

@@ -105,4 +105,18 @@ for i, (spelling, folder) in enumerate((("x", os.path.join(tmp, "archive", "x"))
     mtest.check(got == want, "from archive/de, --folder %s read %r, os.walk of %s gives %r"
                 % (spelling, sorted(got), folder, sorted(want)))
 
+# analyse-store over paths stored relative to where batch ran (tmp), asked from inside the
+# archive: "./x", "." and an absolute path are taken from the working folder (archive/de),
+# the stored paths from where batch ran, as its run recorded (os.path gives the files).
+mtest.run(["batch", "archive", "--store", relative_store, "--unit", "letter", "--quiet"], cwd=tmp)
+for spelling, folder in (("./x", os.path.join(inside, "x")), (".", inside),
+                         (os.path.join(tmp, "archive", "x"), os.path.join(tmp, "archive", "x"))):
+    proc = mtest.run(["analyse-store", "--store", relative_store, "--min-tokens", "200", "--folder", spelling,
+                      "--recompute"], check=False, cwd=inside)
+    _, tables = storecheck.latest_analysis(relative_store)
+    got = {os.path.abspath(os.path.join(tmp, row[1])) for row in tables["segments"]}
+    want = {os.path.join(d, n) for d, _, names in os.walk(folder) for n in names}
+    mtest.check(proc.returncode == 0 and got == want, "from archive/de, analyse-store --folder %s: exit %d, %r, "
+                "os.walk of %s gives %r; %s" % (spelling, proc.returncode, sorted(got), folder, sorted(want), proc.stderr))
+
 mtest.done()

@@ -142,7 +142,8 @@ for i, expression in enumerate(["//tei:sp/@who", "//tei:sp/attribute :: who", "/
                                 "//tei:sp/@who | //tei:speaker/text()", "//tei:sp[@who='#a|b' or @who]/@who",
                                 "//tei:sp | //tei:sp/@who", "(//tei:sp)[2]", "//tei:sp[@who]",
                                 "//tei:sp[contains(@who, '/@')] | //tei:div/tei:sp", "//tei:sp/.", "(//tei:sp)[1]/..", ".//tei:sp", "(//tei:sp/@who)[1]",
-                                "//tei:sp/child::text()", "(//tei:sp/@who[.='x|y/z'] | //tei:sp)"]):
+                                "//tei:sp/child::text()", "(//tei:sp/@who[.='x|y/z'] | //tei:sp)",
+                                "(//tei:sp/@who[.=')' or .=\"(\"] | //tei:sp)"]):
     found = tree.xpath(expression, namespaces={"tei": TEI})
     with_elements = any(isinstance(v, etree._Element) for v in found)
     mtest.check(found, "lxml finds nothing for %s on the play" % expression)
