@@ -44,7 +44,7 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
   f.folder = folder;
   f.author = author;
   if (!author.empty() && author.find_first_not_of(store::kAuthorWordSeparators) == std::string::npos)
-    throw Error(ErrorKind::usage, "--author '" + author + "': give a name, or a word of one (e.g. --author Eliot)");
+    throw Error(ErrorKind::usage, "--author '" + author + "': give a name, or a word of one (e.g. --author Tide)");
   f.language = language;
   if (!language.empty() && !is_language_code(language))
     throw Error(ErrorKind::usage, "--language " + language +

@@ -19,8 +19,8 @@ std::string tidy_folder(std::string f) {
 }
 
 // Each word of `wanted` (split at spaces, commas and semicolons) is a whole word of
-// `author`, in any order: "George Eliot" finds "Eliot, George [pseud.]", as catalogues
-// invert names, and "Kind" does not find "Wedekind". (to_filter refuses a text without a word.)
+// `author`, in any order: "Mara Tide" finds "Tide, Mara [pseud.]", as catalogues
+// invert names, and "Kind" does not find "Wendekind". (to_filter refuses a text without a word.)
 bool one_author_matches(std::string_view author, const std::string& wanted) {
   std::size_t start = 0;
   bool any_word = false;
@@ -64,8 +64,8 @@ const std::vector<std::filesystem::path>& working_folder_spellings() {
   return spellings;
 }
 
-// `path` made absolute against `working_folder` and lexically normal: "a/./b/../c" gives
-// "/work/a/c".
+// `path` made absolute against `working_folder` and lexically normal: "a/./b/../c" against
+// "/home/ed" gives "/home/ed/a/c".
 std::string absolute_spelling(const std::string& path, const std::filesystem::path& working_folder) {
   std::filesystem::path p(path);
   if (p.is_relative()) p = working_folder / p;

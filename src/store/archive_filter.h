@@ -10,7 +10,7 @@
 
 namespace manicule::store {
 
-// What separates the words of --author's text ("Eliot, George").
+// What separates the words of --author's text ("Tide, Mara").
 inline constexpr const char* kAuthorWordSeparators = " \t,;";
 
 struct ArchiveFilter {

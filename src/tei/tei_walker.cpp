@@ -40,7 +40,7 @@ const std::unordered_set<std::string_view>& block_elements() {
   return names;
 }
 
-// "Maler Müller ( Friedrich Müller )", as the names' own spaces leave it, without the
+// "Kapitän Tau ( Jonas Reling )", as the names' own spaces leave it, without the
 // spaces inside the brackets.
 std::string tidy_brackets(std::string text) {
   for (std::size_t at; (at = text.find("( ")) != std::string::npos;) text.erase(at + 1, 1);
@@ -457,7 +457,7 @@ struct TeiWalker::State {
     } else if (f.name == "persName" && author_depth > 0 && author_name_depth == 0 && muted_depth == 0 &&
                !capture_text.empty()) {
       // Several names of one author (a pseudonym and the civil name): the first, then the
-      // others in brackets, "Maler Müller (Friedrich Müller)", not run together; unless the
+      // others in brackets, "Kapitän Tau (Jonas Reling)", not run together; unless the
       // header puts a bracket, round or square, before it itself.
       f.author_name = true;
       ++author_name_depth;
@@ -567,7 +567,7 @@ struct TeiWalker::State {
     slots.sent = in_sent_action;  // every letter's: the earliest is the file's
     if (source_desc_depth > 0) {
       std::string_view type = source_bibl_type();
-      // ELTeC and DraCor type the electronic edition's bibl "digitalSource"; its date is
+      // Editions often type the electronic edition's bibl "digitalSource"; its date is
       // the file's making, not the work's (common practice, no source).
       bool digital = type.substr(0, 7) == "digital";
       slots.first_edition = type == "firstEdition" && h.first_edition_date.empty();
@@ -594,11 +594,11 @@ struct TeiWalker::State {
 
   // What an element inside a captured name, title or heading does to the captured text,
   // before its own capture opens: a note (an editor's, most often) is no part of it; a line
-  // break (not marked break="no") parts words, "Die<lb/>Räuber" being "Die Räuber"
+  // break (not marked break="no") parts words, "Die<lb/>Fähre" being "Die Fähre"
   // (tei-conventions: lb, pb and cb are boundaries); and a name part begun right after a
-  // word is parted from it, "<forename>Karl</forename><surname>Kraus</surname>" being
-  // "Karl Kraus", while "<surname>Kraus</surname>, <forename>Karl</forename>" stays
-  // "Kraus, Karl".
+  // word is parted from it, "<forename>Jonas</forename><surname>Reling</surname>" being
+  // "Jonas Reling", while "<surname>Reling</surname>, <forename>Jonas</forename>" stays
+  // "Reling, Jonas".
   void shape_capture_around(Frame& f, bool line_break) {
     if (f.name == "note") {
       if (!f.muted) {
@@ -612,7 +612,7 @@ struct TeiWalker::State {
     if (!line_break && !name_part) return;
     for (std::string& c : capture_text) {
       if (c.empty()) continue;
-      // Not after Han or kana either: "<surname>夏目</surname><forename>漱石</forename>".
+      // Not after Han or kana either: "<surname>潮見</surname><forename>海風</forename>".
       if (line_break || ends_in_spaced_word_character(c)) c += ' ';
     }
   }

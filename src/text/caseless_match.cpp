@@ -37,7 +37,7 @@ namespace {
 
 // Whether a word goes on through `c`: not in scripts written without spaces between words
 // (Han, kana, Thai and its neighbours), where a name is found inside a longer run of
-// letters: "漱石" in "夏目漱石".
+// letters: "海風" in "潮見海風".
 bool continues_word(char32_t c) { return is_word_character(c) && !is_written_without_spaces(c); }
 
 }  // namespace

@@ -1,5 +1,5 @@
 // Matching header text (authors, titles) against what a user typed, regardless of letter
-// case in any script: "ödön" finds "Ödön von Horváth", "*R?uber*" finds "Die Räuber". Both
+// case in any script: "öda" finds "Öda von Hallvík", "*F?hre*" finds "Die Fähre". Both
 // sides are put in NFC, then case-folded one character at a time (simple case folding,
 // CaseFolding.txt statuses C and S), so that one character stays one for '?'.
 #pragma once
@@ -17,8 +17,8 @@ bool caseless_contains(std::string_view text, std::string_view part);
 
 // Whether `word` occurs in `text` as a whole word, letter case ignored: neither side of it
 // continues with a letter, a digit or a combining mark, so that "Kind" finds "Anna Kind"
-// and "Kind, Anna" but not "Wedekind" (in scripts written without spaces, Han, kana, Thai
-// and the like, any run of letters is found: "漱石" in "夏目漱石").
+// and "Kind, Anna" but not "Wendekind" (in scripts written without spaces, Han, kana, Thai
+// and the like, any run of letters is found: "海風" in "潮見海風").
 bool caseless_contains_word(std::string_view text, std::string_view word);
 
 // Whether all of `text` matches the shell pattern: '*' stands for any run of characters,

@@ -12,7 +12,7 @@ under the rules written down here, each from TEI P5 or tei-conventions.md:
   - several persNames of one author (a pseudonym, the civil name): the first, then the
     others in brackets (unless the header brackets them itself); an author named twice
     over is one author; a name part is parted by a space from a letter or digit right
-    before it, not from punctuation (d’Aubrac, „Ebbe“) nor within Han (夏目漱石);
+    before it, not from punctuation (d’Aubrac, „Ebbe“) nor within Han (潮見海風);
   - the title and author are those of teiHeader/fileDesc/titleStmt, not of a source's
     titleStmt in sourceDesc/biblFull;
   - a year written "-0400" (XML Schema's gYear, as TEI's att.datable.w3c uses it) is before
@@ -81,7 +81,7 @@ FILES = {
     "name-punctuation.xml": edition("<title>An „<persName>Ebbe</persName>“</title><author><persName>Jean d’"
                                     "<surname>Aubrac</surname></persName></author><author><persName><surname>Tide"
                                     "</surname>—<forename>Mara</forename></persName></author>", PROSE),
-    "han-name.xml": edition("<title>T</title><author><persName><surname>夏目</surname><forename>漱石"
+    "han-name.xml": edition("<title>T</title><author><persName><surname>潮見</surname><forename>海風"
                             "</forename></persName></author>", PROSE),
     "katakana-name.xml": edition("<title>T</title><author><persName><surname>\u30d6\u30eb\u30fc</surname>"
                                  "<forename>\u30bf\u30ed\u30a6</forename></persName></author>", PROSE),
@@ -118,7 +118,7 @@ def spaceless(c):
 def text_with_breaks(element, before=""):
     """The element's text without notes, with a space for each lb/pb/cb not marked
     break="no", and before a name part that follows a letter or digit directly (so that
-    "Karl" "Kraus" are two words, and "Kraus, Karl" keeps its comma where it is)."""
+    "Jonas" "Reling" are two words, and "Reling, Jonas" keeps its comma where it is)."""
     text = before + (element.text or "")
     for child in element:
         name = etree.QName(child).localname

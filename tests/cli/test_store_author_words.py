@@ -1,7 +1,7 @@
 """Sub-corpora by author: `--author TEXT` takes the files one of whose header authors holds
 each word of TEXT as a whole word, in any order, letter case ignored (docs/store.md).
 
-It matched parts of words: "Kind" took every "Wedekind", "Ward" every "Edward", and a text
+It matched parts of words: "Kind" took every "Wendekind", "Ward" every "Edward", and a text
 of commas alone took every inverted name. Invented editions here carry invented authors
 chosen so that the two readings differ; which files each query should take is worked out
 with Python's re (a word is a run of letters and digits, [^\\W_], Unicode-aware; in Han
@@ -25,7 +25,7 @@ TEI = "http://www.tei-c.org/ns/1.0"
 AUTHORS = [
     ["Oskar Kind"], ["Lotte Wendekind"], ["Kind, Oskar"], ["Hanne Kindler"], ["Edda Ward"],
     ["Edward Lune"], ["Ilse Ward-Pell"], ["F. Marlow"], ["Mira Sand", "Oskar Kind"], ["ÖDÖN KIND"],
-    ["夏目漱石"], ["漱石会"], ["Eileen O’Neill"], ["Liam O'Neill"], ["Neill Tarn"],
+    ["潮見海風"], ["海風会"], ["Eileen O’Neill"], ["Liam O'Neill"], ["Neill Tarn"],
 ]
 WORDS = ("harbour lantern ferry rope tide gull plank mast sail river dock wave night morning "
          "letter island shore bell crew cargo").split()
@@ -81,7 +81,7 @@ store = os.path.join(tmp, "works.sqlite")
 mtest.run(["batch", archive, "--store", store, "--unit", "whole", "--quiet"])
 
 for text in ["Kind", "kind oskar", "Ward", "Edward", "Pell", "Ward-Pell", "F.", "Marlow F", "Sand Kind", "Lune Kind",
-             "Ödön", "漱石", "O'Neill", "O’Neill", "Neill"]:
+             "Ödön", "海風", "O'Neill", "O’Neill", "Neill"]:
     want = expected(text)
     proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "100", "--author", text], check=False)
     if len(want) < 2:
