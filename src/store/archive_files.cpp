@@ -47,6 +47,7 @@ std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inpu
                                             const Shard& shard, std::vector<UnlistedFolder>& unlisted,
                                             LeftAside& left_aside, std::vector<std::string>& empty_inputs) {
   std::vector<ArchiveFile> out;
+  const FolderFilter in_folder(filter);
   for (const auto& input : inputs) {
     const bool folder = fs::is_directory(input);
     const std::vector<std::string> found = expand_inputs({input}, &unlisted, &left_aside);
@@ -55,7 +56,7 @@ std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inpu
       ArchiveFile f;
       f.path = path;
       f.relative_path = folder ? relative_to_folder(path, input) : fs::path(path).filename().string();
-      if (!in_folder(filter, f.path, f.relative_path) || !in_shard(f.relative_path, shard)) continue;
+      if (!in_folder.holds(f.path, f.relative_path) || !in_shard(f.relative_path, shard)) continue;
       stat_file(f.path, f.size, f.mtime_ns);
       out.push_back(std::move(f));
     }

@@ -48,20 +48,16 @@ bool author_matches(const std::string& authors, const std::string& wanted) {
   }
 }
 
-// The working folder's spellings (taken once: a run does not change it): as the system
-// resolves it, and as the shell spells it ($PWD, which keeps the links it was reached
-// through) where that names the same folder otherwise.
-const std::vector<std::filesystem::path>& working_folder_spellings() {
-  static const std::vector<std::filesystem::path> spellings = [] {
-    std::vector<std::filesystem::path> out{std::filesystem::current_path()};
-    std::error_code ec;
-    const char* pwd = std::getenv("PWD");
-    if (pwd && *pwd == '/' && std::filesystem::path(pwd) != out.front() &&
-        std::filesystem::equivalent(pwd, ".", ec))
-      out.emplace_back(pwd);
-    return out;
-  }();
-  return spellings;
+// The working folder's spellings: as the system resolves it, and as the shell spells it
+// ($PWD, which keeps the links it was reached through) where that names the same folder
+// otherwise.
+std::vector<std::filesystem::path> working_folder_spellings() {
+  std::vector<std::filesystem::path> out{std::filesystem::current_path()};
+  std::error_code ec;
+  const char* pwd = std::getenv("PWD");
+  if (pwd && *pwd == '/' && std::filesystem::path(pwd) != out.front() && std::filesystem::equivalent(pwd, ".", ec))
+    out.emplace_back(pwd);
+  return out;
 }
 
 // `path` made absolute against `working_folder` and lexically normal: "a/./b/../c" against
@@ -105,33 +101,37 @@ bool ArchiveFilter::years_overlap(int first, int last) const {
   return first != 0 && (!year_from || last >= year_from) && (!year_to || first <= year_to);
 }
 
-bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::string& relative_path) {
-  if (filter.folder.empty()) return true;
-  const std::string& given = filter.folder;
-  const std::string folder = tidy_folder(given);
+FolderFilter::FolderFilter(const ArchiveFilter& filter) : given_(filter.folder) {
+  if (given_.empty()) return;
+  folder_ = tidy_folder(given_);
   // A bare name ("de", "de/") is a folder below an input, or an input given in that very
   // spelling; not also a folder de that happens to lie below the working folder. A path
   // from the working folder ("./x", "../arch/de", "/data/arch/de", "." or "..") is that
   // folder alone. Anything else with a '/' ("arch/de", "1850/letters") may be below an
   // input, or a path in any spelling.
-  const bool from_working_folder = given == "." || given == ".." || given.rfind("./", 0) == 0 ||
-                                   given.rfind("../", 0) == 0 || given.front() == '/';
-  const bool bare_name = !from_working_folder && folder.find('/') == std::string::npos;
+  from_working_folder_ = given_ == "." || given_ == ".." || given_.rfind("./", 0) == 0 ||
+                         given_.rfind("../", 0) == 0 || given_.front() == '/';
+  bare_name_ = !from_working_folder_ && folder_.find('/') == std::string::npos;
+  if (bare_name_) return;
+  // The folder made absolute against the working folder, in each of its spellings, with
+  // what a relative stored path is relative to: where batch ran (stored_paths_base), else
+  // that same working folder.
+  for (const auto& working_folder : working_folder_spellings())
+    absolute_.push_back({absolute_spelling(given_, working_folder),
+                         filter.stored_paths_base.empty() ? working_folder
+                                                          : std::filesystem::path(filter.stored_paths_base)});
+}
+
+bool FolderFilter::holds(const std::string& path, const std::string& relative_path) const {
+  if (given_.empty()) return true;
   std::string tidy_path = path;
   while (tidy_path.rfind("./", 0) == 0) tidy_path.erase(0, 2);
-  if (!from_working_folder && (starts_with_folder(relative_path, folder) || starts_with_folder(tidy_path, folder)))
+  if (!from_working_folder_ && (starts_with_folder(relative_path, folder_) || starts_with_folder(tidy_path, folder_)))
     return true;
-  if (bare_name) return false;
-  // Both made absolute against the working folder (in each of its spellings) and tidied,
-  // without reading the disk: "/data/arch/de" for "arch/de", "arch/x/../de", a folder
-  // reached through a link.
-  // A relative stored path is relative to where batch ran (stored_paths_base), the folder
-  // asked to the working folder.
-  for (const auto& working_folder : working_folder_spellings()) {
-    const std::filesystem::path& base =
-        filter.stored_paths_base.empty() ? working_folder : std::filesystem::path(filter.stored_paths_base);
-    if (starts_with_folder(absolute_spelling(path, base), absolute_spelling(given, working_folder))) return true;
-  }
+  // Both absolute and tidied, without reading the disk: "/data/arch/de" for "arch/de",
+  // "arch/x/../de", a folder reached through a link.
+  for (const auto& [folder, base] : absolute_)
+    if (starts_with_folder(absolute_spelling(path, base), folder)) return true;
   return false;
 }
 

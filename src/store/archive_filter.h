@@ -4,7 +4,10 @@
 // analysis reads no XML. Author and title ignore letter case (text/caseless_match.h);
 // languages compare as canonical tags (text/language_tags.h).
 #pragma once
+#include <filesystem>
 #include <string>
+#include <utility>
+#include <vector>
 
 #include "core/file_reading.h"
 
@@ -38,7 +41,24 @@ struct ArchiveFilter {
   std::string describe() const;
 };
 
-bool in_folder(const ArchiveFilter& filter, const std::string& path, const std::string& relative_path);
+// A filter's --folder, prepared once (its reading, its absolute spellings from the working
+// folder as it is now) for the many files it is asked about.
+class FolderFilter {
+ public:
+  explicit FolderFilter(const ArchiveFilter& filter);
+  // Whether the file at `path` (as stored or listed; `relative_path` below its input) lies
+  // in the folder; true when no folder is asked.
+  bool holds(const std::string& path, const std::string& relative_path) const;
+
+ private:
+  std::string given_;   // as typed
+  std::string folder_;  // tidied: "./a/b/" as "a/b"
+  bool from_working_folder_ = false;  // "./x", "../x", "/x", ".", ".."
+  bool bare_name_ = false;            // "de", "de/"
+  // The folder's absolute spelling for each spelling of the working folder, with the
+  // folder that relative stored paths are relative to.
+  std::vector<std::pair<std::string, std::filesystem::path>> absolute_;
+};
 
 // Whether `path` lies below `folder` (a prefix ending at a '/', of the path or the folder).
 bool starts_with_folder(const std::string& path, const std::string& folder);

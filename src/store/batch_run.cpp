@@ -135,6 +135,7 @@ std::vector<VanishedFile> vanished_files(const Request& request, const BatchOpti
                        [&path](const UnlistedFolder& folder) { return starts_with_folder(path, folder.path); });
   };
   const InputScope scope(request.inputs);
+  const FolderFilter in_folder(options.filter);
   std::unordered_set<std::string> found_resolved;  // made at the first stored path not found
   const auto respelled = [&](const std::string& path) {
     if (found_resolved.empty())
@@ -146,7 +147,7 @@ std::vector<VanishedFile> vanished_files(const Request& request, const BatchOpti
     if (found.count(path)) continue;
     if (respelled(path))
       out.push_back({path, true});
-    else if (scope.covers(path) && !under_unlisted(path) && in_folder(options.filter, path, f.relative_path) &&
+    else if (scope.covers(path) && !under_unlisted(path) && in_folder.holds(path, f.relative_path) &&
              in_shard(f.relative_path, options.shard))
       out.push_back({path, false});
   }

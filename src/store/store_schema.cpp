@@ -259,12 +259,15 @@ std::unique_ptr<Database> open_store_once(const std::string& path, bool create) 
   // that each let go of what they hold (see there).
   db->exec("PRAGMA busy_timeout = 0");
   // Whether it is a store is asked before anything is written: switching another
-  // application's SQLite file to WAL (below) would change that file for good.
+  // application's SQLite file to WAL (below) would change that file for good. (The lock
+  // taken here is kept, so the answer holds for the transaction below.)
+  bool has_tables = false;
   {
     Statement tables = db->prepare(
         "SELECT count(*), count(CASE WHEN name = 'store_info' THEN 1 END) FROM sqlite_master WHERE type = 'table'");
     tables.step();
-    if (tables.int64_at(0) > 0 && tables.int64_at(1) == 0)
+    has_tables = tables.int64_at(0) > 0;
+    if (has_tables && tables.int64_at(1) == 0)
       throw Error(ErrorKind::bad_input, path + " is an SQLite file but not a manicule store (left as it was)");
   }
   // 16 KiB pages for a new store (an existing one keeps its own): most of what is stored
@@ -295,16 +298,7 @@ std::unique_ptr<Database> open_store_once(const std::string& path, bool create) 
   // reads every stored count, a re-run its lists of files and results.
   db->exec("PRAGMA mmap_size = 1073741824");
   Transaction t(*db);
-  bool has_tables = false;
-  {
-    Statement tables = db->prepare("SELECT count(*) FROM sqlite_master WHERE type = 'table'");
-    tables.step();
-    has_tables = tables.int64_at(0) > 0;
-  }
   if (has_tables) {
-    Statement info = db->prepare("SELECT count(*) FROM sqlite_master WHERE type = 'table' AND name = 'store_info'");
-    info.step();
-    if (info.int64_at(0) == 0) throw Error(ErrorKind::bad_input, path + " is an SQLite file but not a manicule store");
     Statement version = db->prepare("SELECT value FROM store_info WHERE key = 'format'");
     std::string found = version.step() ? version.text_at(0) : "";
     version.reset();
@@ -354,17 +348,22 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
   }
 }
 
+namespace {
+
+// The store at `path` with the files SQLite keeps beside it (log, shared memory, journal).
+void remove_store_files(const std::string& path) {
+  // Called while another error is on its way: a file that cannot go stays, unsaid.
+  std::error_code ec;
+  for (const char* suffix : {"", "-wal", "-shm", "-journal"}) std::filesystem::remove(path + suffix, ec);
+}
+
+}  // namespace
+
 void discard_new_store(std::unique_ptr<Database> db) {
   const std::string path = db->path();
   db->keep_log_file_on_close();
   remove_store_files(path);
   db.reset();
-}
-
-void remove_store_files(const std::string& path) {
-  // Called while another error is on its way: a file that cannot go stays, unsaid.
-  std::error_code ec;
-  for (const char* suffix : {"", "-wal", "-shm", "-journal"}) std::filesystem::remove(path + suffix, ec);
 }
 
 }  // namespace manicule::store

@@ -37,10 +37,6 @@ inline constexpr int kStoreFormat = 3;
 // Opens the store (creating file and tables when `create`), locks it and checks its format.
 std::unique_ptr<Database> open_store(const std::string& path, bool create);
 
-// Removes the store at `path` with the files SQLite keeps beside it (log, shared memory,
-// journal); for a store just created by a command that then failed.
-void remove_store_files(const std::string& path);
-
 // Removes a store this run created and left empty, then closes it. Its files are unlinked
 // while the run still holds the lock, so that a run waiting for it finds no store and makes
 // its own; and the closing leaves the log's name alone, which by then may be that run's.

@@ -57,6 +57,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
         "json_extract(parameters, '$.working_folder') IS NOT NULL ORDER BY run_id DESC LIMIT 1");
     if (base.step()) filter.stored_paths_base = base.text_at(0);
   }
+  const FolderFilter in_folder(filter);
   StoredSelection out;
   Statement files = db.prepare(
       "SELECT f.path, f.relative_path, f.sha256, r.status, r.title, r.author, r.date, r.year, r.language, "
@@ -71,7 +72,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     // The folder first: a file outside it is no concern of this analysis, read or not,
     // failed or not (its counts would otherwise be reported as missing from a sub-corpus
     // it was never part of).
-    if (!in_folder(filter, path, files.text_at(1))) {
+    if (!in_folder.holds(path, files.text_at(1))) {
       ++out.files_filtered_out;
       continue;
     }

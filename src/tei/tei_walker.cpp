@@ -601,10 +601,8 @@ struct TeiWalker::State {
   // "Reling, Jonas".
   void shape_capture_around(Frame& f, bool line_break) {
     if (f.name == "note") {
-      if (!f.muted) {
-        f.muted = true;
-        ++muted_depth;
-      }
+      f.muted = true;
+      ++muted_depth;
       return;
     }
     const bool name_part = f.name == "forename" || f.name == "surname" || f.name == "roleName" ||

@@ -8,6 +8,7 @@
 #include <memory>
 
 #include "core/error.h"
+#include "tei/xml_error_text.h"
 
 namespace manicule {
 
@@ -19,10 +20,7 @@ struct XPathErrors {
 
 void on_xpath_error(void* user, xmlErrorPtr error) {
   auto errors = static_cast<XPathErrors*>(user);
-  if (errors->message.empty() && error && error->message) {
-    errors->message = error->message;
-    while (!errors->message.empty() && errors->message.back() == '\n') errors->message.pop_back();
-  }
+  if (errors->message.empty() && error && error->message) errors->message = one_line_message(error->message);
 }
 
 std::string not_elements_message(const std::string& expression) {

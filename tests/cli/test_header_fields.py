@@ -26,12 +26,12 @@ under the rules written down here, each from TEI P5 or tei-conventions.md:
 import os
 import re
 import sys
-import unicodedata
 from collections import Counter
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
+from unicode_words import spaceless  # noqa: E402
 from lxml import etree  # noqa: E402
 
 TEI = "http://www.tei-c.org/ns/1.0"
@@ -108,11 +108,6 @@ def expected_title(root):
     main = [t for t in titles if t.get("type") == "main"]
     chosen = main[0] if main else [t for t in titles if t.get("type") != "sub"][0]
     return whole(chosen)
-
-
-def spaceless(c):
-    """Han and kana, written without spaces (Unicode's character names, Python's unicodedata)."""
-    return unicodedata.name(c, "").startswith(("CJK UNIFIED IDEOGRAPH", "HIRAGANA", "KATAKANA"))
 
 
 def text_with_breaks(element, before=""):

@@ -58,8 +58,11 @@ for input_spelling in ("archive", os.path.join(tmp, "archive")):
         mtest.run(["batch", input_spelling, "--store", part, "--unit", "letter", "--quiet", "--folder", spelling],
                   cwd=tmp)
         run = storecheck.last_run(part)
-        mtest.check(run["files_read"] == len(want), "batch input %s --folder %s read %d files, os.path gives %d"
-                    % (input_spelling, spelling, run["files_read"], len(want)))
+        db = storecheck.connect(part)
+        read = {os.path.abspath(os.path.join(tmp, r[0])) for r in db.execute("SELECT path FROM files")}
+        db.close()
+        mtest.check(run["files_read"] == len(want) and read == want, "batch input %s --folder %s read %r, os.path "
+                    "gives %r" % (input_spelling, spelling, sorted(read), sorted(want)))
 
 # Stored paths relative to where batch ran (the store from the input "archive"), asked from
 # inside the archive as "./de": the folder de below the input, which it is.

@@ -43,8 +43,8 @@ with tempfile.TemporaryDirectory() as tmp:
             if p.returncode == 0:
                 alone = os.path.join(tmp, "alone.sqlite")
                 shutil.copy(store, alone)
+                check = storecheck.integrity(alone)
                 db = sqlite3.connect(alone)
-                check = db.execute("PRAGMA integrity_check").fetchone()[0]
                 held = sorted(r[0] for r in db.execute("SELECT path FROM files"))
                 db.close()
                 os.remove(alone)
