@@ -32,7 +32,7 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
   auto flags = std::make_shared<Flags>();
   command->add_option("--store", flags->store, "the SQLite store made by batch")->required()->check(not_blank());
   command->add_option("--settings", flags->settings,
-                      "which reading settings' counts (see --list-settings; default: those of the latest batch run)");
+                      "which reading settings' counts (see --list-settings; default: those of the latest batch run, or a merged store's only ones)");
   command->add_flag("--list-settings", flags->list, "list the reading settings the store holds, and stop");
   analysis->add_to(*command);
   filters->add_to(*command);

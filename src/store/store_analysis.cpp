@@ -75,7 +75,7 @@ std::vector<AttributionRow> attribution_rows(const Request& request, Analysis& a
 // file passes the filter, no file was read with these settings, the files hold no segment
 // of this unit, or their segments are too short.
 Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& selection, const StoredCorpus& stored,
-                            const Request& request) {
+                            const Request& request, bool other_settings_stored) {
   const std::size_t files = selection.paths.size();
   const std::size_t long_enough = stored.corpus.segments.size();
   const std::size_t found = long_enough + stored.segments_too_short;
@@ -101,7 +101,10 @@ Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& 
     what = "none of the " + std::to_string(other_years) + " segment(s) of the " + std::to_string(files) +
            " file(s) chosen is dated in the years asked (by its own date, a letter's, else its file's): widen --years";
   } else if (found == 0) {
-    what = "the " + of_files + " hold no segment of this unit: try another --unit in batch";
+    what = "the " + of_files + " hold no segment of this unit: try another --unit in batch" +
+           std::string(other_settings_stored ? ", or the store's counts under other settings (analyse-store "
+                                               "--settings, see --list-settings)"
+                                             : "");
   } else {
     what = "of the " + std::to_string(found) + " segment(s) of the " + of_files + ", " + std::to_string(long_enough) +
            (long_enough == 1 ? " has " : " have ") + std::to_string(request.feature_space.min_segment_tokens) +
@@ -215,7 +218,8 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
                                            request.feature_space.min_segment_tokens, fresh, options.progress);
   result.files = stored.corpus.files.size();
   result.segments = stored.corpus.segments.size();
-  if (stored.corpus.segments.size() < 2) throw too_little_to_analyse(filter, selection, stored, request);
+  if (stored.corpus.segments.size() < 2)
+    throw too_little_to_analyse(filter, selection, stored, request, list_settings(db).size() > 1);
   if (blas.valid()) blas.get();
   // The log holds what the batch just stored (up to 64 MiB): copying it into the database
   // waits on the disk (two syncs, 30 and 18 ms after the novels' batch), which the store's

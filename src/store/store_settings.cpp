@@ -102,6 +102,13 @@ std::int64_t latest_batch_settings(Database& db) {
   if (latest.step()) return latest.int64_at(0);
   auto all = list_settings(db);
   if (all.empty()) throw Error(ErrorKind::nothing_selected, "the store " + db.path() + " holds no counts yet (run batch)");
+  // A store made by merge alone has no batch run to say which counts are meant: with one
+  // settings that is clear; with several, taking one by the order of the merge's inputs
+  // would analyse a part of the archive nobody asked for.
+  if (all.size() > 1)
+    throw Error(ErrorKind::usage, "the store " + db.path() + " holds counts read under " + std::to_string(all.size()) +
+                                      " reading settings and no batch run says which to take (a store made by merge): "
+                                      "choose them with --settings (see --list-settings)");
   return all.back().id;
 }
 

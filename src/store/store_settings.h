@@ -46,8 +46,9 @@ std::string settings_key(Database& db, std::int64_t settings_id);
 
 std::vector<StoredSettings> list_settings(Database& db);
 
-// The settings of the latest batch run (else the newest stored); Error(nothing_selected)
-// when the store holds no counts yet.
+// The settings of the latest batch run, else the only ones stored (a store made by merge);
+// Error(nothing_selected) when the store holds no counts yet, Error(usage) when it holds
+// several settings and no batch run.
 std::int64_t latest_batch_settings(Database& db);
 
 // Sets the reading options of `request` from a stored settings JSON.

@@ -6,7 +6,8 @@ counts by feature form, vocabulary) and an analysis of it must be identical, apa
 run ids and times; a merge refuses an input that is not a store before it creates its
 output, and a share with no file says so; a malformed --shard and a store that cannot be
 opened are refused with their reason, and a damaged segment is named by analyse-store and
-merge, a merge into a new store then leaving nothing behind. Outside references: Python's hashlib for every stored SHA-256 and for
+merge, a merge into a new store then leaving nothing behind; a merged store of two
+reading settings is analysed only under the --settings asked. Outside references: Python's hashlib for every stored SHA-256 and for
 the documented shard rule (1 + first 8 bytes of SHA-256(relative path) mod N), SQLite's
 own PRAGMA integrity_check, and lxml for each play's title.
 """
@@ -92,6 +93,30 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.run(["batch", archive, "--store", unfolded, "--shard", "1/3", "--no-fold"] + common)
     proc = mtest.run(["merge", os.path.join(tmp, "mixed.sqlite"), shards[1], unfolded])
     mtest.check("under 2 different reading settings" in proc.stderr, "a share read with --no-fold merged silently: " + proc.stderr)
+    # That merged store has no batch run to say which counts an analysis takes: without
+    # --settings it is refused (exit 2, naming --settings) rather than one settings taken by
+    # the order of the merge's inputs; with --settings each analysis takes the files read
+    # under it, as Python's sqlite3 finds them in the readings table.
+    mixed = os.path.join(tmp, "mixed.sqlite")
+    proc = mtest.run(["analyse-store", "--store", mixed, "--min-tokens", "100", "--quiet"], check=False)
+    mtest.check(proc.returncode == 2 and "--settings" in proc.stderr and "2 reading settings" in proc.stderr,
+                "a merged store of two settings analysed without --settings: exit %d, %s" % (proc.returncode, proc.stderr))
+    db = sqlite3.connect(mixed)
+    settings_ids = [row[0] for row in db.execute("SELECT settings_id FROM settings ORDER BY settings_id")]
+    db.close()
+    mtest.check(len(settings_ids) == 2, "expected 2 settings in the merged store, got %r" % settings_ids)
+    for settings_id in settings_ids:
+        mtest.run(["analyse-store", "--store", mixed, "--settings", str(settings_id), "--min-tokens", "100", "--quiet"])
+        db = sqlite3.connect(mixed)
+        read = {row[0] for row in db.execute(
+            "SELECT sha256 FROM readings WHERE settings_id = ? AND status = 'ok'", (settings_id,))}
+        run_id = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis'").fetchone()[0]
+        analysed = {row[0] for row in db.execute("SELECT DISTINCT sha256 FROM analysis_segments WHERE run_id = ?", (run_id,))}
+        run_settings = db.execute("SELECT settings_id FROM runs WHERE run_id = ?", (run_id,)).fetchone()[0]
+        db.close()
+        mtest.check(run_settings == settings_id and analysed and analysed <= read,
+                    "analysis under --settings %d took settings %r, files outside its readings: %r" %
+                    (settings_id, run_settings, sorted(analysed - read)))
 
     # An input that is not a store (here a TEI file, as sqlite3 itself would refuse it) is
     # refused with exit code 3 (bad input) and its name, before the output is created, and
