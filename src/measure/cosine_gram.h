@@ -31,17 +31,17 @@ struct RowLengths {
 };
 RowLengths row_lengths(const RowMatrix& rows);
 
-// 1 - cos of rows a and b from their dot product, in [0, 2]. The larger row's length is
-// applied first whichever way round they are given, so that a distance is the same bits
-// whether it comes from the full matrix or from blocks of the same dot product.
+// 1 - cos of rows a and b from their dot product, in [0, 2]: the same bits whichever way
+// round they are given, and whether the dot product comes from the full matrix or from
+// blocks of it.
 inline double cosine_from_dot(double dot, const RowLengths& lengths, std::size_t a, std::size_t b) {
   constexpr double kRoundingNoise = 64 * std::numeric_limits<double>::epsilon();
-  const std::size_t larger = std::max(a, b);
-  const std::size_t smaller = std::min(a, b);
-  const bool zero_larger = lengths.zero[larger];
-  const bool zero_smaller = lengths.zero[smaller];
-  double d = 1.0 - dot * lengths.inverse[larger] * lengths.inverse[smaller];
-  if (zero_larger || zero_smaller) d = zero_larger && zero_smaller ? 0.0 : 1.0;
+  // The two lengths multiplied first: the same for (a, b) and (b, a), and for any two rows
+  // of equal values, so that equal profiles are at exactly one distance from a third and
+  // the tie rule (row order) decides between them. (dot * 1/|a| * 1/|b| rounded each step
+  // in an order that followed the rows' places, and put equal rows an ulp apart.)
+  double d = 1.0 - dot * (lengths.inverse[a] * lengths.inverse[b]);
+  if (lengths.zero[a] || lengths.zero[b]) d = lengths.zero[a] && lengths.zero[b] ? 0.0 : 1.0;
   // Below this, 1 - cos is rounding noise of the dot product (identical rows).
   if (d < kRoundingNoise) d = 0.0;
   return std::min(d, 2.0);

@@ -6,7 +6,8 @@ Deltas of Burrows, Argamon and Eder, Manhattan, Euclidean) against cdist and for
 against numpy.
 
 The matrix holds the cases the block loop must get right: rows that are equal (ties between
-two neighbours), a row that is a multiple of another (distance 0 up to rounding), two zero
+two neighbours, which must be at exactly the same distance from every other row so that the
+documented tie rule, row order, decides), a row that is a multiple of another (distance 0 up to rounding), two zero
 rows (the documented rule of src/measure/cosine_gram.h: distance 0 between them, 1 to every
 other row, where SciPy gives NaN), and more rows than most block sizes, so that pairs fall
 inside one block, across two blocks, and in a last block that is shorter. Each case runs
@@ -30,11 +31,13 @@ require_driver()
 
 rng = np.random.default_rng(20261202)
 X = rng.standard_normal((41, 23))
-X[7] = X[3]          # equal rows: every row is as near to 3 as to 7
+X[7] = X[3]          # equal rows: every row is as near to 3 as to 7, and to 10
+X[10] = X[3]         # (rows 3 and 7 start 8 bytes past a 16-byte boundary, row 10 on one)
 X[12] = 2.5 * X[5]   # same direction: cosine distance 0 (SciPy: rounding noise)
 X[20] = 0.0          # zero rows
 X[33] = 0.0
 ids = ["r%02d" % i for i in range(len(X))]
+EQUAL_ROWS = [(3, 7, 10), (20, 33)]
 features = ["f%d" % i for i in range(X.shape[1])]
 TOLERANCE = 1e-12  # absolute, on distances of order 1; the dot products are summed in another order
 
@@ -83,6 +86,18 @@ def check_nearest(text, reference, k, what):
             mtest.check(abs(distance - reference[i, j]) <= TOLERANCE,
                         "%s: %s-%s %.17g, SciPy %.17g" % (what, row, neighbour, distance, reference[i, j]))
             mtest.check(abs(distance - want) <= TOLERANCE, "%s: rank %d of %s" % (what, rank, row))
+        # Rows of equal values are at exactly the same distance from every row (not an ulp
+        # apart, as a sum whose order followed their place in memory once gave), so that the
+        # tie rule below decides between them: a later one is listed only after the earlier.
+        listed = {ids.index(nb): d for _, nb, d in ours}
+        for group in EQUAL_ROWS:
+            if i in group:
+                continue
+            distances = {listed[j] for j in group if j in listed}
+            mtest.check(len(distances) <= 1, "%s: %s at %r from rows of equal values %r" % (what, row, distances, group))
+            members = [j for j in group if j in listed]
+            mtest.check(members == list(group[:len(members)]), "%s: %s lists %r of the equal rows %r"
+                        % (what, row, members, group))
         # nearest first; equal distances in row order (the documented tie rule)
         for (_, a, da), (_, b, db) in zip(ours, ours[1:]):
             mtest.check(da < db or (da == db and a < b), what + ": order of " + row)
@@ -144,6 +159,7 @@ for j in range(1, 15):
     near.append(v + 1e-4 * np.sqrt(j) * w / np.linalg.norm(w))
 Y = np.vstack(near + [cluster_rng.standard_normal(40) for _ in range(25)])
 Y[30] = Y[4]  # an exact tie inside the cluster's reach
+EQUAL_ROWS = [(4, 30)]
 ids = ["r%02d" % i for i in range(len(Y))]
 features = ["f%d" % i for i in range(Y.shape[1])]
 with tempdir() as directory:
