@@ -48,9 +48,15 @@ std::vector<std::size_t> keep_large_segments(const CountProfile& profile,
     }
   }
   if (kept.empty()) {
+    // Lowering the minimum helps only where it is above one word and some segment has a word.
+    std::size_t largest = 0;
+    for (const SegmentCounts& segment : profile.segments) largest = std::max(largest, segment.tokens);
     throw Error(ErrorKind::nothing_selected,
-                "no segment is large enough: all " + std::to_string(profile.segments.size()) +
-                    " have fewer than " + std::to_string(options.min_segment_tokens) + " tokens");
+                largest == 0 ? "no segment holds a word: all " + std::to_string(profile.segments.size()) +
+                                   " are empty (choose another unit, or check what the selection leaves out)"
+                             : "no segment is large enough: all " + std::to_string(profile.segments.size()) +
+                                   " have fewer than " + std::to_string(options.min_segment_tokens) +
+                                   " words, the largest " + std::to_string(largest) + " (lower it with --min-tokens)");
   }
   return kept;
 }

@@ -117,8 +117,13 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(len(rows) == 1 and all(v == 0.0 for v in rows["one#L01"]), "profile of one segment: z = 0")
 
     # No segment large enough: a clear error.
+    # It says what would help (docs/measures.md: "whether lowering --min-tokens would help"),
+    # with the largest segment's words, counted here as a run of letters (the letters are
+    # invented in ASCII words, so re's \w+ and UAX #29 agree on them).
     proc = mtest.run(["distances", path, "--unit", "letter"], check=False)  # default minimum 1500 words
-    mtest.check(proc.returncode == 4 and "1500" in proc.stderr, "too small for the default minimum: %s" % proc.stderr)
+    largest = max(len(re.findall(r"[^\W\d_]+(?:'[^\W\d_]+)*", " ".join(letter[3]))) for letter in letters)
+    mtest.check(proc.returncode == 4 and "fewer than 1500 words, the largest %d (lower it with --min-tokens)" % largest
+                in proc.stderr, "too small for the default minimum: %s" % proc.stderr)
 
 # A stop list leaves its words out of the features, and the run says which list it was:
 # its file, its word count and its SHA-256 (hashlib), in the TSV header, the JSON
