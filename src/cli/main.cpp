@@ -10,6 +10,7 @@
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
 #include "cli/number_checks.h"
+#include "cli/unknown_command.h"
 #include "core/error.h"
 #include "manicule_version.h"
 #include "measure/cosine_gram.h"
@@ -33,6 +34,12 @@ int main(int argc, char** argv) {
   const std::vector<cli::CommandEntry> entries = cli::all_commands();
   const std::string first = argc > 1 ? argv[1] : "";
   const bool named = std::any_of(entries.begin(), entries.end(), [&](const auto& e) { return first == e.name; });
+  if (!named && !first.empty() && first.front() != '-') {
+    std::vector<std::string> names;
+    for (const auto& entry : entries) names.emplace_back(entry.name);
+    std::cerr << cli::unknown_command_message(first, names);
+    return cli::kExitUsage;
+  }
   std::vector<std::pair<CLI::App*, cli::CommandRunner>> commands;
   for (const auto& entry : entries) {
     if (named && first != entry.name) continue;

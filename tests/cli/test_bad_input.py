@@ -440,4 +440,19 @@ p = run_segments(deep)
 mtest.check(p.returncode == 3 and "deep.xml:2" in p.stderr and "nested more than 10000 levels" in p.stderr,
             "20,000 levels deep: exit %d, %s" % (p.returncode, p.stderr))
 
+# 24. A first word that names no command: said with the word and the commands, as the help
+# lists them (its "Subcommands:" section), not CLI11's "A subcommand is required"; a
+# spelling one edit from a command is answered with that command (the American spelling
+# of analyse-store; common practice, no source), a word far from every one with none.
+listed = re.findall(r"^  (\S+) {2,}", subprocess.run([mtest.BIN, "--help"], capture_output=True, text=True)
+                    .stdout.split("Subcommands:")[1], re.M)
+mtest.check(len(listed) >= 10 and "analyse-store" in listed, "the help's commands: %r" % listed)
+for word, suggested in (("analyze-store", "analyse-store"), ("frobnicate", None)):
+    p = subprocess.run([mtest.BIN, word, "--store", "x.sqlite"], capture_output=True, text=True)
+    said = re.search(r"The commands are: (.*) \(manicule --help", p.stderr)
+    mtest.check(p.returncode == 2 and ("no command '%s'" % word) in p.stderr and said is not None
+                and said.group(1).split() == listed and ("did you mean" in p.stderr) == (suggested is not None)
+                and (suggested is None or "did you mean %s?" % suggested in p.stderr),
+                "unknown command %r: exit %d, %s" % (word, p.returncode, p.stderr))
+
 mtest.done()
