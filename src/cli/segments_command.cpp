@@ -11,6 +11,7 @@
 #include "core/error.h"
 #include "core/provenance.h"
 #include "core/utf8_text.h"
+#include "tei/xpath_name_hint.h"
 
 namespace manicule::cli {
 
@@ -69,7 +70,8 @@ CommandRunner add_segments_command(CLI::App& app) {
     if (corpus.segments.empty()) {
       throw Error(ErrorKind::nothing_selected,
                   "no " + request.unit + " segment found in " + std::to_string(files.size()) +
-                      " file(s); try another --unit, or check that the edition marks them up");
+                      " file(s); try another --unit, or check that the edition marks them up" +
+                      unprefixed_name_hint(request.unit));
     }
     if (*format == "json") {
       nlohmann::json rows = nlohmann::json::array();

@@ -8,6 +8,7 @@
 #include "core/segment_index.h"
 #include "measure/nearest_rows.h"
 #include "measure/pairwise_distances.h"
+#include "tei/xpath_name_hint.h"
 
 namespace manicule {
 
@@ -93,7 +94,8 @@ Analysis analyse_counts(const Request& request, const Corpus& corpus, const Anal
   analysis.provenance = make_provenance(request, corpus);
   analysis.segments = summarise_segments(corpus);
   if (analysis.segments.empty())
-    throw Error(ErrorKind::nothing_selected, "no " + request.unit + " segment found in the input files");
+    throw Error(ErrorKind::nothing_selected,
+                "no " + request.unit + " segment found in the input files" + unprefixed_name_hint(request.unit));
 
   report_step(progress, "feature table");
   FeatureTable table = build_feature_table(corpus.counts, request.feature_space, request.threads);

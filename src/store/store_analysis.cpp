@@ -15,6 +15,7 @@
 #include "store/analysis_tables.h"
 #include "store/store_settings.h"
 #include "store/stored_corpus.h"
+#include "tei/xpath_name_hint.h"
 
 namespace manicule::store {
 
@@ -102,6 +103,7 @@ Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& 
            " file(s) chosen is dated in the years asked (by its own date, a letter's, else its file's): widen --years";
   } else if (found == 0) {
     what = "the " + of_files + " hold no segment of this unit: try another --unit in batch" +
+           unprefixed_name_hint(request.unit) +
            std::string(other_settings_stored ? ", or the store's counts under other settings (analyse-store "
                                                "--settings, see --list-settings)"
                                              : "");

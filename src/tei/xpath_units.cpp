@@ -5,10 +5,12 @@
 #include <libxml/xpathInternals.h>
 
 #include <algorithm>
+#include <cctype>
 #include <memory>
 
 #include "core/error.h"
 #include "tei/xml_error_text.h"
+#include "tei/xpath_name_hint.h"
 
 namespace manicule {
 
@@ -150,6 +152,22 @@ std::set<std::vector<int>> select_elements(xmlDocPtr doc, const std::string& exp
     throw Error(ErrorKind::usage, "the XPath '" + expression + "' does not select elements");
   }
   return targets;
+}
+
+std::string unprefixed_name_hint(const std::string& unit) {
+  constexpr std::string_view kPrefix = "xpath:";
+  if (unit.rfind(kPrefix, 0) != 0) return {};
+  for (std::string step : last_steps(unit.substr(kPrefix.size()))) {
+    if (const std::size_t axis_end = step.find("::"); axis_end != std::string::npos) step.erase(0, axis_end + 2);
+    step = step.substr(0, step.find('['));
+    const bool name = !step.empty() && (std::isalpha(static_cast<unsigned char>(step.front())) || step.front() == '_') &&
+                      std::all_of(step.begin(), step.end(), [](char c) {
+                        return std::isalnum(static_cast<unsigned char>(c)) || c == '_' || c == '-' || c == '.';
+                      });
+    if (name)
+      return "; '" + step + "' names an element outside any namespace, and TEI's are in TEI's own: write tei:" + step;
+  }
+  return {};
 }
 
 void check_xpath_unit(const std::string& expression) {

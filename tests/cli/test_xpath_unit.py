@@ -168,4 +168,22 @@ p = mtest.run(["segments", "--unit", "xpath:" + union, "--format", "json", play,
 got = len(json.loads(p.stdout)["segments"]) if p.returncode == 0 else -1
 mtest.check(by_lxml > 0 and got == by_lxml, "the union over both files: exit %d, %d segments, lxml %d elements: %s"
             % (p.returncode, got, by_lxml, p.stderr))
+
+# An element name without the tei: prefix names an element outside any namespace, which lxml
+# finds none of in a TEI file (XPath 1.0 has no default namespace), while the prefixed one
+# finds the divs: nothing found is then said with the name to prefix, in segments, in a
+# measuring command and in a store's analysis (exit 4 each).
+unprefixed, prefixed = "//div[@type='letter']", "//tei:div[@type='letter']"
+tree = etree.parse(letters_file)
+mtest.check(len(tree.xpath(unprefixed)) == 0 and len(tree.xpath(prefixed, namespaces={"tei": TEI})) > 1,
+            "lxml: the unprefixed name finds nothing, the prefixed one the letters")
+hint_store = os.path.join(store_dir, "hint.sqlite")
+for args in (["segments", "--unit", "xpath:" + unprefixed, letters_file],
+             ["distances", "--unit", "xpath:" + unprefixed, letters_file],
+             ["batch", letters_file, "--store", hint_store, "--unit", "xpath:" + unprefixed, "--analyse", "--quiet"]):
+    p = mtest.run(args, check=False)
+    mtest.check(p.returncode == 4 and "'div' names an element outside any namespace" in p.stderr
+                and "write tei:div" in p.stderr, "%s of xpath:%s: exit %d, %s" % (args[0], unprefixed, p.returncode, p.stderr))
+p = mtest.run(["segments", "--unit", "xpath:" + prefixed, letters_file])
+mtest.check("outside any namespace" not in p.stderr, "a hint for the prefixed name: " + p.stderr)
 mtest.done()
