@@ -74,6 +74,7 @@ SegmentRoles assign_roles(const Analysis& analysis, const AttributionOptions& op
   const std::set<std::string> impostor_files(options.impostor_files.begin(), options.impostor_files.end());
   std::map<std::string, std::pair<std::size_t, std::size_t>> unmeasured_sizes;  // label -> (segments, largest)
   std::set<std::string> measured_candidates;
+  std::string short_questioned;  // the first few, named
   for (std::size_t i = 0; i < n; ++i) {
     const SegmentSummary& s = analysis.segments[i];
     const bool measured = roles.table_row[i] != std::string::npos;
@@ -89,6 +90,8 @@ SegmentRoles assign_roles(const Analysis& analysis, const AttributionOptions& op
       } else {
         ++roles.questioned_too_short;
         roles.largest_too_short = std::max(roles.largest_too_short, s.tokens);
+        if (roles.questioned_too_short <= 5)
+          short_questioned += (short_questioned.empty() ? "" : ", ") + s.id + " (" + std::to_string(s.tokens) + " words)";
       }
       continue;
     }
@@ -101,6 +104,12 @@ SegmentRoles assign_roles(const Analysis& analysis, const AttributionOptions& op
     }
   }
   roles.candidates.assign(measured_candidates.begin(), measured_candidates.end());
+  // Named, as a question left unanswered should be: the count of segments left out does not
+  // say which of them were asked about. (With none measured, require_questioned says so.)
+  if (roles.questioned_too_short > 0 && !roles.with_role(SegmentRole::questioned).empty())
+    roles.warnings.push_back(std::to_string(roles.questioned_too_short) +
+                             " questioned segment(s) left out, shorter than the minimum size: " + short_questioned +
+                             (roles.questioned_too_short > 5 ? " and more" : "") + "; lower --min-tokens to ask of them");
   for (const auto& [name, sizes] : unmeasured_sizes) {
     if (measured_candidates.count(name)) continue;
     roles.warnings.push_back("candidate '" + name + "' left out: none of its " + std::to_string(sizes.first) +

@@ -6,6 +6,7 @@ src/cli/exit_codes.h for bad input (3), nothing to compare (4) and bad usage (2)
 """
 import json
 import os
+import re
 import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
@@ -127,6 +128,18 @@ proc = mtest.run(["attribute", "--unit", "letter", "--min-tokens", "315", LETTER
 mtest.check("candidate '#p-dunnock' left out" in proc.stderr, "a candidate without text must be named: " + proc.stderr)
 expect_failure(["attribute", "--unit", "letter", "--min-tokens", "380", LETTERS], 4,
                "at least 2 candidates", "'#p-abthorpe' left out")
+# Some of the questioned letters too short: each of those named in a note, with its words
+# (the questioned ones read with lxml above; their words as the run at 200 measured them),
+# not only counted among the segments left out.
+measured_at_200 = json_of["attribute"]["attributions"]
+too_short = sorted("%s (%d words)" % (a["segment"], a["words"]) for a in measured_at_200 if a["words"] < 320)
+asked = [a["segment"] for a in measured_at_200 if a["words"] >= 320]
+proc = mtest.run(["attribute", "--unit", "letter", "--min-tokens", "320", LETTERS])
+note = re.search(r"(\d+) questioned segment\(s\) left out, shorter than the minimum size: (.*); lower --min-tokens",
+                 proc.stderr)
+mtest.check(len(too_short) >= 1 and len(asked) >= 1 and note is not None and int(note.group(1)) == len(too_short)
+            and sorted(note.group(2).split(", ")) == too_short,
+            "questioned letters under 320 words %r, the note: %s" % (too_short, proc.stderr))
 # Questioned letters that are all too short: said so, not "no questioned segment". The
 # three questioned letters (lxml: L07, L10, L12 have no sure sender) are each under 360 words.
 expect_failure(["attribute", "--unit", "letter", "--min-tokens", "360", LETTERS], 4,
