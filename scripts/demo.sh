@@ -20,7 +20,7 @@ $m segments --unit letter examples/ferry-letters.xml
 echo
 echo "== The letters nearest each other (Cosine Delta on the 150 most frequent words;"
 echo "   the letters are short, so the minimum size is lowered to 200 words for the demo)"
-$m distances --unit letter --min-tokens 200 --ranks 1-150 --neighbours 3 --format tsv examples/ferry-letters.xml \
+$m distances --unit letter --min-tokens 200 --ranks 1-150 --format tsv examples/ferry-letters.xml \
   | grep -v '^#' | sort -t$'\t' -k3 -g | sed -n '1,8p'  # sed reads to the end: no broken pipe under pipefail
 
 echo

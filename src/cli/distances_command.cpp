@@ -3,6 +3,8 @@
 // before b in row order) under the "# key: value" parameter header, or JSON with the
 // provenance, the segments, the measure and its citation, the pairs and each segment's
 // nearest neighbours.
+#include <iostream>
+
 #include "cli/commands.h"
 #include "cli/measure_output.h"
 #include "cli/table_output.h"
@@ -41,7 +43,13 @@ CommandRunner add_distances_command(CLI::App& app) {
   auto* command = app.add_subcommand("distances", "Measure the distance between every two segments");
   auto options = std::make_shared<MeasureCommandOptions>();
   options->add_to(*command, {"tsv", "json"}, true, true);
+  // Here the nearest are a part of the JSON alone: the TSV holds every pair already.
+  CLI::Option* neighbours = command->get_option("--neighbours");
+  neighbours->description("nearest segments listed per segment in the JSON output (the TSV holds every pair)");
   return [=]() -> int {
+    if (neighbours->count() > 0 && options->format != "json")
+      std::cerr << "manicule: note: --neighbours shapes the JSON output's lists of nearest segments; the TSV "
+                   "holds every pair whatever it is (sort it by value for the nearest)\n";
     Request request = options->to_request();
     request.compute_distances = true;
     const Analysis analysis = run_analysis(request);
