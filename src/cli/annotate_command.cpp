@@ -109,7 +109,7 @@ CommandRunner add_annotate_command(CLI::App& app) {
       read.insert(read.end(), impostors.begin(), impostors.end());
     }
     Analysis analysis = analyse_for_standoff(request, read);
-    for (const auto& note : analysis.notes) std::cerr << "manicule: " << note << '\n';
+    for (const auto& note : analysis.notes) std::cerr << "manicule: note: " << note << '\n';
     if (attributing) {
       SegmentRoles roles = assign_roles_noting(analysis, request, {*attribute, *verify, false});
       if (*attribute)
@@ -134,7 +134,7 @@ CommandRunner add_annotate_command(CLI::App& app) {
         continue;
       }
       write_prepared(out, *settings);
-      for (const auto& note : out.notes) std::cerr << "manicule: " << out.path << ": " << note << '\n';
+      for (const auto& note : out.notes) std::cerr << "manicule: note: " << out.path << ": " << note << '\n';
       std::cerr << "manicule: wrote " << out.path;
       if (out.ids_added) std::cerr << " (xml:id given to " << out.ids_added << " elements)";
       std::cerr << '\n';

@@ -54,6 +54,11 @@ shutil.copy(LETTERS, edition)
 before = open(edition, "rb").read()
 proc = mtest.run(["annotate"] + BASE + SETTINGS + ["--attribute", "--verify", "--in-place", edition])
 mtest.check(CAUTION in proc.stderr, "annotate --attribute does not print the caution: " + proc.stderr)
+# Each line says what it is, as the other commands' do: a note, the caution, what was written
+# (notes once began "manicule: ranks 1-1000 reach past ...", like an error).
+kinds = ("manicule: note: ", "manicule: caution: ", "manicule: wrote ")
+mtest.check(proc.stderr.strip() and all(line.startswith(kinds) for line in proc.stderr.splitlines()),
+            "annotate's stderr lines: %r" % proc.stderr.splitlines())
 after = open(edition, "rb").read()
 _, problems = check_insertions(before, after)
 mtest.check(not problems, "edition bytes not kept or insertions misplaced: %s" % problems[:3])
