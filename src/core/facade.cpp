@@ -176,6 +176,12 @@ Analysis analyse_counts(const Request& request, const Corpus& corpus, const Anal
   if (request.compute_pca) {
     report_step(progress, "principal components");
     analysis.pca = principal_components(table, request.pca);
+    // n segments centred span at most n - 1 directions (and no more than the features).
+    if (const auto found = static_cast<std::size_t>(analysis.pca->explained_variance.size());
+        found < request.pca.components)
+      analysis.notes.push_back(std::to_string(request.pca.components) + " components asked, " + std::to_string(found) +
+                               " computed: " + std::to_string(table.segment_count()) + " segments and " +
+                               std::to_string(table.feature_count()) + " features give no more");
     params.emplace_back("pca input", request.pca.input == PcaInput::z_scores ? "z-scores" : "relative frequencies");
   }
   analysis.table = std::move(table);

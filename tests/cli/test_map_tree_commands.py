@@ -102,6 +102,14 @@ z = np.array([z_rows[i] for i in ids])
 mtest.check(len(ids) >= 20, "20+ speakers measured, got %d" % len(ids))
 
 # --- map: PCA --------------------------------------------------------------------------
+# More components asked than the segments span: as many as the centred z-scores' rank
+# (numpy.linalg.matrix_rank), and a note saying so.
+asked = len(ids) + 5
+proc = mtest.run(["map", "--format", "json", "--components", str(asked)] + SELECT)
+rank = int(np.linalg.matrix_rank(z - z.mean(axis=0)))
+got = len(json.loads(proc.stdout)["pca"]["components"])
+mtest.check(got == rank and "%d components asked, %d computed" % (asked, rank) in proc.stderr,
+            "%d components asked of rank %d: %d computed, %s" % (asked, rank, got, proc.stderr))
 doc = json.loads(mtest.run(["map", "--format", "json", "--components", "3", "--top", "5"] + SELECT).stdout)
 reference = PCA(n_components=3, svd_solver="full").fit(z)  # sklearn.decomposition.PCA
 ref_coords = reference.transform(z)
