@@ -78,4 +78,11 @@ with tempfile.TemporaryDirectory() as tmp:
     for key in ("tool", "created", "selection", "tokenizer", "features", "feature ranks", "values"):
         mtest.check(key in params, "parameter header has '%s'" % key)
 
+# --n above 1 with word features (the default) asks for n-grams it would not count: refused
+# with exit 2 naming the features that take it (common practice for contradictory options).
+example = os.path.join(mtest.ROOT, "examples", "ferry-play.xml")
+proc = mtest.run(["profile", "--n", "3", "--unit", "speaker", example], check=False)
+mtest.check(proc.returncode == 2 and "--features word-ngram or char-ngram" in proc.stderr and not proc.stdout,
+            "--n 3 with words: exit %d, %s" % (proc.returncode, proc.stderr))
+
 mtest.done()
