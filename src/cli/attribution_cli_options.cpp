@@ -99,6 +99,11 @@ Request AttributionCommandOptions::to_request() const {
   if (table == "verification" && !with_verification)
     throw Error(ErrorKind::usage, "--table verification needs --verification (the verification figures are computed "
                                   "only then)");
+  // Likewise: it shapes only verification problems, which evaluate makes with --verification
+  // or --pairs; without either it would be recorded and do nothing.
+  if (settings.author_absent && !with_verification && settings.verification_pairs == 0)
+    throw Error(ErrorKind::usage, "--author-absent shapes the verification figures: give --verification (or --pairs N) "
+                                  "with it");
   Request request = measuring.to_request();
   request.compute_distances = false;
   apply_settings(request);

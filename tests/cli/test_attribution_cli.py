@@ -144,6 +144,10 @@ mtest.check(len(too_short) >= 1 and len(asked) >= 1 and note is not None and int
 # three questioned letters (lxml: L07, L10, L12 have no sure sender) are each under 360 words.
 expect_failure(["attribute", "--unit", "letter", "--min-tokens", "360", LETTERS], 4,
                "3 questioned segment(s), all shorter than the minimum size")
+# --author-absent shapes verification problems alone: without --verification or --pairs,
+# evaluate makes none, so it is refused rather than recorded doing nothing; with one, taken.
+expect_failure(["evaluate", "--author-absent"] + BASE, 2, "--author-absent shapes the verification figures")
+mtest.run(["evaluate", "--author-absent", "--verification"] + BASE)
 # An empty labels file (or only its header) is refused: it is most likely the wrong file.
 expect_failure(["attribute", "--labels", labels([])] + BASE, 3, "no labelled row")
 # Impostors must be other texts: the edition itself, a folder holding it, or a copy of it
