@@ -172,8 +172,17 @@ EvaluationResult evaluate_labelled(const Analysis& analysis, const SegmentRoles&
   for (const auto& e : result.segments)
     if (!e.truth_had_other_text) ++alone;
   if (alone > 0) {
+    // With --leave-out-files, a candidate whose texts lie in one file has none left when one
+    // of them is held out: said, with the remedy, since a whole run of such errors otherwise
+    // reads as a failure of the method.
+    std::string why;
+    if (options.leave_out_files)
+      why = files.size() == 1 ? ": --leave-out-files holds out a segment's whole file, and this run has one file; "
+                                "give each candidate's texts in two files or more, or leave the option out"
+                              : ": --leave-out-files holds out a segment's whole file, and their candidate's texts "
+                                "all lie in that file";
     result.warnings.push_back(std::to_string(alone) + " held-out segment(s) had no other text of their candidate left " +
-                              "in; they count as errors");
+                              "in; they count as errors" + why);
   }
 
   if (with_verification || options.verification_pairs > 0) {

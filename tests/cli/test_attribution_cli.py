@@ -148,6 +148,13 @@ expect_failure(["attribute", "--unit", "letter", "--min-tokens", "360", LETTERS]
 # evaluate makes none, so it is refused rather than recorded doing nothing; with one, taken.
 expect_failure(["evaluate", "--author-absent"] + BASE, 2, "--author-absent shapes the verification figures")
 mtest.run(["evaluate", "--author-absent", "--verification"] + BASE)
+# --leave-out-files over one edition: every known letter (lxml: those with a sender) is held
+# out with its whole file, so none has a text of its candidate left; said with the cause.
+known_letters = [s for s, who in letter_senders(LETTERS, "ferry-letters").items() if who]
+tsv = mtest.run(["evaluate", "--leave-out-files"] + BASE).stdout
+mtest.check(("# warning: %d held-out segment(s) had no other text of their candidate left in" % len(known_letters)) in tsv
+            and "this run has one file" in tsv, "--leave-out-files over one file (%d known letters): %s"
+            % (len(known_letters), [line for line in tsv.splitlines() if "warning" in line]))
 # An empty labels file (or only its header) is refused: it is most likely the wrong file.
 expect_failure(["attribute", "--labels", labels([])] + BASE, 3, "no labelled row")
 # Impostors must be other texts: the edition itself, a folder holding it, or a copy of it
