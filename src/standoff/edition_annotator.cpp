@@ -55,6 +55,26 @@ Edition open_edition(const FileSnapshot& snapshot, bool for_writing) {
   return e;
 }
 
+// --who's pointers that name an xml:id of this document ("#ed"): each must be there, else the
+// change written would point at nothing (a schema does not check that). A results file of
+// its own holds no person entry: there a pointer into an edition is "edition.xml#ed".
+void check_who_pointers(const std::string& who, const Edition& e, bool separate) {
+  std::size_t start = 0;
+  while (start < who.size()) {
+    const std::size_t space = who.find_first_of(" \t\r\n", start);
+    const std::string pointer = who.substr(start, space == std::string::npos ? std::string::npos : space - start);
+    start = space == std::string::npos ? who.size() : space + 1;
+    if (pointer.empty() || pointer.front() != '#') continue;
+    if (separate)
+      throw Error(ErrorKind::usage, "--who " + pointer + " points into the results file, which holds no person entry: "
+                                    "write the edition's file before it (" + e.snapshot->path + pointer + ")");
+    if (!e.scan.xml_ids.count(pointer.substr(1)))
+      throw Error(ErrorKind::usage, "--who " + pointer + " names no xml:id in this edition: point at the entry of the "
+                                    "person responsible (a person or persName with that xml:id), or give a URI",
+                  e.snapshot->path);
+  }
+}
+
 // "#id" -> "id"; "xpath(...)" stays: a TEI pointer is an XPointer, so it is written as a
 // fragment ("#xpath(...)", "edition.xml#xpath(...)"), as SATS (17.2.4) does.
 std::string strip_hash(const std::string& pointer) {
@@ -127,6 +147,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     check_analysed_bytes(analysis, snapshot);
     open.push_back(open_edition(snapshot, !separate));
     Edition& e = open.back();
+    check_who_pointers(settings.standoff.who, e, separate);
     e.document_path = separate ? settings.output
                       : settings.mode == AnnotateMode::output ? settings.output
                                                              : snapshot.path;

@@ -137,6 +137,21 @@ try:
     once = open(small, "rb").read()
     run(["annotate", small, "--in-place", "--backup", "--all-pairs"] + ARGS, env=ENV)
     check(open(small + ".bak", "rb").read() == once, "the second backup is not the file as it was")
+
+    # --who: a "#id" pointer must name an xml:id of the edition (lxml lists them), else the
+    # change would point at nothing, which tei_all does not check: refused before anything
+    # is written (exit 2, no output file); one that names a person entry is written as given.
+    from lxml import etree
+    ids = set(etree.parse(source).xpath("//@xml:id"))
+    person = next(i for i in sorted(ids) if i.startswith("p-"))
+    out = os.path.join(work, "who.xml")
+    proc = run(["annotate", source, "--output", out, "--who", "#nobody"] + ARGS, check=False, env=ENV)
+    check("nobody" not in ids and proc.returncode == 2 and "--who #nobody names no xml:id" in proc.stderr
+          and not os.path.exists(out), "--who #nobody: exit %d, output %s, %s"
+          % (proc.returncode, os.path.exists(out), proc.stderr))
+    run(["annotate", source, "--output", out, "--who", "#" + person] + ARGS, env=ENV)
+    whos = etree.parse(out).xpath("//tei:revisionDesc/tei:change/@who", namespaces={"tei": "http://www.tei-c.org/ns/1.0"})
+    check(whos[-1:] == ["#" + person], "--who #%s written as %r" % (person, whos))
 finally:
     shutil.rmtree(work, ignore_errors=True)
 done()
