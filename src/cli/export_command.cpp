@@ -1,10 +1,10 @@
 // `manicule export`: the results stored in an annotated edition (or a results file) in
 // another format, without recomputing. Formats: webanno (W3C Web Annotation JSON-LD,
 // src/export/web_annotation.h).
-#include <fstream>
 #include <iostream>
 
 #include "cli/commands.h"
+#include "cli/measure_output.h"
 #include "core/error.h"
 #include "core/provenance.h"
 #include "core/utf8_text.h"
@@ -35,13 +35,7 @@ CommandRunner add_export_command(CLI::App& app) {
     StoredResults results = read_stored_results(*file);
     std::string uri = base->empty() ? file_uri(*file) : *base;
     auto doc = web_annotations(results, uri, current_time_iso8601());
-    if (output->empty()) {
-      std::cout << json_text(doc, 2) << '\n';
-      return 0;
-    }
-    std::ofstream out(*output, std::ios::binary);
-    out << json_text(doc, 2) << '\n';
-    if (!out) throw Error(ErrorKind::write_failed, "cannot write the export", *output);
+    write_output(*output, [&](std::ostream& out) { out << json_text(doc, 2) << '\n'; });
     return 0;
   };
 }

@@ -35,8 +35,10 @@ struct MeasureCommandOptions {
 // Runs the facade; prints the run's notes to standard error as "manicule: note: ...".
 Analysis run_analysis(const Request& request);
 
-// Writes through `write` to `path`, or to standard output when path is "" or "-".
-// Error(write_failed) naming the file if it cannot be written.
+// Writes through `write` to `path`, or to standard output when path is "" or "-". A file
+// is replaced whole through a temporary beside it, so that a failure leaves it as it was;
+// a device or a pipe is written to directly. Error(write_failed) naming the file if it
+// cannot be written.
 void write_output(const std::string& path, const std::function<void(std::ostream&)>& write);
 
 // The shortest decimal form that reads back to the same double ("0.1", "1e-05").
