@@ -127,6 +127,18 @@ try:
     check(any(isinstance(a["target"], list) and len(a["target"]) == 2 for a in joined),
           "the speaker with two speeches does not target both")
     check_export("results/letters.xml")
+    # --base-uri makes the annotations' ids, which the Web Annotation model wants as IRIs:
+    # one Python's urllib.parse.urlsplit finds no scheme in, or a fragment, or that holds a
+    # space, is refused (exit 2) before anything is written.
+    from urllib.parse import urlsplit
+    annotated = next(os.path.join(work, n) for n in sorted(os.listdir(work)) if n.endswith(".xml"))
+    for base in ("not a uri", "letters.xml", "https://example.org/letters.xml#top", "https://example.org/a b.xml",
+                 "https://example.org/letters.xml", "urn:x-ferry:letters"):
+        parts = urlsplit(base)
+        acceptable = bool(parts.scheme) and not parts.fragment and " " not in base
+        proc = run(["export", annotated, "--base-uri", base], check=False, env=ENV)
+        check((proc.returncode == 0) == acceptable and (acceptable or proc.returncode == 2 and not proc.stdout),
+              "--base-uri %r: exit %d (urllib: %s), %s" % (base, proc.returncode, acceptable, proc.stderr))
 finally:
     shutil.rmtree(work, ignore_errors=True)
 done()
