@@ -1,5 +1,6 @@
 #include "cli/selection_options.h"
 
+#include <algorithm>
 #include <iostream>
 
 #include "cli/repeatable_option.h"
@@ -55,6 +56,10 @@ Request SelectionOptions::to_request() const {
   r.preset = preset == "diplomatic" ? Preset::diplomatic : Preset::reading;
   for (const auto& name : keep) r.keep.push_back(element_name("--keep", name));
   for (const auto& name : drop) r.drop.push_back(element_name("--drop", name));
+  // Both at once ask two things of one element; the later one won, without a word.
+  for (const auto& name : r.keep)
+    if (std::find(r.drop.begin(), r.drop.end(), name) != r.drop.end())
+      throw Error(ErrorKind::usage, "--keep " + name + " and --drop " + name + " ask opposite things: give one");
   r.joint = joint == "drop" ? JointSpeech::drop : JointSpeech::each;
   r.tokenizer.case_fold = !no_fold;
   r.tokenizer.keep_numbers = keep_numbers;

@@ -319,6 +319,11 @@ for element in ("notes", "corr"):
                 "--keep %s: %d %s" % (element, p.returncode, p.stderr))
 p = subprocess.run([mtest.BIN, "segments", "--unit", "letter", "--keep", "note", letters], capture_output=True, text=True)
 mtest.check(p.returncode == 0 and "changes nothing" not in p.stderr, "--keep note: %s" % p.stderr)
+# --keep and --drop of one element ask opposite things: refused (exit 2), not the later taken.
+p = subprocess.run([mtest.BIN, "segments", "--unit", "letter", "--keep", "note", "--drop", "note", letters],
+                   capture_output=True, text=True)
+mtest.check(p.returncode == 2 and "--keep note and --drop note" in p.stderr and not p.stdout,
+            "--keep note --drop note: exit %d, %s" % (p.returncode, p.stderr))
 
 # 17. A repeatable option takes one value each time: the inputs after `--keep note` or
 # `--drop quote` are inputs, not more elements (they were taken as elements, so a run over
