@@ -1,15 +1,11 @@
 #include "cli/measure_output.h"
 
-#include <filesystem>
-#include <fstream>
 #include <iostream>
-#include <sstream>
 
 #include "cli/table_output.h"
 #include "core/error.h"
 #include "core/facade.h"
 #include "measure/newick.h"
-#include "standoff/safe_file.h"
 
 namespace manicule::cli {
 
@@ -34,30 +30,6 @@ Analysis run_analysis(const Request& request) {
   Analysis analysis = analyse(request);
   for (const auto& note : analysis.notes) std::cerr << "manicule: note: " << note << '\n';
   return analysis;
-}
-
-void write_output(const std::string& path, const std::function<void(std::ostream&)>& write) {
-  if (path.empty() || path == "-") {
-    write(std::cout);
-    std::cout.flush();
-    return;
-  }
-  // A device or a pipe (-o /dev/stderr) is written to as it is: it cannot be replaced.
-  std::error_code ec;
-  const std::filesystem::file_status status = std::filesystem::status(path, ec);
-  if (std::filesystem::exists(status) && !std::filesystem::is_regular_file(status)) {
-    std::ofstream out(path, std::ios::binary);
-    if (!out) throw Error(ErrorKind::write_failed, "cannot open the output for writing", path);
-    write(out);
-    out.flush();
-    if (!out) throw Error(ErrorKind::write_failed, "cannot write the output", path);
-    return;
-  }
-  // A file is replaced whole or not at all (safe_file.h): a full disk half-way through
-  // once left an earlier run's results cut short in its place.
-  std::ostringstream text;
-  write(text);
-  write_file_safely(path, text.view());
 }
 
 std::string exact_number(double value) { return newick_number(value); }

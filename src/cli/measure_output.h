@@ -14,6 +14,7 @@
 #include <nlohmann/json.hpp>
 
 #include "cli/analysis_options.h"
+#include "cli/output_file.h"
 #include "cli/selection_options.h"
 #include "core/analysis.h"
 
@@ -34,12 +35,6 @@ struct MeasureCommandOptions {
 
 // Runs the facade; prints the run's notes to standard error as "manicule: note: ...".
 Analysis run_analysis(const Request& request);
-
-// Writes through `write` to `path`, or to standard output when path is "" or "-". A file
-// is replaced whole through a temporary beside it, so that a failure leaves it as it was;
-// a device or a pipe is written to directly. Error(write_failed) naming the file if it
-// cannot be written.
-void write_output(const std::string& path, const std::function<void(std::ostream&)>& write);
 
 // The shortest decimal form that reads back to the same double ("0.1", "1e-05").
 std::string exact_number(double value);

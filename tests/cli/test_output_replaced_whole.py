@@ -1,7 +1,9 @@
 """An output file (-o) of the measuring commands and of export is replaced whole or not at
 all: when writing fails half-way, the file keeps what it held. A review found that a full
 disk left an earlier run's results cut short, as the file was opened for writing (and so
-emptied) before anything was written.
+emptied) before anything was written. And what is not a file of its own stays as it is:
+-o /dev/stdout into a log the shell appends to, a symbolic link, a writable file in a
+folder where no temporary can be made.
 
 The failure is the kernel's file size limit (setrlimit RLIMIT_FSIZE, with SIGXFSZ ignored so
 that write(2) fails with EFBIG instead of ending the process; POSIX), set below the size of
@@ -58,5 +60,54 @@ with tempfile.TemporaryDirectory() as tmp:
         # Without the limit the same command replaces it, with more than the limit allowed.
         mtest.run(args + ["--output", out])
         mtest.check(os.path.getsize(out) > LIMIT and sha256_of(out) != before, "%s did not replace its output" % name)
+
+    # What is not a file of its own is written to as it is, never replaced: /dev/stdout
+    # leading to a log the shell appends to keeps its earlier lines (a review found them
+    # gone: the log was renamed over), and the output follows them.
+    log = os.path.join(tmp, "job.log")
+    with open(log, "wb") as f:
+        f.write(b"line 1 of the job's log\n")
+    with open(log, "ab") as f:
+        proc = subprocess.run([mtest.BIN] + commands["distances"] + ["--output", "/dev/stdout"], stdout=f,
+                              stderr=subprocess.PIPE, text=True, timeout=300)
+    with open(log, "rb") as f:
+        text = f.read()
+    mtest.check(proc.returncode == 0 and text.startswith(b"line 1 of the job's log\n{") and len(text) > LIMIT,
+                "-o /dev/stdout appended to a log: exit %d, log starts %r" % (proc.returncode, text[:60]))
+
+    # A symbolic link keeps pointing at its file, which is replaced, with its mode kept
+    # (os.lstat, os.stat).
+    real = os.path.join(tmp, "real.tsv")
+    with open(real, "wb") as f:
+        f.write(b"old\n")
+    os.chmod(real, 0o640)
+    link = os.path.join(tmp, "link.tsv")
+    os.symlink(real, link)
+    mtest.run(commands["profile"] + ["--output", link])
+    mtest.check(os.path.islink(link) and os.readlink(link) == real and os.path.getsize(real) > LIMIT
+                and (os.stat(real).st_mode & 0o777) == 0o640,
+                "output through a link: link %s, size %d, mode %o" % (os.path.islink(link), os.path.getsize(real),
+                                                                     os.stat(real).st_mode & 0o777))
+
+    # A file one may write in a folder one may not (no temporary can be made beside it) is
+    # written in place, as before; run as nobody (uid 65534), where the tests run as root.
+    if os.geteuid() == 0:
+        shut = os.path.join(tmp, "shut")
+        os.makedirs(shut)
+        target = os.path.join(shut, "out.tsv")
+        with open(target, "wb") as f:
+            f.write(b"old\n")
+        os.chmod(target, 0o666)
+        os.chmod(shut, 0o755)
+        os.chmod(tmp, 0o755)
+
+        def as_nobody():
+            os.setgid(65534)
+            os.setuid(65534)
+
+        proc = subprocess.run([mtest.BIN] + commands["profile"] + ["--output", target], capture_output=True, text=True,
+                              preexec_fn=as_nobody, timeout=300)
+        mtest.check(proc.returncode == 0 and os.path.getsize(target) > LIMIT and os.listdir(shut) == ["out.tsv"],
+                    "a writable file in a shut folder: exit %d, %s" % (proc.returncode, proc.stderr))
 
 mtest.done()
