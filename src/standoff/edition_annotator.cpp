@@ -58,16 +58,20 @@ Edition open_edition(const FileSnapshot& snapshot, bool for_writing) {
 // --who's pointers that name an xml:id of this document ("#ed"): each must be there, else the
 // change written would point at nothing (a schema does not check that). A results file of
 // its own holds no person entry: there a pointer into an edition is "edition.xml#ed".
-void check_who_pointers(const std::string& who, const Edition& e, bool separate) {
+void check_who_pointers(const std::string& who, const Edition& e, bool separate, const std::string& results_file) {
   std::size_t start = 0;
   while (start < who.size()) {
     const std::size_t space = who.find_first_of(" \t\r\n", start);
     const std::string pointer = who.substr(start, space == std::string::npos ? std::string::npos : space - start);
     start = space == std::string::npos ? who.size() : space + 1;
     if (pointer.empty() || pointer.front() != '#') continue;
+    // Ours (#mcl-app, the default, written again by this run) and TEI's XPointer form
+    // (#xpath(...)) are not ids of the edition as read.
+    if (pointer.rfind("#" + std::string(kOurIdPrefix), 0) == 0 || pointer.rfind("#xpath(", 0) == 0) continue;
     if (separate)
       throw Error(ErrorKind::usage, "--who " + pointer + " points into the results file, which holds no person entry: "
-                                    "write the edition's file before it (" + e.snapshot->path + pointer + ")");
+                                    "write the edition's file before it, as the results file reaches it (" +
+                                    relative_uri(results_file, e.snapshot->path) + pointer + ")");
     if (!e.scan.xml_ids.count(pointer.substr(1)))
       throw Error(ErrorKind::usage, "--who " + pointer + " names no xml:id in this edition: point at the entry of the "
                                     "person responsible (a person or persName with that xml:id), or give a URI",
@@ -147,7 +151,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     check_analysed_bytes(analysis, snapshot);
     open.push_back(open_edition(snapshot, !separate));
     Edition& e = open.back();
-    check_who_pointers(settings.standoff.who, e, separate);
+    check_who_pointers(settings.standoff.who, e, separate, settings.output);
     e.document_path = separate ? settings.output
                       : settings.mode == AnnotateMode::output ? settings.output
                                                              : snapshot.path;

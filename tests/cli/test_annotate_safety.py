@@ -152,6 +152,16 @@ try:
     run(["annotate", source, "--output", out, "--who", "#" + person] + ARGS, env=ENV)
     whos = etree.parse(out).xpath("//tei:revisionDesc/tei:change/@who", namespaces={"tei": "http://www.tei-c.org/ns/1.0"})
     check(whos[-1:] == ["#" + person], "--who #%s written as %r" % (person, whos))
+    # In a results file of its own, a "#id" would point into that file: refused, with the
+    # pointer as the results file reaches the edition (os.path.relpath from its folder).
+    results = os.path.join(work, "results", "letters-results.xml")
+    os.makedirs(os.path.dirname(results), exist_ok=True)
+    proc = run(["annotate", source, "--standoff-file", results, "--who", "#" + person] + ARGS, check=False, env=ENV)
+    advice = os.path.relpath(source, os.path.dirname(results)) + "#" + person
+    check(proc.returncode == 2 and "(%s)" % advice in proc.stderr and not os.path.exists(results),
+          "--who #%s with --standoff-file: exit %d, advice %s wanted: %s" % (person, proc.returncode, advice, proc.stderr))
+    # The default, our own application (#mcl-app), may also be given by name.
+    run(["annotate", source, "--output", out, "--who", "#mcl-app"] + ARGS, env=ENV)
 finally:
     shutil.rmtree(work, ignore_errors=True)
 done()
