@@ -19,6 +19,7 @@
 #include "cli/attribution_cli_options.h"
 #include "cli/commands.h"
 #include "cli/selection_options.h"
+#include "cli/text_checks.h"
 #include "core/corpus.h"
 #include "core/error.h"
 #include "core/facade.h"
@@ -67,7 +68,8 @@ CommandRunner add_annotate_command(CLI::App& app) {
                     "write a distance link for every pair of segments (default: each segment's nearest, see "
                     "--neighbours)");
   command->add_option("--who", settings->standoff.who,
-                      "pointer to the person responsible, for the revisionDesc change entry (e.g. #ed)");
+                      "pointer to the person responsible, for the revisionDesc change entry (e.g. #ed)")
+      ->check(not_blank());
   command->add_option("--components", *components, "principal components written per segment (0: no PCA)")
       ->capture_default_str();
   auto attribution = std::make_shared<AttributionCommandOptions>();

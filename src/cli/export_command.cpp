@@ -7,6 +7,7 @@
 
 #include "cli/commands.h"
 #include "cli/measure_output.h"
+#include "cli/text_checks.h"
 #include "core/error.h"
 #include "core/provenance.h"
 #include "core/utf8_text.h"
@@ -30,7 +31,8 @@ CommandRunner add_export_command(CLI::App& app) {
       ->capture_default_str();
   command->add_option("--base-uri", *base,
                       "the URI the file is published at, e.g. https://example.org/edition.xml "
-                      "(default: its file: URI)");
+                      "(default: its file: URI)")
+      ->check(not_blank());
   command->add_option("--output,-o", *output, "write to this file (default: standard output)");
   return [=]() -> int {
     if (*format != "webanno") throw Error(ErrorKind::usage, "unknown export format " + *format);
