@@ -38,6 +38,7 @@ void AnalysisOptions::add_to(CLI::App& command, bool with_measure, bool with_nei
 void AnalysisOptions::apply_to(Request& request) const {
   request.features.kind = parse_feature_kind(features);
   // An n above 1 asks for n-grams: counting words alone instead would answer another question.
+  if (n < 1) throw Error(ErrorKind::usage, "--n takes 1 or more (the length of an n-gram); got " + std::to_string(n));
   if (request.features.kind == FeatureKind::word && n != 1)
     throw Error(ErrorKind::usage, "--n " + std::to_string(n) +
                                       " counts n-grams: give --features word-ngram or char-ngram with it (words are "

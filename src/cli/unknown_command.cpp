@@ -25,14 +25,16 @@ std::size_t edit_distance(const std::string& a, const std::string& b) {
 }  // namespace
 
 std::string unknown_command_message(const std::string& word, const std::vector<std::string>& commands) {
-  // A near one: two edits at most (a spelling, a slip), else one the word begins
-  // ("analyse" for analyse-store); only when exactly one command is that near.
+  // A near one: two edits at most (a spelling, a slip), one for a word of four letters or
+  // fewer ("an" is two edits from map, and means annotate or analyse-store as much), else
+  // one the word begins ("analyse" for analyse-store); only when exactly one is that near.
+  const std::size_t most_edits = word.size() <= 4 ? 1 : 2;
   std::vector<std::string> near;
   for (const auto& name : commands)
-    if (edit_distance(word, name) <= 2) near.push_back(name);
+    if (edit_distance(word, name) <= most_edits) near.push_back(name);
   if (near.empty())
     for (const auto& name : commands)
-      if (word.size() >= 3 && name.compare(0, word.size(), word) == 0) near.push_back(name);
+      if (word.size() >= 2 && name.compare(0, word.size(), word) == 0) near.push_back(name);
   std::string out = "manicule: no command '" + word + "'";
   out += near.size() == 1 ? "; did you mean " + near.front() + "?" : std::string(".");
   out += " The commands are:";

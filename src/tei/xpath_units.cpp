@@ -157,17 +157,54 @@ std::set<std::vector<int>> select_elements(xmlDocPtr doc, const std::string& exp
 std::string unprefixed_name_hint(const std::string& unit) {
   constexpr std::string_view kPrefix = "xpath:";
   if (unit.rfind(kPrefix, 0) != 0) return {};
-  for (std::string step : last_steps(unit.substr(kPrefix.size()))) {
-    if (const std::size_t axis_end = step.find("::"); axis_end != std::string::npos) step.erase(0, axis_end + 2);
-    step = step.substr(0, step.find('['));
-    const bool name = !step.empty() && (std::isalpha(static_cast<unsigned char>(step.front())) || step.front() == '_') &&
-                      std::all_of(step.begin(), step.end(), [](char c) {
+  // Every location step outside predicates and string literals ("//div/tei:p", "(//lg)[1]",
+  // "a | b"), each judged by its node test: a bare name ("lg", "child::lg") is the mistake;
+  // a prefixed one, "*", "." and a name followed by "(" (text(), a function) are not.
+  const std::string expression = unit.substr(kPrefix.size());
+  std::string step;
+  int brackets = 0;
+  char quote = 0;
+  auto judge = [&](char next) -> std::string {
+    std::string test = step;
+    step.clear();
+    test.erase(std::remove_if(test.begin(), test.end(), [](char c) { return std::isspace(static_cast<unsigned char>(c)); }),
+               test.end());
+    if (const std::size_t axis_end = test.find("::"); axis_end != std::string::npos) test.erase(0, axis_end + 2);
+    const bool name = next != '(' && !test.empty() &&
+                      (std::isalpha(static_cast<unsigned char>(test.front())) || test.front() == '_') &&
+                      std::all_of(test.begin(), test.end(), [](char c) {
                         return std::isalnum(static_cast<unsigned char>(c)) || c == '_' || c == '-' || c == '.';
                       });
-    if (name)
-      return "; '" + step + "' names an element outside any namespace, and TEI's are in TEI's own: write tei:" + step;
+    return name ? test : std::string();
+  };
+  std::string found;
+  for (const char c : expression + '/') {
+    if (quote) {
+      if (c == quote) quote = 0;
+      continue;
+    }
+    if (c == '\'' || c == '"') {
+      quote = c;
+      continue;
+    }
+    if (c == '[' && brackets++ == 0) {
+      if (found.empty()) found = judge('[');
+      continue;
+    }
+    if (c == ']' && brackets > 0) {
+      --brackets;
+      continue;
+    }
+    if (brackets > 0) continue;
+    if (c == '/' || c == '|' || c == '(' || c == ')') {
+      const std::string name = judge(c);
+      if (found.empty()) found = name;
+    } else {
+      step += c;
+    }
   }
-  return {};
+  if (found.empty()) return {};
+  return "; '" + found + "' names an element outside any namespace, and TEI's are in TEI's own: write tei:" + found;
 }
 
 void check_xpath_unit(const std::string& expression) {

@@ -452,7 +452,7 @@ mtest.check(p.returncode == 3 and "deep.xml:2" in p.stderr and "nested more than
 listed = re.findall(r"^  (\S+) {2,}", subprocess.run([mtest.BIN, "--help"], capture_output=True, text=True)
                     .stdout.split("Subcommands:")[1], re.M)
 mtest.check(len(listed) >= 10 and "analyse-store" in listed, "the help's commands: %r" % listed)
-for word, suggested in (("analyze-store", "analyse-store"), ("frobnicate", None)):
+for word, suggested in (("analyze-store", "analyse-store"), ("frobnicate", None), ("an", None), ("ann", "annotate")):
     p = subprocess.run([mtest.BIN, word, "--store", "x.sqlite"], capture_output=True, text=True)
     said = re.search(r"The commands are: (.*) \(manicule --help", p.stderr)
     mtest.check(p.returncode == 2 and ("no command '%s'" % word) in p.stderr and said is not None

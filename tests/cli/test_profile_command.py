@@ -84,5 +84,7 @@ example = os.path.join(mtest.ROOT, "examples", "ferry-play.xml")
 proc = mtest.run(["profile", "--n", "3", "--unit", "speaker", example], check=False)
 mtest.check(proc.returncode == 2 and "--features word-ngram or char-ngram" in proc.stderr and not proc.stdout,
             "--n 3 with words: exit %d, %s" % (proc.returncode, proc.stderr))
+proc = mtest.run(["profile", "--n", "0", "--unit", "speaker", example], check=False)
+mtest.check(proc.returncode == 2 and "--n takes 1 or more" in proc.stderr, "--n 0: exit %d, %s" % (proc.returncode, proc.stderr))
 
 mtest.done()

@@ -186,4 +186,12 @@ for args in (["segments", "--unit", "xpath:" + unprefixed, letters_file],
                 and "write tei:div" in p.stderr, "%s of xpath:%s: exit %d, %s" % (args[0], unprefixed, p.returncode, p.stderr))
 p = mtest.run(["segments", "--unit", "xpath:" + prefixed, letters_file])
 mtest.check("outside any namespace" not in p.stderr, "a hint for the prefixed name: " + p.stderr)
+# The bare name anywhere in the path, not only at its end; a name inside a predicate or a
+# string literal is no step (lxml: each of these finds nothing in the letters).
+for expression, bare in (("//div[@type='letter']/tei:p", "div"), ("(//div[@type='letter'])", "div"),
+                         ("//tei:text//div[@type='le/tter']", "div")):
+    mtest.check(len(tree.xpath(expression, namespaces={"tei": TEI})) == 0, "lxml finds %s" % expression)
+    p = mtest.run(["segments", "--unit", "xpath:" + expression, letters_file], check=False)
+    mtest.check(p.returncode == 4 and "write tei:%s" % bare in p.stderr, "xpath:%s: exit %d, %s"
+                % (expression, p.returncode, p.stderr))
 mtest.done()
