@@ -51,6 +51,7 @@ CommandRunner add_export_command(CLI::App& app) {
         throw Error(ErrorKind::usage, "--base-uri '" + *base + "' is not an absolute URI without a fragment, such as "
                                       "https://example.org/edition.xml (spaces written %20)");
     }
+    refuse_output_over_input(*output, {*file});
     StoredResults results = read_stored_results(*file);
     std::string uri = base->empty() ? file_uri(*file) : *base;
     auto doc = web_annotations(results, uri, current_time_iso8601());

@@ -23,6 +23,7 @@ void MeasureCommandOptions::add_to(CLI::App& command, const std::vector<std::str
 Request MeasureCommandOptions::to_request() const {
   Request request = selection.to_request();
   analysis.apply_to(request);
+  refuse_output_over_input(output, request.inputs);
   return request;
 }
 

@@ -8,6 +8,7 @@
 #include <fstream>
 #include <iostream>
 
+#include "core/corpus.h"
 #include "core/error.h"
 #include "standoff/safe_file.h"
 
@@ -70,6 +71,15 @@ void write_output(const std::string& path, const std::function<void(std::ostream
     std::remove(temporary.c_str());
     throw;
   }
+}
+
+void refuse_output_over_input(const std::string& output, const std::vector<std::string>& inputs) {
+  std::error_code ec;
+  if (output.empty() || output == "-" || names_a_device_or_descriptor(output) || !fs::exists(output, ec)) return;
+  for (const std::string& input : expand_inputs(inputs))
+    if (fs::equivalent(output, input, ec))
+      throw Error(ErrorKind::usage, "--output " + output + " is one of the inputs (" + input +
+                                        "): the results would take the place of the edition; write them elsewhere");
 }
 
 }  // namespace manicule::cli

@@ -3,6 +3,7 @@
 #include <functional>
 #include <ostream>
 #include <string>
+#include <vector>
 
 namespace manicule::cli {
 
@@ -17,5 +18,9 @@ namespace manicule::cli {
 //   one may), the file is written in place, as before.
 // Error(write_failed) naming the file if it cannot be written.
 void write_output(const std::string& path, const std::function<void(std::ostream&)>& write);
+
+// Error(usage) when `output` is one of the files `inputs` names (given, or found in a
+// folder given): the results would take the place of an edition.
+void refuse_output_over_input(const std::string& output, const std::vector<std::string>& inputs);
 
 }  // namespace manicule::cli

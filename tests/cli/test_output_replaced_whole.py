@@ -110,4 +110,21 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check(proc.returncode == 0 and os.path.getsize(target) > LIMIT and os.listdir(shut) == ["out.tsv"],
                     "a writable file in a shut folder: exit %d, %s" % (proc.returncode, proc.stderr))
 
+    # An output that is one of the inputs (given, or found in a folder given, in another
+    # spelling) is refused before anything is written: the results would replace the
+    # edition (a review found `distances same.xml -o same.xml` did so, exit 0).
+    edition = os.path.join(tmp, "letters.xml")
+    with open(letters, "rb") as f, open(edition, "wb") as g:
+        g.write(f.read())
+    kept = sha256_of(edition)
+    for args in (["distances", "--unit", "letter", "--min-tokens", "200", edition, "--output", edition],
+                 ["profile", "--unit", "letter", "--min-tokens", "200", tmp, "--output", os.path.join(tmp, ".", "letters.xml")],
+                 ["export", annotated, "--output", annotated]):
+        before_run = {p: sha256_of(p) for p in (edition, annotated)}
+        proc = mtest.run(args, check=False)
+        mtest.check(proc.returncode == 2 and "is one of the inputs" in proc.stderr
+                    and all(sha256_of(p) == h for p, h in before_run.items()),
+                    "%s writing over its input: exit %d, %s" % (args[0], proc.returncode, proc.stderr))
+    mtest.check(sha256_of(edition) == kept, "the edition changed")
+
 mtest.done()
