@@ -38,7 +38,16 @@ std::vector<SegmentSummary> summarise_segments(const Corpus& corpus) {
 void throw_first_failure(const Corpus& corpus) {
   if (corpus.failures.empty()) return;
   const FileFailure& f = corpus.failures.front();
-  throw Error(static_cast<ErrorKind>(f.kind), f.message);
+  // The others named too (a few), so that a run over a folder is not mended one file a try.
+  std::string others;
+  const std::size_t more = corpus.failures.size() - 1;
+  for (std::size_t i = 1; i < corpus.failures.size() && i <= 3; ++i)
+    others += (i > 1 ? ", " : "") + corpus.failures[i].file;
+  if (more > 3) others += " and " + std::to_string(more - 3) + " more";
+  throw Error(static_cast<ErrorKind>(f.kind),
+              more == 0 ? f.message
+                        : f.message + "\n  and " + std::to_string(more) + " other file(s) cannot be read either: " +
+                              others + " (`manicule segments` with the same inputs says what is wrong in each)");
 }
 
 namespace {

@@ -33,7 +33,7 @@ Analysis analyse_corpus_freeing_counts(const Request& request, Corpus& corpus, c
 // Segment summaries of a corpus, without measures (what `segments` lists).
 std::vector<SegmentSummary> summarise_segments(const Corpus& corpus);
 
-// Throws the error of the first failed file, if any.
+// Throws the error of the first failed file, if any, naming a few of the others.
 void throw_first_failure(const Corpus& corpus);
 
 // Records the feature settings of a run in its provenance: ranks asked, features used,

@@ -445,7 +445,20 @@ p = run_segments(deep)
 mtest.check(p.returncode == 3 and "deep.xml:2" in p.stderr and "nested more than 10000 levels" in p.stderr,
             "20,000 levels deep: exit %d, %s" % (p.returncode, p.stderr))
 
-# 24. A first word that names no command: said with the word and the commands, as the help
+# 24. Several inputs that cannot be read: a measuring command names the first with its
+# line and the others by path (lxml refuses each), rather than one a try.
+cut_files = [write("cut%d.xml" % k, TEI_OPEN + "<text><body><p>cut short\n") for k in (1, 2, 3)]
+for f in cut_files:
+    try:
+        etree.parse(f)
+        mtest.fail("lxml parsed the cut file " + f)
+    except etree.XMLSyntaxError:
+        pass
+p = subprocess.run([mtest.BIN, "distances", "--unit", "whole"] + cut_files, capture_output=True, text=True)
+mtest.check(p.returncode == 3 and "cut1.xml:" in p.stderr and "and 2 other file(s) cannot be read either" in p.stderr
+            and all(f in p.stderr for f in cut_files[1:]), "three cut files: exit %d, %s" % (p.returncode, p.stderr))
+
+# 25. A first word that names no command: said with the word and the commands, as the help
 # lists them (its "Subcommands:" section), not CLI11's "A subcommand is required"; a
 # spelling one edit from a command is answered with that command (the American spelling
 # of analyse-store; common practice, no source), a word far from every one with none.
