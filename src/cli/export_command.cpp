@@ -1,8 +1,6 @@
 // `manicule export`: the results stored in an annotated edition (or a results file) in
 // another format, without recomputing. Formats: webanno (W3C Web Annotation JSON-LD,
 // src/export/web_annotation.h).
-#include <algorithm>
-#include <cctype>
 #include <iostream>
 
 #include "cli/commands.h"
@@ -36,21 +34,10 @@ CommandRunner add_export_command(CLI::App& app) {
   command->add_option("--output,-o", *output, "write to this file (default: standard output)");
   return [=]() -> int {
     if (*format != "webanno") throw Error(ErrorKind::usage, "unknown export format " + *format);
-    // The annotations' ids are made from it, and the Web Annotation model wants IRIs
-    // (absolute, RFC 3987: a scheme, then no spaces or controls).
-    if (!base->empty()) {
-      const std::size_t colon = base->find(':');
-      const bool scheme = colon != std::string::npos && colon > 0 && std::isalpha(static_cast<unsigned char>((*base)[0])) &&
-                          std::all_of(base->begin(), base->begin() + static_cast<std::ptrdiff_t>(colon), [](char c) {
-                            return std::isalnum(static_cast<unsigned char>(c)) || c == '+' || c == '-' || c == '.';
-                          });
-      const bool clean = std::none_of(base->begin(), base->end(), [](char c) {
-        return static_cast<unsigned char>(c) <= 0x20 || c == '<' || c == '>' || c == '"' || c == '#';
-      });
-      if (!scheme || !clean)
-        throw Error(ErrorKind::usage, "--base-uri '" + *base + "' is not an absolute URI without a fragment, such as "
-                                      "https://example.org/edition.xml (spaces written %20)");
-    }
+    // The annotations' ids are made from it, and the Web Annotation model wants IRIs.
+    if (!base->empty() && !is_absolute_uri_without_fragment(*base))
+      throw Error(ErrorKind::usage, "--base-uri '" + *base + "' is not an absolute URI without a fragment, such as "
+                                    "https://example.org/edition.xml (spaces written %20)");
     refuse_output_over_input(*output, {*file});
     StoredResults results = read_stored_results(*file);
     std::string uri = base->empty() ? file_uri(*file) : *base;

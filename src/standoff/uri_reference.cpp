@@ -1,5 +1,6 @@
 #include "standoff/uri_reference.h"
 
+#include <algorithm>
 #include <cctype>
 #include <cstdio>
 #include <filesystem>
@@ -92,6 +93,17 @@ std::string resolve_uri(const std::string& base, const std::string& reference) {
     path = (last == std::string::npos ? (authority.empty() ? "" : "/") : base_path.substr(0, last + 1)) + ref_path;
   }
   return scheme + authority + remove_dot_segments(path) + fragment;
+}
+
+bool is_absolute_uri_without_fragment(const std::string& uri) {
+  const std::size_t colon = uri.find(':');
+  const bool scheme = colon != std::string::npos && colon > 0 && std::isalpha(static_cast<unsigned char>(uri[0])) &&
+                      std::all_of(uri.begin(), uri.begin() + static_cast<std::ptrdiff_t>(colon), [](char c) {
+                        return std::isalnum(static_cast<unsigned char>(c)) || c == '+' || c == '-' || c == '.';
+                      });
+  return scheme && std::none_of(uri.begin(), uri.end(), [](char c) {
+           return static_cast<unsigned char>(c) <= 0x20 || c == '<' || c == '>' || c == '"' || c == '#';
+         });
 }
 
 }  // namespace manicule

@@ -18,4 +18,9 @@ std::string resolve_uri(const std::string& base, const std::string& reference);
 // The URI without its fragment ("a.xml#L07" -> "a.xml").
 std::string without_fragment(const std::string& uri);
 
+// Whether `uri` is absolute (a scheme, RFC 3986 section 3.1) with no fragment and no space,
+// control character or character a URI never holds unescaped ('<', '>', '"'): fit to make
+// ids from, such as a published edition's address.
+bool is_absolute_uri_without_fragment(const std::string& uri);
+
 }  // namespace manicule

@@ -6,9 +6,10 @@
 
 namespace manicule {
 
-// For a unit that found no segment: when it is an xpath: unit one of whose branches ends on
-// an element name without a prefix ("//lg", which names an lg outside any namespace, never
-// TEI's), a clause saying to write tei:lg; else "".
+// For a unit that found no segment: when it is an xpath: unit with a location step, outside
+// predicates and string literals, whose node test is an element name without a prefix
+// ("//lg", "//div/tei:p": a name outside any namespace, never TEI's), a clause saying to
+// write tei:NAME for the first such name; else "".
 std::string unprefixed_name_hint(const std::string& unit);
 
 }  // namespace manicule
