@@ -459,18 +459,41 @@ mtest.check(p.returncode == 3 and "cut1.xml:" in p.stderr and "and 2 other file(
             and all(f in p.stderr for f in cut_files[1:]), "three cut files: exit %d, %s" % (p.returncode, p.stderr))
 
 # 25. A first word that names no command: said with the word and the commands, as the help
-# lists them (its "Subcommands:" section), not CLI11's "A subcommand is required"; a
-# spelling one edit from a command is answered with that command (the American spelling
-# of analyse-store; common practice, no source), a word far from every one with none.
+# lists them (its "Subcommands:" section), not CLI11's "A subcommand is required". The
+# suggestion follows the rule in src/cli/unknown_command.h, worked out here with a
+# Levenshtein distance of our own (Wagner-Fischer): the one command within one edit (a word
+# of four letters or fewer) or two, else the one command the word begins; none when no
+# command, or more than one, is that near.
 listed = re.findall(r"^  (\S+) {2,}", subprocess.run([mtest.BIN, "--help"], capture_output=True, text=True)
                     .stdout.split("Subcommands:")[1], re.M)
 mtest.check(len(listed) >= 10 and "analyse-store" in listed, "the help's commands: %r" % listed)
-for word, suggested in (("analyze-store", "analyse-store"), ("frobnicate", None), ("an", None), ("ann", "annotate")):
+
+
+def levenshtein(a, b):
+    row = list(range(len(b) + 1))
+    for i, ca in enumerate(a, 1):
+        previous, row[0] = row[0], i
+        for j, cb in enumerate(b, 1):
+            previous, row[j] = row[j], min(row[j] + 1, row[j - 1] + 1, previous + (ca != cb))
+    return row[len(b)]
+
+
+def expected_suggestion(word):
+    near = [c for c in listed if levenshtein(word, c) <= (1 if len(word) <= 4 else 2)]
+    if not near and len(word) >= 2:
+        near = [c for c in listed if c.startswith(word)]
+    return near[0] if len(near) == 1 else None
+
+
+for word in ("analyze-store", "frobnicate", "an", "ann", "mp", "segmnts"):
+    suggested = expected_suggestion(word)
     p = subprocess.run([mtest.BIN, word, "--store", "x.sqlite"], capture_output=True, text=True)
     said = re.search(r"The commands are: (.*) \(manicule --help", p.stderr)
     mtest.check(p.returncode == 2 and ("no command '%s'" % word) in p.stderr and said is not None
                 and said.group(1).split() == listed and ("did you mean" in p.stderr) == (suggested is not None)
                 and (suggested is None or "did you mean %s?" % suggested in p.stderr),
-                "unknown command %r: exit %d, %s" % (word, p.returncode, p.stderr))
+                "unknown command %r (suggestion %r): exit %d, %s" % (word, suggested, p.returncode, p.stderr))
+mtest.check(expected_suggestion("analyze-store") == "analyse-store" and expected_suggestion("frobnicate") is None,
+            "the rule's own cases")
 
 mtest.done()

@@ -41,14 +41,15 @@ for option in ("--stop-words", "--labels"):
     mtest.check(p.returncode == 2 and "manicule: " + option + ": an empty value" in p.stderr,
                 "attribute %s '': exit %d, %s" % (option, p.returncode, p.stderr))
 
-# annotate --who "" wrote who="" (a pointer to nothing); export --base-uri "" fell back to
-# the file's URI as if not given. Both refused, and the edition not written.
+# annotate --who " " wrote who=" " (a pointer to nothing); export --base-uri "" fell back to
+# the file's URI as if not given. Both refused: no edition written, no export printed.
 annotated = os.path.join(tmp, "annotated.xml")
 for args in (["annotate", letters, "--unit", "letter", "--min-tokens", "50", "--output", annotated, "--who", " "],
              ["export", letters, "--base-uri", ""]):
     option = args[-2]
     p = mtest.run(args, check=False)
-    mtest.check(p.returncode == 2 and "manicule: " + option + ": an empty value" in p.stderr and not os.path.exists(annotated),
+    mtest.check(p.returncode == 2 and "manicule: " + option + ": an empty value" in p.stderr and not os.path.exists(annotated)
+                and not p.stdout,
                 "%s %s %r: exit %d, %s" % (args[0], option, args[-1], p.returncode, p.stderr))
 
 mtest.done()

@@ -13,28 +13,10 @@ import sys
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 from lxml import etree  # noqa: E402
+from reading_text import LEFT_OUT, text_without_left_out  # noqa: E402
 
 TEI = "{http://www.tei-c.org/ns/1.0}"
 XML_ID = "{http://www.w3.org/XML/1998/namespace}id"
-# README.md, "Editorial matter left out by default" (reading preset: del and surplus too),
-# and the elements never selected.
-LEFT_OUT = set(
-    "note noteGrp speaker stage castList head trailer figDesc label gap supplied del sic orig abbr rdg rdgGrp "
-    "witDetail surplus opener closer salute signed dateline address postscript argument epigraph byline docAuthor "
-    "index figure formula desc floatingText front back teiHeader fw standOff interp interpGrp span spanGrp fs fLib "
-    "fvLib".split())
-
-
-def text_without_left_out(element, out):
-    if element.text:
-        out.append(element.text)
-    for child in element:
-        if isinstance(child.tag, str) and child.tag.replace(TEI, "") not in LEFT_OUT:
-            text_without_left_out(child, out)
-        if child.tail:
-            out.append(child.tail)
-
-
 def normalize_space(text):  # XPath 1.0 normalize-space(): XML white space only
     for c in "\t\n\r":
         text = text.replace(c, " ")

@@ -101,22 +101,24 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["analyse-store", "--store", mixed, "--min-tokens", "100", "--quiet"], check=False)
     mtest.check(proc.returncode == 2 and "--settings" in proc.stderr and "2 reading settings" in proc.stderr,
                 "a merged store of two settings analysed without --settings: exit %d, %s" % (proc.returncode, proc.stderr))
+    # Which share each settings holds, by the documented shard rule (hashlib): the folded
+    # counts came from share 2/3, the unfolded ones (--no-fold) from share 1/3.
+    def share(k):
+        return {p for p in paths
+                if 1 + int(hashlib.sha256(os.path.relpath(p, archive).encode()).hexdigest()[:16], 16) % 3 == k}
     db = sqlite3.connect(mixed)
-    settings_ids = [row[0] for row in db.execute("SELECT settings_id FROM settings ORDER BY settings_id")]
+    folds = dict(db.execute("SELECT settings_id, json_extract(request, '$.tokenizer.case_fold') FROM settings"))
     db.close()
-    mtest.check(len(settings_ids) == 2, "expected 2 settings in the merged store, got %r" % settings_ids)
-    for settings_id in settings_ids:
+    mtest.check(sorted(folds.values()) == [0, 1], "expected a folded and an unfolded settings, got %r" % folds)
+    for settings_id, folded in sorted(folds.items()):
         mtest.run(["analyse-store", "--store", mixed, "--settings", str(settings_id), "--min-tokens", "100", "--quiet"])
-        db = sqlite3.connect(mixed)
-        read = {row[0] for row in db.execute(
-            "SELECT sha256 FROM readings WHERE settings_id = ? AND status = 'ok'", (settings_id,))}
-        run_id = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis'").fetchone()[0]
-        analysed = {row[0] for row in db.execute("SELECT DISTINCT sha256 FROM analysis_segments WHERE run_id = ?", (run_id,))}
-        run_settings = db.execute("SELECT settings_id FROM runs WHERE run_id = ?", (run_id,)).fetchone()[0]
-        db.close()
-        mtest.check(run_settings == settings_id and analysed and analysed <= read,
-                    "analysis under --settings %d took settings %r, files outside its readings: %r" %
-                    (settings_id, run_settings, sorted(analysed - read)))
+        _, tables = storecheck.latest_analysis(mixed)
+        analysed = {row[1] for row in tables["segments"]}
+        run_settings = storecheck.last_run(mixed, "analysis")["settings_id"]
+        expected = share(2 if folded else 1)
+        mtest.check(run_settings == settings_id and analysed and analysed <= expected,
+                    "analysis under --settings %d took settings %r, files outside share %d/3: %r" %
+                    (settings_id, run_settings, 2 if folded else 1, sorted(analysed - expected)))
 
     # An input that is not a store (here a TEI file, as sqlite3 itself would refuse it) is
     # refused with exit code 3 (bad input) and its name, before the output is created, and

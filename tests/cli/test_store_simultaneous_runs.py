@@ -24,7 +24,12 @@ def started_together(first, second, cwd):
     """Runs two manicule commands at once; returns their (exit code, stderr) pairs."""
     procs = [subprocess.Popen([mtest.BIN] + args, cwd=cwd, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE,
                               text=True) for args in (first, second)]
-    return [(p.wait(timeout=300), p.stderr.read()) for p in procs]
+    # communicate, not wait then read: a run held on a full pipe would hold the other's lock.
+    outcomes = []
+    for p in procs:
+        _, err = p.communicate(timeout=300)
+        outcomes.append((p.returncode, err))
+    return outcomes
 
 
 def check_pair(outcomes, what):

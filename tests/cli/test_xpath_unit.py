@@ -18,14 +18,10 @@ import sys
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 from lxml import etree  # noqa: E402
+from reading_text import LEFT_OUT  # noqa: E402
 
 TEI = "http://www.tei-c.org/ns/1.0"
 XML_ID = "{http://www.w3.org/XML/1998/namespace}id"
-# README, "Editorial matter left out by default" (and never selected: teiHeader, fw, standOff).
-LEFT_OUT = set(("note noteGrp speaker stage castList head trailer figDesc label gap supplied del sic orig abbr rdg "
-                "rdgGrp witDetail surplus opener closer salute signed dateline address postscript argument epigraph "
-                "byline docAuthor index figure formula desc floatingText front back teiHeader fw standOff").split())
-
 
 def ordinal_pointer(element):
     """xpath(/TEI[1]/text[1]/...): each step's name and position among its parent's children

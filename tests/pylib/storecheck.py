@@ -111,20 +111,29 @@ def run_stopped_when_blocked(command, sig, pipe_bytes=4096):
     middle of its work, and sends it `sig`. Unlike run_stopped, which races a command that
     may finish its few remaining files before the signal arrives, the stop then always
     comes part way. Returns (exit code, whether the pipe filled, all the messages)."""
-    proc = subprocess.Popen(command, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE)
-    fcntl.fcntl(proc.stderr.fileno(), 1031, pipe_bytes)  # F_SETPIPE_SZ
+    # The pipe is sized before the command starts, so that none of its writes come first.
+    read_end, write_end = os.pipe()
+    fcntl.fcntl(write_end, 1031, pipe_bytes)  # F_SETPIPE_SZ
+    proc = subprocess.Popen(command, stdout=subprocess.DEVNULL, stderr=write_end)
+    os.close(write_end)
+    reader = os.fdopen(read_end, "rb")
     filled = False
+    last, steady_since = -1, time.monotonic()
     while proc.poll() is None:
         waiting = array.array("i", [0])
-        fcntl.ioctl(proc.stderr.fileno(), termios.FIONREAD, waiting)
-        if waiting[0] > pipe_bytes - 512:  # full: what is left is less than a message
+        fcntl.ioctl(read_end, termios.FIONREAD, waiting)
+        if waiting[0] != last:
+            last, steady_since = waiting[0], time.monotonic()
+        # Full: what is left is less than a message; or, for a message longer than that
+        # margin, nothing more has come for a second while the command still runs.
+        if waiting[0] > pipe_bytes - 512 or (waiting[0] > 0 and time.monotonic() - steady_since > 1.0):
             filled = True
             proc.send_signal(sig)
             break
         time.sleep(0.01)
-    messages = proc.stderr.read().decode("utf-8", "replace")
+    messages = reader.read().decode("utf-8", "replace")
     proc.wait()
-    proc.stderr.close()
+    reader.close()
     return proc.returncode, filled, messages
 
 
