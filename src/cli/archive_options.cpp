@@ -1,6 +1,7 @@
 #include "cli/archive_options.h"
 
 #include <string_view>
+#include <utility>
 
 #include "cli/number_checks.h"
 #include "cli/text_checks.h"
@@ -11,12 +12,44 @@ namespace manicule::cli {
 
 namespace {
 
-int parse_year(const std::string& text, const std::string& whole) {
+constexpr const char* kYearsForm =
+    "--years takes FROM-TO, FROM- or -TO, or one year, in years of up to four digits, those before the common "
+    "era with BCE (450BCE-400BCE, 44BCE-14, 1800-1850); got '";
+
+// One bound of --years: "1850", "14", "44BCE" (also "44 BC"; "14CE" and "14 AD" are 14);
+// 0 for an empty bound. A year before the common era is negative, as a header writes it
+// (XML Schema's "-0044" is 44BCE). There is no year 0, which the filter takes for "none".
+int parse_year(std::string text, const std::string& whole) {
+  const auto trim = [](std::string& t) {
+    while (!t.empty() && t.back() == ' ') t.pop_back();
+    while (!t.empty() && t.front() == ' ') t.erase(0, 1);
+  };
+  trim(text);
   if (text.empty()) return 0;
-  if (text.size() > 4 || text.find_first_not_of("0123456789") != std::string::npos)
-    throw Error(ErrorKind::usage, "--years takes FROM-TO, FROM- or -TO in four-digit years, e.g. 1800-1850; got '" +
-                                      whole + "'");
-  return std::stoi(text);
+  int sign = 1;
+  const auto ends_with_era = [&](const std::string& era) {
+    if (text.size() <= era.size()) return false;
+    for (std::size_t i = 0; i < era.size(); ++i) {
+      const char c = text[text.size() - era.size() + i];
+      if ((c >= 'a' && c <= 'z' ? c - ('a' - 'A') : c) != era[i]) return false;
+    }
+    return true;
+  };
+  for (const auto& [era, era_sign] : {std::pair{"BCE", -1}, {"BC", -1}, {"CE", 1}, {"AD", 1}}) {
+    const std::string name = era;
+    if (ends_with_era(name)) {
+      text.resize(text.size() - name.size());
+      trim(text);
+      sign = era_sign;
+      break;
+    }
+  }
+  if (text.empty() || text.size() > 4 || text.find_first_not_of("0123456789") != std::string::npos)
+    throw Error(ErrorKind::usage, kYearsForm + whole + "'");
+  const int year = std::stoi(text);
+  if (year == 0)
+    throw Error(ErrorKind::usage, "--years " + whole + ": there is no year 0; 1BCE is followed by 1");
+  return sign * year;
 }
 
 }  // namespace
@@ -28,7 +61,7 @@ void ArchiveFilterOptions::add_to(CLI::App& command) {
   command.add_option("--author", author, "only files one of whose header authors holds each word of this text, as a whole word (any order, letter case ignored)")
       ->check(not_blank())
       ->group("Sub-corpus");
-  command.add_option("--years", years, "only segments dated in FROM-TO (1800-1850, 1800-, -1850, or one year: 1850): a letter by its own date, else by its file's (the work's; docs/store.md)")
+  command.add_option("--years", years, "only segments dated in FROM-TO (1800-1850, 1800-, -1850, one year: 1850; before the common era: 450BCE-400BCE): a letter by its own date, else by its file's (the work's; docs/store.md)")
       ->check(not_blank())
       ->group("Sub-corpus");
   command.add_option("--language", language, "only segments in this language, their own or else their file's (de, en, eng, en-GB)")
@@ -54,8 +87,7 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
   if (!years.empty()) {
     auto dash = years.find('-');
     if (years.find_first_not_of("- ") == std::string::npos)
-      throw Error(ErrorKind::usage, "--years takes FROM-TO, FROM- or -TO in four-digit years, or one year, e.g. "
-                                    "1800-1850; got '" + years + "'");
+      throw Error(ErrorKind::usage, kYearsForm + years + "'");
     if (dash == std::string::npos) {
       f.year_from = f.year_to = parse_year(years, years);
     } else {

@@ -9,7 +9,7 @@
 
 namespace manicule {
 
-// "23 speaker segments of lessing-emilia-galotti" / "... of 2 editions".
+// "23 speaker segments of ferry-play" / "... of 2 editions".
 std::string describe_measured_segments(const Analysis& analysis);
 
 // Caption lines: features and sizes, `method` (e.g. "PCA on z-scores"), tokenizer, inputs,

@@ -86,9 +86,12 @@ std::string ArchiveFilter::describe() const {
   auto add = [&](const std::string& part) { out += (out.empty() ? "" : " ") + part; };
   if (!folder.empty()) add("folder=" + folder);
   if (!author.empty()) add("author~" + author);
-  if (asks_years())
-    add("year=" + (year_from ? std::to_string(year_from) : std::string()) + "-" +
-        (year_to ? std::to_string(year_to) : std::string()));
+  // As --years spells them, so that the record can be given again: 44BCE, not -44.
+  const auto year_text = [](int year) {
+    if (year == 0) return std::string();
+    return year < 0 ? std::to_string(-year) + "BCE" : std::to_string(year);
+  };
+  if (asks_years()) add("year=" + year_text(year_from) + "-" + year_text(year_to));
   if (!language.empty()) add("language=" + language);
   if (!title.empty()) add("title=" + title);
   return out;

@@ -37,7 +37,7 @@ struct ArchiveFilter {
   // Whether some year of first..last lies in the range (0, 0: no years).
   bool years_overlap(int first, int last) const;
   bool empty() const { return folder.empty() && !selects_by_header(); }
-  // "author~goethe year=1800-1830", "" when empty; recorded with each analysis run.
+  // "author~tide year=1800-1830", "" when empty; recorded with each analysis run.
   std::string describe() const;
 };
 
