@@ -93,6 +93,16 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
     } else {
       f.year_from = parse_year(years.substr(0, dash), years);
       f.year_to = parse_year(years.substr(dash + 1), years);
+      // "-0044" is how a header writes 44 BCE (XML Schema); as "up to 44" it would quietly
+      // take the whole of antiquity. Early years as an upper bound alone need their era.
+      const std::string upper = years.substr(dash + 1);
+      if (dash == 0 && f.year_to > 0 && f.year_to < 1000 && upper.find_first_not_of("0123456789 ") == std::string::npos)
+      {
+        const std::string year = std::to_string(f.year_to);
+        throw Error(ErrorKind::usage, "--years " + years + ": say which: -" + year + "CE for the years up to " + year +
+                                          ", or " + year + "BCE for the year a header writes -" +
+                                          std::string(4 - year.size(), '0') + year);
+      }
     }
     if (f.year_from && f.year_to && f.year_from > f.year_to)
       throw Error(ErrorKind::usage, "--years " + years + ": the first year is after the second");

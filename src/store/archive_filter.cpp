@@ -86,10 +86,12 @@ std::string ArchiveFilter::describe() const {
   auto add = [&](const std::string& part) { out += (out.empty() ? "" : " ") + part; };
   if (!folder.empty()) add("folder=" + folder);
   if (!author.empty()) add("author~" + author);
-  // As --years spells them, so that the record can be given again: 44BCE, not -44.
+  // As --years spells them, so that the record can be given again and is read one way:
+  // 44BCE, not -44; early years of the common era with their era (year=-44CE: up to 44).
   const auto year_text = [](int year) {
     if (year == 0) return std::string();
-    return year < 0 ? std::to_string(-year) + "BCE" : std::to_string(year);
+    if (year < 0) return std::to_string(-year) + "BCE";
+    return std::to_string(year) + (year < 1000 ? "CE" : "");
   };
   if (asks_years()) add("year=" + year_text(year_from) + "-" + year_text(year_to));
   if (!language.empty()) add("language=" + language);

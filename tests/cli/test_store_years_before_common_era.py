@@ -6,7 +6,8 @@ with a minus, "-0450" for 450 BCE (XML Schema 1.0 Part 2, 3.2.7: no year 0000, "
 the year before "0001"). `--years` writes those years with BCE ("450BCE-400BCE",
 docs/store.md). Each file's year is read here with lxml and a regular expression written
 from that rule, apart from manicule's reader, and every range must take exactly the files
-whose year lies in it; a range's bounds out of order, and a year 0, are usage errors.
+whose year lies in it; a range's bounds out of order, a year 0, and an upper bound alone
+below 1000 without its era ("-0044", the header's own spelling of 44 BCE), are usage errors.
 
 The editions are invented (the harbour hymns of old Quillmouth) and valid TEI (jing with
 tei_all, checked first).
@@ -90,7 +91,7 @@ def analysed_files(years):
 
 # (--years as given, the range it means in signed years; None: no bound)
 RANGES = [("450BCE-400BCE", -450, -400), ("44BCE-14", -44, 14), ("-44BCE", None, -44), ("420BCE-", -420, None),
-          ("44 bc", -44, -44), ("1BCE-300CE", -1, 300), ("14AD-", 14, None), ("-100", None, 100)]
+          ("44 bc", -44, -44), ("1BCE-300CE", -1, 300), ("14AD-", 14, None), ("-100CE", None, 100), ("-1000", None, 1000)]
 for years, low, high in RANGES:
     want = {name for name, year in year_of_file.items()
             if year is not None and (low is None or year >= low) and (high is None or year <= high)}
@@ -105,8 +106,9 @@ for years, low, high in RANGES:
     mtest.check("1 file(s) left out by --years for want of a year" in proc.stderr,
                 "--years %s: no note of the undated file: %s" % (years, proc.stderr))
 
-# Out of order (450 BCE comes before 400 BCE), and a year 0, which neither calendar has.
-for years in ("400BCE-450BCE", "0-14", "0BCE-14", "14-0"):
+# Out of order (450 BCE comes before 400 BCE); a year 0, which neither calendar has; and an
+# early year as an upper bound alone without its era: "-0044" is how a header writes 44 BCE.
+for years in ("400BCE-450BCE", "0-14", "0BCE-14", "14-0", "-0044", "-44", "-999"):
     proc = mtest.run(["analyse-store", "--store", store, "--years", years], check=False)
     mtest.check(proc.returncode == 2 and "--years" in proc.stderr,
                 "--years %s: exit %d, %s" % (years, proc.returncode, proc.stderr))
