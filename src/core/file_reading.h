@@ -26,8 +26,9 @@ struct SelectionRules;
 // a file's, that of its text before langUsage; the title of type main preferred; notes
 // left out of titles and names, line breaks and name parts parting their words; several
 // names of one author bracketed, one named twice given once; a year written "-0400" is
-// before the common era.
-constexpr int kReadingRevision = 5;
+// before the common era. 6: invisible characters (Default_Ignorable_Code_Point) dropped
+// from words, and a U+02BC at a word's edge with the apostrophe look-alikes.
+constexpr int kReadingRevision = 6;
 
 // What the edition's own header says (the first TEI element's teiHeader).
 struct FileMetadata {

@@ -28,7 +28,7 @@ std::string current_time_iso8601() {
 }
 
 std::string describe_tokenizer(const TokenizerOptions& o) {
-  std::string out = "UAX #29 word breaks (ICU), NFC";
+  std::string out = "UAX #29 word breaks (ICU), NFC, invisible characters dropped";
   out += o.case_fold ? ", full case folding" : ", case kept";
   out += o.keep_numbers ? ", numbers kept" : ", numbers dropped";
   out += o.keep_punctuation ? ", punctuation kept" : ", punctuation dropped";

@@ -52,14 +52,16 @@ C latin1_supplement_class(char32_t c) {
 C general_punctuation_class(char32_t c) {
   if (c <= 0x2001) return C::ineligible;  // canonical singletons (-> U+2002, U+2003)
   if (c <= 0x2006 || (c >= 0x2008 && c <= 0x200A)) return C::wseg_space;
-  if (c >= 0x200C && c <= 0x200F) return C::ineligible;  // ZWNJ Extend, ZWJ, LRM/RLM Format
+  // ZERO WIDTH SPACE (Other, but a token that normalising drops: TokenNormaliser), ZWNJ
+  // Extend, ZWJ, LRM/RLM Format: ICU's.
+  if (c >= 0x200B && c <= 0x200F) return C::ineligible;
   if (c >= 0x202A && c <= 0x202E) return C::ineligible;  // bidi embedding controls, Format
   switch (c) {
     case 0x2018: case 0x2019: case 0x2024: return C::mid_num_let;  // ‘ ’ one dot leader
     case 0x2027: return C::mid_letter;                             // hyphenation point
     case 0x2028: case 0x2029: return C::newline;
     case 0x202F: case 0x203F: return C::extend_num_let;  // narrow no-break space, undertie
-    default: return C::other;  // figure space, ZWSP, dashes, quotes, daggers, ellipsis...
+    default: return C::other;  // figure space, dashes, quotes, daggers, ellipsis...
   }
 }
 
@@ -340,6 +342,11 @@ std::string_view fold_ascii_capitals(std::string_view token, std::string& buffer
 std::string_view latin_normalise(std::string_view token, bool case_fold, bool apostrophes,
                                  std::string& buffer) {
   buffer.clear();
+  // A narrow no-break space (U+202F, E2 80 AF) at either end is left out, as TokenNormaliser
+  // leaves it out (normalise.cpp, why).
+  constexpr std::string_view kNarrowNoBreakSpace = "\xE2\x80\xAF";
+  while (token.substr(0, 3) == kNarrowNoBreakSpace) token.remove_prefix(3);
+  while (token.size() >= 3 && token.substr(token.size() - 3) == kNarrowNoBreakSpace) token.remove_suffix(3);
   for (std::size_t at = 0; at < token.size();) {
     const auto byte = [&](std::size_t i) { return static_cast<unsigned char>(token[i]); };
     const unsigned char lead = byte(at);

@@ -50,8 +50,39 @@ std::string_view TokenNormaliser::normalise(std::string_view token) {
   if (!b.nfc->isNormalized(b.text, status)) b.text = b.nfc->normalize(b.text, status);
   check(status, "NFC normalisation");
 
-  // Every character replaced here is in the BMP, so code units will do.
   bool changed = false;
+  // Characters that change nothing a reader sees (Unicode's Default_Ignorable_Code_Point:
+  // soft hyphen, zero-width joiners, directional marks, variation selectors) sit inside a
+  // word when the editor's text has them (UAX #29 WB4 attaches them), so that "amici\u00ADtia"
+  // would count apart from "amicitia". They are dropped, as NFKC_Casefold drops them
+  // (Unicode Standard, 3.13; UAX #44, NFKC_CF).
+  const auto ignorable = [](UChar32 c) { return u_hasBinaryProperty(c, UCHAR_DEFAULT_IGNORABLE_CODE_POINT); };
+  int32_t first_ignorable = 0;
+  while (first_ignorable < b.text.length() && !ignorable(b.text.char32At(first_ignorable)))
+    first_ignorable = b.text.moveIndex32(first_ignorable, 1);
+  if (first_ignorable < b.text.length()) {
+    b.replaced.setTo(b.text, 0, first_ignorable);
+    for (int32_t i = first_ignorable; i < b.text.length(); i = b.text.moveIndex32(i, 1))
+      if (!ignorable(b.text.char32At(i))) b.replaced.append(b.text.char32At(i));
+    b.text.swap(b.replaced);
+    changed = true;
+  }
+  // At a word's edges: U+202F, the narrow no-break space that French and German typesetting
+  // puts before "!", "?", ";" and inside guillemets, is ExtendNumLet to UAX #29 (for
+  // Mongolian suffixes), which joins it to the word beside it ("Herr\u202F!"); and U+02BC,
+  // a letter to UAX #29, which a word keeps ("κατʼ", "ʼtis") where the apostrophes it stands
+  // for (’ and ') are split off as punctuation. Dropped there, so that the word counts alike
+  // however the editor typeset it; inside a word both stay.
+  const auto edge_mark = [&](char16_t c) { return c == 0x202F || (options_.apostrophes && c == 0x02BC); };
+  int32_t begin = 0, end = b.text.length();
+  while (begin < end && edge_mark(b.text.charAt(begin))) ++begin;
+  while (end > begin && edge_mark(b.text.charAt(end - 1))) --end;
+  if (begin != 0 || end != b.text.length()) {
+    b.text.retainBetween(begin, end);
+    changed = true;
+  }
+
+  // Every character replaced here is in the BMP, so code units will do.
   const auto replacement = [&](char16_t c) -> const char16_t* {
     if (options_.long_s && c == 0x017F) return u"s";
     if (options_.ligatures && c >= 0xFB00 && c <= 0xFB06) return kLigatureLetters[c - 0xFB00];

@@ -36,7 +36,13 @@ class Tokenizer {
   void tokenize(std::string_view text, std::string_view language, Sink&& sink) {
     for (const WordSegment& segment : kept_segments(text, language)) {
       const std::string_view piece = text.substr(segment.begin, segment.end - segment.begin);
-      sink(segment.form == SegmentForm::ascii_lower ? piece : normalise(piece, segment.form));
+      if (segment.form == SegmentForm::ascii_lower) {
+        sink(piece);
+        continue;
+      }
+      // Normalising can leave nothing of a segment of invisible characters alone.
+      const std::string_view token = normalise(piece, segment.form);
+      if (!token.empty()) sink(token);
     }
   }
 

@@ -22,7 +22,9 @@ struct TokenizerOptions {
   // Apostrophe look-alikes inside a token -> U+0027 ': U+2019 ’ and U+2018 ‘ (MidNumLet in
   // UAX #29, so they sit inside a word only as an elision mark), U+02BC ʼ (a letter, used
   // as an apostrophe) and U+FF07 ＇ (fullwidth apostrophe). Not U+00B4 ´ or U+2032 ′:
-  // both are Other in UAX #29, so they always end a word and never reach a token.
+  // both are Other in UAX #29, so they always end a word and never reach a token. A U+02BC
+  // at either end of a word is dropped, as ’ and ' are split off there by UAX #29.
+  // (Invisible characters, Default_Ignorable_Code_Point, are dropped from every token.)
   bool apostrophes = true;
   // Segment and fold text made only of ASCII, Latin-1 and common punctuation by hand,
   // falling back to ICU for the stretches that hold anything else. Same output either way.

@@ -6,6 +6,9 @@
 #include <string>
 #include <vector>
 
+#include <map>
+
+#include "test_tokenizer_support.h"
 #include "text/icu_word_breaker.h"
 #include "text/tokenizer.h"
 
@@ -68,6 +71,69 @@ TEST_CASE("apostrophe variants become U+0027 inside one word", "[tokenizer][norm
   TokenizerOptions keep;
   keep.apostrophes = false;
   CHECK(tokens_of("don’t", keep, fast_path, "en") == Tokens{"don’t"});
+}
+
+TEST_CASE("invisible characters inside a word are dropped", "[tokenizer][normalise]") {
+  const bool fast_path = GENERATE(false, true);
+  // Source: DerivedCoreProperties.txt (Default_Ignorable_Code_Point) and WordBreakProperty.txt
+  // (Unicode 15.0, Debian's unicode-data, the version of ICU 72). Those UAX #29 keeps inside a
+  // word (Format, Extend and ZWJ by WB4, ALetter by WB5) must leave the word as if absent;
+  // the others (ZERO WIDTH SPACE, unassigned ones: Other) part words, which WB999 decides.
+  std::map<char32_t, std::string> word_break;
+  for (const auto& range : manicule::test::unicode_property_ranges(
+           manicule::test::read_unicode_data("auxiliary/WordBreakProperty.txt")))
+    for (char32_t c = range.first; c <= range.last; ++c) word_break[c] = range.value;
+  int inside = 0, parting = 0;
+  for (const auto& range : manicule::test::unicode_property_ranges(
+           manicule::test::read_unicode_data("DerivedCoreProperties.txt"))) {
+    if (range.value != "Default_Ignorable_Code_Point") continue;
+    for (char32_t c = range.first; c <= range.last; ++c) {
+      const std::string wb = word_break.count(c) ? word_break[c] : "Other";
+      INFO("U+" << std::hex << static_cast<unsigned>(c) << " " << range.category << " " << wb);
+      const Tokens got = tokens_of("amici" + manicule::test::utf8(c) + "tia", {}, fast_path, "la");
+      if (wb == "Format" || wb == "Extend" || wb == "ZWJ" || wb == "ALetter") {
+        ++inside;
+        CHECK(got == Tokens{"amicitia"});
+      } else {
+        ++parting;
+        CHECK(got == Tokens{"amici", "tia"});
+      }
+    }
+  }
+  // DerivedCoreProperties.txt 15.0 lists 4,174 such code points, most of them reserved tags.
+  CHECK(inside > 300);
+  CHECK(parting > 3000);
+  // A segment made of them alone gives no token, punctuation kept or not.
+  TokenizerOptions punctuation;
+  punctuation.keep_punctuation = true;
+  CHECK(tokens_of("ja \xE2\x80\x8D nein", punctuation, fast_path) == Tokens{"ja", "nein"});
+}
+
+TEST_CASE("a narrow no-break space at a word's edge is not part of it", "[tokenizer][normalise]") {
+  const bool fast_path = GENERATE(false, true);
+  // WordBreakProperty.txt: "202F ; ExtendNumLet", so WB13a joins "Herr" and the U+202F that
+  // French and German typesetting put before "!" and inside guillemets, and WB13b joins it to
+  // a following word; the word counts without it. Between two words it stays (WB13a, WB13b:
+  // Mongolian writes suffixes so).
+  const std::string nnbsp = "\xE2\x80\xAF";
+  CHECK(tokens_of("Herr" + nnbsp + "! Herr.", {}, fast_path) == Tokens{"herr", "herr"});
+  CHECK(tokens_of("\xC2\xAB" + nnbsp + "Caf\xC3\xA9" + nnbsp + "\xC2\xBB", {}, fast_path, "fr") ==
+        Tokens{"caf\xC3\xA9"});
+  CHECK(tokens_of("a" + nnbsp + "b", {}, fast_path) == Tokens{"a" + nnbsp + "b"});
+}
+
+TEST_CASE("U+02BC at a word's edge goes as the apostrophes it stands for", "[tokenizer][normalise]") {
+  const bool fast_path = GENERATE(false, true);
+  // WordBreakProperty.txt: "02BC ; ALetter" keeps it in the word ("κατʼ"); "2019 ;
+  // MidNumLet" and "0027 ; Single_Quote" join only between letters (WB6, WB7), so a word
+  // ending in ’ or ' ends before it. Folded, an elision reads alike whichever mark it has.
+  CHECK(tokens_of("\xCE\xBA\xCE\xB1\xCF\x84\xCA\xBC \xCE\xBA\xCE\xB1\xCF\x84\xE2\x80\x99 "
+                  "\xCE\xBA\xCE\xB1\xCF\x84'", {}, fast_path, "grc") ==
+        Tokens{"\xCE\xBA\xCE\xB1\xCF\x84", "\xCE\xBA\xCE\xB1\xCF\x84", "\xCE\xBA\xCE\xB1\xCF\x84"});
+  CHECK(tokens_of("\xCA\xBCtis \xE2\x80\x99tis", {}, fast_path, "en") == Tokens{"tis", "tis"});
+  TokenizerOptions keep;
+  keep.apostrophes = false;
+  CHECK(tokens_of("\xCA\xBCtis", keep, fast_path, "en") == Tokens{"\xCA\xBCtis"});
 }
 
 TEST_CASE("long s and ligatures when asked", "[tokenizer][normalise]") {

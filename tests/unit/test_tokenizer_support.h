@@ -9,6 +9,7 @@
 #include <sstream>
 #include <string>
 #include <string_view>
+#include <vector>
 
 namespace manicule::test {
 
@@ -39,6 +40,36 @@ inline std::string read_unicode_data(const std::string& relative) {
                         << "(or point MANICULE_UNICODE_DATA at a Unicode data folder)");
   }
   return content;
+}
+
+// One line of a Unicode Character Database property file: "0041..005A ; ALetter # Lu ..."
+// or "00AD ; Default_Ignorable_Code_Point # Cf SOFT HYPHEN"; `category` is the general
+// category the comment gives (DerivedCoreProperties.txt writes it there), "" if none.
+struct UnicodePropertyRange {
+  char32_t first = 0, last = 0;
+  std::string value, category;
+};
+
+inline std::vector<UnicodePropertyRange> unicode_property_ranges(const std::string& content) {
+  std::vector<UnicodePropertyRange> out;
+  std::istringstream lines(content);
+  for (std::string line; std::getline(lines, line);) {
+    const std::size_t hash = line.find('#');
+    const std::string comment = hash == std::string::npos ? "" : line.substr(hash + 1);
+    line = line.substr(0, hash);
+    const std::size_t semicolon = line.find(';');
+    if (semicolon == std::string::npos) continue;
+    UnicodePropertyRange range;
+    const std::string code_points = line.substr(0, semicolon);
+    std::istringstream(line.substr(semicolon + 1)) >> range.value;
+    std::istringstream(comment) >> range.category;
+    const std::size_t dots = code_points.find("..");
+    range.first = static_cast<char32_t>(std::stoul(code_points, nullptr, 16));
+    range.last = dots == std::string::npos ? range.first
+                                           : static_cast<char32_t>(std::stoul(code_points.substr(dots + 2), nullptr, 16));
+    out.push_back(range);
+  }
+  return out;
 }
 
 inline void append_utf8(char32_t c, std::string& out) {

@@ -137,24 +137,9 @@ TEST_CASE("fast path: word boundaries equal ICU's on every WordBreakTest.txt lin
 TEST_CASE("fast path: Word_Break classes match WordBreakProperty.txt",
           "[tokenizer][uax29][fast_path]") {
   const std::string content = read_unicode_data("auxiliary/WordBreakProperty.txt");
-  // "0041..005A    ; ALetter # ..." or "0027          ; Single_Quote # ..."
   std::map<char32_t, std::string> property;
-  std::istringstream lines(content);
-  for (std::string line; std::getline(lines, line);) {
-    line = line.substr(0, line.find('#'));
-    const std::size_t semicolon = line.find(';');
-    if (semicolon == std::string::npos) continue;
-    const std::string range = line.substr(0, semicolon);
-    std::istringstream value_field(line.substr(semicolon + 1));
-    std::string value;
-    value_field >> value;
-    const std::size_t dots = range.find("..");
-    const auto first = static_cast<char32_t>(std::stoul(range, nullptr, 16));
-    const auto last =
-        dots == std::string::npos ? first
-                                  : static_cast<char32_t>(std::stoul(range.substr(dots + 2), nullptr, 16));
-    for (char32_t c = first; c <= last && c <= 0x2FFF; ++c) property[c] = value;
-  }
+  for (const auto& range : manicule::test::unicode_property_ranges(content))
+    for (char32_t c = range.first; c <= range.last && c <= 0x2FFF; ++c) property[c] = range.value;
   REQUIRE(property.count(U'A') == 1);
 
   const std::map<LatinBreakClass, std::string> names = {
