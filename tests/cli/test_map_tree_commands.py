@@ -1,7 +1,11 @@
 """`manicule map` and `manicule tree` against scikit-learn and SciPy, on the speakers of
-one GerDraCor play (30 speakers at a lowered minimum size):
+one GerDraCor play (30 speakers at a lowered minimum size). The z-scores every reference
+starts from are worked out here, not taken from the program: each speaker's words read
+with lxml (the reading preset's text, tests/pylib/reading_text.py), cut by a regular
+expression after UAX #29 and counted, ranked and standardised by numpy and scikit-learn
+(measure_reference.reference_table); `profile --values z` must give the same table.
   - map JSON coordinates and explained variance ratios equal
-    sklearn.decomposition.PCA on the z-score table of `profile`, up to each component's
+    sklearn.decomposition.PCA on those z-scores, up to each component's
     sign, within 1e-6; each pole lists the features with the largest / most negative
     components_ values
   - tree merge heights (ward, average, complete) equal scipy.cluster.hierarchy.linkage on
@@ -15,12 +19,17 @@ import json
 import os
 import re
 import sys
+import unicodedata
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
+import storecheck  # noqa: E402
+from measure_reference import check_matrix_close, reference_table  # noqa: E402
 from measure_tables import read_profile  # noqa: E402
+from reading_text import LEFT_OUT, TEI, text_without_left_out  # noqa: E402
 
 import numpy as np  # noqa: E402
+from lxml import etree  # noqa: E402
 from scipy.cluster.hierarchy import linkage  # noqa: E402
 from scipy.spatial import distance  # noqa: E402
 from sklearn.decomposition import PCA  # noqa: E402
@@ -29,7 +38,33 @@ PLAY = os.path.join(mtest.CORPORA, "gerdracor", "hauptmann-florian-geyer.xml")
 if not os.path.exists(PLAY):
     print("SKIP: the GerDraCor play is not there")
     sys.exit(77)
-SELECT = [PLAY, "--unit", "speaker", "--min-tokens", "300", "--ranks", "1-500"]
+MIN_TOKENS = 300
+SELECT = [PLAY, "--unit", "speaker", "--min-tokens", str(MIN_TOKENS), "--ranks", "1-500"]
+# Words as UAX #29 finds them in this play (README.md: "Words are found by Unicode word
+# breaking"), written as a regular expression: runs of letters, joined by an apostrophe
+# (WB6/WB7) and by the ExtendNumLet characters "_" and U+202F NARROW NO-BREAK SPACE
+# (WordBreakProperty.txt; WB13a/WB13b keep them inside a word, so the play's "haben\u202f!"
+# gives the word "haben\u202f"). Numbers dropped, NFC, full case folding (str.casefold),
+# ' and its look-alikes ’ ʼ one character (README.md).
+LETTERS = r"(?:[^\W\d_]|[_\u202f])+"
+WORD = re.compile(LETTERS + "(?:'" + LETTERS + ")*")
+
+
+def speaker_words(path):
+    """[(segment id, tokens)] of each @who of the play's speeches, in order of first speech:
+    the text the reading preset selects (reading_text, lxml), cut into words by WORD."""
+    stem = os.path.splitext(os.path.basename(path))[0]
+    words = {}
+    for sp in etree.parse(path).getroot().iter(TEI + "sp"):
+        if any(a.tag.replace(TEI, "") in LEFT_OUT for a in sp.iterancestors()):
+            continue
+        parts = []
+        text_without_left_out(sp, parts)
+        text = unicodedata.normalize("NFC", "".join(parts)).replace("\u2019", "'").replace("\u02bc", "'")
+        tokens = [w.casefold() for w in WORD.findall(text) if re.search(r"[^\W\d_]", w)]
+        for who in sp.get("who").split():
+            words.setdefault("%s#%s" % (stem, who.lstrip("#")), []).extend(tokens)
+    return list(words.items())
 
 
 def parse_newick(text):
@@ -96,10 +131,16 @@ def parse_newick(text):
     return leaves, groups, paths
 
 
-_, features, z_rows = read_profile(mtest.run(["profile", "--values", "z"] + SELECT).stdout)
-ids = list(z_rows)
-z = np.array([z_rows[i] for i in ids])
-mtest.check(len(ids) >= 20, "20+ speakers measured, got %d" % len(ids))
+# reference: lxml, re and numpy (ddof=1) through sklearn's CountVectorizer
+speakers = [(sid, tokens) for sid, tokens in speaker_words(PLAY) if len(tokens) >= MIN_TOKENS]
+ids = [sid for sid, _ in speakers]
+features, _, z, _ = reference_table(speakers, 1, 500)
+mtest.check(len(ids) >= 20, "20+ speakers of %d words or more (lxml), got %d" % (MIN_TOKENS, len(ids)))
+_, ours_features, z_rows = read_profile(mtest.run(["profile", "--values", "z"] + SELECT).stdout)
+mtest.check(list(z_rows) == ids, "profile rows %s, lxml's speakers %s" % (list(z_rows), ids))
+mtest.check(ours_features == features, "profile features differ from the reference ranking (first apart: %r)"
+            % (next(((a, b) for a, b in zip(ours_features, features) if a != b), None),))
+check_matrix_close([z_rows[i] for i in ids], z, "profile z-scores (lxml, re, numpy ddof=1)")
 
 # --- map: PCA --------------------------------------------------------------------------
 # More components asked than the segments span: as many as the centred z-scores' rank
@@ -133,6 +174,7 @@ for k, component in enumerate(doc["pca"]["components"]):
     mtest.check(np.abs(loadings - weights).max() <= 1e-6, "PC%d loadings equal sklearn components_" % (k + 1))
 
 # --- tree: linkage heights and clusters ----------------------------------------------------
+PLAY_SHA256 = storecheck.sha256_of(PLAY)
 condensed = distance.pdist(z, "cosine")  # Cosine Delta, scipy.spatial.distance.pdist
 for method in ("ward", "average", "complete"):
     tree = json.loads(mtest.run(["tree", "--format", "json", "--linkage", method] + SELECT).stdout)["tree"]
@@ -151,7 +193,9 @@ for method in ("ward", "average", "complete"):
                 "%s: the same clusters as SciPy" % method)
 
     newick = mtest.run(["tree", "--linkage", method] + SELECT).stdout
-    mtest.check(newick.startswith("[") and "sha256:" in newick, "Newick starts with the parameters as a comment")
+    # reference: hashlib (storecheck.sha256_of), the play's SHA-256 in the parameter comment
+    mtest.check(newick.startswith("[") and "sha256:" + PLAY_SHA256 in newick.split("]")[0],
+                "Newick starts with the parameters, the input's SHA-256 among them: " + newick[:300])
     leaves, groups, paths = parse_newick(newick)
     mtest.check(sorted(leaves) == sorted(ids), "%s Newick has every segment once" % method)
     top = ref[-1, 2]
@@ -175,12 +219,7 @@ mtest.check(all(50 < s <= 100 for s in newick_groups.values()), "majority-rule s
 # majority-rule consensus of SciPy's five trees (clusters in more than half of them).
 in_trees = collections.Counter()
 for last in (100, 200, 300, 400, 500):
-    if last == 500:  # the z-scores of SELECT, read above
-        zm = z
-    else:
-        _, _, zr = read_profile(mtest.run(["profile", "--values", "z", PLAY, "--unit", "speaker", "--min-tokens",
-                                           "300", "--ranks", "1-%d" % last]).stdout)
-        zm = np.array([zr[i] for i in ids])
+    _, _, zm, _ = reference_table(speakers, 1, last)  # lxml, re and numpy, as above
     ref = linkage(distance.pdist(zm, "cosine"), method="ward")  # scipy.cluster.hierarchy.linkage
     sets = [frozenset([ids[i]]) for i in range(len(ids))]
     for a, b in ref[:, :2]:
