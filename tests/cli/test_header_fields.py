@@ -16,12 +16,15 @@ under the rules written down here, each from TEI P5 or tei-conventions.md:
   - the title and author are those of teiHeader/fileDesc/titleStmt, not of a source's
     titleStmt in sourceDesc/biblFull;
   - a year written "-0400" (XML Schema's gYear, as TEI's att.datable.w3c uses it) is before
-    the common era, so year -400;
+    the common era, so year -400; the date is kept as written, and a header without a date
+    gives none (the header's dates in docs/store.md's order: tests/pylib/tei_dates.py);
   - a segment's language is that of most of its words (docs/store.md), words counted here
     as Python's re finds runs of letters; the layout between elements (newlines,
     indentation) takes the language around it and must not outweigh the words;
-  - a file's language is that of most of its text's words (xml:lang, inherited), before
-    langUsage (tei-conventions.md section 4).
+  - a file's language is that of most of its segments' words (xml:lang, inherited), else
+    its TEI element's xml:lang, before langUsage (docs/store.md, "Language";
+    tei-conventions.md section 4). The header is never part of the text measured: its
+    <p>s (publicationStmt, sourceDesc) do not count.
 """
 import os
 import re
@@ -31,6 +34,8 @@ from collections import Counter
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
+from reading_text import LEFT_OUT  # noqa: E402
+from tei_dates import work_date, year_of  # noqa: E402
 from unicode_words import spaceless  # noqa: E402
 from lxml import etree  # noqa: E402
 
@@ -95,12 +100,13 @@ FILES = {
                                  profile='<profileDesc><langUsage><language ident="deu">Deutsch</language>'
                                          "</langUsage></profileDesc>"),
     "speeches.xml": edition("<title>Hafen</title><author>Lore Brink</author>", SPEECHES),
+    # The header's own prose, in English and longer than the German speech, is no text.
+    "header-prose.xml": edition("<title>Mole</title><author>Lore Brink</author>",
+                                '<div><sp who="#ferge"><p>Ja, ich komme gleich.</p></sp></div>',
+                                profile='<encodingDesc><projectDesc><p xml:lang="en">'
+                                        + " ".join(["the ferry project notes its sources here"] * 8)
+                                        + "</p></projectDesc></encodingDesc>"),
 }
-
-
-def words_of(element):
-    return re.sub(r"\s+", " ", "".join(element.xpath(".//text()[not(ancestor::t:note) and not(ancestor::t:idno)]",
-                                                     namespaces=NS)))
 
 
 def expected_title(root):
@@ -134,6 +140,38 @@ def whole(element):
     return " ".join(text_with_breaks(element).split())
 
 
+def words_by_language(sp):
+    """{language: words} of a speech's paragraphs (not its speaker label): runs of letters
+    as Python's re finds them, each in the xml:lang it inherits (lxml)."""
+    words = Counter()
+    for p in sp.iter("{%s}p" % TEI):
+        lang = p.xpath("string(ancestor-or-self::*[@xml:lang][1]/@xml:lang)")
+        words[lang] += len(re.findall(r"[^\W\d_]+", "".join(p.itertext())))
+    return words
+
+
+def speeches(root):
+    """The speeches the speaker unit measures: those of the text, outside the elements
+    the reading preset leaves out (tests/pylib/reading_text.py); never the header's."""
+    return [sp for sp in root.find("{%s}text" % TEI).iter("{%s}sp" % TEI)
+            if not any(etree.QName(a).localname in LEFT_OUT for a in sp.iterancestors())]
+
+
+def expected_language(root):
+    """docs/store.md: the language of most of the segments' words, else the TEI element's
+    xml:lang (langUsage only where the text says nothing, which no edition here does)."""
+    words = Counter()
+    for sp in speeches(root):
+        words.update(words_by_language(sp))
+    return words.most_common(1)[0][0] if words else root.get(XML_LANG)
+
+
+def expected_year(date):
+    """The year of a date as written: XML Schema's gYear reads "-0400" as 400 before the
+    common era (-400); otherwise the first run of four digits (tei_dates.year_of)."""
+    return -int(date[1:5]) if re.match(r"-\d{4}", date) else year_of(date)
+
+
 def expected_author(root):
     authors = []
     for author in root.findall("t:teiHeader/t:fileDesc/t:titleStmt/t:author", NS):
@@ -155,40 +193,46 @@ for name, text in FILES.items():
     with open(os.path.join(archive, name), "w", encoding="utf-8") as f:
         f.write(text)
 store = os.path.join(tmp, "fields.sqlite")
-mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--quiet"], check=False)
+mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--quiet"])  # every file reads: exit 0
 db = storecheck.connect(store)
-stored = {os.path.basename(r[0]): r[1:] for r in db.execute("SELECT path, title, author, year, language FROM file_list")}
-languages = dict(db.execute("SELECT author, language FROM segment_list WHERE path LIKE '%speeches.xml'"))
+stored = {os.path.basename(r[0]): r[1:] for r in db.execute(
+    "SELECT path, status, title, author, date, year, language FROM file_list")}
+segments = {r[0]: r[1:] for r in db.execute(
+    "SELECT author, language, tokens FROM segment_list WHERE path LIKE '%speeches.xml'")}
 db.close()
+# reference: os.listdir, every edition written is stored once, and read
+mtest.check(sorted(stored) == sorted(os.listdir(archive)), "stored %r, os.listdir %r"
+            % (sorted(stored), sorted(os.listdir(archive))))
 
 for name in FILES:
     root = etree.parse(os.path.join(archive, name)).getroot()
-    title, author, year, language = stored[name]
+    status, title, author, date, year, language = stored[name]
+    mtest.check(status == "ok", "%s: status %r" % (name, status))
     mtest.check(title == expected_title(root), "%s: title %r, lxml by the rule %r" % (name, title, expected_title(root)))
     mtest.check(author == expected_author(root), "%s: author %r, lxml by the rule %r"
                 % (name, author, expected_author(root)))
-    body_words = Counter()
-    for p in root.iter("{%s}p" % TEI):
-        lang = p.xpath("string(ancestor-or-self::*[@xml:lang][1]/@xml:lang)")
-        body_words[lang] += len(re.findall(r"[^\W\d_]+", "".join(p.itertext())))
-    mtest.check(language == body_words.most_common(1)[0][0], "%s: language %r, most of its words are in %r"
-                % (name, language, body_words.most_common(1)[0][0]))
-    when = root.xpath("string(//t:sourceDesc//t:date/@when)", namespaces=NS)
-    if when:
-        mtest.check(year == int(when[:5]), "%s: year %r for %r" % (name, year, when))
+    # reference: lxml and re, by docs/store.md's rule (expected_language)
+    mtest.check(language == expected_language(root), "%s: language %r, by its segments' words or its xml:lang %r"
+                % (name, language, expected_language(root)))
+    # reference: lxml (tei_dates.work_date), the date as written and its year; none without one
+    written = work_date(root, root.find("{%s}teiHeader" % TEI))
+    mtest.check((date or "") == written and year == expected_year(written),
+                "%s: date %r, year %r; the header gives %r, year %r" % (name, date, year, written, expected_year(written)))
 
 # Each speaker's language: the one most of its words are in, lxml and re counting them (the
-# speaker label is not running text).
+# speaker label is not running text), and its words, as many as re finds.
 root = etree.parse(os.path.join(archive, "speeches.xml")).getroot()
-for sp in root.iter("{%s}sp" % TEI):
-    words = Counter()
-    for p in sp.iter("{%s}p" % TEI):
-        lang = p.xpath("string(ancestor-or-self::*[@xml:lang][1]/@xml:lang)")
-        words[lang] += len(re.findall(r"[^\W\d_]+", "".join(p.itertext())))
+whos = [sp.get("who").lstrip("#") for sp in speeches(root)]
+mtest.check(sorted(segments) == sorted(whos), "speakers stored %r, lxml's %r" % (sorted(segments), sorted(whos)))
+for sp in speeches(root):
+    words = words_by_language(sp)
     want = words.most_common(1)[0][0]
     who = sp.get("who").lstrip("#")
-    mtest.check(languages.get(who) == want, "speaker %s: language %r, most of its words (%r) are %r"
-                % (who, languages.get(who), dict(words), want))
-mtest.check(set(languages.values()) == {"fr", "de"}, "the speakers' languages do not differ: %r" % languages)
+    language, tokens = segments[who]
+    mtest.check(language == want, "speaker %s: language %r, most of its words (%r) are %r"
+                % (who, language, dict(words), want))
+    mtest.check(tokens == sum(words.values()), "speaker %s: %d words stored, re finds %d"
+                % (who, tokens, sum(words.values())))
+mtest.check({segments[w][0] for w in whos} == {"fr", "de"}, "the speakers' languages do not differ: %r" % segments)
 
 mtest.done()
