@@ -23,14 +23,48 @@ for folder, count in (("de", 3), ("de_1", 2), ("en", 2)):
     os.makedirs(os.path.join(tmp, "archive", folder))
     for i in range(count):
         shutil.copy(letters, os.path.join(tmp, "archive", folder, "letters-%d.xml" % i))
-files = sorted(os.path.abspath(os.path.join(d, n)) for d, _, names in os.walk(os.path.join(tmp, "archive"))
-               for n in names)
+
+
+def walked(folder):
+    """Every file below `folder`, as os.walk finds it."""
+    return {os.path.join(d, n) for d, _, names in os.walk(folder) for n in names}
+
+
+files = sorted(walked(os.path.join(tmp, "archive")))  # tmp is absolute (tempfile.mkdtemp)
 
 
 def named_by(spelling):
     """The files below `spelling`, a path taken from the working folder tmp (Python's os.path)."""
     folder = os.path.normpath(os.path.join(tmp, spelling))
     return {f for f in files if f.startswith(folder + os.sep)}
+
+
+def placed(path):
+    """A stored path as a file: relative ones from tmp, where the batches ran (os.path)."""
+    return os.path.abspath(os.path.join(tmp, path))
+
+
+def analysed(store, spelling, cwd, recompute=True, env=None):
+    """Runs analyse-store --folder `spelling` from `cwd`; returns (the process, the files
+    the new analysis took, read with Python's sqlite3)."""
+    proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "200", "--folder", spelling]
+                     + (["--recompute"] if recompute else []), check=False, cwd=cwd, env=env)
+    _, tables = storecheck.latest_analysis(store)
+    return proc, {placed(row[1]) for row in tables["segments"]}
+
+
+def batch_folder(input_spelling, store, spelling, cwd):
+    """Runs batch --folder `spelling` from `cwd` into a new store; returns its batch run and
+    the paths it stored, as stored (Python's sqlite3)."""
+    for suffix in ("", "-wal"):
+        if os.path.exists(store + suffix):
+            os.remove(store + suffix)
+    mtest.run(["batch", input_spelling, "--store", store, "--unit", "letter", "--quiet", "--folder", spelling],
+              cwd=cwd)
+    db = storecheck.connect(store)
+    stored = {r[0] for r in db.execute("SELECT path FROM files")}
+    db.close()
+    return storecheck.last_run(store), stored
 
 
 spellings = ["archive/de", "./archive/de", os.path.join(tmp, "archive", "de"), "archive/de_1/../de",
@@ -41,36 +75,22 @@ for input_spelling in ("archive", os.path.join(tmp, "archive")):
     for spelling in spellings:
         want = named_by(spelling)
         mtest.check(len(want) in (2, 3), "%s names %d files" % (spelling, len(want)))
-        proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "200", "--folder", spelling], check=False,
-                         cwd=tmp)
+        proc, got = analysed(store, spelling, tmp, recompute=False)
         mtest.check(proc.returncode == 0, "input %s, --folder %s: exit %d, %s"
                     % (input_spelling, spelling, proc.returncode, proc.stderr))
-        _, tables = storecheck.latest_analysis(store)
-        got = {os.path.abspath(os.path.join(tmp, row[1])) for row in tables["segments"]}
         mtest.check(got == want, "input %s, --folder %s: analysed %r, os.path gives %r"
                     % (input_spelling, spelling, sorted(got), sorted(want)))
 
         # batch --folder reads just those files, into a store of its own.
-        part = os.path.join(tmp, "part.sqlite")
-        for suffix in ("", "-wal"):
-            if os.path.exists(part + suffix):
-                os.remove(part + suffix)
-        mtest.run(["batch", input_spelling, "--store", part, "--unit", "letter", "--quiet", "--folder", spelling],
-                  cwd=tmp)
-        run = storecheck.last_run(part)
-        db = storecheck.connect(part)
-        read = {os.path.abspath(os.path.join(tmp, r[0])) for r in db.execute("SELECT path FROM files")}
-        db.close()
+        run, read = batch_folder(input_spelling, os.path.join(tmp, "part.sqlite"), spelling, tmp)
+        read = {placed(path) for path in read}
         mtest.check(run["files_read"] == len(want) and read == want, "batch input %s --folder %s read %r, os.path "
                     "gives %r" % (input_spelling, spelling, sorted(read), sorted(want)))
 
 # Stored paths relative to where batch ran (the store from the input "archive"), asked from
 # inside the archive as "./de": the folder de below the input, which it is.
 relative_store = os.path.join(tmp, "store-%d.sqlite" % len("archive"))
-proc = mtest.run(["analyse-store", "--store", relative_store, "--min-tokens", "200", "--folder", "./de", "--recompute"],
-                 check=False, cwd=os.path.join(tmp, "archive"))
-_, tables = storecheck.latest_analysis(relative_store)
-got = {os.path.abspath(os.path.join(tmp, row[1])) for row in tables["segments"]}
+proc, got = analysed(relative_store, "./de", os.path.join(tmp, "archive"))
 mtest.check(proc.returncode == 0 and got == named_by("archive/de"),
             "from inside the archive, ./de over relative stored paths: exit %d, %r, %s"
             % (proc.returncode, sorted(got), proc.stderr))
@@ -80,11 +100,8 @@ mtest.check(proc.returncode == 0 and got == named_by("archive/de"),
 link = os.path.join(tmp, "through-link")
 os.symlink(tmp, link)
 physical_store = os.path.join(tmp, "store-%d.sqlite" % len(os.path.join(tmp, "archive")))
-proc = mtest.run(["analyse-store", "--store", physical_store, "--min-tokens", "200", "--folder", "archive/de",
-                  "--recompute"],
-                 check=False, cwd=link, env=dict(os.environ, PWD=link))
-_, tables = storecheck.latest_analysis(physical_store)
-got = {os.path.realpath(row[1]) for row in tables["segments"]}
+proc, got = analysed(physical_store, "archive/de", link, env=dict(os.environ, PWD=link))
+got = {os.path.realpath(f) for f in got}
 mtest.check(proc.returncode == 0 and got == {os.path.realpath(f) for f in named_by("archive/de")},
             "through a link, --folder archive/de: exit %d, %r, %s" % (proc.returncode, sorted(got), proc.stderr))
 
@@ -98,13 +115,8 @@ for target in (os.path.join(tmp, "archive", "x"), os.path.join(tmp, "archive", "
 inside = os.path.join(tmp, "archive", "de")
 for i, (spelling, folder) in enumerate((("x", os.path.join(tmp, "archive", "x")), ("x/", os.path.join(tmp, "archive", "x")),
                                         (".", inside), ("./x", os.path.join(inside, "x")))):
-    part = os.path.join(tmp, "inside-%d.sqlite" % i)
-    mtest.run(["batch", os.path.join(tmp, "archive"), "--store", part, "--unit", "letter", "--quiet", "--folder",
-               spelling], cwd=inside)
-    db = storecheck.connect(part)
-    got = {r[0] for r in db.execute("SELECT path FROM files")}
-    db.close()
-    want = {os.path.join(d, n) for d, _, names in os.walk(folder) for n in names}
+    _, got = batch_folder(os.path.join(tmp, "archive"), os.path.join(tmp, "inside-%d.sqlite" % i), spelling, inside)
+    want = walked(folder)
     mtest.check(got == want, "from archive/de, --folder %s read %r, os.walk of %s gives %r"
                 % (spelling, sorted(got), folder, sorted(want)))
 
@@ -114,11 +126,8 @@ for i, (spelling, folder) in enumerate((("x", os.path.join(tmp, "archive", "x"))
 mtest.run(["batch", "archive", "--store", relative_store, "--unit", "letter", "--quiet"], cwd=tmp)
 for spelling, folder in (("./x", os.path.join(inside, "x")), (".", inside),
                          (os.path.join(tmp, "archive", "x"), os.path.join(tmp, "archive", "x"))):
-    proc = mtest.run(["analyse-store", "--store", relative_store, "--min-tokens", "200", "--folder", spelling,
-                      "--recompute"], check=False, cwd=inside)
-    _, tables = storecheck.latest_analysis(relative_store)
-    got = {os.path.abspath(os.path.join(tmp, row[1])) for row in tables["segments"]}
-    want = {os.path.join(d, n) for d, _, names in os.walk(folder) for n in names}
+    proc, got = analysed(relative_store, spelling, inside)
+    want = walked(folder)
     mtest.check(proc.returncode == 0 and got == want, "from archive/de, analyse-store --folder %s: exit %d, %r, "
                 "os.walk of %s gives %r; %s" % (spelling, proc.returncode, sorted(got), folder, sorted(want), proc.stderr))
 
