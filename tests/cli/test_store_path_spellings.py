@@ -7,10 +7,14 @@ file two or three times and an analysis found each segment nearest to its own co
 distance 0.
 
 Outside references: os.path.samefile (the system's own identity of two paths: device and
-inode) says no two stored rows name one file, and os.walk counts the files.
+inode) says no two stored rows name one file; os.path.join of the spelling and the names
+os.listdir finds gives the paths stored (docs/store.md, "Tables": the latest spelling
+replaces the row); hashlib gives each file's SHA-256; lxml and re give the letters the
+analysis must measure, once each, with their words (tests/pylib/reading_text.py).
 """
 import itertools
 import os
+import re
 import shutil
 import sqlite3
 import subprocess
@@ -19,40 +23,96 @@ import tempfile
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
 import mtest  # noqa: E402
+import storecheck  # noqa: E402
+from reading_text import letter_words  # noqa: E402
+
+MIN_TOKENS = 200
+NEIGHBOURS = 5  # batch --help and docs/store.md: --neighbours, 5 by default
+
+
+def analysis_of(store, run):
+    """{segment: (path, sha256, tokens)} of analysis run `run`, its neighbours per segment and
+    how many lie at distance 0 (Python's sqlite3)."""
+    db = sqlite3.connect(store)
+    segments = {r[0]: r[1:] for r in db.execute(
+        "SELECT segment, path, sha256, tokens FROM analysis_segments WHERE run_id = ?", (run,))}
+    per_segment = dict(db.execute("SELECT segment, count(*) FROM neighbours WHERE run_id = ? GROUP BY segment", (run,)))
+    zero = db.execute("SELECT count(*) FROM neighbours WHERE run_id = ? AND distance = 0", (run,)).fetchone()[0]
+    db.close()
+    return segments, per_segment, zero
+
+
+def check_analysis(store, run, letters, where, cwd, what, whole_path=False):
+    """The analysis (of a run from the folder `cwd`) measures each letter of `letters`
+    ("stem#id": words, lxml) with at least MIN_TOKENS words once, with as many words, from
+    the file at `where` (os.path.samefile, hashlib), each with NEIGHBOURS neighbours, none at
+    distance 0. Segment ids begin with the
+    file's stem or, with `whole_path`, its stored path without ".xml" (docs/store.md: for
+    stored files of one name that no shorter end of their path tells apart)."""
+    segments, per_segment, zero = analysis_of(store, run)
+    by_letter = {sid.split("#", 1)[1]: row for sid, row in segments.items()}
+    # reference: lxml and re (reading_text.letter_words)
+    want = {sid.split("#", 1)[1]: len(words) for sid, words in letters.items() if len(words) >= MIN_TOKENS}
+    mtest.check(len(by_letter) == len(segments) and {lid: row[2] for lid, row in by_letter.items()} == want,
+                "%s: the analysis measured %r, lxml gives %r" % (what, sorted(segments.items()), sorted(want.items())))
+    # reference: os.path (splitext, basename) for the ids, os.path.samefile and hashlib for the file
+    prefix = (lambda path: os.path.splitext(path)[0]) if whole_path else (
+        lambda path: os.path.splitext(os.path.basename(path))[0])
+    mtest.check(all(sid == prefix(row[0]) + "#" + sid.split("#", 1)[1] for sid, row in segments.items()),
+                "%s: segment ids %r" % (what, sorted(segments)))
+    digest = storecheck.sha256_of(where)
+    mtest.check(all(os.path.samefile(os.path.join(cwd, path), where) and sha == digest
+                    for path, sha, _ in segments.values()),
+                "%s: analysed paths and contents %r, the file is %s (sha256 %s)"
+                % (what, sorted({row[:2] for row in segments.values()}), where, digest))
+    mtest.check(per_segment == {sid: min(NEIGHBOURS, len(want) - 1) for sid in segments} and zero == 0,
+                "%s: neighbours per segment %r, %d at distance 0" % (what, per_segment, zero))
+
 
 with tempfile.TemporaryDirectory() as tmp:
     archive = os.path.join(tmp, "archive")
     os.makedirs(archive)
     for name in ("ferry-letters.xml", "ferry-play.xml"):
         shutil.copy(os.path.join(mtest.ROOT, "examples", name), archive)
-    on_disk = sum(len([f for f in fs if f.endswith(".xml")]) for _, _, fs in os.walk(archive))
+    names = sorted(os.listdir(archive))
+    on_disk = len(names)
+    letters = letter_words(os.path.join(archive, "ferry-letters.xml"))  # the play holds no letter
     store = os.path.join(tmp, "archive.sqlite")
 
     def batch(spelling):
+        """Runs batch --analyse on `spelling`; returns (the process, the stored paths, the
+        files it read); checks the stored rows and the analysis it reports."""
         proc = subprocess.run([os.path.abspath(mtest.BIN), "batch", spelling, "--store", store, "--unit", "letter",
-                               "--min-tokens", "200", "--analyse"], capture_output=True, text=True, cwd=tmp)
+                               "--min-tokens", str(MIN_TOKENS), "--analyse"], capture_output=True, text=True, cwd=tmp)
         mtest.check(proc.returncode == 0, "batch %s: exit %d, %s" % (spelling, proc.returncode, proc.stderr))
         db = sqlite3.connect(store)
-        paths = [r[0] for r in db.execute("SELECT path FROM files ORDER BY path")]
+        rows = sorted(db.execute("SELECT path, sha256 FROM files"))
         read = db.execute("SELECT files_read FROM runs WHERE kind = 'batch' ORDER BY run_id DESC LIMIT 1"
                           ).fetchone()[0]
-        run = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
-        zero = db.execute("SELECT count(*) FROM neighbours WHERE run_id = ? AND distance = 0", (run,)).fetchone()[0]
         db.close()
-        return proc, paths, read, zero
+        paths = [path for path, _ in rows]
+        # reference: os.path.join and os.listdir; the rows are under this run's spelling
+        mtest.check(paths == sorted(os.path.join(spelling, name) for name in names),
+                    "after %s the store holds %r, os.path.join of the spelling and os.listdir %r"
+                    % (spelling, paths, sorted(os.path.join(spelling, name) for name in names)))
+        # reference: hashlib
+        mtest.check(all(sha == storecheck.sha256_of(os.path.join(tmp, path)) for path, sha in rows),
+                    "after %s stored SHA-256s %r differ from hashlib's" % (spelling, rows))
+        # The analysis the run reports, a new one or one stored before for the same question.
+        run = int(re.search(r"analysis run (\d+)", proc.stdout).group(1))
+        check_analysis(store, run, letters, os.path.join(archive, "ferry-letters.xml"), tmp, "after " + spelling)
+        return proc, paths, read
 
-    proc, paths, read, zero = batch("archive")
-    mtest.check(read == on_disk and len(paths) == on_disk, "first run: read %d, stored %r" % (read, paths))
+    proc, paths, read = batch("archive")
+    mtest.check(read == on_disk, "first run: read %d, stored %r" % (read, paths))
     for spelling in ("./archive", archive, "archive/"):
-        proc, paths, read, zero = batch(spelling)
-        mtest.check(len(paths) == on_disk, "after %s the store holds %r, %d files on disk" % (spelling, paths, on_disk))
+        proc, paths, read = batch(spelling)
         same = [(a, b) for a, b in itertools.combinations(paths, 2) if os.path.samefile(os.path.join(tmp, a),
                                                                                           os.path.join(tmp, b))]
         mtest.check(not same, "after %s two rows name one file: %r" % (spelling, same))
         mtest.check(read == 0, "after %s %d file(s) were read again" % (spelling, read))
-        mtest.check(zero == 0, "after %s the analysis has %d neighbours at distance 0" % (spelling, zero))
     # A run under a new spelling says so in its report.
-    proc, _, _, _ = batch("./archive")
+    proc, _, _ = batch("./archive")
     mtest.check("%d now under another spelling of their path" % on_disk in proc.stdout,
                 "the report of a respelled run: " + proc.stdout)
     # ... and does not also say that the store now holds the files twice (it said both, for
@@ -80,17 +140,12 @@ with tempfile.TemporaryDirectory() as tmp:
     rows = [r[0] for r in db.execute("SELECT path FROM files")]
     db.close()
     mtest.check(len(rows) == 2 * on_disk, "the copied rows: %r" % rows)
-    proc = subprocess.run([os.path.abspath(mtest.BIN), "analyse-store", "--store", store, "--min-tokens", "200",
-                           "--recompute"], capture_output=True, text=True, cwd=tmp)
-    db = sqlite3.connect(store)
-    run = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
-    zero = db.execute("SELECT count(*) FROM neighbours WHERE run_id = ? AND distance = 0", (run,)).fetchone()[0]
-    files_in_analysis = db.execute("SELECT count(DISTINCT path) FROM analysis_segments WHERE run_id = ?",
-                                   (run,)).fetchone()[0]
-    db.close()
-    mtest.check(proc.returncode == 0 and zero == 0 and files_in_analysis == 1,
-                "an analysis over a file stored twice: exit %d, %d neighbours at distance 0, %d file(s) (%s)"
-                % (proc.returncode, zero, files_in_analysis, proc.stderr))
+    proc = subprocess.run([os.path.abspath(mtest.BIN), "analyse-store", "--store", store, "--min-tokens",
+                           str(MIN_TOKENS), "--recompute"], capture_output=True, text=True, cwd=tmp)
+    mtest.check(proc.returncode == 0, "an analysis over a file stored twice: exit %d, %s" % (proc.returncode, proc.stderr))
+    check_analysis(store, storecheck.last_run(store, "analysis")["run_id"], letters,
+                   os.path.join(archive, "ferry-letters.xml"), tmp, "an analysis over a file stored twice",
+                   whole_path=True)
 
 # A file deleted between two runs that spell the folder differently (`archive`, then
 # `./archive`) leaves the store all the same, and the analysis with it. Before, the gone
@@ -118,8 +173,10 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(first.returncode == 0 and proc.returncode == 0, "the two runs: exit %d and %d, %s"
                 % (first.returncode, proc.returncode, proc.stderr))
     gone = [p for p in stored + sorted(analysed) if not os.path.exists(os.path.join(tmp, p))]
-    mtest.check(not gone and len(stored) == 1, "after deleting a file and respelling the folder the store "
-                "holds %r, the analysis %r; gone from disk: %r" % (stored, sorted(analysed), gone))
+    # reference: os.path.exists, and os.path.join of the new spelling and os.listdir
+    mtest.check(not gone and stored == [os.path.join("./archive", name) for name in os.listdir(archive)],
+                "after deleting a file and respelling the folder the store holds %r, the analysis %r; gone from "
+                "disk: %r; os.listdir: %r" % (stored, sorted(analysed), gone, os.listdir(archive)))
     mtest.check("1 no longer found" in proc.stdout, "the report names the file gone: " + proc.stdout)
 
 mtest.done()
