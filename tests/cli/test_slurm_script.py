@@ -9,9 +9,13 @@ last file, as it can on a loaded machine, marked done with every file); submitte
 must go on from there (reading only the rest) and succeed. Task 2 runs through. A task
 given an option batch refuses, or no --unit, fails with exit 2 and leaves nothing behind;
 saved shares get the mode the umask grants a new file. The two
-shares merged must hold every play of the archive (counted with os.walk) and the same
-tables as one batch run over it. Outside references: the script itself as printed in the README (compared byte for
-byte with the file), os.walk, SQLite's PRAGMA integrity_check.
+shares merged must hold every play of the archive (os.walk) and the same tables as one
+batch run over it. Each share's store holds just the files of its share (while stopped, some
+of them: as many as it reported), by the documented rule of --shard, computed with hashlib.
+Outside references: the script itself as printed in the README (compared byte for byte
+with the file), the script's own #SBATCH --array line (how many shares the merge line
+names), os.walk, hashlib (the shard rule, each stored SHA-256), SQLite's PRAGMA
+integrity_check.
 """
 import os
 import re
@@ -36,7 +40,19 @@ for doc in ("README.md", os.path.join("docs", "store.md")):
 with tempfile.TemporaryDirectory() as tmp:
     archive = os.path.join(tmp, "archive")
     storecheck.copy_plays(storecheck.pick_plays(16, min_size=100000, max_size=250000), archive)
-    plays = sum(1 for _, _, names in os.walk(archive) for name in names if name.endswith(".xml"))
+    plays = {os.path.join(d, name) for d, _, names in os.walk(archive) for name in names if name.endswith(".xml")}
+    # reference: hashlib, by docs/store.md's rule (storecheck.share_of)
+    share_files = {k: {p for p in plays if storecheck.share_of(os.path.relpath(p, archive), 2) == k} for k in (1, 2)}
+    mtest.check(all(share_files.values()), "each of the two shares holds a play: %r" % share_files)
+
+    def stored_files(store):
+        """The paths a store holds, with their SHA-256 (Python's sqlite3)."""
+        db = storecheck.connect(store)
+        try:
+            return dict(db.execute("SELECT path, sha256 FROM files"))
+        finally:
+            db.close()
+
     results = os.path.join(tmp, "results")
     shims = os.path.join(tmp, "bin")
     os.makedirs(shims)
@@ -58,7 +74,8 @@ with tempfile.TemporaryDirectory() as tmp:
                SLURM_ARRAY_TASK_MIN="1", SLURM_ARRAY_TASK_COUNT="2", TMPDIR=tmp)
     refused = subprocess.run(["bash", SCRIPT, archive, results, "--unit", "speaker", "--no-such-option"],
                              capture_output=True, text=True, env=env)
-    mtest.check(refused.returncode == 2, "a task with a bad option: exit %d, %s" % (refused.returncode, refused.stderr))
+    mtest.check(refused.returncode == 2 and "--no-such-option" in refused.stderr,
+                "a task with a bad option: exit %d, %s" % (refused.returncode, refused.stderr))
     mtest.check(not [n for n in os.listdir(tmp) if n.startswith("tmp")], "the refused task left its scratch folder")
     mtest.check(not os.path.exists(os.path.join(results, "shard-1-of-2.sqlite")), "the refused task saved a store")
 
@@ -66,7 +83,9 @@ with tempfile.TemporaryDirectory() as tmp:
     # script refuses with its usage line (exit 2) and saves nothing.
     no_unit = subprocess.run(["bash", SCRIPT, archive, results, "--verbose", "--quiet", "--folder", "a -unit"],
                              capture_output=True, text=True, env=env)
-    mtest.check(no_unit.returncode == 2 and "usage: slurm-batch.sh" in no_unit.stderr
+    # reference: the script's usage line, as the script itself writes it (re)
+    usage = re.search(r'^usage="(.*)"$', script_text, re.M).group(1)
+    mtest.check(no_unit.returncode == 2 and no_unit.stderr == usage + "\n"
                 and not os.path.exists(os.path.join(results, "shard-1-of-2.sqlite")),
                 "a task without --unit: exit %d, %s" % (no_unit.returncode, no_unit.stderr))
 
@@ -75,7 +94,8 @@ with tempfile.TemporaryDirectory() as tmp:
     for short_form in (["-uspeaker"], ["-qu", "speaker"]):
         joined = subprocess.run(["bash", SCRIPT, archive, results] + short_form + ["--no-such-option"],
                                 capture_output=True, text=True, env=env)
-        mtest.check(joined.returncode == 2 and "usage: slurm-batch.sh" not in joined.stderr,
+        mtest.check(joined.returncode == 2 and "usage: slurm-batch.sh" not in joined.stderr
+                    and "--no-such-option" in joined.stderr,
                     "%r: exit %d, %s" % (short_form, joined.returncode, joined.stderr))
 
     code, reported = task(1, stop_after=1)
@@ -88,6 +108,13 @@ with tempfile.TemporaryDirectory() as tmp:
     stopped_early = first["status"] == "interrupted" and first["files_read"] == reported
     stopped_late = first["status"] == "done" and first["files_read"] == reported == first["files_found"]
     mtest.check(stopped_early or stopped_late, "the stopped task's run: %r, %d files reported" % (first, reported))
+    # What it saved: as many files as it reported, all of share 1 (hashlib's rule), each
+    # with its content's SHA-256 (hashlib).
+    saved = stored_files(share)
+    mtest.check(len(saved) == reported and set(saved) <= share_files[1]
+                and all(sha == storecheck.sha256_of(p) for p, sha in saved.items()),
+                "the stopped task saved %r; it reported %d files, share 1 is %r"
+                % (sorted(saved), reported, sorted(share_files[1])))
     code, _ = task(1)
     again = storecheck.last_run(share)
     if stopped_late:  # nothing left to do: the share's store is not written again (docs/store.md)
@@ -97,6 +124,10 @@ with tempfile.TemporaryDirectory() as tmp:
                     "task 1 again: exit %d, run %r (%d files kept from before)" % (code, again, reported))
     code, _ = task(2)
     mtest.check(code == 0, "task 2 exited %d" % code)
+    for k in (1, 2):
+        saved = set(stored_files(os.path.join(results, "shard-%d-of-2.sqlite" % k)))
+        mtest.check(saved == share_files[k], "share %d's store holds %r, hashlib's rule gives %r"
+                    % (k, sorted(saved), sorted(share_files[k])))
     mtest.check(not [n for n in os.listdir(tmp) if n.startswith("tmp")], "a task left its scratch folder behind")
 
     mtest.check(sorted(os.listdir(results)) == ["shard-1-of-2.sqlite", "shard-2-of-2.sqlite"],
@@ -112,19 +143,25 @@ with tempfile.TemporaryDirectory() as tmp:
     # The merge job as the script's usage line writes it, for an array of 2 tasks instead of 8;
     # a share left by an earlier array of 3 tasks is not taken in.
     wrapped = re.search(r'--wrap "([^"]+)"', script_text).group(1)
-    mtest.check("-of-8.sqlite" in wrapped, "the merge line names no share of 8: " + wrapped)
+    # reference: the script's #SBATCH --array line (re), as many shares as tasks
+    first_task, last_task = map(int, re.search(r"^#SBATCH --array=(\d+)-(\d+)$", script_text, re.M).groups())
+    tasks = last_task - first_task + 1
+    mtest.check(" shard-*-of-%d.sqlite" % tasks in wrapped, "the merge line names no share of %d: %s" % (tasks, wrapped))
     # (a store of another file, so that taking it in would show in the tables compared below)
     stale = os.path.join(results, "shard-3-of-3.sqlite")
     mtest.run(["batch", os.path.join(mtest.ROOT, "examples", "ferry-play.xml"), "--store", stale, "--unit", "speaker",
                "--quiet"])
-    merge_job = subprocess.run(["bash", "-c", wrapped.replace("RESULTS", results).replace("-of-8", "-of-2")],
+    merge_job = subprocess.run(["bash", "-c", wrapped.replace("RESULTS", results).replace("-of-%d" % tasks, "-of-2")],
                                capture_output=True, text=True, env=dict(os.environ, PATH=shims + os.pathsep + os.environ["PATH"]))
     mtest.check(merge_job.returncode == 0, "the merge job: exit %d, %s" % (merge_job.returncode, merge_job.stderr))
     merged = os.path.join(results, "archive.sqlite")
     one = os.path.join(tmp, "one.sqlite")
     mtest.run(["batch", archive, "--store", one, "--unit", "speaker", "--quiet"])
     a, b = storecheck.logical_tables(one), storecheck.logical_tables(merged)
-    mtest.check(len(b["files"]) == plays, "the merged shares hold %d files, os.walk finds %d" % (len(b["files"]), plays))
+    # reference: os.walk, and hashlib for each content
+    merged_files = stored_files(merged)
+    mtest.check(set(merged_files) == plays and all(sha == storecheck.sha256_of(p) for p, sha in merged_files.items()),
+                "the merged shares hold %r, os.walk finds %r" % (sorted(merged_files), sorted(plays)))
     mtest.check(a == b, "one run and the script's merged shares differ: " + storecheck.diff_summary(a, b))
     mtest.check(storecheck.integrity(merged) == "ok", "PRAGMA integrity_check fails on the merged store")
 

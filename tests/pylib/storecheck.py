@@ -46,6 +46,12 @@ def copy_plays(names, folder, subfolder_every=0):
     return paths
 
 
+def share_of(relative_path, n):
+    """The share (1..n) a file belongs to by docs/store.md's rule for --shard K/N: 1 + the first
+    8 bytes of the SHA-256 of its path relative to its input folder, big-endian, mod N."""
+    return 1 + int(hashlib.sha256(relative_path.encode()).hexdigest()[:16], 16) % n
+
+
 def sha256_of(path):
     with open(path, "rb") as f:
         return hashlib.sha256(f.read()).hexdigest()
