@@ -120,11 +120,16 @@ def tie_free_last(forms, counts, near):
     mtest.fail("no tie-free rank near %d" % near)
 
 
-def reference_table(segments, first, last, analyzer=lambda tokens: tokens):
-    """Relative frequencies and z-scores of ranks first..last, with numpy (ddof=1)."""
+def reference_table(segments, first, last, analyzer=lambda tokens: tokens, stop=(), culling=0):
+    """Relative frequencies and z-scores of ranks first..last, with numpy (ddof=1). As
+    docs/measures.md orders it: the `stop` words are left out of the ranking but still count
+    in each segment's total, and with `culling` a feature must occur in at least that % of
+    the segments."""
     forms, counts = full_counts(segments, analyzer)
     segment_totals = counts.sum(axis=1).astype(float)
-    order = ranked(forms, counts)[first - 1:last]
+    present = (counts > 0).sum(axis=0)
+    order = [c for c in ranked(forms, counts)
+             if forms[c] not in stop and present[c] * 100 >= culling * len(segments)][first - 1:last]
     relative = counts[:, order] / segment_totals[:, None]
     mean = relative.mean(axis=0)
     sd = relative.std(axis=0, ddof=1)

@@ -148,6 +148,15 @@ def connect(path):
     return db
 
 
+def rows(path, sql, params=()):
+    """The rows a query gives on the store at `path` (Python's sqlite3)."""
+    db = connect(path)
+    try:
+        return db.execute(sql, params).fetchall()
+    finally:
+        db.close()
+
+
 def integrity(path):
     db = connect(path)
     try:
