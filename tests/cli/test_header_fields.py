@@ -217,7 +217,8 @@ for name in FILES:
     # reference: lxml (tei_dates.work_date), the date as written and its year; none without one
     written = work_date(root, root.find("{%s}teiHeader" % TEI))
     mtest.check((date or "") == written and year == expected_year(written),
-                "%s: date %r, year %r; the header gives %r, year %r" % (name, date, year, written, expected_year(written)))
+                "%s: date %r, year %r; the header gives %r, year %r"
+                % (name, date, year, written, expected_year(written)))
 
 # Each speaker's language: the one most of its words are in, lxml and re counting them (the
 # speaker label is not running text), and its words, as many as re finds.

@@ -47,11 +47,7 @@ with tempfile.TemporaryDirectory() as tmp:
 
     def stored_files(store):
         """The paths a store holds, with their SHA-256 (Python's sqlite3)."""
-        db = storecheck.connect(store)
-        try:
-            return dict(db.execute("SELECT path, sha256 FROM files"))
-        finally:
-            db.close()
+        return dict(storecheck.rows(store, "SELECT path, sha256 FROM files"))
 
     results = os.path.join(tmp, "results")
     shims = os.path.join(tmp, "bin")
@@ -146,7 +142,8 @@ with tempfile.TemporaryDirectory() as tmp:
     # reference: the script's #SBATCH --array line (re), as many shares as tasks
     first_task, last_task = map(int, re.search(r"^#SBATCH --array=(\d+)-(\d+)$", script_text, re.M).groups())
     tasks = last_task - first_task + 1
-    mtest.check(" shard-*-of-%d.sqlite" % tasks in wrapped, "the merge line names no share of %d: %s" % (tasks, wrapped))
+    mtest.check(" shard-*-of-%d.sqlite" % tasks in wrapped,
+                "the merge line names no share of %d: %s" % (tasks, wrapped))
     # (a store of another file, so that taking it in would show in the tables compared below)
     stale = os.path.join(results, "shard-3-of-3.sqlite")
     mtest.run(["batch", os.path.join(mtest.ROOT, "examples", "ferry-play.xml"), "--store", stale, "--unit", "speaker",

@@ -142,7 +142,8 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(len(rows) == 2 * on_disk, "the copied rows: %r" % rows)
     proc = subprocess.run([os.path.abspath(mtest.BIN), "analyse-store", "--store", store, "--min-tokens",
                            str(MIN_TOKENS), "--recompute"], capture_output=True, text=True, cwd=tmp)
-    mtest.check(proc.returncode == 0, "an analysis over a file stored twice: exit %d, %s" % (proc.returncode, proc.stderr))
+    mtest.check(proc.returncode == 0,
+                "an analysis over a file stored twice: exit %d, %s" % (proc.returncode, proc.stderr))
     check_analysis(store, storecheck.last_run(store, "analysis")["run_id"], letters,
                    os.path.join(archive, "ferry-letters.xml"), tmp, "an analysis over a file stored twice",
                    whole_path=True)
