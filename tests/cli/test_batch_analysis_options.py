@@ -143,6 +143,7 @@ def check_analysis(store, option, keep=lambda f: True, last=1000, culling=0, sto
     mtest.check([row[:2] for row in features] == list(enumerate(forms, start=1)),
                 "%s: %d features, reference %d; first apart %r" % (what, len(features), len(forms), next(
                     ((row[1], f) for row, f in zip(features, forms) if row[1] != f), None)))
+    # (1e-9: rounding of sums in another order; common practice, no source)
     mtest.check(np.allclose([row[3] for row in features], relative.mean(axis=0), rtol=1e-9, atol=1e-15)
                 and np.allclose([row[4] for row in features], sd, rtol=1e-9, atol=1e-15),
                 "%s: feature means or sds differ from numpy's (ddof=1)" % what)
@@ -152,6 +153,7 @@ def check_analysis(store, option, keep=lambda f: True, last=1000, culling=0, sto
     stored = {}
     for segment, rank, neighbour, distance in tables["neighbours"]:
         stored.setdefault(segment, []).append((rank, neighbour, distance))
+    # (a tie: another distance within 1e-9, relative; common practice, no source)
     mtest.check(sorted(stored) == sorted(ids), "%s: neighbours of %r" % (what, sorted(stored)))
     for i, sid in enumerate(ids):
         nearest = sorted((d[i, j], ids[j]) for j in range(len(ids)) if j != i)
@@ -170,7 +172,9 @@ def check_pca(store, run, z):
     """The stored components' explained variance (ratio) against sklearn's PCA of the z-scores."""
     rows = storecheck.rows(store, "SELECT component, explained_variance, explained_variance_ratio FROM pca_components "
                            "WHERE run_id = ? ORDER BY component", (run,))
-    reference = PCA(n_components=len(rows), svd_solver="full").fit(z)  # sklearn.decomposition.PCA
+    # reference: sklearn.decomposition.PCA on the reference z-scores (1e-6, as
+    # test_map_tree_commands compares coordinates; common practice, no source)
+    reference = PCA(n_components=len(rows), svd_solver="full").fit(z)
     mtest.check(rows and [r[0] for r in rows] == list(range(1, len(rows) + 1))
                 and np.allclose([r[1] for r in rows], reference.explained_variance_, rtol=1e-6)
                 and np.allclose([r[2] for r in rows], reference.explained_variance_ratio_, atol=1e-6),
@@ -184,6 +188,7 @@ def check_attributions(store, run, ids):
     rows = storecheck.rows(store, "SELECT segment, rank, candidate FROM attributions WHERE run_id = ?", (run,))
     candidates = {SENDERS[sid] for sid in ids if SENDERS[sid]}
     questioned = {sid for sid in ids if not SENDERS[sid]}
+    # reference: lxml (attribution_reference.letter_senders: no sender, or a conjectured one)
     got = {}
     for segment, rank, candidate in rows:
         got.setdefault(segment, {})[rank] = candidate
@@ -193,19 +198,22 @@ def check_attributions(store, run, ids):
                 % (got, sorted(questioned), sorted(candidates)))
 
 
-# The test data: every sub-corpus option leaves some letters out, and so does MIN_TOKENS.
+# The test data: every sub-corpus option leaves some letters out, and so does MIN_TOKENS
+# (reference: lxml, the header facts and words of letters_of).
 mtest.check(all(any(not given["keep"](f) for f in LETTERS.values()) for _, given in CASES if "keep" in given)
             and any(len(f["words"]) < MIN_TOKENS for f in LETTERS.values()), "the archive's letters (lxml): %r"
             % {sid: (len(f["words"]), f["year"], f["language"]) for sid, f in LETTERS.items()})
 for option, given in CASES:
     store = os.path.join(tmp, "s.sqlite")
     p = mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"] + option, check=False)
+    # reference: os.path.exists, no store left
     mtest.check(p.returncode == 2 and option[0] in p.stderr and "--analyse" in p.stderr and not p.stdout
                 and not os.path.exists(store),
                 "%r without --analyse: exit %d, store left %s, %s%s" % (option, p.returncode, os.path.exists(store),
                                                                        p.stdout, p.stderr))
     common = ["batch", archive, "--store", store, "--unit", "letter", "--quiet", "--min-tokens", str(MIN_TOKENS)]
     p = mtest.run(common + option + ["--analyse"], check=False)
+    # reference: Python's sqlite3, the analysis runs stored
     mtest.check(p.returncode == 0 and analyses(store) == 1, "%r with --analyse: exit %d, %d analyses, %s"
                 % (option, p.returncode, analyses(store), p.stderr))
     run, ids, z = check_analysis(store, option, **given)
@@ -221,7 +229,7 @@ for option, given in CASES:
     for suffix in ("", "-wal", "-shm"):
         if os.path.exists(store + suffix):
             os.remove(store + suffix)
-# --min-tokens alone, the same way.
+# --min-tokens alone, the same way (reference: os.path.exists, no store left).
 p = mtest.run(["batch", archive, "--store", os.path.join(tmp, "t.sqlite"), "--unit", "letter", "--min-tokens",
                str(MIN_TOKENS)], check=False)
 mtest.check(p.returncode == 2 and "--min-tokens" in p.stderr and not os.path.exists(os.path.join(tmp, "t.sqlite")),

@@ -207,7 +207,7 @@ mtest.check(sorted(stored) == sorted(os.listdir(archive)), "stored %r, os.listdi
 for name in FILES:
     root = etree.parse(os.path.join(archive, name)).getroot()
     status, title, author, date, year, language = stored[name]
-    mtest.check(status == "ok", "%s: status %r" % (name, status))
+    mtest.check(status == "ok", "%s: status %r" % (name, status))  # every edition is well-formed TEI (lxml parses it)
     mtest.check(title == expected_title(root), "%s: title %r, lxml by the rule %r" % (name, title, expected_title(root)))
     mtest.check(author == expected_author(root), "%s: author %r, lxml by the rule %r"
                 % (name, author, expected_author(root)))
@@ -223,7 +223,7 @@ for name in FILES:
 # Each speaker's language: the one most of its words are in, lxml and re counting them (the
 # speaker label is not running text), and its words, as many as re finds.
 root = etree.parse(os.path.join(archive, "speeches.xml")).getroot()
-whos = [sp.get("who").lstrip("#") for sp in speeches(root)]
+whos = [sp.get("who").lstrip("#") for sp in speeches(root)]  # reference: lxml
 mtest.check(sorted(segments) == sorted(whos), "speakers stored %r, lxml's %r" % (sorted(segments), sorted(whos)))
 for sp in speeches(root):
     words = words_by_language(sp)

@@ -70,6 +70,7 @@ with tempfile.TemporaryDirectory() as tmp:
                SLURM_ARRAY_TASK_MIN="1", SLURM_ARRAY_TASK_COUNT="2", TMPDIR=tmp)
     refused = subprocess.run(["bash", SCRIPT, archive, results, "--unit", "speaker", "--no-such-option"],
                              capture_output=True, text=True, env=env)
+    # reference: the option given, named by batch's refusal (CLI11: "not expected")
     mtest.check(refused.returncode == 2 and "--no-such-option" in refused.stderr,
                 "a task with a bad option: exit %d, %s" % (refused.returncode, refused.stderr))
     mtest.check(not [n for n in os.listdir(tmp) if n.startswith("tmp")], "the refused task left its scratch folder")
@@ -104,8 +105,8 @@ with tempfile.TemporaryDirectory() as tmp:
     stopped_early = first["status"] == "interrupted" and first["files_read"] == reported
     stopped_late = first["status"] == "done" and first["files_read"] == reported == first["files_found"]
     mtest.check(stopped_early or stopped_late, "the stopped task's run: %r, %d files reported" % (first, reported))
-    # What it saved: as many files as it reported, all of share 1 (hashlib's rule), each
-    # with its content's SHA-256 (hashlib).
+    # reference: hashlib, what it saved is as many files as it reported, all of share 1
+    # (storecheck.share_of), each with its content's SHA-256.
     saved = stored_files(share)
     mtest.check(len(saved) == reported and set(saved) <= share_files[1]
                 and all(sha == storecheck.sha256_of(p) for p, sha in saved.items()),
@@ -120,7 +121,7 @@ with tempfile.TemporaryDirectory() as tmp:
                     "task 1 again: exit %d, run %r (%d files kept from before)" % (code, again, reported))
     code, _ = task(2)
     mtest.check(code == 0, "task 2 exited %d" % code)
-    for k in (1, 2):
+    for k in (1, 2):  # reference: hashlib, by docs/store.md's rule (storecheck.share_of)
         saved = set(stored_files(os.path.join(results, "shard-%d-of-2.sqlite" % k)))
         mtest.check(saved == share_files[k], "share %d's store holds %r, hashlib's rule gives %r"
                     % (k, sorted(saved), sorted(share_files[k])))

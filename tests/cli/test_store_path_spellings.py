@@ -65,6 +65,7 @@ def check_analysis(store, run, letters, where, cwd, what, whole_path=False):
                     for path, sha, _ in segments.values()),
                 "%s: analysed paths and contents %r, the file is %s (sha256 %s)"
                 % (what, sorted({row[:2] for row in segments.values()}), where, digest))
+    # reference: batch --help's default of 5 neighbours, and lxml's letters
     mtest.check(per_segment == {sid: min(NEIGHBOURS, len(want) - 1) for sid in segments} and zero == 0,
                 "%s: neighbours per segment %r, %d at distance 0" % (what, per_segment, zero))
 
