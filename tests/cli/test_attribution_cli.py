@@ -11,8 +11,7 @@ import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
 import mtest  # noqa: E402
-from reading_text import text_without_left_out  # noqa: E402
-from lxml import etree  # noqa: E402
+from reading_text import letter_words  # noqa: E402
 from attribution_reference import letter_senders  # noqa: E402
 
 LETTERS = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
@@ -133,16 +132,9 @@ expect_failure(["attribute", "--unit", "letter", "--min-tokens", "380", LETTERS]
 # Some of the questioned letters too short: each of those named in a note, with its words,
 # not only counted among the segments left out. Which letters are questioned (no sure
 # sender) and their words are read with lxml: the text the reading preset selects
-# (reading_text), words as runs of letters joined by apostrophes (the invented letters are
-# plain English, where these and UAX #29 words agree).
-WORD = re.compile(r"[^\W\d_]+(?:['\u2019][^\W\d_]+)*")
-letters_tree = etree.parse(LETTERS)
-words_of = {}
-for div in letters_tree.iter("{http://www.tei-c.org/ns/1.0}div"):
-    if div.get("type") == "letter":
-        parts = []
-        text_without_left_out(div, parts)
-        words_of["ferry-letters#" + div.get("{http://www.w3.org/XML/1998/namespace}id")] = len(WORD.findall(" ".join(parts)))
+# (reading_text.letter_words), words as runs of letters and digits joined by apostrophes
+# (the invented letters are plain English, where these and UAX #29 words agree).
+words_of = {sid: len(words) for sid, words in letter_words(LETTERS).items()}
 too_short = sorted("%s (%d words)" % (q, words_of[q]) for q in by_lxml if words_of[q] < 320)
 asked = [q for q in by_lxml if words_of[q] >= 320]
 proc = mtest.run(["attribute", "--unit", "letter", "--min-tokens", "320", LETTERS])

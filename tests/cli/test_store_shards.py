@@ -11,7 +11,6 @@ reading settings is analysed only under the --settings asked. Outside references
 the documented shard rule (1 + first 8 bytes of SHA-256(relative path) mod N), SQLite's
 own PRAGMA integrity_check, and lxml for each play's title.
 """
-import hashlib
 import os
 import shutil
 import sqlite3
@@ -42,11 +41,7 @@ with tempfile.TemporaryDirectory() as tmp:
     # Each file lies in exactly the share the documented rule gives (hashlib, not our code).
     for k, shard in enumerate(shards, start=1):
         stored = {row[0] for row in storecheck.logical_tables(shard)["files"]}
-        expected = set()
-        for p in paths:
-            rel = os.path.relpath(p, archive)
-            if 1 + int(hashlib.sha256(rel.encode()).hexdigest()[:16], 16) % 3 == k:
-                expected.add(p)
+        expected = {p for p in paths if storecheck.share_of(os.path.relpath(p, archive), 3) == k}
         mtest.check(stored == expected, "shard %d/3 holds %d files, the rule gives %d" % (k, len(stored), len(expected)))
         mtest.check(len(stored) > 0, "shard %d/3 is empty" % k)
 
@@ -104,8 +99,7 @@ with tempfile.TemporaryDirectory() as tmp:
     # Which share each settings holds, by the documented shard rule (hashlib): the folded
     # counts came from share 2/3, the unfolded ones (--no-fold) from share 1/3.
     def share(k):
-        return {p for p in paths
-                if 1 + int(hashlib.sha256(os.path.relpath(p, archive).encode()).hexdigest()[:16], 16) % 3 == k}
+        return {p for p in paths if storecheck.share_of(os.path.relpath(p, archive), 3) == k}
     db = sqlite3.connect(mixed)
     folds = dict(db.execute("SELECT settings_id, json_extract(request, '$.tokenizer.case_fold') FROM settings"))
     db.close()
@@ -188,7 +182,7 @@ with tempfile.TemporaryDirectory() as tmp:
 
     # A share with no file of the archive in it (more shares than files: the first such
     # share of 1,000 by the documented rule) is not an error, but says so.
-    taken = {1 + int(hashlib.sha256(os.path.relpath(p, archive).encode()).hexdigest()[:16], 16) % 1000 for p in paths}
+    taken = {storecheck.share_of(os.path.relpath(p, archive), 1000) for p in paths}
     empty = min(k for k in range(1, 1001) if k not in taken)
     proc = mtest.run(["batch", archive, "--store", os.path.join(tmp, "empty-share.sqlite"), "--shard",
                       "%d/1000" % empty] + common, check=False)
