@@ -41,13 +41,13 @@ if not os.path.exists(PLAY):
 MIN_TOKENS = 300
 SELECT = [PLAY, "--unit", "speaker", "--min-tokens", str(MIN_TOKENS), "--ranks", "1-500"]
 # Words as UAX #29 finds them in this play (README.md: "Words are found by Unicode word
-# breaking"), written as a regular expression: runs of letters, joined by an apostrophe
-# (WB6/WB7) and by the ExtendNumLet characters "_" and U+202F NARROW NO-BREAK SPACE
-# (WordBreakProperty.txt; WB13a/WB13b keep them inside a word, so the play's "haben\u202f!"
-# gives the word "haben\u202f"). Numbers dropped, NFC, full case folding (str.casefold),
-# ' and its look-alikes ’ ʼ one character (README.md).
-LETTERS = r"(?:[^\W\d_]|[_\u202f])+"
-WORD = re.compile(LETTERS + "(?:'" + LETTERS + ")*")
+# breaking"), written as a regular expression: runs of letters and "_", joined by an
+# apostrophe (WB6/WB7) and by U+202F NARROW NO-BREAK SPACE (WordBreakProperty.txt:
+# ExtendNumLet, which WB13a/WB13b keep inside a word); a U+202F at a word's edge, as in the
+# play's "haben\u202f!", is left out of the word (README.md). Numbers dropped, NFC, full case
+# folding (str.casefold), ' and its look-alikes ’ ʼ one character (README.md).
+LETTERS = r"(?:[^\W\d_]|_)+"
+WORD = re.compile(LETTERS + "(?:(?:'|\u202f+)" + LETTERS + ")*")
 
 
 def speaker_words(path):
