@@ -60,6 +60,18 @@ Request SelectionOptions::to_request() const {
   for (const auto& name : r.keep)
     if (std::find(r.drop.begin(), r.drop.end(), name) != r.drop.end())
       throw Error(ErrorKind::usage, "--keep " + name + " and --drop " + name + " ask opposite things: give one");
+  // Both sides of an alternation: the text reads one member, so one of them would be
+  // passed by without a word (the first in the edition's order).
+  for (const auto& [one, other] : alternation_sides()) {
+    const auto kept_of = [&](const std::set<std::string>& side) {
+      for (const auto& name : r.keep)
+        if (side.count(name)) return name;
+      return std::string();
+    };
+    if (!kept_of(one).empty() && !kept_of(other).empty())
+      throw Error(ErrorKind::usage, "--keep " + kept_of(one) + " and --keep " + kept_of(other) +
+                                        ": an alternation (app, choice) reads one of its members; keep one of them");
+  }
   r.joint = joint == "drop" ? JointSpeech::drop : JointSpeech::each;
   r.tokenizer.case_fold = !no_fold;
   r.tokenizer.keep_numbers = keep_numbers;

@@ -86,13 +86,20 @@ void SelectionRules::keep(const std::string& element) {
   if (always_skipped_elements().count(element)) {
     throw Error(ErrorKind::usage, "<" + element + "> is never selected: it holds no running text");
   }
-  skipped.erase(element);
-  kept_by_user.insert(element);
+  // Only an element left out until now: keeping one that is read already (lem, corr in the
+  // reading preset) changes no choice, and would otherwise show as preferred.
+  if (skipped.erase(element)) kept_by_user.insert(element);
 }
 
 void SelectionRules::drop(const std::string& element) {
   skipped.insert(element);
   kept_by_user.erase(element);
+}
+
+const std::vector<std::pair<std::set<std::string>, std::set<std::string>>>& alternation_sides() {
+  static const std::vector<std::pair<std::set<std::string>, std::set<std::string>>> sides = {
+      {{"lem"}, {"rdg", "rdgGrp"}}, {{"corr"}, {"sic"}}, {{"reg"}, {"orig"}}, {{"expan"}, {"abbr"}}};
+  return sides;
 }
 
 std::string SelectionRules::describe() const {
@@ -106,6 +113,13 @@ std::string SelectionRules::describe() const {
     out += (first ? "" : ",") + name;
     first = false;
   }
+  // Members of an alternation the user asked for, read in place of the preset's choice.
+  std::string preferred;
+  for (const auto& [one, other] : alternation_sides())
+    for (const auto* side : {&one, &other})
+      for (const auto& name : *side)
+        if (kept_by_user.count(name)) preferred += (preferred.empty() ? "" : ",") + name;
+  if (!preferred.empty()) out += " prefer=" + preferred;
   if (joint == JointSpeech::drop) out += " joint=drop";
   return out;
 }

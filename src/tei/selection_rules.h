@@ -6,6 +6,7 @@
 #include <optional>
 #include <set>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace manicule {
@@ -27,7 +28,7 @@ struct SelectionRules {
   std::string xpath;                 // for UnitKind::xpath: the element set to select
   Preset preset = Preset::reading;
   std::set<std::string> skipped;     // TEI local names whose subtree is left out
-  std::set<std::string> kept_by_user;  // names the user asked to keep (wins inside choice)
+  std::set<std::string> kept_by_user;  // left-out names the user asked to keep (win inside choice)
   std::set<std::string> letter_types{"letter"};  // div/@type values that make a letter
   std::set<std::string> chapter_types{"chapter"};
   JointSpeech joint = JointSpeech::each;
@@ -42,9 +43,14 @@ struct SelectionRules {
   void keep(const std::string& element);
   void drop(const std::string& element);
   bool skips(const std::string& local_name) const { return skipped.count(local_name) != 0; }
-  // A one-line summary for provenance ("unit=speaker preset=reading skip=note,stage,...").
+  // A one-line summary for provenance ("unit=speaker preset=reading skip=note,stage,...",
+  // then "prefer=rdg" for alternation members the user keeps, read instead of the other).
   std::string describe() const;
 };
+
+// The two sides of each kind of alternation, of which the text reads one member (lem or
+// the readings of an app; corr or sic, reg or orig, expan or abbr of a choice).
+const std::vector<std::pair<std::set<std::string>, std::set<std::string>>>& alternation_sides();
 
 // Elements always left out whatever the user keeps: metadata and analysis, not text.
 const std::set<std::string>& always_skipped_elements();

@@ -845,9 +845,11 @@ void TeiWalker::start(const StartTag& tag) {
       f.block = true;
       s.sink().add_boundary();
     }
-    if (f.tei && (f.name == "choice" || f.name == "app")) {
+    // An rdgGrp groups readings of one app (13.1.4): it reads one of them too, so that an
+    // app whose readings are grouped still gives one reading, never several.
+    if (f.tei && (f.name == "choice" || f.name == "app" || f.name == "rdgGrp")) {
       f.alternation = true;
-      s.alternations.push_back(State::Alternation{f.name == "app", {}});
+      s.alternations.push_back(State::Alternation{f.name != "choice", {}});
     }
   }
   f.xml_id = {};  // the view ends with the start tag
@@ -871,12 +873,17 @@ void TeiWalker::end() {
   if (f.alternation) {
     // Choose one member (tei-conventions.md section 1): a member kept by the user first,
     // then the first member whose name is not skipped (highest @cert among same names);
-    // for app without lem, the rdg of the base witness, else the first rdg.
+    // for app (or rdgGrp) without lem, the reading of the base witness, else the first.
+    // An rdgGrp counts as a reading: --keep rdg takes the grouped readings too.
     State::Alternation alt = std::move(s.alternations.back());
     s.alternations.pop_back();
+    const auto is_reading = [](const State::Member& m) { return m.name == "rdg" || m.name == "rdgGrp"; };
+    const auto kept_by_user = [&](const State::Member& m) {
+      return s.rules.kept_by_user.count(m.name) || (m.name == "rdgGrp" && s.rules.kept_by_user.count("rdg"));
+    };
     const State::Member* chosen = nullptr;
     for (const auto& m : alt.members)
-      if (s.rules.kept_by_user.count(m.name)) { chosen = &m; break; }
+      if (kept_by_user(m)) { chosen = &m; break; }
     if (!chosen) {
       for (const auto& m : alt.members) {
         if (m.skipped_by_name) continue;
@@ -886,7 +893,7 @@ void TeiWalker::end() {
     }
     if (!chosen && alt.is_app) {
       for (const auto& m : alt.members) {
-        if (m.name != "rdg") continue;
+        if (!is_reading(m)) continue;
         if (!s.rules.base_witness.empty()) {
           for (const auto& w : split_pointers(m.wit))
             if (w == s.rules.base_witness) chosen = &m;
@@ -898,6 +905,8 @@ void TeiWalker::end() {
       }
     }
     if (chosen && !s.open_units.empty()) s.sink().append(chosen->buffer);
+    // An rdgGrp that is itself a reading of an app witnesses what its chosen reading does.
+    if (f.member && chosen && !s.member_attributes.empty()) s.member_attributes.back().wit = chosen->wit;
   }
   if (f.member) {
     TextBuffer buffer = std::move(s.open_units.back().buffers.back());

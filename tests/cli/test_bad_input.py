@@ -324,6 +324,18 @@ p = subprocess.run([mtest.BIN, "segments", "--unit", "letter", "--keep", "note",
                    capture_output=True, text=True)
 mtest.check(p.returncode == 2 and "--keep note and --drop note" in p.stderr and not p.stdout,
             "--keep note --drop note: exit %d, %s" % (p.returncode, p.stderr))
+# Both sides of an alternation (tei-conventions.md section 1: an app reads its lem or one
+# reading, a choice its corr or its sic, never several): refused, where the edition's order
+# used to choose without a word; one side alone shows in the selection line as preferred.
+app = os.path.join(mtest.FIXTURES, "app-groups.xml")
+for pair in (("lem", "rdg"), ("rdgGrp", "lem"), ("sic", "corr"), ("reg", "orig"), ("abbr", "expan")):
+    p = subprocess.run([mtest.BIN, "segments", "--keep", pair[0], "--keep", pair[1], app], capture_output=True, text=True)
+    mtest.check(p.returncode == 2 and "reads one of its members" in p.stderr and not p.stdout,
+                "--keep %s --keep %s: exit %d, %s" % (pair + (p.returncode, p.stderr)))
+p = subprocess.run([mtest.BIN, "segments", "--keep", "rdg", app], capture_output=True, text=True)
+selection = [l for l in p.stdout.splitlines() if l.startswith("# selection:")]
+mtest.check(p.returncode == 0 and len(selection) == 1 and selection[0].endswith(" prefer=rdg"),
+            "--keep rdg: selection line %r" % selection)
 
 # 17. A repeatable option takes one value each time: the inputs after `--keep note` or
 # `--drop quote` are inputs, not more elements (they were taken as elements, so a run over

@@ -66,6 +66,18 @@ TEST_CASE("app: lem wins; without lem the base witness's rdg, never several (13.
         split("The boat crossed slowly at dawn under oars today"));
 }
 
+TEST_CASE("app: an rdgGrp is one reading and reads one of its own; --keep rdg reads them instead (13.1.4)") {
+  CHECK(words(read("app-groups.xml", "whole", Preset::reading, "A")[0]) ==
+        split("The ferry left early from the north quay at ebb tide"));
+  CHECK(words(read("app-groups.xml", "whole", Preset::reading, "D")[0]) ==
+        split("The ferry left early from the north quay at slack tide"));
+  SelectionRules variants = SelectionRules::make("whole");
+  variants.keep("rdg");
+  variants.base_witness = "A";
+  CHECK(words(read_segments(XmlSource::file(fixture("app-groups.xml")), variants)[0]) ==
+        split("The ferry sailed early from the east quay at ebb tide"));
+}
+
 TEST_CASE("lb/pb break=no join the halves across a skipped note; a plain lb separates (3.11.3)") {
   CHECK(words(read("lb-nobreak.xml", "whole")[0]) ==
         split("A hyphenated word on the landing stage a crossing at dusk and a plain break here"));
