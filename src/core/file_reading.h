@@ -27,7 +27,8 @@ struct SelectionRules;
 // left out of titles and names, line breaks and name parts parting their words; several
 // names of one author bracketed, one named twice given once; a year written "-0400" is
 // before the common era. 6: invisible characters (Default_Ignorable_Code_Point) dropped
-// from words, and a U+02BC at a word's edge with the apostrophe look-alikes.
+// from words, and a U+02BC at a word's edge with the apostrophe look-alikes; an rdgGrp
+// reads one of its readings, and an app without lem may read it.
 constexpr int kReadingRevision = 6;
 
 // What the edition's own header says (the first TEI element's teiHeader).
