@@ -107,6 +107,9 @@ Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& 
            std::string(other_settings_stored ? ", or the store's counts under other settings (analyse-store "
                                                "--settings, see --list-settings)"
                                              : "");
+  } else if (long_enough == found) {  // every segment long enough: too few of them, not too short
+    what = "the " + of_files + " hold " + std::to_string(found) + " segment(s) of this unit" +
+           (filter.empty() ? "" : ": widen the filter or") + (filter.empty() ? ": " : " ") + "run batch over more files";
   } else {
     what = "of the " + std::to_string(found) + " segment(s) of the " + of_files + ", " + std::to_string(long_enough) +
            (long_enough == 1 ? " has " : " have ") + std::to_string(request.feature_space.min_segment_tokens) +

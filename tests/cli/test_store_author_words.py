@@ -82,7 +82,7 @@ for text in ["Kind", "kind oskar", "Ward", "Edward", "Pell", "Ward-Pell", "F.", 
     if len(want) < 2:
         # An analysis needs two segments; fewer is "nothing to compare" (exit 4), and the
         # message says how many files passed the filter.
-        passed = "none of the" if not want else "of the 1 segment(s) of the 1 stored file(s) passing the filter"
+        passed = "none of the" if not want else "the 1 stored file(s) passing the filter (author~%s) hold 1 segment(s)" % text
         mtest.check(proc.returncode == 4 and passed in proc.stderr, "--author %r: Python expects %r, manicule exited "
                     "%d: %s" % (text, sorted(want), proc.returncode, proc.stderr))
         continue
