@@ -28,7 +28,8 @@ struct SelectionRules;
 // names of one author bracketed, one named twice given once; a year written "-0400" is
 // before the common era. 6: invisible characters (Default_Ignorable_Code_Point) dropped
 // from words, and a U+02BC at a word's edge with the apostrophe look-alikes; an rdgGrp
-// reads one of its readings, and an app without lem may read it.
+// reads one of its readings, and an app without lem may read it; dates in ISO 8601
+// (@when-iso and the rest) are read.
 constexpr int kReadingRevision = 6;
 
 // What the edition's own header says (the first TEI element's teiHeader).

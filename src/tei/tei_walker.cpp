@@ -57,12 +57,35 @@ bool is_div(std::string_view name) {
   return name == "div" || (name.size() == 4 && name.substr(0, 3) == "div" && name[3] >= '1' && name[3] <= '7');
 }
 
+// An ISO 8601 date (att.datable.iso, 13.4) in XML Schema 1.0's form, which @when has and the
+// store's year reads: ISO counts the years before the common era from a year 0 (0000 is
+// 1 BCE, -0044 is 45 BCE), XML Schema 1.0 has no year 0 (-0001 is 1 BCE). Other dates as
+// they are.
+std::string schema_form_of_iso_date(std::string_view iso) {
+  const bool minus = !iso.empty() && iso[0] == '-';
+  const std::size_t digits_begin = minus ? 1 : 0;
+  std::size_t digits_end = digits_begin;
+  while (digits_end < iso.size() && iso[digits_end] >= '0' && iso[digits_end] <= '9') ++digits_end;
+  const std::size_t digits = digits_end - digits_begin;
+  if (digits < 4 || digits > 9) return std::string(iso);
+  const long year = std::stol(std::string(iso.substr(digits_begin, digits)));
+  if (!minus && year != 0) return std::string(iso);
+  std::string before = std::to_string(year + 1);  // astronomical -N (or 0) is N+1 BCE
+  if (before.size() < 4) before.insert(0, 4 - before.size(), '0');
+  return "-" + before + std::string(iso.substr(digits_end));
+}
+
 // A date element's or event's date as written in its attributes: the date itself, else the
-// start of a range (att.datable: @notBefore/@from), else its end; "" when it has none.
-std::string_view date_attribute(const StartTag& tag) {
+// start of a range (att.datable.w3c: @notBefore/@from), else its end; then the same in ISO
+// 8601 (att.datable.iso: @when-iso and the rest); "" when it has none.
+std::string date_attribute(const StartTag& tag) {
   for (std::string_view name : {"when", "notBefore", "from", "notAfter", "to"}) {
     std::string_view value = tag.attribute(name);
-    if (!value.empty()) return value;
+    if (!value.empty()) return std::string(value);
+  }
+  for (std::string_view name : {"when-iso", "notBefore-iso", "from-iso", "notAfter-iso", "to-iso"}) {
+    std::string_view value = tag.attribute(name);
+    if (!value.empty()) return schema_form_of_iso_date(value);
   }
   return {};
 }
@@ -503,9 +526,9 @@ struct TeiWalker::State {
         best_language_usage = u;
       }
     } else if (f.name == "date" && date_slots(h).any()) {
-      std::string_view value = date_attribute(tag);
+      std::string value = date_attribute(tag);
       if (value.empty()) f.capture = Capture::date;
-      else set_date(h, std::string(value));
+      else set_date(h, value);
     }
   }
   int best_language_usage = -1;
@@ -532,10 +555,10 @@ struct TeiWalker::State {
     }
     if (f.name != "date" || dateline_depth == 0 || open_units.back().hidden_depth > 0 || f.capture != Capture::none)
       return;
-    std::string_view value = date_attribute(tag);
+    std::string value = date_attribute(tag);
     std::string& own = open_units.back().dateline_date;
     if (value.empty()) f.capture = Capture::letter_date;
-    else if (better_date(own, std::string(value))) own.assign(value);
+    else if (better_date(own, value)) own = value;
   }
 
   // A dated event of the work itself (DraCor's plays: when it was written, printed, first
@@ -543,8 +566,8 @@ struct TeiWalker::State {
   void note_work_event(const StartTag& tag) {
     std::string_view type = tag.attribute("type");
     if (tei_stack.empty() || (type != "written" && type != "print" && type != "premiere")) return;
-    std::string_view value = date_attribute(tag);
-    if (!value.empty()) header().event_dates.emplace_back(value);
+    std::string value = date_attribute(tag);
+    if (!value.empty()) header().event_dates.push_back(std::move(value));
   }
 
   // The innermost @type among the open bibl elements of sourceDesc ("" if none has one).

@@ -6,7 +6,8 @@ with a minus, "-0450" for 450 BCE (XML Schema 1.0 Part 2, 3.2.7: no year 0000, "
 the year before "0001"). `--years` writes those years with BCE ("450BCE-400BCE",
 docs/store.md). Each file's year is read here with lxml and a regular expression written
 from that rule, apart from manicule's reader, and every range must take exactly the files
-whose year lies in it; a range's bounds out of order, a year 0, and an upper bound alone
+whose year lies in it (also for dates in ISO 8601, @when-iso, whose years before the
+common era count from a year 0: ISO 8601:2004, 3.2.1 and 4.1.2.4, cited from memory); a range's bounds out of order, a year 0, and an upper bound alone
 below 1000 without its era ("-0044", the header's own spelling of 44 BCE), are usage errors.
 
 The editions are invented (the harbour hymns of old Quillmouth) and valid TEI (jing with
@@ -25,13 +26,16 @@ from lxml import etree  # noqa: E402
 TEI = "{http://www.tei-c.org/ns/1.0}"
 WORDS = " ".join(["the hymn of the harbour was sung when the boats came home across the bar"] * 4)
 
-# (file stem, @when of the creation date or None for an undated work)
-WORKS = [("hymn-of-the-bar", "-0450"), ("hymn-of-the-nets", "-0420-05"), ("lament-for-the-pier", "-0044-03-15"),
-         ("ode-to-the-ferry", "0014"), ("song-of-the-tide", "0212"), ("undated-fragment", None)]
+# (file stem, the creation date's attribute="value", or None for an undated work); two in
+# ISO 8601 (att.datable.iso), whose years before the common era count from a year 0.
+WORKS = [("hymn-of-the-bar", 'when="-0450"'), ("hymn-of-the-nets", 'when="-0420-05"'),
+         ("lament-for-the-pier", 'when="-0044-03-15"'), ("lament-for-the-oars", 'when-iso="-0043-03"'),
+         ("ode-to-the-ferry", 'when="0014"'), ("ode-to-the-lamp", 'notBefore-iso="0000"'),
+         ("song-of-the-tide", 'when="0212"'), ("undated-fragment", None)]
 
 
 def edition(stem, when):
-    creation = '<profileDesc><creation><date when="%s"/></creation></profileDesc>' % when if when else ""
+    creation = '<profileDesc><creation><date %s/></creation></profileDesc>' % when if when else ""
     return ('<?xml version="1.0" encoding="UTF-8"?>\n<TEI xmlns="http://www.tei-c.org/ns/1.0" xml:lang="en">'
             '<teiHeader><fileDesc><titleStmt><title>%s</title><author>A harbour poet</author></titleStmt>'
             '<publicationStmt><p>Invented test data of the manicule project; CC0.</p></publicationStmt>'
@@ -46,6 +50,16 @@ def schema_year(value):
     if not match:
         return None
     return -int(match.group(2)) if match.group(1) else int(match.group(2))
+
+
+def iso_year(value):
+    """The year of an ISO 8601 date, as a year of the common era or (negative) before it:
+    ISO 8601 numbers years astronomically, 0000 being 1 BCE and -0043 44 BCE."""
+    match = re.match(r"(-?)(\d{4,})", value or "")
+    if not match:
+        return None
+    number = int(match.group(2))
+    return -(number + 1) if match.group(1) or number == 0 else number
 
 
 tmp = mtest.scratch_folder()
@@ -65,8 +79,14 @@ year_of_file = {}
 for stem, _ in WORKS:
     root = etree.parse(os.path.join(archive, stem + ".xml")).getroot()
     dates = root.findall(".//%screation/%sdate" % (TEI, TEI))
-    year_of_file[stem + ".xml"] = schema_year(dates[0].get("when")) if dates else None
-mtest.check(year_of_file["hymn-of-the-bar.xml"] == -450 and year_of_file["undated-fragment.xml"] is None,
+    if not dates:
+        year_of_file[stem + ".xml"] = None
+    elif dates[0].get("when"):
+        year_of_file[stem + ".xml"] = schema_year(dates[0].get("when"))
+    else:
+        year_of_file[stem + ".xml"] = iso_year(dates[0].get("when-iso") or dates[0].get("notBefore-iso"))
+mtest.check(year_of_file["hymn-of-the-bar.xml"] == -450 and year_of_file["lament-for-the-oars.xml"] == -44
+            and year_of_file["ode-to-the-lamp.xml"] == -1 and year_of_file["undated-fragment.xml"] is None,
             "the reference reading of the dates is wrong: %r" % year_of_file)
 
 store = os.path.join(tmp, "hymns.sqlite")
