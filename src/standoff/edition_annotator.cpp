@@ -222,6 +222,11 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
   // (`self`, an index into `open`) is "this document": its results point at its own ids,
   // and a path to its source (another file when --output copies it) would name the wrong one.
   constexpr std::size_t kNone = static_cast<std::size_t>(-1);
+  // Whether the edition holding a segment has an element with the id (a file read but not
+  // written into is not scanned: no).
+  auto holds_id = [&](std::size_t s, const std::string& id) {
+    return edition_of[s] != kNoEdition && open[edition_of[s]].scan.xml_ids.count(id) > 0;
+  };
   auto inputs_from = [&](const std::string& document, std::size_t self) {
     std::vector<std::string> out;
     for (std::size_t k = 0; k < open.size(); ++k) {
@@ -241,6 +246,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     target.pointers = pointers_from(settings.output);
     target.reference = reference_from(settings.output);
     target.segment_ids = segment_ids;
+    target.holds_id = holds_id;
     target.inputs = inputs_from(settings.output, kNone);
     StandoffBuilder builder(analysis, target, results_ids, settings.standoff);
     PreparedOutput out;
@@ -267,6 +273,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     target.pointers = pointers_from(e.document_path);
     target.reference = reference_from(e.document_path);
     target.segment_ids = segment_ids;
+    target.holds_id = holds_id;
     target.inputs = inputs_from(e.document_path, k);
     StandoffBuilder builder(analysis, target, e.ids, settings.standoff);
     SpliceFragments fragments{builder.standoff(), builder.application(), builder.change(),

@@ -55,6 +55,9 @@ struct StandoffTarget {
   // One pointer to the segment: its element, or the join of its elements.
   std::function<std::string(std::size_t)> reference;
   std::vector<SegmentIds> segment_ids;  // by segment index; members' entries are set
+  // Whether the document holding the segment has an element with this xml:id: a pointer
+  // through it (a candidate's person entry) is written only then. Unset: never.
+  std::function<bool(std::size_t, const std::string&)> holds_id;
   std::vector<std::string> inputs;      // "name (sha256 …)" for each edition the results point into
 };
 
@@ -78,6 +81,8 @@ class StandoffBuilder {
   void add_distances(Parts& parts) const;
   void add_pca(Parts& parts) const;
   void add_attributions(Parts& parts) const;
+  // Whether `label` ("#p-pellow") names an element of the document holding `segment`.
+  bool holds_person(std::size_t segment, const std::string& label) const;
   void add_verifications(Parts& parts) const;
   bool is_member(std::size_t segment) const { return member_set_.count(segment) != 0; }
 

@@ -213,4 +213,30 @@ mtest.check(segments and all(n > 12 for n in segments), "impostor segments %s do
 errors = jing_errors(mtest.SCHEMA, [results_file])
 mtest.check(not any(errors.values()), "tei_all (jing) rejects the results file: %s" % errors)
 
+# --- a sender's @ref that points at no person entry ------------------------------------------
+# An edition may point at an entry it lacks (no schema checks it): the candidate is still
+# ranked, but no pointer is written through it, since it would lead nowhere. Every
+# candidate pointer and @corresp written must name an xml:id of the document (lxml), and the
+# sender whose entry was taken out keeps its place among the candidates.
+lacking = os.path.join(tmp, "lacking-entry.xml")
+with open(LETTERS, encoding="utf-8") as f:
+    text = f.read()
+entry_start = text.index('<person xml:id="p-pellow">')
+entry_end = text.index("</person>", entry_start) + len("</person>")
+with open(lacking, "w", encoding="utf-8") as f:
+    f.write(text[:entry_start] + text[entry_end:])
+mtest.run(["annotate"] + BASE + SETTINGS + ["--attribute", "--in-place", lacking])
+tree = etree.parse(lacking, PARSER).getroot()
+ids = id_targets(tree)
+mtest.check("p-pellow" not in ids and tree.find(".//tei:persName[@ref='#p-pellow']", NS) is not None,
+            "the fixture should keep @ref='#p-pellow' and lack its entry")
+pointers = [p.get("target") for p in tree.iterfind(".//tei:annotation/tei:ptr[@type='candidate']", NS)]
+pointers += [s.get("corresp") for s in tree.iterfind(".//tei:f[@name='candidate']/tei:string[@corresp]", NS)]
+mtest.check(pointers and all(p.startswith("#") and p[1:] in ids for p in pointers),
+            "candidate pointers naming no element of the edition: %s" % [p for p in pointers if p[1:] not in ids])
+ranked = {s.text for s in tree.iterfind(".//tei:f[@name='candidate']/tei:string", NS)}
+mtest.check("#p-pellow" in ranked, "the sender lacking an entry is no longer ranked: %s" % sorted(ranked))
+errors = jing_errors(mtest.SCHEMA, [lacking])
+mtest.check(not any(errors.values()), "tei_all (jing) rejects the annotated edition: %s" % errors)
+
 mtest.done()
