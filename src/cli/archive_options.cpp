@@ -95,9 +95,8 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
       f.year_to = parse_year(years.substr(dash + 1), years);
       // "-0044" is how a header writes 44 BCE (XML Schema); as "up to 44" it would quietly
       // take the whole of antiquity. Early years as an upper bound alone need their era.
-      const std::string upper = years.substr(dash + 1);
-      if (dash == 0 && f.year_to > 0 && f.year_to < 1000 && upper.find_first_not_of("0123456789 ") == std::string::npos)
-      {
+      const bool upper_without_era = years.find_first_not_of("0123456789 ", dash + 1) == std::string::npos;
+      if (dash == 0 && f.year_to > 0 && f.year_to < 1000 && upper_without_era) {
         const std::string year = std::to_string(f.year_to);
         throw Error(ErrorKind::usage, "--years " + years + ": say which: -" + year + "CE for the years up to " + year +
                                           ", or " + year + "BCE for the year a header writes -" +
