@@ -55,7 +55,7 @@ std::string_view TokenNormaliser::normalise(std::string_view token) {
   // soft hyphen, zero-width joiners, directional marks, variation selectors) sit inside a
   // word when the editor's text has them (UAX #29 WB4 attaches them), so that "amici\u00ADtia"
   // would count apart from "amicitia". They are dropped, as NFKC_Casefold drops them
-  // (Unicode Standard, 3.13; UAX #44, NFKC_CF).
+  // (Unicode Standard 3.13, toNFKC_Casefold; cited from memory).
   const auto ignorable = [](UChar32 c) { return u_hasBinaryProperty(c, UCHAR_DEFAULT_IGNORABLE_CODE_POINT); };
   int32_t first_ignorable = 0;
   while (first_ignorable < b.text.length() && !ignorable(b.text.char32At(first_ignorable)))
