@@ -87,7 +87,7 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
     tokens += s.tokens;
     if (const int year = s.segment.year) {
       first_segment_year = first_segment_year ? std::min(first_segment_year, year) : year;
-      last_segment_year = std::max(last_segment_year, year);
+      last_segment_year = last_segment_year ? std::max(last_segment_year, year) : year;
     }
   }
   auto& q = insert_reading_;

@@ -135,4 +135,28 @@ for years in ("400BCE-450BCE", "0-14", "0BCE-14", "14-0", "-0044", "-44", "-999"
     mtest.check(proc.returncode == 2 and "--years" in proc.stderr,
                 "--years %s: exit %d, %s" % (years, proc.returncode, proc.stderr))
 
+# A file of several texts each dated by its own header (a teiCorpus): readings keeps the span
+# of its texts' years (docs/store.md, first_segment_year and last_segment_year), read here
+# with lxml by the XML Schema rule, both before the common era.
+corpus_folder = os.path.join(tmp, "corpus")
+os.makedirs(corpus_folder)
+texts = [edition(stem, when).split("\n", 1)[1] for stem, when in (("hymn-of-the-bar", 'when="-0050"'),
+                                                                  ("hymn-of-the-nets", 'when="-0040"'))]
+with open(os.path.join(corpus_folder, "two-hymns.xml"), "w", encoding="utf-8") as f:
+    f.write('<?xml version="1.0" encoding="UTF-8"?>\n<teiCorpus xmlns="http://www.tei-c.org/ns/1.0">'
+            '<teiHeader><fileDesc><titleStmt><title>Two hymns</title></titleStmt><publicationStmt><p>Invented test '
+            'data of the manicule project; CC0.</p></publicationStmt><sourceDesc><p>No source: invented.</p>'
+            '</sourceDesc></fileDesc></teiHeader>%s</teiCorpus>\n' % "".join(texts))
+jing = subprocess.run(["jing", mtest.SCHEMA, os.path.join(corpus_folder, "two-hymns.xml")], capture_output=True, text=True)
+mtest.check(jing.returncode == 0, "the invented teiCorpus is not valid TEI: %s" % jing.stdout[-2000:])
+root = etree.parse(os.path.join(corpus_folder, "two-hymns.xml")).getroot()
+text_years = [schema_year(d.get("when")) for d in root.iter(TEI + "date")]
+corpus_store = os.path.join(tmp, "corpus.sqlite")
+mtest.run(["batch", corpus_folder, "--store", corpus_store, "--unit", "whole", "--quiet"])
+db = storecheck.connect(corpus_store)
+span = db.execute("SELECT first_segment_year, last_segment_year FROM readings").fetchall()
+db.close()
+mtest.check(span == [(min(text_years), max(text_years))], "stored span of the texts' years %r, lxml reads %r"
+            % (span, text_years))
+
 mtest.done()
