@@ -8,9 +8,10 @@
 namespace manicule {
 
 const std::set<std::string>& always_skipped_elements() {
-  // teiHeader (2.1.1), fw (12.6), interp/span/fs analysis (18.3, 19), standOff (17.10).
+  // teiHeader (2.1.1), fw (12.6), interp/span/fs analysis (18.3, 19), standOff (17.10),
+  // wit: the sigla of the witnesses of a reading (13.1.4), never words of the text.
   static const std::set<std::string> names{"teiHeader", "fw", "interp", "interpGrp", "span",
-                                           "spanGrp", "fs", "fLib", "fvLib", "standOff"};
+                                           "spanGrp", "fs", "fLib", "fvLib", "standOff", "wit"};
   return names;
 }
 

@@ -222,6 +222,7 @@ struct TeiWalker::State {
   // @cert and @wit of the open alternation members, innermost last.
   struct MemberAttributes {
     std::string cert, wit;
+    std::string reads_as;  // an rdgGrp that chose its lem stands for the lem ("lem"), else ""
   };
   std::vector<MemberAttributes> member_attributes;
 
@@ -928,18 +929,25 @@ void TeiWalker::end() {
       }
     }
     if (chosen && !s.open_units.empty()) s.sink().append(chosen->buffer);
-    // An rdgGrp that is itself a reading of an app witnesses what its chosen reading does.
-    if (f.member && chosen && !s.member_attributes.empty()) s.member_attributes.back().wit = chosen->wit;
+    // An rdgGrp that is itself a member of an app witnesses what its chosen reading does,
+    // and one that chose a lem (13.1.4 allows it there) is the app's lemma.
+    if (f.member && chosen && !s.member_attributes.empty()) {
+      s.member_attributes.back().wit = chosen->wit;
+      if (chosen->name == "lem") s.member_attributes.back().reads_as = "lem";
+    }
   }
   if (f.member) {
     TextBuffer buffer = std::move(s.open_units.back().buffers.back());
     s.open_units.back().buffers.pop_back();
     State::MemberAttributes attributes = std::move(s.member_attributes.back());
     s.member_attributes.pop_back();
+    // (name_class takes the parser's interned names only: its cache keys on their address.)
+    const bool as_lem = !attributes.reads_as.empty();
+    const bool skipped = as_lem ? s.rules.skips(attributes.reads_as) : s.name_class(f.name).skipped;
     if (!s.alternations.empty())
-      s.alternations.back().members.push_back(State::Member{std::string(f.name), std::move(attributes.cert),
-                                                            std::move(attributes.wit), s.name_class(f.name).skipped,
-                                                            std::move(buffer)});
+      s.alternations.back().members.push_back(State::Member{as_lem ? attributes.reads_as : std::string(f.name),
+                                                            std::move(attributes.cert), std::move(attributes.wit),
+                                                            skipped, std::move(buffer)});
   }
   if (f.unit >= 0) {
     s.close_unit(s.open_units.back());

@@ -68,14 +68,14 @@ TEST_CASE("app: lem wins; without lem the base witness's rdg, never several (13.
 
 TEST_CASE("app: an rdgGrp is one reading and reads one of its own; --keep rdg reads them instead (13.1.4)") {
   CHECK(words(read("app-groups.xml", "whole", Preset::reading, "A")[0]) ==
-        split("The ferry left early from the north quay at ebb tide"));
+        split("The ferry left early from the north quay at ebb tide by night"));
   CHECK(words(read("app-groups.xml", "whole", Preset::reading, "D")[0]) ==
-        split("The ferry left early from the north quay at slack tide"));
+        split("The ferry left early from the north quay at slack tide by night"));
   SelectionRules variants = SelectionRules::make("whole");
   variants.keep("rdg");
   variants.base_witness = "A";
   CHECK(words(read_segments(XmlSource::file(fixture("app-groups.xml")), variants)[0]) ==
-        split("The ferry sailed early from the east quay at ebb tide"));
+        split("The ferry sailed early from the east quay at ebb tide late night"));
 }
 
 TEST_CASE("lb/pb break=no join the halves across a skipped note; a plain lb separates (3.11.3)") {
