@@ -221,11 +221,23 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
   // Each edition the results point into, as seen from `document`; the edition written
   // (`self`, an index into `open`) is "this document": its results point at its own ids,
   // and a path to its source (another file when --output copies it) would name the wrong one.
+  // A person entry ("#p-pellow") as `document` (the edition `self`, or kNone for a results
+  // file) points at it: in itself if it has the entry, else in the edition of the
+  // candidate's nearest segment, else in the first edition that has it; "" when none has
+  // (an @ref may name an entry its edition lacks; files read but not written into are not
+  // scanned). Editions are pointed at where their elements are, as segments are.
   constexpr std::size_t kNone = static_cast<std::size_t>(-1);
-  // Whether the edition holding a segment has an element with the id (a file read but not
-  // written into is not scanned: no).
-  auto holds_id = [&](std::size_t s, const std::string& id) {
-    return edition_of[s] != kNoEdition && open[edition_of[s]].scan.xml_ids.count(id) > 0;
+  auto person_pointer_from = [&](const std::string& document, std::size_t self) {
+    return [&, document, self](const std::string& label, std::size_t nearest) -> std::string {
+      const std::string id = label.substr(1);
+      const auto has = [&](std::size_t k) { return k != kNone && k < open.size() && open[k].scan.xml_ids.count(id); };
+      if (has(self)) return "#" + id;
+      std::size_t holder = has(edition_of[nearest]) ? edition_of[nearest] : kNone;
+      for (std::size_t k = 0; holder == kNone && k < open.size(); ++k)
+        if (has(k)) holder = k;
+      if (holder == kNone) return "";
+      return relative_uri(document, open[holder].snapshot->path) + "#" + id;
+    };
   };
   auto inputs_from = [&](const std::string& document, std::size_t self) {
     std::vector<std::string> out;
@@ -246,7 +258,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     target.pointers = pointers_from(settings.output);
     target.reference = reference_from(settings.output);
     target.segment_ids = segment_ids;
-    target.holds_id = holds_id;
+    target.person_pointer = person_pointer_from(settings.output, kNone);
     target.inputs = inputs_from(settings.output, kNone);
     StandoffBuilder builder(analysis, target, results_ids, settings.standoff);
     PreparedOutput out;
@@ -273,7 +285,7 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
     target.pointers = pointers_from(e.document_path);
     target.reference = reference_from(e.document_path);
     target.segment_ids = segment_ids;
-    target.holds_id = holds_id;
+    target.person_pointer = person_pointer_from(e.document_path, k);
     target.inputs = inputs_from(e.document_path, k);
     StandoffBuilder builder(analysis, target, e.ids, settings.standoff);
     SpliceFragments fragments{builder.standoff(), builder.application(), builder.change(),

@@ -16,14 +16,10 @@ using namespace tei_fs;
 namespace {
 
 // A candidate label that is a pointer into the edition ("#p-pellow", a person's id from
-// @who or correspAction/persName/@ref) is pointed at from this document: through the
-// document that holds the candidate's segment ("" here, "letters.xml" elsewhere), when that
-// document has the element (`exists`): an edition's @ref may point at an entry it lacks,
-// and a pointer written from it would lead nowhere.
-std::string candidate_pointer(const std::string& label, const std::string& segment_reference, bool exists) {
-  if (!exists || label.size() < 2 || label[0] != '#' || label.find(' ') != std::string::npos) return "";
-  std::string first = segment_reference.substr(0, segment_reference.find(' '));
-  return first.substr(0, first.find('#')) + label;
+// @who or correspAction/persName/@ref), as this document points at it (StandoffTarget).
+std::string candidate_pointer(const StandoffTarget& target, const std::string& label, std::size_t nearest_segment) {
+  if (!target.person_pointer || label.size() < 2 || label[0] != '#' || label.find(' ') != std::string::npos) return "";
+  return target.person_pointer(label, nearest_segment);
 }
 
 std::string label_key(const std::string& label) {
@@ -31,10 +27,6 @@ std::string label_key(const std::string& label) {
 }
 
 }  // namespace
-
-bool StandoffBuilder::holds_person(std::size_t segment, const std::string& label) const {
-  return target_.holds_id && !label.empty() && label[0] == '#' && target_.holds_id(segment, label.substr(1));
-}
 
 void StandoffBuilder::add_attributions(Parts& parts) const {
   const std::string prefix(kOurIdPrefix);
@@ -61,8 +53,7 @@ void StandoffBuilder::add_attributions(Parts& parts) const {
     XmlNode& list = add_feature(fs, "candidates").add(XmlNode::element("vColl", {{"org", "list"}}));
     for (const CandidateDistance& c : r.candidates) {
       XmlNode& entry = list.add(XmlNode::element("fs", {{"type", "candidateDistance"}}));
-      std::string pointer = candidate_pointer(c.candidate, target_.reference(c.nearest_segment),
-                                              holds_person(c.nearest_segment, c.candidate));
+      std::string pointer = candidate_pointer(target_, c.candidate, c.nearest_segment);
       add_feature(entry, "candidate")
           .add_text_element("string", c.candidate, pointer.empty() ? std::vector<std::pair<std::string, std::string>>{}
                                                                    : std::vector<std::pair<std::string, std::string>>{
@@ -84,8 +75,7 @@ void StandoffBuilder::add_attributions(Parts& parts) const {
     a.add_text_element("note", kAttributionCaution, {{"type", "caution"}, {"xml:lang", "en"}});
     if (!r.candidates.empty()) {
       const CandidateDistance& first = r.candidates.front();
-      std::string pointer = candidate_pointer(first.candidate, target_.reference(first.nearest_segment),
-                                              holds_person(first.nearest_segment, first.candidate));
+      std::string pointer = candidate_pointer(target_, first.candidate, first.nearest_segment);
       if (!pointer.empty()) a.add(XmlNode::element("ptr", {{"type", "candidate"}, {"target", pointer}}));
     }
     a.add(XmlNode::element("ptr", {{"type", "result"}, {"target", "#" + value_id}}));

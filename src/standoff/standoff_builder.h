@@ -55,9 +55,10 @@ struct StandoffTarget {
   // One pointer to the segment: its element, or the join of its elements.
   std::function<std::string(std::size_t)> reference;
   std::vector<SegmentIds> segment_ids;  // by segment index; members' entries are set
-  // Whether the document holding the segment has an element with this xml:id: a pointer
-  // through it (a candidate's person entry) is written only then. Unset: never.
-  std::function<bool(std::size_t, const std::string&)> holds_id;
+  // A candidate label that names a person entry ("#p-pellow") as this document points at
+  // it, given the candidate's nearest segment: into an edition of the run that has the
+  // entry; "" when none has it (an @ref to an entry the edition lacks) or when unset.
+  std::function<std::string(const std::string&, std::size_t)> person_pointer;
   std::vector<std::string> inputs;      // "name (sha256 …)" for each edition the results point into
 };
 
@@ -81,8 +82,6 @@ class StandoffBuilder {
   void add_distances(Parts& parts) const;
   void add_pca(Parts& parts) const;
   void add_attributions(Parts& parts) const;
-  // Whether `label` ("#p-pellow") names an element of the document holding `segment`.
-  bool holds_person(std::size_t segment, const std::string& label) const;
   void add_verifications(Parts& parts) const;
   bool is_member(std::size_t segment) const { return member_set_.count(segment) != 0; }
 

@@ -239,4 +239,33 @@ mtest.check("#p-pellow" in ranked, "the sender lacking an entry is no longer ran
 errors = jing_errors(mtest.SCHEMA, [lacking])
 mtest.check(not any(errors.values()), "tei_all (jing) rejects the annotated edition: %s" % errors)
 
+# Two editions in one run, the second's person entries under other ids (its @refs lead
+# nowhere in it): each attribution points at the first candidate's entry wherever the run
+# has it, in itself or in the other edition, and every pointer resolves (lxml).
+two = os.path.join(tmp, "two")
+os.makedirs(two)
+first, second = os.path.join(two, "harbour.xml"), os.path.join(two, "quay.xml")
+shutil.copy(LETTERS, first)
+with open(second, "w", encoding="utf-8") as f:
+    f.write(text.replace('<person xml:id="p-', '<person xml:id="q-'))
+# quay.xml first: a tie between the copies goes to its segments, so that the nearest segment of
+# a candidate lies in the edition lacking the entries.
+mtest.run(["annotate"] + BASE + SETTINGS + ["--attribute", "--in-place", second, first])
+trees = {name: etree.parse(os.path.join(two, name), PARSER).getroot() for name in ("harbour.xml", "quay.xml")}
+for name, tree in trees.items():
+    attributions = [a for a in tree.iterfind(".//tei:standOff[@type='stylometry']//tei:annotation", NS)
+                    if a.find("tei:ptr[@type='result']", NS) is not None
+                    and id_targets(tree)[a.find("tei:ptr[@type='result']", NS).get("target")[1:]].get("type")
+                    == "attributionResult"]
+    mtest.check(attributions, "%s: no attribution written" % name)
+    for a in attributions:
+        pointer = a.find("tei:ptr[@type='candidate']", NS)
+        mtest.check(pointer is not None, "%s: an attribution without a candidate pointer, though harbour.xml has "
+                    "every sender's entry" % name)
+        document, _, fragment = pointer.get("target").partition("#")
+        holder = trees[document] if document else tree
+        mtest.check(fragment in id_targets(holder), "%s: candidate pointer %s leads nowhere" % (name, pointer.get("target")))
+errors = jing_errors(mtest.SCHEMA, [first, second])
+mtest.check(not any(errors.values()), "tei_all (jing) rejects the annotated editions: %s" % errors)
+
 mtest.done()
