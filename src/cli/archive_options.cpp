@@ -84,27 +84,33 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
                                       ": not a language code; give an ISO 639 code, alone or in a BCP 47 tag, "
                                       "e.g. de, eng, en-GB");
   f.title = title;
-  if (!years.empty()) {
-    auto dash = years.find('-');
-    if (years.find_first_not_of("- ") == std::string::npos)
-      throw Error(ErrorKind::usage, kYearsForm + years + "'");
+  // Spaces around the whole are no part of it (" -0044" is -0044).
+  const std::size_t first = years.find_first_not_of(' '), last = years.find_last_not_of(' ');
+  const std::string range = first == std::string::npos ? std::string() : years.substr(first, last - first + 1);
+  if (!years.empty() && range.empty())
+    throw Error(ErrorKind::usage, kYearsForm + years + "'");
+  if (!range.empty()) {
+    auto dash = range.find('-');
+    if (range.find_first_not_of("- ") == std::string::npos)
+      throw Error(ErrorKind::usage, kYearsForm + range + "'");
     if (dash == std::string::npos) {
-      f.year_from = f.year_to = parse_year(years, years);
+      f.year_from = f.year_to = parse_year(range, range);
     } else {
-      f.year_from = parse_year(years.substr(0, dash), years);
-      f.year_to = parse_year(years.substr(dash + 1), years);
+      f.year_from = parse_year(range.substr(0, dash), range);
+      f.year_to = parse_year(range.substr(dash + 1), range);
       // "-0044" is how a header writes 44 BCE (XML Schema); as "up to 44" it would quietly
       // take the whole of antiquity. Early years as an upper bound alone need their era.
-      const bool upper_without_era = years.find_first_not_of("0123456789 ", dash + 1) == std::string::npos;
+      const bool upper_without_era = range.find_first_not_of("0123456789 ", dash + 1) == std::string::npos;
       if (dash == 0 && f.year_to > 0 && f.year_to < 1000 && upper_without_era) {
         const std::string year = std::to_string(f.year_to);
-        throw Error(ErrorKind::usage, "--years " + years + ": say which: -" + year + "CE for the years up to " + year +
-                                          ", or " + year + "BCE for the year a header writes -" +
-                                          std::string(4 - year.size(), '0') + year);
+        throw Error(ErrorKind::usage, "--years " + range + ": say which: -" + year + "CE for the years up to " + year +
+                                          ", " + year + "BCE for the year a header writes -" +
+                                          std::string(4 - year.size(), '0') + year + ", or -" + year +
+                                          "BCE for the years up to that one");
       }
     }
     if (f.year_from && f.year_to && f.year_from > f.year_to)
-      throw Error(ErrorKind::usage, "--years " + years + ": the first year is after the second");
+      throw Error(ErrorKind::usage, "--years " + range + ": the first year is after the second");
   }
   return f;
 }

@@ -62,8 +62,12 @@ bool is_div(std::string_view name) {
 // 1 BCE, -0044 is 45 BCE), XML Schema 1.0 has no year 0 (-0001 is 1 BCE). Other dates as
 // they are.
 std::string schema_form_of_iso_date(std::string_view iso) {
+  // An interval ("-0044/-0040") is two dates.
+  if (const std::size_t slash = iso.find('/'); slash != std::string_view::npos)
+    return schema_form_of_iso_date(iso.substr(0, slash)) + "/" + schema_form_of_iso_date(iso.substr(slash + 1));
   const bool minus = !iso.empty() && iso[0] == '-';
-  const std::size_t digits_begin = minus ? 1 : 0;
+  const bool plus = !iso.empty() && iso[0] == '+';  // ISO's expanded form: "+0000" is year 0 too
+  const std::size_t digits_begin = minus || plus ? 1 : 0;
   std::size_t digits_end = digits_begin;
   while (digits_end < iso.size() && iso[digits_end] >= '0' && iso[digits_end] <= '9') ++digits_end;
   const std::size_t digits = digits_end - digits_begin;

@@ -30,7 +30,8 @@ WORDS = " ".join(["the hymn of the harbour was sung when the boats came home acr
 # ISO 8601 (att.datable.iso), whose years before the common era count from a year 0.
 WORKS = [("hymn-of-the-bar", 'when="-0450"'), ("hymn-of-the-nets", 'when="-0420-05"'),
          ("lament-for-the-pier", 'when="-0044-03-15"'), ("lament-for-the-oars", 'when-iso="-0043-03"'),
-         ("ode-to-the-ferry", 'when="0014"'), ("ode-to-the-lamp", 'notBefore-iso="0000"'),
+         ("dirge-for-the-bell", 'when-iso="-0043/-0040"'),
+         ("ode-to-the-ferry", 'when="0014"'), ("ode-to-the-lamp", 'notBefore-iso="+0000"'),
          ("song-of-the-tide", 'when="0212"'), ("undated-fragment", None)]
 
 
@@ -54,12 +55,13 @@ def schema_year(value):
 
 def iso_year(value):
     """The year of an ISO 8601 date, as a year of the common era or (negative) before it:
-    ISO 8601 numbers years astronomically, 0000 being 1 BCE and -0043 44 BCE."""
-    match = re.match(r"(-?)(\d{4,})", value or "")
+    ISO 8601 numbers years astronomically, 0000 being 1 BCE and -0043 44 BCE; an expanded
+    year may carry a plus ("+0000")."""
+    match = re.match(r"([-+]?)(\d{4,})", value or "")
     if not match:
         return None
     number = int(match.group(2))
-    return -(number + 1) if match.group(1) or number == 0 else number
+    return -(number + 1) if match.group(1) == "-" or number == 0 else number
 
 
 tmp = mtest.scratch_folder()
@@ -95,6 +97,12 @@ db = storecheck.connect(store)
 stored = {os.path.basename(path): year for path, year in db.execute("SELECT path, year FROM file_list")}
 db.close()
 mtest.check(stored == year_of_file, "stored years %r, lxml reads %r" % (stored, year_of_file))
+# An ISO interval is two dates, each in XML Schema 1.0's years as the store keeps dates.
+db = storecheck.connect(store)
+interval = db.execute("SELECT date FROM file_list WHERE path LIKE '%dirge-for-the-bell.xml'").fetchone()[0]
+db.close()
+want = "/".join("-%04d" % -iso_year(half) for half in "-0043/-0040".split("/"))
+mtest.check(interval == want, "the ISO interval is stored as %r, expected %r" % (interval, want))
 
 
 def analysed_files(years):
@@ -130,7 +138,7 @@ for years, low, high in RANGES:
 
 # Out of order (450 BCE comes before 400 BCE); a year 0, which neither calendar has; and an
 # early year as an upper bound alone without its era: "-0044" is how a header writes 44 BCE.
-for years in ("400BCE-450BCE", "0-14", "0BCE-14", "14-0", "-0044", "-44", "-999"):
+for years in ("400BCE-450BCE", "0-14", "0BCE-14", "14-0", "-0044", " -0044", "-44", "-999"):
     proc = mtest.run(["analyse-store", "--store", store, "--years", years], check=False)
     mtest.check(proc.returncode == 2 and "--years" in proc.stderr,
                 "--years %s: exit %d, %s" % (years, proc.returncode, proc.stderr))
