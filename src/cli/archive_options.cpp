@@ -110,7 +110,11 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
       }
     }
     if (f.year_from && f.year_to && f.year_from > f.year_to)
-      throw Error(ErrorKind::usage, "--years " + range + ": the first year is after the second");
+      throw Error(ErrorKind::usage, "--years " + range + ": the first year is after the second" +
+                                        (f.year_to < 0 && f.year_from > 0
+                                             ? " (each year takes its own era: " + std::to_string(f.year_from) + "BCE-" +
+                                                   std::to_string(-f.year_to) + "BCE)"
+                                             : ""));
   }
   return f;
 }

@@ -142,6 +142,9 @@ for years in ("400BCE-450BCE", "0-14", "0BCE-14", "14-0", "-0044", " -0044", "-4
     proc = mtest.run(["analyse-store", "--store", store, "--years", years], check=False)
     mtest.check(proc.returncode == 2 and "--years" in proc.stderr,
                 "--years %s: exit %d, %s" % (years, proc.returncode, proc.stderr))
+# The era written once, after both years: each year takes its own, which the message says.
+proc = mtest.run(["analyse-store", "--store", store, "--years", "450-400BCE"], check=False)
+mtest.check(proc.returncode == 2 and "450BCE-400BCE" in proc.stderr, "--years 450-400BCE: %s" % proc.stderr)
 
 # A file of several texts each dated by its own header (a teiCorpus): readings keeps the span
 # of its texts' years (docs/store.md, first_segment_year and last_segment_year), read here
