@@ -1,5 +1,6 @@
 #include "cli/archive_options.h"
 
+#include <cctype>
 #include <string_view>
 #include <utility>
 
@@ -16,37 +17,32 @@ constexpr const char* kYearsForm =
     "--years takes FROM-TO, FROM- or -TO, or one year, in years of up to four digits, those before the common "
     "era with BCE (450BCE-400BCE, 44BCE-14, 1800-1850); got '";
 
+// `text` without the spaces around it.
+std::string_view trimmed(std::string_view text) {
+  const std::size_t first = text.find_first_not_of(' ');
+  if (first == std::string_view::npos) return {};
+  return text.substr(first, text.find_last_not_of(' ') - first + 1);
+}
+
 // One bound of --years: "1850", "14", "44BCE" (also "44 BC"; "14CE" and "14 AD" are 14);
 // 0 for an empty bound. A year before the common era is negative, as a header writes it
 // (XML Schema's "-0044" is 44BCE). There is no year 0, which the filter takes for "none".
-int parse_year(std::string text, const std::string& whole) {
-  const auto trim = [](std::string& t) {
-    while (!t.empty() && t.back() == ' ') t.pop_back();
-    while (!t.empty() && t.front() == ' ') t.erase(0, 1);
-  };
-  trim(text);
+int parse_year(std::string_view bound, const std::string& whole) {
+  std::string_view text = trimmed(bound);
   if (text.empty()) return 0;
   int sign = 1;
-  const auto ends_with_era = [&](const std::string& era) {
-    if (text.size() <= era.size()) return false;
-    for (std::size_t i = 0; i < era.size(); ++i) {
-      const char c = text[text.size() - era.size() + i];
-      if ((c >= 'a' && c <= 'z' ? c - ('a' - 'A') : c) != era[i]) return false;
-    }
-    return true;
-  };
-  for (const auto& [era, era_sign] : {std::pair{"BCE", -1}, {"BC", -1}, {"CE", 1}, {"AD", 1}}) {
-    const std::string name = era;
-    if (ends_with_era(name)) {
-      text.resize(text.size() - name.size());
-      trim(text);
-      sign = era_sign;
-      break;
-    }
+  for (const auto& [era, era_sign] : {std::pair<std::string_view, int>{"BCE", -1}, {"BC", -1}, {"CE", 1}, {"AD", 1}}) {
+    if (text.size() <= era.size()) continue;
+    std::string tail(text.substr(text.size() - era.size()));
+    for (char& c : tail) c = static_cast<char>(std::toupper(static_cast<unsigned char>(c)));
+    if (tail != era) continue;
+    text = trimmed(text.substr(0, text.size() - era.size()));
+    sign = era_sign;
+    break;
   }
-  if (text.empty() || text.size() > 4 || text.find_first_not_of("0123456789") != std::string::npos)
+  if (text.empty() || text.size() > 4 || text.find_first_not_of("0123456789") != std::string_view::npos)
     throw Error(ErrorKind::usage, kYearsForm + whole + "'");
-  const int year = std::stoi(text);
+  const int year = std::stoi(std::string(text));
   if (year == 0)
     throw Error(ErrorKind::usage, "--years " + whole + ": there is no year 0; 1BCE is followed by 1");
   return sign * year;
@@ -85,8 +81,7 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
                                       "e.g. de, eng, en-GB");
   f.title = title;
   // Spaces around the whole are no part of it (" -0044" is -0044).
-  const std::size_t first = years.find_first_not_of(' '), last = years.find_last_not_of(' ');
-  const std::string range = first == std::string::npos ? std::string() : years.substr(first, last - first + 1);
+  const std::string range(trimmed(years));
   if (!years.empty() && range.empty())
     throw Error(ErrorKind::usage, kYearsForm + years + "'");
   if (!range.empty()) {
@@ -96,8 +91,8 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
     if (dash == std::string::npos) {
       f.year_from = f.year_to = parse_year(range, range);
     } else {
-      f.year_from = parse_year(range.substr(0, dash), range);
-      f.year_to = parse_year(range.substr(dash + 1), range);
+      f.year_from = parse_year(std::string_view(range).substr(0, dash), range);
+      f.year_to = parse_year(std::string_view(range).substr(dash + 1), range);
       // "-0044" is how a header writes 44 BCE (XML Schema); as "up to 44" it would quietly
       // take the whole of antiquity. Early years as an upper bound alone need their era.
       const bool upper_without_era = range.find_first_not_of("0123456789 ", dash + 1) == std::string::npos;

@@ -218,9 +218,6 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
       return relative_uri(document, e.document_path) + "#" + segment_ids[s].join;
     };
   };
-  // Each edition the results point into, as seen from `document`; the edition written
-  // (`self`, an index into `open`) is "this document": its results point at its own ids,
-  // and a path to its source (another file when --output copies it) would name the wrong one.
   // A person entry ("#p-pellow") as `document` (the edition `self`, or kNone for a results
   // file) points at it: in itself if it has the entry, else in the edition of the
   // candidate's nearest segment, else in the first edition that has it; "" when none has
@@ -239,6 +236,9 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
       return relative_uri(document, open[holder].snapshot->path) + "#" + id;
     };
   };
+  // Each edition the results point into, as seen from `document`; the edition written
+  // (`self`, an index into `open`) is "this document": its results point at its own ids,
+  // and a path to its source (another file when --output copies it) would name the wrong one.
   auto inputs_from = [&](const std::string& document, std::size_t self) {
     std::vector<std::string> out;
     for (std::size_t k = 0; k < open.size(); ++k) {

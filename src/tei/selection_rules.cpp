@@ -97,8 +97,8 @@ void SelectionRules::drop(const std::string& element) {
   kept_by_user.erase(element);
 }
 
-const std::vector<std::pair<std::set<std::string>, std::set<std::string>>>& alternation_sides() {
-  static const std::vector<std::pair<std::set<std::string>, std::set<std::string>>> sides = {
+const std::vector<AlternationSides>& alternation_sides() {
+  static const std::vector<AlternationSides> sides = {
       {{"lem"}, {"rdg", "rdgGrp"}}, {{"corr"}, {"sic"}}, {{"reg"}, {"orig"}}, {{"expan"}, {"abbr"}}};
   return sides;
 }

@@ -50,7 +50,8 @@ struct SelectionRules {
 
 // The two sides of each kind of alternation, of which the text reads one member (lem or
 // the readings of an app; corr or sic, reg or orig, expan or abbr of a choice).
-const std::vector<std::pair<std::set<std::string>, std::set<std::string>>>& alternation_sides();
+using AlternationSides = std::pair<std::set<std::string>, std::set<std::string>>;
+const std::vector<AlternationSides>& alternation_sides();
 
 // Elements always left out whatever the user keeps: metadata and analysis, not text.
 const std::set<std::string>& always_skipped_elements();

@@ -828,7 +828,7 @@ void TeiWalker::start(const StartTag& tag) {
     bool is_app = s.alternations.back().is_app;
     if (!is_app || f.name == "lem" || f.name == "rdg" || f.name == "rdgGrp") {
       f.member = true;
-      s.member_attributes.push_back({std::string(tag.attribute("cert")), std::string(tag.attribute("wit"))});
+      s.member_attributes.push_back({std::string(tag.attribute("cert")), std::string(tag.attribute("wit")), {}});
       s.open_units.back().buffers.emplace_back();
     }
   }
