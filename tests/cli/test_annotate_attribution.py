@@ -252,19 +252,24 @@ with open(second, "w", encoding="utf-8") as f:
 # a candidate lies in the edition lacking the entries.
 mtest.run(["annotate"] + BASE + SETTINGS + ["--attribute", "--in-place", second, first])
 trees = {name: etree.parse(os.path.join(two, name), PARSER).getroot() for name in ("harbour.xml", "quay.xml")}
+targets = {name: id_targets(tree) for name, tree in trees.items()}
 for name, tree in trees.items():
-    attributions = [a for a in tree.iterfind(".//tei:standOff[@type='stylometry']//tei:annotation", NS)
-                    if a.find("tei:ptr[@type='result']", NS) is not None
-                    and id_targets(tree)[a.find("tei:ptr[@type='result']", NS).get("target")[1:]].get("type")
-                    == "attributionResult"]
+    attributions = []
+    for a in tree.iterfind(".//tei:standOff[@type='stylometry']//tei:annotation", NS):
+        result = a.find("tei:ptr[@type='result']", NS)
+        fs = targets[name].get(result.get("target")[1:]) if result is not None else None
+        if result is not None:
+            mtest.check(fs is not None, "%s: result pointer %s leads nowhere" % (name, result.get("target")))
+        if fs is not None and fs.get("type") == "attributionResult":
+            attributions.append(a)
     mtest.check(attributions, "%s: no attribution written" % name)
     for a in attributions:
         pointer = a.find("tei:ptr[@type='candidate']", NS)
         mtest.check(pointer is not None, "%s: an attribution without a candidate pointer, though harbour.xml has "
                     "every sender's entry" % name)
         document, _, fragment = pointer.get("target").partition("#")
-        holder = trees[document] if document else tree
-        mtest.check(fragment in id_targets(holder), "%s: candidate pointer %s leads nowhere" % (name, pointer.get("target")))
+        mtest.check(fragment in targets[document or name], "%s: candidate pointer %s leads nowhere"
+                    % (name, pointer.get("target")))
 errors = jing_errors(mtest.SCHEMA, [first, second])
 mtest.check(not any(errors.values()), "tei_all (jing) rejects the annotated editions: %s" % errors)
 

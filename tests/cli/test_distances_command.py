@@ -75,7 +75,7 @@ mtest.check(all(isinstance(p["value"], float) and np.isfinite(p["value"]) for p 
 # --neighbours shapes the JSON's lists alone: with TSV it is said to do nothing there (the
 # demo once passed it with --format tsv), and the TSV still holds every pair, n(n-1)/2.
 proc = mtest.run(["distances", "--measure", "burrows-delta", "--neighbours", "3"] + SELECT)
-tsv_pairs = [line for line in proc.stdout.splitlines() if not line.startswith(("#", "segment_a\t"))]
+_, tsv_pairs = read_distances(proc.stdout)
 mtest.check("--neighbours shapes the JSON output" in proc.stderr and len(tsv_pairs) == n * (n - 1) // 2,
             "--neighbours with TSV: %d pairs for %d segments, %s" % (len(tsv_pairs), n, proc.stderr))
 proc = mtest.run(["distances", "--format", "json", "--neighbours", "3"] + SELECT)

@@ -35,7 +35,7 @@ sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
 from reading_text import LEFT_OUT  # noqa: E402
-from tei_dates import work_date, year_of  # noqa: E402
+from tei_dates import signed_year, work_date  # noqa: E402
 from unicode_words import spaceless  # noqa: E402
 from lxml import etree  # noqa: E402
 
@@ -166,12 +166,6 @@ def expected_language(root):
     return words.most_common(1)[0][0] if words else root.get(XML_LANG)
 
 
-def expected_year(date):
-    """The year of a date as written: XML Schema's gYear reads "-0400" as 400 before the
-    common era (-400); otherwise the first run of four digits (tei_dates.year_of)."""
-    return -int(date[1:5]) if re.match(r"-\d{4}", date) else year_of(date)
-
-
 def expected_author(root):
     authors = []
     for author in root.findall("t:teiHeader/t:fileDesc/t:titleStmt/t:author", NS):
@@ -216,9 +210,9 @@ for name in FILES:
                 % (name, language, expected_language(root)))
     # reference: lxml (tei_dates.work_date), the date as written and its year; none without one
     written = work_date(root, root.find("{%s}teiHeader" % TEI))
-    mtest.check((date or "") == written and year == expected_year(written),
+    mtest.check((date or "") == written and year == signed_year(written),
                 "%s: date %r, year %r; the header gives %r, year %r"
-                % (name, date, year, written, expected_year(written)))
+                % (name, date, year, written, signed_year(written)))
 
 # Each speaker's language: the one most of its words are in, lxml and re counting them (the
 # speaker label is not running text), and its words, as many as re finds.

@@ -111,7 +111,6 @@ with tempfile.TemporaryDirectory() as tmp:
     edition = os.path.join(tmp, "letters.xml")
     with open(letters, "rb") as f, open(edition, "wb") as g:
         g.write(f.read())
-    kept = sha256_of(edition)
     for args in (["distances", "--unit", "letter", "--min-tokens", "200", edition, "--output", edition],
                  ["profile", "--unit", "letter", "--min-tokens", "200", tmp, "--output", os.path.join(tmp, ".", "letters.xml")],
                  ["export", annotated, "--output", annotated]):
@@ -120,6 +119,5 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check(proc.returncode == 2 and "is one of the inputs" in proc.stderr
                     and all(sha256_of(p) == h for p, h in before_run.items()),
                     "%s writing over its input: exit %d, %s" % (args[0], proc.returncode, proc.stderr))
-    mtest.check(sha256_of(edition) == kept, "the edition changed")
 
 mtest.done()

@@ -13,10 +13,7 @@ import sys
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 from lxml import etree  # noqa: E402
-from reading_text import LEFT_OUT, text_without_left_out  # noqa: E402
-
-TEI = "{http://www.tei-c.org/ns/1.0}"
-XML_ID = "{http://www.w3.org/XML/1998/namespace}id"
+from reading_text import TEI, XML_ID, text_without_left_out  # noqa: E402
 def normalize_space(text):  # XPath 1.0 normalize-space(): XML white space only
     for c in "\t\n\r":
         text = text.replace(c, " ")

@@ -193,7 +193,7 @@ with tempfile.TemporaryDirectory() as tmp:
         if stderr is not None and "--language" not in args:
             # undated: of the files the other filters pass (store.md: "for want of a year")
             header_ok = by_author if "--author" in args else (lambda p: True)
-            undated = "--years" in args and sum(1 for p in paths if facts[p][2] is None and header_ok(p))
+            undated = sum(1 for p in paths if facts[p][2] is None and header_ok(p)) if "--years" in args else 0
             outside = sum(1 for p in paths if not keep(p)) - undated
             said = re.search(r"(\d+) of the (\d+) stored file\(s\) left out by the filter", stderr)
             mtest.check((said is None and outside == 0) or

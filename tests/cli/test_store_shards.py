@@ -39,9 +39,12 @@ with tempfile.TemporaryDirectory() as tmp:
         shards.append(shard)
 
     # Each file lies in exactly the share the documented rule gives (hashlib, not our code).
+    def share(k):
+        return {p for p in paths if storecheck.share_of(os.path.relpath(p, archive), 3) == k}
+
     for k, shard in enumerate(shards, start=1):
         stored = {row[0] for row in storecheck.logical_tables(shard)["files"]}
-        expected = {p for p in paths if storecheck.share_of(os.path.relpath(p, archive), 3) == k}
+        expected = share(k)
         mtest.check(stored == expected, "shard %d/3 holds %d files, the rule gives %d" % (k, len(stored), len(expected)))
         mtest.check(len(stored) > 0, "shard %d/3 is empty" % k)
 
@@ -96,10 +99,8 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["analyse-store", "--store", mixed, "--min-tokens", "100", "--quiet"], check=False)
     mtest.check(proc.returncode == 2 and "--settings" in proc.stderr and "2 reading settings" in proc.stderr,
                 "a merged store of two settings analysed without --settings: exit %d, %s" % (proc.returncode, proc.stderr))
-    # Which share each settings holds, by the documented shard rule (hashlib): the folded
+    # Which share each settings holds, by the documented shard rule (share, above): the folded
     # counts came from share 2/3, the unfolded ones (--no-fold) from share 1/3.
-    def share(k):
-        return {p for p in paths if storecheck.share_of(os.path.relpath(p, archive), 3) == k}
     db = sqlite3.connect(mixed)
     folds = dict(db.execute("SELECT settings_id, json_extract(request, '$.tokenizer.case_fold') FROM settings"))
     db.close()

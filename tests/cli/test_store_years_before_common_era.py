@@ -15,13 +15,14 @@ tei_all, checked first).
 """
 import os
 import re
-import subprocess
 import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
 from lxml import etree  # noqa: E402
+from standoff_check import jing_errors  # noqa: E402
+from tei_dates import signed_year  # noqa: E402
 
 TEI = "{http://www.tei-c.org/ns/1.0}"
 WORDS = " ".join(["the hymn of the harbour was sung when the boats came home across the bar"] * 4)
@@ -44,15 +45,6 @@ def edition(stem, when):
             '<text><body><p>%s</p></body></text></TEI>\n' % (stem.replace("-", " "), creation, WORDS))
 
 
-def schema_year(value):
-    """The year of an XML Schema date or gYear (1.0 Part 2, 3.2.7-3.2.9): an optional minus,
-    then four or more digits; the minus marks a year before the common era."""
-    match = re.match(r"(-?)(\d{4,})", value or "")
-    if not match:
-        return None
-    return -int(match.group(2)) if match.group(1) else int(match.group(2))
-
-
 def iso_year(value):
     """The year of an ISO 8601 date, as a year of the common era or (negative) before it:
     ISO 8601 numbers years astronomically, 0000 being 1 BCE and -0043 44 BCE; an expanded
@@ -72,9 +64,8 @@ for stem, when in WORKS:
         f.write(edition(stem, when))
 
 # The editions are valid TEI (tei_all.rng, TEI P5 4.12.0), dates before the common era included.
-jing = subprocess.run(["jing", mtest.SCHEMA] + sorted(os.path.join(archive, n) for n in os.listdir(archive)),
-                      capture_output=True, text=True)
-mtest.check(jing.returncode == 0, "the invented editions are not valid TEI: %s" % jing.stdout[-2000:])
+errors = jing_errors(mtest.SCHEMA, sorted(os.path.join(archive, n) for n in os.listdir(archive)))
+mtest.check(not any(errors.values()), "the invented editions are not valid TEI: %s" % errors)
 
 # Each file's year, read with lxml from its creation date (reference: XML Schema 1.0's years).
 year_of_file = {}
@@ -84,7 +75,7 @@ for stem, _ in WORKS:
     if not dates:
         year_of_file[stem + ".xml"] = None
     elif dates[0].get("when"):
-        year_of_file[stem + ".xml"] = schema_year(dates[0].get("when"))
+        year_of_file[stem + ".xml"] = signed_year(dates[0].get("when"))
     else:
         year_of_file[stem + ".xml"] = iso_year(dates[0].get("when-iso") or dates[0].get("notBefore-iso"))
 mtest.check(year_of_file["hymn-of-the-bar.xml"] == -450 and year_of_file["lament-for-the-oars.xml"] == -44
@@ -93,14 +84,10 @@ mtest.check(year_of_file["hymn-of-the-bar.xml"] == -450 and year_of_file["lament
 
 store = os.path.join(tmp, "hymns.sqlite")
 mtest.run(["batch", archive, "--store", store, "--unit", "whole", "--quiet"])
-db = storecheck.connect(store)
-stored = {os.path.basename(path): year for path, year in db.execute("SELECT path, year FROM file_list")}
-db.close()
+stored = {os.path.basename(path): year for path, year in storecheck.rows(store, "SELECT path, year FROM file_list")}
 mtest.check(stored == year_of_file, "stored years %r, lxml reads %r" % (stored, year_of_file))
 # An ISO interval is two dates, each in XML Schema 1.0's years as the store keeps dates.
-db = storecheck.connect(store)
-interval = db.execute("SELECT date FROM file_list WHERE path LIKE '%dirge-for-the-bell.xml'").fetchone()[0]
-db.close()
+interval = storecheck.rows(store, "SELECT date FROM file_list WHERE path LIKE '%dirge-for-the-bell.xml'")[0][0]
 want = "/".join("-%04d" % -iso_year(half) for half in "-0043/-0040".split("/"))
 mtest.check(interval == want, "the ISO interval is stored as %r, expected %r" % (interval, want))
 
@@ -109,12 +96,8 @@ def analysed_files(years):
     proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "10", "--years", years], check=False)
     if proc.returncode != 0:
         return proc, None
-    db = storecheck.connect(store)
-    run = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
-    took = {os.path.basename(path) for (path,) in db.execute(
-        "SELECT path FROM analysis_segments WHERE run_id = ?", (run,))}
-    db.close()
-    return proc, took
+    _, tables = storecheck.latest_analysis(store)
+    return proc, {os.path.basename(row[1]) for row in tables["segments"]}
 
 
 # (--years as given, the range it means in signed years; None: no bound)
@@ -158,15 +141,13 @@ with open(os.path.join(corpus_folder, "two-hymns.xml"), "w", encoding="utf-8") a
             '<teiHeader><fileDesc><titleStmt><title>Two hymns</title></titleStmt><publicationStmt><p>Invented test '
             'data of the manicule project; CC0.</p></publicationStmt><sourceDesc><p>No source: invented.</p>'
             '</sourceDesc></fileDesc></teiHeader>%s</teiCorpus>\n' % "".join(texts))
-jing = subprocess.run(["jing", mtest.SCHEMA, os.path.join(corpus_folder, "two-hymns.xml")], capture_output=True, text=True)
-mtest.check(jing.returncode == 0, "the invented teiCorpus is not valid TEI: %s" % jing.stdout[-2000:])
+errors = jing_errors(mtest.SCHEMA, [os.path.join(corpus_folder, "two-hymns.xml")])
+mtest.check(not any(errors.values()), "the invented teiCorpus is not valid TEI: %s" % errors)
 root = etree.parse(os.path.join(corpus_folder, "two-hymns.xml")).getroot()
-text_years = [schema_year(d.get("when")) for d in root.iter(TEI + "date")]
+text_years = [signed_year(d.get("when")) for d in root.iter(TEI + "date")]
 corpus_store = os.path.join(tmp, "corpus.sqlite")
 mtest.run(["batch", corpus_folder, "--store", corpus_store, "--unit", "whole", "--quiet"])
-db = storecheck.connect(corpus_store)
-span = db.execute("SELECT first_segment_year, last_segment_year FROM readings").fetchall()
-db.close()
+span = storecheck.rows(corpus_store, "SELECT first_segment_year, last_segment_year FROM readings")
 mtest.check(span == [(min(text_years), max(text_years))], "stored span of the texts' years %r, lxml reads %r"
             % (span, text_years))
 

@@ -20,6 +20,13 @@ def year_of(text):
     return int(year.group()) if year else None
 
 
+def signed_year(value):
+    """The year of a date as written, XML Schema's gYear (1.0 Part 2, 3.2.9) reading a
+    leading minus as a year before the common era ("-0400" is -400); otherwise year_of."""
+    match = re.match(r"-(\d{4,})", value or "")
+    return -int(match.group(1)) if match else year_of(value)
+
+
 def _earliest(values):
     """The value of the earliest year among `values`; "" when none has a year."""
     return min((v for v in values if year_of(v) is not None), key=year_of, default="")
