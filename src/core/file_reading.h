@@ -29,8 +29,9 @@ struct SelectionRules;
 // before the common era. 6: invisible characters (Default_Ignorable_Code_Point) dropped
 // from words, and a U+02BC at a word's edge with the apostrophe look-alikes; an rdgGrp
 // reads one of its readings, and an app without lem may read it; dates in ISO 8601
-// (@when-iso and the rest) are read.
-constexpr int kReadingRevision = 6;
+// (@when-iso and the rest) are read. 7: each text of a teiCorpus (or each TEI in a TEI)
+// gives its segments its own title and authors (Segment::own_text).
+constexpr int kReadingRevision = 7;
 
 // What the edition's own header says (the first TEI element's teiHeader).
 struct FileMetadata {

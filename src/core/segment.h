@@ -2,6 +2,7 @@
 // chapter, a whole text or an element named by XPath), with everything later layers need
 // and nothing that ties them to XML.
 #pragma once
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -17,6 +18,13 @@ struct TextRun {
 // Between the authors of one text in a single field ("A; B": the titleStmt's authors of a
 // segment or a file): join_authors writes it, the store's author filter splits on it.
 inline constexpr std::string_view kAuthorSeparator = "; ";
+
+// The title and authors of one text's own header (titleStmt), as FileMetadata gives a
+// file's: the authors joined by kAuthorSeparator.
+struct TextHeading {
+  std::string title;
+  std::string author;
+};
 
 // Who is known to have written or spoken a segment, as far as the edition says.
 enum class Authorship { known, conjectured, unknown };
@@ -37,6 +45,10 @@ struct Segment {
   // "" when only the file is dated (FileMetadata::date).
   std::string date;
   int year = 0;            // the first four-digit year in `date`; 0 when there is none
+  // Where the file holds several texts, each with its own header (a teiCorpus, or TEI
+  // elements in a TEI): the heading of this segment's text, by which the store's --author
+  // and --title take it. Absent in a file of one text, whose heading is the file's.
+  std::optional<TextHeading> own_text;
   std::vector<TextRun> runs;
   std::vector<std::string> warnings;  // what the reader noticed (unpaired letter, ...)
 };

@@ -140,10 +140,14 @@ bool FolderFilter::holds(const std::string& path, const std::string& relative_pa
   return false;
 }
 
-bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {
-  if (!filter.author.empty() && !author_matches(m.author, filter.author)) return false;
-  if (!filter.title.empty() && !caseless_pattern_match(filter.title, m.title)) return false;
+bool heading_matches(const ArchiveFilter& filter, const TextHeading& heading) {
+  if (!filter.author.empty() && !author_matches(heading.author, filter.author)) return false;
+  if (!filter.title.empty() && !caseless_pattern_match(filter.title, heading.title)) return false;
   return true;
+}
+
+bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {
+  return heading_matches(filter, TextHeading{m.title, m.author});
 }
 
 }  // namespace manicule::store

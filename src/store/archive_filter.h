@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "core/file_reading.h"
+#include "core/segment.h"
 
 namespace manicule::store {
 
@@ -18,6 +19,8 @@ inline constexpr const char* kAuthorWordSeparators = " \t,;";
 
 struct ArchiveFilter {
   std::string folder;    // only files inside this folder (relative to an input folder, or as a path)
+  // Author and title: the header's of a segment's text (its file's, or in a teiCorpus its
+  // own text's).
   std::string author;    // one of the header's authors holds each word of this text as a whole word, in any order
   // Years: a segment's own where the edition dates it apart from its file (a letter), else
   // its file's (the work's date from the header); segments without either are left out.
@@ -31,6 +34,8 @@ struct ArchiveFilter {
   std::string stored_paths_base;
 
   bool selects_by_header() const;
+  // Whether --author or --title is asked: the tests of a header's heading.
+  bool selects_by_heading() const { return !author.empty() || !title.empty(); }
   bool asks_years() const { return year_from || year_to; }
   // Whether `year` lies in the range (true when no range is asked; 0, no year, never does).
   bool year_matches(int year) const;
@@ -62,8 +67,11 @@ class FolderFilter {
 
 // Whether `path` lies below `folder` (a prefix ending at a '/', of the path or the folder).
 bool starts_with_folder(const std::string& path, const std::string& folder);
-// The file-level header tests: author and title. Years and language are tested per
-// segment (a letter may be dated, or written in a language, apart from its file).
+// The header tests of author and title, of a file's heading (its first text's) or of one
+// text's where a file holds several (a teiCorpus: its segments are tested by their own
+// text's). Years and language are tested per segment (a letter may be dated, or written
+// in a language, apart from its file).
+bool heading_matches(const ArchiveFilter& filter, const TextHeading& heading);
 bool header_matches(const ArchiveFilter& filter, const FileMetadata& metadata);
 
 }  // namespace manicule::store

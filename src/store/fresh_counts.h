@@ -1,8 +1,8 @@
 // What a batch run has just stored, kept in memory for an analysis in the same process so
 // that it need not read back what was just written: the store's vocabulary as the run left
 // it (ids are the store's feature ids) and, for each content read in this run, its
-// segments as stored: every segment's language, own year and length (what the analysis' filters
-// ask), and the metadata and counts in store ids of those of at least `min_tokens` words
+// segments as stored: every segment's language, own year, own text's heading and length
+// (what the analysis' filters ask), and the metadata and counts in store ids of those of at least `min_tokens` words
 // (an analysis leaves shorter ones out anyway). Contents stored by earlier runs are not
 // here: an analysis reads those from the store. On the plays, reading back the counts and
 // vocabulary took a quarter of a second of the first run's analysis, and the segment rows
@@ -32,6 +32,9 @@ struct FreshContent {
   std::vector<std::string> languages;   // every segment's
   std::vector<int> years;               // every segment's own year (0: dated by its file only)
   std::vector<std::size_t> tokens;      // every segment's
+  // Every segment's own text's heading where the file holds several texts (texts_apart);
+  // empty otherwise.
+  std::vector<TextHeading> own_texts;
   std::vector<FreshSegment> kept;       // those of at least min_tokens words, in ordinal order
 };
 

@@ -83,8 +83,10 @@ void ReadingWriter::rank_file_ids_by_store_id() {
 void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
   std::size_t tokens = 0;
   int first_segment_year = 0, last_segment_year = 0;  // of those dated apart from the file
+  bool texts_apart = false;  // its segments named by their own texts' headers (a teiCorpus)
   for (const auto& s : r.segments) {
     tokens += s.tokens;
+    texts_apart = texts_apart || s.segment.own_text;
     if (const int year = s.segment.year) {
       first_segment_year = first_segment_year ? std::min(first_segment_year, year) : year;
       last_segment_year = last_segment_year ? std::max(last_segment_year, year) : year;
@@ -100,6 +102,7 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
   q.bind(14, run_id);
   if (first_segment_year) q.bind(15, first_segment_year).bind(16, last_segment_year);
   else q.bind_null(15).bind_null(16);
+  q.bind(17, texts_apart ? 1 : 0);
   q.step_to_end();
   // Nothing inserted: this content is stored already (the same file twice in the archive).
   if (db_.changes() == 0 || r.failed) return;
@@ -158,8 +161,11 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
     w.bind_blob(15, encode_counts(mapped_));
     if (seg.date.empty()) w.bind_null(16); else w.bind(16, seg.date);
     if (seg.year) w.bind(17, seg.year); else w.bind_null(17);
+    if (seg.own_text) w.bind(18, seg.own_text->title).bind(19, seg.own_text->author);
+    else w.bind_null(18).bind_null(19);
     w.step_to_end();
     if (fresh) {
+      if (texts_apart) fresh->own_texts.push_back(seg.own_text.value_or(TextHeading{}));
       fresh->languages.push_back(seg.language);
       fresh->years.push_back(seg.year);
       fresh->tokens.push_back(record.tokens);

@@ -95,6 +95,11 @@ Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& 
     what = "none of the stored files" + std::string(filter.empty() ? "" : " passing the filter") +
            " was read with these settings (" + std::to_string(selection.files_not_read) + " not read with them, " +
            std::to_string(selection.files_failed) + " failed): run batch with the same unit and options";
+  } else if (found == 0 && stored.segments_other_texts > 0 && stored.segments_other_language == 0 &&
+             stored.segments_other_years + stored.segments_undated == 0) {
+    what = "none of the " + std::to_string(stored.segments_other_texts) + " segment(s) of the " + std::to_string(files) +
+           " file(s) chosen belongs to a text whose own header passes the filter (" + filter.describe() +
+           "; a teiCorpus's texts are taken by their own headers)";
   } else if (found == 0 && stored.segments_other_language > 0) {
     what = "none of the " + std::to_string(stored.segments_other_language) + " segment(s) of the " + std::to_string(files) +
            " file(s) chosen is in language " + filter.language + " (by its xml:lang, else its file's langUsage)";
@@ -154,6 +159,10 @@ void add_selection_notes(const ArchiveFilter& filter, std::size_t min_tokens, co
   if (selection.files_undated)
     notes.push_back(std::to_string(selection.files_undated) +
                     " file(s) left out by --years for want of a year in their header (docs/store.md)");
+  if (stored.segments_other_texts)
+    notes.push_back(std::to_string(stored.segments_other_texts) +
+                    " segment(s) of the files chosen left out by --author or --title: their own text's header "
+                    "(a text of a teiCorpus) does not pass");
   if (stored.segments_undated)
     notes.push_back(std::to_string(stored.segments_undated) +
                     " segment(s) left out by --years for want of a year, their own or their file's");

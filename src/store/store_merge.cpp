@@ -50,17 +50,18 @@ void merge_settings(Database& out, Database& input, const StoredSettings& in, st
 
   Statement readings = input.prepare(
       "SELECT sha256, bytes, status, error, error_kind, title, author, date, year, language, segments, tokens, "
-      "first_segment_year, last_segment_year FROM readings WHERE settings_id = ?1 ORDER BY sha256");
+      "first_segment_year, last_segment_year, texts_apart FROM readings WHERE settings_id = ?1 ORDER BY sha256");
   readings.bind(1, in.id);
   Statement insert_reading = out.prepare(kInsertReading);
   Statement segments = input.prepare(kSegmentsOfContent);
   Statement insert_segment = out.prepare(kInsertSegment);
   while (readings.step()) {
     const std::string sha = readings.text_at(0);
-    // Columns 1-11 of the query are the statement's ?3-?13; then the run; then 12-13.
+    // Columns 1-11 of the query are the statement's ?3-?13; then the run; then 12-14.
     insert_reading.bind(1, out_id).bind(2, sha);
     for (int c = 1; c <= 11; ++c) insert_reading.bind_column(c + 2, readings, c);
     insert_reading.bind(14, run).bind_column(15, readings, 12).bind_column(16, readings, 13);
+    insert_reading.bind_column(17, readings, 14);
     insert_reading.step_to_end();
     if (out.changes() == 0) continue;  // the output holds this content already
     ++summary.readings_added;
@@ -73,6 +74,7 @@ void merge_settings(Database& out, Database& input, const StoredSettings& in, st
                                                 "segment " + std::to_string(segments.int64_at(0)) +
                                                     " of the content with SHA-256 " + sha));
       insert_segment.bind_column(16, segments, 13).bind_column(17, segments, 14);
+      insert_segment.bind_column(18, segments, 15).bind_column(19, segments, 16);
       insert_segment.step_to_end();
       ++summary.segments_added;
     }

@@ -13,15 +13,15 @@ namespace manicule::store {
 
 const char* const kInsertReading =
     "INSERT OR IGNORE INTO readings (settings_id, sha256, bytes, status, error, error_kind, title, author, date, "
-    "year, language, segments, tokens, run_id, first_segment_year, last_segment_year) "
-    "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16)";
+    "year, language, segments, tokens, run_id, first_segment_year, last_segment_year, texts_apart) "
+    "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17)";
 const char* const kInsertSegment =
     "INSERT INTO segments (settings_id, sha256, ordinal, local_id, unit, label, language, author, authorship, "
-    "pointers, warnings, tokens, types, feature_total, counts, date, year) "
-    "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17)";
+    "pointers, warnings, tokens, types, feature_total, counts, date, year, text_title, text_author) "
+    "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19)";
 const char* const kSegmentsOfContent =
     "SELECT ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens, types, "
-    "feature_total, counts, date, year FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal";
+    "feature_total, counts, date, year, text_title, text_author FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal";
 
 namespace {
 
@@ -69,6 +69,7 @@ CREATE TABLE IF NOT EXISTS readings (
   run_id INTEGER,
   first_segment_year INTEGER,
   last_segment_year INTEGER,
+  texts_apart INTEGER NOT NULL DEFAULT 0,
   PRIMARY KEY (settings_id, sha256)
 );
 CREATE TABLE IF NOT EXISTS segments (
@@ -89,6 +90,8 @@ CREATE TABLE IF NOT EXISTS segments (
   counts BLOB NOT NULL,
   date TEXT,
   year INTEGER,
+  text_title TEXT,
+  text_author TEXT,
   PRIMARY KEY (settings_id, sha256, ordinal)
 );
 CREATE TABLE IF NOT EXISTS vocabulary_blocks (
@@ -191,11 +194,13 @@ constexpr const char* kFileListView = R"sql(CREATE VIEW file_list AS
          r.date, r.year, r.language, r.segments, r.tokens, f.size, f.sha256
   FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256)sql";
 
-// A segment's year is its own where the edition dates it (a letter), else its file's.
+// A segment's year is its own where the edition dates it (a letter), else its file's; its
+// title and file_author its own text's where the file holds several (a teiCorpus).
 constexpr const char* kSegmentListView = R"sql(
 CREATE VIEW segment_list AS
   SELECT s.settings_id, f.path, f.stem || '#' || s.local_id AS segment, s.label, s.author, s.authorship,
-         s.language, s.tokens, s.types, r.title, r.author AS file_author, s.date, COALESCE(s.year, r.year) AS year
+         s.language, s.tokens, s.types, COALESCE(s.text_title, r.title) AS title,
+         COALESCE(s.text_author, r.author) AS file_author, s.date, COALESCE(s.year, r.year) AS year
   FROM files f JOIN segments s ON s.sha256 = f.sha256
   JOIN readings r ON r.settings_id = s.settings_id AND r.sha256 = s.sha256;
 )sql";
@@ -218,18 +223,32 @@ constexpr const char* kFrom2To3[] = {
     "DROP VIEW IF EXISTS segment_list",
 };
 
-// Brings a store of format 2 up to this format inside the open transaction; on failure
-// (a store changed by hand, say) throws, and the transaction leaves the store as it was.
-void upgrade_from_format_2(Database& db, const std::string& path) {
+// Format 3 -> 4: segments named by their own text's header. Rows of format 3 keep NULL
+// and 0: their readings named every segment by its file's header, and belong to an
+// earlier reading revision, so the next batch reads the files again.
+constexpr const char* kFrom3To4[] = {
+    "ALTER TABLE readings ADD COLUMN texts_apart INTEGER NOT NULL DEFAULT 0",
+    "ALTER TABLE segments ADD COLUMN text_title TEXT",
+    "ALTER TABLE segments ADD COLUMN text_author TEXT",
+    "DROP VIEW IF EXISTS segment_list",
+};
+
+// Brings a store of format 2 or 3 (`format`) up to this format inside the open
+// transaction, one format at a time; on failure (a store changed by hand, say) throws, and
+// the transaction leaves the store as it was.
+void upgrade_store(Database& db, const std::string& path, int format) {
   try {
-    for (const char* statement : kFrom2To3) db.exec(statement);
+    if (format == 2)
+      for (const char* statement : kFrom2To3) db.exec(statement);
+    for (const char* statement : kFrom3To4) db.exec(statement);
     db.exec(kSegmentListView);
   } catch (const Error& e) {
     std::string reason = e.what();
     const std::string named = "store " + path + ": ";
     if (reason.rfind(named, 0) == 0) reason.erase(0, named.size());
-    throw Error(e.kind(), "the store " + path + " has format 2 but cannot be brought up to format " +
-                              std::to_string(kStoreFormat) + " (" + reason + "); it is left unchanged");
+    throw Error(e.kind(), "the store " + path + " has format " + std::to_string(format) +
+                              " but cannot be brought up to format " + std::to_string(kStoreFormat) + " (" + reason +
+                              "); it is left unchanged");
   }
   db.prepare("UPDATE store_info SET value = ?1 WHERE key = 'format'").run(std::to_string(kStoreFormat));
 }
@@ -302,14 +321,14 @@ std::unique_ptr<Database> open_store_once(const std::string& path, bool create) 
     Statement version = db->prepare("SELECT value FROM store_info WHERE key = 'format'");
     std::string found = version.step() ? version.text_at(0) : "";
     version.reset();
-    if (found == "2") {
-      upgrade_from_format_2(*db, path);
+    if (found == "2" || found == "3") {
+      upgrade_store(*db, path, found == "2" ? 2 : 3);
       found = std::to_string(kStoreFormat);
     }
     if (found != std::to_string(kStoreFormat))
       throw Error(ErrorKind::bad_input, "the store " + path + " has format " + (found.empty() ? "?" : found) +
                                             "; this manicule reads format " + std::to_string(kStoreFormat) +
-                                            " (and brings a store of format 2 up to it)");
+                                            " (and brings a store of format 2 or 3 up to it)");
     refresh_file_list_view(*db);
   }
   if (!has_tables) {

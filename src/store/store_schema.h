@@ -16,23 +16,25 @@ namespace manicule::store {
 // analysis) both run, kept beside the schema so that a new column is added in one place.
 // A content read under a settings: ?1 settings_id, ?2 sha256, ?3 bytes, ?4 status, ?5 error,
 // ?6 error_kind, ?7 title, ?8 author, ?9 date, ?10 year, ?11 language, ?12 segments,
-// ?13 tokens, ?14 run_id, ?15 first_segment_year, ?16 last_segment_year.
+// ?13 tokens, ?14 run_id, ?15 first_segment_year, ?16 last_segment_year, ?17 texts_apart.
 extern const char* const kInsertReading;
 // A segment: ?1 settings_id, ?2 sha256, ?3 ordinal, ?4 local_id, ?5 unit, ?6 label,
 // ?7 language, ?8 author, ?9 authorship, ?10 pointers, ?11 warnings, ?12 tokens, ?13 types,
-// ?14 feature_total, ?15 counts, ?16 date, ?17 year.
+// ?14 feature_total, ?15 counts, ?16 date, ?17 year, ?18 text_title, ?19 text_author.
 extern const char* const kInsertSegment;
-// The segments of a content (?1 settings_id, ?2 sha256) in document order, columns 0-14:
+// The segments of a content (?1 settings_id, ?2 sha256) in document order, columns 0-16:
 // ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens,
-// types, feature_total, counts, date, year.
+// types, feature_total, counts, date, year, text_title, text_author.
 extern const char* const kSegmentsOfContent;
 
 // Raised whenever a table changes shape or a table, index or view is added: a store of
-// an earlier format is brought up to this one where open_store knows how (from 2), any
+// an earlier format is brought up to this one where open_store knows how (from 2 or 3), any
 // other is refused, and an existing store of this format is not given the schema again
 // (open_store runs it on a new store only). 2: the vocabulary in blocks
-// (store_vocabulary.h); 3: segments dated apart from their file (segments.date, .year).
-inline constexpr int kStoreFormat = 3;
+// (store_vocabulary.h); 3: segments dated apart from their file (segments.date, .year);
+// 4: segments named by their own text's header (segments.text_title, .text_author,
+// readings.texts_apart).
+inline constexpr int kStoreFormat = 4;
 
 // Opens the store (creating file and tables when `create`), locks it and checks its format.
 std::unique_ptr<Database> open_store(const std::string& path, bool create);

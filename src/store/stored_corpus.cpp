@@ -1,6 +1,7 @@
 #include "store/stored_corpus.h"
 
 #include <algorithm>
+#include <optional>
 #include <unordered_map>
 #include <unordered_set>
 
@@ -36,6 +37,7 @@ void drop_respelled(StoredSelection& s) {
       s.sha256[kept] = std::move(s.sha256[i]);
       s.languages[kept] = std::move(s.languages[i]);
       s.years[kept] = s.years[i];
+      s.texts_apart[kept] = s.texts_apart[i];
     }
     ++kept;
   }
@@ -43,6 +45,7 @@ void drop_respelled(StoredSelection& s) {
   s.sha256.resize(kept);
   s.languages.resize(kept);
   s.years.resize(kept);
+  s.texts_apart.resize(kept);
 }
 
 }  // namespace
@@ -61,9 +64,21 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
   StoredSelection out;
   Statement files = db.prepare(
       "SELECT f.path, f.relative_path, f.sha256, r.status, r.title, r.author, r.date, r.year, r.language, "
-      "r.first_segment_year, r.last_segment_year, r.segments "
+      "r.first_segment_year, r.last_segment_year, r.segments, r.texts_apart "
       "FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1 ORDER BY f.path");
   files.bind(1, settings_id);
+  // The headings of a file's texts, where it holds several (a teiCorpus).
+  Statement text_headings = db.prepare(
+      "SELECT DISTINCT text_title, text_author FROM segments WHERE settings_id = ?1 AND sha256 = ?2 AND "
+      "text_title IS NOT NULL");
+  const auto some_text_matches = [&](const std::string& sha256) {
+    bool found = false;
+    text_headings.bind(1, settings_id).bind(2, sha256);
+    while (!found && text_headings.step())
+      found = heading_matches(filter, TextHeading{text_headings.text_at(0), text_headings.text_at(1)});
+    text_headings.reset();
+    return found;
+  };
   std::vector<std::string> every_path;  // of the whole store, for the segment id prefixes
   while (files.step()) {
     ++out.files_in_store;
@@ -90,7 +105,11 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     // Language and years are tested per segment (a letter may be in another language than
     // its file, or dated apart from it); here a file is passed by when none of its
     // segments can be in the years asked: neither the file's year nor any of its own.
-    bool chosen = header_matches(filter, m);
+    // A file of several texts, each with its own header, is passed by when none of its
+    // texts' headings passes; its segments are then tested one by one.
+    const bool texts_apart = files.int64_at(12) != 0;
+    bool chosen = texts_apart && filter.selects_by_heading() ? some_text_matches(files.text_at(2))
+                                                             : header_matches(filter, m);
     if (chosen && !filter.year_matches(m.year)) {
       const int first_own = static_cast<int>(files.int64_at(9)), last_own = static_cast<int>(files.int64_at(10));
       if (!filter.years_overlap(first_own, last_own)) {
@@ -107,6 +126,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     out.sha256.push_back(files.text_at(2));
     out.languages.push_back(std::move(m.language));
     out.years.push_back(m.year);
+    out.texts_apart.push_back(texts_apart);
   }
   drop_respelled(out);
   // An archive often holds files of one name in several folders (1850/letters.xml,
@@ -156,7 +176,13 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     const auto language_of = [&](const std::string& own_language) -> const std::string& {
       return language.readable(own_language) ? own_language : selection.languages[f];
     };
-    const auto passes = [&](const std::string& segment_language, int segment_year, std::size_t tokens) {
+    const bool by_own_text = selection.texts_apart[f] && filter.selects_by_heading();
+    const auto passes = [&](const TextHeading* own_text, const std::string& segment_language, int segment_year,
+                            std::size_t tokens) {
+      if (by_own_text && !(own_text && heading_matches(filter, *own_text))) {
+        ++out.segments_other_texts;
+        return false;
+      }
       if (!filter.language.empty() && !language.holds(language_of(segment_language))) {
         ++out.segments_other_language;
         return false;
@@ -205,7 +231,8 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
         const bool kept = next_kept < content->kept.size() && content->kept[next_kept].ordinal == ordinal;
         FreshSegment* segment = kept ? &content->kept[next_kept++] : nullptr;
         // One that passes has at least min_tokens words, so it was kept (find() said so).
-        if (!passes(content->languages[ordinal], content->years[ordinal], content->tokens[ordinal])) continue;
+        const TextHeading* own_text = ordinal < content->own_texts.size() ? &content->own_texts[ordinal] : nullptr;
+        if (!passes(own_text, content->languages[ordinal], content->years[ordinal], content->tokens[ordinal])) continue;
         if (last_use) {
           add(std::move(segment->record), ordinal, segment->feature_total, std::move(segment->counts));
         } else {
@@ -219,7 +246,11 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     while (stored_segments.step()) {
       const std::string segment_language = stored_segments.text_at(4);
       const int segment_year = static_cast<int>(stored_segments.int64_at(14));
-      if (!passes(segment_language, segment_year, static_cast<std::size_t>(stored_segments.int64_at(9)))) continue;
+      std::optional<TextHeading> own_text;
+      if (!stored_segments.is_null(15)) own_text = TextHeading{stored_segments.text_at(15), stored_segments.text_at(16)};
+      if (!passes(own_text ? &*own_text : nullptr, segment_language, segment_year,
+                  static_cast<std::size_t>(stored_segments.int64_at(9))))
+        continue;
       SegmentRecord record;
       Segment& seg = record.segment;
       seg.local_id = stored_segments.text_at(1);
@@ -228,6 +259,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
       seg.language = segment_language;
       seg.date = stored_segments.text_at(13);
       seg.year = segment_year;
+      seg.own_text = std::move(own_text);
       seg.author = stored_segments.text_at(5);
       seg.authorship = parse_authorship(stored_segments.text_at(6));
       seg.pointers = nlohmann::json::parse(stored_segments.text_at(7)).get<std::vector<std::string>>();

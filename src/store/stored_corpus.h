@@ -1,6 +1,7 @@
 // A Corpus built from the store, for analyses that read no XML: the segments of the files
 // the store knows (its files table, the archive as batch runs last saw it) that were read
-// under one settings, inside a filter, in path order and then document order, with their
+// under one settings, inside a filter (a teiCorpus's segments tested by their own text's
+// header), in path order and then document order, with their
 // counts. Segments shorter than `min_tokens` words are left out here already (the feature
 // space would leave them out first anyway; they are counted), which keeps memory and time
 // in proportion to what is measured. Files stored as failed are left out and counted.
@@ -37,6 +38,9 @@ struct StoredSelection {
                                     // (core/segment_id_prefixes.h)
   std::vector<std::string> languages;  // each file's header language
   std::vector<int> years;              // each file's year (0: none)
+  // Each file's: whether it holds several texts with headers of their own (a teiCorpus),
+  // whose segments --author and --title then take by their own text's heading.
+  std::vector<char> texts_apart;
   std::size_t files_in_store = 0;       // rows of the files table
   std::size_t files_not_read = 0;       // no reading under these settings (run batch)
   std::size_t files_failed = 0;         // stored as failed under these settings
@@ -53,6 +57,7 @@ struct StoredCorpus {
   std::size_t segments_other_language = 0;  // outside the filter's language
   std::size_t segments_other_years = 0;     // dated (own year, else the file's) outside the years
   std::size_t segments_undated = 0;         // no year, in a file chosen for its segments' years
+  std::size_t segments_other_texts = 0;     // of a text whose own heading fails --author or --title
   // The segments used, by language: the primary subtag of each one's own language where its
   // text says it readably, else its file's ("" when neither does), canonical ("ger" -> "de").
   std::map<std::string, std::size_t> segments_by_language;

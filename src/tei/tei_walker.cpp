@@ -1107,6 +1107,8 @@ std::vector<Segment> TeiWalker::finish() {
     // A teiCorpus (or TEI elements in a TEI) dates each text by its own header; the file's
     // date is its first header's.
     if (s.headers.size() > 1 && seg.date.empty()) seg.date = work_date(h);
+    // ... and names it by its own title and authors, not the first text's.
+    if (s.headers.size() > 1) seg.own_text = TextHeading{h.title, join_authors(h.authors)};
     seg.year = first_year(seg.date);
     std::string fallback = h.language.empty() ? s.rules.default_language : h.language;
     for (auto& run : seg.runs)

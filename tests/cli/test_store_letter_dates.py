@@ -16,7 +16,7 @@ letters whose year lies in it, in `batch --analyse` (counts just read) and in
 `analyse-store` (counts read back), and two shards merged must hold the same. Last, a
 store the previous version wrote of the same editions (format 2, without these columns,
 its counts of an earlier reading revision, with an analysis; a fixture) is opened: it is
-brought up to format 3 with every row kept, its analysis keeps its segments with their
+brought up to this version's format (4, docs/store.md) with every row kept, its analysis keeps its segments with their
 file's year, and the next batch reads its files again and dates their letters. The
 editions themselves are in tests/pylib/dated_letters.py, shared with that fixture.
 """
@@ -219,8 +219,8 @@ with tempfile.TemporaryDirectory() as tmp:
 
     # A store of format 2, as the version before letters were dated wrote it (manicule at
     # be093e5, over these editions in a folder "archive", with an analysis; kept in
-    # tests/fixtures/stores, see the README there), is brought up to format 3 when opened,
-    # keeping every row.
+    # tests/fixtures/stores, see the README there), is brought up to this version's format
+    # (4) when opened, keeping every row.
     old = os.path.join(tmp, "format2.sqlite")
     with gzip.open(os.path.join(mtest.FIXTURES, "stores", "dated-letters-format2.sqlite.gz")) as src, \
             open(old, "wb") as dst:
@@ -250,8 +250,8 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(got == {k: file_year[k.split("#")[0]] for k in got} and len(got) > 0,
                 "the reused analysis' years after the upgrade %r, the files' %r" % (got, file_year))
     db = sqlite3.connect(old)
-    mtest.check(db.execute("SELECT value FROM store_info WHERE key = 'format'").fetchone()[0] == "3",
-                "a format-2 store was not brought up to format 3")
+    mtest.check(db.execute("SELECT value FROM store_info WHERE key = 'format'").fetchone()[0] == "4",
+                "a format-2 store was not brought up to format 4")
     after = {t: db.execute("SELECT count(*) FROM %s" % t).fetchone()[0] for t in ("files", "readings", "segments")}
     mtest.check(after == before, "rows before %r and after the upgrade %r" % (before, after))
     for table, columns in fresh_columns.items():

@@ -1,13 +1,13 @@
 """Archive store: a store written by an earlier version (format 2, made by manicule at
-be093e5 and kept in tests/fixtures/stores, see the README there) is brought up to this
-version's format when opened, and nothing in it is lost.
+be093e5, and format 3, made at 45c7dfe, kept in tests/fixtures/stores, see the README
+there) is brought up to this version's format when opened, and nothing in it is lost.
 
 Outside references: the store file itself, written by the earlier build, and SQLite's own
 account of it (Python's sqlite3 module): its tables' rows before and after, and the shape
 of its tables and views against a store this version creates from the same edition. Its
 counts, read by the earlier version, give the same analysis as this version's reading of
-the same edition (the earlier reading differs in dates only, which the analysis does not
-use), table for table.
+the same edition (the earlier readings differ in dates and in the headings of a
+teiCorpus's texts only, which an unfiltered analysis does not use), table for table.
 """
 import gzip
 import hashlib
@@ -21,7 +21,10 @@ sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
 
-FIXTURE = os.path.join(mtest.ROOT, "tests", "fixtures", "stores", "ferry-format2.sqlite.gz")
+FIXTURES = {"2": os.path.join(mtest.ROOT, "tests", "fixtures", "stores", "ferry-format2.sqlite.gz"),
+            "3": os.path.join(mtest.ROOT, "tests", "fixtures", "stores", "ferry-format3.sqlite.gz")}
+# This version's store format (docs/store.md, the store_info table).
+FORMAT = "4"
 TABLES = ("files", "readings", "segments", "vocabulary_blocks", "runs", "settings")
 
 
@@ -44,8 +47,8 @@ def rows(path):
         db.close()
 
 
-def fixture_copy(path):
-    with gzip.open(FIXTURE) as src, open(path, "wb") as dst:
+def fixture_copy(fixture, path):
+    with gzip.open(fixture) as src, open(path, "wb") as dst:
         shutil.copyfileobj(src, dst)
 
 
@@ -57,74 +60,86 @@ def store_format(path):
         db.close()
 
 
-with tempfile.TemporaryDirectory() as tmp:
-    old = os.path.join(tmp, "old.sqlite")
-    fixture_copy(old)
-    mtest.check(store_format(old) == "2", "the fixture is not a store of format 2")
-    before = rows(old)
-    mtest.check(len(before["segments"]) == 12 and len(before["files"]) == 1,
-                "the fixture holds %d segments of %d files; 12 letters of one file expected" % (
-                    len(before["segments"]), len(before["files"])))
+def check_upgrade(earlier, fixture):
+    with tempfile.TemporaryDirectory() as tmp:
+        old = os.path.join(tmp, "old.sqlite")
+        fixture_copy(fixture, old)
+        mtest.check(store_format(old) == earlier, "the fixture is not a store of format " + earlier)
+        before = rows(old)
+        mtest.check(len(before["segments"]) == 12 and len(before["files"]) == 1,
+                    "the fixture holds %d segments of %d files; 12 letters of one file expected" % (
+                        len(before["segments"]), len(before["files"])))
 
-    # A store of this version from the same edition, for the shape and the analysis: the
-    # example must still be the content the fixture read (SHA-256 by Python's hashlib).
-    letters = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
-    with open(letters, "rb") as f:
-        example_sha256 = hashlib.sha256(f.read()).hexdigest()
-    fixture_contents = {v for r in before["files"] for v in r if isinstance(v, str)}
-    mtest.check(example_sha256 in fixture_contents, "examples/ferry-letters.xml is no longer the content the fixture read")
-    archive = os.path.join(tmp, "f2in")
-    os.makedirs(archive)
-    shutil.copy(letters, archive)
-    new = os.path.join(tmp, "new.sqlite")
-    mtest.run(["batch", archive, "--store", new, "--unit", "letter", "--quiet"])
-    mtest.run(["analyse-store", "--store", new, "--min-tokens", "200"])
+        # A store of this version from the same edition, for the shape and the analysis: the
+        # example must still be the content the fixture read (SHA-256 by Python's hashlib).
+        letters = os.path.join(mtest.ROOT, "examples", "ferry-letters.xml")
+        with open(letters, "rb") as f:
+            example_sha256 = hashlib.sha256(f.read()).hexdigest()
+        fixture_contents = {v for r in before["files"] for v in r if isinstance(v, str)}
+        mtest.check(example_sha256 in fixture_contents, "examples/ferry-letters.xml is no longer the content the fixture read")
+        archive = os.path.join(tmp, "f2in")
+        os.makedirs(archive)
+        shutil.copy(letters, archive)
+        new = os.path.join(tmp, "new.sqlite")
+        mtest.run(["batch", archive, "--store", new, "--unit", "letter", "--quiet"])
+        mtest.run(["analyse-store", "--store", new, "--min-tokens", "200"])
 
-    proc = mtest.run(["analyse-store", "--store", old, "--min-tokens", "200"])
-    mtest.check("another version" in proc.stderr, "no note that the counts are another version's: " + proc.stderr)
+        proc = mtest.run(["analyse-store", "--store", old, "--min-tokens", "200"])
+        mtest.check("another version" in proc.stderr, "no note that the counts are another version's: " + proc.stderr)
 
-    mtest.check(store_format(old) == "3", "the store was not brought up to format 3")
-    db = sqlite3.connect(old)
-    mtest.check(db.execute("PRAGMA integrity_check").fetchone()[0] == "ok", "the upgraded store fails integrity_check")
-    dated = db.execute("SELECT count(*) FROM segments WHERE date IS NOT NULL OR year IS NOT NULL").fetchone()[0]
-    mtest.check(dated == 0, "%d segments read by the earlier version have dates of their own" % dated)
-    db.close()
-    after = rows(old)
-    for table in TABLES:
-        # The earlier rows come back with the new columns NULL at the end; the runs table
-        # gains the analysis just made.
-        kept = [r[:len(before[table][0])] for r in after[table]] if before[table] else after[table]
-        if table == "runs":
-            kept = kept[:len(before[table])]
-        mtest.check(kept == before[table], "%s: rows changed in the upgrade" % table)
-    mtest.check(shape(old) == shape(new), "the upgraded store's tables and views %r differ from a new store's %r" % (
-        shape(old), shape(new)))
+        mtest.check(store_format(old) == FORMAT, "the store was not brought up to format " + FORMAT)
+        db = sqlite3.connect(old)
+        mtest.check(db.execute("PRAGMA integrity_check").fetchone()[0] == "ok", "the upgraded store fails integrity_check")
+        dated = db.execute("SELECT count(*) FROM segments WHERE date IS NOT NULL OR year IS NOT NULL").fetchone()[0]
+        # Format 2 dated files alone; the ferry letters, one text, have no text heading of their own.
+        mtest.check(dated == 0 or earlier != "2", "%d segments read by the earlier version have dates of their own" % dated)
+        headed = db.execute("SELECT count(*) FROM segments WHERE text_title IS NOT NULL OR text_author IS NOT NULL "
+                            "UNION ALL SELECT count(*) FROM readings WHERE texts_apart != 0").fetchall()
+        mtest.check(headed == [(0,), (0,)], "rows read by the earlier version have text headings: %r" % headed)
+        db.close()
+        after = rows(old)
+        for table in TABLES:
+            # The earlier rows come back with the new columns NULL at the end; the runs table
+            # gains the analysis just made.
+            kept = [r[:len(before[table][0])] for r in after[table]] if before[table] else after[table]
+            if table == "runs":
+                kept = kept[:len(before[table])]
+            mtest.check(kept == before[table], "%s: rows changed in the upgrade" % table)
+        mtest.check(shape(old) == shape(new), "the upgraded store's tables and views %r differ from a new store's %r" % (
+            shape(old), shape(new)))
 
-    # The earlier version's counts give the same analysis as this version's reading.
-    _, old_tables = storecheck.latest_analysis(old)
-    _, new_tables = storecheck.latest_analysis(new)
-    for table in ("features", "neighbours"):
-        mtest.check(old_tables[table] == new_tables[table], "%s differ between the earlier counts and these" % table)
-    # Each segment as the analysis took it, but for its path (the fixture's archive was
-    # f2in/ below another folder).
-    mtest.check([r[:1] + r[2:] for r in old_tables["segments"]] == [r[:1] + r[2:] for r in new_tables["segments"]],
-                "the analyses took different segments")
+        # The earlier version's counts give the same analysis as this version's reading.
+        _, old_tables = storecheck.latest_analysis(old)
+        _, new_tables = storecheck.latest_analysis(new)
+        for table in ("features", "neighbours"):
+            mtest.check(old_tables[table] == new_tables[table], "%s differ between the earlier counts and these" % table)
+        # Each segment as the analysis took it, but for its path (the fixture's archive was
+        # f2in/ below another folder).
+        mtest.check([r[:1] + r[2:] for r in old_tables["segments"]] == [r[:1] + r[2:] for r in new_tables["segments"]],
+                    "the analyses took different segments")
 
-    # A format-2 store changed by hand so that the upgrade cannot run (it already has a
-    # column the upgrade adds) is refused (exit 5: the store could not be written) with
-    # SQLite's reason, and left as it was.
-    odd = os.path.join(tmp, "odd.sqlite")
-    fixture_copy(odd)
-    db = sqlite3.connect(odd)
-    db.execute("ALTER TABLE segments ADD COLUMN year INTEGER")
-    db.commit()
-    db.close()
-    odd_before = (rows(odd), shape(odd))
-    proc = mtest.run(["analyse-store", "--store", odd, "--min-tokens", "200"], check=False)
-    mtest.check(proc.returncode == 5 and "cannot be brought up to format 3" in proc.stderr
-                and "duplicate column name: year" in proc.stderr and "left unchanged" in proc.stderr,
-                "a store that cannot be upgraded: exit %d, %s" % (proc.returncode, proc.stderr))
-    mtest.check((rows(odd), shape(odd)) == odd_before, "a store that could not be upgraded was changed")
-    mtest.check(store_format(odd) == "2", "a store that could not be upgraded no longer says format 2")
+        # A store of the earlier format changed by hand so that the upgrade cannot run (it
+        # already has a column the upgrade adds) is refused (exit 5: the store could not be
+        # written) with SQLite's reason, and left as it was.
+        odd = os.path.join(tmp, "odd.sqlite")
+        fixture_copy(fixture, odd)
+        db = sqlite3.connect(odd)
+        # (a column the first step of its upgrade adds: 2 -> 3 the segments' year, 3 -> 4
+        # their text's title)
+        db.execute("ALTER TABLE segments ADD COLUMN %s" % ("year INTEGER" if earlier == "2" else "text_title TEXT"))
+        db.commit()
+        db.close()
+        odd_before = (rows(odd), shape(odd))
+        proc = mtest.run(["analyse-store", "--store", odd, "--min-tokens", "200"], check=False)
+        refusal = "has format %s but cannot be brought up to format %s" % (earlier, FORMAT)
+        mtest.check(proc.returncode == 5 and refusal in proc.stderr
+                    and "duplicate column name: " in proc.stderr and "left unchanged" in proc.stderr,
+                    "a store that cannot be upgraded: exit %d, %s" % (proc.returncode, proc.stderr))
+        mtest.check((rows(odd), shape(odd)) == odd_before, "a store that could not be upgraded was changed")
+        mtest.check(store_format(odd) == earlier, "a store that could not be upgraded no longer says format " + earlier)
+
+
+for earlier_format, fixture_path in sorted(FIXTURES.items()):
+    check_upgrade(earlier_format, fixture_path)
 
 mtest.done()

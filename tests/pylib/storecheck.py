@@ -182,12 +182,13 @@ def logical_tables(path):
                 "SELECT path, relative_path, stem, size, sha256, read_error FROM files")),
             "readings": sorted((key_of[r[0]],) + tuple(r[1:]) for r in db.execute(
                 "SELECT settings_id, sha256, bytes, status, error, error_kind, title, author, date, year, "
-                "language, segments, tokens, first_segment_year, last_segment_year FROM readings")),
+                "language, segments, tokens, first_segment_year, last_segment_year, texts_apart FROM readings")),
         }
         segments = []
         for row in db.execute(
                 "SELECT settings_id, sha256, ordinal, local_id, unit, label, language, author, authorship, "
-                "pointers, warnings, tokens, types, feature_total, counts, date, year FROM segments"):
+                "pointers, warnings, tokens, types, feature_total, counts, date, year, text_title, text_author "
+                "FROM segments"):
             sid = row[0]
             counts = tuple(sorted((forms[(sid, fid)], n) for fid, n in decode_counts(row[14])))
             segments.append((key_of[sid],) + tuple(row[1:14]) + (counts,) + tuple(row[15:]))
