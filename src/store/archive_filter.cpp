@@ -140,14 +140,18 @@ bool FolderFilter::holds(const std::string& path, const std::string& relative_pa
   return false;
 }
 
-bool heading_matches(const ArchiveFilter& filter, const TextHeading& heading) {
-  if (!filter.author.empty() && !author_matches(heading.author, filter.author)) return false;
-  if (!filter.title.empty() && !caseless_pattern_match(filter.title, heading.title)) return false;
+bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {
+  if (!filter.author.empty() && !author_matches(m.author, filter.author)) return false;
+  if (!filter.title.empty() && !caseless_pattern_match(filter.title, m.title)) return false;
   return true;
 }
 
-bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {
-  return heading_matches(filter, TextHeading{m.title, m.author});
+bool text_matches(const ArchiveFilter& filter, const TextHeading& text, const std::string& file_title) {
+  if (!filter.author.empty() && !author_matches(text.author, filter.author)) return false;
+  if (!filter.title.empty() && !caseless_pattern_match(filter.title, text.title) &&
+      !caseless_pattern_match(filter.title, file_title))
+    return false;
+  return true;
 }
 
 }  // namespace manicule::store

@@ -67,11 +67,12 @@ class FolderFilter {
 
 // Whether `path` lies below `folder` (a prefix ending at a '/', of the path or the folder).
 bool starts_with_folder(const std::string& path, const std::string& folder);
-// The header tests of author and title, of a file's heading (its first text's) or of one
-// text's where a file holds several (a teiCorpus: its segments are tested by their own
-// text's). Years and language are tested per segment (a letter may be dated, or written
-// in a language, apart from its file).
-bool heading_matches(const ArchiveFilter& filter, const TextHeading& heading);
+// The header tests of author and title. Of a file's header; or, where a file holds several
+// texts with headers of their own (a teiCorpus), of one text's: its authors (else the
+// collection's), its own title or the file's (the collection's), so that a collection's
+// title takes all its texts. Years and language are tested per segment (a letter may be
+// dated, or written in a language, apart from its file).
 bool header_matches(const ArchiveFilter& filter, const FileMetadata& metadata);
+bool text_matches(const ArchiveFilter& filter, const TextHeading& text, const std::string& file_title);
 
 }  // namespace manicule::store

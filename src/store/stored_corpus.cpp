@@ -38,6 +38,7 @@ void drop_respelled(StoredSelection& s) {
       s.languages[kept] = std::move(s.languages[i]);
       s.years[kept] = s.years[i];
       s.texts_apart[kept] = s.texts_apart[i];
+      s.titles[kept] = std::move(s.titles[i]);
     }
     ++kept;
   }
@@ -46,6 +47,7 @@ void drop_respelled(StoredSelection& s) {
   s.languages.resize(kept);
   s.years.resize(kept);
   s.texts_apart.resize(kept);
+  s.titles.resize(kept);
 }
 
 }  // namespace
@@ -71,11 +73,11 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
   Statement text_headings = db.prepare(
       "SELECT DISTINCT text_title, text_author FROM segments WHERE settings_id = ?1 AND sha256 = ?2 AND "
       "text_title IS NOT NULL");
-  const auto some_text_matches = [&](const std::string& sha256) {
+  const auto some_text_matches = [&](const std::string& sha256, const std::string& file_title) {
     bool found = false;
     text_headings.bind(1, settings_id).bind(2, sha256);
     while (!found && text_headings.step())
-      found = heading_matches(filter, TextHeading{text_headings.text_at(0), text_headings.text_at(1)});
+      found = text_matches(filter, TextHeading{text_headings.text_at(0), text_headings.text_at(1)}, file_title);
     text_headings.reset();
     return found;
   };
@@ -108,7 +110,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     // A file of several texts, each with its own header, is passed by when none of its
     // texts' headings passes; its segments are then tested one by one.
     const bool texts_apart = files.int64_at(12) != 0;
-    bool chosen = texts_apart && filter.selects_by_heading() ? some_text_matches(files.text_at(2))
+    bool chosen = texts_apart && filter.selects_by_heading() ? some_text_matches(files.text_at(2), m.title)
                                                              : header_matches(filter, m);
     if (chosen && !filter.year_matches(m.year)) {
       const int first_own = static_cast<int>(files.int64_at(9)), last_own = static_cast<int>(files.int64_at(10));
@@ -127,6 +129,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     out.languages.push_back(std::move(m.language));
     out.years.push_back(m.year);
     out.texts_apart.push_back(texts_apart);
+    out.titles.push_back(std::move(m.title));
   }
   drop_respelled(out);
   // An archive often holds files of one name in several folders (1850/letters.xml,
@@ -179,7 +182,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     const bool by_own_text = selection.texts_apart[f] && filter.selects_by_heading();
     const auto passes = [&](const TextHeading* own_text, const std::string& segment_language, int segment_year,
                             std::size_t tokens) {
-      if (by_own_text && !(own_text && heading_matches(filter, *own_text))) {
+      if (by_own_text && !(own_text && text_matches(filter, *own_text, selection.titles[f]))) {
         ++out.segments_other_texts;
         return false;
       }

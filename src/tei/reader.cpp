@@ -78,7 +78,7 @@ std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules
   TeiWalker walker(rules, source.name, file_stem(source.name), &targets);
   SourceDigest d = parse_xml(source, walker);
   if (digest) *digest = d;
-  if (header) *header = walker.first_header();
+  if (header) *header = walker.file_header();
   return walker.finish();
 }
 

@@ -16,7 +16,7 @@ namespace manicule {
 // or non-TEI input, and Error(usage) for an XPath that does not compile. Segments without
 // any text are returned (with a warning) so that callers can report them.
 // `digest`, when given, receives the size and SHA-256 of the source bytes; `header`, when
-// given, the header of the first TEI element (title, authors, date, declared language).
+// given, the file's header (TeiWalker::file_header: title, authors, date, declared language).
 std::vector<Segment> read_segments(const XmlSource& source, const SelectionRules& rules,
                                    SourceDigest* digest = nullptr, HeaderInfo* header = nullptr);
 

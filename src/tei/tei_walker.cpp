@@ -295,6 +295,10 @@ struct TeiWalker::State {
   std::vector<int> language_stack;
 
   std::vector<HeaderInfo> headers;       // one per TEI element, in document order
+  // A teiCorpus's own header (TEI P5 15.1): what it says of the collection (its title, and
+  // authors that its texts' headers may leave to it), read while no TEI element is open.
+  HeaderInfo corpus_header;
+  bool root_is_corpus = false;
   std::vector<int> tei_stack;            // indices into headers of open TEI elements
   std::vector<std::string> capture_text;  // one per open capture
   std::vector<std::string> sp_grp_who;
@@ -338,7 +342,15 @@ struct TeiWalker::State {
     return static_cast<int>(languages.size() - 1);
   }
 
-  HeaderInfo& header() { return headers[static_cast<std::size_t>(tei_stack.back())]; }
+  // The header being read: the open TEI element's, else (in a teiCorpus) the corpus's.
+  HeaderInfo& header() { return tei_stack.empty() ? corpus_header : headers[static_cast<std::size_t>(tei_stack.back())]; }
+
+  // The header that holds a file's texts together where it holds several: a teiCorpus's
+  // own, or the outermost TEI's for TEI elements in a TEI; null for a file of one text.
+  const HeaderInfo* collection_header() const {
+    if (root_is_corpus) return &corpus_header;
+    return headers.size() > 1 ? &headers.front() : nullptr;
+  }
 
   bool collecting() const { return !open_units.empty() && skip_depth == 0; }
   TextBuffer& sink() { return open_units.back().buffers.back(); }
@@ -450,7 +462,7 @@ struct TeiWalker::State {
       note_work_event(tag);
       return;
     }
-    if (header_depth == 0 || tei_stack.empty()) return;
+    if (header_depth == 0) return;
     HeaderInfo& h = header();
     if (f.name == "titleStmt" && frames.size() >= 2 && frames.back().name == "fileDesc" &&
         frames[frames.size() - 2].name == "teiHeader") {
@@ -649,7 +661,7 @@ struct TeiWalker::State {
       return;
     }
     std::string value = normalise_space(text);
-    HeaderInfo* h = tei_stack.empty() ? nullptr : &header();
+    HeaderInfo* h = &header();
     switch (f.capture) {
       case Capture::title:
         if (h && (h->title.empty() || (f.main_title && !h->title_is_main))) {
@@ -776,6 +788,7 @@ void TeiWalker::start(const StartTag& tag) {
   if (!s.root_seen) {
     s.root_seen = true;
     require_tei_root(tag, s.file, "; expected <TEI> or <teiCorpus> in http://www.tei-c.org/ns/1.0");
+    s.root_is_corpus = tag.local == "teiCorpus";
   }
   State::Frame f;
   f.name = tag.local;
@@ -1028,7 +1041,17 @@ bool has_text(const Segment& segment) {
 
 }  // namespace
 
-HeaderInfo TeiWalker::first_header() const { return s_->headers.empty() ? HeaderInfo{} : s_->headers.front(); }
+HeaderInfo TeiWalker::file_header() const {
+  const State& s = *s_;
+  HeaderInfo out = s.headers.empty() ? HeaderInfo{} : s.headers.front();
+  if (s.root_is_corpus) {
+    // The collection's title and authors where its own header gives them; the first
+    // text's dates and languages, as the corpus header seldom dates the works.
+    if (!s.corpus_header.title.empty()) out.title = s.corpus_header.title;
+    if (!s.corpus_header.authors.empty()) out.authors = s.corpus_header.authors;
+  }
+  return out;
+}
 
 std::vector<Segment> TeiWalker::finish() {
   State& s = *s_;
@@ -1039,9 +1062,18 @@ std::vector<Segment> TeiWalker::finish() {
   // Every correspDesc of the document by xml:id, the first in document order for an id
   // given twice (xml:ids are unique in a valid document).
   std::unordered_map<std::string_view, const CorrespRecord*> corresp_by_id;
+  for (const auto& r : s.corpus_header.corresp)  // first in document order
+    if (!r.id.empty()) corresp_by_id.emplace(r.id, &r);
   for (const HeaderInfo& header : s.headers)
     for (const auto& r : header.corresp)
       if (!r.id.empty()) corresp_by_id.emplace(r.id, &r);
+  // A text whose header names no author is the collection's authors' (a teiCorpus of one
+  // writer's works, each text's titleStmt giving its title alone): TEI P5 15.1 has the
+  // corpus header say what holds for all its texts.
+  const HeaderInfo* collection = s.collection_header();
+  const auto authors_of = [&](const HeaderInfo& h) -> const std::vector<std::string>& {
+    return h.authors.empty() && collection ? collection->authors : h.authors;
+  };
   for (auto& b : s.built) {
     Segment& seg = b.segment;
     // Bound without a conditional expression: `cond ? HeaderInfo{} : headers[i]` is a
@@ -1097,10 +1129,11 @@ std::vector<Segment> TeiWalker::finish() {
       seg.authorship = seg.author.empty() ? Authorship::unknown : Authorship::known;
     } else {
       if (s.rules.unit == UnitKind::whole) seg.label = h.title;
-      bool anonymous = h.authors.empty();
-      for (const auto& a : h.authors)
+      const std::vector<std::string>& authors = authors_of(h);
+      bool anonymous = authors.empty();
+      for (const auto& a : authors)
         if (is_placeholder_name(a)) anonymous = true;
-      seg.author = anonymous ? "" : join_authors(h.authors);
+      seg.author = anonymous ? "" : join_authors(authors);
       seg.authorship = anonymous ? Authorship::unknown : Authorship::known;
     }
     if (seg.label.empty()) seg.label = seg.local_id;  // no name, title or heading: the id
@@ -1108,7 +1141,7 @@ std::vector<Segment> TeiWalker::finish() {
     // date is its first header's.
     if (s.headers.size() > 1 && seg.date.empty()) seg.date = work_date(h);
     // ... and names it by its own title and authors, not the first text's.
-    if (s.headers.size() > 1) seg.own_text = TextHeading{h.title, join_authors(h.authors)};
+    if (collection) seg.own_text = TextHeading{h.title, join_authors(authors_of(h))};
     seg.year = first_year(seg.date);
     std::string fallback = h.language.empty() ? s.rules.default_language : h.language;
     for (auto& run : seg.runs)

@@ -31,8 +31,9 @@ class TeiWalker : public XmlEventHandler {
   // The finished segments, in document order of their first text.
   std::vector<Segment> finish();
 
-  // The header of the first TEI element seen (empty if none): the edition's own metadata.
-  HeaderInfo first_header() const;
+  // The edition's own metadata: the header of the first TEI element seen (empty if none),
+  // with a teiCorpus's own title and authors where its header gives them.
+  HeaderInfo file_header() const;
 
  private:
   struct State;

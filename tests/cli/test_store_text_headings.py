@@ -2,10 +2,12 @@
 
 A teiCorpus gathers texts that each have a teiHeader of their own (TEI P5 15.1), often by
 different authors: an almanac of tales, a packet of letters. A sub-corpus by author or
-title must take a text's segments by that text's titleStmt, not by the first text's. Which
+title must take a text's segments by that text's titleStmt, not by the first text's; the
+corpus's own header says what holds for all its texts (15.1, from memory): its title
+takes all of them, and its authors are those of a text whose header names none. Which
 segments each filter takes is worked out here with lxml from the editions (each chapter's
-nearest enclosing TEI, its titleStmt's title and authors) and the filter rules of
-docs/store.md (each word of --author a whole word of one author, letter case ignored;
+nearest enclosing TEI and its titleStmt, the teiCorpus's titleStmt) and the filter rules
+of docs/store.md (each word of --author a whole word of one author, letter case ignored;
 --title a pattern where * and ? alone are special), apart from manicule's reader. Checked
 on both ways an analysis gets its segments: straight from the batch that read them, and
 from the store (analyse-store --recompute), and on a store merged from this one.
@@ -46,10 +48,10 @@ def text(title, authors, chapter_ids):
             '<text><body>%s</body></text></TEI>' % (header, PUBLICATION, body))
 
 
-def corpus(title, texts):
+def corpus(title, texts, responsible="<editor>Wenna Hale</editor>"):
     return ('<?xml version="1.0" encoding="UTF-8"?>\n<teiCorpus xmlns="%s" xml:lang="en"><teiHeader><fileDesc>'
-            '<titleStmt><title>%s</title><editor>Wenna Hale</editor></titleStmt>%s</fileDesc></teiHeader>%s'
-            '</teiCorpus>\n' % (TEI_NS, title, PUBLICATION, "".join(texts)))
+            '<titleStmt><title>%s</title>%s</titleStmt>%s</fileDesc></teiHeader>%s'
+            '</teiCorpus>\n' % (TEI_NS, title, responsible, PUBLICATION, "".join(texts)))
 
 
 EDITIONS = {
@@ -61,6 +63,10 @@ EDITIONS = {
     "almanac-1863": corpus("The Quillmouth Almanac for 1863", [
         text("Lanterns at Low Water", ["Tamsin Corbel"], ["a63-lanterns-1", "a63-lanterns-2"]),
         text("The Drowned Bell", ["Orrin Vale"], ["a63-bell-1", "a63-bell-2"])]),
+    # Its texts name no author: the corpus header's is theirs.
+    "almanac-1864": corpus("The Quillmouth Almanac for 1864", [
+        text("A Year of Weather", [], ["a64-weather-1", "a64-weather-2"]),
+        text("Notes on Nets", [], ["a64-nets-1", "a64-nets-2"])], responsible="<author>Orrin Vale</author>"),
     # One text: its header is the file's.
     "logbook": ('<?xml version="1.0" encoding="UTF-8"?>\n' +
                 text("A Ferryman's Logbook", ["Ned Quill"], ["log-1", "log-2"])
@@ -68,15 +74,27 @@ EDITIONS = {
 }
 
 
+def title_and_authors(header_holder):
+    stmt = header_holder.find("tei:teiHeader/tei:fileDesc/tei:titleStmt", NS)
+    return stmt.findtext("tei:title", namespaces=NS), [a.text for a in stmt.findall("tei:author", NS)]
+
+
+def collection_title(path):
+    """The file's own title: a teiCorpus's, else its TEI's."""
+    return title_and_authors(etree.parse(path).getroot())[0]
+
+
 def headings_by_lxml(path):
-    """{chapter xml:id: (title, [authors])} of each chapter's own text (its nearest TEI)."""
-    tree = etree.parse(path)
+    """{chapter xml:id: (title, [authors], collection title)} of each chapter's own text (its
+    nearest TEI): its own title, its own authors or else the teiCorpus's, and the
+    teiCorpus's title (None in a file of one TEI)."""
+    root = etree.parse(path).getroot()
+    corpus_title, corpus_authors = (title_and_authors(root) if root.tag == "{%s}teiCorpus" % TEI_NS
+                                    else (None, []))
     out = {}
-    for div in tree.iter("{%s}div" % TEI_NS):
-        tei = next(a for a in div.iterancestors("{%s}TEI" % TEI_NS))
-        stmt = tei.find("tei:teiHeader/tei:fileDesc/tei:titleStmt", NS)
-        out[div.get("{http://www.w3.org/XML/1998/namespace}id")] = (
-            stmt.findtext("tei:title", namespaces=NS), [a.text for a in stmt.findall("tei:author", NS)])
+    for div in root.iter("{%s}div" % TEI_NS):
+        title, authors = title_and_authors(next(div.iterancestors("{%s}TEI" % TEI_NS)))
+        out[div.get("{http://www.w3.org/XML/1998/namespace}id")] = (title, authors or corpus_authors, corpus_title)
     return out
 
 
@@ -94,8 +112,10 @@ def title_passes(pattern, title):
 
 
 def expected_segments(headings, author=None, title=None):
-    return {"%s#%s" % (stem, cid) for stem, chapters in headings.items() for cid, (t, authors) in chapters.items()
-            if (author is None or author_passes(author, authors)) and (title is None or title_passes(title, t))}
+    return {"%s#%s" % (stem, cid) for stem, chapters in headings.items()
+            for cid, (t, authors, corpus_title) in chapters.items()
+            if (author is None or author_passes(author, authors))
+            and (title is None or title_passes(title, t) or (corpus_title and title_passes(title, corpus_title)))}
 
 
 def analysed(store):
@@ -121,18 +141,28 @@ mtest.check(not invalid, "the invented editions are not valid TEI: %r" % invalid
 headings = {os.path.basename(p)[:-4]: headings_by_lxml(p) for p in paths}
 
 FILTERS = [("quill", None), ("Tamsin Corbel", None), ("corbel, tamsin", None), (None, "*bell*"),
-           ("vale", "songs*"), ("quill", "*explained")]
+           ("vale", "songs*"), ("quill", "*explained"), ("vale", None), (None, "The Quillmouth Almanac for 1863"),
+           ("corbel", "*almanac for 186?"), (None, "*nets")]
 store = os.path.join(tmp, "store.sqlite")
 mtest.run(["batch", archive, "--store", store, "--quiet", "--unit", "chapter"])
 
 # The store says which files hold texts of their own, and each segment's text (SQLite).
 apart = dict(storecheck.rows(store, "SELECT f.stem, r.texts_apart FROM files f JOIN readings r ON r.sha256 = f.sha256"))
-mtest.check(apart == {"almanac-1862": 1, "almanac-1863": 1, "logbook": 0}, "readings.texts_apart: %r" % apart)
+mtest.check(apart == {"almanac-1862": 1, "almanac-1863": 1, "almanac-1864": 1, "logbook": 0},
+            "readings.texts_apart: %r" % apart)
+# A file's own title is its teiCorpus's (file_list, as --title takes it for all its texts).
+titles = dict(storecheck.rows(store, "SELECT f.stem, l.title FROM file_list l JOIN files f ON f.path = l.path"))
+mtest.check(titles == {os.path.basename(p)[:-4]: collection_title(p) for p in paths}, "file_list.title: %r" % titles)
 listed = {seg: (t, a) for seg, t, a in storecheck.rows(store, "SELECT segment, title, file_author FROM segment_list")}
 wanted = {"%s#%s" % (stem, cid): (t, "; ".join(a)) for stem, chapters in headings.items()
-          for cid, (t, a) in chapters.items()}
+          for cid, (t, a, _) in chapters.items()}
 mtest.check(listed == wanted, "segment_list's title and file_author are not each chapter's own text's:\n%r\n%r"
             % (sorted(listed.items()), sorted(wanted.items())))
+
+# A chapter's author (docs/store.md: its text's authors) is its own text's, else the
+# collection's: the chapters of the 1864 almanac are Orrin Vale's.
+authors = {seg: a for seg, a in storecheck.rows(store, "SELECT segment, author FROM segment_list")}
+mtest.check(authors == {seg: a for seg, (_, a) in wanted.items()}, "segments.author: %r" % sorted(authors.items()))
 
 for author, title in FILTERS:
     expected = expected_segments(headings, author, title)
@@ -160,19 +190,18 @@ for author, title in FILTERS:
                 % (described, left_out, said.group(0) if said else proc.stderr))
 
 # A file none of whose texts passes is left out whole, counted with the files the filter
-# passes by: only the logbook is Ned Quill's alone among the files without a song.
+# passes by.
 proc = mtest.run(["analyse-store", "--store", store, "--recompute", "--min-tokens", "50", "--author", "orrin vale"])
 files_left = sum(1 for stem, chapters in headings.items()
-                 if not any(author_passes("orrin vale", a) for _, a in chapters.values()))
-mtest.check(("%d of the 3 stored file(s) left out by the filter" % files_left) in proc.stderr,
+                 if not any(author_passes("orrin vale", a) for _, a, _ in chapters.values()))
+mtest.check(("%d of the %d stored file(s) left out by the filter" % (files_left, len(paths))) in proc.stderr,
             "%d file(s) hold no text by Orrin Vale; stderr: %s" % (files_left, proc.stderr))
 
-# The almanacs' own titles name no text (each text has its own): nothing passes, said so.
-pattern = "The Quillmouth Almanac for 186?"
-mtest.check(not expected_segments(headings, None, pattern), "a text is titled like an almanac")
-proc = mtest.run(["analyse-store", "--store", store, "--recompute", "--title", pattern], check=False)
+# The editor of the almanacs is no author of theirs: nothing passes, said so.
+mtest.check(not expected_segments(headings, "wenna hale"), "Wenna Hale is an author")
+proc = mtest.run(["analyse-store", "--store", store, "--recompute", "--author", "wenna hale"], check=False)
 mtest.check(proc.returncode != 0 and "passes the filter" in proc.stderr,
-            "--title %r: exit %d, %s" % (pattern, proc.returncode, proc.stderr))
+            "--author 'wenna hale': exit %d, %s" % (proc.returncode, proc.stderr))
 
 # A store merged from this one holds the same texts' headings and filters alike.
 merged = os.path.join(tmp, "merged.sqlite")

@@ -138,6 +138,35 @@ TEST_CASE("several letters per file pair with their correspDesc through @decls (
   CHECK(words(letters["letter-c"]) == split("Rope sent by cart"));
 }
 
+TEST_CASE("a teiCorpus's own header holds for its texts: authors, correspDesc; each text named by its own (15.1)") {
+  HeaderInfo header;
+  auto chapters = by_local_id(read_segments(XmlSource::file(fixture("corpus-header.xml")),
+                                            SelectionRules::make("chapter", Preset::reading), nullptr, &header));
+  REQUIRE(chapters.size() == 2);
+  CHECK(words(chapters["log-1"]) == split("The lamp was lit at six"));
+  CHECK(chapters["log-1"].author == "Ada Cole");
+  REQUIRE(chapters["log-1"].own_text);
+  CHECK(chapters["log-1"].own_text->title == "The Harbour Log");
+  CHECK(chapters["log-1"].own_text->author == "Ada Cole");
+  CHECK(chapters["toll-1"].author == "Reuben Lusk");
+  REQUIRE(chapters["toll-1"].own_text);
+  CHECK(chapters["toll-1"].own_text->title == "Tolls of the Ferry");
+  CHECK(header.title == "Papers of the Quay");
+  CHECK(header.authors == std::vector<std::string>{"Ada Cole"});
+
+  auto letters = read("corpus-header.xml", "letter");
+  REQUIRE(letters.size() == 1);
+  CHECK(letters[0].local_id == "letter-a");
+  CHECK(letters[0].author == "#p-wren");
+  CHECK(words(letters[0]) == split("Send more oil"));
+}
+
+TEST_CASE("a file of one TEI names no text of its own: the file's header is its text's") {
+  auto letters = read("several-letters-decls.xml", "letter");
+  REQUIRE(!letters.empty());
+  for (const auto& letter : letters) CHECK_FALSE(letter.own_text);
+}
+
 TEST_CASE("xml:lang is inherited and switches inside a segment (1.3.1.1.2)") {
   auto chapters = read("lang-switch.xml", "chapter");
   REQUIRE(chapters.size() == 1);
