@@ -54,7 +54,7 @@ void ArchiveFilterOptions::add_to(CLI::App& command) {
   command.add_option("--folder", folder, "only files inside this folder (below an input folder, or a path)")
       ->check(not_blank())
       ->group("Sub-corpus");
-  command.add_option("--author", author, "only texts one of whose header authors holds each word of this text, as a whole word (any order, letter case ignored; a file's text, or each text of a teiCorpus by its own header)")
+  command.add_option("--author", author, "only texts one of whose header authors holds each word of this text, as a whole word (any order, letter case ignored; each text of a teiCorpus by its own header, else its corpus's)")
       ->check(not_blank())
       ->group("Sub-corpus");
   command.add_option("--years", years, "only segments dated in FROM-TO (1800-1850, 1800-, -1850, one year: 1850; before the common era: 450BCE-400BCE): a letter by its own date, else by its file's (the work's; docs/store.md)")
@@ -63,7 +63,7 @@ void ArchiveFilterOptions::add_to(CLI::App& command) {
   command.add_option("--language", language, "only segments in this language, their own or else their file's (de, en, eng, en-GB)")
       ->check(not_blank())
       ->group("Sub-corpus");
-  command.add_option("--title", title, "only texts whose header title matches this pattern (* and ?, case ignored; a file's text, or each text of a teiCorpus by its own header)")
+  command.add_option("--title", title, "only texts whose header title matches this pattern (* and ?, case ignored; each text of a teiCorpus by its own title or its corpus's)")
       ->check(not_blank())
       ->group("Sub-corpus");
 }

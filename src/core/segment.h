@@ -20,10 +20,13 @@ struct TextRun {
 inline constexpr std::string_view kAuthorSeparator = "; ";
 
 // The title and authors of one text's own header (titleStmt), as FileMetadata gives a
-// file's: the authors joined by kAuthorSeparator.
+// file's: the authors joined by kAuthorSeparator (the nearest collection's where the text
+// names none); and the titles of the collections around it (teiCorpus, or the outer TEI
+// of TEI elements in a TEI), outermost first.
 struct TextHeading {
   std::string title;
   std::string author;
+  std::vector<std::string> collection_titles;
 };
 
 // Who is known to have written or spoken a segment, as far as the edition says.

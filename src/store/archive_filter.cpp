@@ -146,12 +146,12 @@ bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {
   return true;
 }
 
-bool text_matches(const ArchiveFilter& filter, const TextHeading& text, const std::string& file_title) {
+bool text_matches(const ArchiveFilter& filter, const TextHeading& text) {
   if (!filter.author.empty() && !author_matches(text.author, filter.author)) return false;
-  if (!filter.title.empty() && !caseless_pattern_match(filter.title, text.title) &&
-      !caseless_pattern_match(filter.title, file_title))
-    return false;
-  return true;
+  if (filter.title.empty() || caseless_pattern_match(filter.title, text.title)) return true;
+  for (const std::string& title : text.collection_titles)
+    if (caseless_pattern_match(filter.title, title)) return true;
+  return false;
 }
 
 }  // namespace manicule::store

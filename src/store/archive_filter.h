@@ -69,10 +69,11 @@ class FolderFilter {
 bool starts_with_folder(const std::string& path, const std::string& folder);
 // The header tests of author and title. Of a file's header; or, where a file holds several
 // texts with headers of their own (a teiCorpus), of one text's: its authors (else the
-// collection's), its own title or the file's (the collection's), so that a collection's
-// title takes all its texts. Years and language are tested per segment (a letter may be
-// dated, or written in a language, apart from its file).
+// nearest collection's, as the reader gives them), its own title or a title of the
+// collections around it, so that a collection's title takes all its texts. Years and
+// language are tested per segment (a letter may be dated, or written in a language, apart
+// from its file).
 bool header_matches(const ArchiveFilter& filter, const FileMetadata& metadata);
-bool text_matches(const ArchiveFilter& filter, const TextHeading& text, const std::string& file_title);
+bool text_matches(const ArchiveFilter& filter, const TextHeading& text);
 
 }  // namespace manicule::store

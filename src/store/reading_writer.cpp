@@ -161,8 +161,12 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
     w.bind_blob(15, encode_counts(mapped_));
     if (seg.date.empty()) w.bind_null(16); else w.bind(16, seg.date);
     if (seg.year) w.bind(17, seg.year); else w.bind_null(17);
-    if (seg.own_text) w.bind(18, seg.own_text->title).bind(19, seg.own_text->author);
-    else w.bind_null(18).bind_null(19);
+    if (seg.own_text) {
+      w.bind(18, seg.own_text->title).bind(19, seg.own_text->author);
+      w.bind(20, json_text(nlohmann::json(seg.own_text->collection_titles)));
+    } else {
+      w.bind_null(18).bind_null(19).bind_null(20);
+    }
     w.step_to_end();
     if (fresh) {
       if (texts_apart) fresh->own_texts.push_back(seg.own_text.value_or(TextHeading{}));

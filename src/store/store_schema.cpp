@@ -17,11 +17,11 @@ const char* const kInsertReading =
     "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17)";
 const char* const kInsertSegment =
     "INSERT INTO segments (settings_id, sha256, ordinal, local_id, unit, label, language, author, authorship, "
-    "pointers, warnings, tokens, types, feature_total, counts, date, year, text_title, text_author) "
-    "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19)";
+    "pointers, warnings, tokens, types, feature_total, counts, date, year, text_title, text_author, collection_titles) "
+    "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20)";
 const char* const kSegmentsOfContent =
     "SELECT ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens, types, "
-    "feature_total, counts, date, year, text_title, text_author FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal";
+    "feature_total, counts, date, year, text_title, text_author, collection_titles FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal";
 
 namespace {
 
@@ -92,6 +92,7 @@ CREATE TABLE IF NOT EXISTS segments (
   year INTEGER,
   text_title TEXT,
   text_author TEXT,
+  collection_titles TEXT,
   PRIMARY KEY (settings_id, sha256, ordinal)
 );
 CREATE TABLE IF NOT EXISTS vocabulary_blocks (
@@ -230,6 +231,7 @@ constexpr const char* kFrom3To4[] = {
     "ALTER TABLE readings ADD COLUMN texts_apart INTEGER NOT NULL DEFAULT 0",
     "ALTER TABLE segments ADD COLUMN text_title TEXT",
     "ALTER TABLE segments ADD COLUMN text_author TEXT",
+    "ALTER TABLE segments ADD COLUMN collection_titles TEXT",
     "DROP VIEW IF EXISTS segment_list",
 };
 

@@ -38,7 +38,6 @@ void drop_respelled(StoredSelection& s) {
       s.languages[kept] = std::move(s.languages[i]);
       s.years[kept] = s.years[i];
       s.texts_apart[kept] = s.texts_apart[i];
-      s.titles[kept] = std::move(s.titles[i]);
     }
     ++kept;
   }
@@ -47,7 +46,15 @@ void drop_respelled(StoredSelection& s) {
   s.languages.resize(kept);
   s.years.resize(kept);
   s.texts_apart.resize(kept);
-  s.titles.resize(kept);
+}
+
+// A text's heading as stored from column `first` on: text_title, text_author,
+// collection_titles (a JSON array).
+TextHeading stored_heading(Statement& row, int first) {
+  TextHeading heading{row.text_at(first), row.text_at(first + 1), {}};
+  if (!row.is_null(first + 2))
+    heading.collection_titles = nlohmann::json::parse(row.text_at(first + 2)).get<std::vector<std::string>>();
+  return heading;
 }
 
 }  // namespace
@@ -71,13 +78,13 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
   files.bind(1, settings_id);
   // The headings of a file's texts, where it holds several (a teiCorpus).
   Statement text_headings = db.prepare(
-      "SELECT DISTINCT text_title, text_author FROM segments WHERE settings_id = ?1 AND sha256 = ?2 AND "
-      "text_title IS NOT NULL");
-  const auto some_text_matches = [&](const std::string& sha256, const std::string& file_title) {
+      "SELECT DISTINCT text_title, text_author, collection_titles FROM segments WHERE settings_id = ?1 AND "
+      "sha256 = ?2 AND text_title IS NOT NULL");
+  const auto some_text_matches = [&](const std::string& sha256) {
     bool found = false;
     text_headings.bind(1, settings_id).bind(2, sha256);
     while (!found && text_headings.step())
-      found = text_matches(filter, TextHeading{text_headings.text_at(0), text_headings.text_at(1)}, file_title);
+      found = text_matches(filter, stored_heading(text_headings, 0));
     text_headings.reset();
     return found;
   };
@@ -110,7 +117,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     // A file of several texts, each with its own header, is passed by when none of its
     // texts' headings passes; its segments are then tested one by one.
     const bool texts_apart = files.int64_at(12) != 0;
-    bool chosen = texts_apart && filter.selects_by_heading() ? some_text_matches(files.text_at(2), m.title)
+    bool chosen = texts_apart && filter.selects_by_heading() ? some_text_matches(files.text_at(2))
                                                              : header_matches(filter, m);
     if (chosen && !filter.year_matches(m.year)) {
       const int first_own = static_cast<int>(files.int64_at(9)), last_own = static_cast<int>(files.int64_at(10));
@@ -129,7 +136,6 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
     out.languages.push_back(std::move(m.language));
     out.years.push_back(m.year);
     out.texts_apart.push_back(texts_apart);
-    out.titles.push_back(std::move(m.title));
   }
   drop_respelled(out);
   // An archive often holds files of one name in several folders (1850/letters.xml,
@@ -182,7 +188,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
     const bool by_own_text = selection.texts_apart[f] && filter.selects_by_heading();
     const auto passes = [&](const TextHeading* own_text, const std::string& segment_language, int segment_year,
                             std::size_t tokens) {
-      if (by_own_text && !(own_text && text_matches(filter, *own_text, selection.titles[f]))) {
+      if (by_own_text && !(own_text && text_matches(filter, *own_text))) {
         ++out.segments_other_texts;
         return false;
       }
@@ -250,7 +256,7 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
       const std::string segment_language = stored_segments.text_at(4);
       const int segment_year = static_cast<int>(stored_segments.int64_at(14));
       std::optional<TextHeading> own_text;
-      if (!stored_segments.is_null(15)) own_text = TextHeading{stored_segments.text_at(15), stored_segments.text_at(16)};
+      if (!stored_segments.is_null(15)) own_text = stored_heading(stored_segments, 15);
       if (!passes(own_text ? &*own_text : nullptr, segment_language, segment_year,
                   static_cast<std::size_t>(stored_segments.int64_at(9))))
         continue;

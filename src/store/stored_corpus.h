@@ -41,7 +41,6 @@ struct StoredSelection {
   // Each file's: whether it holds several texts with headers of their own (a teiCorpus),
   // whose segments --author and --title then take by their own text's heading.
   std::vector<char> texts_apart;
-  std::vector<std::string> titles;     // each file's header title (a teiCorpus's own)
   std::size_t files_in_store = 0;       // rows of the files table
   std::size_t files_not_read = 0;       // no reading under these settings (run batch)
   std::size_t files_failed = 0;         // stored as failed under these settings

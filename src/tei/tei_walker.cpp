@@ -175,7 +175,7 @@ struct TeiWalker::State {
     Capture capture = Capture::none;
     bool header = false, title_stmt = false, corresp_desc = false, corresp_sent = false, source_desc = false;
     bool creation = false, standoff = false, source_bibl = false;
-    bool person = false, cast_list = false, sp_grp = false, tei_element = false;
+    bool person = false, cast_list = false, sp_grp = false, tei_element = false, corpus_element = false;
     bool dateline = false;
     bool hides_letter_dates = false;  // text the reader leaves out, inside a letter
     bool muted = false;        // an idno or a note inside a capture: no part of the name or title
@@ -295,10 +295,17 @@ struct TeiWalker::State {
   std::vector<int> language_stack;
 
   std::vector<HeaderInfo> headers;       // one per TEI element, in document order
-  // A teiCorpus's own header (TEI P5 15.1): what it says of the collection (its title, and
-  // authors that its texts' headers may leave to it), read while no TEI element is open.
-  HeaderInfo corpus_header;
+  // Each teiCorpus's own header (TEI P5 15.1), in document order: what it says of the
+  // collection (its title, authors its texts' headers may leave to it, correspDescs).
+  std::vector<HeaderInfo> corpus_headers;
+  // The headers open around the element being read, outermost first: {true, i} for
+  // corpus_headers[i], {false, i} for headers[i] (a TEI holding TEIs).
+  std::vector<std::pair<bool, int>> open_headers;
+  // For each TEI element (by index into headers): the headers of the collections around
+  // it, outermost first.
+  std::vector<std::vector<std::pair<bool, int>>> collections_of_tei;
   bool root_is_corpus = false;
+  HeaderInfo no_open_header;  // never read: a header outside TEI and teiCorpus is not TEI
   std::vector<int> tei_stack;            // indices into headers of open TEI elements
   std::vector<std::string> capture_text;  // one per open capture
   std::vector<std::string> sp_grp_who;
@@ -323,6 +330,7 @@ struct TeiWalker::State {
     std::string dateline_date;
     bool body_letter = false;
     int speeches_by_label = 0;  // speeches without @who credited by their <speaker> label
+    std::string speaker_key;    // a speaker's key within its text (local_id: within the file)
   };
   std::vector<Built> built;
   std::unordered_map<std::string, std::size_t> speaker_index;  // speaker key -> built index
@@ -342,14 +350,27 @@ struct TeiWalker::State {
     return static_cast<int>(languages.size() - 1);
   }
 
-  // The header being read: the open TEI element's, else (in a teiCorpus) the corpus's.
-  HeaderInfo& header() { return tei_stack.empty() ? corpus_header : headers[static_cast<std::size_t>(tei_stack.back())]; }
+  // The header being read: the innermost open TEI's or teiCorpus's.
+  HeaderInfo& header() {
+    if (open_headers.empty()) return no_open_header;
+    const auto [corpus, index] = open_headers.back();
+    return corpus ? corpus_headers[static_cast<std::size_t>(index)] : headers[static_cast<std::size_t>(index)];
+  }
+  const HeaderInfo& header_at(std::pair<bool, int> at) const {
+    return at.first ? corpus_headers[static_cast<std::size_t>(at.second)] : headers[static_cast<std::size_t>(at.second)];
+  }
 
-  // The header that holds a file's texts together where it holds several: a teiCorpus's
-  // own, or the outermost TEI's for TEI elements in a TEI; null for a file of one text.
-  const HeaderInfo* collection_header() const {
-    if (root_is_corpus) return &corpus_header;
-    return headers.size() > 1 ? &headers.front() : nullptr;
+  // Whether the file holds several texts with headers of their own, each then named by
+  // its own (a teiCorpus, or TEI elements in a TEI).
+  bool texts_apart() const { return root_is_corpus || headers.size() > 1; }
+
+  // A speaker's key within the file: in a file of several texts each text's speakers are
+  // its own (a CHORUS in two plays is two voices), so a text inside a collection leads
+  // its keys with its xml:id, else its place among the TEI elements ("text2.").
+  std::string speaker_key_in_file(const std::string& key, int tei_index) const {
+    if (collections_of_tei.empty() || collections_of_tei[static_cast<std::size_t>(tei_index)].empty()) return key;
+    const std::string& id = headers[static_cast<std::size_t>(tei_index)].tei_id;
+    return (id.empty() ? "text" + std::to_string(tei_index + 1) : id) + "." + key;
   }
 
   bool collecting() const { return !open_units.empty() && skip_depth == 0; }
@@ -661,30 +682,30 @@ struct TeiWalker::State {
       return;
     }
     std::string value = normalise_space(text);
-    HeaderInfo* h = &header();
+    HeaderInfo& h = header();
     switch (f.capture) {
       case Capture::title:
-        if (h && (h->title.empty() || (f.main_title && !h->title_is_main))) {
-          h->title = value;
-          h->title_is_main = f.main_title;
+        if (h.title.empty() || (f.main_title && !h.title_is_main)) {
+          h.title = value;
+          h.title_is_main = f.main_title;
         }
         break;
       case Capture::author:
-        if (h && !value.empty()) h->authors.push_back(tidy_brackets(value));
+        if (!value.empty()) h.authors.push_back(tidy_brackets(value));
         break;
       case Capture::person_name:
       case Capture::role_name:
-        if (h && !person_stack.empty() && !value.empty()) h->person_names.emplace(person_stack.back(), value);
+        if (!person_stack.empty() && !value.empty()) h.person_names.emplace(person_stack.back(), value);
         break;
       case Capture::sender:
-        if (h && corresp_index >= 0) {
-          CorrespRecord& c = h->corresp[static_cast<std::size_t>(corresp_index)];
+        if (corresp_index >= 0) {
+          CorrespRecord& c = h.corresp[static_cast<std::size_t>(corresp_index)];
           c.sender_label = value;
           if (is_placeholder_name(value) && c.sender_key.empty()) c.sender_status = Authorship::unknown;
           if (c.sender_key.empty() && c.sender_status != Authorship::unknown) c.sender_key = case_fold(value);
         }
         break;
-      case Capture::date: if (h) set_date(*h, value); break;
+      case Capture::date: set_date(h, value); break;
       case Capture::letter_date:
         if (!open_units.empty() && better_date(open_units.back().dateline_date, value))
           open_units.back().dateline_date = value;
@@ -759,10 +780,11 @@ struct TeiWalker::State {
     }
     if (keys.size() > 1 && rules.joint == JointSpeech::drop) return;
     for (const std::string& key : keys) {
-      auto it = speaker_index.find(key);
+      const std::string segment_key = speaker_key_in_file(key, u.tei_index);
+      auto it = speaker_index.find(segment_key);
       if (it == speaker_index.end()) {
-        new_built(key, u.tei_index);
-        it = speaker_index.emplace(key, built.size() - 1).first;
+        new_built(segment_key, u.tei_index).speaker_key = key;
+        it = speaker_index.emplace(segment_key, built.size() - 1).first;
       }
       if (by_label && key != "unknown") ++built[it->second].speeches_by_label;
       Segment& seg = built[it->second].segment;
@@ -788,7 +810,7 @@ void TeiWalker::start(const StartTag& tag) {
   if (!s.root_seen) {
     s.root_seen = true;
     require_tei_root(tag, s.file, "; expected <TEI> or <teiCorpus> in http://www.tei-c.org/ns/1.0");
-    s.root_is_corpus = tag.local == "teiCorpus";
+    s.root_is_corpus = tag.in_tei_namespace && tag.local == "teiCorpus";
   }
   State::Frame f;
   f.name = tag.local;
@@ -830,6 +852,13 @@ void TeiWalker::start(const StartTag& tag) {
     s.headers.push_back(h);
     s.tei_stack.push_back(static_cast<int>(s.headers.size() - 1));
     s.letters_per_tei.push_back(0);
+    s.collections_of_tei.push_back(s.open_headers);
+    s.open_headers.emplace_back(false, s.tei_stack.back());
+  }
+  if (f.tei && f.name == "teiCorpus") {
+    f.corpus_element = true;
+    s.corpus_headers.emplace_back();
+    s.open_headers.emplace_back(true, static_cast<int>(s.corpus_headers.size() - 1));
   }
   if (f.tei) s.start_header_context(f, tag);
   if (f.tei && f.name == "text") ++s.text_depth;
@@ -990,6 +1019,7 @@ void TeiWalker::end() {
   if (f.sp_grp) s.sp_grp_who.pop_back();
   if (f.tei && f.name == "text") --s.text_depth;
   if (f.tei_element) s.tei_stack.pop_back();
+  if (f.tei_element || f.corpus_element) s.open_headers.pop_back();
   s.frames.pop_back();
 }
 
@@ -1044,11 +1074,12 @@ bool has_text(const Segment& segment) {
 HeaderInfo TeiWalker::file_header() const {
   const State& s = *s_;
   HeaderInfo out = s.headers.empty() ? HeaderInfo{} : s.headers.front();
-  if (s.root_is_corpus) {
-    // The collection's title and authors where its own header gives them; the first
+  if (s.root_is_corpus && !s.corpus_headers.empty()) {
+    // The root teiCorpus's title and authors where its own header gives them; the first
     // text's dates and languages, as the corpus header seldom dates the works.
-    if (!s.corpus_header.title.empty()) out.title = s.corpus_header.title;
-    if (!s.corpus_header.authors.empty()) out.authors = s.corpus_header.authors;
+    const HeaderInfo& corpus = s.corpus_headers.front();
+    if (!corpus.title.empty()) out.title = corpus.title;
+    if (!corpus.authors.empty()) out.authors = corpus.authors;
   }
   return out;
 }
@@ -1062,18 +1093,32 @@ std::vector<Segment> TeiWalker::finish() {
   // Every correspDesc of the document by xml:id, the first in document order for an id
   // given twice (xml:ids are unique in a valid document).
   std::unordered_map<std::string_view, const CorrespRecord*> corresp_by_id;
-  for (const auto& r : s.corpus_header.corresp)  // first in document order
-    if (!r.id.empty()) corresp_by_id.emplace(r.id, &r);
+  // (corpus headers before the texts': an outer header comes first in document order)
+  for (const HeaderInfo& header : s.corpus_headers)
+    for (const auto& r : header.corresp)
+      if (!r.id.empty()) corresp_by_id.emplace(r.id, &r);
   for (const HeaderInfo& header : s.headers)
     for (const auto& r : header.corresp)
       if (!r.id.empty()) corresp_by_id.emplace(r.id, &r);
-  // A text whose header names no author is the collection's authors' (a teiCorpus of one
-  // writer's works, each text's titleStmt giving its title alone): TEI P5 15.1 has the
-  // corpus header say what holds for all its texts.
-  const HeaderInfo* collection = s.collection_header();
-  const auto authors_of = [&](const HeaderInfo& h) -> const std::vector<std::string>& {
-    return h.authors.empty() && collection ? collection->authors : h.authors;
+  // A text whose header names no author is the nearest collection's authors' that names
+  // some (a teiCorpus of one writer's works, each text's titleStmt giving its title
+  // alone): TEI P5 15.1 has the corpus header say what holds for all its texts.
+  const auto authors_of = [&](const HeaderInfo& h, int tei_index) -> const std::vector<std::string>& {
+    if (!h.authors.empty() || s.collections_of_tei.empty()) return h.authors;
+    const auto& around = s.collections_of_tei[static_cast<std::size_t>(tei_index)];
+    for (auto it = around.rbegin(); it != around.rend(); ++it)
+      if (!s.header_at(*it).authors.empty()) return s.header_at(*it).authors;
+    return h.authors;
   };
+  // The titles of the collections around a text, outermost first, those it has.
+  const auto collection_titles_of = [&](int tei_index) {
+    std::vector<std::string> titles;
+    if (s.collections_of_tei.empty()) return titles;
+    for (const auto& at : s.collections_of_tei[static_cast<std::size_t>(tei_index)])
+      if (!s.header_at(at).title.empty()) titles.push_back(s.header_at(at).title);
+    return titles;
+  };
+  const bool texts_apart = s.texts_apart();
   for (auto& b : s.built) {
     Segment& seg = b.segment;
     // Bound without a conditional expression: `cond ? HeaderInfo{} : headers[i]` is a
@@ -1123,13 +1168,16 @@ std::vector<Segment> TeiWalker::finish() {
       if (b.speeches_by_label)
         seg.warnings.push_back(std::to_string(b.speeches_by_label) +
                                " speech(es) without @who credited by their <speaker> label");
-      auto it = h.person_names.find(seg.local_id);
+      const std::string& key = b.speaker_key;
+      auto it = h.person_names.find(key);
       if (it != h.person_names.end()) seg.label = it->second;
-      seg.author = seg.local_id == "unknown" ? "" : seg.local_id;
+      // A person's id names one person in the whole file; a voice known by its label
+      // alone is its text's own (local_id, led by the text in a collection).
+      seg.author = key == "unknown" ? "" : key.rfind("speaker:", 0) == 0 ? seg.local_id : key;
       seg.authorship = seg.author.empty() ? Authorship::unknown : Authorship::known;
     } else {
       if (s.rules.unit == UnitKind::whole) seg.label = h.title;
-      const std::vector<std::string>& authors = authors_of(h);
+      const std::vector<std::string>& authors = authors_of(h, b.tei_index);
       bool anonymous = authors.empty();
       for (const auto& a : authors)
         if (is_placeholder_name(a)) anonymous = true;
@@ -1141,7 +1189,8 @@ std::vector<Segment> TeiWalker::finish() {
     // date is its first header's.
     if (s.headers.size() > 1 && seg.date.empty()) seg.date = work_date(h);
     // ... and names it by its own title and authors, not the first text's.
-    if (collection) seg.own_text = TextHeading{h.title, join_authors(authors_of(h))};
+    if (texts_apart)
+      seg.own_text = TextHeading{h.title, join_authors(authors_of(h, b.tei_index)), collection_titles_of(b.tei_index)};
     seg.year = first_year(seg.date);
     std::string fallback = h.language.empty() ? s.rules.default_language : h.language;
     for (auto& run : seg.runs)

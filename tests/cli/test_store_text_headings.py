@@ -48,10 +48,20 @@ def text(title, authors, chapter_ids):
             '<text><body>%s</body></text></TEI>' % (header, PUBLICATION, body))
 
 
+def corpus_element(title, texts, responsible="<editor>Wenna Hale</editor>"):
+    return ('<teiCorpus><teiHeader><fileDesc><titleStmt><title>%s</title>%s</titleStmt>%s</fileDesc></teiHeader>%s'
+            '</teiCorpus>' % (title, responsible, PUBLICATION, "".join(texts)))
+
+
+def root(element):
+    """`element` as a document: the TEI namespace declared on its root."""
+    name = element[1:element.index(">")]
+    return ('<?xml version="1.0" encoding="UTF-8"?>\n' +
+            element.replace("<%s>" % name, '<%s xmlns="%s" xml:lang="en">' % (name, TEI_NS), 1) + "\n")
+
+
 def corpus(title, texts, responsible="<editor>Wenna Hale</editor>"):
-    return ('<?xml version="1.0" encoding="UTF-8"?>\n<teiCorpus xmlns="%s" xml:lang="en"><teiHeader><fileDesc>'
-            '<titleStmt><title>%s</title>%s</titleStmt>%s</fileDesc></teiHeader>%s'
-            '</teiCorpus>\n' % (TEI_NS, title, responsible, PUBLICATION, "".join(texts)))
+    return root(corpus_element(title, texts, responsible))
 
 
 EDITIONS = {
@@ -67,10 +77,26 @@ EDITIONS = {
     "almanac-1864": corpus("The Quillmouth Almanac for 1864", [
         text("A Year of Weather", [], ["a64-weather-1", "a64-weather-2"]),
         text("Notes on Nets", [], ["a64-nets-1", "a64-nets-2"])], responsible="<author>Orrin Vale</author>"),
+    # A teiCorpus in a teiCorpus: a text takes the nearest collection's authors, and each
+    # collection's title takes the texts inside it.
+    "quay-papers": corpus("Quay Papers, Second Series", [
+        text("The Pilot's Book", [], ["qp-pilot-1", "qp-pilot-2"]),
+        corpus_element("The Inner Packet", [text("Letters Never Sent", [], ["qp-unsent-1", "qp-unsent-2"])],
+                       responsible="<author>Pell Ardent</author>"),
+        text("Buoys and Marks", [], ["qp-buoys-1", "qp-buoys-2"])], responsible="<author>Merrow Quayle</author>"),
+    # A corpus without a title of its own (an empty <title/>): it takes no text by title.
+    "untitled-sheaf": corpus("", [
+        text("Gull Songs", ["Rill Ashby"], ["us-gulls-1", "us-gulls-2"]),
+        text("Rope Lore", ["Dob Fenn"], ["us-rope-1", "us-rope-2"])]),
+    # One text in a teiCorpus: named by its own header; the corpus's title takes it too.
+    "single-sheaf": corpus("A Single Sheaf", [text("The Lone Tale", ["Rill Ashby"], ["ss-lone-1", "ss-lone-2"])],
+                           responsible="<author>Cass Wyler</author>"),
+    # TEI elements in a TEI: the outer TEI is the collection of the inner ones.
+    "miscellany": root(text("A Harbour Miscellany", ["Oona Sleet"], ["mi-own-1", "mi-own-2"]).replace(
+        "</text></TEI>", "</text>%s%s</TEI>" % (text("Nets and Knots", [], ["mi-nets-1", "mi-nets-2"]),
+                                                 text("The Far Light", ["Dob Fenn"], ["mi-far-1", "mi-far-2"])))),
     # One text: its header is the file's.
-    "logbook": ('<?xml version="1.0" encoding="UTF-8"?>\n' +
-                text("A Ferryman's Logbook", ["Ned Quill"], ["log-1", "log-2"])
-                .replace("<TEI>", '<TEI xmlns="%s" xml:lang="en">' % TEI_NS, 1) + "\n"),
+    "logbook": root(text("A Ferryman's Logbook", ["Ned Quill"], ["log-1", "log-2"])),
 }
 
 
@@ -79,22 +105,29 @@ def title_and_authors(header_holder):
     return stmt.findtext("tei:title", namespaces=NS), [a.text for a in stmt.findall("tei:author", NS)]
 
 
-def collection_title(path):
-    """The file's own title: a teiCorpus's, else its TEI's."""
-    return title_and_authors(etree.parse(path).getroot())[0]
+def file_title(path):
+    """The file's own title: its root's (a teiCorpus's, else its TEI's), else, where the
+    root teiCorpus has none, its first text's."""
+    document = etree.parse(path).getroot()
+    return title_and_authors(document)[0] or title_and_authors(document.find("tei:TEI", NS))[0]
+
+
+HOLDERS = ("{%s}TEI" % TEI_NS, "{%s}teiCorpus" % TEI_NS)
 
 
 def headings_by_lxml(path):
-    """{chapter xml:id: (title, [authors], collection title)} of each chapter's own text (its
-    nearest TEI): its own title, its own authors or else the teiCorpus's, and the
-    teiCorpus's title (None in a file of one TEI)."""
-    root = etree.parse(path).getroot()
-    corpus_title, corpus_authors = (title_and_authors(root) if root.tag == "{%s}teiCorpus" % TEI_NS
-                                    else (None, []))
+    """{chapter xml:id: (title, [authors], [collection titles])} of each chapter's own text
+    (its nearest TEI): its own title; its own authors, else those of the nearest TEI or
+    teiCorpus around that text that names some; the non-empty titles of the TEI and
+    teiCorpus elements around that text."""
     out = {}
-    for div in root.iter("{%s}div" % TEI_NS):
-        title, authors = title_and_authors(next(div.iterancestors("{%s}TEI" % TEI_NS)))
-        out[div.get("{http://www.w3.org/XML/1998/namespace}id")] = (title, authors or corpus_authors, corpus_title)
+    for div in etree.parse(path).getroot().iter("{%s}div" % TEI_NS):
+        tei = next(div.iterancestors("{%s}TEI" % TEI_NS))
+        title, authors = title_and_authors(tei)
+        around = [title_and_authors(a) for a in tei.iterancestors() if a.tag in HOLDERS]  # innermost first
+        for _, collection_authors in around:
+            authors = authors or collection_authors
+        out[div.get("{http://www.w3.org/XML/1998/namespace}id")] = (title, authors, [t for t, _ in around if t])
     return out
 
 
@@ -113,9 +146,9 @@ def title_passes(pattern, title):
 
 def expected_segments(headings, author=None, title=None):
     return {"%s#%s" % (stem, cid) for stem, chapters in headings.items()
-            for cid, (t, authors, corpus_title) in chapters.items()
+            for cid, (t, authors, collections) in chapters.items()
             if (author is None or author_passes(author, authors))
-            and (title is None or title_passes(title, t) or (corpus_title and title_passes(title, corpus_title)))}
+            and (title is None or any(title_passes(title, c) for c in [t] + collections))}
 
 
 def analysed(store):
@@ -142,17 +175,17 @@ headings = {os.path.basename(p)[:-4]: headings_by_lxml(p) for p in paths}
 
 FILTERS = [("quill", None), ("Tamsin Corbel", None), ("corbel, tamsin", None), (None, "*bell*"),
            ("vale", "songs*"), ("quill", "*explained"), ("vale", None), (None, "The Quillmouth Almanac for 1863"),
-           ("corbel", "*almanac for 186?"), (None, "*nets")]
+           ("corbel", "*almanac for 186?"), (None, "*nets"), ("pell ardent", None), ("quayle", None),
+           (None, "the inner packet"), (None, "quay papers*"), (None, "gull*"), (None, "a single sheaf"),
+           ("ashby", None), ("sleet", None), (None, "a harbour miscellany"), ("fenn", None)]
 store = os.path.join(tmp, "store.sqlite")
 mtest.run(["batch", archive, "--store", store, "--quiet", "--unit", "chapter"])
 
 # The store says which files hold texts of their own, and each segment's text (SQLite).
 apart = dict(storecheck.rows(store, "SELECT f.stem, r.texts_apart FROM files f JOIN readings r ON r.sha256 = f.sha256"))
-mtest.check(apart == {"almanac-1862": 1, "almanac-1863": 1, "almanac-1864": 1, "logbook": 0},
-            "readings.texts_apart: %r" % apart)
-# A file's own title is its teiCorpus's (file_list, as --title takes it for all its texts).
+mtest.check(apart == {stem: int(stem != "logbook") for stem in EDITIONS}, "readings.texts_apart: %r" % apart)
 titles = dict(storecheck.rows(store, "SELECT f.stem, l.title FROM file_list l JOIN files f ON f.path = l.path"))
-mtest.check(titles == {os.path.basename(p)[:-4]: collection_title(p) for p in paths}, "file_list.title: %r" % titles)
+mtest.check(titles == {os.path.basename(p)[:-4]: file_title(p) for p in paths}, "file_list.title: %r" % titles)
 listed = {seg: (t, a) for seg, t, a in storecheck.rows(store, "SELECT segment, title, file_author FROM segment_list")}
 wanted = {"%s#%s" % (stem, cid): (t, "; ".join(a)) for stem, chapters in headings.items()
           for cid, (t, a, _) in chapters.items()}
@@ -202,6 +235,40 @@ mtest.check(not expected_segments(headings, "wenna hale"), "Wenna Hale is an aut
 proc = mtest.run(["analyse-store", "--store", store, "--recompute", "--author", "wenna hale"], check=False)
 mtest.check(proc.returncode != 0 and "passes the filter" in proc.stderr,
             "--author 'wenna hale': exit %d, %s" % (proc.returncode, proc.stderr))
+
+# Speakers: in a collection of plays each play's voices are its own, a CHORUS in two plays
+# two segments, each taken by its own play's header. Which words each voice speaks is
+# worked out with lxml: the speeches (sp) of each TEI grouped by their speaker label.
+def play(title, author, speeches):
+    body = "".join('<sp><speaker>%s</speaker><p>%s</p></sp>' % (who, " ".join(
+        random.Random(title + str(i)).choices(VOCABULARY, k=40))) for i, who in enumerate(speeches))
+    return ('<TEI><teiHeader><fileDesc><titleStmt><title>%s</title><author>%s</author></titleStmt>%s</fileDesc>'
+            '</teiHeader><text><body><div type="act">%s</div></body></text></TEI>' % (title, author, PUBLICATION, body))
+
+
+stage = os.path.join(tmp, "stage")
+os.makedirs(stage)
+plays_path = os.path.join(stage, "harbour-plays.xml")
+with open(plays_path, "w", encoding="utf-8") as f:
+    f.write(corpus("Two Harbour Plays", [play("The Ferry Play", "Idris Moll", ["CHORUS", "KEEPER", "CHORUS", "KEEPER"]),
+                                         play("The Bell Play", "Fen Ashby", ["CHORUS", "RINGER", "CHORUS"])]))
+invalid = {p: e for p, e in jing_errors(mtest.SCHEMA, [plays_path]).items() if e}
+mtest.check(not invalid, "the invented plays are not valid TEI: %r" % invalid)
+voices = {}  # (play title, speaker label) -> words, by lxml
+for tei in etree.parse(plays_path).getroot().iter("{%s}TEI" % TEI_NS):
+    play_title = title_and_authors(tei)[0]
+    for sp in tei.iter("{%s}sp" % TEI_NS):
+        key = (play_title, sp.findtext("tei:speaker", namespaces=NS))
+        voices[key] = voices.get(key, 0) + len(sp.findtext("tei:p", namespaces=NS).split())
+plays_store = os.path.join(tmp, "plays.sqlite")
+mtest.run(["batch", stage, "--store", plays_store, "--quiet", "--unit", "speaker"])
+stored_voices = {(t, label): n for t, label, n in storecheck.rows(plays_store, "SELECT title, label, tokens FROM segment_list")}
+mtest.check(stored_voices == voices, "each play's voices by lxml %r, stored %r" % (voices, stored_voices))
+mtest.run(["analyse-store", "--store", plays_store, "--min-tokens", "10", "--author", "fen ashby"])
+run, tables = storecheck.latest_analysis(plays_store)
+taken = {(r[4], r[6]) for r in tables["segments"]}  # label, tokens
+mtest.check(taken == {(label, n) for (t, label), n in voices.items() if t == "The Bell Play"},
+            "--author 'fen ashby' took the voices %r" % sorted(taken))
 
 # A store merged from this one holds the same texts' headings and filters alike.
 merged = os.path.join(tmp, "merged.sqlite")

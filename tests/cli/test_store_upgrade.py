@@ -124,8 +124,7 @@ def check_upgrade(earlier, fixture):
         odd = os.path.join(tmp, "odd.sqlite")
         fixture_copy(fixture, odd)
         db = sqlite3.connect(odd)
-        # (a column the first step of its upgrade adds: 2 -> 3 the segments' year, 3 -> 4
-        # their text's title)
+        # (a column its upgrade adds: 2 -> 3 the segments' year, 3 -> 4 their text's title)
         db.execute("ALTER TABLE segments ADD COLUMN %s" % ("year INTEGER" if earlier == "2" else "text_title TEXT"))
         db.commit()
         db.close()
