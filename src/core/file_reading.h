@@ -30,9 +30,10 @@ struct SelectionRules;
 // from words, and a U+02BC at a word's edge with the apostrophe look-alikes; an rdgGrp
 // reads one of its readings, and an app without lem may read it; dates in ISO 8601
 // (@when-iso and the rest) are read. 7: each text of a teiCorpus (or each TEI in a TEI)
-// gives its segments its own title and authors (Segment::own_text), its authors else the
-// collection's; a teiCorpus's own header gives the file's title and authors, and may hold
-// the correspDesc a letter points to.
+// gives its segments its own title and authors (Segment::own_text), its authors, date and
+// langUsage else the nearest collection's; a teiCorpus's own header gives the file's title
+// and authors, and may hold the correspDesc a letter points to; a teiCorpus's speakers are
+// each text's own.
 constexpr int kReadingRevision = 7;
 
 // What the edition's own header says (the first TEI element's teiHeader, with a

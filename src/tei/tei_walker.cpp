@@ -6,6 +6,7 @@
 #include <array>
 #include <cctype>
 #include <charconv>
+#include <functional>
 #include <map>
 #include <unordered_map>
 #include <unordered_set>
@@ -1076,10 +1077,20 @@ HeaderInfo TeiWalker::file_header() const {
   HeaderInfo out = s.headers.empty() ? HeaderInfo{} : s.headers.front();
   if (s.root_is_corpus && !s.corpus_headers.empty()) {
     // The root teiCorpus's title and authors where its own header gives them; the first
-    // text's dates and languages, as the corpus header seldom dates the works.
+    // text's dates and language where it gives them (a corpus header seldom dates the
+    // works), else the corpus's.
     const HeaderInfo& corpus = s.corpus_headers.front();
     if (!corpus.title.empty()) out.title = corpus.title;
     if (!corpus.authors.empty()) out.authors = corpus.authors;
+    if (work_date(out).empty()) {
+      out.creation_date = corpus.creation_date;
+      out.sent_dates = corpus.sent_dates;
+      out.event_dates = corpus.event_dates;
+      out.first_edition_date = corpus.first_edition_date;
+      out.source_date = corpus.source_date;
+      out.date = corpus.date;
+    }
+    if (out.language.empty()) out.language = corpus.language;
   }
   return out;
 }
@@ -1109,6 +1120,16 @@ std::vector<Segment> TeiWalker::finish() {
     for (auto it = around.rbegin(); it != around.rend(); ++it)
       if (!s.header_at(*it).authors.empty()) return s.header_at(*it).authors;
     return h.authors;
+  };
+  // The first of a field that a text's header or, where it is empty there, a collection
+  // around the text gives (innermost first): a date or a language.
+  const auto own_else_collections = [&](const HeaderInfo& h, int tei_index,
+                                        const std::function<std::string(const HeaderInfo&)>& field) {
+    std::string value = field(h);
+    if (!value.empty() || s.collections_of_tei.empty()) return value;
+    const auto& around = s.collections_of_tei[static_cast<std::size_t>(tei_index)];
+    for (auto it = around.rbegin(); it != around.rend() && value.empty(); ++it) value = field(s.header_at(*it));
+    return value;
   };
   // The titles of the collections around a text, outermost first, those it has.
   const auto collection_titles_of = [&](int tei_index) {
@@ -1185,14 +1206,16 @@ std::vector<Segment> TeiWalker::finish() {
       seg.authorship = anonymous ? Authorship::unknown : Authorship::known;
     }
     if (seg.label.empty()) seg.label = seg.local_id;  // no name, title or heading: the id
-    // A teiCorpus (or TEI elements in a TEI) dates each text by its own header; the file's
-    // date is its first header's.
-    if (s.headers.size() > 1 && seg.date.empty()) seg.date = work_date(h);
+    // A teiCorpus (or TEI elements in a TEI) dates each text by its own header, else by the
+    // nearest collection's that gives a date; the file's date is its first header's.
+    if (texts_apart && seg.date.empty()) seg.date = own_else_collections(h, b.tei_index, work_date);
     // ... and names it by its own title and authors, not the first text's.
     if (texts_apart)
       seg.own_text = TextHeading{h.title, join_authors(authors_of(h, b.tei_index)), collection_titles_of(b.tei_index)};
     seg.year = first_year(seg.date);
-    std::string fallback = h.language.empty() ? s.rules.default_language : h.language;
+    std::string fallback =
+        own_else_collections(h, b.tei_index, [](const HeaderInfo& header) { return header.language; });
+    if (fallback.empty()) fallback = s.rules.default_language;
     for (auto& run : seg.runs)
       if (run.language.empty()) run.language = fallback;
     seg.language = main_language(seg);

@@ -151,8 +151,13 @@ TEST_CASE("a teiCorpus's own header holds for its texts: authors, correspDesc; e
   CHECK(chapters["toll-1"].author == "Reuben Lusk");
   REQUIRE(chapters["toll-1"].own_text);
   CHECK(chapters["toll-1"].own_text->title == "Tolls of the Ferry");
+  CHECK(chapters["log-1"].year == 1851);
+  CHECK(chapters["log-1"].language == "en");
+  CHECK(chapters["toll-1"].year == 1853);
+  CHECK(chapters["toll-1"].language == "en-GB");
   CHECK(header.title == "Papers of the Quay");
   CHECK(header.authors == std::vector<std::string>{"Ada Cole"});
+  CHECK(first_year(work_date(header)) == 1851);
 
   auto letters = read("corpus-header.xml", "letter");
   REQUIRE(letters.size() == 1);
