@@ -33,7 +33,9 @@ struct SelectionRules;
 // gives its segments its own title and authors (Segment::own_text), its authors, date and
 // langUsage else the nearest collection's; a teiCorpus's own header gives the file's title
 // and authors, and may hold the correspDesc a letter points to; a teiCorpus's speakers are
-// each text's own.
+// each text's own; document order pairs a letter past the correspDescs others' @decls
+// name; a placeholder sender is unknown even with @ref, a queried name or a doubted sent
+// action a conjecture; publicationStmt, editionStmt and revisionDesc date no work.
 constexpr int kReadingRevision = 7;
 
 // What the edition's own header says (the first TEI element's teiHeader, with a

@@ -87,6 +87,8 @@ std::string join_authors(const std::vector<std::string>& authors) {
   return out;
 }
 
+bool is_queried_name(const std::string& name) { return name.find('?') != std::string::npos; }
+
 bool is_placeholder_name(const std::string& name) {
   std::string folded;
   icu::UnicodeString::fromUTF8(normalise_space(name)).foldCase().toUTF8String(folded);

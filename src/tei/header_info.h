@@ -44,6 +44,10 @@ struct HeaderInfo {
 // (tei-conventions.md section 3, "Anonymous letters"; the list is common practice).
 bool is_placeholder_name(const std::string& name);
 
+// True for a name the editor queries with a question mark: "[Ann Lee?]", "Ann Lee (?)"
+// (common practice in editions, no source): a conjecture, not a known name.
+bool is_queried_name(const std::string& name);
+
 // The titleStmt authors as one text, "A; B" (the segments' author and the store's metadata),
 // each once.
 std::string join_authors(const std::vector<std::string>& authors);

@@ -95,6 +95,14 @@ std::string date_attribute(const StartTag& tag) {
   return {};
 }
 
+// Whether an element's @cert (att.global.responsibility) or @evidence="conjecture" doubts
+// it: a certainty below high, in words or as a number below 1 (tei-conventions 3).
+bool doubted(const StartTag& tag) {
+  const std::string_view cert = tag.attribute("cert");
+  return tag.attribute("evidence") == "conjecture" ||
+         (!cert.empty() && cert != "high" && cert != "1" && cert != "1.0");
+}
+
 std::string case_fold(const std::string& text) {
   std::string out;
   icu::UnicodeString::fromUTF8(text).foldCase().toUTF8String(out);
@@ -175,6 +183,7 @@ struct TeiWalker::State {
                                  // (its @cert and @wit on member_attributes)
     Capture capture = Capture::none;
     bool header = false, title_stmt = false, corresp_desc = false, corresp_sent = false, source_desc = false;
+    bool file_dating = false;  // publicationStmt, editionStmt, revisionDesc: they date the file
     bool creation = false, standoff = false, source_bibl = false;
     bool person = false, cast_list = false, sp_grp = false, tei_element = false, corpus_element = false;
     bool dateline = false;
@@ -312,6 +321,7 @@ struct TeiWalker::State {
   std::vector<std::string> sp_grp_who;
   std::vector<std::string> person_stack;
   int header_depth = 0, text_depth = 0, skip_depth = 0, cast_depth = 0, source_desc_depth = 0;
+  int file_dating_depth = 0;  // open header parts that date the file, not the work
   int author_depth = 0;  // open author captures
   int muted_depth = 0;   // open elements whose text no capture takes: an author's idno, a note
   int author_name_depth = 0;  // open persNames directly inside an author
@@ -321,6 +331,7 @@ struct TeiWalker::State {
   int corresp_index = -1;                // corresp record being read
   bool in_title_stmt = false;
   bool in_sent_action = false;
+  bool sent_action_doubted = false;  // the open sent action's @cert is below high
   bool root_seen = false;
 
   // Results
@@ -495,6 +506,9 @@ struct TeiWalker::State {
     } else if (f.name == "sourceDesc") {
       f.source_desc = true;
       ++source_desc_depth;
+    } else if (f.name == "publicationStmt" || f.name == "editionStmt" || f.name == "revisionDesc") {
+      f.file_dating = true;
+      ++file_dating_depth;
     } else if (f.name == "creation") {
       f.creation = true;
       ++creation_depth;
@@ -538,10 +552,7 @@ struct TeiWalker::State {
       if (c.sender_label.empty() && c.sender_key.empty()) {
         f.capture = Capture::sender;
         c.sender_key = std::string(tag.attribute("ref"));
-        std::string_view cert = tag.attribute("cert");
-        bool conjectured = tag.attribute("evidence") == "conjecture" ||
-                           (!cert.empty() && cert != "high" && cert != "1" && cert != "1.0");
-        c.sender_status = conjectured ? Authorship::conjectured : Authorship::known;
+        c.sender_status = doubted(tag) || sent_action_doubted ? Authorship::conjectured : Authorship::known;
       }
     } else if ((f.name == "persName" || f.name == "name") && !person_stack.empty() &&
                !h.person_names.count(person_stack.back())) {
@@ -556,6 +567,8 @@ struct TeiWalker::State {
     } else if (f.name == "correspAction" && tag.attribute("type") == "sent") {
       in_sent_action = true;
       f.corresp_sent = true;
+      // The whole action doubted (its sender with it): att.global.responsibility's @cert.
+      sent_action_doubted = doubted(tag);
     } else if (f.name == "language" && !tag.attribute("ident").empty()) {
       // The sole or most used language of langUsage (2.4.2).
       std::string_view usage = tag.attribute("usage");
@@ -624,7 +637,9 @@ struct TeiWalker::State {
   };
   DateSlots date_slots(const HeaderInfo& h) const {
     DateSlots slots;
-    slots.header = h.date.empty();
+    // The file's publication, edition and revisions date the file, never the work: a
+    // letter left undated by its editor is not of the year its edition went online.
+    slots.header = h.date.empty() && file_dating_depth == 0;
     slots.creation = creation_depth > 0 && h.creation_date.empty();
     slots.sent = in_sent_action;  // every letter's: the earliest is the file's
     if (source_desc_depth > 0) {
@@ -702,7 +717,11 @@ struct TeiWalker::State {
         if (corresp_index >= 0) {
           CorrespRecord& c = h.corresp[static_cast<std::size_t>(corresp_index)];
           c.sender_label = value;
-          if (is_placeholder_name(value) && c.sender_key.empty()) c.sender_status = Authorship::unknown;
+          // A placeholder names nobody, @ref or not ("#unknown" is no candidate); a name
+          // the editor queries in brackets ("[Ann Lee?]") is a conjecture.
+          if (is_placeholder_name(value)) c.sender_status = Authorship::unknown;
+          else if (is_queried_name(value) && c.sender_status == Authorship::known)
+            c.sender_status = Authorship::conjectured;
           if (c.sender_key.empty() && c.sender_status != Authorship::unknown) c.sender_key = case_fold(value);
         }
         break;
@@ -1005,6 +1024,7 @@ void TeiWalker::end() {
   if (f.pushed_language) s.language_stack.pop_back();
   if (f.header) --s.header_depth;
   if (f.source_desc) --s.source_desc_depth;
+  if (f.file_dating) --s.file_dating_depth;
   if (f.creation) --s.creation_depth;
   if (f.standoff) --s.standoff_depth;
   if (f.source_bibl) s.source_bibl_types.pop_back();
@@ -1100,7 +1120,6 @@ std::vector<Segment> TeiWalker::finish() {
   std::vector<Segment> out;
   // Letters: pair each letter with its correspDesc (2.4.6, 16.3.2): @decls, else the
   // default one, else the only one, else by document order with a warning.
-  std::map<int, int> letter_ordinal;
   // Every correspDesc of the document by xml:id, the first in document order for an id
   // given twice (xml:ids are unique in a valid document).
   std::unordered_map<std::string_view, const CorrespRecord*> corresp_by_id;
@@ -1140,6 +1159,19 @@ std::vector<Segment> TeiWalker::finish() {
     return titles;
   };
   const bool texts_apart = s.texts_apart();
+  // The correspDescs that letters name by @decls: document order pairs the others with
+  // the rest alone, so that a letter without @decls is not given another's sender.
+  std::unordered_set<const CorrespRecord*> named_by_decls;
+  if (s.rules.unit == UnitKind::letter)
+    for (const auto& b : s.built)
+      for (const std::string& pointer : split_pointers(b.decls)) {
+        auto named = corresp_by_id.find(pointer);
+        if (named != corresp_by_id.end()) {
+          named_by_decls.insert(named->second);
+          break;
+        }
+      }
+  std::map<int, std::size_t> next_unnamed;  // by TEI: how far document order has paired
   for (auto& b : s.built) {
     Segment& seg = b.segment;
     // Bound without a conditional expression: `cond ? HeaderInfo{} : headers[i]` is a
@@ -1148,7 +1180,6 @@ std::vector<Segment> TeiWalker::finish() {
     const HeaderInfo& h = s.headers.empty() ? no_header : s.headers[static_cast<std::size_t>(b.tei_index)];
     if (s.rules.unit == UnitKind::letter) {
       if (b.body_letter && s.letters_per_tei[static_cast<std::size_t>(b.tei_index)] > 0) continue;
-      int ordinal = letter_ordinal[b.tei_index]++;
       const CorrespRecord* c = nullptr;
       // @decls may point at several declarations (a source's bibl, a correspDesc, 16.3.2):
       // the first that names a correspDesc pairs the letter, in its own TEI's header or in
@@ -1168,12 +1199,20 @@ std::vector<Segment> TeiWalker::finish() {
       if (c && decls_unmatched)
         seg.warnings.push_back(std::string("letter paired with the ") + (c->is_default ? "default" : "only") +
                                " correspDesc of its header: its @decls names no correspDesc");
-      if (!c && static_cast<std::size_t>(ordinal) < h.corresp.size()) {
-        c = &h.corresp[static_cast<std::size_t>(ordinal)];
-        seg.warnings.push_back("letter paired with correspDesc number " + std::to_string(ordinal + 1) +
-                               " by document order: " +
-                               (decls_unmatched ? "its @decls names no correspDesc"
-                                                : "no @decls or default correspDesc links them"));
+      if (!c) {
+        // The next of its header's correspDescs that no letter's @decls names.
+        std::size_t& next = next_unnamed[b.tei_index];
+        while (next < h.corresp.size() && named_by_decls.count(&h.corresp[next])) ++next;
+        if (next < h.corresp.size()) {
+          c = &h.corresp[next++];
+          seg.warnings.push_back("letter paired with correspDesc number " + std::to_string(next) +
+                                 " by document order, passing by those that other letters' @decls name: " +
+                                 (decls_unmatched ? "its @decls names no correspDesc"
+                                                  : "no @decls or default correspDesc links them"));
+        } else if (!h.corresp.empty()) {
+          seg.warnings.push_back("sender unknown: every correspDesc of its header is another letter's, and " +
+                                 std::string(decls_unmatched ? "its @decls names none" : "it has no @decls"));
+        }
       }
       if (c) {
         seg.label = c->sender_label.empty() ? seg.label : c->sender_label;
@@ -1199,11 +1238,13 @@ std::vector<Segment> TeiWalker::finish() {
     } else {
       if (s.rules.unit == UnitKind::whole) seg.label = h.title;
       const std::vector<std::string>& authors = authors_of(h, b.tei_index);
-      bool anonymous = authors.empty();
-      for (const auto& a : authors)
+      bool anonymous = authors.empty(), queried = false;
+      for (const auto& a : authors) {
         if (is_placeholder_name(a)) anonymous = true;
+        if (is_queried_name(a)) queried = true;
+      }
       seg.author = anonymous ? "" : join_authors(authors);
-      seg.authorship = anonymous ? Authorship::unknown : Authorship::known;
+      seg.authorship = anonymous ? Authorship::unknown : queried ? Authorship::conjectured : Authorship::known;
     }
     if (seg.label.empty()) seg.label = seg.local_id;  // no name, title or heading: the id
     // A teiCorpus (or TEI elements in a TEI) dates each text by its own header, else by the

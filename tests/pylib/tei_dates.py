@@ -49,8 +49,10 @@ def work_date(root, header):
     with a year winning: the first date in a creation element, the earliest date of a correspAction of
     type sent, the earliest event (written, print, premiere) in standOff, the first date in a
     sourceDesc bibl of type firstEdition (the innermost typed bibl decides), the first
-    sourceDesc date outside a bibl whose type begins "digital", the header's first date.
-    Dates without a value (an empty <date/>) are passed by. "" when no source has a year."""
+    sourceDesc date outside a bibl whose type begins "digital", the header's first date
+    outside publicationStmt, editionStmt and revisionDesc (TEI P5 2.2.4, 2.2.2, 2.6: they
+    date the electronic file, its edition and its changes, not the work). Dates without a
+    value (an empty <date/>) are passed by. "" when no source has a year."""
     def values(elements, text=True):
         return [v for v in (date_value(e, text) for e in elements) if v]
 
@@ -62,7 +64,9 @@ def work_date(root, header):
     source_dates = [d for s in header.iter(TEI + "sourceDesc") for d in s.iter(TEI + "date")]
     first_edition = values(d for d in source_dates if _bibl_type(d) == "firstEdition")
     source = values(d for d in source_dates if not _bibl_type(d).startswith("digital"))
-    anywhere = values(header.iter(TEI + "date"))
+    file_dating = {TEI + "publicationStmt", TEI + "editionStmt", TEI + "revisionDesc"}
+    anywhere = values(d for d in header.iter(TEI + "date")
+                      if not any(a.tag in file_dating for a in d.iterancestors()))
     for candidate in (creation[:1], [_earliest(sent)], [_earliest(events)], first_edition[:1], source[:1],
                       anywhere[:1]):
         if candidate and year_of(candidate[0]) is not None:

@@ -172,6 +172,26 @@ TEST_CASE("a file of one TEI names no text of its own: the file's header is its 
   for (const auto& letter : letters) CHECK_FALSE(letter.own_text);
 }
 
+TEST_CASE("document order pairs a letter with a correspDesc no @decls names; doubted senders (16.3.2, 2.4.6)") {
+  auto letters = by_local_id(read("letter-senders.xml", "letter"));
+  REQUIRE(letters.size() == 7);
+  CHECK(letters["letter-a"].author == "#p-lusk");
+  CHECK(letters["letter-a"].warnings.empty());
+  CHECK(words(letters["letter-b"]) == split("Bring the lantern down"));
+  CHECK(letters["letter-b"].author == "#p-wren");
+  CHECK(letters["letter-b"].warnings.size() == 1);
+  CHECK(letters["letter-c"].author == "#p-cole");
+  CHECK(letters["letter-d"].author.empty());
+  CHECK(letters["letter-d"].authorship == Authorship::unknown);
+  CHECK(letters["letter-d"].warnings.size() == 1);
+  CHECK(letters["letter-e"].author.empty());
+  CHECK(letters["letter-e"].authorship == Authorship::unknown);
+  CHECK(letters["letter-f"].author == "#p-quell");
+  CHECK(letters["letter-f"].authorship == Authorship::conjectured);
+  CHECK(letters["letter-g"].author == "#p-wren");
+  CHECK(letters["letter-g"].authorship == Authorship::conjectured);
+}
+
 TEST_CASE("xml:lang is inherited and switches inside a segment (1.3.1.1.2)") {
   auto chapters = read("lang-switch.xml", "chapter");
   REQUIRE(chapters.size() == 1);
