@@ -197,8 +197,15 @@ std::string attribution_note(const Analysis& analysis, const AttributionResult& 
     note += " " + candidate_word(names, result.candidates.front().candidate) + " first in " +
             rounded(100 * result.stability, "%.0f") + "% of " + std::to_string(result.resamples) +
             " random subsets of " + rounded(100 * result.resample_share, "%.0f") + "% of the features.";
-  if (!result.edition_conjecture.empty())
-    note += " The edition conjectures " + candidate_word(names, result.edition_conjecture) + ".";
+  if (!result.edition_conjecture.empty()) {
+    // A sender named without @ref is keyed by the case-folded name ("hester vantry"); the
+    // letter's label keeps it as the edition writes it.
+    std::string conjecture = candidate_word(names, result.edition_conjecture);
+    if (s.unit == "letter" && conjecture == result.edition_conjecture && result.edition_conjecture[0] != '#' &&
+        !s.label.empty() && s.label != s.local_id)
+      conjecture = s.label;
+    note += " The edition conjectures " + conjecture + ".";
+  }
   return note + warnings_sentences(result.warnings, names, candidates);
 }
 

@@ -18,6 +18,7 @@ struct CorrespRecord {
   std::string sender_label;  // the name as written
   Authorship sender_status = Authorship::unknown;
   std::string sent_date;     // of its sent action, as written; the first with a year wins
+  int senders_named = 0;     // names in its sent action (a letter by two hands names two)
 };
 
 struct HeaderInfo {

@@ -549,6 +549,7 @@ struct TeiWalker::State {
     } else if ((f.name == "persName" || f.name == "name" || f.name == "orgName") && in_sent_action &&
                corresp_index >= 0) {
       CorrespRecord& c = h.corresp[static_cast<std::size_t>(corresp_index)];
+      if (!frames.empty() && frames.back().name == "correspAction") ++c.senders_named;
       if (c.sender_label.empty() && c.sender_key.empty()) {
         f.capture = Capture::sender;
         c.sender_key = std::string(tag.attribute("ref"));
@@ -1214,6 +1215,9 @@ std::vector<Segment> TeiWalker::finish() {
                                  std::string(decls_unmatched ? "its @decls names none" : "it has no @decls"));
         }
       }
+      if (c && c->senders_named > 1)
+        seg.warnings.push_back("its correspDesc names " + std::to_string(c->senders_named) +
+                               " senders: the letter is credited to the first alone");
       if (c) {
         seg.label = c->sender_label.empty() ? seg.label : c->sender_label;
         seg.author = c->sender_status == Authorship::unknown ? "" : c->sender_key;

@@ -118,4 +118,25 @@ for aid, (_, text) in notes.items():
                     "%s: letter %s is not named %r: %s" % (aid, lid, expected[lid], text[:200]))
     mtest.check("#" not in rest, "%s: a pointer without the person's name: %s" % (aid, text[:200]))
 
+# A conjectured sender named without @ref is named as the edition writes it in the note
+# of its letter's attribution, not in the folded form the candidates are keyed by.
+conjectured = [(lid, name, ref) for lid, (name, ref, c) in letters.items() if c and ref]
+mtest.check(conjectured, "no conjectured sender with @ref in the edition")
+lid, name, ref = conjectured[0]
+with open(LETTERS, encoding="utf-8") as f:
+    source = f.read()
+marked = re.search(r'<persName ref="%s"[^>]*cert="[^"]*"[^>]*>' % re.escape(ref), source)
+mtest.check(marked is not None, "the conjectured persName of %s is not written as expected" % lid)
+unreferenced = os.path.join(tmp, "no-ref.xml")
+with open(unreferenced, "w", encoding="utf-8") as f:
+    f.write(source.replace(marked.group(0), marked.group(0).replace(' ref="%s"' % ref, ""), 1))
+out = os.path.join(tmp, "no-ref-annotated.xml")
+mtest.run(["annotate", "--unit", "letter", "--min-tokens", "200", "--attribute", "--resamples", "20",
+           "--output", out, unreferenced])
+said = [n.text or "" for a in etree.parse(out, PARSER).iterfind(".//tei:annotation", NS)
+        if a.get("target") == "#" + lid and "-attr-" in (a.get(XML_ID) or "")
+        for n in a.findall("tei:note", NS) if n.get("type") != "caution"]
+mtest.check(len(said) == 1 and ("The edition conjectures %s." % name) in said[0],
+            "%s's attribution note does not give the conjecture as written (%r): %r" % (lid, name, said))
+
 mtest.done()

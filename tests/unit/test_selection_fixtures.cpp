@@ -174,7 +174,7 @@ TEST_CASE("a file of one TEI names no text of its own: the file's header is its 
 
 TEST_CASE("document order pairs a letter with a correspDesc no @decls names; doubted senders (16.3.2, 2.4.6)") {
   auto letters = by_local_id(read("letter-senders.xml", "letter"));
-  REQUIRE(letters.size() == 7);
+  REQUIRE(letters.size() == 8);
   CHECK(letters["letter-a"].author == "#p-lusk");
   CHECK(letters["letter-a"].warnings.empty());
   CHECK(words(letters["letter-b"]) == split("Bring the lantern down"));
@@ -190,6 +190,8 @@ TEST_CASE("document order pairs a letter with a correspDesc no @decls names; dou
   CHECK(letters["letter-f"].authorship == Authorship::conjectured);
   CHECK(letters["letter-g"].author == "#p-wren");
   CHECK(letters["letter-g"].authorship == Authorship::conjectured);
+  CHECK(letters["letter-h"].author == "#p-cole");
+  CHECK(letters["letter-h"].warnings.size() == 1);
 }
 
 TEST_CASE("xml:lang is inherited and switches inside a segment (1.3.1.1.2)") {
