@@ -118,7 +118,7 @@ EvaluationResult evaluate_labelled(const Analysis& analysis, const SegmentRoles&
   std::map<std::string, std::size_t> files;
   std::vector<std::size_t> file_of_row(analysis.table_rows.size());
   for (std::size_t r = 0; r < analysis.table_rows.size(); ++r)
-    file_of_row[r] = files.emplace(analysis.segments[analysis.table_rows[r]].file, files.size()).first->second;
+    file_of_row[r] = files.emplace(analysis.segments[analysis.table_rows[r]].work, files.size()).first->second;
 
   const std::vector<std::size_t> known = roles.with_role(SegmentRole::known);
   std::vector<std::vector<std::size_t>> predictions(known.size());
@@ -177,10 +177,11 @@ EvaluationResult evaluate_labelled(const Analysis& analysis, const SegmentRoles&
     // reads as a failure of the method.
     std::string why;
     if (options.leave_out_files)
-      why = files.size() == 1 ? ": --leave-out-files holds out a segment's whole file, and this run has one file; "
-                                "give each candidate's texts in two files or more, or leave the option out"
-                              : ": --leave-out-files holds out a segment's whole file, and their candidate's texts "
-                                "all lie in that file";
+      why = files.size() == 1 ? ": --leave-out-files holds out a segment's whole file (in a teiCorpus, its text), "
+                                "and this run has one file; give each candidate's texts in two files or more, or "
+                                "leave the option out"
+                              : ": --leave-out-files holds out a segment's whole file (in a teiCorpus, its text), and "
+                                "their candidate's texts all lie in that one";
     result.warnings.push_back(std::to_string(alone) + " held-out segment(s) had no other text of their candidate left " +
                               "in; they count as errors" + why);
   }

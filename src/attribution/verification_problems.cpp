@@ -16,7 +16,7 @@ ProblemBuilder::ProblemBuilder(const Analysis& analysis, const SegmentRoles& rol
       options_(options),
       candidates_(collect_candidates(analysis, roles)) {
   std::map<std::string, std::size_t> files;
-  for (const auto& s : analysis.segments) file_of_.push_back(files.emplace(s.file, files.size()).first->second);
+  for (const auto& s : analysis.segments) file_of_.push_back(files.emplace(s.work, files.size()).first->second);
 }
 
 bool ProblemBuilder::excluded(std::size_t other, std::size_t segment, bool held_out) const {
@@ -45,7 +45,7 @@ bool ProblemBuilder::build(std::size_t segment, const std::string& candidate, bo
         by_author["l:" + roles_.label[s]].push_back(roles_.table_row[s]);
       }
     } else if (roles_.role[s] == SegmentRole::impostor) {
-      by_author["f:" + analysis_.segments[s].file].push_back(roles_.table_row[s]);
+      by_author["f:" + analysis_.segments[s].work].push_back(roles_.table_row[s]);
     }
   }
   for (auto& [name, rows] : by_author) {

@@ -27,7 +27,7 @@ std::vector<std::string> tested_candidates(const SegmentRoles& roles, const Attr
 bool every_candidate_in_two_files(const Analysis& analysis, const SegmentRoles& roles) {
   std::map<std::string, std::set<std::string>> files_of;
   for (std::size_t i = 0; i < roles.role.size(); ++i)
-    if (roles.role[i] == SegmentRole::known) files_of[roles.label[i]].insert(analysis.segments[i].file);
+    if (roles.role[i] == SegmentRole::known) files_of[roles.label[i]].insert(analysis.segments[i].work);
   if (files_of.empty()) return false;
   for (const auto& [candidate, files] : files_of)
     if (files.size() < 2) return false;
@@ -59,7 +59,9 @@ VerificationRun verify_questioned(const Analysis& analysis, const SegmentRoles& 
   // A known problem holds out its segment's whole file when every candidate has known texts
   // in two files or more, so that chapters of one novel (speeches of one play) never vouch
   // for each other and the band is not fitted on problems easier than a questioned work;
-  // in a one-file edition (letters) only the segment can be held out.
+  // in a one-file edition (letters) only the segment can be held out. A text of a
+  // teiCorpus counts as a file of its own (SegmentSummary::work): a collection of letters
+  // is many works, whose calibration would otherwise lose most known letters at once.
   strict.leave_out_files = options.leave_out_files || every_candidate_in_two_files(analysis, roles);
   const ProblemBuilder calibrating(analysis, roles, space, strict);
 
@@ -69,7 +71,7 @@ VerificationRun verify_questioned(const Analysis& analysis, const SegmentRoles& 
   std::vector<KnownProblem> calibration;
   for (std::size_t i = 0; i < known.size(); ++i) calibration.push_back({known_scores[i], known[i].same});
   run.band = calibrate_band(calibration);
-  run.band.method += strict.leave_out_files ? "; each known segment held out with its whole file"
+  run.band.method += strict.leave_out_files ? "; each known segment held out with its whole file (in a teiCorpus, its text)"
                                             : "; each known segment held out alone";
 
   std::vector<ImpostorProblem> problems;

@@ -84,9 +84,9 @@ void AttributionCommandOptions::add_settings(CLI::App& command, bool stability, 
         ->check(CLI::Range(std::size_t{1}, std::size_t{100000}))
         ->capture_default_str();
     command.add_flag("--leave-out-files", s.leave_out_files,
-                     "when a known segment is held out, hold out its whole file, so that chapters of one novel "
-                     "never vouch for each other (the band's calibration does so by itself when every candidate "
-                     "has texts in two files)");
+                     "when a known segment is held out, hold out its whole file (in a teiCorpus, its text), so "
+                     "that chapters of one novel never vouch for each other (the band's calibration does so by "
+                     "itself when every candidate has texts in two files or texts)");
     command.add_option("--calibration-problems", s.calibration_problems,
                        "known problems (labelled segments left out in turn, each against its own candidate and "
                        "against its nearest rival) that calibrate or evaluate the undecided band")

@@ -19,6 +19,9 @@ namespace manicule {
 struct SegmentSummary {
   std::string id;          // "<file stem>#<local id>"
   std::string file;
+  // The work it belongs to, which evaluation and calibration hold out whole: its file, or
+  // in a file of several texts (a teiCorpus of letters) its own text, "FILE#text3".
+  std::string work;
   std::string local_id;
   std::string unit;
   std::string label;

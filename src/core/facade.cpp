@@ -20,6 +20,7 @@ std::vector<SegmentSummary> summarise_segments(const Corpus& corpus) {
     SegmentSummary sum;
     sum.id = s.id;
     sum.file = s.file;
+    sum.work = s.own_text ? s.file + "#text" + std::to_string(s.own_text->number) : s.file;
     sum.local_id = s.local_id;
     sum.unit = s.unit;
     sum.label = s.label;

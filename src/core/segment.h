@@ -27,6 +27,7 @@ struct TextHeading {
   std::string title;
   std::string author;
   std::vector<std::string> collection_titles;
+  int number = 0;  // its TEI element's place among the file's, in document order (1-based)
 };
 
 // Who is known to have written or spoken a segment, as far as the edition says.

@@ -163,9 +163,9 @@ void ReadingWriter::write_reading(const FileReading& r, std::int64_t run_id) {
     if (seg.year) w.bind(17, seg.year); else w.bind_null(17);
     if (seg.own_text) {
       w.bind(18, seg.own_text->title).bind(19, seg.own_text->author);
-      w.bind(20, json_text(nlohmann::json(seg.own_text->collection_titles)));
+      w.bind(20, json_text(nlohmann::json(seg.own_text->collection_titles))).bind(21, seg.own_text->number);
     } else {
-      w.bind_null(18).bind_null(19).bind_null(20);
+      w.bind_null(18).bind_null(19).bind_null(20).bind_null(21);
     }
     w.step_to_end();
     if (fresh) {

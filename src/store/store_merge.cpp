@@ -75,6 +75,7 @@ void merge_settings(Database& out, Database& input, const StoredSettings& in, st
                                                     " of the content with SHA-256 " + sha));
       insert_segment.bind_column(16, segments, 13).bind_column(17, segments, 14);
       insert_segment.bind_column(18, segments, 15).bind_column(19, segments, 16).bind_column(20, segments, 17);
+      insert_segment.bind_column(21, segments, 18);
       insert_segment.step_to_end();
       ++summary.segments_added;
     }

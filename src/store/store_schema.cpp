@@ -17,11 +17,11 @@ const char* const kInsertReading =
     "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17)";
 const char* const kInsertSegment =
     "INSERT INTO segments (settings_id, sha256, ordinal, local_id, unit, label, language, author, authorship, "
-    "pointers, warnings, tokens, types, feature_total, counts, date, year, text_title, text_author, collection_titles) "
-    "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20)";
+    "pointers, warnings, tokens, types, feature_total, counts, date, year, text_title, text_author, collection_titles, "
+    "text_number) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16, ?17, ?18, ?19, ?20, ?21)";
 const char* const kSegmentsOfContent =
     "SELECT ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens, types, "
-    "feature_total, counts, date, year, text_title, text_author, collection_titles FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal";
+    "feature_total, counts, date, year, text_title, text_author, collection_titles, text_number FROM segments WHERE settings_id = ?1 AND sha256 = ?2 ORDER BY ordinal";
 
 namespace {
 
@@ -93,6 +93,7 @@ CREATE TABLE IF NOT EXISTS segments (
   text_title TEXT,
   text_author TEXT,
   collection_titles TEXT,
+  text_number INTEGER,
   PRIMARY KEY (settings_id, sha256, ordinal)
 );
 CREATE TABLE IF NOT EXISTS vocabulary_blocks (
@@ -232,6 +233,7 @@ constexpr const char* kFrom3To4[] = {
     "ALTER TABLE segments ADD COLUMN text_title TEXT",
     "ALTER TABLE segments ADD COLUMN text_author TEXT",
     "ALTER TABLE segments ADD COLUMN collection_titles TEXT",
+    "ALTER TABLE segments ADD COLUMN text_number INTEGER",
     "DROP VIEW IF EXISTS segment_list",
 };
 

@@ -21,11 +21,12 @@ extern const char* const kInsertReading;
 // A segment: ?1 settings_id, ?2 sha256, ?3 ordinal, ?4 local_id, ?5 unit, ?6 label,
 // ?7 language, ?8 author, ?9 authorship, ?10 pointers, ?11 warnings, ?12 tokens, ?13 types,
 // ?14 feature_total, ?15 counts, ?16 date, ?17 year, ?18 text_title, ?19 text_author,
-// ?20 collection_titles.
+// ?20 collection_titles, ?21 text_number.
 extern const char* const kInsertSegment;
-// The segments of a content (?1 settings_id, ?2 sha256) in document order, columns 0-17:
+// The segments of a content (?1 settings_id, ?2 sha256) in document order, columns 0-18:
 // ordinal, local_id, unit, label, language, author, authorship, pointers, warnings, tokens,
-// types, feature_total, counts, date, year, text_title, text_author, collection_titles.
+// types, feature_total, counts, date, year, text_title, text_author, collection_titles,
+// text_number.
 extern const char* const kSegmentsOfContent;
 
 // Raised whenever a table changes shape or a table, index or view is added: a store of
@@ -34,7 +35,7 @@ extern const char* const kSegmentsOfContent;
 // (open_store runs it on a new store only). 2: the vocabulary in blocks
 // (store_vocabulary.h); 3: segments dated apart from their file (segments.date, .year);
 // 4: segments named by their own text's header (segments.text_title, .text_author,
-// .collection_titles, readings.texts_apart).
+// .collection_titles, .text_number, readings.texts_apart).
 inline constexpr int kStoreFormat = 4;
 
 // Opens the store (creating file and tables when `create`), locks it and checks its format.

@@ -49,9 +49,9 @@ void drop_respelled(StoredSelection& s) {
 }
 
 // A text's heading as stored from column `first` on: text_title, text_author,
-// collection_titles (a JSON array).
+// collection_titles (a JSON array), text_number.
 TextHeading stored_heading(Statement& row, int first) {
-  TextHeading heading{row.text_at(first), row.text_at(first + 1), {}};
+  TextHeading heading{row.text_at(first), row.text_at(first + 1), {}, static_cast<int>(row.int64_at(first + 3))};
   if (!row.is_null(first + 2))
     heading.collection_titles = nlohmann::json::parse(row.text_at(first + 2)).get<std::vector<std::string>>();
   return heading;
@@ -78,7 +78,7 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
   files.bind(1, settings_id);
   // The headings of a file's texts, where it holds several (a teiCorpus).
   Statement text_headings = db.prepare(
-      "SELECT DISTINCT text_title, text_author, collection_titles FROM segments WHERE settings_id = ?1 AND "
+      "SELECT DISTINCT text_title, text_author, collection_titles, text_number FROM segments WHERE settings_id = ?1 AND "
       "sha256 = ?2 AND text_title IS NOT NULL");
   const auto some_text_matches = [&](const std::string& sha256) {
     bool found = false;

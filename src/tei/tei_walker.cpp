@@ -1256,7 +1256,8 @@ std::vector<Segment> TeiWalker::finish() {
     if (texts_apart && seg.date.empty()) seg.date = own_else_collections(h, b.tei_index, work_date);
     // ... and names it by its own title and authors, not the first text's.
     if (texts_apart)
-      seg.own_text = TextHeading{h.title, join_authors(authors_of(h, b.tei_index)), collection_titles_of(b.tei_index)};
+      seg.own_text = TextHeading{h.title, join_authors(authors_of(h, b.tei_index)), collection_titles_of(b.tei_index),
+                                 b.tei_index + 1};
     seg.year = first_year(seg.date);
     std::string fallback =
         own_else_collections(h, b.tei_index, [](const HeaderInfo& header) { return header.language; });

@@ -188,7 +188,7 @@ def logical_tables(path):
         for row in db.execute(
                 "SELECT settings_id, sha256, ordinal, local_id, unit, label, language, author, authorship, "
                 "pointers, warnings, tokens, types, feature_total, counts, date, year, text_title, text_author, "
-                "collection_titles "
+                "collection_titles, text_number "
                 "FROM segments"):
             sid = row[0]
             counts = tuple(sorted((forms[(sid, fid)], n) for fid, n in decode_counts(row[14])))
