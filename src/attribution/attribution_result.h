@@ -75,6 +75,7 @@ struct VerificationResult {
   std::size_t impostor_pool = 0;      // impostors drawn from: other authors or impostor files
   std::size_t impostor_segments = 0;  // their segments, all of them
   std::uint64_t seed = 0;
+  std::string edition_conjecture;  // author the edition conjectures for the segment, if it does
   std::vector<std::string> warnings;
 };
 

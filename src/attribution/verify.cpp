@@ -104,6 +104,7 @@ VerificationRun verify_questioned(const Analysis& analysis, const SegmentRoles& 
     r.impostor_pool = p.impostors.size();
     r.impostor_segments = p.impostor_rows;
     r.seed = p.seed;
+    r.edition_conjecture = roles.conjecture[p.segment];
     std::vector<std::size_t> candidate_words;
     const std::size_t c = candidates.index_of(p.candidate);
     for (std::size_t s : candidates.segments[c]) candidate_words.push_back(analysis.segments[s].tokens);

@@ -125,6 +125,7 @@ nlohmann::json verifications_json(const Analysis& analysis) {
                     // Not --seed (which the provenance records): the problem's own, drawn from it
                     // with the segment and candidate, so that adding a candidate changes no score.
                     {"problem_seed", v.seed},
+                    {"edition_conjecture", v.edition_conjecture},
                     {"warnings", v.warnings},
                     {"caution", kAttributionCaution}});
   }
@@ -138,16 +139,23 @@ void write_verifications_tsv(std::ostream& out, const Analysis& analysis) {
     const VerificationBand& b = *analysis.verification_band;
     write_tsv_parameters(out, {{"undecided band", "[" + fixed(b.low, 2) + ", " + fixed(b.high, 2) + "]"},
                                {"band calibration", b.method}});
+    // As the JSON gives them (docs/attribution.md), said to be measured on the problems
+    // the band was fitted to.
+    if (b.calibrated)
+      write_tsv_parameters(out, {{"band fit on its own known problems (in-sample, so optimistic)",
+                                  "AUC " + figure_text(b.auc, b.auc_defined()) + ", c@1 " +
+                                      figure_text(b.c_at_1, b.rates_defined()) + ", F0.5u " +
+                                      figure_text(b.f05u, b.rates_defined())}});
   }
   write_tsv_row(out, {"segment", "words", "candidate", "score", "calibrated_score", "decision", "impostor_pool",
-                      "impostor_segments", "warnings"});
+                      "impostor_segments", "edition_conjecture", "warnings"});
   const bool calibrated = band_calibrated(analysis);
   for (const auto& v : analysis.verifications) {
     const SegmentSummary& s = analysis.segments[v.segment];
     write_tsv_row(out, {s.id, std::to_string(s.tokens), v.candidate, fixed(v.score, 2),
                         calibrated ? fixed(v.calibrated_score, 4) : "n/a",
                         v.decision, std::to_string(v.impostor_pool), std::to_string(v.impostor_segments),
-                        joined(v.warnings)});
+                        v.edition_conjecture, joined(v.warnings)});
   }
 }
 

@@ -111,6 +111,7 @@ void StandoffBuilder::add_verifications(Parts& parts) const {
     add_feature(fs, "impostorPool").add(count(r.impostor_pool));
     add_feature(fs, "impostorSegments").add(count(r.impostor_segments));
     add_feature(fs, "problemSeed").add(numeric(std::to_string(r.seed)));  // from --seed, segment, candidate
+    if (!r.edition_conjecture.empty()) add_feature(fs, "editionConjecture").add_text_element("string", r.edition_conjecture);
     add_strings(fs, "warnings", r.warnings);
     add_feature(fs, "caution").add_text_element("string", kAttributionCaution);
     parts.values.add(std::move(fs));

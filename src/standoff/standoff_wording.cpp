@@ -175,6 +175,20 @@ std::string run_measure_word(const Analysis& analysis) {
   return m.substr(0, m.find(" ("));
 }
 
+namespace {
+
+// How a note names the author the edition conjectures for segment `s`: as a candidate; a
+// sender named without @ref (keyed by the case-folded name, "hester vantry") as the
+// letter's label gives the name, as the edition writes it.
+std::string conjecture_word(const SegmentSummary& s, const std::string& conjecture, const CandidateNames& names) {
+  const std::string named = candidate_word(names, conjecture);
+  if (s.unit == "letter" && named == conjecture && conjecture[0] != '#' && !s.label.empty() && s.label != s.local_id)
+    return s.label;
+  return named;
+}
+
+}  // namespace
+
 std::string attribution_note(const Analysis& analysis, const AttributionResult& result, const std::string& label,
                              const CandidateNames& names) {
   const SegmentSummary& s = analysis.segments[result.segment];
@@ -197,15 +211,8 @@ std::string attribution_note(const Analysis& analysis, const AttributionResult& 
     note += " " + candidate_word(names, result.candidates.front().candidate) + " first in " +
             rounded(100 * result.stability, "%.0f") + "% of " + std::to_string(result.resamples) +
             " random subsets of " + rounded(100 * result.resample_share, "%.0f") + "% of the features.";
-  if (!result.edition_conjecture.empty()) {
-    // A sender named without @ref is keyed by the case-folded name ("hester vantry"); the
-    // letter's label keeps it as the edition writes it.
-    std::string conjecture = candidate_word(names, result.edition_conjecture);
-    if (s.unit == "letter" && conjecture == result.edition_conjecture && result.edition_conjecture[0] != '#' &&
-        !s.label.empty() && s.label != s.local_id)
-      conjecture = s.label;
-    note += " The edition conjectures " + conjecture + ".";
-  }
+  if (!result.edition_conjecture.empty())
+    note += " The edition conjectures " + conjecture_word(s, result.edition_conjecture, names) + ".";
   return note + warnings_sentences(result.warnings, names, candidates);
 }
 
@@ -230,6 +237,8 @@ std::string verification_note(const Analysis& analysis, const VerificationResult
   else if (analysis.verification_band)
     note += " read against 0.5 (too few labelled segments to calibrate an undecided band)";
   note += ".";
+  if (!result.edition_conjecture.empty())
+    note += " The edition conjectures " + conjecture_word(s, result.edition_conjecture, names) + ".";
   return note + warnings_sentences(result.warnings, names, {result.candidate});
 }
 

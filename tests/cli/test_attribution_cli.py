@@ -82,6 +82,16 @@ mtest.check(all(v["calibrated_score"] is None for v in doc["verifications"]),
 tsv_rows = mtest.read_tsv(mtest.run(["verify"] + BASE).stdout)
 mtest.check(len(tsv_rows) == 9 and all(r["calibrated_score"] == "n/a" for r in tsv_rows),
             "TSV calibrated_score without calibration: %r" % [r["calibrated_score"] for r in tsv_rows])
+# A questioned letter whose sender the edition conjectures says so in verification too, as
+# in attribution (lxml: the @ref of a sender that is given but not sure).
+sure = letter_senders(LETTERS, "ferry-letters")
+conjectured = {s: who for s, who in letter_senders(LETTERS, "ferry-letters", sure_only=False).items()
+               if who and not sure[s]}
+mtest.check(conjectured, "no conjectured sender in the example")
+for rows, form in ((doc["verifications"], "JSON"), (tsv_rows, "TSV")):
+    got = {v["segment"]: v["edition_conjecture"] for v in rows}
+    mtest.check(got == {seg: conjectured.get(seg, "") for seg in got},
+                "verify's %s edition_conjecture %r, lxml %r" % (form, got, conjectured))
 # A problem's seed depends on --seed, its segment and its candidate alone (docs/attribution.md):
 # verified against one candidate only, each letter keeps the seed and score it had among
 # three. The JSON names it problem_seed: it is not --seed, and was given as "seed".
@@ -263,6 +273,14 @@ with open(second, "w", encoding="utf-8") as f:
             .replace('xml:id="cd-', 'xml:id="sd-').replace('cert="low" ', "").replace('<persName>Unknown</persName>', '<persName ref="#p-abthorpe">Cornelius Abthorpe</persName>'))
 doc = strict_json(mtest.run(["verify", "--format", "json", "--unit", "letter", "--min-tokens", "200", LETTERS, second]).stdout)
 mtest.check("held out with its whole file" in doc["band"]["method"], "two editions: " + doc["band"]["method"])
+# A calibrated band's TSV gives the figures of its fit beside it, as its JSON does, said to
+# be in-sample (docs/attribution.md, "The undecided band").
+mtest.check(doc["band"]["calibrated"] is True, "two editions: the band is not calibrated: " + doc["band"]["method"])
+tsv = mtest.run(["verify", "--unit", "letter", "--min-tokens", "200", LETTERS, second]).stdout
+fit = "# band fit on its own known problems (in-sample, so optimistic): AUC %s, c@1 %s, F0.5u %s" % tuple(
+    "n/a" if doc["band"][k] is None else "%.4f" % doc["band"][k] for k in ("auc", "c_at_1", "f05u"))
+mtest.check(fit in tsv.splitlines(), "the TSV does not give the band's fit %r: %r"
+            % (fit, [line for line in tsv.splitlines() if "band" in line]))
 # Verification against a candidate the run does not have: usage.
 expect_failure(["verify", "--candidate", "#p-nobody"] + BASE, 2, "'#p-nobody'", "'#p-pellow'")
 # A questioned letter can be verified against one candidate only.
