@@ -5,7 +5,8 @@
 // xml:id="KEY" (a unit element: its local id, e.g. "chapter3"; a speech of a speaker
 // without a person entry: "KEY-N"), unique in the document. The segment in `analysis` is
 // renamed as a later read of the edition would name it (local id, segment id, pointers,
-// label), so a second run finds the same segments and writes the same bytes. A joint
+// label), so a second run finds the same segments and writes the same bytes; one already
+// known by an id of the edition (a body letter, by its TEI's) keeps that name. A joint
 // speech, a speech of each of its speakers, gets one id, which both speakers' pointers take.
 // Refused (Error(bad_input)) where an entity may hide elements, since element positions
 // in the bytes would then not match those of the parsed document.

@@ -769,11 +769,12 @@ struct TeiWalker::State {
       close_speech(u, text);
       return;
     }
-    std::string local_id = u.local_id;
-    if (local_id.empty()) {
-      if (u.body_letter) local_id = headers[static_cast<std::size_t>(u.tei_index)].tei_id;
-      if (local_id.empty()) local_id = next_local_id(unit_name(rules.unit));
-    }
+    // A letter that is its text's whole body is known by its TEI's xml:id first: the body
+    // is a part of the letter, and --add-ids, which gives the body an id of its own (the
+    // TEI's, taken, with "-2"), must leave the letter's id as it was.
+    std::string local_id = u.body_letter ? headers[static_cast<std::size_t>(u.tei_index)].tei_id : std::string();
+    if (local_id.empty()) local_id = u.local_id;
+    if (local_id.empty()) local_id = next_local_id(unit_name(rules.unit));
     Built& b = new_built(local_id, u.tei_index);
     b.segment.pointers.push_back(u.pointer);
     b.decls = u.decls;

@@ -139,6 +139,22 @@ try:
             check(part.startswith("#") and part[1:] in ids and ids[part[1:]].tag == "{%s}sp" % NS["tei"],
                   "join part %s does not resolve to a speech" % part)
 
+    # A letter that is its text's whole body is known by its TEI's xml:id (lxml), before
+    # and after --add-ids gives the body an id of its own: the ids a store or a labels
+    # file knows the letters by stay the same.
+    corpus_original = os.path.join(OWN, "letters-corpus-no-ids.xml")
+    corpus_letters = copy(corpus_original, "corpus-letters")
+    expected = sorted("letters-corpus-no-ids#" + t.get(XML_ID)
+                      for t in etree.parse(corpus_original).getroot().iter("{%s}TEI" % NS["tei"]))
+    listed = lambda: sorted(r["segment"] for r in read_tsv(  # noqa: E731
+        run(["segments", "--unit", "letter", corpus_letters]).stdout))
+    check(listed() == expected, "the body letters are not known by their TEI's ids: %r" % listed())
+    annotated(corpus_letters, ["--unit", "letter", "--min-tokens", "1", "--add-ids"], allow_ids=True,
+              original=corpus_original)
+    bodies = etree.parse(corpus_letters).getroot().iter("{%s}body" % NS["tei"])
+    check(all(b.get(XML_ID) for b in bodies), "--add-ids gave a body letter no xml:id")
+    check(listed() == expected, "--add-ids changed the letters' ids: %r, expected %r" % (listed(), expected))
+
     # 3. Encodings and namespaces.
     latin1 = copy(os.path.join(OWN, "latin1.xml"), "enc")
     before, after = annotated(latin1, ["--unit", "speaker", "--min-tokens", "1"])
