@@ -90,7 +90,7 @@ VerificationEvaluation cross_fitted(const std::vector<ImpostorProblem>& problems
   } else if (halves[0].empty() || halves[1].empty()) {
     std::set<std::size_t> files;
     for (const auto& p : problems) files.insert(p.group);
-    e.calibration = "not cross-fitted: the halves are drawn by file, and the problems' " + std::to_string(files.size()) +
+    e.calibration = "not cross-fitted: the halves are drawn by file (a teiCorpus's texts apart), and the problems' " + std::to_string(files.size()) +
                     " file(s) all fell into one; scores read against 0.5";
   } else if (!bands[0].calibrated && !bands[1].calibrated)
     e.calibration = "not calibrated: neither random half of the files had enough known problems for a band; "

@@ -45,7 +45,8 @@ bool ProblemBuilder::build(std::size_t segment, const std::string& candidate, bo
         by_author["l:" + roles_.label[s]].push_back(roles_.table_row[s]);
       }
     } else if (roles_.role[s] == SegmentRole::impostor) {
-      by_author["f:" + analysis_.segments[s].work].push_back(roles_.table_row[s]);
+      // An impostor is a file (docs/attribution.md), whatever texts it holds.
+      by_author["f:" + analysis_.segments[s].file].push_back(roles_.table_row[s]);
     }
   }
   for (auto& [name, rows] : by_author) {

@@ -35,7 +35,8 @@ struct SelectionRules;
 // and authors, and may hold the correspDesc a letter points to; a teiCorpus's speakers are
 // each text's own; document order pairs a letter past the correspDescs others' @decls
 // name; a placeholder sender is unknown even with @ref, a queried name or a doubted sent
-// action a conjecture; publicationStmt, editionStmt and revisionDesc date no work.
+// action a conjecture; publicationStmt, editionStmt, revisionDesc and (but for a letter's
+// sending) correspDesc date no work; a teiCorpus's cast list names every play's voices.
 constexpr int kReadingRevision = 7;
 
 // What the edition's own header says (the first TEI element's teiHeader, with a

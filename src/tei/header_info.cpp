@@ -45,10 +45,10 @@ const std::string* earliest_dated(const std::vector<std::string>& dates) {
 // first (docs/store.md, "Sub-corpora"). The first of these with a year wins, so that a
 // creation "in the spring" does not hide a first edition of 1850; without any year, the
 // first as written.
-std::string work_date(const HeaderInfo& h) {
-  const std::string* sent = earliest_dated(h.sent_dates);
+std::string work_date(const HeaderInfo& h, bool with_sending) {
+  const std::string* sent = with_sending ? earliest_dated(h.sent_dates) : nullptr;
   const std::string* event = earliest_dated(h.event_dates);
-  if (!sent && !h.sent_dates.empty()) sent = &h.sent_dates.front();
+  if (with_sending && !sent && !h.sent_dates.empty()) sent = &h.sent_dates.front();
   if (!event && !h.event_dates.empty()) event = &h.event_dates.front();
   const std::string* in_order[] = {&h.creation_date, sent, event, &h.first_edition_date, &h.source_date, &h.date};
   for (const std::string* d : in_order)

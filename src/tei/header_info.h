@@ -63,7 +63,9 @@ bool better_date(const std::string& kept, const std::string& candidate);
 
 // The date of the work rather than of the file, as written, from the header's dates in the
 // order of the fields above, the first with a year winning (docs/store.md, "Sub-corpora").
-std::string work_date(const HeaderInfo& header);
+// Without `with_sending`, the letters' sendings are passed by: what dates a letter of the
+// text that its own correspDesc and dateline leave undated is not another letter's.
+std::string work_date(const HeaderInfo& header, bool with_sending = true);
 
 // Collapses runs of XML whitespace to one space and trims both ends.
 std::string normalise_space(const std::string& text);

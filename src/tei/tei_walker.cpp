@@ -8,6 +8,7 @@
 #include <charconv>
 #include <functional>
 #include <map>
+#include <set>
 #include <unordered_map>
 #include <unordered_set>
 
@@ -101,6 +102,15 @@ bool doubted(const StartTag& tag) {
   const std::string_view cert = tag.attribute("cert");
   return tag.attribute("evidence") == "conjecture" ||
          (!cert.empty() && cert != "high" && cert != "1" && cert != "1.0");
+}
+
+// A name without the brackets and question marks an editor queries it with:
+// "[Barnaby Quell?]" -> "Barnaby Quell".
+std::string without_query_marks(const std::string& name) {
+  std::string out;
+  for (char c : name)
+    if (c != '[' && c != ']' && c != '?') out += c;
+  return normalise_space(out);
 }
 
 std::string case_fold(const std::string& text) {
@@ -372,17 +382,32 @@ struct TeiWalker::State {
     return at.first ? corpus_headers[static_cast<std::size_t>(at.second)] : headers[static_cast<std::size_t>(at.second)];
   }
 
+  // A person's or role's name by xml:id: the text's own header's, else that of the nearest
+  // collection around it that lists the id (a teiCorpus of plays sharing one listPerson).
+  const std::string* person_name(int tei_index, const std::string& key) const {
+    const auto& own = headers[static_cast<std::size_t>(tei_index)].person_names;
+    if (auto found = own.find(key); found != own.end()) return &found->second;
+    if (static_cast<std::size_t>(tei_index) >= collections_of_tei.size()) return nullptr;
+    const auto& around = collections_of_tei[static_cast<std::size_t>(tei_index)];
+    for (auto at = around.rbegin(); at != around.rend(); ++at) {
+      const auto& names = header_at(*at).person_names;
+      if (auto found = names.find(key); found != names.end()) return &found->second;
+    }
+    return nullptr;
+  }
+
   // Whether the file holds several texts with headers of their own, each then named by
   // its own (a teiCorpus, or TEI elements in a TEI).
   bool texts_apart() const { return root_is_corpus || headers.size() > 1; }
 
   // A speaker's key within the file: in a file of several texts each text's speakers are
   // its own (a CHORUS in two plays is two voices), so a text inside a collection leads
-  // its keys with its xml:id, else its place among the TEI elements ("text2.").
+  // its keys with its xml:id, else with its place among the TEI elements ("TEI[2]"), and
+  // a colon: neither can be a part of an xml:id (an NCName), so no two texts share one.
   std::string speaker_key_in_file(const std::string& key, int tei_index) const {
     if (collections_of_tei.empty() || collections_of_tei[static_cast<std::size_t>(tei_index)].empty()) return key;
     const std::string& id = headers[static_cast<std::size_t>(tei_index)].tei_id;
-    return (id.empty() ? "text" + std::to_string(tei_index + 1) : id) + "." + key;
+    return (id.empty() ? "TEI[" + std::to_string(tei_index + 1) + "]" : id) + ":" + key;
   }
 
   bool collecting() const { return !open_units.empty() && skip_depth == 0; }
@@ -449,9 +474,8 @@ struct TeiWalker::State {
   // such, and building an xpath() pointer for each was a good part of opening them.
   bool speech_of_listed_persons(const OpenUnit& u) const {
     if (rules.unit != UnitKind::speaker || u.who.empty() || headers.empty()) return false;
-    const auto& persons = headers[static_cast<std::size_t>(u.tei_index)].person_names;
     for (const std::string& key : u.who)
-      if (!persons.count(key)) return false;
+      if (!person_name(u.tei_index, key)) return false;
     return true;
   }
 
@@ -640,7 +664,8 @@ struct TeiWalker::State {
     DateSlots slots;
     // The file's publication, edition and revisions date the file, never the work: a
     // letter left undated by its editor is not of the year its edition went online.
-    slots.header = h.date.empty() && file_dating_depth == 0;
+    // Nor does a letter's correspDesc date the others' work: its sending is rule 2's.
+    slots.header = h.date.empty() && file_dating_depth == 0 && corresp_index < 0;
     slots.creation = creation_depth > 0 && h.creation_date.empty();
     slots.sent = in_sent_action;  // every letter's: the earliest is the file's
     if (source_desc_depth > 0) {
@@ -723,7 +748,10 @@ struct TeiWalker::State {
           if (is_placeholder_name(value)) c.sender_status = Authorship::unknown;
           else if (is_queried_name(value) && c.sender_status == Authorship::known)
             c.sender_status = Authorship::conjectured;
-          if (c.sender_key.empty() && c.sender_status != Authorship::unknown) c.sender_key = case_fold(value);
+          // Keyed without the editor's query marks, so that "[Barnaby Quell?]" is the same
+          // candidate as the Barnaby Quell of other letters.
+          if (c.sender_key.empty() && c.sender_status != Authorship::unknown)
+            c.sender_key = case_fold(without_query_marks(value));
         }
         break;
       case Capture::date: set_date(h, value); break;
@@ -792,10 +820,19 @@ struct TeiWalker::State {
       // No @who: match the speaker label against person and role names (section 2).
       std::string spoken = speaker_key_text(u.speaker_text);
       std::string key = spoken.empty() ? "unknown" : "speaker:" + spoken;
-      for (const auto& [id, name] : h.person_names) {
-        if (!spoken.empty() && speaker_key_text(name) == spoken) {
-          key = id;
-          break;
+      // The text's own persons first, then those of the collections around it.
+      std::vector<const std::map<std::string, std::string>*> lists{&h.person_names};
+      if (static_cast<std::size_t>(u.tei_index) < collections_of_tei.size()) {
+        const auto& around = collections_of_tei[static_cast<std::size_t>(u.tei_index)];
+        for (auto at = around.rbegin(); at != around.rend(); ++at) lists.push_back(&header_at(*at).person_names);
+      }
+      for (const auto* names : lists) {
+        if (spoken.empty() || key != "speaker:" + spoken) break;
+        for (const auto& [id, name] : *names) {
+          if (speaker_key_text(name) == spoken) {
+            key = id;
+            break;
+          }
         }
       }
       keys.push_back(key);
@@ -810,7 +847,7 @@ struct TeiWalker::State {
       }
       if (by_label && key != "unknown") ++built[it->second].speeches_by_label;
       Segment& seg = built[it->second].segment;
-      if (h.person_names.count(key)) {
+      if (person_name(u.tei_index, key)) {
         if (seg.pointers.empty()) seg.pointers.push_back("#" + key);
       } else {
         seg.pointers.push_back(u.pointer);
@@ -1163,13 +1200,14 @@ std::vector<Segment> TeiWalker::finish() {
   const bool texts_apart = s.texts_apart();
   // The correspDescs that letters name by @decls: document order pairs the others with
   // the rest alone, so that a letter without @decls is not given another's sender.
-  std::unordered_set<const CorrespRecord*> named_by_decls;
+  // (with the texts whose letters name each)
+  std::unordered_map<const CorrespRecord*, std::set<int>> named_by_decls;
   if (s.rules.unit == UnitKind::letter)
     for (const auto& b : s.built)
       for (const std::string& pointer : split_pointers(b.decls)) {
         auto named = corresp_by_id.find(pointer);
         if (named != corresp_by_id.end()) {
-          named_by_decls.insert(named->second);
+          named_by_decls[named->second].insert(b.tei_index);
           break;
         }
       }
@@ -1197,7 +1235,13 @@ std::vector<Segment> TeiWalker::finish() {
       if (!c)
         for (const auto& r : h.corresp)
           if (r.is_default) c = &r;
-      if (!c && h.corresp.size() == 1) c = &h.corresp.front();
+      // The only one, unless another letter of the text names it by @decls: then it is
+      // that letter's. (A letter of another text may point at it as well: a text without
+      // a correspDesc of its own borrowing this one.)
+      if (!c && h.corresp.size() == 1) {
+        auto named = named_by_decls.find(&h.corresp.front());
+        if (named == named_by_decls.end() || !named->second.count(b.tei_index)) c = &h.corresp.front();
+      }
       if (c && decls_unmatched)
         seg.warnings.push_back(std::string("letter paired with the ") + (c->is_default ? "default" : "only") +
                                " correspDesc of its header: its @decls names no correspDesc");
@@ -1214,6 +1258,10 @@ std::vector<Segment> TeiWalker::finish() {
         } else if (!h.corresp.empty()) {
           seg.warnings.push_back("sender unknown: every correspDesc of its header is another letter's, and " +
                                  std::string(decls_unmatched ? "its @decls names none" : "it has no @decls"));
+        } else if (!corresp_by_id.empty()) {
+          seg.warnings.push_back("sender unknown: its text's header has no correspDesc, and " +
+                                 std::string(decls_unmatched ? "its @decls names none of the file's"
+                                                             : "it has no @decls naming one of the file's"));
         }
       }
       if (c && c->senders_named > 1)
@@ -1234,8 +1282,7 @@ std::vector<Segment> TeiWalker::finish() {
         seg.warnings.push_back(std::to_string(b.speeches_by_label) +
                                " speech(es) without @who credited by their <speaker> label");
       const std::string& key = b.speaker_key;
-      auto it = h.person_names.find(key);
-      if (it != h.person_names.end()) seg.label = it->second;
+      if (const std::string* name = s.person_name(b.tei_index, key)) seg.label = *name;
       // A person's id names one person in the whole file; a voice known by its label
       // alone is its text's own (local_id, led by the text in a collection).
       seg.author = key == "unknown" ? "" : key.rfind("speaker:", 0) == 0 ? seg.local_id : key;
@@ -1254,7 +1301,13 @@ std::vector<Segment> TeiWalker::finish() {
     if (seg.label.empty()) seg.label = seg.local_id;  // no name, title or heading: the id
     // A teiCorpus (or TEI elements in a TEI) dates each text by its own header, else by the
     // nearest collection's that gives a date; the file's date is its first header's.
-    if (texts_apart && seg.date.empty()) seg.date = own_else_collections(h, b.tei_index, work_date);
+    if (texts_apart && seg.date.empty()) {
+      // (a letter's own sending is in its correspDesc, read above: other letters' are not its date)
+      const bool letter = s.rules.unit == UnitKind::letter;
+      seg.date = own_else_collections(h, b.tei_index, [letter](const HeaderInfo& header) {
+        return work_date(header, !letter);
+      });
+    }
     // ... and names it by its own title and authors, not the first text's.
     if (texts_apart)
       seg.own_text = TextHeading{h.title, join_authors(authors_of(h, b.tei_index)), collection_titles_of(b.tei_index),

@@ -51,7 +51,8 @@ def work_date(root, header):
     sourceDesc bibl of type firstEdition (the innermost typed bibl decides), the first
     sourceDesc date outside a bibl whose type begins "digital", the header's first date
     outside publicationStmt, editionStmt and revisionDesc (TEI P5 2.2.4, 2.2.2, 2.6: they
-    date the electronic file, its edition and its changes, not the work). Dates without a
+    date the electronic file, its edition and its changes, not the work) and correspDesc
+    (a letter's sending is the second source, its other dates no work's). Dates without a
     value (an empty <date/>) are passed by. "" when no source has a year."""
     def values(elements, text=True):
         return [v for v in (date_value(e, text) for e in elements) if v]
@@ -64,7 +65,7 @@ def work_date(root, header):
     source_dates = [d for s in header.iter(TEI + "sourceDesc") for d in s.iter(TEI + "date")]
     first_edition = values(d for d in source_dates if _bibl_type(d) == "firstEdition")
     source = values(d for d in source_dates if not _bibl_type(d).startswith("digital"))
-    file_dating = {TEI + "publicationStmt", TEI + "editionStmt", TEI + "revisionDesc"}
+    file_dating = {TEI + "publicationStmt", TEI + "editionStmt", TEI + "revisionDesc", TEI + "correspDesc"}
     anywhere = values(d for d in header.iter(TEI + "date")
                       if not any(a.tag in file_dating for a in d.iterancestors()))
     for candidate in (creation[:1], [_earliest(sent)], [_earliest(events)], first_edition[:1], source[:1],

@@ -194,6 +194,35 @@ TEST_CASE("document order pairs a letter with a correspDesc no @decls names; dou
   CHECK(letters["letter-h"].warnings.size() == 1);
 }
 
+TEST_CASE("letters of a teiCorpus: each text's correspDescs its own; no other letter's date (2.4.6, 16.3.2)") {
+  auto letters = by_local_id(read("corpus-letters.xml", "letter"));
+  REQUIRE(letters.size() == 4);
+  CHECK(letters["l1"].author == "#p-wren");
+  CHECK(letters["l1"].date == "1850-04-02");
+  CHECK(words(letters["l2"]) == split("The oil is low"));
+  CHECK(letters["l2"].author.empty());
+  CHECK(letters["l2"].authorship == Authorship::unknown);
+  CHECK(letters["l2"].warnings.size() == 1);
+  CHECK(letters["l2"].date.empty());
+  CHECK(letters["l3"].authorship == Authorship::unknown);
+  CHECK(letters["l3"].warnings.size() == 1);
+  CHECK(letters["l3"].date.empty());
+  CHECK(letters["l4"].author == "barnaby quell");
+  CHECK(letters["l4"].authorship == Authorship::conjectured);
+}
+
+TEST_CASE("plays of a teiCorpus: each play's voices its own; the corpus header's cast names them (15.1, 7.2.2)") {
+  auto voices = by_local_id(read("corpus-plays.xml", "speaker"));
+  REQUIRE(voices.size() == 4);
+  CHECK(words(voices["text2:speaker:chorus"]) == split("Hear the bell Hear it twice"));
+  CHECK(voices["text2:keeper"].label == "Old Keeper");
+  CHECK(voices["text2:keeper"].author == "keeper");
+  CHECK(words(voices["text2:keeper"]) == split("The lamp is lit The oil is gone"));
+  CHECK(words(voices["TEI[2]:speaker:chorus"]) == split("The tide is out"));
+  CHECK(voices["TEI[2]:keeper"].label == "Old Keeper");
+  CHECK(words(voices["TEI[2]:keeper"]) == split("Bring rope"));
+}
+
 TEST_CASE("xml:lang is inherited and switches inside a segment (1.3.1.1.2)") {
   auto chapters = read("lang-switch.xml", "chapter");
   REQUIRE(chapters.size() == 1);
