@@ -6,7 +6,6 @@
 #include <array>
 #include <cctype>
 #include <charconv>
-#include <functional>
 #include <map>
 #include <set>
 #include <unordered_map>
@@ -382,18 +381,34 @@ struct TeiWalker::State {
     return at.first ? corpus_headers[static_cast<std::size_t>(at.second)] : headers[static_cast<std::size_t>(at.second)];
   }
 
-  // A person's or role's name by xml:id: the text's own header's, else that of the nearest
-  // collection around it that lists the id (a teiCorpus of plays sharing one listPerson).
-  const std::string* person_name(int tei_index, const std::string& key) const {
-    const auto& own = headers[static_cast<std::size_t>(tei_index)].person_names;
-    if (auto found = own.find(key); found != own.end()) return &found->second;
-    if (static_cast<std::size_t>(tei_index) >= collections_of_tei.size()) return nullptr;
-    const auto& around = collections_of_tei[static_cast<std::size_t>(tei_index)];
-    for (auto at = around.rbegin(); at != around.rend(); ++at) {
-      const auto& names = header_at(*at).person_names;
-      if (auto found = names.find(key); found != names.end()) return &found->second;
-    }
+  // The headers of the collections around a TEI element, outermost first (none in a file
+  // of one text).
+  const std::vector<std::pair<bool, int>>& collections_around(int tei_index) const {
+    static const std::vector<std::pair<bool, int>> none;
+    const auto at = static_cast<std::size_t>(tei_index);
+    return at < collections_of_tei.size() ? collections_of_tei[at] : none;
+  }
+
+  // The header nearest a text for which `has` holds: the text's own, else that of the
+  // innermost collection around it (TEI P5 15.1: what the corpus header says holds for
+  // its texts where theirs are silent); null when none.
+  template <class Has>
+  const HeaderInfo* nearest_header(int tei_index, const Has& has) const {
+    if (static_cast<std::size_t>(tei_index) >= headers.size()) return nullptr;
+    const HeaderInfo& own = headers[static_cast<std::size_t>(tei_index)];
+    if (has(own)) return &own;
+    const auto& around = collections_around(tei_index);
+    for (auto at = around.rbegin(); at != around.rend(); ++at)
+      if (has(header_at(*at))) return &header_at(*at);
     return nullptr;
+  }
+
+  // A person's or role's name by xml:id, from the nearest header that lists the id (a
+  // teiCorpus of plays sharing one listPerson).
+  const std::string* person_name(int tei_index, const std::string& key) const {
+    const HeaderInfo* listing =
+        nearest_header(tei_index, [&](const HeaderInfo& h) { return h.person_names.count(key) > 0; });
+    return listing ? &listing->person_names.at(key) : nullptr;
   }
 
   // Whether the file holds several texts with headers of their own, each then named by
@@ -405,7 +420,7 @@ struct TeiWalker::State {
   // its keys with its xml:id, else with its place among the TEI elements ("TEI[2]"), and
   // a colon: neither can be a part of an xml:id (an NCName), so no two texts share one.
   std::string speaker_key_in_file(const std::string& key, int tei_index) const {
-    if (collections_of_tei.empty() || collections_of_tei[static_cast<std::size_t>(tei_index)].empty()) return key;
+    if (collections_around(tei_index).empty()) return key;
     const std::string& id = headers[static_cast<std::size_t>(tei_index)].tei_id;
     return (id.empty() ? "TEI[" + std::to_string(tei_index + 1) + "]" : id) + ":" + key;
   }
@@ -814,27 +829,18 @@ struct TeiWalker::State {
 
   void close_speech(OpenUnit& u, const TextBuffer& text) {
     std::vector<std::string>& keys = u.who;  // the unit is closing: its list can take the key below
-    const HeaderInfo& h = headers[static_cast<std::size_t>(u.tei_index)];
     const bool by_label = keys.empty();
     if (by_label) {
       // No @who: match the speaker label against person and role names (section 2).
       std::string spoken = speaker_key_text(u.speaker_text);
       std::string key = spoken.empty() ? "unknown" : "speaker:" + spoken;
       // The text's own persons first, then those of the collections around it.
-      std::vector<const std::map<std::string, std::string>*> lists{&h.person_names};
-      if (static_cast<std::size_t>(u.tei_index) < collections_of_tei.size()) {
-        const auto& around = collections_of_tei[static_cast<std::size_t>(u.tei_index)];
-        for (auto at = around.rbegin(); at != around.rend(); ++at) lists.push_back(&header_at(*at).person_names);
-      }
-      for (const auto* names : lists) {
-        if (spoken.empty() || key != "speaker:" + spoken) break;
-        for (const auto& [id, name] : *names) {
-          if (speaker_key_text(name) == spoken) {
-            key = id;
-            break;
-          }
-        }
-      }
+      if (!spoken.empty())
+        nearest_header(u.tei_index, [&](const HeaderInfo& listing) {
+          for (const auto& [id, name] : listing.person_names)
+            if (speaker_key_text(name) == spoken) return key = id, true;
+          return false;
+        });
       keys.push_back(key);
     }
     if (keys.size() > 1 && rules.joint == JointSpeech::drop) return;
@@ -1173,27 +1179,18 @@ std::vector<Segment> TeiWalker::finish() {
   // some (a teiCorpus of one writer's works, each text's titleStmt giving its title
   // alone): TEI P5 15.1 has the corpus header say what holds for all its texts.
   const auto authors_of = [&](const HeaderInfo& h, int tei_index) -> const std::vector<std::string>& {
-    if (!h.authors.empty() || s.collections_of_tei.empty()) return h.authors;
-    const auto& around = s.collections_of_tei[static_cast<std::size_t>(tei_index)];
-    for (auto it = around.rbegin(); it != around.rend(); ++it)
-      if (!s.header_at(*it).authors.empty()) return s.header_at(*it).authors;
-    return h.authors;
+    const HeaderInfo* naming = s.nearest_header(tei_index, [](const HeaderInfo& x) { return !x.authors.empty(); });
+    return naming ? naming->authors : h.authors;
   };
-  // The first of a field that a text's header or, where it is empty there, a collection
-  // around the text gives (innermost first): a date or a language.
-  const auto own_else_collections = [&](const HeaderInfo& h, int tei_index,
-                                        const std::function<std::string(const HeaderInfo&)>& field) {
-    std::string value = field(h);
-    if (!value.empty() || s.collections_of_tei.empty()) return value;
-    const auto& around = s.collections_of_tei[static_cast<std::size_t>(tei_index)];
-    for (auto it = around.rbegin(); it != around.rend() && value.empty(); ++it) value = field(s.header_at(*it));
-    return value;
+  // A date or a language (`field` of a header): the nearest header's that gives one.
+  const auto own_else_collections = [&](int tei_index, const auto& field) {
+    const HeaderInfo* giving = s.nearest_header(tei_index, [&](const HeaderInfo& x) { return !field(x).empty(); });
+    return giving ? field(*giving) : std::string();
   };
   // The titles of the collections around a text, outermost first, those it has.
   const auto collection_titles_of = [&](int tei_index) {
     std::vector<std::string> titles;
-    if (s.collections_of_tei.empty()) return titles;
-    for (const auto& at : s.collections_of_tei[static_cast<std::size_t>(tei_index)])
+    for (const auto& at : s.collections_around(tei_index))
       if (!s.header_at(at).title.empty()) titles.push_back(s.header_at(at).title);
     return titles;
   };
@@ -1304,7 +1301,7 @@ std::vector<Segment> TeiWalker::finish() {
     if (texts_apart && seg.date.empty()) {
       // (a letter's own sending is in its correspDesc, read above: other letters' are not its date)
       const bool letter = s.rules.unit == UnitKind::letter;
-      seg.date = own_else_collections(h, b.tei_index, [letter](const HeaderInfo& header) {
+      seg.date = own_else_collections(b.tei_index, [letter](const HeaderInfo& header) {
         return work_date(header, !letter);
       });
     }
@@ -1314,7 +1311,7 @@ std::vector<Segment> TeiWalker::finish() {
                                  b.tei_index + 1};
     seg.year = first_year(seg.date);
     std::string fallback =
-        own_else_collections(h, b.tei_index, [](const HeaderInfo& header) { return header.language; });
+        own_else_collections(b.tei_index, [](const HeaderInfo& header) { return header.language; });
     if (fallback.empty()) fallback = s.rules.default_language;
     for (auto& run : seg.runs)
       if (run.language.empty()) run.language = fallback;
