@@ -192,7 +192,7 @@ def check_attributions(store, run, ids):
     got = {}
     for segment, rank, candidate in rows:
         got.setdefault(segment, {})[rank] = candidate
-    mtest.check(set(got) == questioned and all(sorted(r) == list(range(1, len(candidates) + 1))
+    mtest.check(questioned and candidates and set(got) == questioned and all(sorted(r) == list(range(1, len(candidates) + 1))
                                                 and set(r.values()) == candidates for r in got.values()),
                 "--attribute: ranked %r; lxml: questioned %r, candidates %r"
                 % (got, sorted(questioned), sorted(candidates)))

@@ -148,9 +148,11 @@ TEST_CASE("a teiCorpus's own header holds for its texts: authors, correspDesc; e
   REQUIRE(chapters["log-1"].own_text);
   CHECK(chapters["log-1"].own_text->title == "The Harbour Log");
   CHECK(chapters["log-1"].own_text->author == "Ada Cole");
+  CHECK(words(chapters["toll-1"]) == split("The toll is one penny"));
   CHECK(chapters["toll-1"].author == "Reuben Lusk");
   REQUIRE(chapters["toll-1"].own_text);
   CHECK(chapters["toll-1"].own_text->title == "Tolls of the Ferry");
+  CHECK(chapters["toll-1"].own_text->author == "Reuben Lusk");
   CHECK(chapters["log-1"].year == 1851);
   CHECK(chapters["log-1"].language == "en");
   CHECK(chapters["toll-1"].year == 1853);
@@ -181,6 +183,7 @@ TEST_CASE("document order pairs a letter with a correspDesc no @decls names; dou
   CHECK(letters["letter-b"].author == "#p-wren");
   CHECK(letters["letter-b"].warnings.size() == 1);
   CHECK(letters["letter-c"].author == "#p-cole");
+  CHECK(letters["letter-c"].warnings.size() == 1);
   CHECK(letters["letter-d"].author.empty());
   CHECK(letters["letter-d"].authorship == Authorship::unknown);
   CHECK(letters["letter-d"].warnings.size() == 1);
