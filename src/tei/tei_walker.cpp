@@ -406,9 +406,13 @@ struct TeiWalker::State {
   // A person's or role's name by xml:id, from the nearest header that lists the id (a
   // teiCorpus of plays sharing one listPerson).
   const std::string* person_name(int tei_index, const std::string& key) const {
-    const HeaderInfo* listing =
-        nearest_header(tei_index, [&](const HeaderInfo& h) { return h.person_names.count(key) > 0; });
-    return listing ? &listing->person_names.at(key) : nullptr;
+    const std::string* name = nullptr;  // found once: this runs twice for every speech of a play
+    nearest_header(tei_index, [&](const HeaderInfo& h) {
+      const auto it = h.person_names.find(key);
+      if (it != h.person_names.end()) name = &it->second;
+      return name != nullptr;
+    });
+    return name;
   }
 
   // Whether the file holds several texts with headers of their own, each then named by
