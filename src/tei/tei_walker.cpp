@@ -103,6 +103,16 @@ bool doubted(const StartTag& tag) {
          (!cert.empty() && cert != "high" && cert != "1" && cert != "1.0");
 }
 
+// Whether a <name> names a place by its @type (TEI P5 3.6.1 gives type="place" as its
+// example): in a correspAction, where the place a letter was sent from may be written so
+// beside its sender, such a name is no sender. The values are common practice, no source.
+bool names_a_place(const StartTag& tag) {
+  const std::string_view type = tag.attribute("type");
+  for (std::string_view place : {"place", "placeName", "settlement", "country", "region", "district", "location"})
+    if (type == place) return true;
+  return false;
+}
+
 // A name without the brackets and question marks an editor queries it with:
 // "[Barnaby Quell?]" -> "Barnaby Quell".
 std::string without_query_marks(const std::string& name) {
@@ -589,8 +599,8 @@ struct TeiWalker::State {
     } else if ((f.name == "person" || f.name == "personGrp") && !f.xml_id.empty()) {
       person_stack.emplace_back(f.xml_id);
       f.person = true;
-    } else if ((f.name == "persName" || f.name == "name" || f.name == "orgName") && in_sent_action &&
-               corresp_index >= 0) {
+    } else if ((f.name == "persName" || (f.name == "name" && !names_a_place(tag)) || f.name == "orgName") &&
+               in_sent_action && corresp_index >= 0) {
       CorrespRecord& c = h.corresp[static_cast<std::size_t>(corresp_index)];
       if (!frames.empty() && frames.back().name == "correspAction") ++c.senders_named;
       if (c.sender_label.empty() && c.sender_key.empty()) {

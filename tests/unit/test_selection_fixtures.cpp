@@ -176,7 +176,7 @@ TEST_CASE("a file of one TEI names no text of its own: the file's header is its 
 
 TEST_CASE("document order pairs a letter with a correspDesc no @decls names; doubted senders (16.3.2, 2.4.6)") {
   auto letters = by_local_id(read("letter-senders.xml", "letter"));
-  REQUIRE(letters.size() == 8);
+  REQUIRE(letters.size() == 9);
   CHECK(letters["letter-a"].author == "#p-lusk");
   CHECK(letters["letter-a"].warnings.empty());
   CHECK(words(letters["letter-b"]) == split("Bring the lantern down"));
@@ -195,6 +195,9 @@ TEST_CASE("document order pairs a letter with a correspDesc no @decls names; dou
   CHECK(letters["letter-g"].authorship == Authorship::conjectured);
   CHECK(letters["letter-h"].author == "#p-cole");
   CHECK(letters["letter-h"].warnings.size() == 1);
+  CHECK(letters["letter-i"].author == "#p-lusk");
+  CHECK(letters["letter-i"].authorship == Authorship::known);
+  CHECK(letters["letter-i"].warnings.empty());
 }
 
 TEST_CASE("letters of a teiCorpus: each text's correspDescs its own; no other letter's date (2.4.6, 16.3.2)") {
