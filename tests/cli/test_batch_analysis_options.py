@@ -21,7 +21,6 @@ stored analysis (sqlite3 counts the analysis runs); with --recompute it makes a 
 """
 import fnmatch
 import os
-import re
 import shutil
 import sys
 
@@ -29,6 +28,7 @@ sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."
 import mtest  # noqa: E402
 import invented_letters  # noqa: E402
 import storecheck  # noqa: E402
+from author_rule import author_passes  # noqa: E402
 from attribution_reference import letter_senders  # noqa: E402
 from measure_reference import reference_distances, reference_table  # noqa: E402
 from reading_text import TEI, XML_ID, letter_words  # noqa: E402
@@ -83,13 +83,6 @@ def letters_of(path):
     return facts
 
 
-def holds_words(authors, text):
-    """docs/store.md, --author: one author's name holds each word of TEXT as a whole word, in
-    any order, letter case ignored (str.casefold)."""
-    return any(all(re.search(r"(?<!\w)%s(?!\w)" % re.escape(w), a.casefold()) for w in text.casefold().split())
-               for a in authors)
-
-
 LETTERS = {}
 SENDERS = {}
 for name in sorted(os.listdir(archive)):
@@ -112,7 +105,7 @@ CASES = [
     (["--measure", "burrows-delta"], {"measure": "burrows-delta"}),
     (["--neighbours", "3"], {"neighbours": 3}),
     (["--stop-words", stop_file], {"stop": {"the"}}),
-    (["--author", "Pellow"], {"keep": lambda f: holds_words(f["authors"], "Pellow")}),
+    (["--author", "Pellow"], {"keep": lambda f: author_passes("Pellow", f["authors"])}),
     (["--years", "1850-1900"], {"keep": lambda f: f["year"] is not None and 1850 <= f["year"] <= 1900}),
     # RFC 4647 basic filtering: the tag or one that extends it
     (["--language", "en"], {"keep": lambda f: f["language"] == "en" or f["language"].startswith("en-")}),

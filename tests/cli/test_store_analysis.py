@@ -23,6 +23,7 @@ import tempfile
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
+from author_rule import author_passes  # noqa: E402
 from tei_dates import work_year  # noqa: E402
 import numpy as np  # noqa: E402
 from lxml import etree  # noqa: E402
@@ -34,15 +35,15 @@ MIN_TOKENS, K = 500, 3
 
 
 def header_facts(path):
-    """Title, author text and the work's year, read with lxml."""
+    """Title, the authors (one name each) and the work's year, read with lxml."""
     root = etree.parse(path).getroot()
     header = root.find(TEI + "teiHeader")
     stmt = header.find("%sfileDesc/%stitleStmt" % (TEI, TEI))
     title = [e for e in stmt.findall(TEI + "title") if e.get("type") != "sub"][0]
     # The author's name without its idno identifiers (Wikidata, GND), as the header reader keeps it.
-    author = " ".join(" ".join("".join(a.xpath(".//text()[not(ancestor::t:idno)]", namespaces={"t": TEI[1:-1]})).split())
-                      for a in stmt.findall(TEI + "author"))
-    return " ".join("".join(title.itertext()).split()), author, work_year(root, header)
+    authors = [" ".join("".join(a.xpath(".//text()[not(ancestor::t:idno)]", namespaces={"t": TEI[1:-1]})).split())
+               for a in stmt.findall(TEI + "author")]
+    return " ".join("".join(title.itertext()).split()), authors, work_year(root, header)
 
 
 def analysed_paths(store, args):
@@ -166,9 +167,9 @@ with tempfile.TemporaryDirectory() as tmp:
         chosen = {p for p in paths if keep(p)} & with_long
         return chosen if len(chosen) >= 1 else set()
 
-    # --author takes whole words (docs/store.md); a word is a run of \w, as Python's re has it.
+    # --author takes whole words (docs/store.md, tests/pylib/author_rule.py).
     def by_author(p):
-        return re.search(r"(?<!\w)von(?!\w)", facts[p][1], re.IGNORECASE) is not None
+        return author_passes("von", facts[p][1])
 
     cases = [
         (["--author", "VON"], by_author),

@@ -4,21 +4,20 @@ each word of TEXT as a whole word, in any order, letter case ignored (docs/store
 It matched parts of words: "Kind" took every "Wendekind", "Ward" every "Edward", and a text
 of commas alone took every inverted name. Invented editions here carry invented authors
 chosen so that the two readings differ; which files each query should take is worked out
-with Python's re (a word is a run of letters and digits, [^\\W_], Unicode-aware; in Han
-and kana, written without spaces, a name is found anywhere; the apostrophe's typeset forms
-count as the apostrophe)
+by tests/pylib/author_rule.py (Python's re: a word is a run of letters and digits,
+[^\\W_], Unicode-aware; in Han and kana, written without spaces, a name is found anywhere;
+the apostrophe's typeset forms count as the apostrophe)
 from the authors that lxml reads in each header, then compared with the files the
 analysis took in (analysis_segments, read with Python's sqlite3). A text without a word is
 a usage error, and so is a --years of dashes alone.
 """
 import os
-import re
 import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
-from unicode_words import spaceless  # noqa: E402
+from author_rule import author_passes  # noqa: E402
 from lxml import etree  # noqa: E402
 
 TEI = "http://www.tei-c.org/ns/1.0"
@@ -50,26 +49,8 @@ for name in sorted(os.listdir(archive)):
     header_authors[name] = ["".join(a.itertext()) for a in root.iter("{%s}author" % TEI)]
 
 
-def letter(c):
-    return bool(c) and re.match(r"[^\W_]", c) is not None and not spaceless(c)
-
-
-APOSTROPHES = {0x2019: "'", 0x02BC: "'", 0xFF07: "'"}  # not U+2018, an opening quotation mark
-
-
 def expected(text):
-    words = [w for w in re.split(r"[\s,;]+", text) if w]
-
-    def holds(author, word):
-        author, word = author.translate(APOSTROPHES), word.translate(APOSTROPHES)
-        for m in re.finditer(re.escape(word), author, re.IGNORECASE):
-            before = author[m.start() - 1] if m.start() else ""
-            after = author[m.end()] if m.end() < len(author) else ""
-            if (not letter(before) or not letter(word[0])) and (not letter(after) or not letter(word[-1])):
-                return True
-        return False
-
-    return {n for n, authors in header_authors.items() if any(all(holds(a, w) for w in words) for a in authors)}
+    return {n for n, authors in header_authors.items() if author_passes(text, authors)}
 
 
 store = os.path.join(tmp, "works.sqlite")

@@ -23,6 +23,7 @@ import sys
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
+from author_rule import author_passes  # noqa: E402
 from lxml import etree  # noqa: E402
 from standoff_check import NS, XML_ID, jing_errors  # noqa: E402
 
@@ -128,13 +129,6 @@ def headings_by_lxml(path):
             authors = authors or collection_authors
         out[div.get(XML_ID)] = (title, authors, [t for t, _ in around if t])
     return out
-
-
-def author_passes(wanted, authors):
-    # docs/store.md: each word of --author (parted by spaces, commas, semicolons) a whole
-    # word of one of the authors, in any order, letter case ignored.
-    words = [w.casefold() for w in re.split(r"[ \t,;]+", wanted) if w]
-    return any(all(w in re.findall(r"\w+", a.casefold()) for w in words) for a in authors)
 
 
 def title_passes(pattern, title):
