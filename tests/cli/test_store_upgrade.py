@@ -4,9 +4,10 @@ there) is brought up to this version's format when opened, and nothing in it is 
 
 Outside references: the store file itself, written by the earlier build, and SQLite's own
 account of it (Python's sqlite3 module): its tables' rows before and after, and the shape
-of its tables and views against a store this version creates from the same edition. Its
-counts, read by the earlier version, give the same analysis as this version's reading of
-the same edition (the earlier readings differ in dates and in the headings of a
+of its tables and views against a store this version creates from the same edition. The
+analysis of its counts, read by the earlier version and decoded by Python, is checked
+against numpy and SciPy (Cosine Delta of the z-scores), and is the same as this version's
+reading of the same edition (the earlier readings differ in dates and in the headings of a
 teiCorpus's texts only, which an unfiltered analysis does not use), table for table.
 """
 import gzip
@@ -19,6 +20,8 @@ import tempfile
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
+import numpy as np  # noqa: E402
+from scipy.spatial.distance import cdist  # noqa: E402
 
 FIXTURES = {"2": os.path.join(mtest.ROOT, "tests", "fixtures", "stores", "ferry-format2.sqlite.gz"),
             "3": os.path.join(mtest.ROOT, "tests", "fixtures", "stores", "ferry-format3.sqlite.gz")}
@@ -55,6 +58,50 @@ def store_format(path):
     return storecheck.rows(path, "SELECT value FROM store_info WHERE key = 'format'")[0][0]
 
 
+def earlier_counts(path):
+    """{(sha256, ordinal): {feature id: count}} as the earlier version stored them, decoded
+    by Python (storecheck.decode_counts), with each segment's stored total checked."""
+    out = {}
+    for sha, ordinal, total, blob in storecheck.rows(path, "SELECT sha256, ordinal, feature_total, counts FROM segments"):
+        counts = dict(storecheck.decode_counts(blob))
+        mtest.check(sum(counts.values()) == total, "segment %d: counts sum to %d, its total says %d" % (
+            ordinal, sum(counts.values()), total))
+        out[(sha, ordinal)] = counts
+    return out
+
+
+def check_against_numpy(path, counts):
+    """The upgraded store's analysis of the earlier counts against numpy and SciPy: with
+    fewer than 1,000 forms in all, every form is a feature (no tie at the cut decides which),
+    so the features' totals by rank, the z-scores (sample sd) and the Cosine Delta of the
+    nearest segments follow from the counts alone."""
+    _, tables = storecheck.latest_analysis(path)
+    ids = {(sha, ordinal): segment for segment, _, sha, ordinal, *_ in tables["segments"]}
+    mtest.check(sorted(ids) == sorted(counts), "the analysis took %d of the %d stored segments" % (len(ids), len(counts)))
+    keys = sorted(ids)
+    columns = sorted({f for key in keys for f in counts[key]})
+    mtest.check(0 < len(columns) < 1000, "%d forms: the check needs every form to be a feature" % len(columns))
+    matrix = np.array([[counts[key].get(f, 0) for f in columns] for key in keys], dtype=float)
+    mtest.check([row[2] for row in tables["features"]] == sorted(matrix.sum(axis=0), reverse=True),
+                "the features' totals by rank differ from the counts' (numpy)")
+    relative = matrix / matrix.sum(axis=1)[:, None]
+    z = (relative - relative.mean(axis=0)) / relative.std(axis=0, ddof=1)
+    distances = cdist(z, z, "cosine")  # Cosine Delta: the cosine distance of the z-scores
+    stored = {}
+    for segment, rank, neighbour, distance in tables["neighbours"]:
+        stored.setdefault(segment, []).append((rank, neighbour, distance))
+    for i, key in enumerate(keys):
+        nearest = sorted((distances[i, j], ids[keys[j]]) for j in range(len(keys)) if j != i)
+        rows = sorted(stored.get(ids[key], []))
+        mtest.check(len(rows) == min(5, len(keys) - 1), "%s has %d neighbours" % (ids[key], len(rows)))
+        for (rank, neighbour, distance), (want, want_id) in zip(rows, nearest):
+            # (1e-9: sums in another order; a tie, another distance that near; common practice, no source)
+            tied = sum(1 for other, _ in nearest if abs(other - want) <= 1e-9 * max(1.0, want)) > 1
+            mtest.check(mtest.close(distance, want, rel=1e-9, abs_=1e-12) and (tied or neighbour == want_id),
+                        "%s's neighbour %d is %s at %r, SciPy gives %s at %r" % (
+                            ids[key], rank, neighbour, distance, want_id, want))
+
+
 def check_upgrade(earlier, fixture):
     with tempfile.TemporaryDirectory() as tmp:
         old = os.path.join(tmp, "old.sqlite")
@@ -78,8 +125,10 @@ def check_upgrade(earlier, fixture):
         mtest.run(["batch", archive, "--store", new, "--unit", "letter", "--quiet"])
         mtest.run(["analyse-store", "--store", new, "--min-tokens", "200"])
 
+        stored_counts = earlier_counts(old)
         proc = mtest.run(["analyse-store", "--store", old, "--min-tokens", "200"])
         mtest.check("another version" in proc.stderr, "no note that the counts are another version's: " + proc.stderr)
+        check_against_numpy(old, stored_counts)
 
         mtest.check(store_format(old) == FORMAT, "the store was not brought up to format " + FORMAT)
         db = sqlite3.connect(old)
