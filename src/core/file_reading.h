@@ -37,7 +37,9 @@ struct SelectionRules;
 // name; a placeholder sender is unknown even with @ref, a queried name or a doubted sent
 // action a conjecture; publicationStmt, editionStmt, revisionDesc and (but for a letter's
 // sending) correspDesc date no work; a teiCorpus's cast list names every play's voices.
-constexpr int kReadingRevision = 7;
+// 8: a teiCorpus file is dated by its own header alone (a text none dates is undated, not
+// dated by the first text); a <name> of a place in a sent correspAction is no sender.
+constexpr int kReadingRevision = 8;
 
 // What the edition's own header says (the first TEI element's teiHeader, with a
 // teiCorpus's own title and authors where it gives them).

@@ -1155,20 +1155,20 @@ HeaderInfo TeiWalker::file_header() const {
   const State& s = *s_;
   HeaderInfo out = s.headers.empty() ? HeaderInfo{} : s.headers.front();
   if (s.root_is_corpus && !s.corpus_headers.empty()) {
-    // The root teiCorpus's title and authors where its own header gives them; the first
-    // text's dates and language where it gives them (a corpus header seldom dates the
-    // works), else the corpus's.
+    // The root teiCorpus's title and authors where its own header gives them; its dates
+    // alone: each text is dated by its own header, else by the collections around it, and
+    // a text none of them dates must not take the first text's date through the file's
+    // (a letter without a sending date dated by another letter's). The first text's
+    // language where it gives one, else the corpus's.
     const HeaderInfo& corpus = s.corpus_headers.front();
     if (!corpus.title.empty()) out.title = corpus.title;
     if (!corpus.authors.empty()) out.authors = corpus.authors;
-    if (work_date(out).empty()) {
-      out.creation_date = corpus.creation_date;
-      out.sent_dates = corpus.sent_dates;
-      out.event_dates = corpus.event_dates;
-      out.first_edition_date = corpus.first_edition_date;
-      out.source_date = corpus.source_date;
-      out.date = corpus.date;
-    }
+    out.creation_date = corpus.creation_date;
+    out.sent_dates = corpus.sent_dates;
+    out.event_dates = corpus.event_dates;
+    out.first_edition_date = corpus.first_edition_date;
+    out.source_date = corpus.source_date;
+    out.date = corpus.date;
     if (out.language.empty()) out.language = corpus.language;
   }
   return out;

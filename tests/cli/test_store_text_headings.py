@@ -272,4 +272,26 @@ mtest.run(["analyse-store", "--store", merged, "--min-tokens", "50", "--author",
 taken = analysed(merged)
 mtest.check(taken == expected_segments(headings, "corbel"), "the merged store's analysis took %r" % sorted(taken))
 
+# Dates: a text of a teiCorpus is dated by its own header, else by the collections around
+# it, never by the first text's (TEI P5 15.1: the corpus header holds for its texts, not one
+# text's for another). The fixture's letters (lxml): l1's correspDesc, named by its @decls,
+# is sent 1850-04-02; no other letter is dated by its correspDesc, its text's header or the
+# corpus header, so their year is none and --years leaves them out.
+letters_path = os.path.join(mtest.ROOT, "tests", "fixtures", "corpus-letters.xml")
+letters_root = etree.parse(letters_path).getroot()
+by_id = {e.get(XML_ID): e for e in letters_root.iter() if e.get(XML_ID)}
+header_dates = [d for h in letters_root.iter("{%s}teiHeader" % TEI_NS)
+                for d in h.iter("{%s}date" % TEI_NS) if d.getparent().tag != "{%s}correspAction" % TEI_NS]
+mtest.check(not header_dates, "the fixture's headers date something besides sendings: %r" % header_dates)
+letter_years = {}
+for div in letters_root.iter("{%s}div" % TEI_NS):
+    named = by_id.get((div.get("decls") or "").lstrip("#"))
+    sent = named.xpath("string(tei:correspAction[@type='sent']/tei:date/@when)", namespaces=NS) if named is not None else ""
+    letter_years["corpus-letters#" + div.get(XML_ID)] = int(sent[:4]) if sent else None
+mtest.check(list(letter_years.values()).count(None) >= 2, "the fixture has too few undated letters: %r" % letter_years)
+letters_store = os.path.join(tmp, "letters.sqlite")
+mtest.run(["batch", letters_path, "--store", letters_store, "--quiet", "--unit", "letter"])
+stored_years = dict(storecheck.rows(letters_store, "SELECT segment, year FROM segment_list"))
+mtest.check(stored_years == letter_years, "the letters' years: stored %r, lxml %r" % (stored_years, letter_years))
+
 mtest.done()
