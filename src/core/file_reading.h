@@ -38,7 +38,8 @@ struct SelectionRules;
 // action a conjecture; publicationStmt, editionStmt, revisionDesc and (but for a letter's
 // sending) correspDesc date no work; a teiCorpus's cast list names every play's voices.
 // 8: a teiCorpus file is dated by its own header alone (a text none dates is undated, not
-// dated by the first text); a <name> of a place in a sent correspAction is no sender.
+// dated by the first text); a <name> of a place in a sent correspAction is no sender; the
+// earliest sending is the earliest date, not the first of the earliest year.
 constexpr int kReadingRevision = 8;
 
 // What the edition's own header says (the first TEI element's teiHeader, with a

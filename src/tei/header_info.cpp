@@ -29,11 +29,36 @@ bool better_date(const std::string& kept, const std::string& candidate) {
 
 namespace {
 
-// The one of `dates` with the earliest year; nullptr when none has a year.
+bool is_digit(char c) { return c >= '0' && c <= '9'; }
+
+// What an ISO 8601 / XML Schema date gives after its year ("-05-07" of "1876-05-07", "" of
+// "1876"), which orders the dates of one year as written; "~", after every such part, for a
+// date written otherwise ("15 May 1876"), so that a date of that year in ISO form comes first.
+std::string within_year(const std::string& d) {
+  std::size_t at = !d.empty() && d[0] == '-' ? 1 : 0;
+  for (std::size_t end = at + 4; at < end; ++at)
+    if (at >= d.size() || !is_digit(d[at])) return "~";
+  const std::string rest = d.substr(at);
+  // "-" and two digits at `i` of rest
+  const auto dash_two_digits = [&](std::size_t i) {
+    return i + 2 < rest.size() && rest[i] == '-' && is_digit(rest[i + 1]) && is_digit(rest[i + 2]);
+  };
+  if (rest.empty()) return rest;                                // YYYY
+  if (rest.size() == 3 && dash_two_digits(0)) return rest;      // YYYY-MM
+  if (dash_two_digits(0) && dash_two_digits(3) && (rest.size() == 6 || rest[6] == 'T')) return rest;  // YYYY-MM-DD[T...]
+  return "~";
+}
+
+// The earliest of `dates` by year, then within the year as within_year orders them (the
+// first written among equals); nullptr when none has a year.
 const std::string* earliest_dated(const std::vector<std::string>& dates) {
   const std::string* earliest = nullptr;
-  for (const std::string& d : dates)
-    if (first_year(d) != 0 && (!earliest || first_year(d) < first_year(*earliest))) earliest = &d;
+  for (const std::string& d : dates) {
+    if (first_year(d) == 0) continue;
+    if (!earliest || first_year(d) < first_year(*earliest) ||
+        (first_year(d) == first_year(*earliest) && within_year(d) < within_year(*earliest)))
+      earliest = &d;
+  }
   return earliest;
 }
 

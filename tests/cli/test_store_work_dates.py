@@ -23,7 +23,7 @@ sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
 from lxml import etree  # noqa: E402
-from tei_dates import TEI, work_year  # noqa: E402
+from tei_dates import TEI, work_date, work_year  # noqa: E402
 
 WORDS = " ".join(["the ferry left the north pier at dawn and the keeper wrote it down"] * 8)
 
@@ -76,6 +76,13 @@ EDITIONS = {
         '<date when="1847-01-01"/></correspAction></correspDesc>'
         '<correspDesc><correspAction type="sent"><persName>Ada Pellow</persName><date>May 1848</date>'
         '</correspAction></correspDesc></profileDesc>')),
+    # Letters of one year not in order: the earliest date, not the first of the earliest year.
+    "letters-one-year": (1876, edition(
+        "Ferry letters of one summer", '<date when="2024-05-01"/>', "<p>Invented.</p>",
+        '<profileDesc>' + "".join(
+            '<correspDesc><correspAction type="sent"><persName>Ada Pellow</persName><date when="%s"/>'
+            '</correspAction></correspDesc>' % when for when in ("1877-05-02", "1876-05-15", "1876-06-18", "1876-05-07"))
+        + '</profileDesc>')),
     # Empty dates say nothing and are passed by: the creation's, and the first in a bibl.
     "empty-dates": (1850, edition(
         "Ferry log with empty dates", "",
@@ -97,6 +104,8 @@ EDITIONS = {
     "undated": (None, edition("Ferry notes without a date")),
 }
 
+FULL_DATES = {"letters-one-year": "1876-05-07"}
+
 with tempfile.TemporaryDirectory() as tmp:
     archive = os.path.join(tmp, "archive")
     os.makedirs(archive)
@@ -117,6 +126,14 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check(read == year, "%s: lxml reads %r, the edition was made for %r" % (name, read, year))
         mtest.check((stored[name][1] or None) == year, "%s: stored date %r, year %r; expected %r" % (
             name, stored[name][0], stored[name][1], year))
+
+    # The full date where the edition was made for one (docs/store.md: the earliest date a
+    # letter was sent), by construction and by lxml (tests/pylib/tei_dates.py).
+    for name, date in FULL_DATES.items():
+        root = etree.parse(os.path.join(archive, name + ".xml")).getroot()
+        read = work_date(root, root.find(TEI + "teiHeader"))
+        mtest.check(read == date and stored[name][0] == date, "%s: stored date %r, lxml reads %r; expected %r" % (
+            name, stored[name][0], read, date))
 
     # --years takes the files dated in range; an undated file is in none.
     # (the files of each range by the years the editions were made for)

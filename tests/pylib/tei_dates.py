@@ -27,9 +27,18 @@ def signed_year(value):
     return -int(match.group(1)) if match else year_of(value)
 
 
+def _within_year(value):
+    """What an ISO 8601 / XML Schema date gives after its year ("-05-07" of "1876-05-07", ""
+    of "1876"), so that the dates of one year sort as written (months, then days); "~",
+    after all of those, for a date written otherwise."""
+    match = re.fullmatch(r"-?\d{4}((-\d\d(-\d\d(T.*)?)?)?)", value, re.S)
+    return match.group(1) if match else "~"
+
+
 def _earliest(values):
-    """The value of the earliest year among `values`; "" when none has a year."""
-    return min((v for v in values if year_of(v) is not None), key=year_of, default="")
+    """The earliest of `values` (docs/store.md: the earliest date): by year, then within the
+    year by _within_year, the first written among equals; "" when none has a year."""
+    return min((v for v in values if year_of(v) is not None), key=lambda v: (year_of(v), _within_year(v)), default="")
 
 
 def _bibl_type(date):
