@@ -12,6 +12,60 @@ namespace {
 
 std::string file_stem_of(const std::string& segment_id) { return segment_id.substr(0, segment_id.find('#')); }
 
+// A name as compared between files: ASCII letters folded, white space runs made one space.
+std::string name_key(const std::string& name) {
+  std::string out;
+  for (char c : name) {
+    const bool space = c == ' ' || c == '\t' || c == '\n' || c == '\r';
+    if (space) {
+      if (!out.empty() && out.back() != ' ') out += ' ';
+    } else {
+      out += static_cast<char>(c >= 'A' && c <= 'Z' ? c + ('a' - 'A') : c);
+    }
+  }
+  while (!out.empty() && out.back() == ' ') out.pop_back();
+  return out;
+}
+
+// A letter's sender given as a pointer into its own file ("#p1") names a person of that
+// file's header, and an xml:id is unique in its document alone (W3C xml:id 1.0): two
+// files may give one id to two people. For such a sender whose names differ between
+// files, each name is a candidate of its own, labelled by the first file (by stem, in
+// byte order) that gives it: "brink#p1" (as speakers are). A name the same in every file is one person.
+// Returns segment index -> label for the segments concerned, and a warning for each sender.
+std::map<std::size_t, std::string> senders_named_apart(const std::vector<SegmentSummary>& segments,
+                                                       std::vector<std::string>& warnings) {
+  struct Name {
+    std::string shown;             // as the first file writes it
+    std::set<std::string> files;   // stems, in order
+  };
+  std::map<std::string, std::map<std::string, Name>> names;  // sender -> name key -> name
+  for (const SegmentSummary& s : segments) {
+    if (s.unit != "letter" || s.author.size() < 2 || s.author[0] != '#') continue;
+    Name& name = names[s.author][name_key(s.label)];
+    if (name.files.empty()) name.shown = s.label;
+    name.files.insert(file_stem_of(s.id));
+  }
+  std::map<std::size_t, std::string> labels;
+  for (const auto& [sender, by_name] : names) {
+    std::set<std::string> files;
+    for (const auto& [key, name] : by_name) files.insert(name.files.begin(), name.files.end());
+    if (by_name.size() < 2 || files.size() < 2) continue;
+    std::string said;
+    for (const auto& [key, name] : by_name)
+      said += (said.empty() ? "" : "; ") + (name.shown.empty() ? std::string("no name") : "'" + name.shown + "'") +
+              " in " + *name.files.begin() +
+              (name.files.size() > 1 ? " and " + std::to_string(name.files.size() - 1) + " more file(s)" : "") +
+              ": " + *name.files.begin() + sender;
+    warnings.push_back("sender " + sender + " names different people in different files, each a candidate of its own (" +
+                       said + ")");
+    for (std::size_t i = 0; i < segments.size(); ++i)
+      if (segments[i].unit == "letter" && segments[i].author == sender)
+        labels[i] = *by_name.at(name_key(segments[i].label)).files.begin() + sender;
+  }
+  return labels;
+}
+
 std::string edition_label(const SegmentSummary& s) {
   if (s.author.empty()) return {};
   return s.unit == "speaker" ? file_stem_of(s.id) + "#" + s.author : s.author;
@@ -37,15 +91,20 @@ SegmentRoles assign_roles(const Analysis& analysis, const AttributionOptions& op
   for (std::size_t r = 0; r < analysis.table_rows.size(); ++r) roles.table_row[analysis.table_rows[r]] = r;
 
   // Edition labels first, then the labels file over them.
+  const std::map<std::size_t, std::string> senders_apart = senders_named_apart(analysis.segments, roles.warnings);
+  const auto edition_label_of = [&](std::size_t i) {
+    const auto apart = senders_apart.find(i);
+    return apart != senders_apart.end() ? apart->second : edition_label(analysis.segments[i]);
+  };
   std::vector<std::string> label(n);
   std::vector<bool> questioned(n, true);
   for (std::size_t i = 0; i < n; ++i) {
     const SegmentSummary& s = analysis.segments[i];
     if (s.authorship == Authorship::known && !s.author.empty()) {
-      label[i] = edition_label(s);
+      label[i] = edition_label_of(i);
       questioned[i] = false;
     } else if (s.authorship == Authorship::conjectured) {
-      roles.conjecture[i] = edition_label(s);
+      roles.conjecture[i] = edition_label_of(i);
     }
   }
   std::map<std::string, std::size_t> index;

@@ -224,10 +224,21 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
   // (an @ref may name an entry its edition lacks; files read but not written into are not
   // scanned). Editions are pointed at where their elements are, as segments are.
   constexpr std::size_t kNone = static_cast<std::size_t>(-1);
+  // A label "brink#p1" (a sender id that names different people in different files, told
+  // apart by file: segment_roles.cpp) points into the edition of that file alone.
   auto person_pointer_from = [&](const std::string& document, std::size_t self) {
     return [&, document, self](const std::string& label, std::size_t nearest) -> std::string {
-      const std::string id = label.substr(1);
+      const std::size_t hash = label.find('#');
+      const std::string id = label.substr(hash + 1);
       const auto has = [&](std::size_t k) { return k != kNone && k < open.size() && open[k].scan.xml_ids.count(id); };
+      if (hash > 0) {
+        const std::string stem = label.substr(0, hash + 1);  // "brink#", as segment ids begin
+        std::size_t holder = kNone;
+        for (std::size_t s = 0; holder == kNone && s < analysis.segments.size(); ++s)
+          if (analysis.segments[s].id.rfind(stem, 0) == 0 && edition_of[s] != kNoEdition) holder = edition_of[s];
+        if (!has(holder)) return "";
+        return holder == self ? "#" + id : relative_uri(document, open[holder].snapshot->path) + "#" + id;
+      }
       if (has(self)) return "#" + id;
       std::size_t holder = has(edition_of[nearest]) ? edition_of[nearest] : kNone;
       for (std::size_t k = 0; holder == kNone && k < open.size(); ++k)

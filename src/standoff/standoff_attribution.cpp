@@ -16,9 +16,13 @@ using namespace tei_fs;
 namespace {
 
 // A candidate label that is a pointer into the edition ("#p-pellow", a person's id from
-// @who or correspAction/persName/@ref), as this document points at it (StandoffTarget).
+// @who or correspAction/persName/@ref; "brink#p1", one file's, where files give the id to
+// different people), as this document points at it (StandoffTarget).
 std::string candidate_pointer(const StandoffTarget& target, const std::string& label, std::size_t nearest_segment) {
-  if (!target.person_pointer || label.size() < 2 || label[0] != '#' || label.find(' ') != std::string::npos) return "";
+  const std::size_t hash = label.find('#');
+  if (!target.person_pointer || hash == std::string::npos || hash + 1 >= label.size() ||
+      label.find(' ') != std::string::npos)
+    return "";
   return target.person_pointer(label, nearest_segment);
 }
 

@@ -1,0 +1,99 @@
+"""Letter senders given by a pointer into their own file (`<persName ref="#p1">`), where two
+files give one id to two people.
+
+An xml:id is unique in its document alone (W3C xml:id 1.0), so "#p1" of one edition and
+"#p1" of another need not be one person. The senders were pooled into one candidate, so
+that Anna Brink's letters and Kit Dunnock's stood for one hand. docs/attribution.md: where
+one id names people of different names in different files, each name is a candidate of its
+own, labelled by the first file (by stem) that gives it, "brink#p1"; a name the same in
+every file is one person. Reference: lxml reads each letter's sender pointer and name (the
+editions are invented and valid by jing); the candidates expected follow from them by that
+rule, for `attribute` on the files and for `analyse-store --attribute` over a store, and
+the annotation written into an edition points each candidate at its own file's person.
+"""
+import json
+import os
+import random
+import sys
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
+import mtest  # noqa: E402
+import storecheck  # noqa: E402
+from invented_letters import write_letters, zipf_words  # noqa: E402
+from lxml import etree  # noqa: E402
+from standoff_check import NS, jing_errors  # noqa: E402
+
+tmp = mtest.scratch_folder("manicule-sender-ids-")
+archive = os.path.join(tmp, "archive")
+os.makedirs(archive)
+rng = random.Random(20261205)
+ANNA = {"the": 1.6, "of": 0.6, "which": 3.0}
+KIT = {"and": 1.8, "so": 3.0, "then": 2.5}
+
+
+def letters(prefix, count, key, name, bias):
+    return [("%s%d" % (prefix, k + 1), key, name, zipf_words(rng, 450, bias)) for k in range(count)]
+
+
+paths = [
+    # Anna Brink is p1 of her own edition, which also keeps one letter signed "Unknown"
+    write_letters(archive, "brink.xml", letters("b", 3, "p1", "Anna Brink", ANNA)
+                  + letters("q", 1, "unknown", "Unknown", ANNA)),
+    # and Kit Dunnock p1 of his
+    write_letters(archive, "dunnock.xml", letters("d", 3, "p1", "Kit Dunnock", KIT)),
+    # while a third edition gives Anna Brink the same id as the first
+    write_letters(archive, "wren.xml", letters("w", 2, "p1", "Anna Brink", ANNA)),
+]
+invalid = {p: e for p, e in jing_errors(mtest.SCHEMA, paths).items() if e}
+mtest.check(not invalid, "the invented editions are not valid TEI: %r" % invalid)
+
+# lxml: each letter's sender pointer and name (its correspDesc, named by @decls).
+senders = {}  # segment id -> (pointer, name)
+for path in paths:
+    root = etree.parse(path).getroot()
+    stem = os.path.splitext(os.path.basename(path))[0]
+    for div in root.iter("{%s}div" % NS["tei"]):
+        desc = root.xpath("//tei:correspDesc[@xml:id=$id]", namespaces=NS, id=div.get("decls")[1:])[0]
+        pers = desc.find("tei:correspAction/tei:persName", NS)
+        senders[stem + "#" + div.get("{http://www.w3.org/XML/1998/namespace}id")] = (pers.get("ref"), pers.text)
+# The rule: a pointer whose names differ between files is labelled per name by the first
+# file (by stem) that gives that name; a placeholder ("Unknown") is no sender.
+names_of = {}
+for segment, (pointer, name) in senders.items():
+    names_of.setdefault(pointer, {}).setdefault(name, set()).add(segment.split("#")[0])
+expected = set()
+for segment, (pointer, name) in senders.items():
+    if name == "Unknown":
+        continue
+    expected.add(min(names_of[pointer][name]) + pointer if len(names_of[pointer]) > 1 else pointer)
+mtest.check(expected == {"brink#p1", "dunnock#p1"}, "the rule gives %r" % sorted(expected))
+
+# On the files.
+doc = json.loads(mtest.run(["attribute", "--unit", "letter", "--min-tokens", "200", "--format", "json"] + paths).stdout)
+for result in doc["attributions"]:
+    got = {c["candidate"] for c in result["candidates"]}
+    mtest.check(got == expected, "attribute ranked %r for %s; the rule gives %r" % (sorted(got), result["segment"],
+                                                                                   sorted(expected)))
+mtest.check([r["segment"] for r in doc["attributions"]] == ["brink#q1"], "questioned: %r" % doc["attributions"])
+said = json.dumps(doc)
+mtest.check("sender #p1 names different people" in said, "no warning that #p1 names two people: " + said[:2000])
+
+# Over a store.
+store = os.path.join(tmp, "letters.sqlite")
+mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"])
+mtest.run(["analyse-store", "--store", store, "--min-tokens", "200", "--attribute"])
+run, _ = storecheck.latest_analysis(store)
+stored = {c for (c,) in storecheck.rows(store, "SELECT DISTINCT candidate FROM attributions WHERE run_id = ?", (run,))}
+mtest.check(stored == expected, "analyse-store --attribute ranked %r; the rule gives %r" % (sorted(stored), sorted(expected)))
+
+# Written into Anna Brink's edition: each candidate points at its own file's person.
+mtest.run(["annotate", "--unit", "letter", "--min-tokens", "200", "--attribute", "--in-place"] + paths)
+root = etree.parse(paths[0]).getroot()
+pointers = {s.text: s.get("corresp") for s in root.xpath("//tei:fs[@type='candidateDistance']/tei:f[@name='candidate']"
+                                                         "/tei:string", namespaces=NS)}
+mtest.check(pointers.get("brink#p1") == "#p1" and pointers.get("dunnock#p1") == "dunnock.xml#p1",
+            "candidate pointers in brink.xml: %r" % pointers)
+errors = jing_errors(mtest.SCHEMA, [paths[0]])[paths[0]]
+mtest.check(not errors, "tei_all (jing) rejects the annotated edition: %s" % errors)
+
+mtest.done()
