@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <future>
+#include <map>
 
 #include "attribution/attribute.h"
 #include "attribution/candidate_ranking.h"
@@ -142,11 +143,35 @@ std::string mixed_languages_note(const StoredCorpus& stored) {
          "language before the style; --language LANG analyses one language at a time";
 }
 
+// Said when one content is analysed under several paths (a file copied into another folder
+// of the archive): each copy's segments are measured apart, each the other's nearest at
+// distance 0, and count twice in the features' means. Empty when there is no copy.
+std::string copies_note(const StoredCorpus& stored) {
+  std::map<std::string, std::vector<std::string>> paths_of;  // content -> paths, in order read
+  for (std::size_t f = 0; f < stored.corpus.files.size(); ++f)
+    if (f < stored.corpus.file_sha256.size() && !stored.corpus.file_sha256[f].empty())
+      paths_of[stored.corpus.file_sha256[f]].push_back(stored.corpus.files[f]);
+  std::size_t contents = 0;
+  std::string shown;
+  for (const auto& [content, paths] : paths_of) {
+    if (paths.size() < 2) continue;
+    if (++contents > 3) continue;
+    std::string same;
+    for (const std::string& path : paths) same += (same.empty() ? "" : " = ") + path;
+    shown += (shown.empty() ? "" : "; ") + same;
+  }
+  if (!contents) return {};
+  return std::to_string(contents) + " content(s) analysed under more than one path, each copy measured apart (each " +
+         "the other's nearest segments, at distance 0): " + shown + (contents > 3 ? "; and more" : "") +
+         " (--folder takes one folder's copy; the files table gives each path's sha256)";
+}
+
 // What the choice of segments left out or mixed, as notes for the user: segments in several
 // languages, too few words, no year for --years, files with no segment long enough.
 void add_selection_notes(const ArchiveFilter& filter, std::size_t min_tokens, const StoredSelection& selection,
                          const StoredCorpus& stored, std::size_t files_used, std::vector<std::string>& notes) {
   if (const std::string note = mixed_languages_note(stored); !note.empty()) notes.push_back(note);
+  if (const std::string note = copies_note(stored); !note.empty()) notes.push_back(note);
   if (stored.segments_too_short)
     notes.push_back(std::to_string(stored.segments_too_short) + " segment(s) shorter than " +
                     std::to_string(min_tokens) + " words left out");
