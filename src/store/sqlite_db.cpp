@@ -18,6 +18,11 @@ std::string message_for(int code, const std::string& path, std::string_view doin
     return "the store " + path + " is in use by another program (a manicule batch, analyse-store or merge, or " +
            "an SQLite client such as the sqlite3 shell holding it open); wait for it to finish or close it, or use "
            "another store";
+  // Where the disk filled, what was being written says nothing to a user (it was a piece of
+  // SQL); what matters is that the store keeps what it held, and what to do.
+  if (primary == SQLITE_FULL)
+    return "store " + path + ": the disk is full: the change being written was rolled back, and the store keeps " +
+           "what it held before it; make room and run the command again (a batch goes on where this one stopped)";
   std::string detail = db ? sqlite3_errmsg(db) : sqlite3_errstr(code);
   if (primary == SQLITE_NOTADB || primary == SQLITE_CORRUPT)
     return path + " is not a manicule store (or is damaged): " + detail;
