@@ -11,8 +11,12 @@ std::string analysis_key(const nlohmann::json& parameters, const StoredSelection
   Sha256 h;
   std::string p = json_text(parameters);
   h.update(p.data(), p.size());
+  // Each file's stem too: the segments' ids begin with it, and it changes when a file of
+  // the same name joins the store elsewhere; an analysis stored with the ids of before is
+  // then not the answer.
   for (std::size_t i = 0; i < selection.paths.size(); ++i) {
-    std::string line = "\n" + selection.paths[i] + "\t" + selection.sha256[i];
+    std::string line = "\n" + selection.paths[i] + "\t" + selection.sha256[i] + "\t" +
+                       (i < selection.stems.size() ? selection.stems[i] : std::string());
     h.update(line.data(), line.size());
   }
   return h.hex_digest();

@@ -3,7 +3,7 @@
 // deviations (features), each segment's k nearest segments (neighbours), PCA components and
 // coordinates, and attributions when an attribution step supplies them. Written in one
 // transaction: an analysis is in the store whole or not at all.
-// The run's analysis_key, the SHA-256 of its parameters and of every (path, SHA-256) used,
+// The run's analysis_key, the SHA-256 of its parameters and of every (path, SHA-256, stem) used,
 // finds an earlier identical analysis, so asking the same question again costs nothing.
 #pragma once
 #include <cstdint>

@@ -97,4 +97,29 @@ with tempfile.TemporaryDirectory() as tmp:
                         "%s and %s are not each other's nearest: %s, %s"
                         % (segment, twin, nearest.get(segment), nearest.get(twin)))
 
+    # An analysis asked again after a file of the same name as one it took joins the store:
+    # nothing it took has changed, but its ids have (stray#... becomes misc/stray#...), so
+    # the stored analysis must not be given back with the ids of before (os.path.relpath
+    # gives the expected prefix; segment_list names the stored segments now).
+    second = os.path.join(tmp, "second")
+    os.makedirs(os.path.join(second, "misc"))
+    with open(os.path.join(second, "misc", "stray.xml"), "w", encoding="utf-8") as f:
+        f.write(letters)
+    second_store = os.path.join(tmp, "second.sqlite")
+    mtest.run(["batch", second, "--store", second_store, "--unit", "letter", "--quiet"])
+    ask = ["analyse-store", "--store", second_store, "--min-tokens", "200", "--quiet", "--folder", "misc"]
+    mtest.run(ask)
+    os.makedirs(os.path.join(second, "other"))
+    with open(os.path.join(second, "other", "stray.xml"), "w", encoding="utf-8") as f:
+        f.write(letters.replace("<p>The ", "<p>This "))
+    mtest.run(["batch", second, "--store", second_store, "--unit", "letter", "--quiet"])
+    mtest.run(ask)
+    db = sqlite3.connect(second_store)
+    last = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
+    analysed = db.execute("SELECT segment FROM analysis_segments WHERE run_id = ?", (last,)).fetchall()
+    view = set(db.execute("SELECT segment FROM segment_list").fetchall())
+    db.close()
+    mtest.check(len(analysed) == 12 and all(s.startswith("misc/stray#") and (s,) in view for (s,) in analysed),
+                "the analysis asked again names its segments %r" % sorted(analysed)[:3])
+
 mtest.done()
