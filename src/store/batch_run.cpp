@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <chrono>
+#include <cstdio>
 #include <filesystem>
 #include <map>
 #include <memory>
@@ -38,12 +39,24 @@ struct StoredFile {
   bool read = false;  // a reading of this content under these settings is stored (so sha256 is set)
   bool failed = false;
   std::string error;
+  std::string read_error;  // why it could not be read at all when last listed (no sha256 then)
 };
+
+// Whether a file that could not be opened when last listed still cannot: a link to nothing,
+// a file without permission to read it. Such a file as it was is no change, so that a
+// re-run over an archive holding one writes nothing (the open is tried, not assumed: a
+// link whose target comes back, or a permission granted, leaves its stat as it was).
+bool still_unreadable(const std::string& path) {
+  std::FILE* f = std::fopen(path.c_str(), "rb");
+  if (!f) return true;
+  std::fclose(f);
+  return false;
+}
 
 std::unordered_map<std::string, StoredFile> stored_files(Database& db, std::int64_t settings_id) {
   std::unordered_map<std::string, StoredFile> out;
   Statement all = db.prepare(
-      "SELECT f.path, f.relative_path, f.size, f.mtime_ns, f.sha256, r.status, r.error "
+      "SELECT f.path, f.relative_path, f.size, f.mtime_ns, f.sha256, r.status, r.error, f.read_error "
       "FROM files f LEFT JOIN readings r ON r.sha256 = f.sha256 AND r.settings_id = ?1");
   all.bind(1, settings_id);
   while (all.step()) {
@@ -55,6 +68,7 @@ std::unordered_map<std::string, StoredFile> stored_files(Database& db, std::int6
     f.read = !all.is_null(5);
     f.failed = f.read && all.text_at(5) == "failed";
     f.error = all.text_at(6);
+    f.read_error = all.is_null(4) ? all.text_at(7) : std::string();
   }
   return out;
 }
@@ -235,6 +249,12 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
         p->second.mtime_ns == f.mtime_ns && p->second.read) {
       ++counters.files_unchanged;
       if (p->second.failed) failing[f.path] = failure_for(p->second.error, f.path);
+      continue;
+    }
+    if (!options.verify_hashes && known_settings && p != previous.end() && !p->second.read_error.empty() &&
+        p->second.size == f.size && p->second.mtime_ns == f.mtime_ns && still_unreadable(f.path)) {
+      ++counters.files_unchanged;
+      failing[f.path] = p->second.read_error;
       continue;
     }
     to_open.push_back(i);

@@ -100,6 +100,12 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
       ++out.files_filtered_out;
       continue;
     }
+    if (files.is_null(2)) {
+      // Unreadable when last listed (a link to nothing, no permission): no content, so no
+      // header to pass, and batch with these settings would not read it either.
+      ++(filter.selects_by_header() ? out.files_filtered_out : out.files_failed);
+      continue;
+    }
     if (files.is_null(3)) {  // not read with these settings: its header may yet pass
       ++out.files_not_read;
       continue;
