@@ -31,7 +31,9 @@ std::string name_key(const std::string& name) {
 // file's header, and an xml:id is unique in its document alone (W3C xml:id 1.0): two
 // files may give one id to two people. For such a sender whose names differ between
 // files, each name is a candidate of its own, labelled by the first file (by stem, in
-// byte order) that gives it: "brink#p1" (as speakers are). A name the same in every file is one person.
+// byte order) that gives it: "brink#p1" (as speakers are). A name the same in every file
+// is one person. The names are those of the letters the edition is sure of; a conjectured
+// one takes the label of its name among them, else its own file's.
 // Returns segment index -> label for the segments concerned, and a warning for each sender.
 std::map<std::size_t, std::string> senders_named_apart(const std::vector<SegmentSummary>& segments,
                                                        std::vector<std::string>& warnings) {
@@ -40,8 +42,11 @@ std::map<std::size_t, std::string> senders_named_apart(const std::vector<Segment
     std::set<std::string> files;   // stems, in order
   };
   std::map<std::string, std::map<std::string, Name>> names;  // sender -> name key -> name
+  const auto local_sender = [](const SegmentSummary& s) {
+    return s.unit == "letter" && s.author.size() > 1 && s.author[0] == '#';
+  };
   for (const SegmentSummary& s : segments) {
-    if (s.unit != "letter" || s.author.size() < 2 || s.author[0] != '#') continue;
+    if (!local_sender(s) || s.authorship != Authorship::known) continue;
     Name& name = names[s.author][name_key(s.label)];
     if (name.files.empty()) name.shown = s.label;
     name.files.insert(file_stem_of(s.id));
@@ -59,9 +64,11 @@ std::map<std::size_t, std::string> senders_named_apart(const std::vector<Segment
               ": " + *name.files.begin() + sender;
     warnings.push_back("sender " + sender + " names different people in different files, each a candidate of its own (" +
                        said + ")");
-    for (std::size_t i = 0; i < segments.size(); ++i)
-      if (segments[i].unit == "letter" && segments[i].author == sender)
-        labels[i] = *by_name.at(name_key(segments[i].label)).files.begin() + sender;
+    for (std::size_t i = 0; i < segments.size(); ++i) {
+      if (!local_sender(segments[i]) || segments[i].author != sender) continue;
+      const auto named = by_name.find(name_key(segments[i].label));
+      labels[i] = (named != by_name.end() ? *named->second.files.begin() : file_stem_of(segments[i].id)) + sender;
+    }
   }
   return labels;
 }
