@@ -10,12 +10,13 @@ namespace manicule {
 
 namespace {
 
-std::string file_stem_of(const std::string& segment_id) { return segment_id.substr(0, segment_id.find('#')); }
-
-// A name as compared between files: ASCII letters folded, white space runs made one space.
+// A name as compared between files: ASCII letters folded, white space runs made one space,
+// and the brackets and question marks an editor queries a name with left out ("[Anna
+// Brink?]" is Anna Brink conjectured, as the reader keys it).
 std::string name_key(const std::string& name) {
   std::string out;
   for (char c : name) {
+    if (c == '[' || c == ']' || c == '?') continue;
     const bool space = c == ' ' || c == '\t' || c == '\n' || c == '\r';
     if (space) {
       if (!out.empty() && out.back() != ' ') out += ' ';
@@ -49,7 +50,7 @@ std::map<std::size_t, std::string> senders_named_apart(const std::vector<Segment
     if (!local_sender(s) || s.authorship != Authorship::known) continue;
     Name& name = names[s.author][name_key(s.label)];
     if (name.files.empty()) name.shown = s.label;
-    name.files.insert(file_stem_of(s.id));
+    name.files.insert(s.id_prefix());
   }
   std::map<std::size_t, std::string> labels;
   for (const auto& [sender, by_name] : names) {
@@ -67,7 +68,7 @@ std::map<std::size_t, std::string> senders_named_apart(const std::vector<Segment
     for (std::size_t i = 0; i < segments.size(); ++i) {
       if (!local_sender(segments[i]) || segments[i].author != sender) continue;
       const auto named = by_name.find(name_key(segments[i].label));
-      labels[i] = (named != by_name.end() ? *named->second.files.begin() : file_stem_of(segments[i].id)) + sender;
+      labels[i] = (named != by_name.end() ? *named->second.files.begin() : segments[i].id_prefix()) + sender;
     }
   }
   return labels;
@@ -75,7 +76,7 @@ std::map<std::size_t, std::string> senders_named_apart(const std::vector<Segment
 
 std::string edition_label(const SegmentSummary& s) {
   if (s.author.empty()) return {};
-  return s.unit == "speaker" ? file_stem_of(s.id) + "#" + s.author : s.author;
+  return s.unit == "speaker" ? s.id_prefix() + "#" + s.author : s.author;
 }
 
 }  // namespace

@@ -34,6 +34,15 @@ struct SegmentSummary {
   bool measured = false;   // in the feature table (passed the minimum size)
   std::string excluded_reason;  // why not, when not measured
   std::vector<std::string> warnings;
+
+  // The file's part of the id, all before "#" and the local id ("ferry-letters" of
+  // "ferry-letters#L07"): a file's name may hold a '#' itself, a local id may not end
+  // the id otherwise.
+  std::string id_prefix() const {
+    const std::size_t tail = local_id.size() + 1;
+    if (id.size() > tail && id.compare(id.size() - tail, tail, "#" + local_id) == 0) return id.substr(0, id.size() - tail);
+    return id.substr(0, id.find('#'));
+  }
 };
 
 struct Neighbour {

@@ -225,17 +225,20 @@ std::vector<PreparedOutput> prepare_annotation(Analysis& analysis, const std::ve
   // scanned). Editions are pointed at where their elements are, as segments are.
   constexpr std::size_t kNone = static_cast<std::size_t>(-1);
   // A label "brink#p1" (a sender id that names different people in different files, told
-  // apart by file: segment_roles.cpp) points into the edition of that file alone.
+  // apart by file: segment_roles.cpp; a speaker "play#anna") points into the edition of
+  // that file alone, found by its segments' id prefix. (The id is all after the last '#':
+  // an xml:id holds none, a file's name may.)
+  std::map<std::string, std::size_t> edition_of_prefix;
+  for (std::size_t s = 0; s < analysis.segments.size(); ++s)
+    if (edition_of[s] != kNoEdition) edition_of_prefix.emplace(analysis.segments[s].id_prefix(), edition_of[s]);
   auto person_pointer_from = [&](const std::string& document, std::size_t self) {
     return [&, document, self](const std::string& label, std::size_t nearest) -> std::string {
-      const std::size_t hash = label.find('#');
+      const std::size_t hash = label.rfind('#');
       const std::string id = label.substr(hash + 1);
       const auto has = [&](std::size_t k) { return k != kNone && k < open.size() && open[k].scan.xml_ids.count(id); };
       if (hash > 0) {
-        const std::string stem = label.substr(0, hash + 1);  // "brink#", as segment ids begin
-        std::size_t holder = kNone;
-        for (std::size_t s = 0; holder == kNone && s < analysis.segments.size(); ++s)
-          if (analysis.segments[s].id.rfind(stem, 0) == 0 && edition_of[s] != kNoEdition) holder = edition_of[s];
+        const auto prefixed = edition_of_prefix.find(label.substr(0, hash));
+        const std::size_t holder = prefixed != edition_of_prefix.end() ? prefixed->second : kNone;
         if (!has(holder)) return "";
         return holder == self ? "#" + id : relative_uri(document, open[holder].snapshot->path) + "#" + id;
       }

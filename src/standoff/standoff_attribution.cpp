@@ -19,7 +19,7 @@ namespace {
 // @who or correspAction/persName/@ref; "brink#p1", one file's, where files give the id to
 // different people), as this document points at it (StandoffTarget).
 std::string candidate_pointer(const StandoffTarget& target, const std::string& label, std::size_t nearest_segment) {
-  const std::size_t hash = label.find('#');
+  const std::size_t hash = label.rfind('#');
   if (!target.person_pointer || hash == std::string::npos || hash + 1 >= label.size() ||
       label.find(' ') != std::string::npos)
     return "";

@@ -50,14 +50,18 @@ std::string warnings_sentences(std::vector<std::string> warnings, const Candidat
 
 // Only pointers get a name: any other candidate label (an author's name from a titleStmt,
 // a speaker "play#anna", a labels file's word) already is what people call it. The name
-// most of the author's letters of sure sender give, else of any sender.
+// most of the author's letters of sure sender give, else of any sender; also under the
+// label of a sender id told apart by file ("brink#p1": segment_roles.cpp), from that
+// file's letters.
 CandidateNames candidate_names(const Analysis& analysis) {
   std::map<std::string, std::map<std::string, std::size_t>> sure, any;
   for (const SegmentSummary& s : analysis.segments) {
     if (s.author.size() < 2 || s.author[0] != '#' || s.unit == "speaker") continue;
     if (s.label.empty() || s.label == s.local_id || s.label == s.author) continue;
-    ++any[s.author][s.label];
-    if (s.authorship == Authorship::known) ++sure[s.author][s.label];
+    for (const std::string& key : {s.author, s.id_prefix() + s.author}) {
+      ++any[key][s.label];
+      if (s.authorship == Authorship::known) ++sure[key][s.label];
+    }
   }
   CandidateNames names;
   for (const auto& [author, votes] : any) {

@@ -273,4 +273,27 @@ for name, tree in trees.items():
 errors = jing_errors(mtest.SCHEMA, [first, second])
 mtest.check(not any(errors.values()), "tei_all (jing) rejects the annotated editions: %s" % errors)
 
+# --- a speaker as candidate --------------------------------------------------------------------
+# A speaker's label is qualified by its play ("ferry-play#jem", docs/attribution.md); its
+# pointer goes to the person the play's @who names (lxml: the xml:ids of the play's
+# particDesc), in the play itself, and the result is valid TEI (jing).
+play = os.path.join(tmp, "ferry-play.xml")
+shutil.copy(os.path.join(mtest.ROOT, "examples", "ferry-play.xml"), play)
+speaker_labels = os.path.join(tmp, "speakers.csv")
+with open(speaker_labels, "w") as f:
+    f.write("segment,label\nferry-play#hester,\n")  # Hester's speeches questioned
+mtest.run(["annotate", "--unit", "speaker", "--min-tokens", "200", "--attribute", "--labels", speaker_labels]
+          + SETTINGS + ["--in-place", play])
+root = etree.parse(play, PARSER).getroot()
+persons = {e.get(XML_ID) for e in root.iter(TEI + "person")}
+who = {w.lstrip("#") for sp in root.iter(TEI + "sp") for w in (sp.get("who") or "").split()}
+strings = root.xpath("//tei:fs[@type='candidateDistance']/tei:f[@name='candidate']/tei:string", namespaces=NS)
+mtest.check(strings and all(s.text.startswith("ferry-play#") and s.get("corresp") == "#" + s.text.split("#")[1]
+                            and s.text.split("#")[1] in persons & who for s in strings),
+            "speaker candidates and their pointers: %r" % [(s.text, s.get("corresp")) for s in strings])
+ptrs = root.xpath("//tei:ptr[@type='candidate']/@target", namespaces=NS)
+mtest.check(len(ptrs) == 1 and ptrs[0].lstrip("#") in persons, "the candidate ptr: %r" % ptrs)
+errors = jing_errors(mtest.SCHEMA, [play])[play]
+mtest.check(not errors, "tei_all (jing) rejects the annotated play: %s" % errors)
+
 mtest.done()

@@ -43,6 +43,8 @@ paths = [
     write_letters(archive, "dunnock.xml", letters("d", 3, "p1", "Kit Dunnock", KIT)),
     # while a third edition gives Anna Brink the same id as the first
     write_letters(archive, "wren.xml", letters("w", 2, "p1", "Anna Brink", ANNA)),
+    # and a fourth ascribes a letter to her with a query ("[Anna Brink?]": a conjecture)
+    write_letters(archive, "lark.xml", letters("c", 1, "p1", "[Anna Brink?]", ANNA)),
 ]
 invalid = {p: e for p, e in jing_errors(mtest.SCHEMA, paths).items() if e}
 mtest.check(not invalid, "the invented editions are not valid TEI: %r" % invalid)
@@ -56,17 +58,32 @@ for path in paths:
         desc = root.xpath("//tei:correspDesc[@xml:id=$id]", namespaces=NS, id=div.get("decls")[1:])[0]
         pers = desc.find("tei:correspAction/tei:persName", NS)
         senders[stem + "#" + div.get("{http://www.w3.org/XML/1998/namespace}id")] = (pers.get("ref"), pers.text)
-# The rule: a pointer whose names differ between files is labelled per name by the first
-# file (by stem) that gives that name; a placeholder ("Unknown") is no sender.
+# The rule: a pointer whose names differ between files (among the letters the edition is
+# sure of) is labelled per name by the first file (by stem) that gives that name; a
+# placeholder ("Unknown") is no sender, and a queried name ("[Anna Brink?]") a conjecture,
+# which takes the label of the same name without its query marks.
+def queried(name):
+    return "?" in name
+
+
+def plain(name):
+    return name.replace("[", "").replace("]", "").replace("?", "")
+
+
 names_of = {}
 for segment, (pointer, name) in senders.items():
-    names_of.setdefault(pointer, {}).setdefault(name, set()).add(segment.split("#")[0])
-expected = set()
-for segment, (pointer, name) in senders.items():
-    if name == "Unknown":
-        continue
-    expected.add(min(names_of[pointer][name]) + pointer if len(names_of[pointer]) > 1 else pointer)
-mtest.check(expected == {"brink#p1", "dunnock#p1"}, "the rule gives %r" % sorted(expected))
+    if name != "Unknown" and not queried(name):
+        names_of.setdefault(pointer, {}).setdefault(name, set()).add(segment.split("#")[0])
+
+
+def label_of(pointer, name):
+    return min(names_of[pointer][plain(name)]) + pointer if len(names_of[pointer]) > 1 else pointer
+
+
+expected = {label_of(p, n) for p, n in senders.values() if n != "Unknown" and not queried(n)}
+conjectures = {s: label_of(p, n) for s, (p, n) in senders.items() if queried(n)}
+mtest.check(expected == {"brink#p1", "dunnock#p1"} and conjectures == {"lark#c1": "brink#p1"},
+            "the rule gives %r and %r" % (sorted(expected), conjectures))
 
 # On the files.
 doc = json.loads(mtest.run(["attribute", "--unit", "letter", "--min-tokens", "200", "--format", "json"] + paths).stdout)
@@ -74,7 +91,12 @@ for result in doc["attributions"]:
     got = {c["candidate"] for c in result["candidates"]}
     mtest.check(got == expected, "attribute ranked %r for %s; the rule gives %r" % (sorted(got), result["segment"],
                                                                                    sorted(expected)))
-mtest.check([r["segment"] for r in doc["attributions"]] == ["brink#q1"], "questioned: %r" % doc["attributions"])
+mtest.check(sorted(r["segment"] for r in doc["attributions"]) == ["brink#q1", "lark#c1"],
+            "questioned: %r" % doc["attributions"])
+for result in doc["attributions"]:
+    mtest.check(result.get("edition_conjecture", "") == conjectures.get(result["segment"], ""),
+                "%s: the edition's conjecture given as %r, the rule gives %r" % (
+                    result["segment"], result.get("edition_conjecture"), conjectures.get(result["segment"])))
 said = json.dumps(doc)
 mtest.check("sender #p1 names different people" in said, "no warning that #p1 names two people: " + said[:2000])
 
@@ -93,6 +115,10 @@ pointers = {s.text: s.get("corresp") for s in root.xpath("//tei:fs[@type='candid
                                                          "/tei:string", namespaces=NS)}
 mtest.check(pointers.get("brink#p1") == "#p1" and pointers.get("dunnock#p1") == "dunnock.xml#p1",
             "candidate pointers in brink.xml: %r" % pointers)
+# and the notes name each by the name its letters give (lxml: the persName), beside its label
+notes = " ".join(n.text or "" for n in root.iter("{%s}note" % NS["tei"]) if "dunnock#p1" in (n.text or ""))
+mtest.check("Kit Dunnock (dunnock#p1)" in notes and "Anna Brink (brink#p1)" in notes,
+            "the notes do not name the candidates: %r" % notes[:600])
 errors = jing_errors(mtest.SCHEMA, [paths[0]])[paths[0]]
 mtest.check(not errors, "tei_all (jing) rejects the annotated edition: %s" % errors)
 
