@@ -14,6 +14,7 @@ the annotation written into an edition points each candidate at its own file's p
 import json
 import os
 import random
+import shutil
 import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
@@ -99,6 +100,16 @@ for result in doc["attributions"]:
                     result["segment"], result.get("edition_conjecture"), conjectures.get(result["segment"])))
 said = json.dumps(doc)
 mtest.check("sender #p1 names different people" in said, "no warning that #p1 names two people: " + said[:2000])
+
+# The same editions named with a '#' in their file names ("ed#brink.xml"; a segment id is
+# "ed#brink#b1"): the files are still told apart by their whole names.
+hashed = os.path.join(tmp, "hashed")
+os.makedirs(hashed)
+hashed_paths = [shutil.copy(p, os.path.join(hashed, "ed#" + os.path.basename(p))) for p in paths]
+doc = json.loads(mtest.run(["attribute", "--unit", "letter", "--min-tokens", "200", "--format", "json"]
+                           + hashed_paths).stdout)
+got = {c["candidate"] for result in doc["attributions"] for c in result["candidates"]}
+mtest.check(got == {"ed#" + label for label in expected}, "with '#' in the file names: %r" % sorted(got))
 
 # Over a store.
 store = os.path.join(tmp, "letters.sqlite")
