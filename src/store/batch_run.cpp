@@ -13,6 +13,7 @@
 
 #include "core/corpus_stream.h"
 #include "core/error.h"
+#include "core/regular_file.h"
 #include "store/file_rows.h"
 #include "store/file_stems.h"
 #include "store/reading_writer.h"
@@ -47,10 +48,12 @@ struct StoredFile {
 // re-run over an archive holding one writes nothing (the open is tried, not assumed: a
 // link whose target comes back, or a permission granted, leaves its stat as it was).
 bool still_unreadable(const std::string& path) {
-  std::FILE* f = std::fopen(path.c_str(), "rb");
-  if (!f) return true;
-  std::fclose(f);
-  return false;
+  try {
+    std::fclose(open_regular_file(path));  // (a named pipe put there meanwhile is refused, not waited on)
+    return false;
+  } catch (const Error&) {
+    return true;
+  }
 }
 
 std::unordered_map<std::string, StoredFile> stored_files(Database& db, std::int64_t settings_id) {

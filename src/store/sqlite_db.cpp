@@ -20,8 +20,13 @@ std::string message_for(int code, const std::string& path, std::string_view doin
            "another store";
   // Where the disk filled, what was being written says nothing to a user (it was a piece of
   // SQL); what matters is that the store keeps what it held, and what to do.
+  // (SQLite keeps its temporary files in memory here: store_schema.cpp, so the disk is the store's.)
+  if (primary == SQLITE_FULL && doing == "checkpoint")
+    return "store " + path + ": the disk is full: its log (" + path + "-wal) could not be copied into it; the " +
+           "store is whole only with that log beside it, so keep the two files together, make room, and run the " +
+           "command again";
   if (primary == SQLITE_FULL)
-    return "store " + path + ": the disk is full: the change being written was rolled back, and the store keeps " +
+    return "store " + path + ": the disk is full: the change being written is not kept, and the store keeps " +
            "what it held before it; make room and run the command again (a batch goes on where this one stopped)";
   std::string detail = db ? sqlite3_errmsg(db) : sqlite3_errstr(code);
   if (primary == SQLITE_NOTADB || primary == SQLITE_CORRUPT)

@@ -100,18 +100,15 @@ StoredSelection select_stored_files(Database& db, std::int64_t settings_id, cons
       ++out.files_filtered_out;
       continue;
     }
-    if (files.is_null(2)) {
-      // Unreadable when last listed (a link to nothing, no permission): no content, so no
-      // header to pass, and batch with these settings would not read it either.
-      ++(filter.selects_by_header() ? out.files_filtered_out : out.files_failed);
-      continue;
-    }
-    if (files.is_null(3)) {  // not read with these settings: its header may yet pass
+    // A file that failed has no header, so no author, title, year or language to pass; nor
+    // has one unreadable when last listed (a link to nothing, no permission: no content),
+    // which batch with these settings would not read either.
+    const bool unreadable = files.is_null(2);
+    if (!unreadable && files.is_null(3)) {  // not read with these settings: its header may yet pass
       ++out.files_not_read;
       continue;
     }
-    if (files.text_at(3) == "failed") {
-      // A file that failed has no header, so no author, title, year or language to pass.
+    if (unreadable || files.text_at(3) == "failed") {
       ++(filter.selects_by_header() ? out.files_filtered_out : out.files_failed);
       continue;
     }
