@@ -31,9 +31,18 @@ namespace {
 
 bool is_digit(char c) { return c >= '0' && c <= '9'; }
 
-// What an ISO 8601 / XML Schema date gives after its year ("-05-07" of "1876-05-07", "" of
-// "1876"), which orders the dates of one year as written; "~", after every such part, for a
-// date written otherwise ("15 May 1876"), so that a date of that year in ISO form comes first.
+// Whether `zone` is an XML Schema time zone, or nothing: "", "Z", "+01:00", "-05:00".
+bool is_time_zone(const std::string& zone) {
+  if (zone.empty() || zone == "Z") return true;
+  return zone.size() == 6 && (zone[0] == '+' || zone[0] == '-') && is_digit(zone[1]) && is_digit(zone[2]) &&
+         zone[3] == ':' && is_digit(zone[4]) && is_digit(zone[5]);
+}
+
+// What an XML Schema date (gYear, gYearMonth, date, dateTime: TEI's teidata.temporal.w3c)
+// gives after its year, without a time zone ("-05-07" of "1876-05-07" and of
+// "1876-05-07+01:00", "" of "1876"): it orders the dates of one year as written, the less
+// precise first. "~", after every such part, for a date written otherwise ("15 May 1876"),
+// so that a date of that year in that form comes first.
 std::string within_year(const std::string& d) {
   std::size_t at = !d.empty() && d[0] == '-' ? 1 : 0;
   for (std::size_t end = at + 4; at < end; ++at)
@@ -43,9 +52,12 @@ std::string within_year(const std::string& d) {
   const auto dash_two_digits = [&](std::size_t i) {
     return i + 2 < rest.size() && rest[i] == '-' && is_digit(rest[i + 1]) && is_digit(rest[i + 2]);
   };
-  if (rest.empty()) return rest;                                // YYYY
-  if (rest.size() == 3 && dash_two_digits(0)) return rest;      // YYYY-MM
-  if (dash_two_digits(0) && dash_two_digits(3) && (rest.size() == 6 || rest[6] == 'T')) return rest;  // YYYY-MM-DD[T...]
+  if (is_time_zone(rest)) return "";                                                    // YYYY
+  if (dash_two_digits(0) && is_time_zone(rest.substr(3))) return rest.substr(0, 3);     // YYYY-MM
+  if (dash_two_digits(0) && dash_two_digits(3)) {
+    if (is_time_zone(rest.substr(6))) return rest.substr(0, 6);                         // YYYY-MM-DD
+    if (rest[6] == 'T') return rest;                                                    // YYYY-MM-DDThh:mm:ss
+  }
   return "~";
 }
 

@@ -1311,7 +1311,8 @@ std::vector<Segment> TeiWalker::finish() {
     }
     if (seg.label.empty()) seg.label = seg.local_id;  // no name, title or heading: the id
     // A teiCorpus (or TEI elements in a TEI) dates each text by its own header, else by the
-    // nearest collection's that gives a date; the file's date is its first header's.
+    // nearest collection's that gives a date; the file's date is its root header's alone
+    // (file_header), so a text none of them dates stays undated.
     if (texts_apart && seg.date.empty()) {
       // (a letter's own sending is in its correspDesc, read above: other letters' are not its date)
       const bool letter = s.rules.unit == UnitKind::letter;

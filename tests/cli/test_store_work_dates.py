@@ -83,6 +83,15 @@ EDITIONS = {
             '<correspDesc><correspAction type="sent"><persName>Ada Pellow</persName><date when="%s"/>'
             '</correspAction></correspDesc>' % when for when in ("1877-05-02", "1876-05-15", "1876-06-18", "1876-05-07"))
         + '</profileDesc>')),
+    # The same with a time zone (XML Schema's date, as teidata.temporal.w3c allows it), and
+    # a date written in words, which comes after every date of its year in that form.
+    "letters-with-zones": (1876, edition(
+        "Ferry letters of another summer", '<date when="2024-05-01"/>', "<p>Invented.</p>",
+        '<profileDesc>' + "".join(
+            '<correspDesc><correspAction type="sent"><persName>Ada Pellow</persName>%s'
+            '</correspAction></correspDesc>' % date
+            for date in ('<date>Whitsun 1876</date>', '<date when="1876-06-02"/>', '<date when="1876-05-20+01:00"/>'))
+        + '</profileDesc>')),
     # Empty dates say nothing and are passed by: the creation's, and the first in a bibl.
     "empty-dates": (1850, edition(
         "Ferry log with empty dates", "",
@@ -104,7 +113,7 @@ EDITIONS = {
     "undated": (None, edition("Ferry notes without a date")),
 }
 
-FULL_DATES = {"letters-one-year": "1876-05-07"}
+FULL_DATES = {"letters-one-year": "1876-05-07", "letters-with-zones": "1876-05-20+01:00"}
 
 with tempfile.TemporaryDirectory() as tmp:
     archive = os.path.join(tmp, "archive")

@@ -28,10 +28,13 @@ def signed_year(value):
 
 
 def _within_year(value):
-    """What an ISO 8601 / XML Schema date gives after its year ("-05-07" of "1876-05-07", ""
-    of "1876"), so that the dates of one year sort as written (months, then days); "~",
-    after all of those, for a date written otherwise."""
-    match = re.fullmatch(r"-?\d{4}((-\d\d(-\d\d(T.*)?)?)?)", value, re.S)
+    """What an XML Schema date (gYear, gYearMonth, date, dateTime; TEI's
+    teidata.temporal.w3c) gives after its year, its time zone left out ("-05-07" of
+    "1876-05-07" and of "1876-05-07Z", "" of "1876"), so that the dates of one year sort as
+    written (months, then days, the less precise first; docs/store.md); "~", after all of
+    those, for a date written otherwise."""
+    zone = r"(?:Z|[+-]\d\d:\d\d)?"
+    match = re.fullmatch(r"-?\d{4}((?:-\d\d(?:-\d\d)?)?)" + zone, value) or re.fullmatch(r"-?\d{4}(-\d\d-\d\dT.*)", value, re.S)
     return match.group(1) if match else "~"
 
 
