@@ -1,7 +1,6 @@
 #include "standoff/segment_ids_added.h"
 
 #include <unordered_map>
-#include <unordered_set>
 
 #include "core/error.h"
 
@@ -18,7 +17,7 @@ std::string wanted_id(const std::string& key) {
 void rename_segment(Analysis& analysis, std::size_t index, const std::string& local_id) {
   SegmentSummary& s = analysis.segments[index];
   std::string old_id = s.id;
-  std::string stem = s.id.substr(0, s.id.find('#'));
+  const std::string stem = s.id_prefix();
   if (s.label == s.local_id) s.label = local_id;
   s.local_id = local_id;
   s.id = stem + "#" + local_id;
@@ -38,11 +37,6 @@ AddedIds give_segments_ids(Analysis& analysis, const std::vector<std::size_t>& s
   // Ids given in this call, by element: a joint speech (who="#a #b") is a speech of each of
   // its speakers, and must get one id, not one from each.
   std::unordered_map<int, std::string> given;
-  // The edition's own ids: a segment already known by one of them (a letter that is its
-  // text's whole body, by its TEI's id) keeps its name when its element gets an id.
-  std::unordered_set<std::string> edition_ids;
-  for (const ScannedElement& e : doc.elements)
-    if (const std::string* id = e.attribute("xml:id")) edition_ids.insert(*id);
   for (std::size_t index : segments) {
     SegmentSummary& s = analysis.segments[index];
     // A speaker's segment is keyed by who speaks, not by an element: its speeches get
@@ -73,7 +67,9 @@ AddedIds give_segments_ids(Analysis& analysis, const std::vector<std::size_t>& s
         given.emplace(element, id);
       }
       pointer = "#" + id;
-      if (!speeches && s.pointers.size() == 1 && !edition_ids.count(s.local_id)) rename_segment(analysis, index, id);
+      // A segment already known by an id of the edition (a letter that is its text's whole
+      // body, by its TEI's id) keeps its name when its element gets an id.
+      if (!speeches && s.pointers.size() == 1 && !doc.xml_ids.count(s.local_id)) rename_segment(analysis, index, id);
     }
   }
   return added;

@@ -72,7 +72,7 @@ std::string StandoffBuilder::label_from_here(std::size_t segment) const {
   std::string label = s.label.empty() ? s.local_id : s.label;
   if (s.unit == "letter") label = letter_name(s);
   else if (label_count_.at(label) > 1 && label != s.local_id) label = s.local_id + " (" + label + ")";
-  return member_files_.count(s.file) ? label : label + " in " + s.id.substr(0, s.id.find('#'));
+  return member_files_.count(s.file) ? label : label + " in " + s.id_prefix();
 }
 
 XmlNode StandoffBuilder::standoff() const {

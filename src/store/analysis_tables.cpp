@@ -15,8 +15,7 @@ std::string analysis_key(const nlohmann::json& parameters, const StoredSelection
   // the same name joins the store elsewhere; an analysis stored with the ids of before is
   // then not the answer.
   for (std::size_t i = 0; i < selection.paths.size(); ++i) {
-    std::string line = "\n" + selection.paths[i] + "\t" + selection.sha256[i] + "\t" +
-                       (i < selection.stems.size() ? selection.stems[i] : std::string());
+    std::string line = "\n" + selection.paths[i] + "\t" + selection.sha256[i] + "\t" + selection.stems[i];
     h.update(line.data(), line.size());
   }
   return h.hex_digest();

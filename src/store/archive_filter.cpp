@@ -141,9 +141,7 @@ bool FolderFilter::holds(const std::string& path, const std::string& relative_pa
 }
 
 bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {
-  if (!filter.author.empty() && !author_matches(m.author, filter.author)) return false;
-  if (!filter.title.empty() && !caseless_pattern_match(filter.title, m.title)) return false;
-  return true;
+  return text_matches(filter, TextHeading{m.title, m.author, {}, 0});
 }
 
 bool text_matches(const ArchiveFilter& filter, const TextHeading& text) {

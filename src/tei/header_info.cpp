@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cctype>
+#include <utility>
 
 #include <unicode/unistr.h>
 
@@ -65,11 +66,15 @@ std::string within_year(const std::string& d) {
 // first written among equals); nullptr when none has a year.
 const std::string* earliest_dated(const std::vector<std::string>& dates) {
   const std::string* earliest = nullptr;
+  std::pair<int, std::string> earliest_key;
   for (const std::string& d : dates) {
-    if (first_year(d) == 0) continue;
-    if (!earliest || first_year(d) < first_year(*earliest) ||
-        (first_year(d) == first_year(*earliest) && within_year(d) < within_year(*earliest)))
+    const int year = first_year(d);
+    if (year == 0) continue;
+    std::pair<int, std::string> key{year, within_year(d)};
+    if (!earliest || key < earliest_key) {
       earliest = &d;
+      earliest_key = std::move(key);
+    }
   }
   return earliest;
 }

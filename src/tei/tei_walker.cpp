@@ -1196,10 +1196,15 @@ std::vector<Segment> TeiWalker::finish() {
     const HeaderInfo* naming = s.nearest_header(tei_index, [](const HeaderInfo& x) { return !x.authors.empty(); });
     return naming ? naming->authors : h.authors;
   };
-  // A date or a language (`field` of a header): the nearest header's that gives one.
+  // A date or a language (`field` of a header): the nearest header's that gives one (each
+  // header's worked out once: a date is a choice among the header's dates).
   const auto own_else_collections = [&](int tei_index, const auto& field) {
-    const HeaderInfo* giving = s.nearest_header(tei_index, [&](const HeaderInfo& x) { return !field(x).empty(); });
-    return giving ? field(*giving) : std::string();
+    std::string value;
+    s.nearest_header(tei_index, [&](const HeaderInfo& x) {
+      value = field(x);
+      return !value.empty();
+    });
+    return value;
   };
   // The titles of the collections around a text, outermost first, those it has.
   const auto collection_titles_of = [&](int tei_index) {
