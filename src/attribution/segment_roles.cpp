@@ -5,26 +5,32 @@
 #include <set>
 
 #include "core/error.h"
+#include "text/caseless_match.h"
 
 namespace manicule {
 
 namespace {
 
-// A name as compared between files: ASCII letters folded, white space runs made one space,
-// and the brackets and question marks an editor queries a name with left out ("[Anna
-// Brink?]" is Anna Brink conjectured, as the reader keys it).
-std::string name_key(const std::string& name) {
-  std::string out;
-  for (char c : name) {
-    if (c == '[' || c == ']' || c == '?') continue;
-    const bool space = c == ' ' || c == '\t' || c == '\n' || c == '\r';
+// A name as compared between files, so that one person written alike but for letter case,
+// spacing or a closing full stop is one name: "Änne Brink", "ÄNNE BRINK" and "Änne  Brink."
+// (and "Änne" composed or decomposed) are one. Its code points in NFC, case-folded in any
+// script (text/caseless_match.h); white space runs (XML's, and the no-break spaces) made one
+// space; the brackets and question marks an editor queries a name with left out ("[Anna
+// Brink?]" is Anna Brink conjectured, as the reader keys it); and the full stops, commas,
+// colons and semicolons that end it dropped.
+std::u32string name_key(const std::string& name) {
+  std::u32string out;
+  for (char32_t c : caseless_code_points(name)) {
+    if (c == U'[' || c == U']' || c == U'?') continue;
+    const bool space = c == U' ' || c == U'\t' || c == U'\n' || c == U'\r' || c == 0xA0 || c == 0x202F;
     if (space) {
-      if (!out.empty() && out.back() != ' ') out += ' ';
+      if (!out.empty() && out.back() != U' ') out += U' ';
     } else {
-      out += static_cast<char>(c >= 'A' && c <= 'Z' ? c + ('a' - 'A') : c);
+      out += c;
     }
   }
-  while (!out.empty() && out.back() == ' ') out.pop_back();
+  const auto ends_name = [](char32_t c) { return c == U' ' || c == U'.' || c == U',' || c == U';' || c == U':'; };
+  while (!out.empty() && ends_name(out.back())) out.pop_back();
   return out;
 }
 
@@ -42,7 +48,7 @@ std::map<std::size_t, std::string> senders_named_apart(const std::vector<Segment
     std::string shown;             // as the first file writes it
     std::set<std::string> files;   // stems, in order
   };
-  std::map<std::string, std::map<std::string, Name>> names;  // sender -> name key -> name
+  std::map<std::string, std::map<std::u32string, Name>> names;  // sender -> name key -> name
   const auto local_sender = [](const SegmentSummary& s) {
     return s.unit == "letter" && s.author.size() > 1 && s.author[0] == '#';
   };

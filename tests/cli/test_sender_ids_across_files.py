@@ -16,6 +16,7 @@ import os
 import random
 import shutil
 import sys
+import unicodedata
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
@@ -132,5 +133,42 @@ mtest.check("Kit Dunnock (dunnock#p1)" in notes and "Anna Brink (brink#p1)" in n
             "the notes do not name the candidates: %r" % notes[:600])
 errors = jing_errors(mtest.SCHEMA, [paths[0]])[paths[0]]
 mtest.check(not errors, "tei_all (jing) rejects the annotated edition: %s" % errors)
+
+# One person written in different ways in different files: letter case beyond ASCII, a
+# decomposed letter, doubled or no-break spaces, a closing full stop. docs/attribution.md:
+# names are compared in NFC, case-folded, with white space runs made one and the full stops,
+# commas, colons and semicolons that end them dropped. The reference: Python's
+# unicodedata.normalize("NFC") and str.casefold() (Unicode full case folding, which for
+# the letters used here agrees with the simple folding; Unicode CaseFolding.txt).
+variants = os.path.join(tmp, "variants")
+os.makedirs(variants)
+VANE = {"the": 1.6, "of": 0.6, "which": 3.0}
+spellings = [("vane.xml", "v", "\u00c4nne Vane"), ("vane-copyist.xml", "w", "\u00c4NNE VANE."),
+             ("vane-draft.xml", "x", "A\u0308nne\u00a0 Vane"), ("moss.xml", "m", "Kit Moss")]
+variant_paths = [write_letters(variants, f, letters(prefix, 2, "p1", name, VANE if "oss" not in name else KIT))
+                 for f, prefix, name in spellings]
+variant_paths.append(write_letters(variants, "zz-unsigned.xml", letters("u", 1, "unknown", "Unknown", VANE)))
+invalid = {p: e for p, e in jing_errors(mtest.SCHEMA, variant_paths).items() if e}
+mtest.check(not invalid, "the invented editions are not valid TEI: %r" % invalid)
+
+
+def reference_key(name):
+    key = " ".join(unicodedata.normalize("NFC", name).casefold().split())
+    return key.rstrip(".,;: ")
+
+
+stems_of = {}  # reference key -> stems giving it (lxml: each letter's persName)
+for path in variant_paths:
+    root = etree.parse(path).getroot()
+    for pers in root.iterfind(".//tei:correspAction/tei:persName", NS):
+        if pers.text != "Unknown":
+            stems_of.setdefault(reference_key(pers.text), set()).add(os.path.splitext(os.path.basename(path))[0])
+expected = {min(stems) + "#p1" for stems in stems_of.values()} if len(stems_of) > 1 else {"#p1"}
+mtest.check(expected == {"moss#p1", "vane#p1"}, "the reference gives %r" % sorted(expected))
+doc = json.loads(mtest.run(["attribute", "--unit", "letter", "--min-tokens", "200", "--format", "json"]
+                           + variant_paths).stdout)
+got = {c["candidate"] for result in doc["attributions"] for c in result["candidates"]}
+mtest.check(got == expected, "one person spelt variously: candidates %r, the reference gives %r" % (sorted(got),
+                                                                                                  sorted(expected)))
 
 mtest.done()
