@@ -26,7 +26,8 @@ namespace {
 void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::vector<UnlistedFolder>* unlisted,
                  LeftAside* left_aside) {
   // Counts `path` in `count`, keeping in `first` the first such path in path order.
-  const auto tally = [](const fs::path& path, std::size_t& count, std::string& first) {
+  const auto tally = [left_aside](const fs::path& path, std::size_t& count, std::string& first) {
+    if (left_aside->counts_path && !left_aside->counts_path(path.string())) return;
     if (count++ == 0 || path.string() < first) first = path.string();
   };
   std::error_code ec;

@@ -52,6 +52,9 @@ struct LeftAside {
   std::string first;
   std::size_t hidden = 0;
   std::string first_hidden;
+  // When set, a path counts only if this holds it: a batch narrowed to one folder
+  // (--folder) does not speak of what lies outside it.
+  std::function<bool(const std::string& path)> counts_path;
 };
 
 // Whether a folder's walk takes a file by its name: *.xml or *.tei, letter case ignored

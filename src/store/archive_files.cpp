@@ -50,6 +50,10 @@ std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inpu
   const FolderFilter in_folder(filter);
   for (const auto& input : inputs) {
     const bool folder = fs::is_directory(input);
+    if (!filter.folder.empty())
+      left_aside.counts_path = [&](const std::string& path) {
+        return in_folder.holds(path, folder ? relative_to_folder(path, input) : fs::path(path).filename().string());
+      };
     const std::vector<std::string> found = expand_inputs({input}, &unlisted, &left_aside);
     if (found.empty()) empty_inputs.push_back(input);
     for (const auto& path : found) {
@@ -61,6 +65,7 @@ std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inpu
       out.push_back(std::move(f));
     }
   }
+  left_aside.counts_path = nullptr;  // it holds references to this call's locals
   return out;
 }
 

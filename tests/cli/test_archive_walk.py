@@ -68,6 +68,20 @@ with tempfile.TemporaryDirectory() as tmp:
     files = {s["file"] for s in json.loads(proc.stdout)["segments"]}
     mtest.check(files == set(taken), "segments read %r" % sorted(files))
 
+    # Narrowed to one folder (--folder 1870), the notes speak of that folder alone: the files
+    # and hidden entries of os.walk's listing below archive/1870/ (docs/store.md, --folder).
+    inside = os.path.join(archive, "1870") + os.sep
+    other_in, hidden_in = sorted(p for p in other if p.startswith(inside)), [p for p in hidden if p.startswith(inside)]
+    mtest.check(len(other_in) == 1 and len(hidden_in) == 1, "the test's own listing of 1870: %r %r" % (other_in,
+                                                                                                     hidden_in))
+    proc = mtest.run(["batch", archive, "--store", os.path.join(tmp, "folder.sqlite"), "--unit", "letter",
+                      "--folder", "1870", "--quiet"])
+    expected = ["1 other file(s) below the folders left aside, such as " + other_in[0],
+                "1 hidden file(s) or folder(s) passed by, such as " + hidden_in[0]]
+    said = [line for line in proc.stderr.splitlines() if "left aside" in line or "passed by" in line]
+    mtest.check(len(said) == 2 and all(line.startswith("manicule: note: " + e) for line, e in zip(said, expected)),
+                "with --folder 1870 the notes say %r, expected %r" % (said, expected))
+
 # Links under a TEI name that lead to no file (the target moved away, or two links pointing
 # at each other) are files of the archive that cannot be read: a batch records each with the
 # system's reason and goes on with the rest (exit 1); before, a loop of links stopped the
