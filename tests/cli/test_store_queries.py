@@ -6,11 +6,15 @@ says (batch --unit letter, then analyse-store --min-tokens 200). Every statement
 silently otherwise), and what the main ones answer is checked against the edition read with
 lxml (TEI P5 correspDesc/correspAction[@type='sent']/persName/@ref for a letter's sender,
 titleStmt/author for a file's authors) and against the neighbours table read row by row
-with Python's sqlite3 module. When there is nothing to analyse, analyse-store says why
+with Python's sqlite3 module. The queries take the analysis the command names (`:run`):
+another question is asked between, then the first again, which the store answers without a
+new run. docs/store.md's second query is also run over invented chapters, whose labels are
+their headings, one row for each author. When there is nothing to analyse, analyse-store says why
 (no file stored, none passing the filter, segments too short), checked against lxml's count
 of the letters.
 """
 import os
+import random
 import re
 import shutil
 import sqlite3
@@ -20,6 +24,7 @@ import tempfile
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 from attribution_reference import letter_senders  # noqa: E402
+from invented_letters import zipf_words  # noqa: E402
 from lxml import etree  # noqa: E402
 
 TEI = "{http://www.tei-c.org/ns/1.0}"
@@ -33,6 +38,13 @@ def sql_blocks(path):
     blocks = re.findall(r"```sql\n(.*?)```", text, re.S)
     mtest.check(blocks, "no ```sql block in " + path)
     return [[s.strip() for s in block.split(";") if s.strip()] for block in blocks]
+
+
+def printed_run(stdout):
+    """The run id of the analysis `analyse-store` names ("analysis run 2: ...")."""
+    found = re.search(r"analysis run (\d+)", stdout)
+    mtest.check(found, "analyse-store named no run: %r" % stdout)
+    return int(found.group(1))
 
 
 def header_authors(path):
@@ -50,14 +62,23 @@ with tempfile.TemporaryDirectory() as tmp:
     store = os.path.join(tmp, "ferry.sqlite")
     mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"])
     mtest.run(["analyse-store", "--store", store, "--min-tokens", "200"])
+    # Another question, then the first asked again: answered from the store, with no new run,
+    # so the queries must take the run the command names, not the last one made.
+    mtest.run(["analyse-store", "--store", store, "--min-tokens", "200", "--measure", "burrows-delta"])
+    again = mtest.run(["analyse-store", "--store", store, "--min-tokens", "200"]).stdout
+    run_id = printed_run(again)
+    mtest.check("(unchanged, reused)" in again, "the first question asked again was not reused: %r" % again)
 
     db = sqlite3.connect(store)
+    last_made = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
+    mtest.check(run_id < last_made, "the reused run %d is the last made (%d): the check below would show nothing"
+                % (run_id, last_made))
     results = {}
     for doc in ("README.md", os.path.join("docs", "store.md")):
         for b, block in enumerate(sql_blocks(os.path.join(mtest.ROOT, doc))):
             for s, statement in enumerate(block):
                 try:
-                    cursor = db.execute(statement)
+                    cursor = db.execute(statement, {"run": run_id} if ":run" in statement else {})
                 except sqlite3.Error as e:
                     mtest.fail("%s, query block %d, statement %d does not run: %s\n%s" % (doc, b + 1, s + 1, e, statement))
                 mtest.check(cursor.description is not None, "%s block %d: not a query" % (doc, b + 1))
@@ -78,7 +99,6 @@ with tempfile.TemporaryDirectory() as tmp:
             sent_action["ferry-letters#" + div.get(XML_ID)] = [
                 a for a in descs[div.get("decls").lstrip("#")].iter(TEI + "correspAction") if a.get("type") == "sent"][0]
     sent_year = {k: int(a.find(TEI + "date").get("when")[:4]) for k, a in sent_action.items()}
-    run_id = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
     stored = db.execute("SELECT rank, neighbour, distance FROM neighbours WHERE run_id = ? AND segment = ? ORDER BY rank",
                         (run_id, "ferry-letters#L07")).fetchall()
     mtest.check(len(stored) == 5, "L07 has %d neighbours stored, 5 expected (the default k)" % len(stored))
@@ -135,7 +155,7 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check(sorted(r["author"] for r in rows) == expected and all(r["files"] == 1 for r in rows),
                     "%s: authors %r, lxml %r" % (doc, rows, expected))
         mtest.check(results[(doc, block, 1)] == [], doc + ": no file failed, yet the query lists some")
-        mtest.check([(r["kind"], r["status"]) for r in results[(doc, block, 2)]] == [("analysis", "done"), ("batch", "done")],
+        mtest.check([(r["kind"], r["status"]) for r in results[(doc, block, 2)]] == [("analysis", "done")] * 2 + [("batch", "done")],
                     doc + ": the last runs are %r" % results[(doc, block, 2)])
 
     # docs/store.md's fourth block: letters per year and sender, by each letter's own date
@@ -167,13 +187,12 @@ with tempfile.TemporaryDirectory() as tmp:
     anon.write(os.path.join(unsigned_archive, "unsigned", "anon.xml"), encoding="UTF-8", xml_declaration=True)
     store2 = os.path.join(tmp, "unsigned.sqlite")
     mtest.run(["batch", unsigned_archive, "--store", store2, "--unit", "letter", "--quiet"])
-    mtest.run(["analyse-store", "--store", store2, "--min-tokens", "200", "--neighbours", "8"])
+    run2 = printed_run(mtest.run(["analyse-store", "--store", store2, "--min-tokens", "200", "--neighbours", "8"]).stdout)
     db = sqlite3.connect(store2)
     query = sql_blocks(os.path.join(mtest.ROOT, "README.md"))[1][0]
-    cursor = db.execute(query)
+    cursor = db.execute(query, {"run": run2})
     columns = [c[0] for c in cursor.description]
     got = {row[columns.index("author")]: row[columns.index("nearest_links")] for row in cursor}
-    run2 = db.execute("SELECT max(run_id) FROM runs WHERE kind = 'analysis' AND status = 'done'").fetchone()[0]
     expected = {}
     for segment, neighbour in db.execute("SELECT segment, neighbour FROM neighbours WHERE run_id = ?", (run2,)):
         if segment.startswith("anon#") and neighbour.startswith("ferry-letters#") and sure_sender[neighbour]:
@@ -200,5 +219,48 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["analyse-store", "--store", os.path.join(tmp, "empty.sqlite")], check=False)
     mtest.check(proc.returncode == 4 and "the store holds no file" in proc.stderr,
                 "an empty store: exit %d, %s" % (proc.returncode, proc.stderr))
+
+    # docs/store.md's second query over chapters, whose labels are their headings: each
+    # author is one candidate of a questioned chapter, however many headings its chapters
+    # have. Invented novels, three signed (titleStmt/author) and one "Anonymous" (a
+    # placeholder: its chapters are questioned, docs/attribution.md); the links expected are
+    # counted from the neighbours table and the authors lxml reads.
+    novels = os.path.join(tmp, "novels")
+    os.makedirs(novels)
+    rng = random.Random(20261205)
+    for author, bias in (("Ada Cole", {"the": 1.6, "of": 0.6}), ("Reuben Lusk", {"and": 1.8, "so": 3.0}),
+                         ("Ines Marr", {"a": 1.7, "would": 3.0}), ("Anonymous", {"the": 1.5, "of": 0.7})):
+        chapters = "".join('<div type="chapter" xml:id="c%d"><head>Chapter %s</head><p>%s</p></div>'
+                           % (k + 1, "I II III IV".split()[k], " ".join(zipf_words(rng, 300, bias)))
+                           for k in range(4))
+        with open(os.path.join(novels, author.split()[-1].lower() + ".xml"), "w", encoding="utf-8") as f:
+            f.write('<?xml version="1.0" encoding="UTF-8"?>\n<TEI xmlns="http://www.tei-c.org/ns/1.0" xml:lang="en">'
+                    '<teiHeader><fileDesc><titleStmt><title>An invented novel</title><author>%s</author></titleStmt>'
+                    '<publicationStmt><p>Invented test data; CC0.</p></publicationStmt><sourceDesc><p>Invented.</p>'
+                    '</sourceDesc></fileDesc></teiHeader><text><body>%s</body></text></TEI>\n' % (author, chapters))
+    author_of = {}
+    for name in os.listdir(novels):
+        stmt = etree.parse(os.path.join(novels, name)).find("%steiHeader/%sfileDesc/%stitleStmt" % (TEI, TEI, TEI))
+        author_of[name[:-4]] = stmt.findtext(TEI + "author")
+    store3 = os.path.join(tmp, "novels.sqlite")
+    mtest.run(["batch", novels, "--store", store3, "--unit", "chapter", "--quiet"])
+    run3 = printed_run(mtest.run(["analyse-store", "--store", store3, "--min-tokens", "200", "--neighbours", "6"]).stdout)
+    db = sqlite3.connect(store3)
+    query = sql_blocks(os.path.join(mtest.ROOT, "docs", "store.md"))[1][0]
+    cursor = db.execute(query, {"run": run3})
+    columns = [c[0] for c in cursor.description]
+    got = {}
+    for row in cursor:
+        key = (row[columns.index("questioned")], row[columns.index("candidate")])
+        mtest.check(key not in got, "docs/store.md over chapters: %r in more than one row" % (key,))
+        got[key] = row[columns.index("links")]
+    expected = {}
+    for segment, neighbour in db.execute("SELECT segment, neighbour FROM neighbours WHERE run_id = ?", (run3,)):
+        asked, by = author_of[segment.split("#")[0]], author_of[neighbour.split("#")[0]]
+        if asked == "Anonymous" and by != "Anonymous":
+            expected[(segment, by)] = expected.get((segment, by), 0) + 1
+    mtest.check(len({q for q, _ in expected}) == 4 and got == expected,
+                "docs/store.md over chapters: links %r, from the neighbours and lxml %r" % (got, expected))
+    db.close()
 
 mtest.done()
