@@ -166,6 +166,7 @@ CommandRunner add_batch_command(CLI::App& app) {
       std::cerr << "manicule: note: no TEI file (*.xml, *.tei) found under the inputs"
                 << (flags->shard.empty() ? "" : " in share " + flags->shard) << '\n';
     report_left_aside(std::cerr, summary);
+    report_files_without_segments(std::cerr, summary, request.unit);
     if (summary.files_maybe_twice)
       std::cerr << "manicule: note: " << summary.files_maybe_twice
                 << " file(s) new to the store match stored ones by name, size and time under another path, such as "

@@ -28,6 +28,15 @@ void report_failures(std::ostream& err, const store::BatchSummary& s) {
         << "; its files were not looked at, and those stored from it before are kept\n";
 }
 
+void report_files_without_segments(std::ostream& err, const store::BatchSummary& s, const std::string& unit) {
+  if (!s.files_without_segments) return;
+  err << "manicule: note: " << s.files_without_segments << " of the " << s.files_read_cleanly
+      << " file(s) read hold no segment of --unit " << unit;
+  if (s.files_without_segments == s.files_read_cleanly)
+    err << ": is it the unit meant? (manicule segments FILE --unit UNIT lists what a unit takes from a file)";
+  err << '\n';
+}
+
 void report_left_aside(std::ostream& err, const store::BatchSummary& s) {
   if (s.left_aside.count)
     err << "manicule: note: " << s.left_aside.count << " other file(s) below the folders left aside, such as "

@@ -16,6 +16,8 @@ void report_failures(std::ostream& err, const store::BatchSummary& summary);
 // How many files below the input folders were not taken for TEI by their names, and how
 // many hidden ones were passed by, with one of each.
 void report_left_aside(std::ostream& err, const store::BatchSummary& summary);
+// Files read without failing that hold no segment of `unit`, if any.
+void report_files_without_segments(std::ostream& err, const store::BatchSummary& summary, const std::string& unit);
 void report_analysis(std::ostream& out, std::ostream& err, const store::StoreAnalysisResult& result);
 void report_merge(std::ostream& out, const std::string& input, const store::MergeSummary& summary);
 // Before an analysis: the store's unfinished work under these settings (unfinished_work.h),

@@ -392,6 +392,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
         }
         outcome = reading.failed ? FileOutcome::failed : FileOutcome::read;
         if (reading.failed) failing[f.path] = reading.failure.message;
+        else if (++summary.files_read_cleanly, reading.segments.empty()) ++summary.files_without_segments;
       }
       counters.bytes_read += reading.bytes;
       progress.bytes_done += f.size;

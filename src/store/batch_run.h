@@ -86,6 +86,10 @@ struct BatchSummary {
   // those stored from them before stay in the store.
   std::vector<UnlistedFolder> unlisted;
   LeftAside left_aside;  // files below the input folders whose names do not say TEI
+  // Files read this run, without failing, that hold no segment of the unit: all of them
+  // most often means another unit was meant (--unit speaker over novels).
+  std::size_t files_without_segments = 0;
+  std::size_t files_read_cleanly = 0;  // read this run without failing
   std::unique_ptr<FreshCounts> fresh;  // with keep_counts_of_segments_from, if any file was read
 };
 
