@@ -4,6 +4,7 @@
 // way leaves OUT as it was, and no other run can use OUT meanwhile.
 #include <filesystem>
 #include <iostream>
+#include <map>
 #include <memory>
 #include <string>
 #include <vector>
@@ -53,9 +54,9 @@ CommandRunner add_merge_command(CLI::App& app) {
     const bool created = was_missing && !store::any_run_recorded(*target);
     store::MergeOutcome merged;
     try {
-      StopNotice notice(created ? "manicule: interrupted: nothing merged; " + *out + " is an empty store\n"
+      StopNotice notice(created ? "manicule: interrupted: nothing merged; " + *out + ", made by this merge, removed\n"
                                 : "manicule: interrupted: " + *out + " is left as it was before this merge\n",
-                        false);
+                        false, created ? *out : "");
       merged = store::merge_stores(*target, *inputs, *exact);
       target->close();  // OUT whole in its one file, or an error (a full disk)
     } catch (...) {
@@ -72,10 +73,22 @@ CommandRunner add_merge_command(CLI::App& app) {
     if (merged.files_removed) std::cout << "removed " << merged.files_removed << " file(s) that no input holds\n";
     // Shares read with different options (one task given --no-fold) hold counts that no
     // analysis takes together: each analysis takes one settings' counts.
-    if (merged.settings_keys.size() > 1)
+    if (merged.settings_keys.size() > 1) {
+      // Which input holds which, so that the task started with other options is found.
+      std::map<std::string, std::string> inputs_of;  // settings key -> inputs holding it
+      for (const auto& [in, summary] : merged.inputs)
+        for (const auto& key : summary.settings_keys) inputs_of[key] += (inputs_of[key].empty() ? "" : ", ") + in;
+      std::string held;
+      for (const auto& [key, names] : inputs_of) held += (held.empty() ? "" : "; ") + names;
       std::cerr << "manicule: note: the merged stores hold counts read under " << merged.settings_keys.size()
-                << " different reading settings, and an analysis takes the counts of one (see analyse-store "
-                   "--list-settings and --settings)\n";
+                << " different reading settings (one each: " << held
+                << "), and an analysis takes the counts of one (see analyse-store --list-settings and --settings)\n";
+    }
+    // A task of the array that never saved its share (merge --exact refuses such inputs).
+    if (!merged.missing_shares.empty())
+      std::cerr << "manicule: note: the inputs are shares by the --shard of their batch runs, but none is share "
+                << store::join_shares(merged.missing_shares) << ": " << *out
+                << " holds of it only what an earlier merge brought\n";
     // A file deleted or renamed since an earlier merge is gone from the shares but not
     // from OUT: without --exact merge adds and updates, it never removes, so the curator is told.
     if (!merged.held_by_no_input.empty())

@@ -13,8 +13,10 @@ namespace manicule::cli {
 class StopNotice {
  public:
   // `message` is written to stderr as it stands (one line, with its newline); with
-  // `clear_line`, a progress line is cleared first.
-  StopNotice(const std::string& message, bool clear_line);
+  // `clear_line`, a progress line is cleared first. With `remove_store`, the store at that
+  // path and the files SQLite keeps beside it are removed first (one this run created,
+  // holding nothing yet).
+  StopNotice(const std::string& message, bool clear_line, const std::string& remove_store = "");
   ~StopNotice();  // puts back what was there before
   StopNotice(const StopNotice&) = delete;
   StopNotice& operator=(const StopNotice&) = delete;

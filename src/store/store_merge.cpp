@@ -1,6 +1,7 @@
 #include "store/store_merge.h"
 
 #include <algorithm>
+#include <cstdio>
 #include <iterator>
 #include <unordered_map>
 
@@ -109,6 +110,35 @@ void merge_files(Database& out, Database& input, MergeSummary& summary) {
 
 namespace {
 
+// Where every input is one share of one N (its batch runs' --shard K/N), the K/N that none
+// of them is, in order; else nothing (a merged store as input, a store read whole).
+std::vector<std::string> shares_missing(const std::vector<std::pair<std::string, MergeSummary>>& inputs) {
+  std::set<unsigned> found;
+  unsigned count = 0;
+  for (const auto& [path, summary] : inputs) {
+    if (summary.shares.size() != 1) return {};
+    unsigned k = 0, n = 0;
+    if (std::sscanf(summary.shares.begin()->c_str(), "%u/%u", &k, &n) != 2 || n < 2 || k < 1 || k > n) return {};
+    if (count && n != count) return {};
+    count = n;
+    found.insert(k);
+  }
+  std::vector<std::string> missing;
+  for (unsigned k = 1; k <= count; ++k)
+    if (!found.count(k)) missing.push_back(std::to_string(k) + "/" + std::to_string(count));
+  return missing;
+}
+
+}  // namespace
+
+std::string join_shares(const std::vector<std::string>& shares) {
+  std::string out;
+  for (const std::string& share : shares) out += (out.empty() ? "" : ", ") + share;
+  return out;
+}
+
+namespace {
+
 // Merges one input, within the caller's transaction, recording a merge run for it.
 MergeSummary merge_one(Database& out, Database& input) {
   MergeSummary summary;
@@ -121,6 +151,9 @@ MergeSummary merge_one(Database& out, Database& input) {
     merge_settings(out, input, settings, run, summary);
   }
   merge_files(out, input, summary);
+  Statement shares = input.prepare("SELECT DISTINCT json_extract(parameters, '$.shard') FROM runs WHERE kind = 'batch'");
+  while (shares.step())
+    if (!shares.is_null(0)) summary.shares.insert(shares.text_at(0));
   // As a batch counts them: the files the input holds, and those among them that failed.
   RunCounters counters;
   Statement held = input.prepare(
@@ -157,6 +190,13 @@ MergeOutcome merge_stores(Database& out, const std::vector<std::string>& inputs,
     outcome.settings_keys.insert(summary.settings_keys.begin(), summary.settings_keys.end());
     outcome.inputs.emplace_back(path, std::move(summary));
   }
+  outcome.missing_shares = shares_missing(outcome.inputs);
+  if (exact && !outcome.missing_shares.empty())
+    throw Error(ErrorKind::nothing_selected,
+                "the inputs are shares by the --shard of their batch runs, but none is share " +
+                    join_shares(outcome.missing_shares) + ": merge --exact would remove the files of " +
+                    (outcome.missing_shares.size() > 1 ? "those shares" : "that share") + " from " + out.path() +
+                    "; merge every share (a task that saved no store: run it again), or merge without --exact");
   std::set_difference(held_before.begin(), held_before.end(), input_files.begin(), input_files.end(),
                       std::inserter(outcome.held_by_no_input, outcome.held_by_no_input.end()));
   if (exact) {

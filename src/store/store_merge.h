@@ -25,6 +25,7 @@ struct MergeSummary {
   std::set<std::string> input_files;          // every path the input holds (read once, while merging)
   std::set<std::string> settings_keys;        // the reading settings the input holds
   std::vector<std::string> input_unfinished;  // the input's unfinished work (unfinished_work.h)
+  std::set<std::string> shares;               // the --shard K/N of the input's batch runs ("1/1": none)
 };
 
 struct MergeOutcome {
@@ -32,12 +33,19 @@ struct MergeOutcome {
   std::set<std::string> settings_keys;     // of every input: several mean analyses take part of them
   std::set<std::string> held_by_no_input;  // OUT's files that no input holds, kept (without exact)
   std::size_t files_removed = 0;           // those removed (with exact)
+  // Where each input is one share of N by its batch runs (--shard K/N, the same N), the
+  // shares none of them is: "3/8" for a task that never saved its store.
+  std::vector<std::string> missing_shares;
 };
 
 // Merges the stores at `inputs` into `out` (opened with open_store) in one transaction on
 // `out`, a merge run recorded for each input. With `exact`, OUT's files that no input holds
 // are removed; an input holding unfinished work is then refused (Error nothing_selected),
-// for its share's unread files would go. Any error leaves `out` as it was.
+// for its share's unread files would go, and so are inputs that are shares of N with some
+// share missing. Any error leaves `out` as it was.
 MergeOutcome merge_stores(Database& out, const std::vector<std::string>& inputs, bool exact);
+
+// "3/8, 5/8": shares as said in messages.
+std::string join_shares(const std::vector<std::string>& shares);
 
 }  // namespace manicule::store

@@ -292,6 +292,16 @@ std::unique_ptr<Database> open_store_once(const std::string& path, bool create) 
     has_tables = tables.int64_at(0) > 0;
     if (has_tables && tables.int64_at(1) == 0)
       throw Error(ErrorKind::bad_input, path + " is an SQLite file but not a manicule store (left as it was)");
+    // A store only read from (analyse-store's, merge's inputs) is never made here: a shard
+    // emptied by a failed copy would otherwise be merged as a store holding nothing, and
+    // with merge --exact take its share's files out of the merged store.
+    if (!has_tables && !create) {
+      std::error_code ec;
+      const auto bytes = std::filesystem::file_size(path, ec);
+      throw Error(ErrorKind::bad_input, path + " holds no manicule store (" +
+                                            (ec ? std::string("an empty database") : std::to_string(bytes) + " bytes") +
+                                            ", no table; left as it was): was it copied whole?");
+    }
   }
   // 16 KiB pages for a new store (an existing one keeps its own): most of what is stored
   // is count blobs of a few KiB each, which 4 KiB pages split over chains of overflow

@@ -39,6 +39,7 @@ extern const char* const kSegmentsOfContent;
 inline constexpr int kStoreFormat = 4;
 
 // Opens the store (creating file and tables when `create`), locks it and checks its format.
+// Without `create`, a file that holds no tables (0 bytes, say) is refused, not made a store.
 std::unique_ptr<Database> open_store(const std::string& path, bool create);
 
 // Removes a store this run created and left empty, then closes it. Its files are unlinked

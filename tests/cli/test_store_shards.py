@@ -4,13 +4,15 @@
 merged with `manicule merge`. The stored archive (files, readings, segments with their
 counts by feature form, vocabulary) and an analysis of it must be identical, apart from
 run ids and times; a merge refuses an input that is not a store before it creates its
-output, and a share with no file says so; a malformed --shard and a store that cannot be
+output, and a share with no file says so; a share missing from the inputs is named, and
+refused by merge --exact; a malformed --shard and a store that cannot be
 opened are refused with their reason, and a damaged segment is named by analyse-store and
 merge, a merge into a new store then leaving nothing behind; a merged store of two
 reading settings is analysed only under the --settings asked. Outside references: Python's hashlib for every stored SHA-256 and for
 the documented shard rule (1 + first 8 bytes of SHA-256(relative path) mod N), SQLite's
 own PRAGMA integrity_check, and lxml for each play's title.
 """
+import json
 import os
 import shutil
 import sqlite3
@@ -85,12 +87,31 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.run(["merge", merged, shards[0]])
     mtest.check(storecheck.logical_tables(merged) == before, "merging a shard twice changed the store")
 
+    # A share missing from the inputs (a task of the array that saved no store): the shares
+    # given are 1/3 and 2/3 by the --shard their batch runs record (the runs table, read with
+    # sqlite3). merge --exact would take share 3's files out of the merged store: refused
+    # (exit 4), naming the share, the store as it was; without --exact, a note names it.
+    recorded = {json.loads(p)["shard"] for s in shards[:2]
+                for (p,) in storecheck.rows(s, "SELECT parameters FROM runs WHERE kind = 'batch'")}
+    mtest.check(recorded == {"1/3", "2/3"}, "the shards' batch runs record %r" % recorded)
+    proc = mtest.run(["merge", "--exact", merged] + shards[:2], check=False)
+    mtest.check(proc.returncode == 4 and "none is share 3/3" in proc.stderr,
+                "merge --exact without share 3/3: exit %d, %s" % (proc.returncode, proc.stderr))
+    mtest.check(storecheck.logical_tables(merged) == before, "a refused merge --exact changed the store")
+    proc = mtest.run(["merge", merged] + shards[:2])
+    mtest.check("none is share 3/3" in proc.stderr, "merge without share 3/3 said nothing: %r" % proc.stderr)
+    mtest.check(storecheck.logical_tables(merged) == before, "merging shares already merged changed the store")
+
     # A share read with other options (--no-fold) is merged, and said to hold other settings:
     # an analysis takes one settings' counts, so its files would be left out silently.
     unfolded = os.path.join(tmp, "unfolded.sqlite")
     mtest.run(["batch", archive, "--store", unfolded, "--shard", "1/3", "--no-fold"] + common)
     proc = mtest.run(["merge", os.path.join(tmp, "mixed.sqlite"), shards[1], unfolded])
     mtest.check("under 2 different reading settings" in proc.stderr, "a share read with --no-fold merged silently: " + proc.stderr)
+    # and each settings is named by the inputs that hold it, so the task run otherwise is found
+    mtest.check(("one each: %s; %s)" % (shards[1], unfolded)) in proc.stderr
+                or ("one each: %s; %s)" % (unfolded, shards[1])) in proc.stderr,
+                "the note does not name the input of each settings: " + proc.stderr)
     # That merged store has no batch run to say which counts an analysis takes: without
     # --settings it is refused (exit 2, naming --settings) rather than one settings taken by
     # the order of the merge's inputs; with --settings each analysis takes the files read
@@ -143,6 +164,19 @@ with tempfile.TemporaryDirectory() as tmp:
         mtest.check(proc.returncode == 3 and "not a manicule store" in proc.stderr and storecheck.sha256_of(foreign) == foreign_sha,
                     "%s on another application's SQLite file: exit %d, %s" % (args[0], proc.returncode, proc.stderr))
     mtest.check(not os.path.exists(fresh), "a merge of a foreign file left a new store behind")
+    # A shard emptied by a failed copy (0 bytes) is no store either: merged, it counted as one
+    # holding nothing, and --exact took its share's files out of the merged store, exit 0.
+    # Refused with exit 3, naming it; the input keeps its 0 bytes and the output its tables.
+    emptied = os.path.join(tmp, "emptied.sqlite")
+    open(emptied, "wb").close()
+    for args in (["merge", "--exact", merged, shards[0], emptied], ["merge", fresh, emptied],
+                 ["analyse-store", "--store", emptied]):
+        proc = mtest.run(args, check=False)
+        mtest.check(proc.returncode == 3 and emptied + " holds no manicule store" in proc.stderr,
+                    "%s with a 0-byte store: exit %d, %s" % (" ".join(args[:2]), proc.returncode, proc.stderr))
+        mtest.check(os.path.getsize(emptied) == 0, "%s wrote into the 0-byte input" % args[0])
+    mtest.check(storecheck.logical_tables(merged) == before and not os.path.exists(fresh),
+                "a merge refused for a 0-byte input changed or left a store")
 
     # A store with one segment's counts damaged: its blob cut to the byte 0xff, a varint
     # that never ends (the format in docs/store.md). The segment is the largest, so that an
