@@ -18,11 +18,19 @@ results=${2:?$usage}
 shift 2
 # Without --unit a task would read with the default unit (whole), a settings of its own.
 # (-u may come joined to its value or among other short flags: -uletter, -qu letter.)
+# A --threads given wins over the task's CPUs.
 unit_given=no
-for arg in "$@"; do case $arg in --unit | --unit=*) unit_given=yes ;; --*) ;; -*u*) unit_given=yes ;; esac; done
+threads=(--threads "${SLURM_CPUS_PER_TASK:-1}")
+for arg in "$@"; do
+  case $arg in --unit | --unit=*) unit_given=yes ;; --threads | --threads=*) threads=() ;; --*) ;; -*u*) unit_given=yes ;; esac
+done
 if [ "$unit_given" = no ]; then echo "$usage" >&2; exit 2; fi
-k=$((SLURM_ARRAY_TASK_ID - SLURM_ARRAY_TASK_MIN + 1))   # works for --array=0-7 too
-n=$SLURM_ARRAY_TASK_COUNT
+# Share K of N: K the task's index (--array=1-N), N fixed here rather than read from the
+# array, so that one failed task submitted again (sbatch --array=3 ...) still reads share 3
+# of 8, not the whole archive as share 1 of 1. Keep N equal to the --array line's last
+# number (or give MANICULE_SHARES, with sbatch --export=ALL,MANICULE_SHARES=N).
+n=${MANICULE_SHARES:-8}
+k=$SLURM_ARRAY_TASK_ID
 mkdir -p "$results"
 scratch=$(mktemp -d)                                  # node-local, removed when the task ends (not if it is killed outright)
 trap 'rm -rf "$scratch"' EXIT
@@ -42,8 +50,7 @@ save() {
 # what it has read and exits with 143; this trap keeps the script alive to save that.
 trap 'true' TERM
 status=0
-manicule batch "$archive" --store "$local_store" --shard "$k/$n" \
-  --threads "${SLURM_CPUS_PER_TASK:-1}" --quiet "$@" || status=$?
+manicule batch "$archive" --store "$local_store" --shard "$k/$n" "${threads[@]}" --quiet "$@" || status=$?
 # Stopped by the time limit (143) or a cancel (130): keep what was read, so that submitting
 # the job again goes on from there; the task still fails, so the merge waits.
 if [ "$status" -eq 143 ] || [ "$status" -eq 130 ]; then save; exit "$status"; fi

@@ -54,20 +54,24 @@ with tempfile.TemporaryDirectory() as tmp:
     os.makedirs(shims)
     os.symlink(os.path.abspath(mtest.BIN) if os.path.sep in mtest.BIN else mtest.BIN, os.path.join(shims, "manicule"))
 
-    def task(k, stop_after=None):
-        """Runs array task k of 2; with stop_after, sends SIGTERM to the task's process group
-        once it has reported that many files. Returns (exit code, files reported)."""
+    def task(k, stop_after=None, alone=False, extra=()):
+        """Runs array task k of 2 (MANICULE_SHARES=2, the script's way of being told the number
+        of shares); alone, as the one task of an array submitted again for it (sbatch
+        --array=K: Slurm then sets SLURM_ARRAY_TASK_MIN to K and SLURM_ARRAY_TASK_COUNT to 1);
+        with stop_after, sends SIGTERM to the task's process group once it has reported that
+        many files. Returns (exit code, files reported)."""
         # One CPU a task, so one reading thread: the stop lands while files remain.
         env = dict(os.environ, PATH=shims + os.pathsep + os.environ["PATH"], SLURM_ARRAY_TASK_ID=str(k),
-                   SLURM_ARRAY_TASK_MIN="1", SLURM_ARRAY_TASK_COUNT="2", SLURM_CPUS_PER_TASK="1", TMPDIR=tmp)
-        code, reported, _ = storecheck.run_stopped(["bash", SCRIPT, archive, results, "--unit", "speaker", "--verbose"],
-                                                   stop_after, signal.SIGTERM, env=env, group=True)
+                   SLURM_ARRAY_TASK_MIN=str(k) if alone else "1", SLURM_ARRAY_TASK_COUNT="1" if alone else "2",
+                   SLURM_CPUS_PER_TASK="1", MANICULE_SHARES="2", TMPDIR=tmp)
+        code, reported, _ = storecheck.run_stopped(["bash", SCRIPT, archive, results, "--unit", "speaker", "--verbose"]
+                                                   + list(extra), stop_after, signal.SIGTERM, env=env, group=True)
         return code, reported
 
     # A task whose batch refuses its options (here an option no command has) fails with the
     # batch's exit code 2 and, like every task, leaves no scratch folder behind (it did).
     env = dict(os.environ, PATH=shims + os.pathsep + os.environ["PATH"], SLURM_ARRAY_TASK_ID="1",
-               SLURM_ARRAY_TASK_MIN="1", SLURM_ARRAY_TASK_COUNT="2", TMPDIR=tmp)
+               SLURM_ARRAY_TASK_MIN="1", SLURM_ARRAY_TASK_COUNT="2", MANICULE_SHARES="2", TMPDIR=tmp)
     refused = subprocess.run(["bash", SCRIPT, archive, results, "--unit", "speaker", "--no-such-option"],
                              capture_output=True, text=True, env=env)
     # reference: the option given, named by batch's refusal (CLI11: "not expected")
@@ -119,7 +123,9 @@ with tempfile.TemporaryDirectory() as tmp:
     else:
         mtest.check(code == 0 and again["status"] == "done" and again["files_unchanged"] == reported,
                     "task 1 again: exit %d, run %r (%d files kept from before)" % (code, again, reported))
-    code, _ = task(2)
+    # Task 2 as the one task of an array submitted again for it, given its own --threads
+    # (which takes the place of the script's, rather than being refused as given twice).
+    code, _ = task(2, alone=True, extra=["--threads", "2"])
     mtest.check(code == 0, "task 2 exited %d" % code)
     for k in (1, 2):  # reference: hashlib, by docs/store.md's rule (storecheck.share_of)
         saved = set(stored_files(os.path.join(results, "shard-%d-of-2.sqlite" % k)))
