@@ -84,7 +84,8 @@ void write_pca(Database& db, std::int64_t run, const PcaResult& pca) {
 
 std::int64_t write_analysis(Database& db, std::int64_t settings_id, const nlohmann::json& parameters,
                             const std::string& key, const Analysis& analysis, const StoredCorpus& stored,
-                            const std::vector<std::string>& notes, const std::vector<AttributionRow>& attributions) {
+                            const std::vector<std::string>& notes, std::size_t files_failed,
+                            const std::vector<AttributionRow>& attributions) {
   nlohmann::json recorded = parameters;
   for (const auto& [k, v] : analysis.provenance.parameters) recorded["results"][k] = v;
   recorded["notes"] = notes;
@@ -105,6 +106,7 @@ std::int64_t write_analysis(Database& db, std::int64_t settings_id, const nlohma
   attribution.finish();
   RunCounters counters;
   counters.files_found = stored.corpus.files.size();
+  counters.files_failed = files_failed;
   update_run(db, run, counters);
   finish_run(db, run, "done");
   t.commit();

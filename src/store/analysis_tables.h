@@ -39,10 +39,10 @@ std::string analysis_key(const nlohmann::json& parameters, const StoredSelection
 std::optional<std::int64_t> find_analysis(Database& db, const std::string& key);
 
 // `notes` are kept with the run's parameters, so that a later run that reuses the analysis
-// says them again.
+// says them again. `files_failed`: the failing files the selection left out, the run's own.
 std::int64_t write_analysis(Database& db, std::int64_t settings_id, const nlohmann::json& parameters,
                             const std::string& key, const Analysis& analysis, const StoredCorpus& stored,
-                            const std::vector<std::string>& notes,
+                            const std::vector<std::string>& notes, std::size_t files_failed,
                             const std::vector<AttributionRow>& attributions = {});
 
 }  // namespace manicule::store

@@ -108,7 +108,7 @@ Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& 
     what = "none of the " + std::to_string(other_years) + " segment(s) of the " + std::to_string(files) +
            " file(s) chosen is dated in the years asked (by its own date, a letter's, else its file's): widen --years";
   } else if (found == 0) {
-    what = "the " + of_files + " hold no segment of this unit: try another --unit in batch" +
+    what = "the " + of_files + " hold no segment of --unit " + request.unit + ": try another --unit in batch" +
            unprefixed_name_hint(request.unit) +
            std::string(other_settings_stored ? ", or the store's counts under other settings (analyse-store "
                                                "--settings, see --list-settings)"
@@ -295,7 +295,8 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   result.notes = analysis.notes;
   result.notes.insert(result.notes.end(), notes.begin(), notes.end());
   add_selection_notes(filter, request.feature_space.min_segment_tokens, selection, stored, result.files, result.notes);
-  result.run_id = write_analysis(db, settings_id, parameters, key, analysis, stored, result.notes, attributions);
+  result.run_id = write_analysis(db, settings_id, parameters, key, analysis, stored, result.notes,
+                                 selection.files_failed, attributions);
   return result;
 }
 

@@ -81,6 +81,12 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = analyse()
     mtest.check(proc.returncode == 0 and "%d file(s) stored as failed" % len(failing) in proc.stderr,
                 "whole archive: exit %d, %s" % (proc.returncode, proc.stderr))
+    # The analysis run records them as its runs row's files_failed (docs/store.md, runs).
+    db = sqlite3.connect(store)
+    recorded = db.execute("SELECT files_failed FROM runs WHERE kind = 'analysis' ORDER BY run_id DESC LIMIT 1").fetchone()
+    db.close()
+    mtest.check(recorded == (len(failing),), "the analysis run records %r failing files, lxml finds %d"
+                % (recorded, len(failing)))
     # A folder with one failing file (the copy): that one is said to be left out.
     proc = analyse("--folder", "a")
     in_a = sum(1 for p in failing if os.path.basename(os.path.dirname(p)) == "a")
