@@ -41,8 +41,16 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
                     "rank the candidate authors of the questioned segments (docs/attribution.md)");
   command->add_flag("--recompute", flags->recompute, "recompute even if an identical analysis is stored");
   command->add_flag("--quiet,-q", flags->quiet, "no progress display");
+  // Not an option of this command (the unit is the store's, read by batch), but one a user
+  // of the other commands gives by habit: taken, unlisted, to say so rather than CLI11's
+  // "not expected".
+  auto unit = std::make_shared<std::string>();
+  command->add_option("--unit,-u", *unit)->group("");
 
   return [=]() -> int {
+    if (command->count("--unit"))
+      throw Error(ErrorKind::usage, "analyse-store takes the unit of the counts the store holds, read by batch --unit: "
+                                    "see --list-settings, and --settings N for a store read with several");
     auto db = store::open_store(flags->store, false);
     if (flags->list) {
       // One settings a line, tab-separated under a header line: which reader made the

@@ -126,9 +126,12 @@ Analysis analyse_counts(const Request& request, const Corpus& corpus, const Anal
   }
   analysis.table_rows = rows;
   if (!table.report.excluded_segments.empty()) {
+    // A segment without a word is left out under any minimum, 0 among them (feature_space.cpp).
+    const std::size_t minimum = std::max<std::size_t>(request.feature_space.min_segment_tokens, 1);
     analysis.notes.push_back(std::to_string(table.report.excluded_segments.size()) +
                              " segment(s) left out, shorter than the minimum of " +
-                             std::to_string(request.feature_space.min_segment_tokens) + " words");
+                             (minimum == 1 ? std::string("1 word: they hold none")
+                                           : std::to_string(minimum) + " words"));
   }
   record_feature_parameters(request, table.feature_count(), table.segment_count(), analysis.provenance);
   auto& params = analysis.provenance.parameters;

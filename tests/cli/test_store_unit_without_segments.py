@@ -1,6 +1,8 @@
 """A batch says how many of the files it read hold no segment of the unit asked for, and
 asks whether the unit is the one meant when none does (a store of novels read with
---unit speaker held nothing, and the batch said only "93 read", exit 0).
+--unit speaker held nothing, and the batch said only "93 read", exit 0). The analysis of
+such a store names the unit; analyse-store given --unit says that the unit is the store's;
+a segment without a word, left out under --min-tokens 0 too, is said to hold none.
 
 Reference: lxml counts each file's segments by TEI P5's encoding of the units, as README's
 "Using it" gives them: a speaker's speeches are `sp` elements with `@who` (TEI P5
@@ -9,12 +11,14 @@ Reference: lxml counts each file's segments by TEI P5's encoding of the units, a
 examples/ (a play and letters).
 """
 import os
+import random
 import re
 import shutil
 import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
+from invented_letters import write_letters, zipf_words  # noqa: E402
 from lxml import etree  # noqa: E402
 
 NS = {"t": "http://www.tei-c.org/ns/1.0"}
@@ -55,5 +59,31 @@ for folder in (both, letters_only):
         again = mtest.run(["batch", folder, "--store", store, "--unit", unit, "--quiet"])
         mtest.check("hold no segment" not in again.stderr, "a re-run that read nothing: %r" % again.stderr)
 mtest.check(said_anything, "lxml finds no file without segments: the test shows nothing")
+
+# The analysis of such a store names the unit it lacks, and analyse-store given --unit (the
+# unit is the store's, read by batch) says where the unit comes from rather than CLI11's
+# "not expected" (exit 2, README's usage error).
+proc = mtest.run(["analyse-store", "--store", os.path.join(tmp, "letters-only-speaker.sqlite")], check=False)
+mtest.check(proc.returncode == 4 and "hold no segment of --unit speaker" in proc.stderr,
+            "analysing a store without a segment of its unit: exit %d, %s" % (proc.returncode, proc.stderr))
+proc = mtest.run(["analyse-store", "--store", os.path.join(tmp, "both-letter.sqlite"), "--unit", "letter"], check=False)
+mtest.check(proc.returncode == 2 and "batch --unit" in proc.stderr and "--list-settings" in proc.stderr,
+            "analyse-store --unit: exit %d, %s" % (proc.returncode, proc.stderr))
+
+# A segment without a word is left out under any --min-tokens, 0 too; the note says so
+# rather than "shorter than the minimum of 0 words". lxml counts the letters whose text is
+# empty (TEI P5 div[@type='letter'] of invented letters, one of them empty).
+empty_letters = os.path.join(tmp, "empty-letter")
+os.makedirs(empty_letters)
+rng = random.Random(7)
+path = write_letters(empty_letters, "short.xml", [("L%d" % k, "p%d" % (k % 2), "Writer %d" % (k % 2),
+                                                    zipf_words(rng, 60, {}) if k else []) for k in range(4)])
+empty = sum(1 for d in etree.parse(path).iter("{%s}div" % NS["t"]) if not "".join(d.itertext()).split())
+store = os.path.join(tmp, "empty-letter.sqlite")
+mtest.run(["batch", empty_letters, "--store", store, "--unit", "letter", "--quiet"])
+proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "0"], check=False)
+expected = "%d segment(s) left out, shorter than the minimum of 1 word: they hold none" % empty
+mtest.check(empty == 1 and expected in proc.stderr, "--min-tokens 0 with an empty letter: %s; expected %r"
+            % (proc.stderr, expected))
 
 mtest.done()
