@@ -89,6 +89,13 @@ CommandRunner add_merge_command(CLI::App& app) {
       std::cerr << "manicule: note: the inputs are shares by the --shard of their batch runs, but none is share "
                 << store::join_shares(merged.missing_shares) << ": " << *out
                 << " holds of it only what an earlier merge brought\n";
+    if (merged.files_maybe_twice)
+      std::cerr << "manicule: note: " << merged.files_maybe_twice << " file(s) the merge added match files of " << *out
+                << " that no input holds, by name, size and time, under another path, such as "
+                << merged.maybe_twice_added << " and " << merged.maybe_twice_held
+                << ": if they are the same files given another way (an absolute path in one task, a relative one "
+                   "in another), "
+                << *out << " now holds them twice; merge --exact keeps the inputs' paths alone\n";
     // A file deleted or renamed since an earlier merge is gone from the shares but not
     // from OUT: without --exact merge adds and updates, it never removes, so the curator is told.
     if (!merged.held_by_no_input.empty())

@@ -3,6 +3,9 @@
 #include <algorithm>
 #include <cstdio>
 #include <iterator>
+#include <map>
+#include <optional>
+#include <tuple>
 #include <unordered_map>
 
 #include "core/error.h"
@@ -103,6 +106,7 @@ void merge_files(Database& out, Database& input, MergeSummary& summary) {
     upsert.bind_column(6, files, 5).bind_column(7, files, 6);
     upsert.step_to_end();
     ++(present ? summary.files_updated : summary.files_added);
+    if (!present) summary.paths_added.push_back(files.text_at(0));
   }
 }
 
@@ -127,6 +131,34 @@ std::vector<std::string> shares_missing(const std::vector<std::pair<std::string,
   for (unsigned k = 1; k <= count; ++k)
     if (!found.count(k)) missing.push_back(std::to_string(k) + "/" + std::to_string(count));
   return missing;
+}
+
+// Sets outcome.files_maybe_twice (store_merge.h) from the files each input added and those
+// of OUT that no input holds.
+void note_files_maybe_held_twice(Database& out, MergeOutcome& outcome) {
+  if (outcome.held_by_no_input.empty()) return;
+  using Identity = std::tuple<std::string, std::int64_t, std::int64_t>;  // relative path, size, time
+  Statement row = out.prepare("SELECT relative_path, size, mtime_ns FROM files WHERE path = ?1");
+  const auto identity = [&row](const std::string& path) -> std::optional<Identity> {
+    row.bind(1, path);
+    std::optional<Identity> found;
+    if (row.step()) found = Identity{row.text_at(0), row.int64_at(1), row.int64_at(2)};
+    row.reset();
+    return found;
+  };
+  std::map<Identity, std::string> unheld;
+  for (const std::string& path : outcome.held_by_no_input)
+    if (auto id = identity(path)) unheld.emplace(*id, path);
+  for (const auto& [input, summary] : outcome.inputs)
+    for (const std::string& added : summary.paths_added) {
+      const auto id = identity(added);
+      const auto match = id ? unheld.find(*id) : unheld.end();
+      if (match == unheld.end()) continue;
+      if (outcome.files_maybe_twice++ == 0) {
+        outcome.maybe_twice_added = added;
+        outcome.maybe_twice_held = match->second;
+      }
+    }
 }
 
 }  // namespace
@@ -199,6 +231,7 @@ MergeOutcome merge_stores(Database& out, const std::vector<std::string>& inputs,
                     "; merge every share (a task that saved no store: run it again), or merge without --exact");
   std::set_difference(held_before.begin(), held_before.end(), input_files.begin(), input_files.end(),
                       std::inserter(outcome.held_by_no_input, outcome.held_by_no_input.end()));
+  if (!exact) note_files_maybe_held_twice(out, outcome);
   if (exact) {
     remove_files(out, outcome.held_by_no_input);
     outcome.files_removed = outcome.held_by_no_input.size();

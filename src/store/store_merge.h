@@ -26,6 +26,7 @@ struct MergeSummary {
   std::set<std::string> settings_keys;        // the reading settings the input holds
   std::vector<std::string> input_unfinished;  // the input's unfinished work (unfinished_work.h)
   std::set<std::string> shares;               // the --shard K/N of the input's batch runs ("1/1": none)
+  std::vector<std::string> paths_added;       // its files that OUT did not hold by their path
 };
 
 struct MergeOutcome {
@@ -36,6 +37,11 @@ struct MergeOutcome {
   // Where each input is one share of N by its batch runs (--shard K/N, the same N), the
   // shares none of them is: "3/8" for a task that never saved its store.
   std::vector<std::string> missing_shares;
+  // Without exact: files added that match, by name below their input folder, size and time,
+  // a file of OUT under another path that no input holds (the archive given as an absolute
+  // path in one task, a relative one in another): most likely one file, now held twice.
+  std::size_t files_maybe_twice = 0;
+  std::string maybe_twice_added, maybe_twice_held;  // the first such pair
 };
 
 // Merges the stores at `inputs` into `out` (opened with open_store) in one transaction on

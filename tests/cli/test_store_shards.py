@@ -14,6 +14,7 @@ own PRAGMA integrity_check, and lxml for each play's title.
 """
 import json
 import os
+import re
 import shutil
 import sqlite3
 import sys
@@ -101,6 +102,21 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["merge", merged] + shards[:2])
     mtest.check("none is share 3/3" in proc.stderr, "merge without share 3/3 said nothing: %r" % proc.stderr)
     mtest.check(storecheck.logical_tables(merged) == before, "merging shares already merged changed the store")
+
+    # Share 1 read again with the archive given as a relative path (another task's spelling),
+    # merged into a copy: its files are added beside the same files under their absolute
+    # paths, and a note names one such pair (os.path.relpath gives the relative spelling).
+    twice = os.path.join(tmp, "twice.sqlite")
+    shutil.copy(merged, twice)
+    relative_shard = os.path.join(tmp, "shard1-relative.sqlite")
+    mtest.run(["batch", "archive", "--store", relative_shard, "--shard", "1/3"] + common, cwd=tmp)
+    proc = mtest.run(["merge", twice, relative_shard])
+    added = {p for (p,) in storecheck.rows(relative_shard, "SELECT path FROM files")}
+    mtest.check(added == {os.path.relpath(p, tmp) for p in share(1)}, "the relative shard holds %r" % sorted(added))
+    said = re.search(r"note: (\d+) file\(s\) the merge added match files of .* such as (\S+) and (\S+):", proc.stderr)
+    mtest.check(said and int(said.group(1)) == len(share(1)) and said.group(2) in added
+                and os.path.join(tmp, said.group(2)) == said.group(3),
+                "merging a share read under another spelling: %r" % proc.stderr)
 
     # A share read with other options (--no-fold) is merged, and said to hold other settings:
     # an analysis takes one settings' counts, so its files would be left out silently.
