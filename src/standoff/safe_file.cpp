@@ -104,6 +104,23 @@ void sync_folder(const std::string& path) {
   }
 }
 
+void write_through(const std::string& path, std::string_view bytes) {
+  const int fd = ::open(path.c_str(), O_WRONLY | O_CLOEXEC);
+  if (fd < 0) throw Error(ErrorKind::write_failed, std::string("cannot open the output: ") + std::strerror(errno), path);
+  std::size_t at = 0;
+  while (at < bytes.size()) {
+    const ssize_t n = ::write(fd, bytes.data() + at, bytes.size() - at);
+    if (n < 0 && errno == EINTR) continue;
+    if (n <= 0) {
+      const int error_number = errno;
+      ::close(fd);
+      throw Error(ErrorKind::write_failed, std::string("cannot write the output: ") + std::strerror(error_number), path);
+    }
+    at += static_cast<std::size_t>(n);
+  }
+  ::close(fd);
+}
+
 void write_one(const std::string& path, std::string_view bytes, mode_t mode, const FileSnapshot* replacing) {
   TemporaryFile temp(path, mode);
   temp.write_all(bytes, path);
@@ -174,7 +191,14 @@ void write_file_safely(const std::string& path, std::string_view bytes, const Wr
     return m;
   }();
   struct stat st {};
-  if (::stat(target.c_str(), &st) == 0) mode = st.st_mode & 07777;
+  const bool exists = ::stat(target.c_str(), &st) == 0;
+  if (exists && !S_ISREG(st.st_mode) && !options.replacing) {
+    // A device, a pipe or a socket (/dev/stdout, a FIFO a program reads): written through.
+    // A file renamed over it would take its place: as root, /dev/null made a plain file.
+    if (S_ISDIR(st.st_mode)) throw Error(ErrorKind::write_failed, "cannot write the output: it is a folder", path);
+    return write_through(path, bytes);
+  }
+  if (exists) mode = st.st_mode & 07777;
   if (options.replacing) require_unchanged(*options.replacing);
   if (options.backup && options.replacing) {
     std::string backup = target + ".bak";

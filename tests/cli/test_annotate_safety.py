@@ -162,6 +162,24 @@ try:
           "--who #%s with --standoff-file: exit %d, advice %s wanted: %s" % (person, proc.returncode, advice, proc.stderr))
     # The default, our own application (#mcl-app), may also be given by name.
     run(["annotate", source, "--output", out, "--who", "#mcl-app"] + ARGS, env=ENV)
+
+    # --output naming a pipe (a FIFO another program reads; /dev/stdout is one behind a
+    # link): written through it, not replaced by a file renamed over it (as root, --output
+    # /dev/null made /dev/null a plain file). POSIX stat: still a FIFO afterwards, and the
+    # bytes read from it are those written to a plain file.
+    import stat
+    import threading
+    fifo = os.path.join(work, "annotated.pipe")
+    os.mkfifo(fifo)
+    received = []
+    reader = threading.Thread(target=lambda: received.append(open(fifo, "rb").read()), daemon=True)
+    reader.start()
+    proc = run(["annotate", source, "--output", fifo] + ARGS, check=False, env=ENV)
+    reader.join(timeout=30)
+    run(["annotate", source, "--output", out] + ARGS, env=ENV)
+    check(proc.returncode == 0 and stat.S_ISFIFO(os.stat(fifo).st_mode) and received == [open(out, "rb").read()],
+          "--output to a pipe: exit %d, still a pipe: %s, %d bytes read; %s" % (
+              proc.returncode, stat.S_ISFIFO(os.stat(fifo).st_mode), len(received[0]) if received else -1, proc.stderr))
 finally:
     shutil.rmtree(work, ignore_errors=True)
 done()
