@@ -3,22 +3,35 @@
 #include <algorithm>
 #include <filesystem>
 #include <map>
+#include <unordered_map>
 
 #include "core/error.h"
 #include "profile/profile_builder.h"
 #include "profile/vocabulary.h"
 #include "tei/reader.h"
+#include "text/language_tags.h"
 #include "text/tokenizer.h"
 
 namespace manicule {
 
 namespace {
 
-// The language holding the most tokens of the file's segments: the file's language.
+// Whether a tag as an edition gives it can be read as a language (canonical_language_tag):
+// "de_AT" cannot. Worked out once per tag and reading thread, as files repeat a few tags.
+bool readable_language(const std::string& tag) {
+  thread_local std::unordered_map<std::string, bool> readable;
+  auto [it, fresh] = readable.try_emplace(tag, false);
+  if (fresh) it->second = !canonical_language_tag(tag).empty();
+  return it->second;
+}
+
+// The language holding the most tokens of the file's segments, of those whose tags can be
+// read: the file's language. A segment whose tag cannot be read takes the file's (stored
+// analyses, docs/store.md), which must then not be that tag too.
 std::string main_language(const std::vector<SegmentRecord>& segments) {
   std::map<std::string, std::size_t> tokens;
   for (const auto& r : segments)
-    if (!r.segment.language.empty()) tokens[r.segment.language] += r.tokens;
+    if (!r.segment.language.empty() && readable_language(r.segment.language)) tokens[r.segment.language] += r.tokens;
   std::string best;
   std::size_t most = 0;
   for (const auto& [language, n] : tokens)
@@ -81,7 +94,10 @@ FileReading read_file(const std::string& file, const Request& request, const Sel
     result.metadata.year = first_year(result.metadata.date);
     // The language of its text (tei-conventions 4): its segments' (each run's xml:lang,
     // else langUsage), else the TEI element's xml:lang, and langUsage only after that.
+    // Tags that cannot be read are passed by; where none can, the first given is kept.
     result.metadata.language = main_language(result.segments);
+    for (const std::string* tag : {&header.tei_language, &header.language})
+      if (result.metadata.language.empty() && !tag->empty() && readable_language(*tag)) result.metadata.language = *tag;
     if (result.metadata.language.empty()) result.metadata.language = header.tei_language;
     if (result.metadata.language.empty()) result.metadata.language = header.language;
   } catch (const Error& e) {

@@ -39,8 +39,10 @@ struct SelectionRules;
 // sending) correspDesc date no work; a teiCorpus's cast list names every play's voices.
 // 8: a teiCorpus file is dated by its own header alone (a text none dates is undated, not
 // dated by the first text); a <name> of a place in a sent correspAction is no sender; the
-// earliest sending is the earliest date, not the first of the earliest year.
-constexpr int kReadingRevision = 8;
+// earliest sending is the earliest date, not the first of the earliest year. 9: a file's
+// language is taken from its segments' tags that can be read ("de_AT" cannot), else its
+// TEI element's and langUsage, as before.
+constexpr int kReadingRevision = 9;
 
 // What the edition's own header says (the first TEI element's teiHeader, with a
 // teiCorpus's own title and authors where it gives them).

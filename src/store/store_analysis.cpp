@@ -134,11 +134,14 @@ std::string mixed_languages_note(const StoredCorpus& stored) {
   const auto known = std::count_if(languages.begin(), languages.end(), [](const auto& l) { return !l.first.empty(); });
   if (known < 2) return {};
   std::stable_sort(languages.begin(), languages.end(), [](const auto& a, const auto& b) { return a.second > b.second; });
-  std::string counts;
-  for (const auto& [language, segments] : languages)
-    counts += (counts.empty() ? "" : ", ") + (language.empty() ? std::string("unknown") : language) + " " +
-              std::to_string(segments);
-  return "the segments analysed are in " + std::to_string(known) + " languages (" + counts +
+  std::string counts, unknown;
+  for (const auto& [language, segments] : languages) {
+    if (language.empty())
+      unknown = "; " + std::to_string(segments) + " of unknown language";
+    else
+      counts += (counts.empty() ? "" : ", ") + language + " " + std::to_string(segments);
+  }
+  return "the segments analysed are in " + std::to_string(known) + " languages (" + counts + unknown +
          "): their most frequent words are taken from all of them together, so the nearest segments follow the "
          "language before the style; --language LANG analyses one language at a time";
 }

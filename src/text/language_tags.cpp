@@ -1,6 +1,7 @@
 #include "text/language_tags.h"
 
 #include <unicode/locid.h>
+#include <unicode/uloc.h>
 
 namespace manicule {
 
@@ -23,8 +24,14 @@ std::string_view primary_subtag(std::string_view canonical_tag) {
 }
 
 bool is_language_code(std::string_view tag) {
-  const std::size_t length = primary_subtag(canonical_language_tag(tag)).size();
-  return length == 2 || length == 3;
+  const std::string canonical = canonical_language_tag(tag);
+  const std::string_view primary = primary_subtag(canonical);
+  if (primary.size() == 3) return true;  // ISO 639-2 and -3 codes: more than ICU lists
+  if (primary.size() != 2) return false;
+  // Two letters: one that ISO 639-1 assigns, as ICU lists them ("xx" is none).
+  for (const char* const* code = uloc_getISOLanguages(); *code; ++code)
+    if (primary == *code) return true;
+  return false;
 }
 
 LanguageRange::LanguageRange(std::string_view range) : canonical_(canonical_language_tag(range)) {}

@@ -18,7 +18,8 @@ std::string canonical_language_tag(std::string_view tag);
 std::string_view primary_subtag(std::string_view canonical_tag);
 
 // Whether `tag` names a language by an ISO 639 code of two or three letters, with or without
-// further subtags: "de", "ger", "en-GB", not "german" (well-formed BCP 47, but no code).
+// further subtags: "de", "ger", "en-GB", not "german" (well-formed BCP 47, but no code) nor
+// "xx" (two letters that ISO 639-1 does not assign, by ICU's list of them).
 bool is_language_code(std::string_view tag);
 
 // A language range to filter by, such as a user's --language: which tags it holds.

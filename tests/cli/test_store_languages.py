@@ -8,7 +8,8 @@ language is read here with lxml from its xml:lang (XML 1.0, section 2.12: the at
 is inherited, so the root's applies to its text). Two copies of the plays are written with
 other spellings of German on the root: "ger", the ISO 639-2 bibliographic code, and
 "de-AT", a BCP 47 tag with a region (RFC 5646); both are German, "de" by its primary
-subtag (ISO 639-1), and must be counted with the other German play.
+subtag (ISO 639-1), and must be counted with the other German play. Two more copies give
+their text an xml:lang that cannot be read as a tag ("de_AT"): they take the root's, German.
 """
 import os
 import re
@@ -91,5 +92,38 @@ languages, measured = analyse("german", plays[:1] + respelled)
 mtest.check(measured == 3 and languages == {}, "german: %d measured, note %r; expected 3 and none" % (measured, languages))
 languages, measured = analyse("filtered", plays + novels, "--language", "en")
 mtest.check(measured == 3 and languages == {}, "filtered: %d measured, note %r; expected 3 and none" % (measured, languages))
+
+# A text whose xml:lang cannot be read as a tag ("de_AT": '_' is no BCP 47 separator, RFC
+# 5646 section 2.1) takes its file's language, the root's (docs/store.md): two plays so
+# written are German under --language de, and no segment is of unknown language.
+unreadable = []
+for path in (plays[0], plays[2]):
+    tree = etree.parse(path)
+    text = tree.getroot().find("{http://www.tei-c.org/ns/1.0}text")
+    text.set(XML_LANG, "de_AT")
+    copy = os.path.join(tmp, "de_AT-" + os.path.basename(path))
+    tree.write(copy, xml_declaration=True, encoding="utf-8")
+    mtest.check(root_language(copy) == "de", "%s: the root's xml:lang is %r" % (copy, root_language(copy)))
+    unreadable.append(copy)
+languages, measured = analyse("unreadable-tag", unreadable + novels[:1])
+mtest.check(measured == 3 and languages == {"de": 2, "en": 1},
+            "a text tagged de_AT: %d measured, languages %r; expected 3, de 2, en 1" % (measured, languages))
+languages, measured = analyse("unreadable-tag-de", unreadable + novels[:1], "--language", "de")
+mtest.check(measured == 2 and languages == {}, "--language de over texts tagged de_AT: %d measured, note %r"
+            % (measured, languages))
+
+# A play stripped of every xml:lang (lxml; it has no langUsage either) is of unknown
+# language: the note counts the known languages and gives the unknown ones apart.
+unknown = os.path.join(tmp, "untagged-" + PLAYS[0])
+tree = etree.parse(plays[0])
+for element in tree.iter():
+    element.attrib.pop(XML_LANG, None)
+tree.write(unknown, xml_declaration=True, encoding="utf-8")
+mtest.check(not etree.parse(unknown).xpath("//@xml:lang|//*[local-name()='langUsage']"),
+            "the untagged copy still names a language")
+proc = mtest.run(["batch", unknown, plays[1], novels[0], "--store", os.path.join(tmp, "unknown.sqlite"), "--unit",
+                  "whole", "--analyse", "--quiet"])
+mtest.check("in 2 languages (de 1, en 1; 1 of unknown language)" in proc.stderr,
+            "a segment of unknown language beside two known: %r" % proc.stderr)
 
 mtest.done()

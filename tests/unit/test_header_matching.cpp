@@ -129,6 +129,12 @@ TEST_CASE("a language range holds the tags that extend it (RFC 4647 3.3.1)", "[l
   CHECK(is_language_code("ger"));
   CHECK(is_language_code("en-GB"));
   CHECK_FALSE(is_language_code("x-private"));
+  // Two letters that ISO 639-1 assigns to no language (from memory of the ISO 639-1 list:
+  // no code begins with x or q), beside two that it does.
+  CHECK_FALSE(is_language_code("xx"));
+  CHECK_FALSE(is_language_code("qq-GB"));
+  CHECK(is_language_code("cy"));
+  CHECK(is_language_code("iw"));  // withdrawn for "he", which ICU's canonical form gives
   CHECK(canonical_language_tag("und").empty());
   CHECK(canonical_language_tag("e!").empty());
 }
