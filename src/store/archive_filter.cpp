@@ -125,6 +125,9 @@ FolderFilter::FolderFilter(const ArchiveFilter& filter) : given_(filter.folder) 
     absolute_.push_back({absolute_spelling(given_, working_folder),
                          filter.stored_paths_base.empty() ? working_folder
                                                           : std::filesystem::path(filter.stored_paths_base)});
+  std::error_code ec;
+  const auto resolved = std::filesystem::weakly_canonical(absolute_.front().first, ec);
+  if (!ec) resolved_ = absolute_spelling(resolved.string(), "/");
 }
 
 bool FolderFilter::holds(const std::string& path, const std::string& relative_path) const {
@@ -137,7 +140,21 @@ bool FolderFilter::holds(const std::string& path, const std::string& relative_pa
   // "arch/x/../de", a folder reached through a link.
   for (const auto& [folder, base] : absolute_)
     if (starts_with_folder(absolute_spelling(path, base), folder)) return true;
-  return false;
+  // Through links: the path's folder resolved (once for all the files in it) against the
+  // folder resolved.
+  if (resolved_.empty() || absolute_.empty()) return false;
+  const std::string absolute = absolute_spelling(path, absolute_.front().second);
+  const std::size_t slash = absolute.rfind('/');
+  if (slash == std::string::npos) return false;
+  const std::string parent = slash == 0 ? "/" : absolute.substr(0, slash);
+  auto known = resolved_parents_.find(parent);
+  if (known == resolved_parents_.end()) {
+    std::error_code ec;
+    const auto resolved = std::filesystem::weakly_canonical(parent, ec);
+    known = resolved_parents_.emplace(parent, ec ? parent : absolute_spelling(resolved.string(), "/")).first;
+  }
+  const std::string resolved_path = (known->second == "/" ? "" : known->second) + absolute.substr(slash);
+  return starts_with_folder(resolved_path, resolved_);
 }
 
 bool header_matches(const ArchiveFilter& filter, const FileMetadata& m) {

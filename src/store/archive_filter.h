@@ -6,6 +6,7 @@
 #pragma once
 #include <filesystem>
 #include <string>
+#include <unordered_map>
 #include <utility>
 #include <vector>
 
@@ -63,6 +64,11 @@ class FolderFilter {
   // The folder's absolute spelling for each spelling of the working folder, with the
   // folder that relative stored paths are relative to.
   std::vector<std::pair<std::string, std::filesystem::path>> absolute_;
+  // The folder as the system resolves it, links followed, and the resolved spellings of
+  // the folders that paths lie in (worked out once each): a folder and a path reached
+  // through different links ("/data/arch/de" for "/mnt/vol/arch/de") are compared so.
+  std::string resolved_;
+  mutable std::unordered_map<std::string, std::string> resolved_parents_;
 };
 
 // Whether `path` lies below `folder` (a prefix ending at a '/', of the path or the folder).
