@@ -1,8 +1,11 @@
 #include "cli/progress_display.h"
 
+#include <sys/ioctl.h>
 #include <unistd.h>
 
 #include <cstdio>
+#include <cstdlib>
+#include <cstring>
 #include <string>
 
 namespace manicule::cli {
@@ -19,8 +22,26 @@ std::string clock_text(double seconds) {
 
 }  // namespace
 
+namespace {
+
+// A terminal that can take the line back: not one that declares itself without cursor
+// control (TERM=dumb, as editors' shells do), where each update would stay on the screen.
+bool can_redraw_a_line() {
+  const char* term = std::getenv("TERM");
+  return isatty(STDERR_FILENO) && !(term && std::strcmp(term, "dumb") == 0);
+}
+
+// The terminal's width in columns, 0 when it does not say.
+std::size_t terminal_columns() {
+  struct winsize size {};
+  if (ioctl(STDERR_FILENO, TIOCGWINSZ, &size) != 0) return 0;
+  return size.ws_col;
+}
+
+}  // namespace
+
 ProgressDisplay::ProgressDisplay(bool quiet)
-    : enabled_(!quiet && isatty(STDERR_FILENO)), start_(std::chrono::steady_clock::now()) {}
+    : enabled_(!quiet && can_redraw_a_line()), start_(std::chrono::steady_clock::now()) {}
 
 ProgressDisplay::~ProgressDisplay() { clear(); }
 
@@ -31,7 +52,11 @@ bool ProgressDisplay::due(std::chrono::steady_clock::time_point now, bool at_onc
 }
 
 void ProgressDisplay::draw(const std::string& line) {
-  std::fprintf(stderr, "\r\033[K%s", line.c_str());
+  // Cut to the width, less one column: a line that wraps leaves its first rows behind, as
+  // the clear before the next takes back the last row alone. (The lines are ASCII.)
+  const std::size_t columns = terminal_columns();
+  const std::string shown = columns > 1 && line.size() >= columns ? line.substr(0, columns - 1) : line;
+  std::fprintf(stderr, "\r\033[K%s", shown.c_str());
   std::fflush(stderr);
   shown_ = true;
 }

@@ -11,15 +11,20 @@ stderr, while stdout goes to a pipe. Over all GerDraCor plays (../shared/corpora
 - analyse-store --recompute draws the same steps, with --pca also "principal components",
   and with --attribute over the invented letters (examples/) "candidate authors";
 - a re-run whose analysis is stored computes nothing and draws no analysis step;
-- with --quiet, or with stderr a pipe rather than a terminal (a log, a job's output),
-  nothing is drawn: no carriage return, no "files", no "analysis:".
+- with --quiet, or with stderr a pipe rather than a terminal (a log, a job's output), or
+  on a terminal that declares no cursor control (TERM=dumb), nothing is drawn: no carriage
+  return, no "files", no "analysis:";
+- on a narrow terminal (40 columns) every line drawn fits, less one column.
 """
+import fcntl
 import os
 import pty
 import re
+import struct
 import subprocess
 import sys
 import tempfile
+import termios
 
 sys.path.insert(0, os.path.join(os.path.dirname(__file__), "..", "pylib"))
 import mtest  # noqa: E402
@@ -32,17 +37,20 @@ STEP_LINE = re.compile(r"^analysis: ([a-z ]+?)(?:  (\d+)%  " + LEFT + ")?$")
 EXAMPLES = os.path.join(mtest.ROOT, "examples")
 
 
-def run_on_terminal(args):
-    """(exit code, stdout, what the terminal got on stderr) of manicule ARGS."""
+def run_on_terminal(args, columns=0, env=None):
+    """(exit code, stdout, what the terminal got on stderr) of manicule ARGS; with
+    `columns`, on a terminal that says it is that wide (TIOCSWINSZ, Linux tty_ioctl(4))."""
     try:
         controller, terminal = pty.openpty()
     except OSError as e:  # a container without /dev/ptmx: no terminal to draw on
         print("SKIP: no pseudo-terminal: %s" % e)
         sys.exit(77)
+    if columns:
+        fcntl.ioctl(terminal, termios.TIOCSWINSZ, struct.pack("HHHH", 24, columns, 0, 0))
     # stdout to a file, not a pipe: the terminal is read to its end first, and a full pipe
     # would stop the program before that end.
     out_file = tempfile.TemporaryFile()
-    proc = subprocess.Popen([mtest.BIN] + args, stdout=out_file, stderr=terminal)
+    proc = subprocess.Popen([mtest.BIN] + args, stdout=out_file, stderr=terminal, env=env)
     os.close(terminal)
     received = b""
     while True:
@@ -148,6 +156,21 @@ with tempfile.TemporaryDirectory() as tmp:
     # The analysis is stored: a re-run reads nothing and computes nothing.
     code, out, err = run_on_terminal(batch)
     mtest.check(code == 0 and "analysis:" not in err, "a re-run draws no analysis step: %r" % err[-500:])
+
+    # A narrow terminal (40 columns, where "analysis: nearest segments  12%  0:14 left" is
+    # 43): each line is cut to fit, less one column, as a line that wraps leaves its first
+    # rows on the screen when the next clears the last. Each is the start of a line of the
+    # forms above.
+    code, out, err = run_on_terminal(["analyse-store", "--store", store, "--recompute"], columns=40)
+    lines, _ = drawn(err)
+    mtest.check(code == 0 and lines and all(len(line) <= 39 for line in lines),
+                "on 40 columns, lines of %r characters" % sorted({len(line) for line in lines}))
+    mtest.check(any(line.startswith("analysis: nearest segments") for line in lines),
+                "on 40 columns the steps are still named: %r" % lines[:3])
+    # A terminal without cursor control (TERM=dumb, terminfo(5)) gets no progress line.
+    code, out, err = run_on_terminal(["analyse-store", "--store", store, "--recompute"],
+                                     env=dict(os.environ, TERM="dumb"))
+    mtest.check(code == 0 and "\r" not in err and "analysis:" not in err, "TERM=dumb: %r" % err[:300])
 
     for args, how in ((batch + ["--recompute", "--quiet"], "batch --quiet on a terminal"),
                       (["analyse-store", "--store", store, "--recompute", "-q"], "analyse-store -q on a terminal")):
