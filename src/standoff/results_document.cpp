@@ -39,6 +39,9 @@ std::string results_document(const StandoffBuilder& builder, const Analysis& ana
 void refuse_foreign_results_file(const std::string& path) {
   std::error_code ec;
   if (!std::filesystem::exists(path, ec)) return;
+  // A pipe or a device (/dev/stdout) holds no file to overwrite, and reading one could wait
+  // for ever: the results are written through it (safe_file.h).
+  if (!std::filesystem::is_regular_file(path, ec) && !std::filesystem::is_directory(path, ec)) return;
   bool ours = false;
   try {
     FileSnapshot existing = take_snapshot(path);

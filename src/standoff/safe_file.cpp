@@ -7,6 +7,7 @@
 
 #include <cerrno>
 #include <chrono>
+#include <cstdio>
 #include <cstdlib>
 #include <cstring>
 #include <filesystem>
@@ -21,6 +22,12 @@ namespace manicule {
 namespace fs = std::filesystem;
 
 namespace {
+
+std::string octal_mode(mode_t mode) {
+  char text[8];
+  std::snprintf(text, sizeof text, "%04o", static_cast<unsigned>(mode & 07777));
+  return text;
+}
 
 std::int64_t mtime_of(const struct stat& st) {
   return static_cast<std::int64_t>(st.st_mtim.tv_sec) * 1000000000 + st.st_mtim.tv_nsec;
@@ -58,6 +65,15 @@ class TemporaryFile {
     fd_ = ::open(path_.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, mode);
     if (fd_ < 0) write_error("cannot create the temporary file " + path_, target);
     ::fchmod(fd_, mode);  // the umask must not narrow the edition's permissions
+  }
+  // Gives the file the owner and group of the one it replaces, where the system lets us
+  // (root may; another user may give it a group of their own): a shared archive's edition
+  // annotated by root must stay its owner's.
+  void take_owner_of(const struct stat& replaced) {
+    if (::fchown(fd_, replaced.st_uid, replaced.st_gid) != 0) {
+      const int ignored = ::fchown(fd_, static_cast<uid_t>(-1), replaced.st_gid);
+      (void)ignored;
+    }
   }
   ~TemporaryFile() {
     if (fd_ >= 0) ::close(fd_);
@@ -121,8 +137,10 @@ void write_through(const std::string& path, std::string_view bytes) {
   ::close(fd);
 }
 
-void write_one(const std::string& path, std::string_view bytes, mode_t mode, const FileSnapshot* replacing) {
+void write_one(const std::string& path, std::string_view bytes, mode_t mode, const FileSnapshot* replacing,
+               const struct stat* replaced = nullptr) {
   TemporaryFile temp(path, mode);
+  if (replaced) temp.take_owner_of(*replaced);
   temp.write_all(bytes, path);
   if (replacing) require_unchanged(*replacing);
   temp.rename_to(path);
@@ -198,14 +216,28 @@ void write_file_safely(const std::string& path, std::string_view bytes, const Wr
     if (S_ISDIR(st.st_mode)) throw Error(ErrorKind::write_failed, "cannot write the output: it is a folder", path);
     return write_through(path, bytes);
   }
-  if (exists) mode = st.st_mode & 07777;
+  if (exists) {
+    mode = st.st_mode & 07777;
+    // A file put in place of this one would not honour what its mode or its links say.
+    if ((st.st_mode & 0222) == 0 || ::access(target.c_str(), W_OK) != 0)
+      throw Error(ErrorKind::write_failed,
+                  "the file is read-only (mode " + octal_mode(st.st_mode) +
+                      "): it is left as it is; make it writable to write it",
+                  path);
+    if (st.st_nlink > 1)
+      throw Error(ErrorKind::write_failed,
+                  "the file has " + std::to_string(st.st_nlink) +
+                      " hard links: a new file put in its place would part them, the other names keeping the old "
+                      "text; it is left as it is (write to another file with --output, or make it a file of its own)",
+                  path);
+  }
   if (options.replacing) require_unchanged(*options.replacing);
   if (options.backup && options.replacing) {
     std::string backup = target + ".bak";
     remove_stale_temporaries(backup);
     write_one(backup, options.replacing->bytes, mode, nullptr);
   }
-  write_one(target, bytes, mode, options.replacing);
+  write_one(target, bytes, mode, options.replacing, exists ? &st : nullptr);
 }
 
 }  // namespace manicule

@@ -7,6 +7,7 @@
   message (test hook MANICULE_TEST_PAUSE_BEFORE_WRITE): by size, by content with the
   size and modification time put back, and by modification time alone.
 - --backup keeps the edition as it was.
+- A read-only edition or one with several hard links is refused; its owner is kept.
 The reference for "original" and "complete" is the bytes on disk, compared with Python.
 """
 import os
@@ -180,6 +181,46 @@ try:
     check(proc.returncode == 0 and stat.S_ISFIFO(os.stat(fifo).st_mode) and received == [open(out, "rb").read()],
           "--output to a pipe: exit %d, still a pipe: %s, %d bytes read; %s" % (
               proc.returncode, stat.S_ISFIFO(os.stat(fifo).st_mode), len(received[0]) if received else -1, proc.stderr))
+    # The same for a results file (--standoff-file), which was first read to see whether it
+    # is one of ours: a pipe then held the run waiting for a writer, for ever.
+    received = []
+    reader = threading.Thread(target=lambda: received.append(open(fifo, "rb").read()), daemon=True)
+    reader.start()
+    proc = run(["annotate", source, "--standoff-file", fifo] + ARGS, check=False, env=ENV, timeout=60)
+    reader.join(timeout=30)
+    check(proc.returncode == 0 and stat.S_ISFIFO(os.stat(fifo).st_mode) and received and b"<standOff" in received[0],
+          "--standoff-file to a pipe: exit %d, %s" % (proc.returncode, proc.stderr))
+
+    # What an edition's file says of itself is honoured (POSIX stat, hashlib): a read-only
+    # mode (0444) or a second hard link is refused with exit 5 (write_failed), the file
+    # left byte for byte, its mode and links as they were; a file that another user owns
+    # keeps its owner and group when root annotates it (before, the new file was root's).
+    import hashlib
+    def digest(path):
+        return hashlib.sha256(open(path, "rb").read()).hexdigest()
+    locked = os.path.join(work, "locked.xml")
+    shutil.copyfile(source, locked)
+    os.chmod(locked, 0o444)
+    before = digest(locked)
+    proc = run(["annotate", locked, "--in-place"] + ARGS, check=False, env=ENV)
+    check(proc.returncode == 5 and "read-only (mode 0444)" in proc.stderr and digest(locked) == before
+          and os.stat(locked).st_mode & 0o777 == 0o444,
+          "--in-place on a read-only edition: exit %d, %s" % (proc.returncode, proc.stderr))
+    linked = os.path.join(work, "linked.xml")
+    shutil.copyfile(source, linked)
+    os.link(linked, linked + ".other-name")
+    proc = run(["annotate", linked, "--in-place"] + ARGS, check=False, env=ENV)
+    check(proc.returncode == 5 and "2 hard links" in proc.stderr and digest(linked) == digest(source)
+          and os.stat(linked).st_nlink == 2 and os.path.samefile(linked, linked + ".other-name"),
+          "--in-place on an edition with two hard links: exit %d, %s" % (proc.returncode, proc.stderr))
+    if os.geteuid() == 0:
+        owned = os.path.join(work, "owned.xml")
+        shutil.copyfile(source, owned)
+        os.chown(owned, 65534, 65534)
+        run(["annotate", owned, "--in-place"] + ARGS, env=ENV)
+        st = os.stat(owned)
+        check(digest(owned) != digest(source) and (st.st_uid, st.st_gid) == (65534, 65534),
+              "annotated by root, the edition is owned by %d:%d, was 65534:65534" % (st.st_uid, st.st_gid))
 finally:
     shutil.rmtree(work, ignore_errors=True)
 done()
