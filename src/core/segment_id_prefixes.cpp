@@ -34,6 +34,56 @@ std::string path_end(const std::string& path, std::size_t parts) {
   return slash == std::string::npos ? file_stem(end) : well_formed_utf8(end.substr(0, slash + 1)) + file_stem(end);
 }
 
+// The last `parts` names of `path`, as written, extension and all: "c/x.tei".
+std::string path_end_as_written(const std::string& path, std::size_t parts) {
+  std::size_t start = path.size();
+  for (std::size_t found = 0; found < parts && start > 0; ++found) {
+    const std::size_t slash = path.find_last_of('/', start - 1);
+    start = slash == std::string::npos ? 0 : slash;
+    if (slash == std::string::npos) break;
+  }
+  std::string end = path.substr(start);
+  while (!end.empty() && end.front() == '/') end.erase(0, 1);
+  return well_formed_utf8(end.empty() ? path : end);
+}
+
+// Sets the prefixes of `group` to `end(path, parts)` for the fewest parts, from 2 on, that
+// tell them apart, or else that give whole paths (a path has at most as many names as it
+// has characters, so this ends). Returns whether they are apart.
+template <class End>
+bool shortest_distinct_ends(const std::vector<std::string>& paths, const std::vector<std::size_t>& group, End end,
+                            std::vector<std::string>& prefixes) {
+  for (std::size_t parts = 2;; ++parts) {
+    std::set<std::string> seen;
+    bool distinct = true, whole = true;
+    for (std::size_t i : group) {
+      prefixes[i] = end(paths[i], parts);
+      distinct = seen.insert(prefixes[i]).second && distinct;
+      whole = whole && prefixes[i] == end(paths[i], parts + 1);
+    }
+    if (distinct || whole) return distinct;
+  }
+}
+
+// Files whose paths differ only in their extension (c/x.xml, c/x.tei) or in bytes that
+// are not UTF-8 (each read as U+FFFD) share every end without their extension: such a
+// group is told apart by the shortest ends with it, of one folder name at least as files
+// of one name in sibling folders get ("c/x.xml", "c/x.tei"), and what is still alike by a
+// number in path order ("c/a\uFFFD.xml~2").
+void keep_apart(const std::vector<std::string>& paths, const std::vector<std::size_t>& files,
+                std::vector<std::string>& prefixes) {
+  std::map<std::string, std::vector<std::size_t>> alike;
+  for (std::size_t i : files) alike[prefixes[i]].push_back(i);
+  for (const auto& [prefix, group] : alike) {
+    if (group.size() < 2 || shortest_distinct_ends(paths, group, path_end_as_written, prefixes)) continue;
+    std::vector<std::size_t> by_path = group;
+    std::sort(by_path.begin(), by_path.end(), [&paths](std::size_t a, std::size_t b) { return paths[a] < paths[b]; });
+    std::map<std::string, std::size_t> uses;
+    for (std::size_t i : by_path)
+      if (const std::size_t n = ++uses[prefixes[i]]; n > 1) prefixes[i] += "~" + std::to_string(n);
+  }
+}
+
 }  // namespace
 
 std::string file_stem(const std::string& path) {
@@ -53,18 +103,9 @@ std::vector<std::string> segment_id_prefixes(const std::vector<std::string>& pat
   }
   for (const auto& [stem, files] : by_stem) {
     if (files.size() < 2) continue;
-    // Longer ends of the paths until the group's are distinct (a path has at most as many
-    // names as it has characters, so this ends).
-    for (std::size_t parts = 2;; ++parts) {
-      std::set<std::string> seen;
-      bool distinct = true, whole = true;
-      for (std::size_t i : files) {
-        prefixes[i] = path_end(paths[i], parts);
-        distinct = seen.insert(prefixes[i]).second && distinct;
-        whole = whole && prefixes[i] == path_end(paths[i], parts + 1);
-      }
-      if (distinct || whole) break;
-    }
+    // Longer ends of the paths until the group's are distinct; where whole paths are not,
+    // the extensions too.
+    if (!shortest_distinct_ends(paths, files, path_end, prefixes)) keep_apart(paths, files, prefixes);
   }
   return prefixes;
 }

@@ -2,8 +2,10 @@
 // file's stem ("ferry-letters" for .../ferry-letters.xml). Files of one name in several
 // folders of an archive (1850/letters.xml, 1851/letters.xml) would share it: theirs is the
 // shortest end of their path, in whole names, that tells them apart ("1850/letters"), or
-// the whole path without its extension. Ids therefore depend on the other files of a run
-// only where names repeat.
+// the whole path without its extension. Paths alike but for their extension (x.xml,
+// x.tei in one folder) keep it ("x.xml"), and any still alike (bytes not UTF-8, each read
+// as U+FFFD) are numbered in path order ("a\uFFFD.xml~2"). Ids therefore depend on the
+// other files of a run only where names repeat.
 #pragma once
 #include <string>
 #include <vector>

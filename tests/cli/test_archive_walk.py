@@ -82,6 +82,25 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(len(said) == 2 and all(line.startswith("manicule: note: " + e) for line, e in zip(said, expected)),
                 "with --folder 1870 the notes say %r, expected %r" % (said, expected))
 
+# Two files alike but for their extension, in one folder (x.xml and x.tei): both are read,
+# and their segment ids told apart by the names with their extension, with the folder's
+# name as for files of one name in two folders (README, segment ids); the run used to stop,
+# "occurs twice in one profile" (exit 2). The names expected come from os.path.
+with tempfile.TemporaryDirectory() as tmp:
+    twins = os.path.join(tmp, "twins")
+    os.makedirs(twins)
+    for name in ("x.xml", "x.tei"):
+        shutil.copy(LETTERS, os.path.join(twins, name))
+    proc = mtest.run(["segments", twins, "--unit", "letter", "--format", "json"], check=False)
+    mtest.check(proc.returncode == 0, "segments over x.xml and x.tei: exit %d, %s" % (proc.returncode, proc.stderr))
+    segments = json.loads(proc.stdout)["segments"]
+    expected = {p: {os.path.basename(os.path.dirname(p)) + "/" + os.path.basename(p)}
+                for p in (os.path.join(twins, "x.xml"), os.path.join(twins, "x.tei"))}
+    got = {}
+    for s in segments:
+        got.setdefault(s["file"], set()).add(s["segment"].rsplit("#", 1)[0])
+    mtest.check(got == expected, "the ids' file parts %r, expected %r" % (got, expected))
+
 # Links under a TEI name that lead to no file (the target moved away, or two links pointing
 # at each other) are files of the archive that cannot be read: a batch records each with the
 # system's reason and goes on with the rest (exit 1); before, a loop of links stopped the

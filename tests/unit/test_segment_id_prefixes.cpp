@@ -36,3 +36,15 @@ TEST_CASE("segment id prefixes: well-formed UTF-8", "[segment_id_prefixes]") {
   CHECK(segment_id_prefixes({"caf\xE9/letters.xml", "tea/letters.xml"}) ==
         Paths{"caf\xEF\xBF\xBD/letters", "tea/letters"});
 }
+
+TEST_CASE("segment id prefixes: paths alike but for the extension", "[segment_id_prefixes]") {
+  // x.xml and x.tei in one folder: the names with their extension, with as many folder
+  // names as the group's other ends have.
+  CHECK(segment_id_prefixes({"c/x.xml", "c/x.tei", "c/y.xml"}) == Paths{"c/x.xml", "c/x.tei", "y"});
+  CHECK(segment_id_prefixes({"1850/x.xml", "1851/x.xml", "1851/x.tei"}) ==
+        Paths{"1850/x", "1851/x.xml", "1851/x.tei"});
+  // Names alike once their bytes that are not UTF-8 are read as U+FFFD: numbered in byte
+  // order of the paths (0xFE before 0xFF), the first without a number.
+  CHECK(segment_id_prefixes({"a\xFF.xml", "a\xFE.xml"}) ==
+        Paths{"a\xEF\xBF\xBD.xml~2", "a\xEF\xBF\xBD.xml"});
+}
