@@ -102,9 +102,11 @@ class Scanner {
   ScannedDocument run() {
     if (b_.size() >= 3 && b_.compare(0, 3, "\xEF\xBB\xBF") == 0) doc_.bom_size = 3;
     p_ = doc_.bom_size;
-    std::size_t first_newline = b_.find('\n');
-    if (first_newline != std::string_view::npos && first_newline > 0 && b_[first_newline - 1] == '\r')
-      doc_.newline = "\r\n";
+    // The file's own line end, for the lines added: CRLF, LF, or CR alone (an old Mac's;
+    // XML 1.0 2.11 reads all three as one).
+    const std::size_t first_line_end = b_.find_first_of("\r\n");
+    if (first_line_end != std::string_view::npos && b_[first_line_end] == '\r')
+      doc_.newline = first_line_end + 1 < b_.size() && b_[first_line_end + 1] == '\n' ? "\r\n" : "\r";
     if (starts("<?xml") && p_ + 5 < b_.size() && is_space(b_[p_ + 5])) xml_declaration();
     while (p_ < b_.size()) {
       if (b_[p_] != '<') {

@@ -56,7 +56,7 @@ struct ScannedDocument {
   std::vector<ScannedElement> elements;  // document order; elements[0] is the root
   std::set<std::string> xml_ids;     // every xml:id value in the document
   bool markup_entity_in_root = false;  // a markup entity is referenced inside the root
-  std::string newline = "\n";        // "\r\n" when the first line break is CRLF
+  std::string newline = "\n";        // the first line end's: "\r\n" (CRLF) or "\r" (CR alone)
 
   const ScannedElement& root() const { return elements.front(); }
   // Element children of `parent` with this local name, in document order.

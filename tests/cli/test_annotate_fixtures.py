@@ -92,6 +92,18 @@ try:
     check(utf16[:2] == b"\xff\xfe" and utf16.decode("utf-16").count("<standOff") == 1, "utf16.xml is not UTF-16 LE")
     crlf = open(copies[2], "rb").read()
     check(crlf.count(b"\n") == crlf.count(b"\r\n"), "crlf.xml has line ends without CR after write-back")
+    # The same file with CR alone ending its lines (an old Mac's; XML 1.0 2.11 reads CR as a
+    # line end): the lines added end so too, with no LF anywhere, and only insertions.
+    cr_only = os.path.join(work, "cr", "cr-only.xml")
+    os.makedirs(os.path.dirname(cr_only), exist_ok=True)
+    source = open(os.path.join(FIXTURES, "crlf.xml"), "rb").read().replace(b"\r\n", b"\r")
+    open(cr_only, "wb").write(source)
+    check(b"\n" not in source and source.count(b"\r") > 5, "the CR-only copy has %d CRs" % source.count(b"\r"))
+    run(["annotate", cr_only, "--unit", "whole", "--min-tokens", "1", "--in-place"], env=ENV)
+    after = open(cr_only, "rb").read()
+    _, problems = check_insertions(as_utf8(source), as_utf8(after), parse_bytes=after)
+    check(not problems and b"\n" not in after and after.count(b"\r") > source.count(b"\r"),
+          "a file of CR line ends after write-back: %d LF, %s" % (after.count(b"\n"), "; ".join(problems[:3])))
     again = {c: open(c, "rb").read() for c in copies}
     run(["annotate"] + copies + ["--unit", "whole", "--min-tokens", "1", "--in-place"], env=ENV)
     for c in copies:
