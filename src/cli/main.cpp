@@ -9,6 +9,7 @@
 #include "cli/allocator_settings.h"
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
+#include "cli/message_stream.h"
 #include "cli/number_checks.h"
 #include "cli/unknown_command.h"
 #include "core/error.h"
@@ -25,6 +26,7 @@ int main(int argc, char** argv) {
   cli::keep_freed_memory_for_reuse();
   cli::back_main_heap_with_huge_pages();
   cli::back_thread_heaps_with_huge_pages();
+  const cli::EscapedStderr escaped_stderr;
   CLI::App app{"manicule: measure style inside TEI editions"};
   app.set_version_flag("--version", std::string("manicule ") + MANICULE_VERSION_STRING);
   app.require_subcommand(1);

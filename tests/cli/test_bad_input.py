@@ -511,4 +511,19 @@ for word in ("analyze-store", "frobnicate", "an", "ann", "mp", "segmnts"):
 mtest.check(expected_suggestion("analyze-store") == "analyse-store" and expected_suggestion("frobnicate") is None,
             "the rule's own cases")
 
+# 26. A file name holding control characters (ESC [ 2 K and a carriage return, which on a
+# terminal wiped the "failed:" before them; ECMA-48 EL): said with each as \xNN (C0 controls
+# are bytes below 0x20, ISO/IEC 6429), the rest of the message as it was, exit 1.
+odd_folder = os.path.join(tmp, "control-names")
+os.makedirs(odd_folder)
+odd_name = "a\x1b[2K\rb.xml"
+with open(os.path.join(odd_folder, odd_name), "w") as f:
+    f.write("not xml")
+p = mtest.run(["batch", odd_folder, "--store", os.path.join(tmp, "control.sqlite"), "--unit", "letter", "--quiet"],
+              check=False)
+shown = os.path.join(odd_folder, "".join("\\x%02x" % ord(c) if ord(c) < 0x20 else c for c in odd_name))
+mtest.check(p.returncode == 1 and ("manicule: failed: " + shown + ":1:1:") in p.stderr
+            and not any(ord(c) < 0x20 and c not in "\n\t" for c in p.stderr),
+            "a file name with control characters: exit %d, %r" % (p.returncode, p.stderr))
+
 mtest.done()
