@@ -28,6 +28,7 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
     std::string store;
     std::int64_t settings = 0;
     bool pca = false, attribute = false, recompute = false, list = false, quiet = false;
+    std::string unit;  // taken only to be refused (below)
   };
   auto flags = std::make_shared<Flags>();
   command->add_option("--store", flags->store, "the SQLite store made by batch")->required()->check(not_blank());
@@ -44,8 +45,7 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
   // Not an option of this command (the unit is the store's, read by batch), but one a user
   // of the other commands gives by habit: taken, unlisted, to say so rather than CLI11's
   // "not expected".
-  auto unit = std::make_shared<std::string>();
-  command->add_option("--unit,-u", *unit)->group("");
+  command->add_option("--unit,-u", flags->unit)->group("");
 
   return [=]() -> int {
     if (command->count("--unit"))
