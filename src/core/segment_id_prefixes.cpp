@@ -84,6 +84,34 @@ void keep_apart(const std::vector<std::string>& paths, const std::vector<std::si
   }
 }
 
+// An end made for one group may be another group's ("c/x.tei" for c/x.tei beside c/x.xml,
+// and for c/x.tei.xml by its stem): of files sharing a prefix, the first in path order
+// keeps it and each other takes the shortest end of its path, with its extension, that no
+// file has, else a number.
+void keep_distinct_across_groups(const std::vector<std::string>& paths, std::vector<std::string>& prefixes) {
+  std::map<std::string, std::vector<std::size_t>> by_prefix;
+  for (std::size_t i = 0; i < paths.size(); ++i) by_prefix[prefixes[i]].push_back(i);
+  std::set<std::string> used;
+  for (const auto& [prefix, files] : by_prefix) used.insert(prefix);
+  for (auto& [prefix, files] : by_prefix) {
+    if (files.size() < 2) continue;
+    std::sort(files.begin(), files.end(), [&paths](std::size_t a, std::size_t b) { return paths[a] < paths[b]; });
+    for (std::size_t k = 1; k < files.size(); ++k) {
+      const std::string& path = paths[files[k]];
+      std::string chosen;
+      for (std::size_t parts = 1; chosen.empty(); ++parts) {
+        const std::string end = path_end_as_written(path, parts);
+        if (!used.count(end)) chosen = end;
+        else if (end == path_end_as_written(path, parts + 1)) break;  // the whole path, and taken
+      }
+      for (std::size_t n = 2; chosen.empty(); ++n)
+        if (!used.count(prefix + "~" + std::to_string(n))) chosen = prefix + "~" + std::to_string(n);
+      used.insert(chosen);
+      prefixes[files[k]] = chosen;
+    }
+  }
+}
+
 }  // namespace
 
 std::string file_stem(const std::string& path) {
@@ -107,6 +135,7 @@ std::vector<std::string> segment_id_prefixes(const std::vector<std::string>& pat
     // the extensions too.
     if (!shortest_distinct_ends(paths, files, path_end, prefixes)) keep_apart(paths, files, prefixes);
   }
+  keep_distinct_across_groups(paths, prefixes);
   return prefixes;
 }
 

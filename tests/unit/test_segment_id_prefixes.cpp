@@ -47,4 +47,11 @@ TEST_CASE("segment id prefixes: paths alike but for the extension", "[segment_id
   // order of the paths (0xFE before 0xFF), the first without a number.
   CHECK(segment_id_prefixes({"a\xFF.xml", "a\xFE.xml"}) ==
         Paths{"a\xEF\xBF\xBD.xml~2", "a\xEF\xBF\xBD.xml"});
+  // An end made for one group that another group's stem gives too (names ending .tei.xml,
+  // common in TEI projects): the first in path order keeps it, the other takes the
+  // shortest end of its path, with its extension, that no file has.
+  CHECK(segment_id_prefixes({"c/x.tei", "c/x.xml", "c/x.tei.xml", "d/x.tei.xml"}) ==
+        Paths{"c/x.tei", "c/x.xml", "x.tei.xml", "d/x.tei"});
+  CHECK(segment_id_prefixes({"c/x.xml", "c/x.tei", "d/c/x.xml.xml", "e/x.xml.xml"}) ==
+        Paths{"c/x.xml", "c/x.tei", "x.xml.xml", "e/x.xml"});
 }
