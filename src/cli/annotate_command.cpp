@@ -128,8 +128,10 @@ CommandRunner add_annotate_command(CLI::App& app) {
     std::vector<PreparedOutput> outputs = prepare_annotation(analysis, editions, *settings);
 
     pause_for_tests();
-    for (const PreparedOutput& out : outputs)
+    for (const PreparedOutput& out : outputs) {
       if (out.replacing) require_unchanged(*out.replacing);
+      if (!out.left_as_it_was) check_replaceable(out.path);
+    }
     for (const PreparedOutput& out : outputs) {
       if (out.left_as_it_was) {
         for (const auto& note : out.notes) std::cerr << "manicule: note: " << out.path << ": " << note << '\n';

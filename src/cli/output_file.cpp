@@ -28,10 +28,6 @@ void write_in_place(const std::string& path, const std::function<void(std::ostre
   if (!out) throw Error(ErrorKind::write_failed, "cannot write the output", path);
 }
 
-bool names_a_device_or_descriptor(const std::string& path) {
-  return path.rfind("/dev/", 0) == 0 || path.rfind("/proc/", 0) == 0;
-}
-
 }  // namespace
 
 void write_output(const std::string& path, const std::function<void(std::ostream&)>& write) {
@@ -40,7 +36,7 @@ void write_output(const std::string& path, const std::function<void(std::ostream
     std::cout.flush();
     return;
   }
-  if (names_a_device_or_descriptor(path)) return write_in_place(path, write, true);
+  if (names_a_descriptor_or_device(path)) return write_in_place(path, write, true);
   std::error_code ec;
   std::string target = path;
   if (fs::is_symlink(fs::symlink_status(path, ec))) {
@@ -75,7 +71,7 @@ void write_output(const std::string& path, const std::function<void(std::ostream
 
 void refuse_output_over_input(const std::string& output, const std::vector<std::string>& inputs) {
   std::error_code ec;
-  if (output.empty() || output == "-" || names_a_device_or_descriptor(output) || !fs::exists(output, ec)) return;
+  if (output.empty() || output == "-" || names_a_descriptor_or_device(output) || !fs::exists(output, ec)) return;
   for (const std::string& input : expand_inputs(inputs))
     if (fs::equivalent(output, input, ec))
       throw Error(ErrorKind::usage, "--output " + output + " is one of the inputs (" + input +

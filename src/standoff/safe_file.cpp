@@ -120,8 +120,8 @@ void sync_folder(const std::string& path) {
   }
 }
 
-void write_through(const std::string& path, std::string_view bytes) {
-  const int fd = ::open(path.c_str(), O_WRONLY | O_CLOEXEC);
+void write_through(const std::string& path, std::string_view bytes, bool append) {
+  const int fd = ::open(path.c_str(), O_WRONLY | O_CLOEXEC | (append ? O_APPEND : 0));
   if (fd < 0) throw Error(ErrorKind::write_failed, std::string("cannot open the output: ") + std::strerror(errno), path);
   std::size_t at = 0;
   while (at < bytes.size()) {
@@ -197,45 +197,71 @@ void require_unchanged(const FileSnapshot& snapshot) {
     throw Error(ErrorKind::changed_on_disk, "the file's content changed" + advice, snapshot.path);
 }
 
-void write_file_safely(const std::string& path, std::string_view bytes, const WriteOptions& options) {
-  // Write beside the real file when given a symbolic link, and keep the link.
+bool names_a_descriptor_or_device(const std::string& path) {
+  return path.rfind("/dev/", 0) == 0 || path.rfind("/proc/", 0) == 0;
+}
+
+namespace {
+
+// `path`, or the file a symbolic link at it leads to: the new file is written beside the
+// real one, and the link kept.
+std::string real_target(const std::string& path) {
   std::error_code ec;
   std::string target = fs::is_symlink(path, ec) ? fs::canonical(path, ec).string() : path;
-  if (target.empty()) target = path;
+  return target.empty() ? path : target;
+}
+
+}  // namespace
+
+void check_replaceable(const std::string& path) {
+  if (names_a_descriptor_or_device(path)) return;
+  const std::string target = real_target(path);
+  struct stat st {};
+  if (::stat(target.c_str(), &st) != 0) return;  // a new file
+  if (S_ISDIR(st.st_mode)) throw Error(ErrorKind::write_failed, "cannot write the output: it is a folder", path);
+  if (!S_ISREG(st.st_mode)) return;  // a pipe or a device: written through
+  // A file put in place of this one would not honour what its mode or its links say.
+  if ((st.st_mode & 0222) == 0)
+    throw Error(ErrorKind::write_failed,
+                "the file is read-only (mode " + octal_mode(st.st_mode) +
+                    "): it is left as it is; make it writable to write it",
+                path);
+  if (::access(target.c_str(), W_OK) != 0)
+    throw Error(ErrorKind::write_failed,
+                "the file is not writable by this user (mode " + octal_mode(st.st_mode) + ", owner " +
+                    std::to_string(st.st_uid) + "): it is left as it is",
+                path);
+  if (st.st_nlink > 1)
+    throw Error(ErrorKind::write_failed,
+                "the file has " + std::to_string(st.st_nlink) +
+                    " hard links: a new file put in its place would part them, the other names keeping the old "
+                    "text; it is left as it is (write to another file with --output, or make it a file of its own)",
+                path);
+}
+
+void write_file_safely(const std::string& path, std::string_view bytes, const WriteOptions& options) {
+  if (names_a_descriptor_or_device(path) && !options.replacing) return write_through(path, bytes, true);
+  const std::string target = real_target(path);
+  struct stat st {};
+  const bool exists = ::stat(target.c_str(), &st) == 0;
+  if (exists && !S_ISREG(st.st_mode) && !S_ISDIR(st.st_mode) && !options.replacing) {
+    // A pipe or a socket (a FIFO a program reads): written through. A file renamed over it
+    // would take its place.
+    return write_through(path, bytes, false);
+  }
+  check_replaceable(path);
   remove_stale_temporaries(target);
   mode_t mode = 0666 & ~[] {
     mode_t m = ::umask(0);
     ::umask(m);
     return m;
   }();
-  struct stat st {};
-  const bool exists = ::stat(target.c_str(), &st) == 0;
-  if (exists && !S_ISREG(st.st_mode) && !options.replacing) {
-    // A device, a pipe or a socket (/dev/stdout, a FIFO a program reads): written through.
-    // A file renamed over it would take its place: as root, /dev/null made a plain file.
-    if (S_ISDIR(st.st_mode)) throw Error(ErrorKind::write_failed, "cannot write the output: it is a folder", path);
-    return write_through(path, bytes);
-  }
-  if (exists) {
-    mode = st.st_mode & 07777;
-    // A file put in place of this one would not honour what its mode or its links say.
-    if ((st.st_mode & 0222) == 0 || ::access(target.c_str(), W_OK) != 0)
-      throw Error(ErrorKind::write_failed,
-                  "the file is read-only (mode " + octal_mode(st.st_mode) +
-                      "): it is left as it is; make it writable to write it",
-                  path);
-    if (st.st_nlink > 1)
-      throw Error(ErrorKind::write_failed,
-                  "the file has " + std::to_string(st.st_nlink) +
-                      " hard links: a new file put in its place would part them, the other names keeping the old "
-                      "text; it is left as it is (write to another file with --output, or make it a file of its own)",
-                  path);
-  }
+  if (exists) mode = st.st_mode & 07777;
   if (options.replacing) require_unchanged(*options.replacing);
   if (options.backup && options.replacing) {
     std::string backup = target + ".bak";
     remove_stale_temporaries(backup);
-    write_one(backup, options.replacing->bytes, mode, nullptr);
+    write_one(backup, options.replacing->bytes, mode, nullptr, exists ? &st : nullptr);
   }
   write_one(target, bytes, mode, options.replacing, exists ? &st : nullptr);
 }

@@ -39,7 +39,19 @@ struct WriteOptions {
   bool backup = false;                      // keep the replaced file as <path>.bak
 };
 
+// A name of the process's own descriptors or of a device (/dev/stdout, /dev/fd/3,
+// /proc/self/fd/1, /dev/null): written through, appending, never replaced. Followed as a
+// link, /dev/stdout may lead to the very log the shell opened with >>, which a file renamed
+// over it would take away.
+bool names_a_descriptor_or_device(const std::string& path);
+
 void write_file_safely(const std::string& path, std::string_view bytes, const WriteOptions& options = {});
+
+// Throws Error(write_failed) where write_file_safely would refuse `path`: a folder, a file
+// whose mode says it is read-only or that this user may not write, one with several hard
+// links. Called for every edition before the first is written, so that a run refused for
+// one of them writes none.
+void check_replaceable(const std::string& path);
 
 // ".<name>.manicule-tmp-<pid>" beside `path`.
 std::string temporary_path_for(const std::string& path, long pid);

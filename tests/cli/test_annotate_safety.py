@@ -206,6 +206,14 @@ try:
     check(proc.returncode == 5 and "read-only (mode 0444)" in proc.stderr and digest(locked) == before
           and os.stat(locked).st_mode & 0o777 == 0o444,
           "--in-place on a read-only edition: exit %d, %s" % (proc.returncode, proc.stderr))
+    # With another edition beside it in one run, neither is written: the refusal comes
+    # before the first write, so that a run's results are not split between files.
+    other = os.path.join(work, "beside-locked.xml")
+    shutil.copyfile(source, other)
+    proc = run(["annotate", other, locked, "--in-place"] + ARGS, check=False, env=ENV)
+    check(proc.returncode == 5 and digest(other) == digest(source) and digest(locked) == before,
+          "--in-place on two editions, one read-only: exit %d, the other written: %s; %s"
+          % (proc.returncode, digest(other) != digest(source), proc.stderr))
     linked = os.path.join(work, "linked.xml")
     shutil.copyfile(source, linked)
     os.link(linked, linked + ".other-name")
@@ -217,10 +225,27 @@ try:
         owned = os.path.join(work, "owned.xml")
         shutil.copyfile(source, owned)
         os.chown(owned, 65534, 65534)
-        run(["annotate", owned, "--in-place"] + ARGS, env=ENV)
-        st = os.stat(owned)
-        check(digest(owned) != digest(source) and (st.st_uid, st.st_gid) == (65534, 65534),
-              "annotated by root, the edition is owned by %d:%d, was 65534:65534" % (st.st_uid, st.st_gid))
+        run(["annotate", owned, "--in-place", "--backup"] + ARGS, env=ENV)
+        for path in (owned, owned + ".bak"):
+            st = os.stat(path)
+            check((st.st_uid, st.st_gid) == (65534, 65534),
+                  "annotated by root, %s is owned by %d:%d, was 65534:65534" % (path, st.st_uid, st.st_gid))
+        check(digest(owned) != digest(source) and digest(owned + ".bak") == digest(source),
+              "the edition and its backup after --in-place --backup")
+
+    # --output /dev/stdout with stdout a log opened for appending (the shell's >>): the
+    # edition follows what the log held, which is kept (a file renamed over the log's
+    # path, where the link /dev/stdout leads, took it away). Reference: the edition as
+    # written to a plain file.
+    log = os.path.join(work, "job.log")
+    with open(log, "w") as f:
+        f.write("an earlier line of the job\n")
+    with open(log, "ab") as f:
+        proc = subprocess.run([BIN, "annotate", source, "--output", "/dev/stdout"] + ARGS, stdout=f,
+                              stderr=subprocess.PIPE, env=ENV)
+    run(["annotate", source, "--output", out] + ARGS, env=ENV)
+    check(proc.returncode == 0 and open(log, "rb").read() == b"an earlier line of the job\n" + open(out, "rb").read(),
+          "--output /dev/stdout appended to a log: exit %d, %s" % (proc.returncode, proc.stderr))
 finally:
     shutil.rmtree(work, ignore_errors=True)
 done()
