@@ -50,7 +50,9 @@ save() {
 # what it has read and exits with 143; this trap keeps the script alive to save that.
 trap 'true' TERM
 status=0
-manicule batch "$archive" --store "$local_store" --shard "$k/$n" "${threads[@]}" --quiet "$@" || status=$?
+# (${a[@]+"${a[@]}"}: an empty array under set -u in bash before 4.4 too.)
+manicule batch "$archive" --store "$local_store" --shard "$k/$n" ${threads[@]+"${threads[@]}"} --quiet "$@" ||
+  status=$?
 # Stopped by the time limit (143) or a cancel (130): keep what was read, so that submitting
 # the job again goes on from there; the task still fails, so the merge waits.
 if [ "$status" -eq 143 ] || [ "$status" -eq 130 ]; then save; exit "$status"; fi
