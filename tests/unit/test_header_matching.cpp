@@ -129,10 +129,14 @@ TEST_CASE("a language range holds the tags that extend it (RFC 4647 3.3.1)", "[l
   CHECK(is_language_code("ger"));
   CHECK(is_language_code("en-GB"));
   CHECK_FALSE(is_language_code("x-private"));
-  // Two letters that ISO 639-1 assigns to no language (from memory of the ISO 639-1 list:
-  // no code begins with x or q), beside two that it does.
+  // Two letters that ISO 639-1 assigns to no language, beside some that it does (the ISO
+  // 639-1 codes as the ISO 639-2 registration authority, the Library of Congress, lists
+  // them beside their 639-2 codes; from memory of that list: xh Xhosa, qu Quechua, cy
+  // Welsh, and no xx or qq).
   CHECK_FALSE(is_language_code("xx"));
   CHECK_FALSE(is_language_code("qq-GB"));
+  CHECK(is_language_code("xh"));
+  CHECK(is_language_code("qu"));
   CHECK(is_language_code("cy"));
   CHECK(is_language_code("iw"));  // withdrawn for "he", which ICU's canonical form gives
   CHECK(canonical_language_tag("und").empty());
