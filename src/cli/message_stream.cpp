@@ -7,9 +7,36 @@ namespace manicule::cli {
 
 namespace {
 
-bool passes(unsigned char c) { return c >= 0x20 || c == '\n' || c == '\t'; }
+bool is_c0_or_del(unsigned char c) { return (c < 0x20 && c != '\n' && c != '\t') || c == 0x7f; }
+bool is_c1_follower(unsigned char c) { return c >= 0x80 && c <= 0x9f; }  // after C2: U+0080-U+009F
+
+std::string shown(std::string_view bytes) {
+  std::string out;
+  char escaped[5];
+  for (unsigned char c : bytes) {
+    std::snprintf(escaped, sizeof escaped, "\\x%02x", c);
+    out += escaped;
+  }
+  return out;
+}
 
 }  // namespace
+
+std::string escape_controls(std::string_view text) {
+  std::string out;
+  for (std::size_t i = 0; i < text.size(); ++i) {
+    const auto c = static_cast<unsigned char>(text[i]);
+    if (is_c0_or_del(c)) {
+      out += shown(text.substr(i, 1));
+    } else if (c == 0xc2 && i + 1 < text.size() && is_c1_follower(static_cast<unsigned char>(text[i + 1]))) {
+      out += shown(text.substr(i, 2));
+      ++i;
+    } else {
+      out += text[i];
+    }
+  }
+  return out;
+}
 
 ControlCharacterEscaper::int_type ControlCharacterEscaper::overflow(int_type c) {
   if (traits_type::eq_int_type(c, traits_type::eof())) return traits_type::not_eof(c);
@@ -17,19 +44,35 @@ ControlCharacterEscaper::int_type ControlCharacterEscaper::overflow(int_type c) 
   return xsputn(&ch, 1) == 1 ? c : traits_type::eof();
 }
 
+// Byte by byte through a small buffer: messages are short, and a C2 at the end of one
+// write is decided by the first byte of the next.
 std::streamsize ControlCharacterEscaper::xsputn(const char* s, std::streamsize n) {
-  std::streamsize start = 0;
+  std::string out;
   for (std::streamsize i = 0; i < n; ++i) {
     const auto c = static_cast<unsigned char>(s[i]);
-    if (passes(c)) continue;
-    if (out_->sputn(s + start, i - start) != i - start) return start;
-    char escaped[5];
-    std::snprintf(escaped, sizeof escaped, "\\x%02x", c);
-    if (out_->sputn(escaped, 4) != 4) return i;
-    start = i + 1;
+    if (pending_c2_) {
+      pending_c2_ = false;
+      if (is_c1_follower(c)) {
+        const char pair[2] = {'\xc2', s[i]};
+        out += shown(std::string_view(pair, 2));
+        continue;
+      }
+      out += '\xc2';
+    }
+    if (c == 0xc2) pending_c2_ = true;
+    else if (is_c0_or_del(c)) out += shown(std::string_view(s + i, 1));
+    else out += s[i];
   }
-  if (out_->sputn(s + start, n - start) != n - start) return start;
-  return n;
+  const auto size = static_cast<std::streamsize>(out.size());
+  return out_->sputn(out.data(), size) == size ? n : 0;
+}
+
+int ControlCharacterEscaper::sync() {
+  if (pending_c2_) {
+    pending_c2_ = false;
+    out_->sputc('\xc2');
+  }
+  return out_->pubsync();
 }
 
 EscapedStderr::EscapedStderr() : original_(std::cerr.rdbuf()), escaper_(original_) { std::cerr.rdbuf(&escaper_); }

@@ -1,11 +1,18 @@
 // What the program says on stderr (std::cerr) shows a control character written in a file
 // name or an edition's text as "\x1b" rather than sending it to the terminal: a name
-// holding ESC [ 2 K and a carriage return wiped the "failed:" before it. Line ends and tabs
-// pass. (The progress line draws its own controls with stdio, not through std::cerr.)
+// holding ESC [ 2 K and a carriage return wiped the "failed:" before it. The controls are
+// C0 (below 0x20) but line ends and tabs, DEL (0x7f), and C1 (U+0080-U+009F, in UTF-8
+// C2 80-C2 9F; U+009B is CSI to many terminals), shown by their bytes. (The progress line
+// draws its own controls with stdio, not through std::cerr.)
 #pragma once
 #include <streambuf>
+#include <string>
+#include <string_view>
 
 namespace manicule::cli {
+
+// `text` with its controls shown as above.
+std::string escape_controls(std::string_view text);
 
 class ControlCharacterEscaper : public std::streambuf {
  public:
@@ -14,10 +21,11 @@ class ControlCharacterEscaper : public std::streambuf {
  protected:
   int_type overflow(int_type c) override;
   std::streamsize xsputn(const char* s, std::streamsize n) override;
-  int sync() override { return out_->pubsync(); }
+  int sync() override;
 
  private:
   std::streambuf* out_;
+  bool pending_c2_ = false;  // a C2 byte written last, whose follower decides
 };
 
 // Puts the escaper in front of std::cerr for its lifetime.

@@ -299,7 +299,7 @@ std::unique_ptr<Database> open_store_once(const std::string& path, bool create) 
       std::error_code ec;
       const auto bytes = std::filesystem::file_size(path, ec);
       throw Error(ErrorKind::bad_input, path + " holds no manicule store (" +
-                                            (ec ? std::string("an empty database") : std::to_string(bytes) + " bytes") +
+                                            (ec ? std::string("size unknown") : std::to_string(bytes) + " bytes") +
                                             ", no table; left as it was): was it copied whole?");
     }
   }
@@ -387,7 +387,7 @@ namespace {
 void remove_store_files(const std::string& path) {
   // Called while another error is on its way: a file that cannot go stays, unsaid.
   std::error_code ec;
-  for (const char* suffix : {"", "-wal", "-shm", "-journal"}) std::filesystem::remove(path + suffix, ec);
+  for (const char* suffix : kStoreFileSuffixes) std::filesystem::remove(path + suffix, ec);
 }
 
 }  // namespace

@@ -42,6 +42,10 @@ inline constexpr int kStoreFormat = 4;
 // Without `create`, a file that holds no tables (0 bytes, say) is refused, not made a store.
 std::unique_ptr<Database> open_store(const std::string& path, bool create);
 
+// The endings of the files that make up a store: the store itself, then what SQLite keeps
+// beside it (log, shared memory, rollback journal).
+inline constexpr const char* kStoreFileSuffixes[] = {"", "-wal", "-shm", "-journal"};
+
 // Removes a store this run created and left empty, then closes it. Its files are unlinked
 // while the run still holds the lock, so that a run waiting for it finds no store and makes
 // its own; and the closing leaves the log's name alone, which by then may be that run's.

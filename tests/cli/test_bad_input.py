@@ -512,18 +512,20 @@ mtest.check(expected_suggestion("analyze-store") == "analyse-store" and expected
             "the rule's own cases")
 
 # 26. A file name holding control characters (ESC [ 2 K and a carriage return, which on a
-# terminal wiped the "failed:" before them; ECMA-48 EL): said with each as \xNN (C0 controls
-# are bytes below 0x20, ISO/IEC 6429), the rest of the message as it was, exit 1.
+# terminal wiped the "failed:" before them; ECMA-48 EL): said with each as \xNN, by its
+# UTF-8 bytes (C0 controls below 0x20, DEL 0x7f, C1 controls U+0080-U+009F: ISO/IEC 6429),
+# the rest of the message as it was, exit 1.
 odd_folder = os.path.join(tmp, "control-names")
 os.makedirs(odd_folder)
-odd_name = "a\x1b[2K\rb.xml"
+odd_name = "a\x1b[2K\rb\x7f\u009bc.xml"  # and DEL, and U+009B (CSI, a C1 control: UTF-8 C2 9B)
 with open(os.path.join(odd_folder, odd_name), "w") as f:
     f.write("not xml")
 p = mtest.run(["batch", odd_folder, "--store", os.path.join(tmp, "control.sqlite"), "--unit", "letter", "--quiet"],
               check=False)
-shown = os.path.join(odd_folder, "".join("\\x%02x" % ord(c) if ord(c) < 0x20 else c for c in odd_name))
+shown = os.path.join(odd_folder, "".join("".join("\\x%02x" % b for b in c.encode("utf-8"))
+                                          if ord(c) < 0x20 or 0x7f <= ord(c) <= 0x9f else c for c in odd_name))
 mtest.check(p.returncode == 1 and ("manicule: failed: " + shown + ":1:1:") in p.stderr
-            and not any(ord(c) < 0x20 and c not in "\n\t" for c in p.stderr),
+            and not any((ord(c) < 0x20 and c not in "\n\t") or 0x7f <= ord(c) <= 0x9f for c in p.stderr),
             "a file name with control characters: exit %d, %r" % (p.returncode, p.stderr))
 
 mtest.done()
