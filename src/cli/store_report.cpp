@@ -32,7 +32,7 @@ void report_files_without_segments(std::ostream& err, const store::BatchSummary&
   if (!s.files_without_segments) return;
   err << "manicule: note: " << s.files_without_segments << " of the " << s.files_read_cleanly
       << " file(s) read hold no segment of --unit " << unit;
-  if (s.files_without_segments == s.files_read_cleanly)
+  if (s.files_without_segments == s.files_read_cleanly && !s.store_holds_segments)
     err << ": is it the unit meant? (manicule segments FILE --unit UNIT lists what a unit takes from a file)";
   err << '\n';
 }

@@ -48,6 +48,11 @@ std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inpu
                                             LeftAside& left_aside, std::vector<std::string>& empty_inputs) {
   std::vector<ArchiveFile> out;
   const FolderFilter in_folder(filter);
+  // The test set below refers to this call's locals: taken off however the call ends.
+  struct ForgetTest {
+    LeftAside& left_aside;
+    ~ForgetTest() { left_aside.counts_path = nullptr; }
+  } forget_test{left_aside};
   for (const auto& input : inputs) {
     const bool folder = fs::is_directory(input);
     if (!filter.folder.empty())
@@ -65,7 +70,6 @@ std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inpu
       out.push_back(std::move(f));
     }
   }
-  left_aside.counts_path = nullptr;  // it holds references to this call's locals
   return out;
 }
 

@@ -428,6 +428,11 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     throw;
   }
   report_failing();
+  if (summary.files_without_segments && summary.files_without_segments == summary.files_read_cleanly) {
+    Statement any = db.prepare("SELECT EXISTS (SELECT 1 FROM segments WHERE settings_id = ?1)");
+    any.bind(1, summary.settings_id);
+    summary.store_holds_segments = any.step() && any.int64_at(0) != 0;
+  }
   summary.fresh = writer.take_fresh_counts();
   return summary;
 }

@@ -90,6 +90,10 @@ struct BatchSummary {
   // most often means another unit was meant (--unit speaker over novels).
   std::size_t files_without_segments = 0;
   std::size_t files_read_cleanly = 0;  // read this run without failing
+  // Whether the store holds any segment under this run's settings (asked only when no file
+  // read this run holds one: a re-run that reads a play into a letter archive is no sign
+  // of a wrong unit).
+  bool store_holds_segments = true;
   std::unique_ptr<FreshCounts> fresh;  // with keep_counts_of_segments_from, if any file was read
 };
 

@@ -18,6 +18,7 @@ import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
+import storecheck  # noqa: E402
 from invented_letters import write_letters, zipf_words  # noqa: E402
 from lxml import etree  # noqa: E402
 
@@ -59,6 +60,18 @@ for folder in (both, letters_only):
         again = mtest.run(["batch", folder, "--store", store, "--unit", unit, "--quiet"])
         mtest.check("hold no segment" not in again.stderr, "a re-run that read nothing: %r" % again.stderr)
 mtest.check(said_anything, "lxml finds no file without segments: the test shows nothing")
+
+# A re-run that reads only a file without letters into a store holding letters counts it,
+# but asks nothing: the store's other files hold segments of the unit (the store's
+# segments table, read with sqlite3).
+store = os.path.join(tmp, "letters-only-letter.sqlite")
+shutil.copy(os.path.join(mtest.ROOT, "examples", "ferry-play.xml"), letters_only)
+held = storecheck.rows(store, "SELECT count(*) FROM segments")[0][0]
+proc = mtest.run(["batch", letters_only, "--store", store, "--unit", "letter", "--quiet"])
+notes = [line for line in proc.stderr.splitlines() if "hold no segment" in line]
+mtest.check(held > 0 and len(notes) == 1 and "1 of the 1 file(s) read" in notes[0] and "unit meant" not in notes[0],
+            "a re-run reading one play into a store of %d letters: %r" % (held, notes))
+os.remove(os.path.join(letters_only, "ferry-play.xml"))
 
 # The analysis of such a store names the unit it lacks, and analyse-store given --unit (the
 # unit is the store's, read by batch) says where the unit comes from rather than CLI11's
