@@ -115,12 +115,10 @@ store::ArchiveFilter ArchiveFilterOptions::to_filter() const {
 }
 
 store::Shard parse_shard(const std::string& text) {
-  store::Shard s;
-  const std::string_view whole = text;
-  const std::size_t slash = whole.find('/');
-  if (slash == std::string_view::npos || !parse_digits(whole.substr(0, slash), s.index) ||
-      !parse_digits(whole.substr(slash + 1), s.count))
+  const std::optional<store::Shard> parsed = store::shard_from_text(text);
+  if (!parsed)
     throw Error(ErrorKind::usage, "--shard takes K/N, e.g. 2/8 (share K of N, counted from 1); got '" + text + "'");
+  const store::Shard& s = *parsed;
   if (s.count < 1) throw Error(ErrorKind::usage, "--shard " + text + ": N, the number of shares, must be 1 or more");
   if (s.index < 1 || s.index > s.count)
     throw Error(ErrorKind::usage, "--shard " + text + ": K must lie between 1 and N");

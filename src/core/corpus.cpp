@@ -24,10 +24,10 @@ namespace {
 // or, without it, stops the walk with an error naming it. Other regular files, and hidden
 // entries, are counted in `left_aside`, when given.
 void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::vector<UnlistedFolder>* unlisted,
-                 LeftAside* left_aside) {
+                 LeftAside* left_aside, const std::function<bool(const std::string&)>& counts) {
   // Counts `path` in `count`, keeping in `first` the first such path in path order.
-  const auto tally = [left_aside](const fs::path& path, std::size_t& count, std::string& first) {
-    if (left_aside->counts_path && !left_aside->counts_path(path.string())) return;
+  const auto tally = [&counts](const fs::path& path, std::size_t& count, std::string& first) {
+    if (counts && !counts(path.string())) return;
     if (count++ == 0 || path.string() < first) first = path.string();
   };
   std::error_code ec;
@@ -63,7 +63,7 @@ void walk_folder(const fs::path& folder, std::vector<std::string>& found, std::v
     }
     unlisted->push_back(UnlistedFolder{folder.string(), ec.message()});
   }
-  for (const auto& sub : subfolders) walk_folder(sub, found, unlisted, left_aside);
+  for (const auto& sub : subfolders) walk_folder(sub, found, unlisted, left_aside, counts);
 }
 
 }  // namespace
@@ -82,7 +82,7 @@ bool is_tei_file_name(const std::string& name) {
 }
 
 std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs, std::vector<UnlistedFolder>* unlisted,
-                                       LeftAside* left_aside) {
+                                       LeftAside* left_aside, const std::function<bool(const std::string&)>& counts) {
   std::vector<std::string> files;
   for (const auto& input : inputs) {
     std::error_code ec;
@@ -98,7 +98,7 @@ std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs, s
     }
     if (fs::is_directory(status)) {
       std::vector<std::string> found;
-      walk_folder(input, found, unlisted, left_aside);
+      walk_folder(input, found, unlisted, left_aside, counts);
       std::sort(found.begin(), found.end());
       files.insert(files.end(), found.begin(), found.end());
     } else {

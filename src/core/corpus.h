@@ -52,9 +52,6 @@ struct LeftAside {
   std::string first;
   std::size_t hidden = 0;
   std::string first_hidden;
-  // When set, a path counts only if this holds it: a batch narrowed to one folder
-  // (--folder) does not speak of what lies outside it.
-  std::function<bool(const std::string& path)> counts_path;
 };
 
 // Whether a folder's walk takes a file by its name: *.xml or *.tei, letter case ignored
@@ -67,10 +64,12 @@ bool is_tei_file_name(const std::string& name);
 // in `unlisted` and the rest still listed (for a batch over an archive, which goes on and
 // keeps what it stored from there); without `unlisted` it stops the listing with
 // Error(bad_input) naming it, never left out unsaid. The other files the folders hold, and
-// the hidden ones, are counted in `left_aside`, when given.
+// the hidden ones, are counted in `left_aside`, when given: those `counts` holds, when it
+// is given (a batch narrowed to one folder does not speak of what lies outside it).
 std::vector<std::string> expand_inputs(const std::vector<std::string>& inputs,
                                        std::vector<UnlistedFolder>* unlisted = nullptr,
-                                       LeftAside* left_aside = nullptr);
+                                       LeftAside* left_aside = nullptr,
+                                       const std::function<bool(const std::string& path)>& counts = {});
 
 // `path` resolved against the working directory, without following links: equal for the
 // spellings of one file's path (arch/x.xml, ./arch/x.xml, /home/editor/arch/x.xml).

@@ -3,7 +3,6 @@
 #include <algorithm>
 #include <filesystem>
 #include <map>
-#include <unordered_map>
 
 #include "core/error.h"
 #include "profile/profile_builder.h"
@@ -16,13 +15,11 @@ namespace manicule {
 
 namespace {
 
-// Whether a tag as an edition gives it can be read as a language (canonical_language_tag):
-// "de_AT" cannot. Worked out once per tag and reading thread, as files repeat a few tags.
+// Whether a tag as an edition gives it can be read as a language ("de_AT" cannot), by
+// LanguageRange's rule and cache; one a reading thread, as files repeat a few tags.
 bool readable_language(const std::string& tag) {
-  thread_local std::unordered_map<std::string, bool> readable;
-  auto [it, fresh] = readable.try_emplace(tag, false);
-  if (fresh) it->second = !canonical_language_tag(tag).empty();
-  return it->second;
+  thread_local const LanguageRange tags("");
+  return tags.readable(tag);
 }
 
 // The language holding the most tokens of the file's segments, of those whose tags can be
@@ -31,7 +28,7 @@ bool readable_language(const std::string& tag) {
 std::string main_language(const std::vector<SegmentRecord>& segments) {
   std::map<std::string, std::size_t> tokens;
   for (const auto& r : segments)
-    if (!r.segment.language.empty() && readable_language(r.segment.language)) tokens[r.segment.language] += r.tokens;
+    if (readable_language(r.segment.language)) tokens[r.segment.language] += r.tokens;
   std::string best;
   std::size_t most = 0;
   for (const auto& [language, n] : tokens)
@@ -97,7 +94,7 @@ FileReading read_file(const std::string& file, const Request& request, const Sel
     // Tags that cannot be read are passed by; where none can, the first given is kept.
     result.metadata.language = main_language(result.segments);
     for (const std::string* tag : {&header.tei_language, &header.language})
-      if (result.metadata.language.empty() && !tag->empty() && readable_language(*tag)) result.metadata.language = *tag;
+      if (result.metadata.language.empty() && readable_language(*tag)) result.metadata.language = *tag;
     if (result.metadata.language.empty()) result.metadata.language = header.tei_language;
     if (result.metadata.language.empty()) result.metadata.language = header.language;
   } catch (const Error& e) {

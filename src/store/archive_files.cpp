@@ -2,7 +2,9 @@
 
 #include <sys/stat.h>
 
+#include <charconv>
 #include <filesystem>
+#include <functional>
 
 #include "core/corpus.h"
 #include "core/sha256.h"
@@ -10,6 +12,20 @@
 namespace manicule::store {
 
 namespace fs = std::filesystem;
+
+std::optional<Shard> shard_from_text(std::string_view text) {
+  const auto whole_number = [](std::string_view digits, unsigned& out) {
+    const char* end = digits.data() + digits.size();
+    const auto [stop, ec] = std::from_chars(digits.data(), end, out);
+    return !digits.empty() && ec == std::errc() && stop == end;
+  };
+  Shard s;
+  const std::size_t slash = text.find('/');
+  if (slash == std::string_view::npos || !whole_number(text.substr(0, slash), s.index) ||
+      !whole_number(text.substr(slash + 1), s.count))
+    return std::nullopt;
+  return s;
+}
 
 bool in_shard(const std::string& relative_path, const Shard& shard) {
   if (shard.count <= 1) return true;
@@ -48,23 +64,20 @@ std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inpu
                                             LeftAside& left_aside, std::vector<std::string>& empty_inputs) {
   std::vector<ArchiveFile> out;
   const FolderFilter in_folder(filter);
-  // The test set below refers to this call's locals: taken off however the call ends.
-  struct ForgetTest {
-    LeftAside& left_aside;
-    ~ForgetTest() { left_aside.counts_path = nullptr; }
-  } forget_test{left_aside};
   for (const auto& input : inputs) {
     const bool folder = fs::is_directory(input);
+    const auto relative_of = [&](const std::string& path) {
+      return folder ? relative_to_folder(path, input) : fs::path(path).filename().string();
+    };
+    std::function<bool(const std::string&)> in_the_folder;  // for the files left aside
     if (!filter.folder.empty())
-      left_aside.counts_path = [&](const std::string& path) {
-        return in_folder.holds(path, folder ? relative_to_folder(path, input) : fs::path(path).filename().string());
-      };
-    const std::vector<std::string> found = expand_inputs({input}, &unlisted, &left_aside);
+      in_the_folder = [&](const std::string& path) { return in_folder.holds(path, relative_to_folder(path, input)); };
+    const std::vector<std::string> found = expand_inputs({input}, &unlisted, &left_aside, in_the_folder);
     if (found.empty()) empty_inputs.push_back(input);
     for (const auto& path : found) {
       ArchiveFile f;
       f.path = path;
-      f.relative_path = folder ? relative_to_folder(path, input) : fs::path(path).filename().string();
+      f.relative_path = relative_of(path);
       if (!in_folder.holds(f.path, f.relative_path) || !in_shard(f.relative_path, shard)) continue;
       stat_file(f.path, f.size, f.mtime_ns);
       out.push_back(std::move(f));

@@ -5,7 +5,9 @@
 // depend on where the archive is mounted, on file order or on the machine.
 #pragma once
 #include <cstdint>
+#include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "core/corpus.h"
@@ -18,6 +20,11 @@ struct Shard {
   unsigned count = 1;  // N
   std::string describe() const { return std::to_string(index) + "/" + std::to_string(count); }
 };
+
+// "K/N" as --shard spells it and a batch run records it (Shard::describe): digits only, all
+// of them, on either side of one '/'. Nothing for any other text; K and N are not checked
+// against each other.
+std::optional<Shard> shard_from_text(std::string_view text);
 
 struct ArchiveFile {
   std::string path;           // as found (input + path below it)

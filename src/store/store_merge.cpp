@@ -1,7 +1,6 @@
 #include "store/store_merge.h"
 
 #include <algorithm>
-#include <cstdio>
 #include <iterator>
 #include <map>
 #include <optional>
@@ -9,6 +8,7 @@
 #include <unordered_map>
 
 #include "core/error.h"
+#include "store/archive_files.h"
 #include "store/count_blob.h"
 #include "store/file_rows.h"
 #include "store/file_stems.h"
@@ -106,7 +106,7 @@ void merge_files(Database& out, Database& input, MergeSummary& summary) {
     upsert.bind_column(6, files, 5).bind_column(7, files, 6);
     upsert.step_to_end();
     ++(present ? summary.files_updated : summary.files_added);
-    if (!present) summary.paths_added.push_back(files.text_at(0));
+    if (!present) summary.files_added_here.push_back({files.text_at(0), files.text_at(1), files.int64_at(3), files.int64_at(4)});
   }
 }
 
@@ -121,15 +121,15 @@ std::vector<std::string> shares_missing(const std::vector<std::pair<std::string,
   unsigned count = 0;
   for (const auto& [path, summary] : inputs) {
     if (summary.shares.size() != 1) return {};
-    unsigned k = 0, n = 0;
-    if (std::sscanf(summary.shares.begin()->c_str(), "%u/%u", &k, &n) != 2 || n < 2 || k < 1 || k > n) return {};
-    if (count && n != count) return {};
-    count = n;
-    found.insert(k);
+    const std::optional<Shard> share = shard_from_text(*summary.shares.begin());
+    if (!share || share->count < 2 || share->index < 1 || share->index > share->count) return {};
+    if (count && share->count != count) return {};
+    count = share->count;
+    found.insert(share->index);
   }
   std::vector<std::string> missing;
   for (unsigned k = 1; k <= count; ++k)
-    if (!found.count(k)) missing.push_back(std::to_string(k) + "/" + std::to_string(count));
+    if (!found.count(k)) missing.push_back(Shard{k, count}.describe());
   return missing;
 }
 
@@ -138,24 +138,19 @@ std::vector<std::string> shares_missing(const std::vector<std::pair<std::string,
 void note_files_maybe_held_twice(Database& out, MergeOutcome& outcome) {
   if (outcome.held_by_no_input.empty()) return;
   using Identity = std::tuple<std::string, std::int64_t, std::int64_t>;  // relative path, size, time
-  Statement row = out.prepare("SELECT relative_path, size, mtime_ns FROM files WHERE path = ?1");
-  const auto identity = [&row](const std::string& path) -> std::optional<Identity> {
-    row.bind(1, path);
-    std::optional<Identity> found;
-    if (row.step()) found = Identity{row.text_at(0), row.int64_at(1), row.int64_at(2)};
-    row.reset();
-    return found;
-  };
   std::map<Identity, std::string> unheld;
-  for (const std::string& path : outcome.held_by_no_input)
-    if (auto id = identity(path)) unheld.emplace(*id, path);
+  Statement row = out.prepare("SELECT relative_path, size, mtime_ns FROM files WHERE path = ?1");
+  for (const std::string& path : outcome.held_by_no_input) {
+    row.bind(1, path);
+    if (row.step()) unheld.emplace(Identity{row.text_at(0), row.int64_at(1), row.int64_at(2)}, path);
+    row.reset();
+  }
   for (const auto& [input, summary] : outcome.inputs)
-    for (const std::string& added : summary.paths_added) {
-      const auto id = identity(added);
-      const auto match = id ? unheld.find(*id) : unheld.end();
+    for (const auto& added : summary.files_added_here) {
+      const auto match = unheld.find(Identity{added.relative_path, added.size, added.mtime_ns});
       if (match == unheld.end()) continue;
       if (outcome.files_maybe_twice++ == 0) {
-        outcome.maybe_twice_added = added;
+        outcome.maybe_twice_added = added.path;
         outcome.maybe_twice_held = match->second;
       }
     }

@@ -6,6 +6,7 @@
 // store. The whole merge (every input, and with --exact the removal of files no input has)
 // is one transaction, so an interrupted merge leaves OUT as it was.
 #pragma once
+#include <cstdint>
 #include <cstddef>
 #include <set>
 #include <string>
@@ -26,7 +27,13 @@ struct MergeSummary {
   std::set<std::string> settings_keys;        // the reading settings the input holds
   std::vector<std::string> input_unfinished;  // the input's unfinished work (unfinished_work.h)
   std::set<std::string> shares;               // the --shard K/N of the input's batch runs ("1/1": none)
-  std::vector<std::string> paths_added;       // its files that OUT did not hold by their path
+  // Its files that OUT did not hold by their path, each with what tells a file found under
+  // another path: its path below its input folder, size and time.
+  struct AddedFile {
+    std::string path, relative_path;
+    std::int64_t size = 0, mtime_ns = 0;
+  };
+  std::vector<AddedFile> files_added_here;
 };
 
 struct MergeOutcome {
