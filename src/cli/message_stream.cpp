@@ -44,25 +44,14 @@ ControlCharacterEscaper::int_type ControlCharacterEscaper::overflow(int_type c) 
   return xsputn(&ch, 1) == 1 ? c : traits_type::eof();
 }
 
-// Byte by byte through a small buffer: messages are short, and a C2 at the end of one
-// write is decided by the first byte of the next.
+// A C2 that ends one write is held back, as the first byte of the next decides whether it
+// begins a C1 control.
 std::streamsize ControlCharacterEscaper::xsputn(const char* s, std::streamsize n) {
-  std::string out;
-  for (std::streamsize i = 0; i < n; ++i) {
-    const auto c = static_cast<unsigned char>(s[i]);
-    if (pending_c2_) {
-      pending_c2_ = false;
-      if (is_c1_follower(c)) {
-        const char pair[2] = {'\xc2', s[i]};
-        out += shown(std::string_view(pair, 2));
-        continue;
-      }
-      out += '\xc2';
-    }
-    if (c == 0xc2) pending_c2_ = true;
-    else if (is_c0_or_del(c)) out += shown(std::string_view(s + i, 1));
-    else out += s[i];
-  }
+  std::string text = pending_c2_ ? "\xc2" : "";
+  text.append(s, static_cast<std::size_t>(n));
+  pending_c2_ = !text.empty() && text.back() == '\xc2';
+  if (pending_c2_) text.pop_back();
+  const std::string out = escape_controls(text);
   const auto size = static_cast<std::streamsize>(out.size());
   return out_->sputn(out.data(), size) == size ? n : 0;
 }

@@ -68,20 +68,14 @@ bool shortest_distinct_ends(const std::vector<std::string>& paths, const std::ve
 // Files whose paths differ only in their extension (c/x.xml, c/x.tei) or in bytes that
 // are not UTF-8 (each read as U+FFFD) share every end without their extension: such a
 // group is told apart by the shortest ends with it, of one folder name at least as files
-// of one name in sibling folders get ("c/x.xml", "c/x.tei"), and what is still alike by a
-// number in path order ("c/a\uFFFD.xml~2").
+// of one name in sibling folders get ("c/x.xml", "c/x.tei"). What is still alike is
+// numbered by keep_distinct_across_groups ("c/a\uFFFD.xml~2").
 void keep_apart(const std::vector<std::string>& paths, const std::vector<std::size_t>& files,
                 std::vector<std::string>& prefixes) {
   std::map<std::string, std::vector<std::size_t>> alike;
   for (std::size_t i : files) alike[prefixes[i]].push_back(i);
-  for (const auto& [prefix, group] : alike) {
-    if (group.size() < 2 || shortest_distinct_ends(paths, group, path_end_as_written, prefixes)) continue;
-    std::vector<std::size_t> by_path = group;
-    std::sort(by_path.begin(), by_path.end(), [&paths](std::size_t a, std::size_t b) { return paths[a] < paths[b]; });
-    std::map<std::string, std::size_t> uses;
-    for (std::size_t i : by_path)
-      if (const std::size_t n = ++uses[prefixes[i]]; n > 1) prefixes[i] += "~" + std::to_string(n);
-  }
+  for (const auto& [prefix, group] : alike)
+    if (group.size() > 1) shortest_distinct_ends(paths, group, path_end_as_written, prefixes);
 }
 
 // An end made for one group may be another group's ("c/x.tei" for c/x.tei beside c/x.xml,

@@ -213,11 +213,11 @@ std::string real_target(const std::string& path) {
 
 }  // namespace
 
-void check_replaceable(const std::string& path) {
-  if (names_a_descriptor_or_device(path)) return;
-  const std::string target = real_target(path);
-  struct stat st {};
-  if (::stat(target.c_str(), &st) != 0) return;  // a new file
+namespace {
+
+// What check_replaceable says of the file `path` names, `target` being the real file and
+// `st` what stat(2) gave for it.
+void refuse_unreplaceable(const std::string& path, const std::string& target, const struct stat& st) {
   if (S_ISDIR(st.st_mode)) throw Error(ErrorKind::write_failed, "cannot write the output: it is a folder", path);
   if (!S_ISREG(st.st_mode)) return;  // a pipe or a device: written through
   // A file put in place of this one would not honour what its mode or its links say.
@@ -239,6 +239,15 @@ void check_replaceable(const std::string& path) {
                 path);
 }
 
+}  // namespace
+
+void check_replaceable(const std::string& path) {
+  if (names_a_descriptor_or_device(path)) return;
+  const std::string target = real_target(path);
+  struct stat st {};
+  if (::stat(target.c_str(), &st) == 0) refuse_unreplaceable(path, target, st);  // else a new file
+}
+
 void write_file_safely(const std::string& path, std::string_view bytes, const WriteOptions& options) {
   if (names_a_descriptor_or_device(path) && !options.replacing) return write_through(path, bytes, true);
   const std::string target = real_target(path);
@@ -249,7 +258,7 @@ void write_file_safely(const std::string& path, std::string_view bytes, const Wr
     // would take its place.
     return write_through(path, bytes, false);
   }
-  check_replaceable(path);
+  if (exists) refuse_unreplaceable(path, target, st);
   remove_stale_temporaries(target);
   mode_t mode = 0666 & ~[] {
     mode_t m = ::umask(0);

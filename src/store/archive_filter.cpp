@@ -138,12 +138,15 @@ bool FolderFilter::holds(const std::string& path, const std::string& relative_pa
     return true;
   // Both absolute and tidied, without reading the disk: "/data/arch/de" for "arch/de",
   // "arch/x/../de", a folder reached through a link.
-  for (const auto& [folder, base] : absolute_)
-    if (starts_with_folder(absolute_spelling(path, base), folder)) return true;
+  std::string absolute;  // against the first base, for the test through links below
+  for (const auto& [folder, base] : absolute_) {
+    const std::string spelled = absolute_spelling(path, base);
+    if (starts_with_folder(spelled, folder)) return true;
+    if (absolute.empty()) absolute = spelled;
+  }
   // Through links: the path's folder resolved (once for all the files in it) against the
   // folder resolved.
-  if (resolved_.empty() || absolute_.empty()) return false;
-  const std::string absolute = absolute_spelling(path, absolute_.front().second);
+  if (resolved_.empty() || absolute.empty()) return false;
   const std::size_t slash = absolute.rfind('/');
   if (slash == std::string::npos) return false;
   const std::string parent = slash == 0 ? "/" : absolute.substr(0, slash);

@@ -391,8 +391,12 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
           writer.write_reading(reading, summary.run_id);
         }
         outcome = reading.failed ? FileOutcome::failed : FileOutcome::read;
-        if (reading.failed) failing[f.path] = reading.failure.message;
-        else if (++summary.files_read_cleanly, reading.segments.empty()) ++summary.files_without_segments;
+        if (reading.failed) {
+          failing[f.path] = reading.failure.message;
+        } else {
+          ++summary.files_read_cleanly;
+          if (reading.segments.empty()) ++summary.files_without_segments;
+        }
       }
       counters.bytes_read += reading.bytes;
       progress.bytes_done += f.size;
