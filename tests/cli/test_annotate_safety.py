@@ -221,7 +221,9 @@ try:
     check(proc.returncode == 5 and "2 hard links" in proc.stderr and digest(linked) == digest(source)
           and os.stat(linked).st_nlink == 2 and os.path.samefile(linked, linked + ".other-name"),
           "--in-place on an edition with two hard links: exit %d, %s" % (proc.returncode, proc.stderr))
-    if os.geteuid() == 0:
+    if os.geteuid() != 0:
+        print("SKIP: the owner kept when root annotates another user's edition (not run as root)")
+    else:
         owned = os.path.join(work, "owned.xml")
         shutil.copyfile(source, owned)
         os.chown(owned, 65534, 65534)
