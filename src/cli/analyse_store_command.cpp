@@ -39,7 +39,8 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
   filters->add_to(*command);
   command->add_flag("--pca", flags->pca, "also principal components");
   command->add_flag("--attribute", flags->attribute,
-                    "rank the candidate authors of the questioned segments (docs/attribution.md)");
+                    "rank the candidate authors of the questioned segments (docs/attribution.md; features then default "
+                    "to ranks " + std::string(kAttributionRanks) + ")");
   command->add_flag("--recompute", flags->recompute, "recompute even if an identical analysis is stored");
   command->add_flag("--quiet,-q", flags->quiet, "no progress display");
   // Not an option of this command (the unit is the store's, read by batch), but one a user

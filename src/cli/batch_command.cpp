@@ -70,7 +70,8 @@ CommandRunner add_batch_command(CLI::App& app) {
   command->add_flag("--analyse", flags->analyse, "then analyse the stored counts (distances, nearest neighbours)");
   command->add_flag("--pca", flags->pca, "with --analyse: also principal components");
   command->add_flag("--attribute", flags->attribute,
-                    "with --analyse: rank the candidate authors of the questioned segments (docs/attribution.md)");
+                    "with --analyse: rank the candidate authors of the questioned segments (docs/attribution.md; "
+                    "features then default to ranks " + std::string(kAttributionRanks) + ")");
   command->add_flag("--recompute", flags->recompute, "with --analyse: recompute even if an identical analysis is stored");
   command->add_flag("--quiet,-q", flags->quiet, "no progress display (of the reading and of the analysis)");
   command->add_flag("--verbose,-v", flags->verbose, "name each file that had to be opened, and what became of it");

@@ -47,6 +47,12 @@ with tempfile.TemporaryDirectory() as tmp:
                 "the stored analysis parameters lack the caution")
     # The attribute command's features (1-2000, docs/attribution.md) unless --ranks says otherwise.
     mtest.check(parameters["ranks"] == "1-2000", "attribution over the store used ranks %s" % parameters["ranks"])
+    # Each command's --help says so beside --attribute: its --ranks line shows 1-1000, the
+    # default without it, and a user reading the help alone would expect that.
+    for command in ("analyse-store", "batch"):
+        lines = mtest.run([command, "--help"]).stdout.splitlines()
+        attribute_help = " ".join(line.strip() for line in lines if line.strip().startswith("--attribute"))
+        mtest.check("ranks 1-2000" in attribute_help, "%s --help, --attribute: %r" % (command, attribute_help))
     rows = db.execute("SELECT segment, rank, candidate, distance, nearest_segment, nearest_distance, margin, stability "
                       "FROM attributions WHERE run_id = ? ORDER BY segment, rank", (run,)).fetchall()
     forms = dict(db.execute("SELECT feature_id, form FROM vocabulary"))
