@@ -8,10 +8,7 @@
 // MANICULE_TEST_PAUSE_BEFORE_WRITE=<seconds> waits that long after the results are
 // computed and before anything is written, so that a test can change the edition on disk
 // in between and see the run refuse (exit 6).
-#include <chrono>
-#include <cstdlib>
 #include <iostream>
-#include <thread>
 
 #include "attribution/attribute.h"
 #include "attribution/verify.h"
@@ -19,6 +16,7 @@
 #include "cli/attribution_cli_options.h"
 #include "cli/commands.h"
 #include "cli/selection_options.h"
+#include "cli/test_pause.h"
 #include "cli/text_checks.h"
 #include "core/corpus.h"
 #include "core/error.h"
@@ -26,19 +24,6 @@
 #include "standoff/edition_annotator.h"
 
 namespace manicule::cli {
-
-namespace {
-
-void pause_for_tests() {
-  const char* seconds = std::getenv("MANICULE_TEST_PAUSE_BEFORE_WRITE");
-  if (!seconds) return;
-  double s = std::strtod(seconds, nullptr);
-  if (s <= 0) return;
-  std::cerr << "manicule: pausing before writing (MANICULE_TEST_PAUSE_BEFORE_WRITE)" << std::endl;
-  std::this_thread::sleep_for(std::chrono::duration<double>(s));
-}
-
-}  // namespace
 
 CommandRunner add_annotate_command(CLI::App& app) {
   auto* command = app.add_subcommand(
@@ -127,7 +112,7 @@ CommandRunner add_annotate_command(CLI::App& app) {
     }
     std::vector<PreparedOutput> outputs = prepare_annotation(analysis, editions, *settings);
 
-    pause_for_tests();
+    pause_for_tests("MANICULE_TEST_PAUSE_BEFORE_WRITE", "before writing");
     for (const PreparedOutput& out : outputs) {
       if (out.replacing) require_unchanged(*out.replacing);
       if (!out.left_as_it_was) check_replaceable(out.path);

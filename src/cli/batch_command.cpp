@@ -184,6 +184,7 @@ CommandRunner add_batch_command(CLI::App& app) {
       store::StoreAnalysisOptions how{options.filter, flags->attribute, flags->recompute,
                                       display.analysis_progress()};
       store::StoreAnalysisResult result = store::analyse_store(*db, summary.settings_id, request, how, summary.fresh.get());
+      if (!result.reused) notice.work_kept(stored_before_stop_notice("analysis run " + std::to_string(result.run_id), db->path()));
       summary.fresh.reset();
       display.clear();
       report_analysis(std::cout, std::cerr, result);

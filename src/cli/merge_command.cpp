@@ -11,6 +11,7 @@
 
 #include "cli/commands.h"
 #include "cli/stop_notice.h"
+#include "cli/test_pause.h"
 #include "cli/store_report.h"
 #include "cli/text_checks.h"
 #include "core/error.h"
@@ -53,15 +54,20 @@ CommandRunner add_merge_command(CLI::App& app) {
     // created OUT and merged into it first, and what it merged must not go with this one.
     const bool created = was_missing && !store::any_run_recorded(*target);
     store::MergeOutcome merged;
+    bool committed = false;
     try {
       StopNotice notice(created ? "manicule: interrupted: nothing merged; " + *out + ", made by this merge, removed\n"
                                 : "manicule: interrupted: " + *out + " is left as it was before this merge\n",
                         false, created ? *out : "");
       merged = store::merge_stores(*target, *inputs, *exact);
+      committed = true;
+      notice.work_kept(stored_before_stop_notice("the merge", *out));
+      pause_for_tests("MANICULE_TEST_PAUSE_AFTER_COMMIT", "after committing");
       target->close();  // OUT whole in its one file, or an error (a full disk)
     } catch (...) {
       // Nothing was committed: an existing output is as it was; one this merge created goes.
-      if (created) store::discard_new_store(std::move(target));
+      // (Once committed, OUT holds the merge, whatever closing it said.)
+      if (created && !committed) store::discard_new_store(std::move(target));
       throw;
     }
     for (const auto& [in, summary] : merged.inputs) {

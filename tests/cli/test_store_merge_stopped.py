@@ -7,7 +7,16 @@ signal is sent once OUT exists, after a pause, and again with a longer pause whe
 finished first. References: os.listdir for what is left beside OUT, Python's sqlite3 for
 OUT's tables before and after (storecheck.logical_tables), SQLite's PRAGMA integrity_check,
 and the shell's exit status of a process ended by the signal (128 + its number).
+
+A stop that lands after the merge is committed (while OUT is being closed) finds the merge
+kept: OUT then holds it, as an uninterrupted merge does, and the message says so; it used
+to say "left as it was" (or "nothing merged") of a store that held the merge. The test
+hook MANICULE_TEST_PAUSE_AFTER_COMMIT holds the run at that moment, so that a stop lands
+there every time. Compared there with an uninterrupted merge of the same stores: the rows
+of the files, readings, segments (their count blobs as stored) and vocabulary, read by
+Python's sqlite3 with the log beside the store, as any SQLite reader takes it in.
 """
+import hashlib
 import os
 import signal
 import subprocess
@@ -25,6 +34,33 @@ small = os.path.join(tmp, "few.sqlite")
 mtest.run(["batch", os.path.join(mtest.ROOT, "examples"), "--store", small, "--unit", "letter", "--quiet"])
 
 
+
+
+def merged_rows(path):
+    """A digest of what a merge stores, run ids and times left out (storecheck.logical_tables
+    decodes every count, some seconds for the plays; the blobs are compared as stored, which
+    merges of the same stores in the same order give alike)."""
+    digest = hashlib.sha256()
+    for sql in ("SELECT path, relative_path, stem, size, sha256, read_error FROM files",
+                "SELECT sha256, bytes, status, error, title, author, segments, tokens FROM readings",
+                "SELECT sha256, ordinal, local_id, label, author, tokens, types, feature_total, counts FROM segments",
+                "SELECT first_feature_id, forms FROM vocabulary_blocks"):
+        for row in sorted(storecheck.rows(path, sql)):
+            digest.update(repr(row).encode())
+    return digest.hexdigest()
+
+
+# What an uninterrupted merge leaves: into a new store, and into one holding the letters.
+merged_new = os.path.join(tmp, "reference-new.sqlite")
+mtest.run(["merge", merged_new, big])
+merged_new_tables = merged_rows(merged_new)
+merged_kept = os.path.join(tmp, "reference-kept.sqlite")
+mtest.run(["merge", merged_kept, small])
+mtest.run(["merge", merged_kept, big])
+merged_kept_tables = merged_rows(merged_kept)
+STORED = "interrupted after the merge was stored"
+
+
 def stopped_merge(out, sig, pause):
     """Runs `merge OUT plays.sqlite`, sends `sig` `pause` seconds after OUT exists; returns
     (exit code, stderr)."""
@@ -38,13 +74,42 @@ def stopped_merge(out, sig, pause):
     return -proc.returncode + 128 if proc.returncode < 0 else proc.returncode, err
 
 
+def merge_stopped_after_commit(out, sig):
+    """Runs `merge OUT plays.sqlite` held after its commit (the test hook), sends `sig`
+    then; returns (exit code, stderr)."""
+    env = dict(os.environ, MANICULE_TEST_PAUSE_AFTER_COMMIT="20")
+    proc = subprocess.Popen([mtest.BIN, "merge", out, big], stdout=subprocess.DEVNULL, stderr=subprocess.PIPE,
+                            text=True, env=env)
+    err = ""
+    for line in proc.stderr:
+        err += line
+        if "pausing after committing" in line:
+            proc.send_signal(sig)
+            break
+    rest = proc.communicate(timeout=60)[1]
+    return -proc.returncode + 128 if proc.returncode < 0 else proc.returncode, err + rest
+
+
+def check_kept(out, expected_tables, sig, code, err, where):
+    """A stop after the commit: OUT holds the merge (read with its log beside it), and says so."""
+    mtest.check(code == 128 + sig, "a merge %s stopped by %s after its commit exited %d: %s" % (where, sig.name, code, err))
+    mtest.check(STORED in err and "as it was" not in err and "nothing merged" not in err,
+                "the merge %s stopped after its commit said: %r" % (where, err))
+    mtest.check(os.path.exists(out) and merged_rows(out) == expected_tables and
+                storecheck.integrity(out) == "ok",
+                "a merge %s stopped after its commit does not hold the merge" % where)
+
+
 for sig in (signal.SIGTERM, signal.SIGINT):
     # A new OUT: removed with the files SQLite keeps beside it.
     landed = False
-    for attempt, pause in enumerate((0.05, 0.02, 0.1, 0.01, 0.15)):
+    for attempt, pause in enumerate((0.05, 0.02, 0.1, 0.01, 0.15, 0.005, 0.03)):
         out = os.path.join(tmp, "new-%d-%d.sqlite" % (sig, attempt))
         code, err = stopped_merge(out, sig, pause)
         if code == 0:  # the merge finished before the signal: try again, sooner or later
+            continue
+        if STORED in err:  # it landed after the commit: the merge is kept (checked), try sooner
+            check_kept(out, merged_new_tables, sig, code, err, "that created its store")
             continue
         landed = True
         mtest.check(code == 128 + sig, "a merge stopped by %s exited %d: %s" % (sig.name, code, err))
@@ -52,16 +117,19 @@ for sig in (signal.SIGTERM, signal.SIGINT):
         mtest.check(left == [], "a merge that created %s and was stopped left %r" % (out, left))
         mtest.check("removed" in err, "the stopped merge did not say that it removed the new store: %r" % err)
         break
-    mtest.check(landed, "no %s landed while a merge ran in five tries" % sig.name)
+    mtest.check(landed, "no %s landed while a merge ran, before its commit, in seven tries" % sig.name)
 
     # An existing OUT: as it was before the merge, whole.
     landed = False
-    for attempt, pause in enumerate((0.05, 0.02, 0.1, 0.01, 0.15)):
+    for attempt, pause in enumerate((0.05, 0.02, 0.1, 0.01, 0.15, 0.005, 0.03)):
         out = os.path.join(tmp, "kept-%d-%d.sqlite" % (sig, attempt))
         mtest.run(["merge", out, small])
         before = storecheck.logical_tables(out)
         code, err = stopped_merge(out, sig, pause)
         if code == 0:
+            continue
+        if STORED in err:
+            check_kept(out, merged_kept_tables, sig, code, err, "into a store")
             continue
         landed = True
         mtest.check(code == 128 + sig, "a merge into an existing store stopped by %s exited %d: %s" % (sig.name, code, err))
@@ -69,6 +137,15 @@ for sig in (signal.SIGTERM, signal.SIGINT):
                     "a stopped merge changed the store it merged into")
         mtest.check("left as it was" in err, "the stopped merge did not say the store is as it was: %r" % err)
         break
-    mtest.check(landed, "no %s landed while a merge into a store ran in five tries" % sig.name)
+    mtest.check(landed, "no %s landed while a merge into a store ran, before its commit, in seven tries" % sig.name)
+
+    # Stopped after the commit, every time (the test hook): the merge is kept, and said to be.
+    out = os.path.join(tmp, "after-commit-new-%d.sqlite" % sig)
+    code, err = merge_stopped_after_commit(out, sig)
+    check_kept(out, merged_new_tables, sig, code, err, "that created its store")
+    out = os.path.join(tmp, "after-commit-kept-%d.sqlite" % sig)
+    mtest.run(["merge", out, small])
+    code, err = merge_stopped_after_commit(out, sig)
+    check_kept(out, merged_kept_tables, sig, code, err, "into a store")
 
 mtest.done()

@@ -11,6 +11,10 @@ says what it left.
 2. Ctrl-C during `analyse-store` on a terminal (a pseudo-terminal from Python's pty module,
    so that the progress display draws): ended by SIGINT (130 in a shell), the progress line cleared (ECMA-48 EL,
    ESC [ K, after a carriage return) and the stop named; the runs table gains no analysis.
+3. SIGTERM after the analysis is committed, while the store is still open (held there by the
+   test hook MANICULE_TEST_PAUSE_AFTER_COMMIT): the analysis is kept, and the message says
+   so with the run id that the runs table (Python's sqlite3, the log beside the store taken
+   in) gives it, where it used to say that no analysis was stored.
 Before these were written, both analyses ran in silence on the partial store, and the stop
 left the progress line standing with no message (a review found both).
 """
@@ -20,6 +24,7 @@ import pty
 import select
 import shutil
 import signal
+import subprocess
 import sys
 import tempfile
 
@@ -146,5 +151,25 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check([r for r in runs_of(whole) if r[1] == "analysis"] == analyses_before,
                 "a stopped analysis left a run behind")
     mtest.check(storecheck.integrity(whole) == "ok", "PRAGMA integrity_check fails after the stop")
+
+    # SIGTERM once the analysis is committed: it is kept, and said to be.
+    env = dict(os.environ, MANICULE_TEST_PAUSE_AFTER_COMMIT="20")
+    proc = subprocess.Popen([mtest.BIN, "analyse-store", "--store", whole, "--min-tokens", "1", "--recompute",
+                             "--quiet"], stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True, env=env)
+    err = ""
+    for line in proc.stderr:
+        err += line
+        if "pausing after committing" in line:
+            proc.send_signal(signal.SIGTERM)
+            break
+    err += proc.communicate(timeout=60)[1]
+    analyses = [r for r in runs_of(whole) if r[1] == "analysis"]
+    newest = analyses[-1] if analyses else None
+    mtest.check(proc.returncode == -signal.SIGTERM, "analyse-store stopped after its commit: %r, %r" % (proc.returncode, err))
+    mtest.check(len(analyses) == len(analyses_before) + 1 and newest[2] == "done",
+                "an analysis stopped after its commit is not in the runs table as done: %r" % analyses[-2:])
+    mtest.check(newest is not None and ("interrupted after analysis run %d was stored" % newest[0]) in err and
+                "no analysis stored" not in err, "the stop after the commit said: %r" % err)
+    mtest.check(storecheck.integrity(whole) == "ok", "PRAGMA integrity_check fails after the stop after the commit")
 
 mtest.done()
