@@ -5,6 +5,10 @@ that file alone; when the log cannot be copied into the store at the end (the di
 then), `batch` exits 5 and says to keep the two files together. A review found exit 0 with
 a store file that, copied alone, was "database disk image is malformed".
 
+The same for `merge` into a new store on that disk: when the log cannot be copied in at the
+end, the merge is committed, and the store with its log beside it must stay (opened together
+by Python's sqlite3, they hold every play); a review found both removed after that message.
+
 The disk is a small tmpfs (mount(8), as root), tried at sizes from 1.5 to 8 MiB, so that the
 disk fills at every stage of a run: while files are committed, at the last commit, and
 while the log is copied in at the end. Run only where root may mount a tmpfs; elsewhere it
@@ -66,5 +70,41 @@ with tempfile.TemporaryDirectory() as tmp:
             subprocess.run(["umount", disk])
     print("outcomes by size:", outcomes)
     mtest.check("whole" in outcomes, "no size was large enough for the archive: %r" % outcomes)
+
+    # merge into a new store on the small disk
+    shard = os.path.join(tmp, "shard.sqlite")
+    mtest.run(["batch", archive, "--store", shard, "--unit", "speaker", "--quiet"])
+    merge_outcomes = []
+    for size_kib in range(1024, 4097, 256):
+        subprocess.run(["mount", "-t", "tmpfs", "-o", "size=%dk" % size_kib, "tmpfs", disk], check=True)
+        try:
+            out = os.path.join(disk, "merged.sqlite")
+            p = mtest.run(["merge", out, shard], check=False)
+            if p.returncode == 0:
+                merge_outcomes.append("whole")
+            elif "could not be copied into it" in p.stderr:
+                # Committed: the two files together hold the merge.
+                both = os.path.exists(out) and os.path.exists(out + "-wal")
+                held = []
+                if both:  # read as copies on a disk with room (SQLite adds a file beside them)
+                    together = os.path.join(tmp, "together.sqlite")
+                    shutil.copy(out, together)
+                    shutil.copy(out + "-wal", together + "-wal")
+                    held = sorted(r[0] for r in storecheck.rows(together, "SELECT path FROM files"))
+                    for name in os.listdir(tmp):
+                        if name.startswith("together.sqlite"):
+                            os.remove(os.path.join(tmp, name))
+                mtest.check(p.returncode == 5 and "keep the two files together" in p.stderr and both and held == plays,
+                            "merge, %d KiB: exit %d, store and log there: %r, %d of %d plays held; %s"
+                            % (size_kib, p.returncode, both, len(held), len(plays), p.stderr))
+                merge_outcomes.append("log kept")
+            else:
+                mtest.check(p.returncode == 5 and "disk is full" in p.stderr and not os.path.exists(out),
+                            "merge, %d KiB: exit %d, %s" % (size_kib, p.returncode, p.stderr))
+                merge_outcomes.append("full before the commit")
+        finally:
+            subprocess.run(["umount", disk])
+    print("merge outcomes by size:", merge_outcomes)
+    mtest.check("log kept" in merge_outcomes, "no size let the merge commit but not copy its log in: %r" % merge_outcomes)
 
 mtest.done()
