@@ -298,6 +298,17 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
                       "with --folder naming that folder, or delete the store");
     }
   }
+  // A share's task whose inputs hold no TEI file at all, in any share: on a cluster most
+  // often the archive not mounted on that task's machine. Its empty share would pass for
+  // the share of a small archive, and a `merge --exact` of the shares would then drop the
+  // archive's files from the merged store. (A share left empty by the rule, its inputs
+  // holding files of other shares, is taken as it is.)
+  if (options.shard.count > 1 && options.filter.folder.empty() && summary.unlisted.empty() &&
+      empty_inputs.size() == request.inputs.size()) {
+    throw Error(ErrorKind::nothing_selected,
+                "share " + options.shard.describe() + ": no TEI file (*.xml, *.tei) found under the inputs at all, " +
+                    "in any share: is the archive mounted on this machine? Nothing read");
+  }
   progress.files_done = counters.files_unchanged;
   const auto report_failing = [&] {
     for (auto& [path, message] : failing) summary.failures.push_back(BatchFailure{path, message});

@@ -4,7 +4,8 @@
 merged with `manicule merge`. The stored archive (files, readings, segments with their
 counts by feature form, vocabulary) and an analysis of it must be identical, apart from
 run ids and times; a merge refuses an input that is not a store before it creates its
-output, and a share with no file says so; a share missing from the inputs is named, and
+output, and a share with no file says so (a share of an input with no TEI file at all is
+refused: exit 4); a share missing from the inputs is named, and
 refused by merge --exact; a malformed --shard and a store that cannot be
 opened are refused with their reason, and a damaged segment is named by analyse-store and
 merge, a merge into a new store then leaving nothing behind; a merged store of two
@@ -242,6 +243,16 @@ with tempfile.TemporaryDirectory() as tmp:
     proc = mtest.run(["batch", archive, "--store", os.path.join(tmp, "full-share.sqlite"), "--shard",
                       "%d/1000" % min(taken)] + common)
     mtest.check("no TEI file" not in proc.stderr, "a share holding files says it has none: " + proc.stderr)
+    # A share's task whose input holds no TEI file in any share (on a cluster, most often the
+    # archive not mounted on that machine) is refused (exit 4, nothing selected) and leaves
+    # no store: saved, its empty share let merge --exact drop the archive's files.
+    unmounted = os.path.join(tmp, "mount-point")
+    os.makedirs(unmounted)
+    nothing = os.path.join(tmp, "unmounted-share.sqlite")
+    proc = mtest.run(["batch", unmounted, "--store", nothing, "--shard", "2/3"] + common, check=False)
+    mtest.check(proc.returncode == 4 and "no TEI file" in proc.stderr and "in any share" in proc.stderr
+                and not [n for n in os.listdir(tmp) if n.startswith("unmounted-share.sqlite")],
+                "a share of an empty input: exit %d, %s" % (proc.returncode, proc.stderr))
 
     # A --shard that is not K/N with 1 <= K <= N, as the documented rule needs, is a usage
     # error (exit 2) that creates no store: "-1" once passed as share 1 of 4,294,967,295.
