@@ -200,6 +200,21 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(expected and got == expected, "README: links per author %r, from the neighbours and lxml %r"
                 % (got, expected))
     db.close()
+    # The same when the folders are the inputs, named from inside the archive: the paths are
+    # then stored as given, "unsigned/anon.xml", with no folder before it (a review found the
+    # query empty then).
+    store2b = os.path.join(tmp, "unsigned-by-folder.sqlite")
+    mtest.run(["batch", "unsigned", "ferry-letters.xml", "--store", store2b, "--unit", "letter", "--quiet"],
+              cwd=unsigned_archive)
+    run2b = printed_run(mtest.run(["analyse-store", "--store", store2b, "--min-tokens", "200", "--neighbours", "8"]).stdout)
+    db = sqlite3.connect(store2b)
+    mtest.check(db.execute("SELECT count(*) FROM files WHERE path = 'unsigned/anon.xml'").fetchone()[0] == 1,
+                "the path is not stored as given: %r" % db.execute("SELECT path FROM files").fetchall())
+    cursor = db.execute(query, {"run": run2b})
+    columns = [c[0] for c in cursor.description]
+    got = {row[columns.index("author")]: row[columns.index("nearest_links")] for row in cursor}
+    mtest.check(got == expected, "README, the folders named from inside: links per author %r, expected %r" % (got, expected))
+    db.close()
 
     # Nothing to analyse: the message says which reason holds (exit code 4, README). The
     # letters, counted with lxml, are 12 in 2 files, each far under 1,500 words even split
