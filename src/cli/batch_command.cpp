@@ -63,7 +63,8 @@ CommandRunner add_batch_command(CLI::App& app) {
   command->add_option("--shard", flags->shard, "read only share K of N of the files (K/N, e.g. 2/8), for array jobs")
       ->check(not_blank());
   command->add_flag("--verify-hashes", flags->verify,
-                    "hash every file, even when its size and modification time are as stored");
+                    "hash every file, even when its size and modification time are as stored, and check the store "
+                    "itself first (a fixity check)");
   command->add_option("--commit-every", flags->commit_every,
                       "files per transaction at most (a transaction also ends every two seconds)")
       ->capture_default_str();

@@ -18,6 +18,7 @@
 #include "store/file_stems.h"
 #include "store/reading_writer.h"
 #include "store/store_settings.h"
+#include "store/store_schema.h"
 #include "store/stored_failure.h"
 #include "store/unfinished_work.h"
 
@@ -223,6 +224,8 @@ nlohmann::json run_parameters(const Request& request, const BatchOptions& option
 BatchSummary run_batch(Database& db, const Request& request, const BatchOptions& options,
                        const BatchListener& listener) {
   const ReadingSettings settings = reading_settings(request);
+  // A fixity check of the archive checks the store that holds its hashes too.
+  if (options.verify_hashes) check_store_is_whole(db);
   BatchSummary summary;
   std::vector<std::string> empty_inputs;  // no TEI file under them at all
   std::vector<ArchiveFile> listed = list_archive_files(request.inputs, options.filter, options.shard, summary.unlisted,

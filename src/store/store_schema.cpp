@@ -2,6 +2,7 @@
 
 #include <unistd.h>
 
+#include <algorithm>
 #include <chrono>
 #include <filesystem>
 #include <random>
@@ -359,6 +360,25 @@ std::unique_ptr<Database> open_store_once(const std::string& path, bool create) 
 }
 
 }  // namespace
+
+void check_store_is_whole(Database& db) {
+  std::string finding;
+  try {
+    Statement check = db.prepare("PRAGMA quick_check(1)");  // the first finding is enough to say so
+    finding = check.step() ? check.text_at(0) : "no answer";
+  } catch (const Error& e) {  // a page so damaged that the check itself stops
+    finding = e.what();
+  }
+  // SQLite heads its findings with "*** in database main ***" on a line of its own.
+  constexpr std::string_view kHeading = "*** in database main ***";
+  if (finding.starts_with(kHeading)) finding.erase(0, kHeading.size());
+  std::replace(finding.begin(), finding.end(), '\n', ' ');
+  finding.erase(0, finding.find_first_not_of(' '));
+  if (finding != "ok")
+    throw Error(ErrorKind::bad_input, "the store " + db.path() + " is damaged (SQLite: " + finding +
+                                          "); nothing read or written: restore it from a copy, or make it again "
+                                          "with batch into a new store");
+}
 
 std::unique_ptr<Database> open_store(const std::string& path, bool create) {
   // Two processes opening one store at the same moment can each hold the shared lock that

@@ -42,6 +42,11 @@ inline constexpr int kStoreFormat = 4;
 // Without `create`, a file that holds no tables (0 bytes, say) is refused, not made a store.
 std::unique_ptr<Database> open_store(const std::string& path, bool create);
 
+// Asks SQLite whether the store's pages are whole (PRAGMA quick_check: every page and
+// record readable, every index in order); a store found damaged is refused (Error
+// bad_input, SQLite's first finding named), before anything is written to it.
+void check_store_is_whole(Database& db);
+
 // The endings of the files that make up a store: the store itself, then what SQLite keeps
 // beside it (log, shared memory, rollback journal).
 inline constexpr const char* kStoreFileSuffixes[] = {"", "-wal", "-shm", "-journal"};
