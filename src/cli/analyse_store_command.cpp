@@ -83,7 +83,9 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
     bool features_given = command->get_option("--features")->count() + command->get_option("--n")->count() > 0;
     if (features_given && (asked.kind != request.features.kind || asked.n != request.features.n))
       throw Error(ErrorKind::usage, "the store's counts under settings " + std::to_string(settings_id) + " are " +
-                                        chosen->settings.features + "; count others with batch --features");
+                                        chosen->settings.features + "; count those asked with batch --features " +
+                                        analysis->features + (asked.n > 1 ? " --n " + std::to_string(asked.n) : "") +
+                                        " (into this store or another), then analyse them");
     request.compute_pca = flags->pca;
     report_unfinished_work(std::cerr, *db, settings_id);
     ProgressDisplay display(flags->quiet);

@@ -270,6 +270,15 @@ with tempfile.TemporaryDirectory() as tmp:
                 "analyse-store on another version's counts says nothing: %s" % proc.stderr)
     proc = mtest.run(["analyse-store", "--store", listed, "--settings", "1", "--min-tokens", "10"], check=False)
     mtest.check("another version" not in proc.stderr, "this version's counts said to be another's: %s" % proc.stderr)
+    # Features the settings did not count: refused (usage), with the batch options that count
+    # them, n included; followed as printed (after settings 1's own options), they work.
+    asked = ["--features", "word-ngram", "--n", "2"]
+    proc = mtest.run(["analyse-store", "--store", listed, "--settings", "1", "--min-tokens", "10"] + asked, check=False)
+    advice = proc.stderr.split("count those asked with batch ")[-1].split(" (")[0].split()
+    mtest.check(proc.returncode == 2 and advice == asked, "features not counted: exit %d, %s" % (proc.returncode, proc.stderr))
+    mtest.run(["batch", nested, "--store", listed, "--quiet"] + option_sets[0] + advice)
+    proc = mtest.run(["analyse-store", "--store", listed, "--min-tokens", "10"] + asked, check=False)
+    mtest.check(proc.returncode == 0, "the advice followed, analyse-store: exit %d, %s" % (proc.returncode, proc.stderr))
     mtest.run(["batch", nested, "--store", listed, "--quiet"] + option_sets[1])
     run = storecheck.last_run(listed)
     mtest.check(run["files_read"] == 3, "the settings of another version were reused: %r" % run)
