@@ -80,14 +80,20 @@ CommandRunner add_merge_command(CLI::App& app) {
     // Shares read with different options (one task given --no-fold) hold counts that no
     // analysis takes together: each analysis takes one settings' counts.
     if (merged.settings_keys.size() > 1) {
-      // Which input holds which, so that the task started with other options is found.
+      // Which input holds which, so that the task started with other options is found; an
+      // input that holds several itself is said to (it was read with several options).
       std::map<std::string, std::string> inputs_of;  // settings key -> inputs holding it
-      for (const auto& [in, summary] : merged.inputs)
+      std::string several;                          // "two.sqlite holds 2"
+      for (const auto& [in, summary] : merged.inputs) {
         for (const auto& key : summary.settings_keys) inputs_of[key] += (inputs_of[key].empty() ? "" : ", ") + in;
-      std::string held;
-      for (const auto& [key, names] : inputs_of) held += (held.empty() ? "" : "; ") + names;
+        if (summary.settings_keys.size() > 1)
+          several += (several.empty() ? "" : "; ") + in + " holds " + std::to_string(summary.settings_keys.size());
+      }
+      std::string held = several;
+      if (held.empty())
+        for (const auto& [key, names] : inputs_of) held += (held.empty() ? "one each: " : "; ") + names;
       std::cerr << "manicule: note: the merged stores hold counts read under " << merged.settings_keys.size()
-                << " different reading settings (one each: " << held
+                << " different reading settings (" << held
                 << "), and an analysis takes the counts of one (see analyse-store --list-settings and --settings)\n";
     }
     // A task of the array that never saved its share (merge --exact refuses such inputs).

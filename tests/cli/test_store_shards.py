@@ -129,6 +129,13 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(("one each: %s; %s)" % (shards[1], unfolded)) in proc.stderr
                 or ("one each: %s; %s)" % (unfolded, shards[1])) in proc.stderr,
                 "the note does not name the input of each settings: " + proc.stderr)
+    # A store that holds both settings itself is said to (the same store twice read as "one
+    # each: X; X" before): merged on, the note counts its settings as its settings table does.
+    mixed_again = os.path.join(tmp, "mixed-again.sqlite")
+    proc = mtest.run(["merge", mixed_again, os.path.join(tmp, "mixed.sqlite")])
+    held_settings = storecheck.rows(os.path.join(tmp, "mixed.sqlite"), "SELECT count(*) FROM settings")[0][0]
+    mtest.check(held_settings == 2 and ("(%s holds 2)" % os.path.join(tmp, "mixed.sqlite")) in proc.stderr,
+                "merging a store of %d settings: %s" % (held_settings, proc.stderr))
     # That merged store has no batch run to say which counts an analysis takes: without
     # --settings it is refused (exit 2, naming --settings) rather than one settings taken by
     # the order of the merge's inputs; with --settings each analysis takes the files read
