@@ -4,6 +4,7 @@
 
 #include <unistd.h>
 
+#include <cerrno>
 #include <filesystem>
 
 #include "core/error.h"
@@ -47,10 +48,14 @@ std::string why_not_openable(const std::string& path) {
   if (fs::is_directory(path, ec)) return "it is a folder";
   const fs::path parent = folder_of(path);
   if (!fs::exists(path, ec)) {
+    if (fs::is_symlink(fs::symlink_status(path, ec)))
+      return "it is a link to nothing (" + fs::read_symlink(path, ec).string() + ")";
     if (!fs::is_directory(parent, ec)) return "the folder " + parent.string() + " does not exist";
-    if (::access(parent.c_str(), W_OK | X_OK) != 0) return "no permission to create a file in " + parent.string();
+    if (::access(parent.c_str(), W_OK | X_OK) != 0)
+      return errno == EROFS ? "the folder " + parent.string() + " is on a read-only file system"
+                            : "no permission to create a file in " + parent.string();
   } else if (::access(path.c_str(), R_OK | W_OK) != 0) {
-    return "no permission to read and write it";
+    return errno == EROFS ? "it is on a read-only file system" : "no permission to read and write it";
   }
   return "";
 }
@@ -60,7 +65,8 @@ std::string why_not_openable(const std::string& path) {
 std::string why_not_writable(const std::string& path) {
   namespace fs = std::filesystem;
   std::error_code ec;
-  if (::access(path.c_str(), W_OK) != 0) return "no permission to write it";
+  if (::access(path.c_str(), W_OK) != 0)
+    return errno == EROFS ? "it is on a read-only file system" : "no permission to write it";
   // SQLite follows a link to the store and keeps its log beside the file it leads to.
   fs::path file = fs::canonical(path, ec);
   if (ec) file = fs::path(path);

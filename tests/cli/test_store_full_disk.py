@@ -105,6 +105,21 @@ with tempfile.TemporaryDirectory() as tmp:
         finally:
             subprocess.run(["umount", disk])
     print("merge outcomes by size:", merge_outcomes)
+
+    # A store on a file system mounted read-only (mount -o remount,ro): said as such, not as
+    # a missing permission, for the store and for a new one in that folder (exit 5).
+    subprocess.run(["mount", "-t", "tmpfs", "-o", "size=8m", "tmpfs", disk], check=True)
+    try:
+        on_disk = os.path.join(disk, "kept.sqlite")
+        mtest.run(["batch", archive, "--store", on_disk, "--unit", "speaker", "--quiet"])
+        subprocess.run(["mount", "-o", "remount,ro", disk], check=True)
+        for store, says in ((on_disk, "it is on a read-only file system"),
+                            (os.path.join(disk, "new.sqlite"), "the folder %s is on a read-only file system" % disk)):
+            p = mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--quiet"], check=False)
+            mtest.check(p.returncode == 5 and says in p.stderr and "permission" not in p.stderr,
+                        "a store on a read-only file system: exit %d, %s" % (p.returncode, p.stderr))
+    finally:
+        subprocess.run(["umount", disk])
     mtest.check("log kept" in merge_outcomes, "no size let the merge commit but not copy its log in: %r" % merge_outcomes)
 
 mtest.done()
