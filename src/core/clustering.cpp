@@ -4,6 +4,7 @@
 #include "core/error.h"
 #include "core/request.h"
 #include "core/segment_index.h"
+#include "profile/stop_list.h"
 
 namespace manicule {
 
@@ -25,6 +26,7 @@ ClusteringResult cluster_segments(const Request& request, const CountProfile& co
   ConsensusRequest consensus;
   consensus.ranges = options.consensus_ranges;
   consensus.features = request.feature_space;
+  consensus.features.stop_words = normalised_stop_words(consensus.features.stop_words, request.tokenizer);
   consensus.measure = request.measure;
   consensus.method = options.method;
   consensus.distance.threads = request.threads;

@@ -8,6 +8,7 @@
 #include "core/segment_index.h"
 #include "measure/nearest_rows.h"
 #include "measure/pairwise_distances.h"
+#include "profile/stop_list.h"
 #include "tei/xpath_name_hint.h"
 
 namespace manicule {
@@ -108,7 +109,9 @@ Analysis analyse_counts(const Request& request, const Corpus& corpus, const Anal
                 "no " + request.unit + " segment found in the input files" + unprefixed_name_hint(request.unit));
 
   report_step(progress, "feature table");
-  FeatureTable table = build_feature_table(corpus.counts, request.feature_space, request.threads);
+  FeatureSpaceOptions space = request.feature_space;
+  space.stop_words = normalised_stop_words(space.stop_words, request.tokenizer);  // as the tokens were
+  FeatureTable table = build_feature_table(corpus.counts, space, request.threads);
   if (counts_to_free && !request.clustering.compute) counts_to_free->release_counts();
   std::vector<std::size_t> rows;
   {

@@ -1,8 +1,8 @@
 #include "profile/stop_list.h"
 
-
 #include "core/error.h"
 #include "core/regular_file.h"
+#include "text/normalise.h"
 
 namespace manicule {
 
@@ -21,6 +21,17 @@ std::vector<std::string> parse_stop_list(std::string_view text) {
     words.emplace_back(line.substr(first, last - first + 1));
   }
   return words;
+}
+
+std::vector<std::string> normalised_stop_words(const std::vector<std::string>& words, const TokenizerOptions& options) {
+  TokenNormaliser normaliser(options);
+  std::vector<std::string> out;
+  out.reserve(words.size());
+  for (const std::string& word : words) {
+    const std::string_view normal = normaliser.normalise(word);
+    if (!normal.empty()) out.emplace_back(normal);
+  }
+  return out;
 }
 
 std::vector<std::string> load_stop_list(const std::string& path) {

@@ -149,4 +149,20 @@ with tempfile.TemporaryDirectory() as stop_tmp:
     mtest.check("Stop words left out: " + said in open(copy, encoding="utf-8").read(),
                 "annotate's description lacks the stop list")
 
+    # The listed words are compared as the tokens were normalised: with the default case
+    # folding, "THE" and "And" leave out "the" and "and" (Python's str.casefold, Unicode's
+    # full case folding, gives the forms); without folding (--no-fold), "The" leaves out
+    # "The" alone. A review found a list's capitals matching nothing, silently.
+    with open(stop_file, "w", encoding="utf-8") as f:
+        f.write("THE\nAnd\n")
+    folded = {w.casefold() for w in ("THE", "And")}
+    _, features, _ = read_profile(mtest.run(["profile"] + base).stdout)
+    mtest.check(not folded & set(features), "capitals in the stop list left in: %r" % sorted(folded & set(features)))
+    with open(stop_file, "w", encoding="utf-8") as f:
+        f.write("The\n")
+    _, unfolded, _ = read_profile(mtest.run(["profile", "--no-fold"] + base).stdout)
+    _, unfolded_all, _ = read_profile(mtest.run(["profile", "--no-fold"] + base[:-3] + [example]).stdout)
+    mtest.check("The" in unfolded_all and "the" in unfolded_all and "The" not in unfolded and "the" in unfolded,
+                "--no-fold with 'The' listed: 'The' %s, 'the' %s" % ("The" in unfolded, "the" in unfolded))
+
 mtest.done()
