@@ -129,12 +129,22 @@ Analysis analyse_counts(const Request& request, const Corpus& corpus, const Anal
   }
   analysis.table_rows = rows;
   if (!table.report.excluded_segments.empty()) {
-    // A segment without a word is left out under any minimum, 0 among them (feature_space.cpp).
+    // A segment without a word is left out under any minimum, 0 among them; one long enough
+    // but too short for a single n-gram (a word alone, for word pairs) is left out too, for
+    // that reason (feature_space.cpp).
     const std::size_t minimum = std::max<std::size_t>(request.feature_space.min_segment_tokens, 1);
-    analysis.notes.push_back(std::to_string(table.report.excluded_segments.size()) +
-                             " segment(s) left out, shorter than the minimum of " +
-                             (minimum == 1 ? std::string("1 word: they hold none")
-                                           : std::to_string(minimum) + " words"));
+    std::size_t short_ones = 0;
+    const ExcludedSegment* featureless = nullptr;
+    for (const auto& excluded : table.report.excluded_segments)
+      if (excluded.tokens < minimum) ++short_ones;
+      else featureless = &excluded;
+    if (short_ones)
+      analysis.notes.push_back(std::to_string(short_ones) + " segment(s) left out, shorter than the minimum of " +
+                               (minimum == 1 ? std::string("1 word: they hold none")
+                                             : std::to_string(minimum) + " words"));
+    if (featureless)
+      analysis.notes.push_back(std::to_string(table.report.excluded_segments.size() - short_ones) +
+                               " segment(s) left out, " + featureless->reason);
   }
   record_feature_parameters(request, table.feature_count(), table.segment_count(), analysis.provenance);
   auto& params = analysis.provenance.parameters;

@@ -42,7 +42,7 @@ std::vector<std::size_t> keep_large_segments(const CountProfile& profile,
                std::to_string(std::max<std::size_t>(options.min_segment_tokens, 1))});
     } else if (segment.feature_total == 0) {
       report.excluded_segments.push_back(
-          {segment.id, segment.tokens, "too short to hold one " + describe(profile.spec)});
+          {segment.id, segment.tokens, "too short to hold a feature (" + describe(profile.spec) + ")"});
     } else {
       kept.push_back(s);
     }

@@ -165,4 +165,25 @@ with tempfile.TemporaryDirectory() as stop_tmp:
     mtest.check("The" in unfolded_all and "the" in unfolded_all and "The" not in unfolded and "the" in unfolded,
                 "--no-fold with 'The' listed: 'The' %s, 'the' %s" % ("The" in unfolded, "the" in unfolded))
 
+# A letter of one word holds no word pair: with --features word-ngram --n 2 and a minimum of
+# one word, it is left out for that reason, not as "shorter than the minimum of 1 word"
+# (a review found the wrong reason). Its words counted here by a regular expression.
+with tempfile.TemporaryDirectory() as pair_tmp:
+    bodies = ["Hello.", "one two three four five six seven", "one two three four five six eight nine",
+              "two three four five six seven ten"]
+    words = [len(re.findall(r"[A-Za-z]+", b)) for b in bodies]
+    pairs_file = os.path.join(pair_tmp, "pairs.xml")
+    with open(pairs_file, "w", encoding="utf-8") as f:
+        f.write('<TEI xmlns="http://www.tei-c.org/ns/1.0"><teiHeader><fileDesc><titleStmt><title>Pairs</title>'
+                '</titleStmt><publicationStmt><p>invented</p></publicationStmt><sourceDesc><p>invented</p>'
+                '</sourceDesc></fileDesc></teiHeader><text><body>' +
+                "".join('<div type="letter" xml:id="P%d"><p>%s</p></div>' % (i, b) for i, b in enumerate(bodies)) +
+                "</body></text></TEI>")
+    proc = mtest.run(["distances", pairs_file, "--unit", "letter", "--features", "word-ngram", "--n", "2",
+                      "--min-tokens", "1"])
+    no_pair = sum(1 for w in words if w < 2)
+    mtest.check(no_pair == 1 and ("%d segment(s) left out, too short to hold a feature (word 2-grams)" % no_pair)
+                in proc.stderr and "shorter than the minimum" not in proc.stderr,
+                "a one-word letter under word pairs: %s" % proc.stderr)
+
 mtest.done()
