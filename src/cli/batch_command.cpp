@@ -176,7 +176,7 @@ CommandRunner add_batch_command(CLI::App& app) {
                 << ": if they are the same files given another way (another working folder, a relative path "
                    "against an absolute one), the store now holds them twice, for it keeps files by their path "
                    "as given; give the inputs as before, or always as absolute paths\n";
-    report_failures(std::cerr, summary);
+    report_failures(std::cerr, summary, flags->verbose);
     if (flags->analyse) {
       report_unfinished_work(std::cerr, *db, summary.settings_id);
       StopNotice notice("manicule: interrupted during the analysis: every file is stored, no analysis\n",

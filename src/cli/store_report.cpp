@@ -21,8 +21,17 @@ void report_batch(std::ostream& out, const std::string& store, const store::Batc
   out << '\n';
 }
 
-void report_failures(std::ostream& err, const store::BatchSummary& s) {
-  for (const auto& f : s.failures) err << "manicule: failed: " << f.message << '\n';
+void report_failures(std::ostream& err, const store::BatchSummary& s, bool every_one) {
+  // A large archive may hold hundreds of failing files, named again at each run: past a
+  // screenful the rest are counted, and the store lists them all.
+  constexpr std::size_t kNamedAtMost = 20;
+  const bool cut = !every_one && s.failures.size() > kNamedAtMost;
+  const std::size_t named = cut ? kNamedAtMost / 2 : s.failures.size();
+  for (std::size_t i = 0; i < named; ++i) err << "manicule: failed: " << s.failures[i].message << '\n';
+  if (cut)
+    err << "manicule: failed: and " << s.failures.size() - named
+        << " more file(s); --verbose names them all, as does the store: SELECT path, error FROM file_list "
+           "WHERE status = 'failed'\n";
   for (const auto& folder : s.unlisted)
     err << "manicule: failed: " << folder.path << ": cannot list the folder: " << folder.reason
         << "; its files were not looked at, and those stored from it before are kept\n";

@@ -12,7 +12,9 @@
 namespace manicule::cli {
 
 void report_batch(std::ostream& out, const std::string& store, const store::BatchSummary& summary);
-void report_failures(std::ostream& err, const store::BatchSummary& summary);
+// The failing files, each with its reason: all of them with `every_one`, else at most a
+// screenful (the first ten of more than twenty, then how many more and where they are listed).
+void report_failures(std::ostream& err, const store::BatchSummary& summary, bool every_one);
 // How many files below the input folders were not taken for TEI by their names, and how
 // many hidden ones were passed by, with one of each.
 void report_left_aside(std::ostream& err, const store::BatchSummary& summary);
