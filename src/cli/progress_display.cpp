@@ -51,11 +51,19 @@ bool ProgressDisplay::due(std::chrono::steady_clock::time_point now, bool at_onc
   return true;
 }
 
-void ProgressDisplay::draw(const std::string& line) {
-  // Cut to the width, less one column: a line that wraps leaves its first rows behind, as
-  // the clear before the next takes back the last row alone. (The lines are ASCII.)
+void ProgressDisplay::draw(const std::vector<std::string>& forms) {
+  // The fullest form that fits the width less one column (a line that wraps leaves its
+  // first rows behind, as the clear before the next takes back the last row alone); the
+  // forms shed their parts from the least needed, so that a narrow terminal keeps the share
+  // done and the time left whole. Past the last, it is cut. (The lines are ASCII.)
   const std::size_t columns = terminal_columns();
-  const std::string shown = columns > 1 && line.size() >= columns ? line.substr(0, columns - 1) : line;
+  std::string shown = forms.back();
+  for (const std::string& form : forms)
+    if (columns <= 1 || form.size() < columns) {
+      shown = form;
+      break;
+    }
+  if (columns > 1 && shown.size() >= columns) shown.resize(columns - 1);
   std::fprintf(stderr, "\r\033[K%s", shown.c_str());
   std::fflush(stderr);
   shown_ = true;
@@ -69,10 +77,14 @@ void ProgressDisplay::update(const store::BatchProgress& p) {
   double rate = elapsed > 0 ? static_cast<double>(p.bytes_done) / elapsed : 0;
   std::string left = "--:--";
   if (rate > 0 && p.bytes_done > 0) left = clock_text(static_cast<double>(p.bytes_total - p.bytes_done) / rate);
-  char line[96];
-  std::snprintf(line, sizeof line, "%zu/%zu files  %.1f MB/s  %s left", p.files_done, p.files_total, rate / 1e6,
-                left.c_str());
-  draw(line);
+  char files[48], speed[24], share[8];
+  std::snprintf(files, sizeof files, "%zu/%zu files", p.files_done, p.files_total);
+  std::snprintf(speed, sizeof speed, "%.1f MB/s", rate / 1e6);
+  std::snprintf(share, sizeof share, "%.0f%%",
+                p.bytes_total ? 100.0 * static_cast<double>(p.bytes_done) / static_cast<double>(p.bytes_total) : 100.0);
+  const std::string time_left = left + " left";
+  draw({std::string(files) + "  " + speed + "  " + time_left, std::string(files) + "  " + time_left,
+        std::string(share) + "  " + time_left, time_left});
 }
 
 void ProgressDisplay::show_step(std::string_view name, double share_done) {
@@ -84,18 +96,20 @@ void ProgressDisplay::show_step(std::string_view name, double share_done) {
     step_start_ = now;
   }
   if (!due(now, new_step || share_done >= 1)) return;
-  std::string line = "analysis: " + step_;
-  if (share_done >= 0) {
-    // The rate so far, once the step has run long enough to have one.
-    double elapsed = std::chrono::duration<double>(now - step_start_).count();
-    std::string left = "--:--";
-    if (share_done >= 1) left = clock_text(0);
-    else if (share_done > 0 && elapsed >= 0.5) left = clock_text(elapsed * (1 - share_done) / share_done);
-    char figures[48];
-    std::snprintf(figures, sizeof figures, "  %.0f%%  %s left", 100 * share_done, left.c_str());
-    line += figures;
+  const std::string line = "analysis: " + step_;
+  if (share_done < 0) {
+    draw({line, step_});
+    return;
   }
-  draw(line);
+  // The rate so far, once the step has run long enough to have one.
+  double elapsed = std::chrono::duration<double>(now - step_start_).count();
+  std::string left = "--:--";
+  if (share_done >= 1) left = clock_text(0);
+  else if (share_done > 0 && elapsed >= 0.5) left = clock_text(elapsed * (1 - share_done) / share_done);
+  char share[8];
+  std::snprintf(share, sizeof share, "%.0f%%", 100 * share_done);
+  const std::string figures = std::string(share) + "  " + left + " left";
+  draw({line + "  " + figures, step_ + "  " + figures, figures, share});
 }
 
 AnalysisProgress ProgressDisplay::analysis_progress() {

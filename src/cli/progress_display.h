@@ -8,6 +8,7 @@
 #include <cstddef>
 #include <string>
 #include <string_view>
+#include <vector>
 
 #include "core/analysis_progress.h"
 #include "store/batch_run.h"
@@ -31,7 +32,8 @@ class ProgressDisplay {
  private:
   // Whether to draw now: at once, or 200 ms after the last drawing.
   bool due(std::chrono::steady_clock::time_point now, bool at_once);
-  void draw(const std::string& line);  // over the line drawn before
+  // Over the line drawn before: the first of `forms` (fullest first) that fits the terminal.
+  void draw(const std::vector<std::string>& forms);
 
   bool enabled_;
   bool shown_ = false;

@@ -14,7 +14,8 @@ stderr, while stdout goes to a pipe. Over all GerDraCor plays (../shared/corpora
 - with --quiet, or with stderr a pipe rather than a terminal (a log, a job's output), or
   on a terminal that declares no cursor control (TERM=dumb), nothing is drawn: no carriage
   return, no "files", no "analysis:";
-- on a narrow terminal (40 columns) every line drawn fits, less one column.
+- on a narrow terminal (40 columns, and 24 for the reading) every line drawn fits, less one
+  column, by leaving out its least needed parts: the share done and the time left stay whole.
 """
 import fcntl
 import os
@@ -158,15 +159,27 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(code == 0 and "analysis:" not in err, "a re-run draws no analysis step: %r" % err[-500:])
 
     # A narrow terminal (40 columns, where "analysis: nearest segments  12%  0:14 left" is
-    # 43): each line is cut to fit, less one column, as a line that wraps leaves its first
-    # rows on the screen when the next clears the last. Each is the start of a line of the
-    # forms above.
+    # 43): each line fits, less one column, as a line that wraps leaves its first rows on
+    # the screen when the next clears the last; it sheds its least needed parts first
+    # ("analysis: ", then the step's name), so the share and the time left stay whole where
+    # they were cut before (a review saw "analysis: nearest segments  4" at 43 %).
+    shed_step = re.compile(r"^(?:(?:analysis: )?[a-z ]+?  )?\d+%  " + LEFT + "$")
     code, out, err = run_on_terminal(["analyse-store", "--store", store, "--recompute"], columns=40)
     lines, _ = drawn(err)
     mtest.check(code == 0 and lines and all(len(line) <= 39 for line in lines),
                 "on 40 columns, lines of %r characters" % sorted({len(line) for line in lines}))
-    mtest.check(any(line.startswith("analysis: nearest segments") for line in lines),
-                "on 40 columns the steps are still named: %r" % lines[:3])
+    mtest.check(all(STEP_LINE.match(line) or shed_step.match(line) for line in lines),
+                "on 40 columns, lines neither whole nor shed: %r" % [l for l in lines if not shed_step.match(l)][:3])
+    mtest.check(any(re.match(r"^nearest segments  \d+%  " + LEFT + "$", line) for line in lines),
+                "on 40 columns the search keeps its name, share and time left: %r" % lines[:6])
+    # The reading on 24 columns: "k/N files  m:ss left", else the share of the bytes and the
+    # time left, never a time cut in two.
+    narrow_store = os.path.join(tmp, "narrow.sqlite")
+    code, out, err = run_on_terminal(["batch", PLAYS, "--store", narrow_store, "--unit", "speaker"], columns=24)
+    lines, _ = drawn(err)
+    shed_files = re.compile(r"^(?:\d+/\d+ files  |\d+%  )?" + LEFT + "$")
+    mtest.check(code == 0 and lines and all(len(line) <= 23 and shed_files.match(line) for line in lines),
+                "on 24 columns, reading lines %r" % [l for l in lines if not shed_files.match(l)][:3])
     # A terminal without cursor control (TERM=dumb, terminfo(5)) gets no progress line.
     code, out, err = run_on_terminal(["analyse-store", "--store", store, "--recompute"],
                                      env=dict(os.environ, TERM="dumb"))
