@@ -159,8 +159,10 @@ std::string copies_note(const StoredCorpus& stored) {
   for (const auto& [content, paths] : paths_of) {
     if (paths.size() < 2) continue;
     if (++contents > 3) continue;
-    std::string same;
-    for (const std::string& path : paths) same += (same.empty() ? "" : " = ") + path;
+    // Two paths of each, with how many more: 500 copies of one play made a line of 24,000
+    // characters, stored with the run's notes too.
+    std::string same = paths[0] + " = " + paths[1];
+    if (paths.size() > 2) same += " and " + std::to_string(paths.size() - 2) + " more";
     shown += (shown.empty() ? "" : "; ") + same;
   }
   if (!contents) return {};

@@ -39,6 +39,21 @@ letter_divs = sum(len(etree.parse(p).getroot().xpath("//tei:div[@type='letter']"
 mtest.check(len(firsts) == letter_divs and all(d < 1e-12 and n.split("#")[1] == s.split("#")[1] for s, (n, d) in firsts.items()),
             "the copies are not each other's nearest at distance 0: %r" % sorted(firsts.items())[:3])
 
+# Forty copies of one content (hashlib: one SHA-256 for all): the note names two paths and
+# counts the others, rather than one line of every path (a review: 24,000 characters for
+# 500 copies, in the run's stored notes too).
+many = os.path.join(tmp, "many")
+for i in range(40):
+    os.makedirs(os.path.join(many, "c%02d" % i))
+    shutil.copy(letters, os.path.join(many, "c%02d" % i, "ferry-letters.xml"))
+digests = {storecheck.sha256_of(os.path.join(many, "c%02d" % i, "ferry-letters.xml")) for i in range(40)}
+many_store = os.path.join(tmp, "many.sqlite")
+mtest.run(["batch", many, "--store", many_store, "--unit", "letter", "--quiet"])
+proc = mtest.run(["analyse-store", "--store", many_store, "--min-tokens", "200"])
+notes = [line for line in proc.stderr.splitlines() if "under more than one path" in line]
+mtest.check(len(digests) == 1 and len(notes) == 1 and notes[0].count(" = ") == 1 and "and 38 more" in notes[0]
+            and len(notes[0]) < 600, "the note of 40 copies: %r" % notes[:1])
+
 # With the copy gone, no such note.
 os.remove(copy)
 mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"])
