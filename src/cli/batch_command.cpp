@@ -11,6 +11,7 @@
 #include "cli/archive_options.h"
 #include "cli/attribution_cli_options.h"
 #include "cli/commands.h"
+#include "cli/number_checks.h"
 #include "cli/exit_codes.h"
 #include "core/error.h"
 #include "cli/interrupt_requests.h"
@@ -67,6 +68,7 @@ CommandRunner add_batch_command(CLI::App& app) {
                     "itself first (a fixity check)");
   command->add_option("--commit-every", flags->commit_every,
                       "files per transaction at most (a transaction also ends every two seconds)")
+      ->check(at_least_one())
       ->capture_default_str();
   command->add_flag("--analyse", flags->analyse, "then analyse the stored counts (distances, nearest neighbours)");
   command->add_flag("--pca", flags->pca, "with --analyse: also principal components");
@@ -97,7 +99,7 @@ CommandRunner add_batch_command(CLI::App& app) {
     store::BatchOptions options;
     options.filter = filters->to_filter();
     options.verify_hashes = flags->verify;
-    options.commit_files = std::max<std::size_t>(1, flags->commit_every);
+    options.commit_files = flags->commit_every;
     if (!flags->shard.empty()) options.shard = parse_shard(flags->shard);
     if (flags->analyse) options.keep_counts_of_segments_from = request.feature_space.min_segment_tokens;
 

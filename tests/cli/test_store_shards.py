@@ -269,6 +269,10 @@ with tempfile.TemporaryDirectory() as tmp:
         proc = mtest.run(["batch", archive, "--store", refused, "--shard", bad] + common, check=False)
         mtest.check(proc.returncode == 2 and says in proc.stderr and not os.path.exists(refused),
                     "--shard %r: exit %d, %s" % (bad, proc.returncode, proc.stderr))
+    # So is --commit-every 0 (no transaction can hold no file; it was taken as 1, silently).
+    proc = mtest.run(["batch", archive, "--store", refused, "--commit-every", "0"] + common, check=False)
+    mtest.check(proc.returncode == 2 and "--commit-every" in proc.stderr and not os.path.exists(refused),
+                "--commit-every 0: exit %d, %s" % (proc.returncode, proc.stderr))
 
     # A play deleted from the archive after a merge: each share's batch drops it, but a
     # second merge into the same OUT keeps it (merge never removes) and names it on stderr;
