@@ -5,8 +5,9 @@ For each corpus (all GerDraCor plays by speaker, all ELTeC-eng novels by chapter
 round runs, measuring wall time with a microsecond clock and CPU time and peak memory
 from the kernel's accounting of the child process (wait4):
   first      batch --analyse into a new store, on all cores
-  first-1    the same with --threads 1 (one reading thread; the store writer and the
-             analysis may still use the other core)
+  first-1    the same with --threads 1 (one reading thread, and since 2026-12-05 one
+             thread for the analysis, its BLAS included; the store's checkpoint may
+             still use the other core)
   first-1core  the same pinned to one core (taskset -c 0): the one-core time
   rerun      batch --analyse again, nothing changed (no XML read, stored analysis reused)
   rerun-read batch again without --analyse (what a re-run costs to find that nothing changed)

@@ -11,15 +11,16 @@
 #include "cli/archive_options.h"
 #include "cli/attribution_cli_options.h"
 #include "cli/commands.h"
-#include "cli/number_checks.h"
 #include "cli/exit_codes.h"
 #include "core/error.h"
 #include "cli/interrupt_requests.h"
+#include "cli/number_checks.h"
 #include "cli/progress_display.h"
 #include "cli/stop_notice.h"
 #include "cli/text_checks.h"
 #include "cli/selection_options.h"
 #include "cli/store_report.h"
+#include "cli/test_pause.h"
 #include "core/facade.h"
 #include "store/batch_run.h"
 #include "store/run_log.h"
@@ -187,7 +188,10 @@ CommandRunner add_batch_command(CLI::App& app) {
       store::StoreAnalysisOptions how{options.filter, flags->attribute, flags->recompute,
                                       display.analysis_progress()};
       store::StoreAnalysisResult result = store::analyse_store(*db, summary.settings_id, request, how, summary.fresh.get());
-      if (!result.reused) notice.work_kept(stored_before_stop_notice("analysis run " + std::to_string(result.run_id), db->path()));
+      if (!result.reused) {
+        notice.work_kept(stored_before_stop_notice("analysis run " + std::to_string(result.run_id), db->path()));
+        pause_for_tests("MANICULE_TEST_PAUSE_AFTER_COMMIT", "after committing");
+      }
       summary.fresh.reset();
       display.clear();
       report_analysis(std::cout, std::cerr, result);
