@@ -180,6 +180,8 @@ CommandRunner add_batch_command(CLI::App& app) {
                    "against an absolute one), the store now holds them twice, for it keeps files by their path "
                    "as given; give the inputs as before, or always as absolute paths\n";
     report_failures(std::cerr, summary, flags->verbose);
+    if (flags->verbose)
+      for (const std::string& path : summary.removed) std::cerr << "removed: " << path << '\n';
     if (flags->analyse) {
       report_unfinished_work(std::cerr, *db, summary.settings_id);
       StopNotice notice("manicule: interrupted during the analysis: every file is stored, no analysis\n",

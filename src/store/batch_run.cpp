@@ -137,6 +137,7 @@ struct InputScope {
 struct VanishedFile {
   std::string path;
   bool respelled = false;  // found in this run under another spelling of its path
+  std::string sha256;      // its content as stored (empty if it was never read)
 };
 
 // Files stored before this run that are no longer under the inputs (within the folder
@@ -164,10 +165,10 @@ std::vector<VanishedFile> vanished_files(const Request& request, const BatchOpti
   for (const auto& [path, f] : stored) {
     if (found.count(path)) continue;
     if (respelled(path))
-      out.push_back({path, true});
+      out.push_back({path, true, f.sha256});
     else if (scope.covers(path) && !under_unlisted(path) && in_folder.holds(path, f.relative_path) &&
              in_shard(f.relative_path, options.shard))
-      out.push_back({path, false});
+      out.push_back({path, false, f.sha256});
   }
   return out;
 }
@@ -208,6 +209,25 @@ void remove_vanished(Database& db, const std::vector<VanishedFile>& vanished, Ba
     ++(f.respelled ? summary.files_respelled : summary.files_removed);
   }
   remove_files(db, paths);
+  // A file whose content another path of the store holds now was most often moved or
+  // renamed: said, so that a folder renamed does not read as files lost.
+  Statement held = db.prepare("SELECT 1 FROM files WHERE sha256 = ?1 LIMIT 1");
+  for (const VanishedFile& f : vanished) {
+    if (f.respelled || f.sha256.empty()) continue;
+    held.bind(1, f.sha256);
+    if (held.step()) ++summary.removed_content_kept;
+    held.reset();
+  }
+}
+
+// The paths of the files that leave the store in this run (not those found under another
+// spelling), in path order: named by --verbose, and kept with the run (up to a bound).
+std::vector<std::string> removed_paths(const std::vector<VanishedFile>& vanished) {
+  std::vector<std::string> out;
+  for (const VanishedFile& f : vanished)
+    if (!f.respelled) out.push_back(f.path);
+  std::sort(out.begin(), out.end());
+  return out;
 }
 
 nlohmann::json run_parameters(const Request& request, const BatchOptions& options, const ReadingSettings& settings) {
@@ -338,6 +358,12 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     nlohmann::json parameters = run_parameters(request, options, settings);
     for (const auto& folder : summary.unlisted)  // kept with the run, for whoever reads the table later
       parameters["unlisted_folders"].push_back({{"path", folder.path}, {"reason", folder.reason}});
+    // What left the store, for whoever reads the table later: the files' rows go.
+    summary.removed = removed_paths(vanished);
+    constexpr std::size_t kRemovedKept = 1000;
+    for (std::size_t i = 0; i < std::min(summary.removed.size(), kRemovedKept); ++i)
+      parameters["removed"].push_back(summary.removed[i]);
+    if (summary.removed.size() > kRemovedKept) parameters["removed_more"] = summary.removed.size() - kRemovedKept;
     if (summary.left_aside.count || summary.left_aside.hidden)
       parameters["left_aside"] = {{"files", summary.left_aside.count}, {"first", summary.left_aside.first},
                                   {"hidden", summary.left_aside.hidden}, {"first_hidden", summary.left_aside.first_hidden}};

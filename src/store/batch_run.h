@@ -76,6 +76,10 @@ struct BatchSummary {
   RunCounters counters;
   std::vector<BatchFailure> failures;  // every file failing now, in path order
   std::size_t files_removed = 0;       // rows of files no longer found
+  std::vector<std::string> removed;    // their paths, in path order
+  // Of those, the files whose content the store holds after the run under another path
+  // (moved or renamed, most often, or copied before they went).
+  std::size_t removed_content_kept = 0;
   std::size_t files_respelled = 0;     // rows of files found under another spelling of their path
   // Files new to the store whose name below their input, size and time match a stored file
   // this run did not find (an archive given as a relative path from another working folder,
