@@ -179,6 +179,11 @@ CommandRunner add_batch_command(CLI::App& app) {
                 << ": if they are the same files given another way (another working folder, a relative path "
                    "against an absolute one), the store now holds them twice, for it keeps files by their path "
                    "as given; give the inputs as before, or always as absolute paths\n";
+    if (summary.files_found_twice)
+      std::cerr << "manicule: note: the inputs reach " << summary.files_found_twice
+                << " file(s) a second time, under another input or another spelling of one (such as "
+                << summary.found_twice_passed << ", found as " << summary.found_twice_kept
+                << "): each file is read once, under the path found first\n";
     report_failures(std::cerr, summary, flags->verbose);
     if (flags->verbose)
       for (const std::string& path : summary.removed) std::cerr << "removed: " << path << '\n';

@@ -252,9 +252,18 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
                                                        summary.left_aside, empty_inputs);
   std::vector<ArchiveFile> files;
   {
-    std::unordered_set<std::string> seen;
-    for (auto& f : listed)
-      if (seen.insert(f.path).second) files.push_back(std::move(f));
+    // One file under two inputs, or under two spellings of one (arch and ./arch), is read
+    // once, under the path found first: twice, it was each copy's nearest at distance 0.
+    std::unordered_map<std::string, std::string> first_path;  // resolved -> as found first
+    for (auto& f : listed) {
+      auto [at, first] = first_path.emplace(resolved_path(f.path), f.path);
+      if (first) {
+        files.push_back(std::move(f));
+      } else if (at->second != f.path && summary.files_found_twice++ == 0) {
+        summary.found_twice_kept = at->second;
+        summary.found_twice_passed = f.path;
+      }
+    }
   }
 
   // Plan, before anything is written: which files need opening. A file whose size and

@@ -86,6 +86,10 @@ struct BatchSummary {
   // or as an absolute one): most likely the same files, then stored twice. One example each.
   std::size_t files_maybe_twice = 0;
   std::string maybe_twice_new, maybe_twice_stored;
+  // Files found under two of the inputs, or two spellings of one ("arch", "./arch"): read
+  // once, under the path found first. One example.
+  std::size_t files_found_twice = 0;
+  std::string found_twice_kept, found_twice_passed;
   // Folders below the inputs that could not be listed: their files were not looked at, and
   // those stored from them before stay in the store.
   std::vector<UnlistedFolder> unlisted;

@@ -2,7 +2,8 @@
 absolute path, as a curator does from another working directory or a script) stays one
 archive in the store: the latest spelling replaces the earlier rows of the same files, and
 no content is read again; a file deleted meanwhile leaves the store whatever the spelling;
-and a store that already holds a file twice so is analysed with the file once. Before, each spelling added its own rows, so the store held every
+and a store that already holds a file twice so is analysed with the file once; several
+spellings in one run store and read each file once. Before, each spelling added its own rows, so the store held every
 file two or three times and an analysis found each segment nearest to its own copy, at
 distance 0.
 
@@ -178,5 +179,24 @@ with tempfile.TemporaryDirectory() as tmp:
                 "after deleting a file and respelling the folder the store holds %r, the analysis %r; gone from "
                 "disk: %r; os.listdir: %r" % (stored, sorted(analysed), gone, os.listdir(archive)))
     mtest.check("1 no longer found" in proc.stdout, "the report names the file gone: " + proc.stdout)
+
+# Several spellings of one folder in ONE run (archive, ./archive, archive/../archive): each
+# file is stored and read once, under the spelling given first, and a note says so (a
+# review found each stored once per spelling, read as many times). os.listdir gives the files.
+with tempfile.TemporaryDirectory() as tmp:
+    archive = os.path.join(tmp, "archive")
+    os.makedirs(archive)
+    for name in ("ferry-letters.xml", "ferry-play.xml"):
+        shutil.copy(os.path.join(mtest.ROOT, "examples", name), archive)
+    store = os.path.join(tmp, "once.sqlite")
+    proc = subprocess.run([os.path.abspath(mtest.BIN), "batch", "archive", "./archive", "archive/../archive", "--store",
+                           store, "--unit", "letter", "--quiet"], capture_output=True, text=True, cwd=tmp)
+    stored = sorted(r[0] for r in storecheck.rows(store, "SELECT path FROM files"))
+    files = sorted(os.listdir(archive))
+    mtest.check(proc.returncode == 0 and stored == [os.path.join("archive", n) for n in files]
+                and "2 file(s): 2 read" in proc.stdout,
+                "three spellings in one run: exit %d, stored %r, %s" % (proc.returncode, stored, proc.stdout))
+    mtest.check("the inputs reach %d file(s) a second time" % (2 * len(files)) in proc.stderr,
+                "the note of files reached twice: %r" % proc.stderr)
 
 mtest.done()
