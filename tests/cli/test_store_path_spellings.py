@@ -71,11 +71,17 @@ def check_analysis(store, run, letters, where, cwd, what, whole_path=False):
                 "%s: neighbours per segment %r, %d at distance 0" % (what, per_segment, zero))
 
 
-with tempfile.TemporaryDirectory() as tmp:
+def example_archive(tmp):
+    """tmp/archive holding the two example files."""
     archive = os.path.join(tmp, "archive")
     os.makedirs(archive)
     for name in ("ferry-letters.xml", "ferry-play.xml"):
         shutil.copy(os.path.join(mtest.ROOT, "examples", name), archive)
+    return archive
+
+
+with tempfile.TemporaryDirectory() as tmp:
+    archive = example_archive(tmp)
     names = sorted(os.listdir(archive))
     on_disk = len(names)
     letters = letter_words(os.path.join(archive, "ferry-letters.xml"))  # the play holds no letter
@@ -155,10 +161,7 @@ with tempfile.TemporaryDirectory() as tmp:
 # file's row was kept, as its path did not begin with the new spelling, and the next
 # analysis still measured the deleted file. What is on disk is what os.path.exists says.
 with tempfile.TemporaryDirectory() as tmp:
-    archive = os.path.join(tmp, "archive")
-    os.makedirs(archive)
-    for name in ("ferry-letters.xml", "ferry-play.xml"):
-        shutil.copy(os.path.join(mtest.ROOT, "examples", name), archive)
+    archive = example_archive(tmp)
     store = os.path.join(tmp, "archive.sqlite")
 
     def run_batch(spelling):
@@ -184,10 +187,7 @@ with tempfile.TemporaryDirectory() as tmp:
 # file is stored and read once, under the spelling given first, and a note says so (a
 # review found each stored once per spelling, read as many times). os.listdir gives the files.
 with tempfile.TemporaryDirectory() as tmp:
-    archive = os.path.join(tmp, "archive")
-    os.makedirs(archive)
-    for name in ("ferry-letters.xml", "ferry-play.xml"):
-        shutil.copy(os.path.join(mtest.ROOT, "examples", name), archive)
+    archive = example_archive(tmp)
     store = os.path.join(tmp, "once.sqlite")
     proc = subprocess.run([os.path.abspath(mtest.BIN), "batch", "archive", "./archive", "archive/../archive", "--store",
                            store, "--unit", "letter", "--quiet"], capture_output=True, text=True, cwd=tmp)
