@@ -10,7 +10,6 @@
 #include "cli/commands.h"
 #include "cli/progress_display.h"
 #include "cli/stop_notice.h"
-#include "cli/test_pause.h"
 #include "cli/text_checks.h"
 #include "cli/store_report.h"
 #include "core/error.h"
@@ -93,12 +92,11 @@ CommandRunner add_analyse_store_command(CLI::App& app) {
     store::StoreAnalysisOptions how{filters->to_filter(), flags->attribute, flags->recompute,
                                     display.analysis_progress()};
     auto result = store::analyse_store(*db, settings_id, request, how);
-    if (!result.reused) {
+    if (!result.reused)
       notice.work_kept(stored_before_stop_notice("analysis run " + std::to_string(result.run_id), db->path()));
-      pause_for_tests("MANICULE_TEST_PAUSE_AFTER_COMMIT", "after committing");
-    }
     display.clear();
     report_analysis(std::cout, std::cerr, result);
+    db->close();  // its log taken in (or an error), while a stop still says what is kept
     return 0;
   };
 }

@@ -20,7 +20,6 @@
 #include "cli/text_checks.h"
 #include "cli/selection_options.h"
 #include "cli/store_report.h"
-#include "cli/test_pause.h"
 #include "core/facade.h"
 #include "store/batch_run.h"
 #include "store/run_log.h"
@@ -187,23 +186,25 @@ CommandRunner add_batch_command(CLI::App& app) {
     report_failures(std::cerr, summary, flags->verbose);
     if (flags->verbose)
       for (const std::string& path : summary.removed) std::cerr << "removed: " << path << '\n';
+    // During the analysis a stop ends the run at once, saying what it leaves (until the
+    // store is closed: the notice outlives the closing).
+    std::optional<StopNotice> notice;
     if (flags->analyse) {
       report_unfinished_work(std::cerr, *db, summary.settings_id);
-      StopNotice notice("manicule: interrupted during the analysis: every file is stored, no analysis\n",
-                        display.enabled());
+      notice.emplace("manicule: interrupted during the analysis: every file is stored, no analysis\n",
+                     display.enabled());
       if (blas.valid()) blas.get();
       store::StoreAnalysisOptions how{options.filter, flags->attribute, flags->recompute,
                                       display.analysis_progress()};
       store::StoreAnalysisResult result = store::analyse_store(*db, summary.settings_id, request, how, summary.fresh.get());
-      if (!result.reused) {
-        notice.work_kept(stored_before_stop_notice("analysis run " + std::to_string(result.run_id), db->path()));
-        pause_for_tests("MANICULE_TEST_PAUSE_AFTER_COMMIT", "after committing");
-      }
+      if (!result.reused)
+        notice->work_kept(stored_before_stop_notice("analysis run " + std::to_string(result.run_id), db->path()));
       summary.fresh.reset();
       display.clear();
       report_analysis(std::cout, std::cerr, result);
     }
     db->close();  // its log taken in (or an error), before a stop noted meanwhile is answered
+    notice.reset();
     if (interrupts && interrupts->requested()) return stopped_after_last_file(false);
     return summary.failures.empty() && summary.unlisted.empty() ? kExitOk : kExitSomeFilesFailed;
   };

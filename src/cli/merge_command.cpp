@@ -11,7 +11,6 @@
 
 #include "cli/commands.h"
 #include "cli/stop_notice.h"
-#include "cli/test_pause.h"
 #include "cli/store_report.h"
 #include "cli/text_checks.h"
 #include "core/error.h"
@@ -62,7 +61,6 @@ CommandRunner add_merge_command(CLI::App& app) {
       merged = store::merge_stores(*target, *inputs, *exact);
       committed = true;
       notice.work_kept(stored_before_stop_notice("the merge", *out));
-      pause_for_tests("MANICULE_TEST_PAUSE_AFTER_COMMIT", "after committing");
       target->close();  // OUT whole in its one file, or an error (a full disk)
     } catch (...) {
       // Nothing was committed: an existing output is as it was; one this merge created goes.
@@ -82,16 +80,18 @@ CommandRunner add_merge_command(CLI::App& app) {
     if (merged.settings_keys.size() > 1) {
       // Which input holds which, so that the task started with other options is found; an
       // input that holds several itself is said to (it was read with several options).
-      std::map<std::string, std::string> inputs_of;  // settings key -> inputs holding it
+      std::map<std::string, std::string> inputs_of;  // settings key -> the inputs holding it alone
       std::string several;                          // "two.sqlite holds 2"
       for (const auto& [in, summary] : merged.inputs) {
-        for (const auto& key : summary.settings_keys) inputs_of[key] += (inputs_of[key].empty() ? "" : ", ") + in;
-        if (summary.settings_keys.size() > 1)
+        if (summary.settings_keys.size() > 1) {
           several += (several.empty() ? "" : "; ") + in + " holds " + std::to_string(summary.settings_keys.size());
+          continue;
+        }
+        for (const auto& key : summary.settings_keys) inputs_of[key] += (inputs_of[key].empty() ? "" : ", ") + in;
       }
-      std::string held = several;
-      if (held.empty())
-        for (const auto& [key, names] : inputs_of) held += (held.empty() ? "one each: " : "; ") + names;
+      std::string one_each;
+      for (const auto& [key, names] : inputs_of) one_each += (one_each.empty() ? "one each: " : "; ") + names;
+      const std::string held = several + (several.empty() || one_each.empty() ? "" : "; ") + one_each;
       std::cerr << "manicule: note: the merged stores hold counts read under " << merged.settings_keys.size()
                 << " different reading settings (" << held
                 << "), and an analysis takes the counts of one (see analyse-store --list-settings and --settings)\n";

@@ -21,6 +21,7 @@ class StopNotice {
   ~StopNotice();  // puts back what was there before
   // From here on the work is kept (its transaction committed, the store still closing): a
   // stop then writes `message` instead (one line, with its newline) and removes nothing.
+  // (The test hook MANICULE_TEST_PAUSE_AFTER_COMMIT pauses here: test_pause.h.)
   void work_kept(const std::string& message);
   StopNotice(const StopNotice&) = delete;
   StopNotice& operator=(const StopNotice&) = delete;
