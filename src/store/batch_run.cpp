@@ -230,6 +230,21 @@ std::vector<std::string> removed_paths(const std::vector<VanishedFile>& vanished
   return out;
 }
 
+// Kept with the run once the files are removed (a run stopped before keeps them): their
+// rows go, so the run is where a curator finds what left. The first 1,000 in path order.
+void record_removed(Database& db, std::int64_t run_id, const std::vector<std::string>& removed) {
+  if (removed.empty()) return;
+  constexpr std::size_t kRemovedKept = 1000;
+  const std::size_t kept = std::min(removed.size(), kRemovedKept);
+  const nlohmann::json paths(std::vector<std::string>(removed.begin(), removed.begin() + static_cast<std::ptrdiff_t>(kept)));
+  db.prepare("UPDATE runs SET parameters = json_set(parameters, '$.removed', json(?1), '$.removed_more', ?2) "
+             "WHERE run_id = ?3")
+      .bind(1, paths.dump())
+      .bind(2, static_cast<std::int64_t>(removed.size() - kept))
+      .bind(3, run_id)
+      .step_to_end();
+}
+
 nlohmann::json run_parameters(const Request& request, const BatchOptions& options, const ReadingSettings& settings) {
   return {{"inputs", request.inputs},      {"settings_key", settings.key},  {"unit", settings.unit},
           {"selection", settings.selection}, {"tokenizer", settings.tokenizer}, {"features", settings.features},
@@ -335,11 +350,16 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
   // the share of a small archive, and a `merge --exact` of the shares would then drop the
   // archive's files from the merged store. (A share left empty by the rule, its inputs
   // holding files of other shares, is taken as it is.)
-  if (options.shard.count > 1 && options.filter.folder.empty() && summary.unlisted.empty() &&
-      empty_inputs.size() == request.inputs.size()) {
+  if (options.shard.count > 1 && summary.unlisted.empty() && empty_inputs.size() == request.inputs.size()) {
+    std::string inputs;
+    for (const std::string& input : request.inputs) inputs += (inputs.empty() ? "" : ", ") + input;
     throw Error(ErrorKind::nothing_selected,
-                "share " + options.shard.describe() + ": no TEI file (*.xml, *.tei) found under the inputs at all, " +
-                    "in any share: is the archive mounted on this machine? Nothing read");
+                "share " + options.shard.describe() + ": no TEI file (*.xml, *.tei) found under " + inputs +
+                    " at all, in any share" +
+                    (summary.left_aside.count ? " (" + std::to_string(summary.left_aside.count) +
+                                                    " file(s) of other names, such as " + summary.left_aside.first + ")"
+                                              : std::string()) +
+                    ": is the archive mounted on this machine? Nothing read");
   }
   progress.files_done = counters.files_unchanged;
   const auto report_failing = [&] {
@@ -367,12 +387,6 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     nlohmann::json parameters = run_parameters(request, options, settings);
     for (const auto& folder : summary.unlisted)  // kept with the run, for whoever reads the table later
       parameters["unlisted_folders"].push_back({{"path", folder.path}, {"reason", folder.reason}});
-    // What left the store, for whoever reads the table later: the files' rows go.
-    summary.removed = removed_paths(vanished);
-    constexpr std::size_t kRemovedKept = 1000;
-    for (std::size_t i = 0; i < std::min(summary.removed.size(), kRemovedKept); ++i)
-      parameters["removed"].push_back(summary.removed[i]);
-    if (summary.removed.size() > kRemovedKept) parameters["removed_more"] = summary.removed.size() - kRemovedKept;
     if (summary.left_aside.count || summary.left_aside.hidden)
       parameters["left_aside"] = {{"files", summary.left_aside.count}, {"first", summary.left_aside.first},
                                   {"hidden", summary.left_aside.hidden}, {"first_hidden", summary.left_aside.first_hidden}};
@@ -457,6 +471,8 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     });
 
     remove_vanished(db, vanished, summary);
+    summary.removed = removed_paths(vanished);
+    record_removed(db, summary.run_id, summary.removed);
     refresh_file_stems(db);
     counters.files_failed = failing.size();
     update_run(db, summary.run_id, counters);

@@ -8,6 +8,7 @@
 #include <filesystem>
 
 #include "core/error.h"
+#include "core/open_failure.h"
 
 namespace manicule::store {
 
@@ -48,8 +49,7 @@ std::string why_not_openable(const std::string& path) {
   if (fs::is_directory(path, ec)) return "it is a folder";
   const fs::path parent = folder_of(path);
   if (!fs::exists(path, ec)) {
-    if (fs::is_symlink(fs::symlink_status(path, ec)))
-      return "it is a link to nothing (" + fs::read_symlink(path, ec).string() + ")";
+    if (fs::is_symlink(fs::symlink_status(path, ec))) return "it is " + open_failure_reason(path, ENOENT);
     if (!fs::is_directory(parent, ec)) return "the folder " + parent.string() + " does not exist";
     if (::access(parent.c_str(), W_OK | X_OK) != 0)
       return errno == EROFS ? "the folder " + parent.string() + " is on a read-only file system"

@@ -13,6 +13,7 @@
 #include "core/utf8_text.h"
 #include "measure/cosine_gram.h"
 #include "measure/pairwise_distances.h"
+#include "profile/stop_list.h"
 #include "store/analysis_tables.h"
 #include "store/store_settings.h"
 #include "store/stored_corpus.h"
@@ -30,7 +31,9 @@ nlohmann::json analysis_parameters(Database& db, std::int64_t settings_id, const
                       {"filter", filter.describe()},
                       {"ranks", std::to_string(fs.rank_first) + "-" + std::to_string(fs.rank_last)},
                       {"culling_percent", fs.culling_percent},
-                      {"stop_words", fs.stop_words},
+                      // as the analysis compares them (normalised like the tokens): the
+                      // key of a question is that of its answer
+                      {"stop_words", normalised_stop_words(fs.stop_words, r.tokenizer)},
                       {"min_tokens", fs.min_segment_tokens},
                       {"measure", std::string(measure_info(r.measure).name)},
                       {"neighbours", r.neighbours},
