@@ -14,6 +14,7 @@
 #include "cli/unknown_command.h"
 #include "core/error.h"
 #include "manicule_version.h"
+#include "measure/blas_library.h"
 #include "measure/cosine_gram.h"
 #include "store/sqlite_db.h"
 
@@ -65,8 +66,14 @@ int main(int argc, char** argv) {
     return code == 0 ? 0 : cli::kExitUsage;
   }
   try {
-    for (auto& [command, runner] : commands)
-      if (command->parsed()) return runner();
+    for (auto& [command, runner] : commands) {
+      if (!command->parsed()) continue;
+      // --threads, where a command reads files, limits the analysis' BLAS too: a user who
+      // asks for one thread on a shared node gets one, where the search's products took two.
+      if (const CLI::Option* threads = command->get_option_no_throw("--threads"); threads && threads->count())
+        limit_blas_threads(threads->as<unsigned>());
+      return runner();
+    }
     std::cerr << "manicule: no command given\n";
     return cli::kExitUsage;
   } catch (const Error& e) {

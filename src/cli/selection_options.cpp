@@ -1,7 +1,6 @@
 #include "cli/selection_options.h"
 
 #include <algorithm>
-#include <cstdlib>
 #include <iostream>
 
 #include "cli/repeatable_option.h"
@@ -81,11 +80,7 @@ Request SelectionOptions::to_request() const {
   r.tokenizer.long_s = long_s;
   r.tokenizer.ligatures = ligatures;
   r.tokenizer.apostrophes = !no_apostrophes;
-  r.threads = threads;
-  // The analysis' own loops take the same number (request.h); so does the BLAS's pool of
-  // threads, which it reads as it loads, later (a value the user set is kept): a user who
-  // asks for one thread on a shared node gets one, where the search's products took two.
-  if (threads) setenv("OPENBLAS_NUM_THREADS", std::to_string(threads).c_str(), 0);
+  r.threads = threads;  // the BLAS's threads too: main.cpp, limit_blas_threads
   r.selection_rules();  // validates unit and element names early
   // --keep of an element the preset reads anyway (a typing slip such as --keep notes, or
   // --keep corr) changes nothing: said, so that nobody takes it for kept text.

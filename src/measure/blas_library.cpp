@@ -3,8 +3,10 @@
 #include <dlfcn.h>
 
 #include <algorithm>
+#include <atomic>
 #include <cstdlib>
 #include <initializer_list>
+#include <string>
 #include <system_error>
 #include <thread>
 #include <vector>
@@ -19,10 +21,13 @@ namespace {
 // there are cores, OpenBLAS is asked for one (OPENBLAS_NUM_THREADS, read as it loads),
 // unless the user has chosen a number. The variable is the whole process's, on purpose: a
 // host program embedding manicule that cannot start threads could not use OpenBLAS's pool
-// either.
+// either. A limit the program set (limit_blas_threads) is asked for the same way.
+std::atomic<unsigned> blas_thread_limit{0};  // 0: one per core
+
 void ask_one_blas_thread_if_threads_are_refused() {
   if (std::getenv("OPENBLAS_NUM_THREADS")) return;
   const unsigned cores = std::max(1u, std::thread::hardware_concurrency());
+  const unsigned limit = blas_thread_limit.load();
   std::vector<std::thread> probes;
   bool refused = false;
   for (unsigned i = 1; i < cores && !refused; ++i) {
@@ -33,10 +38,15 @@ void ask_one_blas_thread_if_threads_are_refused() {
     }
   }
   for (std::thread& probe : probes) probe.join();
-  if (refused) setenv("OPENBLAS_NUM_THREADS", "1", 0);
+  if (refused)
+    setenv("OPENBLAS_NUM_THREADS", "1", 0);
+  else if (limit && limit < cores)
+    setenv("OPENBLAS_NUM_THREADS", std::to_string(limit).c_str(), 0);
 }
 
 }  // namespace
+
+void limit_blas_threads(unsigned threads) { blas_thread_limit.store(threads); }
 
 const BlasFunctions& blas_functions() {
   static const BlasFunctions found = []() -> BlasFunctions {

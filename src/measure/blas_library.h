@@ -27,4 +27,10 @@ struct BlasFunctions {
 // Opened once, thread-safe.
 const BlasFunctions& blas_functions();
 
+// For a program's start, before the BLAS is opened (a host embedding the library keeps its
+// own environment): the BLAS's pool of threads at most `threads` (0: one per core), as the
+// program's own loops take. OpenBLAS reads it as it loads (OPENBLAS_NUM_THREADS); a value
+// the user set is kept, and fewer are asked where the system refuses threads.
+void limit_blas_threads(unsigned threads);
+
 }  // namespace manicule
