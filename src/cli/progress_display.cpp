@@ -80,8 +80,12 @@ void ProgressDisplay::update(const store::BatchProgress& p) {
   char files[48], speed[24], share[8];
   std::snprintf(files, sizeof files, "%zu/%zu files", p.files_done, p.files_total);
   std::snprintf(speed, sizeof speed, "%.1f MB/s", rate / 1e6);
-  std::snprintf(share, sizeof share, "%.0f%%",
-                p.bytes_total ? 100.0 * static_cast<double>(p.bytes_done) / static_cast<double>(p.bytes_total) : 100.0);
+  // The share of the bytes, which the time left is reckoned by; of the files where the
+  // files to read are empty (no byte to count).
+  const double done = p.bytes_total ? static_cast<double>(p.bytes_done) / static_cast<double>(p.bytes_total)
+                      : p.files_total ? static_cast<double>(p.files_done) / static_cast<double>(p.files_total)
+                                      : 1.0;
+  std::snprintf(share, sizeof share, "%.0f%%", 100.0 * done);
   const std::string time_left = left + " left";
   draw({std::string(files) + "  " + speed + "  " + time_left, std::string(files) + "  " + time_left,
         std::string(share) + "  " + time_left, time_left});

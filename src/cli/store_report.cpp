@@ -33,9 +33,9 @@ void report_failures(std::ostream& err, const store::BatchSummary& s, bool every
   const std::size_t named = cut ? kNamedAtMost / 2 : s.failures.size();
   for (std::size_t i = 0; i < named; ++i) err << "manicule: failed: " << s.failures[i].message << '\n';
   if (cut)
-    err << "manicule: failed: and " << s.failures.size() - named
-        << " more file(s); --verbose names them all, as does the store: SELECT path, error FROM file_list "
-           "WHERE status = 'failed'\n";
+    err << "manicule: note: " << s.failures.size() - named
+        << " more failing file(s) not named here: --verbose names them all, as does the store: SELECT path, error "
+           "FROM file_list WHERE status = 'failed'\n";
   for (const auto& folder : s.unlisted)
     err << "manicule: failed: " << folder.path << ": cannot list the folder: " << folder.reason
         << "; its files were not looked at, and those stored from it before are kept\n";

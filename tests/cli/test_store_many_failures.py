@@ -6,8 +6,8 @@ terminal. Here 25 invented letters are cut short (malformed XML; lxml refuses ea
 outside reference) beside three whole ones: a batch names the first ten in path order
 (Python's sorted over the paths, which is byte order for these ASCII names), then one line
 with how many more and where they are all listed; that query, run by Python's sqlite3,
-lists all 25; `--verbose` names all 25 with their reasons; and a run that finds nothing
-changed counts them the same way.
+lists all 25; `--verbose` names all 25 with their reasons; a run that finds nothing
+changed counts them the same way; and twenty failing files are all named.
 """
 import os
 import sqlite3
@@ -48,11 +48,12 @@ with tempfile.TemporaryDirectory() as tmp:
     for run in ("first", "nothing changed"):
         proc = mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"], check=False)
         lines = [l for l in proc.stderr.splitlines() if l.startswith("manicule: failed: ")]
-        named = [l[len("manicule: failed: "):].split(":")[0] for l in lines[:-1]]
-        mtest.check(proc.returncode == 1 and len(lines) == 11 and named == sorted(broken)[:10],
+        named = [l[len("manicule: failed: "):].split(":")[0] for l in lines]
+        mtest.check(proc.returncode == 1 and named == sorted(broken)[:10],
                     "%s run: exit %d, %d failure line(s), named %r" % (run, proc.returncode, len(lines), named))
-        mtest.check(lines and ("and 15 more file(s)" in lines[-1] and query in lines[-1]),
-                    "%s run: the last failure line %r" % (run, lines[-1] if lines else None))
+        more = [l for l in proc.stderr.splitlines() if "more failing file(s) not named here" in l]
+        mtest.check(len(more) == 1 and "note: 15 more" in more[0] and query in more[0],
+                    "%s run: the line of the others %r" % (run, more))
     db = sqlite3.connect(store)
     listed = sorted(path for path, _ in db.execute(query))
     db.close()
@@ -61,5 +62,13 @@ with tempfile.TemporaryDirectory() as tmp:
     reasons = [l for l in proc.stderr.splitlines() if l.startswith("manicule: failed: ")]
     mtest.check(len(reasons) == 25 and all(":1:" in l for l in reasons),
                 "--verbose: %d failure line(s): %r" % (len(reasons), reasons[:2]))
+
+    # Twenty failing are all named, with no count of others (the bound is "past twenty").
+    for path in sorted(broken)[20:]:
+        os.remove(path)
+    proc = mtest.run(["batch", archive, "--store", store, "--unit", "letter", "--quiet"], check=False)
+    named = [l for l in proc.stderr.splitlines() if l.startswith("manicule: failed: ")]
+    mtest.check(len(named) == 20 and "not named here" not in proc.stderr,
+                "twenty failing: %d named, %r" % (len(named), proc.stderr[-300:]))
 
 mtest.done()
