@@ -161,7 +161,8 @@ with tempfile.TemporaryDirectory() as stop_tmp:
     with open(stop_file, "w", encoding="utf-8") as f:
         f.write("The\n")
     _, unfolded, _ = read_profile(mtest.run(["profile", "--no-fold"] + base).stdout)
-    _, unfolded_all, _ = read_profile(mtest.run(["profile", "--no-fold"] + base[:-3] + [example]).stdout)
+    _, unfolded_all, _ = read_profile(mtest.run(["profile", "--no-fold", "--unit", "letter", "--min-tokens", "200",
+                                                 example]).stdout)
     mtest.check("The" in unfolded_all and "the" in unfolded_all and "The" not in unfolded and "the" in unfolded,
                 "--no-fold with 'The' listed: 'The' %s, 'the' %s" % ("The" in unfolded, "the" in unfolded))
 

@@ -21,6 +21,7 @@ import fcntl
 import os
 import pty
 import re
+import shutil
 import struct
 import subprocess
 import sys
@@ -172,14 +173,20 @@ with tempfile.TemporaryDirectory() as tmp:
                 "on 40 columns, lines neither whole nor shed: %r" % [l for l in lines if not shed_step.match(l)][:3])
     mtest.check(any(re.match(r"^nearest segments  \d+%  " + LEFT + "$", line) for line in lines),
                 "on 40 columns the search keeps its name, share and time left: %r" % lines[:6])
-    # The reading on 24 columns: "k/N files  m:ss left", else the share of the bytes and the
-    # time left, never a time cut in two.
+    # The reading of 120 plays on 24 columns: "k/120 files  m:ss left" while it fits (k under
+    # 100), else the share of the bytes and the time left, never a time cut in two.
+    some_plays = os.path.join(tmp, "some-plays")
+    os.makedirs(some_plays)
+    for name in sorted(n for n in os.listdir(PLAYS) if n.endswith(".xml"))[:120]:
+        shutil.copy(os.path.join(PLAYS, name), some_plays)
     narrow_store = os.path.join(tmp, "narrow.sqlite")
-    code, out, err = run_on_terminal(["batch", PLAYS, "--store", narrow_store, "--unit", "speaker"], columns=24)
+    code, out, err = run_on_terminal(["batch", some_plays, "--store", narrow_store, "--unit", "speaker"], columns=24)
     lines, _ = drawn(err)
     shed_files = re.compile(r"^(?:\d+/\d+ files  |\d+%  )?" + LEFT + "$")
     mtest.check(code == 0 and lines and all(len(line) <= 23 and shed_files.match(line) for line in lines),
                 "on 24 columns, reading lines %r" % [l for l in lines if not shed_files.match(l)][:3])
+    mtest.check(any(" files  " in line for line in lines),
+                "on 24 columns no line kept its files where they fit: %r" % lines[:5])
     # A terminal without cursor control (TERM=dumb, terminfo(5)) gets no progress line.
     code, out, err = run_on_terminal(["analyse-store", "--store", store, "--recompute"],
                                      env=dict(os.environ, TERM="dumb"))

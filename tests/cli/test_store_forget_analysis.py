@@ -30,18 +30,20 @@ script = block.group(1) if block else ""
 
 
 def run_tables(path):
-    """{table: rows} of every table with a run_id column."""
+    """{table: rows} of every table with a run_id column, each row led by its run_id."""
     db = sqlite3.connect(path)
     names = [n for (n,) in db.execute("SELECT name FROM sqlite_master WHERE type = 'table'")
              if any(c[1] == "run_id" for c in db.execute("PRAGMA table_info(%s)" % n))]
-    out = {n: sorted(db.execute("SELECT * FROM %s" % n), key=repr) for n in names}
+    out = {n: sorted(db.execute("SELECT run_id, * FROM %s" % n), key=repr) for n in names}
     db.close()
     return out
 
 
-def forget(store, run):
+def forget(store, run, cwd):
+    mtest.check("archive.sqlite" in script and ".parameter set :run 4" in script,
+                "the script no longer names archive.sqlite and run 4: %r" % script)
     text = script.replace("archive.sqlite", store).replace(".parameter set :run 4", ".parameter set :run %d" % run)
-    subprocess.run(["bash", "-c", text], check=True, capture_output=True, text=True)
+    subprocess.run(["bash", "-c", text], check=True, capture_output=True, text=True, cwd=cwd)
 
 
 with tempfile.TemporaryDirectory() as tmp:
@@ -59,7 +61,7 @@ with tempfile.TemporaryDirectory() as tmp:
     mtest.check(all(any(r[0] == runs[0] for r in rows) for t, rows in before.items() if t not in ("attributions", "readings")),
                 "the first analysis is not in every table: %r" % {t: len(r) for t, r in before.items()})
 
-    forget(store, runs[0])
+    forget(store, runs[0], tmp)
     after = run_tables(store)
     left = {t: [r for r in rows if r[0] == runs[0]] for t, rows in after.items()}
     mtest.check(not any(left.values()), "rows of the removed run left: %r" % {t: len(r) for t, r in left.items() if r})
@@ -69,7 +71,7 @@ with tempfile.TemporaryDirectory() as tmp:
                 "after the removal: %s, %d bytes against %d" % (storecheck.integrity(store), os.path.getsize(store),
                                                                size_before))
     batch_run = storecheck.last_run(store, "batch")["run_id"]
-    forget(store, batch_run)
+    forget(store, batch_run, tmp)
     mtest.check(run_tables(store) == after, "the script given a batch run's id removed something")
     out = mtest.run(["analyse-store", "--store", store, "--quiet", "--attribute"] + asked[0]).stdout
     mtest.check("reused" not in out and int(re.search(r"analysis run (\d+)", out).group(1)) > max(runs),

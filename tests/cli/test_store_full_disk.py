@@ -9,7 +9,8 @@ The same for `merge` into a new store on that disk: when the log cannot be copie
 end, the merge is committed, and the store with its log beside it must stay (opened together
 by Python's sqlite3, they hold every play); a review found both removed after that message.
 
-The disk is a small tmpfs (mount(8), as root), tried at sizes from 1.5 to 8 MiB, so that the
+The disk is a small tmpfs (mount(8), as root), tried at sizes from 1.5 to 8 MiB for batch
+(1 to 4 MiB for merge), so that the
 disk fills at every stage of a run: while files are committed, at the last commit, and
 while the log is copied in at the end. Run only where root may mount a tmpfs; elsewhere it
 is reported skipped.
