@@ -1,5 +1,6 @@
 #include "store/store_schema.h"
 
+#include <sqlite3.h>
 #include <unistd.h>
 
 #include <algorithm>
@@ -363,16 +364,15 @@ std::unique_ptr<Database> open_store_once(const std::string& path, bool create) 
 
 void check_store_is_whole(Database& db) {
   std::string finding;
+  Statement check = db.prepare("PRAGMA quick_check(1)");  // the first finding is enough to say so
   try {
-    Statement check = db.prepare("PRAGMA quick_check(1)");  // the first finding is enough to say so
     finding = check.step() ? check.text_at(0) : "no answer";
   } catch (const Error& e) {
     // A page so damaged that the check itself stops (SQLite's "corrupt" or "not a
-    // database", bad_input); anything else (the store in use, a read error) is not damage.
+    // database", bad_input): SQLite's own words, kept while the statement is; anything
+    // else (the store in use, a read error) is not damage.
     if (e.kind() != ErrorKind::bad_input) throw;
-    finding = e.what();
-    const std::string named = db.path() + " is not a manicule store (or is damaged): ";
-    if (finding.rfind(named, 0) == 0) finding.erase(0, named.size());  // said once, below
+    finding = sqlite3_errmsg(db.handle());
   }
   // SQLite heads its findings with "*** in database main ***" on a line of its own.
   constexpr std::string_view kHeading = "*** in database main ***";

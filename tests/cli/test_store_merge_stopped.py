@@ -34,7 +34,6 @@ small = os.path.join(tmp, "few.sqlite")
 mtest.run(["batch", os.path.join(mtest.ROOT, "examples"), "--store", small, "--unit", "letter", "--quiet"])
 
 
-
 def files_on_disk(folder):
     """{(path, SHA-256)} of the TEI files under `folder` (os.walk, hashlib): what a store
     read from it holds in its files table."""
