@@ -113,7 +113,16 @@ CommandRunner add_batch_command(CLI::App& app) {
     // job-array script's) would miss. Declared before the store, so destroyed after it.
     std::optional<InterruptRequests> interrupts(std::in_place);
     const bool store_is_new = !std::filesystem::exists(flags->store);
-    auto db = store::open_store(flags->store, true);
+    std::unique_ptr<store::Database> db;
+    try {
+      // A Ctrl-C while another program holds the store ends the wait for it at once.
+      db = store::open_store(flags->store, true, [&] { return interrupts->requested(); });
+    } catch (const store::StoreInUse&) {
+      if (!interrupts->requested()) throw;
+      std::cerr << "manicule: interrupted while waiting for the store " << flags->store
+                << ", which another program holds; nothing read or written\n";
+      return interrupts->exit_code();
+    }
     ProgressDisplay display(flags->quiet);
     store::BatchSummary summary;
     store::BatchProgress last;

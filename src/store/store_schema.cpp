@@ -385,7 +385,8 @@ void check_store_is_whole(Database& db) {
                                           "with batch into a new store");
 }
 
-std::unique_ptr<Database> open_store(const std::string& path, bool create) {
+std::unique_ptr<Database> open_store(const std::string& path, bool create,
+                                     const std::function<bool()>& stop_waiting) {
   // Two processes opening one store at the same moment can each hold the shared lock that
   // the other's exclusive lock waits for: with SQLite's busy_timeout both waited it out and
   // both refused (2 of 20 pairs of runs started together here). So each attempt gives up at
@@ -400,7 +401,7 @@ std::unique_ptr<Database> open_store(const std::string& path, bool create) {
     try {
       return open_store_once(path, create);
     } catch (const StoreInUse&) {
-      if (Clock::now() >= give_up) throw;
+      if (Clock::now() >= give_up || (stop_waiting && stop_waiting())) throw;
     }
     std::this_thread::sleep_for(std::chrono::milliseconds(5 + pauses() % 26));
   }

@@ -5,6 +5,7 @@
 // so a second run on the same store refuses straight away with a clear message instead of
 // interleaving its writes; the sqlite3 shell can query the store when no run holds it.
 #pragma once
+#include <functional>
 #include <memory>
 #include <string>
 
@@ -40,7 +41,10 @@ inline constexpr int kStoreFormat = 4;
 
 // Opens the store (creating file and tables when `create`), locks it and checks its format.
 // Without `create`, a file that holds no tables (0 bytes, say) is refused, not made a store.
-std::unique_ptr<Database> open_store(const std::string& path, bool create);
+// A store another program holds is tried again for 1.5 s, then refused (StoreInUse); when
+// `stop_waiting` says so (a Ctrl-C noted by the caller), it is refused at the next try.
+std::unique_ptr<Database> open_store(const std::string& path, bool create,
+                                     const std::function<bool()>& stop_waiting = {});
 
 // Asks SQLite whether the store's pages are whole (PRAGMA quick_check: every page and
 // record readable, every index in order); a store found damaged is refused (Error
