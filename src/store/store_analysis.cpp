@@ -130,10 +130,14 @@ Error too_little_to_analyse(const ArchiveFilter& filter, const StoredSelection& 
 
 // Said when the segments analysed are in more than one language: the most frequent words
 // are then taken from all of them together, and the nearest segments follow the language
-// before the style. Empty when they share one (segments of unknown language aside).
-std::string mixed_languages_note(const StoredCorpus& stored) {
-  std::vector<std::pair<std::string, std::size_t>> languages(stored.segments_by_language.begin(),
-                                                             stored.segments_by_language.end());
+// before the style. Empty when they share one (segments of unknown language aside). Only the
+// segments measured count: one the feature table set aside (too short for a word pair) was
+// not analysed, whatever its language.
+std::string mixed_languages_note(const StoredCorpus& stored, const Analysis& analysis) {
+  std::map<std::string, std::size_t> by_language;
+  for (std::size_t i = 0; i < stored.sources.size() && i < analysis.segments.size(); ++i)
+    if (analysis.segments[i].measured) ++by_language[stored.sources[i].language];
+  std::vector<std::pair<std::string, std::size_t>> languages(by_language.begin(), by_language.end());
   const auto known = std::count_if(languages.begin(), languages.end(), [](const auto& l) { return !l.first.empty(); });
   if (known < 2) return {};
   std::stable_sort(languages.begin(), languages.end(), [](const auto& a, const auto& b) { return a.second > b.second; });
@@ -177,8 +181,9 @@ std::string copies_note(const StoredCorpus& stored) {
 // What the choice of segments left out or mixed, as notes for the user: segments in several
 // languages, too few words, no year for --years, files with no segment long enough.
 void add_selection_notes(const ArchiveFilter& filter, std::size_t min_tokens, const StoredSelection& selection,
-                         const StoredCorpus& stored, std::size_t files_used, std::vector<std::string>& notes) {
-  if (const std::string note = mixed_languages_note(stored); !note.empty()) notes.push_back(note);
+                         const StoredCorpus& stored, const Analysis& analysis, std::size_t files_used,
+                         std::vector<std::string>& notes) {
+  if (const std::string note = mixed_languages_note(stored, analysis); !note.empty()) notes.push_back(note);
   if (const std::string note = copies_note(stored); !note.empty()) notes.push_back(note);
   if (stored.segments_too_short)
     notes.push_back(std::to_string(stored.segments_too_short) + " segment(s) shorter than " +
@@ -302,7 +307,8 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   result.attributions = attributions.size();
   result.notes = analysis.notes;
   result.notes.insert(result.notes.end(), notes.begin(), notes.end());
-  add_selection_notes(filter, request.feature_space.min_segment_tokens, selection, stored, result.files, result.notes);
+  add_selection_notes(filter, request.feature_space.min_segment_tokens, selection, stored, analysis, result.files,
+                      result.notes);
   result.run_id = write_analysis(db, settings_id, parameters, key, analysis, stored, result.notes,
                                  selection.files_failed, attributions);
   return result;

@@ -218,7 +218,6 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
         file_listed = true;
       }
       Segment& seg = record.segment;
-      ++out.segments_by_language[std::string(primary_subtag(language.canonical(language_of(seg.language))))];
       seg.id = selection.stems[f] + "#" + seg.local_id;
       seg.file = path;
       auto [owner, new_id] = id_owner.emplace(seg.id, path);
@@ -232,7 +231,8 @@ StoredCorpus load_stored_corpus(Database& db, std::int64_t settings_id, const Fe
       if (!segment_counts.counts.empty())
         id_bound = std::max<std::size_t>(id_bound, segment_counts.counts.back().first + std::size_t{1});
       profile.segments.push_back(std::move(segment_counts));
-      out.sources.push_back(SegmentSource{path, file_sha256, ordinal, year_of(seg.year)});
+      out.sources.push_back(SegmentSource{path, file_sha256, ordinal, year_of(seg.year),
+                                          std::string(primary_subtag(language.canonical(language_of(seg.language))))});
       out.corpus.segments.push_back(std::move(record));
     };
 

@@ -10,7 +10,6 @@
 // `fresh` is emptied.
 #pragma once
 #include <cstdint>
-#include <map>
 #include <string>
 #include <vector>
 
@@ -27,6 +26,9 @@ struct SegmentSource {
   std::string sha256;
   std::size_t ordinal = 0;
   int year = 0;  // what --years took it by: its own year, else its file's (0: none)
+  // The primary subtag of its own language where its text says it readably, else its
+  // file's ("" when neither does), canonical ("ger" -> "de").
+  std::string language;
 };
 
 // The files an analysis takes in: stored, read without error under the settings, inside
@@ -58,9 +60,6 @@ struct StoredCorpus {
   std::size_t segments_other_years = 0;     // dated (own year, else the file's) outside the years
   std::size_t segments_undated = 0;         // no year, in a file chosen for its segments' years
   std::size_t segments_other_texts = 0;     // of a text whose own heading fails --author or --title
-  // The segments used, by language: the primary subtag of each one's own language where its
-  // text says it readably, else its file's ("" when neither does), canonical ("ger" -> "de").
-  std::map<std::string, std::size_t> segments_by_language;
 };
 
 StoredSelection select_stored_files(Database& db, std::int64_t settings_id, const ArchiveFilter& filter);

@@ -126,4 +126,20 @@ proc = mtest.run(["batch", unknown, plays[1], novels[0], "--store", os.path.join
 mtest.check("in 2 languages (de 1, en 1; 1 of unknown language)" in proc.stderr,
             "a segment of unknown language beside two known: %r" % proc.stderr)
 
+# Only the segments measured count. Under word pairs, an English text of one word holds no
+# pair (n-grams of a one-word text: none), so the feature table sets it aside: the two
+# German plays alone are analysed, and no languages note may count the English one. The
+# one-word text is invented here; its word count is checked with lxml.
+one_word = os.path.join(tmp, "farewell.xml")
+with open(one_word, "w", encoding="utf-8") as f:
+    f.write('<TEI xmlns="http://www.tei-c.org/ns/1.0" xml:lang="en"><teiHeader><fileDesc><titleStmt><title>A card'
+            '</title></titleStmt><publicationStmt><p>Invented for a test.</p></publicationStmt><sourceDesc><p>None.'
+            '</p></sourceDesc></fileDesc></teiHeader><text><body><p>Farewell</p></body></text></TEI>')
+words = "".join(etree.parse(one_word).getroot().find("{http://www.tei-c.org/ns/1.0}text").itertext()).split()
+mtest.check(words == ["Farewell"], "the one-word text holds %r" % words)
+languages, measured = analyse("word-pairs", plays[:2] + [one_word], "--features", "word-ngram", "--n", "2",
+                              "--min-tokens", "1")
+mtest.check(measured == 2, "word pairs: %d segments measured, expected the 2 plays" % measured)
+mtest.check(languages == {}, "word pairs: the note counts a segment set aside: %r" % languages)
+
 mtest.done()
