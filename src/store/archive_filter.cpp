@@ -2,10 +2,12 @@
 
 #include <cstdlib>
 #include <filesystem>
+#include <set>
 #include <vector>
 
 #include "core/segment.h"
 #include "text/caseless_match.h"
+#include "text/language_tags.h"
 
 namespace manicule::store {
 
@@ -18,22 +20,26 @@ std::string tidy_folder(std::string f) {
   return f;
 }
 
-// Each word of `wanted` (split at spaces, commas and semicolons) is a whole word of
-// `author`, in any order: "Mara Tide" finds "Tide, Mara [pseud.]", as catalogues
-// invert names, and "Kind" does not find "Wendekind". (to_filter refuses a text without a word.)
-bool one_author_matches(std::string_view author, const std::string& wanted) {
-  std::size_t start = 0;
-  bool any_word = false;
-  while (start < wanted.size()) {
+// The words of an --author text: split at spaces, commas and semicolons.
+std::vector<std::string_view> author_words(std::string_view wanted) {
+  std::vector<std::string_view> words;
+  for (std::size_t start = 0; start < wanted.size();) {
     std::size_t end = wanted.find_first_of(kAuthorWordSeparators, start);
-    if (end == std::string::npos) end = wanted.size();
-    if (end > start) {
-      any_word = true;
-      if (!caseless_contains_word(author, std::string_view(wanted).substr(start, end - start))) return false;
-    }
+    if (end == std::string_view::npos) end = wanted.size();
+    if (end > start) words.push_back(wanted.substr(start, end - start));
     start = end + 1;
   }
-  return any_word;
+  return words;
+}
+
+// Each word of `wanted` is a whole word of `author`, in any order: "Mara Tide" finds "Tide,
+// Mara [pseud.]", as catalogues invert names, and "Kind" does not find "Wendekind".
+// (to_filter refuses a text without a word.)
+bool one_author_matches(std::string_view author, const std::string& wanted) {
+  const std::vector<std::string_view> words = author_words(wanted);
+  for (std::string_view word : words)
+    if (!caseless_contains_word(author, word)) return false;
+  return !words.empty();
 }
 
 // One of the authors (joined by kAuthorSeparator, join_authors) holds every word: "Anna
@@ -97,6 +103,19 @@ std::string ArchiveFilter::describe() const {
   if (!language.empty()) add("language=" + language);
   if (!title.empty()) add("title=" + title);
   return out;
+}
+
+std::string ArchiveFilter::question_key() const {
+  ArchiveFilter same = *this;
+  same.folder.clear();
+  same.stored_paths_base.clear();
+  std::set<std::string> words;
+  for (std::string_view word : author_words(author)) words.insert(caseless_form(word));
+  same.author.clear();
+  for (const std::string& word : words) same.author += (same.author.empty() ? "" : " ") + word;
+  same.title = caseless_form(title);
+  if (const std::string tag = canonical_language_tag(language); !tag.empty()) same.language = tag;
+  return same.describe();
 }
 
 bool ArchiveFilter::year_matches(int year) const { return years_overlap(year, year); }

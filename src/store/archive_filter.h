@@ -45,6 +45,11 @@ struct ArchiveFilter {
   bool empty() const { return folder.empty() && !selects_by_header(); }
   // "author~tide year=1800-1830", "" when empty; recorded with each analysis run.
   std::string describe() const;
+  // describe() of the same question however it was spelled, for the key of a stored
+  // analysis: the author's words caseless, sorted, once each; the title pattern caseless;
+  // the language tag canonical ("ENG" -> "en"); no folder, as the files it takes are in the
+  // key already. Empty when the filter is.
+  std::string question_key() const;
 };
 
 // A filter's --folder, prepared once (its reading, its absolute spellings from the working

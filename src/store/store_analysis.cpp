@@ -238,7 +238,11 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
   result.files_failed = selection.files_failed;
   result.files_not_read = selection.files_not_read;
   const nlohmann::json parameters = analysis_parameters(db, settings_id, request, options);
-  const std::string key = analysis_key(parameters, selection);
+  // The key takes the filter as a question, not as spelled: --author "Tide, Mara" finds
+  // the analysis made for --author "mara tide" (the parameters keep the spelling given).
+  nlohmann::json question = parameters;
+  question["filter"] = filter.question_key();
+  const std::string key = analysis_key(question, selection);
   if (!options.recompute) {
     if (auto existing = find_analysis(db, key)) {
       result.run_id = *existing;

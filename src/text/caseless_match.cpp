@@ -29,6 +29,15 @@ std::u32string caseless_code_points(std::string_view utf8) {
   return out;
 }
 
+std::string caseless_form(std::string_view utf8) {
+  const std::u32string code_points = caseless_code_points(utf8);
+  std::string out;
+  icu::UnicodeString::fromUTF32(reinterpret_cast<const UChar32*>(code_points.data()),
+                                static_cast<int32_t>(code_points.size()))
+      .toUTF8String(out);
+  return out;
+}
+
 bool caseless_contains(std::string_view text, std::string_view part) {
   return caseless_code_points(text).find(caseless_code_points(part)) != std::u32string::npos;
 }

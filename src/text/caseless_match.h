@@ -12,6 +12,10 @@ namespace manicule {
 // with the apostrophe's typeset forms (’ ʼ) read as the apostrophe.
 std::u32string caseless_code_points(std::string_view utf8);
 
+// caseless_code_points as UTF-8: texts with the same form match alike everywhere below
+// ("O’NEILL" and "o'neill"), so a question can be told from its respellings.
+std::string caseless_form(std::string_view utf8);
+
 // Whether `part` occurs in `text`, letter case ignored.
 bool caseless_contains(std::string_view text, std::string_view part);
 

@@ -81,6 +81,11 @@ for input_spelling in ("archive", os.path.join(tmp, "archive")):
                     % (input_spelling, spelling, proc.returncode, proc.stderr))
         mtest.check(got == want, "input %s, --folder %s: analysed %r, os.path gives %r"
                     % (input_spelling, spelling, sorted(got), sorted(want)))
+        # A spelling of a folder asked before is answered by the analysis stored then: the
+        # files it names are in the analysis' key already.
+        if spelling not in ("archive/de", spellings[-1]):
+            mtest.check("(unchanged, reused)" in proc.stdout, "input %s, --folder %s: analysed anew after "
+                        "another spelling of the folder: %r" % (input_spelling, spelling, proc.stdout))
 
         # batch --folder reads just those files, into a store of its own.
         run, read = batch_folder(input_spelling, os.path.join(tmp, "part.sqlite"), spelling, tmp)

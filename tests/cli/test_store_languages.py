@@ -92,6 +92,11 @@ languages, measured = analyse("german", plays[:1] + respelled)
 mtest.check(measured == 3 and languages == {}, "german: %d measured, note %r; expected 3 and none" % (measured, languages))
 languages, measured = analyse("filtered", plays + novels, "--language", "en")
 mtest.check(measured == 3 and languages == {}, "filtered: %d measured, note %r; expected 3 and none" % (measured, languages))
+# Other spellings of the same language range reuse that analysis: tags are read without
+# regard to case (RFC 5646, section 2.1.1), and "eng" (ISO 639-2) is "en" (ISO 639-1).
+for spelling in ("EN", "eng"):
+    languages, measured = analyse("filtered", plays + novels, "--language", spelling, reused=True)
+    mtest.check(measured == 3 and languages == {}, "--language %s: %d measured, note %r" % (spelling, measured, languages))
 
 # A text whose xml:lang cannot be read as a tag ("de_AT": '_' is no BCP 47 separator, RFC
 # 5646 section 2.1) takes its file's language, the root's (docs/store.md): two plays so
