@@ -6,6 +6,7 @@
 #include <filesystem>
 #include <map>
 #include <memory>
+#include <mutex>
 #include <optional>
 #include <set>
 #include <unordered_map>
@@ -400,20 +401,41 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
                    [&files](std::size_t a, std::size_t b) { return files[a].size > files[b].size; });
   if (listener && counters.files_unchanged) listener(progress, "", FileOutcome::unchanged);
 
-  // Of the files to open, only one whose size some stored content has can turn out to be
-  // known: those are hashed before parsing. (Nothing to open, nothing to look up: a
-  // re-run over an unchanged archive skips this.)
+  // Of the files to open, only one whose size some stored content has, or another file to
+  // open has, can turn out to be known: those are hashed before parsing. (Nothing to open,
+  // nothing to look up: a re-run over an unchanged archive skips this.)
   std::unordered_set<std::uint64_t> known_sizes;
   std::unordered_map<std::string, StoredReading> readings;
   if (!to_open.empty()) readings = stored_readings(db, summary.settings_id, known_sizes);
+  std::unordered_map<std::uint64_t, std::size_t> files_of_size;
+  for (std::size_t i : to_open) ++files_of_size[files[i].size];
   std::vector<char> hash_first;
-  for (std::size_t i : to_open) hash_first.push_back(known_sizes.count(files[i].size) ? 1 : 0);
+  for (std::size_t i : to_open)
+    hash_first.push_back(known_sizes.count(files[i].size) || files_of_size[files[i].size] > 1 ? 1 : 0);
 
   std::vector<std::string> paths;
   for (std::size_t i : to_open) paths.push_back(files[i].path);
   StreamOptions stream;
   stream.hash_first = hash_first;
-  stream.known = [&readings](std::size_t, const std::string& sha) { return readings.count(sha) != 0; };
+  // A content new to the store is parsed under the first of its paths to be hashed, which
+  // claims it; copies of it in this run are then known, stored as its other paths. (Asked on
+  // the reading threads: `readings` is only read meanwhile, the claims are locked.)
+  std::mutex claims_mutex;
+  std::unordered_set<std::string> claimed;
+  stream.known = [&](std::size_t, const std::string& sha) {
+    if (readings.count(sha)) return true;
+    const std::lock_guard<std::mutex> lock(claims_mutex);
+    return !claimed.insert(sha).second;
+  };
+  // A copy may be stored before the file parsed for its content has failed: its failure is
+  // told once the reading is over.
+  std::vector<std::pair<std::string, std::string>> copies_of_new;  // path, sha256
+  std::unordered_map<std::string, std::string> failed_in_run;      // sha256 -> failure as stored
+  const auto add_failing_copies = [&] {
+    for (const auto& [path, sha] : copies_of_new)
+      if (auto failed = failed_in_run.find(sha); failed != failed_in_run.end())
+        failing[path] = failure_for(failed->second, path);
+  };
 
   ReadingWriter writer(db, summary.settings_id);
   writer.expect_bytes(progress.bytes_total);
@@ -443,7 +465,8 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
         writer.write_file(f, reading.sha256, "");
         ++counters.files_hashed;
         auto r = readings.find(reading.sha256);
-        if (r != readings.end() && r->second.failed) failing[f.path] = failure_for(r->second.error, f.path);
+        if (r == readings.end()) copies_of_new.emplace_back(f.path, reading.sha256);
+        else if (r->second.failed) failing[f.path] = failure_for(r->second.error, f.path);
         outcome = FileOutcome::hashed;
       } else {
         ++counters.files_read;
@@ -456,6 +479,7 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
         outcome = reading.failed ? FileOutcome::failed : FileOutcome::read;
         if (reading.failed) {
           failing[f.path] = reading.failure.message;
+          if (!reading.sha256.empty()) failed_in_run[reading.sha256] = failure_to_store(reading.failure.message, f.path);
         } else {
           ++summary.files_read_cleanly;
           if (reading.segments.empty()) ++summary.files_without_segments;
@@ -474,12 +498,14 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     summary.removed = removed_paths(vanished);
     record_removed(db, summary.run_id, summary.removed);
     refresh_file_stems(db);
+    add_failing_copies();
     counters.files_failed = failing.size();
     update_run(db, summary.run_id, counters);
     finish_run(db, summary.run_id, "done");
     transaction->commit();
   } catch (const BatchInterrupted&) {
     refresh_file_stems(db);
+    add_failing_copies();
     counters.files_failed = failing.size();
     update_run(db, summary.run_id, counters);
     finish_run(db, summary.run_id, "interrupted");

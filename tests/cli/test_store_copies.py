@@ -49,10 +49,67 @@ for i in range(40):
 digests = {storecheck.sha256_of(os.path.join(many, "c%02d" % i, "ferry-letters.xml")) for i in range(40)}
 many_store = os.path.join(tmp, "many.sqlite")
 mtest.run(["batch", many, "--store", many_store, "--unit", "letter", "--quiet"])
+# Copies new to the store in one run: the content is parsed once, under one of its paths;
+# the other 39 are hashed and stored as known (os.walk finds 40 files, hashlib one content).
+run = storecheck.last_run(many_store)
+walked = [os.path.join(d, n) for d, _, names in os.walk(many) for n in names]
+mtest.check(len(walked) == 40 and run["files_found"] == 40 and run["files_read"] == 1 and run["files_hashed"] == 39,
+            "40 copies new in one run: found %d, read %d, hashed %d; expected 40, 1, 39"
+            % (run["files_found"], run["files_read"], run["files_hashed"]))
+listed = storecheck.rows(many_store, "SELECT path, sha256, status FROM file_list")
+mtest.check(sorted(r[0] for r in listed) == sorted(walked) and {(r[1], r[2]) for r in listed} == {(next(iter(digests)), "ok")},
+            "the 40 copies as listed: %r" % listed[:3])
 proc = mtest.run(["analyse-store", "--store", many_store, "--min-tokens", "200"])
 notes = [line for line in proc.stderr.splitlines() if "under more than one path" in line]
 mtest.check(len(digests) == 1 and len(notes) == 1 and notes[0].count(" = ") == 1 and "and 38 more" in notes[0]
             and len(notes[0]) < 600, "the note of 40 copies: %r" % notes[:1])
+
+# Two files of one size but not one content (a letter changed to another of the same byte
+# length) are each parsed: the size only makes them hashed first.
+same_size = os.path.join(tmp, "same-size")
+os.makedirs(same_size)
+with open(letters, encoding="utf-8") as f:
+    text = f.read()
+first_word = etree.parse(letters).getroot().xpath("string(//tei:body//tei:p[1])", namespaces=NS).split()[0]
+changed = text.replace(first_word, first_word[:-1] + ("x" if first_word[-1] != "x" else "y"), 1)
+for name, content in (("a.xml", text), ("b.xml", changed)):
+    with open(os.path.join(same_size, name), "w", encoding="utf-8") as f:
+        f.write(content)
+a, b = (os.path.join(same_size, n) for n in ("a.xml", "b.xml"))
+mtest.check(os.path.getsize(a) == os.path.getsize(b) and storecheck.sha256_of(a) != storecheck.sha256_of(b),
+            "the two files are not of one size and two contents")
+same_size_store = os.path.join(tmp, "same-size.sqlite")
+mtest.run(["batch", same_size, "--store", same_size_store, "--unit", "letter", "--quiet"])
+run = storecheck.last_run(same_size_store)
+mtest.check(run["files_read"] == 2 and run["files_hashed"] == 0, "one size, two contents: read %d, hashed %d"
+            % (run["files_read"], run["files_hashed"]))
+mtest.check(sorted(r[0] for r in storecheck.rows(same_size_store, "SELECT sha256 FROM files"))
+            == sorted(storecheck.sha256_of(p) for p in (a, b)), "the files' SHA-256 as stored differ from hashlib's")
+
+# A malformed file copied twice, all new in one run (lxml refuses it): it is parsed once,
+# and each of the three paths is reported failing with its own path (exit 1).
+broken_archive = os.path.join(tmp, "broken")
+broken_paths = []
+for folder in ("x", "y", "z"):
+    os.makedirs(os.path.join(broken_archive, folder))
+    broken_paths.append(os.path.join(broken_archive, folder, "cut.xml"))
+    with open(broken_paths[-1], "w", encoding="utf-8") as f:
+        f.write(text[: len(text) // 2])
+try:
+    etree.parse(broken_paths[0])
+    mtest.fail("lxml parsed the cut file")
+except etree.XMLSyntaxError:
+    pass
+broken_store = os.path.join(tmp, "broken.sqlite")
+proc = mtest.run(["batch", broken_archive, "--store", broken_store, "--unit", "letter", "--quiet"], check=False)
+run = storecheck.last_run(broken_store)
+mtest.check(proc.returncode == 1 and run["files_read"] == 1 and run["files_hashed"] == 2 and run["files_failed"] == 3,
+            "three copies of a malformed file: exit %d, read %d, hashed %d, failed %d: %s"
+            % (proc.returncode, run["files_read"], run["files_hashed"], run["files_failed"], proc.stderr))
+for path in broken_paths:
+    mtest.check(any(line.startswith("manicule: failed: " + path + ":") for line in proc.stderr.splitlines()),
+                "%s not reported failing with its path: %s"
+                % (path, proc.stderr))
 
 # With the copy gone, no such note.
 os.remove(copy)
