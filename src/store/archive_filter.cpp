@@ -5,6 +5,8 @@
 #include <set>
 #include <vector>
 
+#include <nlohmann/json.hpp>
+
 #include "core/segment.h"
 #include "text/caseless_match.h"
 #include "text/language_tags.h"
@@ -106,16 +108,16 @@ std::string ArchiveFilter::describe() const {
 }
 
 std::string ArchiveFilter::question_key() const {
-  ArchiveFilter same = *this;
-  same.folder.clear();
-  same.stored_paths_base.clear();
+  if (!selects_by_header()) return {};  // as describe() gave it: keys of unfiltered analyses kept
   std::set<std::string> words;
   for (std::string_view word : author_words(author)) words.insert(caseless_form(word));
-  same.author.clear();
-  for (const std::string& word : words) same.author += (same.author.empty() ? "" : " ") + word;
-  same.title = caseless_form(title);
-  if (const std::string tag = canonical_language_tag(language); !tag.empty()) same.language = tag;
-  return same.describe();
+  const std::string tag = canonical_language_tag(language);
+  // A structured value, not a sentence: an author word may read "year=1870-1870".
+  const nlohmann::json question = {{"author", words},
+                                   {"years", {year_from, year_to}},
+                                   {"language", tag.empty() ? language : tag},
+                                   {"title", caseless_form(title)}};
+  return question.dump();
 }
 
 bool ArchiveFilter::year_matches(int year) const { return years_overlap(year, year); }

@@ -45,10 +45,10 @@ struct ArchiveFilter {
   bool empty() const { return folder.empty() && !selects_by_header(); }
   // "author~tide year=1800-1830", "" when empty; recorded with each analysis run.
   std::string describe() const;
-  // describe() of the same question however it was spelled, for the key of a stored
-  // analysis: the author's words caseless, sorted, once each; the title pattern caseless;
-  // the language tag canonical ("ENG" -> "en"); no folder, as the files it takes are in the
-  // key already. Empty when the filter is.
+  // The same question however it was spelled, for the key of a stored analysis (JSON): the
+  // author's words caseless, sorted, once each; the years; the language tag canonical
+  // ("ENG" -> "en"); the title pattern caseless; no folder, as the files it takes are in the
+  // key already. Empty when the filter tests no header.
   std::string question_key() const;
 };
 
