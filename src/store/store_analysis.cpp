@@ -257,7 +257,8 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
           "FROM runs WHERE run_id = ?1), "
           "(SELECT count(*) FROM analysis_segments WHERE run_id = ?1 AND measured = 1)), "
           "(SELECT count(*) FROM features WHERE run_id = ?1), (SELECT count(*) FROM attributions WHERE run_id = ?1), "
-          "(SELECT json_extract(parameters, '$.notes') FROM runs WHERE run_id = ?1)");
+          "(SELECT json_extract(parameters, '$.notes') FROM runs WHERE run_id = ?1), "
+          "(SELECT json_extract(parameters, '$.filter') FROM runs WHERE run_id = ?1)");
       count.bind(1, *existing);
       count.step();
       result.files = static_cast<std::size_t>(count.int64_at(0));
@@ -265,6 +266,12 @@ StoreAnalysisResult analyse_store(Database& db, std::int64_t settings_id, const 
       result.measured = static_cast<std::size_t>(count.int64_at(2));
       result.features = static_cast<std::size_t>(count.int64_at(3));
       result.attributions = static_cast<std::size_t>(count.int64_at(4));
+      // Asked before in other words (--author "Tide, Mara" after "mara tide"): its notes
+      // name the filter in those, so they are said first.
+      if (const std::string asked = count.text_at(6); asked != filter.describe())
+        result.notes.push_back("the same question was asked before as " +
+                               (asked.empty() ? std::string("(no filter)") : "(" + asked + ")") +
+                               "; its analysis is given again, with its notes in those words");
       // Its notes, said again: the same segments give the same cautions.
       const nlohmann::json notes = nlohmann::json::parse(count.text_at(5), nullptr, false);
       if (notes.is_array())

@@ -78,18 +78,24 @@ mtest.check(expected("Kind") == {"work-00.xml", "work-02.xml", "work-08.xml", "w
 # Spellings of one question are answered by the analysis stored for the first: the words in
 # another order, another letter case, the typeset apostrophe (docs/store.md; the rule of
 # tests/pylib/author_rule.py takes the same files for each).
+# The answer says in which words the question was asked before, as its notes are in those.
 def analysis_run(args):
     proc = mtest.run(["analyse-store", "--store", store, "--min-tokens", "100"] + args)
-    return proc.stdout.split(":")[0]
+    return proc.stdout.split(":")[0], proc.stderr
 
 
 for first, again in (("Oskar Kind", "KIND, oskar"), ("O'Neill", "o’neill"), ("Kind", "kind; KIND")):
     mtest.check(expected(first) == expected(again) and len(expected(first)) >= 2,
                 "%r and %r take different files by the rule, or fewer than two" % (first, again))
-    said = analysis_run(["--author", first, "--recompute"])
+    said, _ = analysis_run(["--author", first, "--recompute"])
     mtest.check(re.fullmatch(r"analysis run \d+", said) is not None, "--author %r: %r" % (first, said))
-    mtest.check(analysis_run(["--author", again]) == said + " (unchanged, reused)",
+    said_again, notes = analysis_run(["--author", again])
+    mtest.check(said_again == said + " (unchanged, reused)",
                 "--author %r after %r: not the stored answer (%s)" % (again, first, said))
+    mtest.check("asked before as (author~%s)" % first in notes,
+                "--author %r after %r: the first wording is not named: %r" % (again, first, notes))
+    _, notes = analysis_run(["--author", first])
+    mtest.check("asked before as" not in notes, "--author %r asked again alike: %r" % (first, notes))
 
 # Two questions are never taken for one: an author word may read like another filter's part
 # ("year=1870-1870"). The invented letters of examples/ with such an author and one letter
