@@ -8,6 +8,7 @@ analysis must say which paths hold one content. An archive without a copy gets n
 """
 import os
 import shutil
+import signal
 import sys
 
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
@@ -110,6 +111,28 @@ for path in broken_paths:
     mtest.check(any(line.startswith("manicule: failed: " + path + ":") for line in proc.stderr.splitlines()),
                 "%s not reported failing with its path: %s"
                 % (path, proc.stderr))
+
+# The same, stopped by Ctrl-C (SIGINT) after the three copies (one thread: the largest
+# files first, and the cut play is larger than the others): the interrupted run counts all
+# three failing, though the failure was found under one path alone.
+stopped_archive = os.path.join(tmp, "stopped")
+plays = storecheck.copy_plays(storecheck.pick_plays(6, max_size=60000), os.path.join(stopped_archive, "plays"))
+with open(os.path.join(storecheck.GERDRACOR, storecheck.pick_plays(1, min_size=200000, max_size=400000)[0]),
+          encoding="utf-8") as f:
+    big = f.read()
+for folder in ("x", "y", "z"):
+    os.makedirs(os.path.join(stopped_archive, folder))
+    with open(os.path.join(stopped_archive, folder, "cut.xml"), "w", encoding="utf-8") as f:
+        f.write(big[: len(big) // 2])
+cut_size = os.path.getsize(os.path.join(stopped_archive, "x", "cut.xml"))
+mtest.check(all(os.path.getsize(p) < cut_size for p in plays), "a play is larger than the cut one")
+stopped_store = os.path.join(tmp, "stopped.sqlite")
+code, reported, _ = storecheck.run_stopped([mtest.BIN, "batch", stopped_archive, "--store", stopped_store, "--unit",
+                                            "speaker", "--threads", "1", "--verbose"], 3, signal.SIGINT)
+run = storecheck.last_run(stopped_store)
+mtest.check(code == 128 + signal.SIGINT and run["status"] == "interrupted" and run["files_failed"] == 3,
+            "stopped after the copies of a malformed file: exit %d, status %s, failed %d (reported %d)"
+            % (code, run["status"], run["files_failed"], reported))
 
 # With the copy gone, no such note.
 os.remove(copy)
