@@ -34,6 +34,7 @@ const char* outcome_word(store::FileOutcome outcome) {
   switch (outcome) {
     case store::FileOutcome::unchanged: return "unchanged";
     case store::FileOutcome::hashed: return "hashed (content known)";
+    case store::FileOutcome::copy: return "hashed (the content of another file read in this run)";
     case store::FileOutcome::read: return "read";
     case store::FileOutcome::failed: return "failed";
   }

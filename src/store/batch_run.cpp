@@ -465,9 +465,13 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
         writer.write_file(f, reading.sha256, "");
         ++counters.files_hashed;
         auto r = readings.find(reading.sha256);
-        if (r == readings.end()) copies_of_new.emplace_back(f.path, reading.sha256);
-        else if (r->second.failed) failing[f.path] = failure_for(r->second.error, f.path);
-        outcome = FileOutcome::hashed;
+        if (r == readings.end()) {
+          copies_of_new.emplace_back(f.path, reading.sha256);
+          outcome = FileOutcome::copy;
+        } else {
+          if (r->second.failed) failing[f.path] = failure_for(r->second.error, f.path);
+          outcome = FileOutcome::hashed;
+        }
       } else {
         ++counters.files_read;
         if (reading.sha256.empty()) {

@@ -49,7 +49,9 @@ struct BatchOptions {
   std::optional<std::size_t> keep_counts_of_segments_from;
 };
 
-enum class FileOutcome { unchanged, hashed, read, failed };
+// What became of a file opened: `hashed` when its content is stored already, `copy` when
+// another file of this run is read for it (a copy new to the store: it fares as that one).
+enum class FileOutcome { unchanged, hashed, copy, read, failed };
 
 struct BatchProgress {
   std::size_t files_done = 0;

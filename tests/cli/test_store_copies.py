@@ -102,8 +102,14 @@ try:
 except etree.XMLSyntaxError:
     pass
 broken_store = os.path.join(tmp, "broken.sqlite")
-proc = mtest.run(["batch", broken_archive, "--store", broken_store, "--unit", "letter", "--quiet"], check=False)
+proc = mtest.run(["batch", broken_archive, "--store", broken_store, "--unit", "letter", "--quiet", "--verbose"],
+                 check=False)
 run = storecheck.last_run(broken_store)
+# --verbose says of each copy that it was taken as another file's content, not as a content
+# known (whose outcome the store holds already).
+outcomes = sorted(line.split(": /")[0] for line in proc.stderr.splitlines() if line.endswith("cut.xml"))
+mtest.check(outcomes == ["failed"] + ["hashed (the content of another file read in this run)"] * 2,
+            "--verbose of three copies of a malformed file: %r" % outcomes)
 mtest.check(proc.returncode == 1 and run["files_read"] == 1 and run["files_hashed"] == 2 and run["files_failed"] == 3,
             "three copies of a malformed file: exit %d, read %d, hashed %d, failed %d: %s"
             % (proc.returncode, run["files_read"], run["files_hashed"], run["files_failed"], proc.stderr))
