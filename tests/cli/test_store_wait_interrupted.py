@@ -9,7 +9,6 @@ The moment is found from outside: the signal is sent once batch catches SIGINT (
 is installed right before it opens the store), so it lands in the wait or just before it; the
 holder keeps every attempt from taking the store, and the old build waited out the 1.5 s.
 """
-import hashlib
 import os
 import signal
 import subprocess
@@ -19,11 +18,6 @@ import time
 sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "pylib"))
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
-
-
-def sha256_of(path):
-    with open(path, "rb") as f:
-        return hashlib.sha256(f.read()).hexdigest()
 
 
 def catches_sigint(pid):
@@ -48,7 +42,7 @@ archive = os.path.join(tmp, "archive")
 storecheck.copy_plays(storecheck.pick_plays(3), archive)
 store = os.path.realpath(os.path.join(tmp, "held.sqlite"))
 mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--quiet"])
-before = sha256_of(store)
+before = storecheck.sha256_of(store)
 
 holder = storecheck.connect(store)
 holder.execute("PRAGMA locking_mode = EXCLUSIVE")
@@ -70,6 +64,6 @@ mtest.check(proc.returncode == 128 + signal.SIGINT,
 mtest.check("interrupted while waiting for the store" in err and store in err and "nothing read or written" in err,
             "the message does not say what the stop left: %r" % err)
 mtest.check("in use by another program" not in err, "the stop was answered as the refusal after the wait: %r" % err)
-mtest.check(sha256_of(store) == before, "the store's bytes changed")
+mtest.check(storecheck.sha256_of(store) == before, "the store's bytes changed")
 mtest.check(storecheck.integrity(store) == "ok", "integrity_check of the store after the stop")
 mtest.done()
