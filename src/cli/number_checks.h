@@ -6,9 +6,7 @@
 #pragma once
 #include <CLI/CLI.hpp>
 
-#include <charconv>
-#include <string_view>
-#include <system_error>
+#include "core/whole_number.h"  // parse_digits, for the options read by hand
 
 namespace manicule::cli {
 
@@ -19,14 +17,5 @@ CLI::Validator at_least_one();  // a whole number >= 1 (with the sign check belo
 // Adds to every unsigned option of `app` and its subcommands a check that refuses a sign,
 // with a message naming the option (exit code 2, as any other bad value).
 void refuse_signs_on_unsigned_options(CLI::App& app);
-
-// `digits` as a whole number in `out`: digits only, all of them (std::stoul would take
-// "1000x" as 1000, " 5" as 5 and "-1" as 2^64 - 1). False if they are not, or overflow.
-template <typename Unsigned>
-bool parse_digits(std::string_view digits, Unsigned& out) {
-  const char* end = digits.data() + digits.size();
-  const auto [stop, ec] = std::from_chars(digits.data(), end, out);
-  return !digits.empty() && ec == std::errc() && stop == end;
-}
 
 }  // namespace manicule::cli

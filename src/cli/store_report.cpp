@@ -16,8 +16,8 @@ void report_batch(std::ostream& out, const std::string& store, const store::Batc
   out << "store " << store << ": batch run " << s.run_id << ": " << c.files_found << " file(s): " << c.files_read
       << " read, " << c.files_hashed << " hashed and known, " << c.files_unchanged << " unchanged, " << c.files_failed
       << " failing";
-  if (s.files_removed) {
-    out << "; " << s.files_removed << " no longer found";
+  if (!s.removed.empty()) {
+    out << "; " << s.removed.size() << " no longer found";
     if (s.removed_content_kept)
       out << " (" << s.removed_content_kept << " of them with their content now under another path: moved or renamed?)";
   }

@@ -2,27 +2,22 @@
 
 #include <sys/stat.h>
 
-#include <charconv>
 #include <filesystem>
 #include <functional>
 
 #include "core/corpus.h"
 #include "core/sha256.h"
+#include "core/whole_number.h"
 
 namespace manicule::store {
 
 namespace fs = std::filesystem;
 
 std::optional<Shard> shard_from_text(std::string_view text) {
-  const auto whole_number = [](std::string_view digits, unsigned& out) {
-    const char* end = digits.data() + digits.size();
-    const auto [stop, ec] = std::from_chars(digits.data(), end, out);
-    return !digits.empty() && ec == std::errc() && stop == end;
-  };
   Shard s;
   const std::size_t slash = text.find('/');
-  if (slash == std::string_view::npos || !whole_number(text.substr(0, slash), s.index) ||
-      !whole_number(text.substr(slash + 1), s.count))
+  if (slash == std::string_view::npos || !parse_digits(text.substr(0, slash), s.index) ||
+      !parse_digits(text.substr(slash + 1), s.count))
     return std::nullopt;
   return s;
 }
@@ -71,7 +66,7 @@ std::vector<ArchiveFile> list_archive_files(const std::vector<std::string>& inpu
     };
     std::function<bool(const std::string&)> in_the_folder;  // for the files left aside
     if (!filter.folder.empty())
-      in_the_folder = [&](const std::string& path) { return in_folder.holds(path, relative_to_folder(path, input)); };
+      in_the_folder = [&](const std::string& path) { return in_folder.holds(path, relative_of(path)); };
     const std::vector<std::string> found = expand_inputs({input}, &unlisted, &left_aside, in_the_folder);
     if (found.empty()) empty_inputs.push_back(input);
     for (const auto& path : found) {

@@ -203,13 +203,24 @@ void note_files_maybe_stored_twice(const std::vector<ArchiveFile>& files, const 
   }
 }
 
+// The paths of the files that leave the store in this run (not those found under another
+// spelling), in path order: named by --verbose, and kept with the run (up to a bound).
+std::vector<std::string> removed_paths(const std::vector<VanishedFile>& vanished) {
+  std::vector<std::string> out;
+  for (const VanishedFile& f : vanished)
+    if (!f.respelled) out.push_back(f.path);
+  std::sort(out.begin(), out.end());
+  return out;
+}
+
 void remove_vanished(Database& db, const std::vector<VanishedFile>& vanished, BatchSummary& summary) {
   std::set<std::string> paths;
   for (const VanishedFile& f : vanished) {
     paths.insert(f.path);
-    ++(f.respelled ? summary.files_respelled : summary.files_removed);
+    if (f.respelled) ++summary.files_respelled;
   }
   remove_files(db, paths);
+  summary.removed = removed_paths(vanished);
   // A file whose content another path of the store holds now was most often moved or
   // renamed: said, so that a folder renamed does not read as files lost.
   Statement held = db.prepare("SELECT 1 FROM files WHERE sha256 = ?1 LIMIT 1");
@@ -219,16 +230,6 @@ void remove_vanished(Database& db, const std::vector<VanishedFile>& vanished, Ba
     if (held.step()) ++summary.removed_content_kept;
     held.reset();
   }
-}
-
-// The paths of the files that leave the store in this run (not those found under another
-// spelling), in path order: named by --verbose, and kept with the run (up to a bound).
-std::vector<std::string> removed_paths(const std::vector<VanishedFile>& vanished) {
-  std::vector<std::string> out;
-  for (const VanishedFile& f : vanished)
-    if (!f.respelled) out.push_back(f.path);
-  std::sort(out.begin(), out.end());
-  return out;
 }
 
 // Kept with the run once the files are removed (a run stopped before keeps them): their
@@ -499,7 +500,6 @@ BatchSummary run_batch(Database& db, const Request& request, const BatchOptions&
     });
 
     remove_vanished(db, vanished, summary);
-    summary.removed = removed_paths(vanished);
     record_removed(db, summary.run_id, summary.removed);
     refresh_file_stems(db);
     add_failing_copies();

@@ -77,8 +77,7 @@ struct BatchSummary {
   std::int64_t settings_id = 0;
   RunCounters counters;
   std::vector<BatchFailure> failures;  // every file failing now, in path order
-  std::size_t files_removed = 0;       // rows of files no longer found
-  std::vector<std::string> removed;    // their paths, in path order
+  std::vector<std::string> removed;    // the files no longer found (their rows removed), in path order
   // Of those, the files whose content the store holds after the run under another path
   // (moved or renamed, most often, or copied before they went).
   std::size_t removed_content_kept = 0;
