@@ -19,7 +19,6 @@ integrity_check.
 """
 import os
 import re
-import shutil
 import signal
 import subprocess
 import sys

@@ -9,7 +9,6 @@ sqlite3 then finds it damaged (PRAGMA quick_check, the outside reference), and t
 refuse it (exit 3, the store named as damaged) and leave its bytes as they were (hashlib).
 The undamaged store passes the same run with exit 0.
 """
-import hashlib
 import os
 import random
 import shutil
@@ -21,10 +20,6 @@ sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), ".."
 import mtest  # noqa: E402
 import storecheck  # noqa: E402
 
-
-def file_sha256(path):
-    with open(path, "rb") as f:
-        return hashlib.sha256(f.read()).hexdigest()
 
 
 with tempfile.TemporaryDirectory() as tmp:
@@ -52,13 +47,13 @@ with tempfile.TemporaryDirectory() as tmp:
     db.close()
     mtest.check(reference != "ok", "SQLite finds the overwritten page whole: %r" % reference)
     # (Python's sqlite3 reading it leaves no log beside it: nothing was written.)
-    before = file_sha256(damaged)
+    before = storecheck.sha256_of(damaged)
 
     proc = mtest.run(["batch", archive, "--store", damaged, "--verify-hashes"] + common, check=False)
     mtest.check(proc.returncode == 3 and ("the store %s is damaged" % damaged) in proc.stderr
                 and proc.stderr.count("\n") == 1,
                 "batch --verify-hashes over a damaged store: exit %d, %r" % (proc.returncode, proc.stderr))
-    mtest.check(file_sha256(damaged) == before, "the refused run changed the damaged store's bytes")
+    mtest.check(storecheck.sha256_of(damaged) == before, "the refused run changed the damaged store's bytes")
 
     proc = mtest.run(["batch", archive, "--store", good, "--verify-hashes"] + common, check=False)
     mtest.check(proc.returncode == 0 and "8 hashed and known" in proc.stdout,

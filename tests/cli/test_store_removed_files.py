@@ -8,7 +8,6 @@ summary counts the files gone whose content is now under another path; --verbose
 every path that left ("removed: PATH"), in path order; and the run's parameters keep them
 (`$.removed`, read with Python's sqlite3 and json modules).
 """
-import hashlib
 import json
 import os
 import shutil
@@ -25,10 +24,6 @@ def walk(folder):
     return sorted(os.path.join(d, n) for d, _, names in os.walk(folder) for n in names)
 
 
-def digest(path):
-    with open(path, "rb") as f:
-        return hashlib.sha256(f.read()).hexdigest()
-
 
 with tempfile.TemporaryDirectory() as tmp:
     archive = os.path.join(tmp, "archive")
@@ -38,13 +33,13 @@ with tempfile.TemporaryDirectory() as tmp:
     store = os.path.join(tmp, "archive.sqlite")
     mtest.run(["batch", archive, "--store", store, "--unit", "speaker", "--quiet"])
     before = walk(archive)
-    digest_before = {p: digest(p) for p in before}
+    digest_before = {p: storecheck.sha256_of(p) for p in before}
 
     shutil.move(os.path.join(archive, "moving"), os.path.join(archive, "moved"))
     shutil.rmtree(os.path.join(archive, "going"))
     after = walk(archive)
     gone = sorted(set(before) - set(after))
-    kept_contents = {digest(p) for p in after}
+    kept_contents = {storecheck.sha256_of(p) for p in after}
     # the paths gone whose content (as hashed before) the archive still holds somewhere
     moved = [p for p in gone if digest_before[p] in kept_contents]
     mtest.check(len(gone) == 9 and len(moved) == 5, "the archive changed as meant: %d gone, %d moved"

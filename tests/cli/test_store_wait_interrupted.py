@@ -10,6 +10,7 @@ is installed right before it opens the store), so it lands in the wait or just b
 holder keeps every attempt from taking the store, and the old build waited out the 1.5 s.
 """
 import os
+import shutil
 import signal
 import subprocess
 import sys
@@ -26,7 +27,7 @@ def catches_sigint(pid):
     the store, and nothing earlier does. Before its exec the child of the fork is still this
     script's Python, which catches SIGINT too, hence the look at /proc/PID/exe first."""
     try:
-        if os.readlink("/proc/%d/exe" % pid) != os.path.realpath(mtest.BIN):
+        if os.readlink("/proc/%d/exe" % pid) != os.path.realpath(shutil.which(mtest.BIN)):
             return False
         with open("/proc/%d/status" % pid) as f:
             for line in f:
